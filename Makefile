@@ -1,0 +1,109 @@
+# opwin - one plain Makefile. `make test` and `make demo` install what is
+# missing (deps), build and run. Settable variables first.
+CC       ?= gcc
+BUILD    ?= build
+PREFIX   ?= /usr/local
+OPT      ?= -O2
+SANFLAGS ?=
+# -Werror under CI (CI=true is set by the CI runner).
+WERROR   ?= $(if $(CI),-Werror,)
+
+PKGS     := udunits libcjson cairo cairo-ft freetype2 gsl
+WARN     := -Wall -Wextra -Wshadow -Wconversion -Wstrict-prototypes \
+            -Wmissing-prototypes -Wno-sign-conversion
+CPPFLAGS += -Ilib -D_POSIX_C_SOURCE=200809L -D_DEFAULT_SOURCE
+CFLAGS   += -std=c11 $(OPT) -g -fopenmp $(WARN) $(WERROR) $(SANFLAGS) -MMD -MP \
+            $(shell pkg-config --cflags $(PKGS) 2>/dev/null)
+LDLIBS   += $(shell pkg-config --libs $(PKGS) 2>/dev/null) -lhpdf -lm
+LDFLAGS  += -fopenmp $(SANFLAGS)
+TEST_LIBS := $(shell pkg-config --libs cmocka 2>/dev/null)
+
+LIB_SRC  := $(sort $(wildcard lib/*.c))
+CLI_SRC  := $(sort $(wildcard cli/*.c))
+TEST_SRC := $(sort $(wildcard tests/test_*.c))
+SUP_SRC  := $(sort $(wildcard tests/support/*.c))
+LIB_OBJ  := $(LIB_SRC:%.c=$(BUILD)/%.o)
+CLI_OBJ  := $(CLI_SRC:%.c=$(BUILD)/%.o)
+SUP_OBJ  := $(SUP_SRC:%.c=$(BUILD)/%.o)
+TESTS    := $(TEST_SRC:tests/%.c=$(BUILD)/tests/%)
+LIBA     := $(if $(filter build,$(BUILD)),lib/libopwin.a,$(BUILD)/libopwin.a)
+OPWIN    := $(BUILD)/opwin
+
+# Debian packages (shared/LIBRARIES.md, verified on a fresh Debian 12).
+APT_PKGS := build-essential pkg-config libcjson-dev libudunits2-dev \
+            libcairo2-dev libhpdf-dev libcmocka-dev libgsl-dev \
+            fonts-dejavu-core poppler-utils valgrind
+FONT     := /usr/share/fonts/truetype/dejavu/DejaVuSans.ttf
+
+.PHONY: all deps test check-run demo bench sanitize lint format clean install
+
+all: $(LIBA) $(OPWIN)
+
+# Install only when something is missing; re-read pkg-config afterwards by
+# running the real work in a sub-make.
+deps:
+	@missing=0; \
+	for p in $(PKGS) cmocka; do pkg-config --exists $$p || missing=1; done; \
+	[ -f /usr/include/hpdf.h ] || missing=1; \
+	[ -f $(FONT) ] || missing=1; \
+	command -v pdftotext >/dev/null || missing=1; \
+	command -v valgrind >/dev/null || missing=1; \
+	if [ $$missing = 1 ]; then \
+	  echo "deps: installing missing Debian packages"; \
+	  apt-get update -qq && \
+	  DEBIAN_FRONTEND=noninteractive apt-get install -y -qq \
+	    --no-install-recommends $(APT_PKGS) >/dev/null || exit 1; \
+	fi
+
+$(LIBA): $(LIB_OBJ)
+	@mkdir -p $(dir $@)
+	$(AR) rcs $@ $^
+
+$(OPWIN): $(CLI_OBJ) $(LIBA)
+	$(CC) $(LDFLAGS) -o $@ $(CLI_OBJ) $(LIBA) $(LDLIBS)
+
+$(BUILD)/%.o: %.c
+	@mkdir -p $(dir $@)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -c -o $@ $<
+
+$(BUILD)/tests/%: $(BUILD)/tests/%.o $(SUP_OBJ) $(LIBA)
+	$(CC) $(LDFLAGS) -o $@ $< $(SUP_OBJ) $(LIBA) $(LDLIBS) $(TEST_LIBS)
+
+test: deps
+	@$(MAKE) --no-print-directory check-run
+
+check-run: all $(TESTS)
+	@OPWIN=$(OPWIN) sh tests/run.sh $(TESTS)
+
+demo: deps
+	@$(MAKE) --no-print-directory all
+	@sh demo/run.sh $(OPWIN)
+
+bench: all
+	@sh tests/bench.sh $(OPWIN)
+
+# ASan + UBSan build in its own folder, running every test.
+sanitize: deps
+	@$(MAKE) --no-print-directory BUILD=build-san OPT=-O1 \
+	  SANFLAGS="-fsanitize=address,undefined -fno-omit-frame-pointer -fno-sanitize-recover=undefined" \
+	  check-run
+
+lint:
+	cppcheck --quiet --enable=warning,performance,portability \
+	  --error-exitcode=1 --inline-suppr -Ilib lib cli
+
+format:
+	clang-format -i lib/*.c lib/*.h cli/*.c cli/*.h tests/*.c
+
+clean:
+	rm -rf build build-san lib/libopwin.a
+
+install: all
+	install -d $(DESTDIR)$(PREFIX)/bin $(DESTDIR)$(PREFIX)/lib \
+	  $(DESTDIR)$(PREFIX)/include/opwin
+	install -m 755 $(OPWIN) $(DESTDIR)$(PREFIX)/bin/opwin
+	install -m 644 $(LIBA) $(DESTDIR)$(PREFIX)/lib/libopwin.a
+	install -m 644 lib/ow_*.h lib/opwin.h $(DESTDIR)$(PREFIX)/include/opwin
+
+-include $(LIB_OBJ:.o=.d) $(CLI_OBJ:.o=.d) $(SUP_OBJ:.o=.d) \
+         $(TESTS:=.d)
