@@ -1,0 +1,67 @@
+/* cli.h - what the subcommands share: option defaults, loading a study,
+ * reporting a failure with its exit code. The CLI reaches the library only
+ * through lib/opwin.h. */
+#ifndef OW_CLI_H
+#define OW_CLI_H
+
+#include "opwin.h"
+
+/* Exit codes (DESIGN.md). */
+enum {
+	CLI_OK = 0,
+	CLI_INPUT = 1,   /* inputs rejected */
+	CLI_USAGE = 2,   /* usage error */
+	CLI_COMPUTE = 3, /* computation failed */
+	CLI_OUTPUT = 4,  /* output could not be written */
+};
+
+/* Options every command accepts. */
+struct cli_common {
+	enum ow_unit_system units;
+	int jobs;  /* 0: all cores */
+	int quiet;
+};
+
+/* One subcommand: `int cmd_<name>(int argc, char **argv)`, argv[0] is the
+ * command's name. */
+struct cli_command {
+	const char *name;
+	int (*run)(int argc, char **argv);
+	const char *summary;
+};
+
+int cmd_check(int argc, char **argv);
+
+/* Map a library status to the exit code. */
+int cli_exit_code(enum ow_status st);
+
+/* Print "opwin <cmd>: <message>" to stderr and return the exit code. */
+int cli_fail(const char *cmd, enum ow_status st, const struct ow_diag *d);
+
+/* Print a usage error with a hint to --help; returns CLI_USAGE. */
+int cli_usage_error(const char *cmd, const char *msg);
+
+/* Long options every command takes; put first in its option table. */
+#define CLI_COMMON_LONGOPTS                                   \
+	{"units", required_argument, NULL, 'u'},              \
+	{"jobs", required_argument, NULL, 'j'},               \
+	{"quiet", no_argument, NULL, 'q'},                    \
+	{"help", no_argument, NULL, 'h'},                     \
+	{"version", no_argument, NULL, 'V'}
+
+/* Print the version line (for --version). */
+void cli_version(void);
+
+/* Handle one of the common long options (id is the getopt_long return
+ * value: 'u' units, 'j' jobs, 'q' quiet). Returns 0, or CLI_USAGE after
+ * printing why. */
+int cli_common_option(const char *cmd, struct cli_common *c, int id,
+		      const char *arg);
+
+/* Load units and a study; on failure print and return the exit code (the
+ * caller then returns it). On success *u and *study are owned by the caller:
+ * ow_units_destroy(*u), free(*study). */
+int cli_load_study(const char *cmd, const char *path, struct ow_units **u,
+		   struct ow_study **study);
+
+#endif

@@ -1,0 +1,160 @@
+/* cmd_check.c - `opwin check STUDY.json`: validate the inputs and print the
+ * derived screw data with common-practice warnings. */
+#include "cli.h"
+
+#include <getopt.h>
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+
+#define OW_PI 3.14159265358979323846
+
+static void help(void)
+{
+	printf("usage: opwin check STUDY.json [--json] [--units si|us]\n\n"
+	       "Reads the study and the screw and resin files it names, "
+	       "checks every value\n(units, ranges, geometry) and prints "
+	       "the derived screw data: sections,\nL/D, helix angle, "
+	       "compression ratios, clearance, channel volume per turn,\n"
+	       "and warnings drawn from common practice.\n\n"
+	       "  --json         print the derived data as JSON (SI keys)\n"
+	       "  --units si|us  units for people (default si)\n"
+	       "exit codes: 0 ok, 1 inputs rejected, 2 usage\n");
+}
+
+static double disp(const struct cli_common *c, enum ow_dim dim, double si)
+{
+	return ow_display_value(c->units, dim, si);
+}
+
+static const char *lab(const struct cli_common *c, enum ow_dim dim)
+{
+	return ow_display_label(c->units, dim);
+}
+
+static void print_screw(const struct ow_screw *s, const struct cli_common *c)
+{
+	double D = s->diameter_m;
+	int dp = c->units == OW_SYS_US ? 3 : 2, i;
+
+	printf("screw   %s\n", s->name);
+	printf("  diameter %.*f %s, lead %.*f %s, %d flight(s), L/D %.2f\n",
+	       dp, disp(c, OW_DIM_LENGTH, D), lab(c, OW_DIM_LENGTH), dp,
+	       disp(c, OW_DIM_LENGTH, s->lead_m), lab(c, OW_DIM_LENGTH),
+	       s->flights, ow_screw_ld(s));
+	printf("  helix angle %.4f deg at the barrel, channel width %.*f %s\n",
+	       ow_screw_helix(s, D) * 180.0 / OW_PI, dp,
+	       disp(c, OW_DIM_LENGTH, ow_screw_width(s, D)),
+	       lab(c, OW_DIM_LENGTH));
+	printf("  compression ratio %.3f (depth), %.3f (cross-section)\n",
+	       ow_screw_compression_depth(s), ow_screw_compression_area(s));
+	printf("  flight clearance %.*f %s (new), feed turn volume %.1f cm3\n",
+	       dp + 1, disp(c, OW_DIM_LENGTH, s->clearance_m),
+	       lab(c, OW_DIM_LENGTH),
+	       ow_screw_free_area(s, 0.0) * s->lead_m * 1e6);
+	printf("\n  %-2s %-9s %7s %7s %9s %9s %9s\n", "#", "section",
+	       "from D", "to D", "depth in", "depth out", "clearance");
+	for (i = 0; i < s->n_sections; i++) {
+		const struct ow_section *sec = &s->sections[i];
+		int mix = sec->type == OW_SEC_MIXER;
+		double mid = 0.5 * (sec->start_m + sec->end_m);
+
+		printf("  %-2d %-9s %7.2f %7.2f %9.*f %9.*f %9.*f %s\n", i + 1,
+		       ow_section_name(sec->type), sec->start_m / D,
+		       sec->end_m / D, dp,
+		       disp(c, OW_DIM_LENGTH,
+			    mix ? sec->gap_m : sec->depth_start_m),
+		       dp,
+		       disp(c, OW_DIM_LENGTH, mix ? sec->gap_m : sec->depth_m),
+		       dp + 1, disp(c, OW_DIM_LENGTH, ow_screw_clearance(s, mid)),
+		       lab(c, OW_DIM_LENGTH));
+	}
+}
+
+static void print_line(const struct ow_study *st, const struct cli_common *c)
+{
+	const struct ow_line *l = &st->line;
+	int i;
+
+	printf("\nresin   %s (melting point %.1f %s)\n", st->resin.name,
+	       disp(c, OW_DIM_TEMPERATURE, st->resin.melt_temp_K),
+	       lab(c, OW_DIM_TEMPERATURE));
+	printf("barrel  ");
+	for (i = 0; i < l->n_zones; i++)
+		printf("%s%.0f %s to %.1f D", i ? ", " : "",
+		       disp(c, OW_DIM_TEMPERATURE, l->zones[i].set_K),
+		       lab(c, OW_DIM_TEMPERATURE),
+		       l->zones[i].to_m / st->screw.diameter_m);
+	printf("\nfeed    %.0f %s\n", disp(c, OW_DIM_TEMPERATURE, l->feed_temp_K),
+	       lab(c, OW_DIM_TEMPERATURE));
+}
+
+static void print_warnings(const struct ow_screw *s)
+{
+	struct ow_warning w[OW_MAX_WARNINGS];
+	int n = ow_advise_screw(s, w, OW_MAX_WARNINGS), i;
+
+	printf("\n%s\n", n ? "warnings:" : "no warnings from the rules of "
+					    "thumb");
+	for (i = 0; i < n; i++)
+		printf("  - %s\n", w[i].text);
+}
+
+static int run(const char *path, int json, const struct cli_common *c)
+{
+	struct ow_units *u = NULL;
+	struct ow_study *st = NULL;
+	struct ow_diag d = {{0}};
+	int rc = cli_load_study("check", path, &u, &st);
+	char *text = NULL;
+	enum ow_status s;
+
+	if (rc)
+		return rc;
+	if (json) {
+		s = ow_results_check_json(st, &text, &d);
+		if (s != OW_OK)
+			rc = cli_fail("check", s, &d);
+		else
+			printf("%s\n", text);
+		free(text);
+	} else {
+		printf("study   %s\n", st->title);
+		print_screw(&st->screw, c);
+		print_line(st, c);
+		print_warnings(&st->screw);
+	}
+	free(st);
+	ow_units_destroy(u);
+	return rc;
+}
+
+int cmd_check(int argc, char **argv)
+{
+	static const struct option opts[] = {
+		CLI_COMMON_LONGOPTS,
+		{"json", no_argument, NULL, 'J'},
+		{NULL, 0, NULL, 0},
+	};
+	struct cli_common c = {OW_SYS_SI, 0, 0};
+	int json = 0, id, rc;
+
+	optind = 1;
+	while ((id = getopt_long(argc, argv, "hq", opts, NULL)) != -1) {
+		if (id == 'h') {
+			help();
+			return CLI_OK;
+		}
+		if (id == 'V') {
+			cli_version();
+			return CLI_OK;
+		}
+		if (id == 'J')
+			json = 1;
+		else if ((rc = cli_common_option("check", &c, id, optarg)))
+			return rc;
+	}
+	if (optind != argc - 1)
+		return cli_usage_error("check", "expects one STUDY.json");
+	return run(argv[optind], json, &c);
+}

@@ -1,0 +1,31 @@
+/* ow_results.h - machine-readable outputs: JSON and CSV texts in the units
+ * their keys name (the output contract of DESIGN.md), whatever display unit
+ * system people read. Numbers are printed locale-independently with enough
+ * digits to round-trip. Returned strings are malloc'd: the caller frees them
+ * with free(). */
+#ifndef OW_RESULTS_H
+#define OW_RESULTS_H
+
+#include <stddef.h>
+
+#include "ow_advise.h"
+#include "ow_config.h"
+#include "ow_status.h"
+
+/* Write x into buf with "%.17g" semantics (shortest form that round-trips
+ * is not required, but every digit needed is there); "null" for NaN/inf
+ * when json is set, "" otherwise. Returns buf. */
+char *ow_fmt_double(char *buf, size_t n, double x, int json);
+
+/* `opwin check --json`: length_D, helix_angle_deg, compression_ratio, the
+ * sections array and the warnings array (plus further derived data). */
+enum ow_status ow_results_check_json(const struct ow_study *s, char **out,
+				     struct ow_diag *d);
+
+/* Write text to path atomically: a temporary file in the same folder, then
+ * rename, so a failed write never replaces a good file. OW_EIO on failure
+ * (message names the path). */
+enum ow_status ow_results_write_file(const char *path, const char *text,
+				     size_t len, struct ow_diag *d);
+
+#endif
