@@ -11,7 +11,7 @@ WERROR   ?= $(if $(CI),-Werror,)
 PKGS     := udunits libcjson cairo cairo-ft freetype2 gsl
 WARN     := -Wall -Wextra -Wshadow -Wconversion -Wstrict-prototypes \
             -Wmissing-prototypes -Wno-sign-conversion
-CPPFLAGS += -Ilib -D_POSIX_C_SOURCE=200809L -D_DEFAULT_SOURCE
+CPPFLAGS += -Ilib -Itests/support -D_POSIX_C_SOURCE=200809L -D_DEFAULT_SOURCE
 CFLAGS   += -std=c11 $(OPT) -g -fopenmp $(WARN) $(WERROR) $(SANFLAGS) -MMD -MP \
             $(shell pkg-config --cflags $(PKGS) 2>/dev/null)
 LDLIBS   += $(shell pkg-config --libs $(PKGS) 2>/dev/null) -lhpdf -lm

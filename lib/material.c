@@ -2,6 +2,7 @@
 #include "ow_material.h"
 
 #include <math.h>
+#include <stddef.h>
 
 #define GDOT_MIN 1e-9 /* 1/s: keeps a power law finite at a wall of zero shear */
 

@@ -1,0 +1,33 @@
+/* testutil.h - helpers shared by the cmocka test programs. */
+#ifndef OW_TESTUTIL_H
+#define OW_TESTUTIL_H
+
+#include <stdarg.h>
+#include <stddef.h>
+#include <stdint.h>
+#include <setjmp.h>
+#include <cmocka.h>
+
+#include <math.h>
+
+#define OW_PI 3.14159265358979323846
+
+/* Relative closeness |a - b| <= tol * max(|b|, tiny). */
+#define assert_rel(a, b, tol) \
+	ow_test_assert_rel((a), (b), (tol), #a, __FILE__, __LINE__)
+/* Absolute closeness. */
+#define assert_abs(a, b, tol) \
+	ow_test_assert_abs((a), (b), (tol), #a, __FILE__, __LINE__)
+
+void ow_test_assert_rel(double a, double b, double tol, const char *expr,
+			const char *file, int line);
+void ow_test_assert_abs(double a, double b, double tol, const char *expr,
+			const char *file, int line);
+
+/* The 63.5 mm square-pitch single-flight screw used in Tadmor & Klein's and
+ * many textbook examples: e = 6.35 mm, one constant-depth section of depth
+ * depth_m and length 24 D. Prepared. */
+struct ow_screw;
+void ow_test_square_pitch_screw(struct ow_screw *s, double depth_m);
+
+#endif
