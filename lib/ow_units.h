@@ -34,38 +34,60 @@ enum ow_dim {
 
 struct ow_units;
 
-/* Load the UDUNITS-2 database (silenced, rpm remapped to revolutions per
- * minute, thou and Wh added). Free with ow_units_destroy. */
+/* Load the UDUNITS-2 database (error messages silenced) into *out. Unit
+ * texts are rewritten before UDUNITS sees them: rpm = revolutions per
+ * minute (a turn counts 1, so "1 Hz" = 60 rpm and "6.283185 rad/s" = 60
+ * rpm), thou = mil, Wh/kWh = W h, hp = 745.69987158227 W exactly.
+ * OW_EIO when the database cannot be read. Free with ow_units_destroy. */
 enum ow_status ow_units_create(struct ow_units **out, struct ow_diag *d);
 void ow_units_destroy(struct ow_units *u);
 
-/* Parse "63.5 mm", "200 degC", "5000 psi", "8 D" or a bare number (meaning
- * SI) into SI units of dim. diameter_m > 0 enables the "D" length unit.
- * The number is split off first (locale-independent), the unit must convert
- * to dim. Errors are OW_EINPUT with "expected a <kind> such as ..." in d
- * (without file/path: the caller prefixes those). */
+/* Parse "63.5 mm", "200 degC", "5000 psi", "8 D" into SI units of dim.
+ * diameter_m > 0 enables the "D" length unit. The number is split off first
+ * (locale-independent), the unit must convert to dim. A text without a unit
+ * ("200") is accepted only for OW_DIM_NONE (JSON numbers meaning SI are the
+ * caller's business); "%" there gives a fraction. Temperatures take degC,
+ * degF, °C, °F, K, degR; OW_DIM_TEMP_DIFF converts cv(x) - cv(0).
+ * Errors are OW_EINPUT with "\"<text>\": <problem>; expected a <kind>
+ * such as ..." in d (without file/path: the caller prefixes those);
+ * OW_EARG for NULL arguments. Not thread-safe (UDUNITS-2). */
 enum ow_status ow_units_parse(const struct ow_units *u, const char *text,
 			      enum ow_dim dim, double diameter_m, double *si,
 			      struct ow_diag *d);
 
-/* Convert number x given in unit text `unit` ("degF", "psi") to SI of dim. */
+/* Convert number x given in unit text `unit` ("degF", "psi") to SI of dim.
+ * Same rules and errors as ow_units_parse ("D" is refused: no diameter). */
 enum ow_status ow_units_convert(const struct ow_units *u, double x,
 				const char *unit, enum ow_dim dim, double *si,
 				struct ow_diag *d);
+
+/* Read text (trimmed) as one finite decimal number, '.' as the decimal
+ * point whatever the locale. OW_EINPUT for "", "nan", "1e999", "2 mm". */
+enum ow_status ow_units_parse_number(const char *text, double *x,
+				     struct ow_diag *d);
 
 /* A human name of a dimension with an example ("a length such as 63.5 mm"). */
 const char *ow_dim_expect(enum ow_dim dim);
 
 enum ow_unit_system { OW_SYS_SI, OW_SYS_US };
 
-/* Parse "si" or "us"; OW_EARG otherwise. */
+/* Parse "si" or "us" (also "SI", "US"); OW_EARG otherwise. */
 enum ow_status ow_unit_system_parse(const char *s, enum ow_unit_system *out);
 
 /* Display: value in SI -> number in the system's unit for dim, and that
  * unit's label ("mm", "°C", "MPa", "kg/h" / "in", "°F", "psi", "lb/h").
  * Pure, thread-safe. Lengths: mm / in; small lengths (clearance): use
- * OW_DIM_LENGTH too (callers choose decimals). */
+ * OW_DIM_LENGTH too (callers choose decimals). Temperature differences:
+ * K / °F (1 K = 1.8 °F). Labels are UTF-8 ("kg/m³", "N·m", "lbf·ft",
+ * "BTU/(lb·°F)", "hp·h/lb"); "" for OW_DIM_NONE. Unknown sys or dim:
+ * NAN and "". Factors: NIST SP 811 (2008) Appendix B. */
 double ow_display_value(enum ow_unit_system sys, enum ow_dim dim, double si);
 const char *ow_display_label(enum ow_unit_system sys, enum ow_dim dim);
+
+/* The inverse of ow_display_value: a number in the system's unit for dim
+ * -> SI. NAN for an unknown system or dim. Pure, thread-safe. Every label
+ * also parses back with ow_units_parse ("12.5 psi", "1.2 BTU/(lb·°F)"). */
+double ow_display_to_si(enum ow_unit_system sys, enum ow_dim dim,
+			double shown);
 
 #endif
