@@ -4,8 +4,10 @@
  * Every dimensional value is a string with its unit ("63.5 mm"), a bare
  * number meaning SI, or {"value": ..., "source": "..."} whose source is kept
  * for the report. Unknown keys are errors. Paths are relative to the file
- * that names them. Errors are OW_EINPUT (bad content) or OW_EIO (unreadable
- * file) with "<file>: <json.path>: <what was expected>" in the diag. */
+ * that names them. Every rejection of input, a missing or unreadable file
+ * included, is OW_EINPUT with "<file>: <json.path>: <what was expected>" in
+ * the diag (malformed JSON: "<file>: line L, column C: ..."). On failure
+ * the output struct holds what was read so far and must not be used. */
 #ifndef OW_CONFIG_H
 #define OW_CONFIG_H
 
