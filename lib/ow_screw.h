@@ -29,8 +29,10 @@ struct ow_section {
 	enum ow_section_type type;
 	double length_m;      /* axial length */
 	double depth_m;       /* end depth (feed/metering: the depth) */
-	/* mixer: shear gap over its lands */
+	/* mixer: gap over its barrier lands, and the number of lands the melt
+	 * can cross (0: the default of 8, from memory of fluted mixers) */
 	double gap_m;
+	int lands;
 	/* barrier: both channels' depths at start and end, the melt channel's
 	 * share of the total channel width at start and end (0..1), and the
 	 * radial clearance over the barrier flight */
