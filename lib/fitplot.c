@@ -172,8 +172,25 @@ static void grid_and_ticks(cairo_t *cr, const struct frame *f, int xaxis)
 		}
 }
 
+/* The band of shear rates screw channels and dies see, roughly 10..1000 1/s
+ * (common practice), lightly shaded so gaps in the data show. */
+static void rate_band(cairo_t *cr, const struct frame *f)
+{
+	double x0 = fmax(px(f, 10.0), f->x), x1 = fmin(px(f, 1000.0), f->x + f->w);
+
+	if (x1 <= x0)
+		return;
+	cairo_set_source_rgb(cr, 0.985, 0.965, 0.90);
+	cairo_rectangle(cr, x0, f->y, x1 - x0, f->h);
+	cairo_fill(cr);
+	cairo_set_source_rgb(cr, 0.55, 0.50, 0.40);
+	text_at(cr, 0.5 * (x0 + x1), f->y + 14, 0.5, 0.5, 12, 0,
+		"typical channel and die shear rates");
+}
+
 static void axes(cairo_t *cr, const struct frame *f, int cox_merz)
 {
+	rate_band(cr, f);
 	cairo_set_line_width(cr, 1.0);
 	grid_and_ticks(cr, f, 1);
 	grid_and_ticks(cr, f, 0);
