@@ -64,7 +64,8 @@ static const char *const section_types[] = {"feed", "taper", "metering",
 static const char *const *section_keys(enum ow_section_type t)
 {
 	static const char *const depth[] = {"type", "length", "depth", NULL};
-	static const char *const mixer[] = {"type", "length", "gap", NULL};
+	static const char *const mixer[] = {"type", "length", "gap", "lands",
+					    NULL};
 	static const char *const barrier[] = {
 		"type", "length", "solids_depth_start", "solids_depth_end",
 		"melt_depth_start", "melt_depth_end", "melt_share_start",
@@ -114,9 +115,14 @@ static enum ow_status parse_section(const struct ow_jin *j, const cJSON *o,
 		return st;
 	if (s->type == OW_SEC_BARRIER)
 		return parse_barrier(j, o, path, s);
-	if (s->type == OW_SEC_MIXER)
-		return ow_jin_qty(j, o, path, "gap", OW_DIM_LENGTH, req,
-				  &s->gap_m);
+	if (s->type == OW_SEC_MIXER) {
+		st = ow_jin_qty(j, o, path, "gap", OW_DIM_LENGTH, req,
+				&s->gap_m);
+		if (st == OW_OK) /* optional: 0 keeps the solver's default */
+			st = ow_jin_int(j, o, path, "lands", 2, 64, 0,
+					&s->lands);
+		return st;
+	}
 	return ow_jin_qty(j, o, path, "depth", OW_DIM_LENGTH, req,
 			  &s->depth_m);
 }

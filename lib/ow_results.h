@@ -9,7 +9,9 @@
 #include <stddef.h>
 
 #include "ow_advise.h"
+#include "ow_classify.h"
 #include "ow_config.h"
+#include "ow_solver.h"
 #include "ow_status.h"
 
 /* Write x into buf with "%.17g" semantics (shortest form that round-trips
@@ -21,6 +23,32 @@ char *ow_fmt_double(char *buf, size_t n, double x, int json);
  * sections array and the warnings array (plus further derived data). */
 enum ow_status ow_results_check_json(const struct ow_study *s, char **out,
 				     struct ow_diag *d);
+
+/* The figures of a point in output units, in one fixed order: the keys
+ * of `point --json` and the columns of grid.csv. */
+int ow_results_n_figures(void);
+const char *ow_results_figure_key(int i);
+double ow_results_figure(const struct ow_study *s, const struct ow_point *pt,
+			 int i);
+
+/* Status names of verdict v (violated limits and unsafe flags) into
+ * names[]; returns the count (0: safe). */
+int ow_results_status_names(const struct ow_verdict *v, const char **names,
+			    int max);
+
+/* `opwin point --json`: every figure, status (array of names), notes
+ * (informational flags), margins, zone set-points and heats. */
+enum ow_status ow_results_point_json(const struct ow_study *s,
+				     const struct ow_point *pt,
+				     const struct ow_verdict *v, char **out,
+				     struct ow_diag *d);
+
+/* `--profile`: one row per solver station (axial_D, pressure_MPa,
+ * bulk_temp_C, peak_temp_C, sbr, unmelt_fraction, depth_mm, barrel_C,
+ * shear_max_1_s). */
+enum ow_status ow_results_profile_csv(const struct ow_study *s,
+				      const struct ow_profile_row *rows,
+				      int n, char **out, struct ow_diag *d);
 
 /* Write text to path atomically: a temporary file in the same folder, then
  * rename, so a failed write never replaces a good file. OW_EIO on failure

@@ -188,3 +188,221 @@ enum ow_status ow_results_check_json(const struct ow_study *st, char **out,
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	return OW_OK;
 }
+
+/* ---- figures of a point ------------------------------------------------ */
+
+#define C_OF_K(k) ((k) - 273.15)
+
+static double per_D(const struct ow_study *s, double x)
+{
+	return x / s->screw.diameter_m;
+}
+
+static double fig(const struct ow_study *s, const struct ow_point *p, int i)
+{
+	switch (i) {
+	case 0: return p->output_kg_s * 3600.0;
+	case 1: return p->discharge_pressure_Pa * 1e-6;
+	case 2: return p->max_pressure_Pa * 1e-6;
+	case 3: return C_OF_K(p->discharge_bulk_K);
+	case 4: return C_OF_K(p->discharge_peak_K);
+	case 5: return C_OF_K(p->peak_K);
+	case 6: return p->unmelt_frac;
+	case 7: return per_D(s, p->melt_complete_m);
+	case 8: return p->max_sbr;
+	case 9: return p->power_W * 1e-3;
+	case 10: return p->torque_Nm;
+	case 11: return p->sec_J_kg / 3.6e6;
+	case 12: return p->barrel_heat_W * 1e-3;
+	case 13: return p->residence_s;
+	case 14: return per_D(s, p->melt_start_m);
+	case 15: return per_D(s, p->max_pressure_at_m);
+	case 16: return per_D(s, p->peak_at_m);
+	case 17: return p->energy_residual;
+	default: return NAN;
+	}
+}
+
+static const char *const fig_keys[] = {
+	"output_kg_h", "discharge_pressure_MPa", "max_pressure_MPa",
+	"discharge_bulk_temp_C", "discharge_peak_temp_C", "peak_temp_C",
+	"unmelt_fraction", "melt_complete_D", "max_sbr", "power_kW",
+	"torque_Nm", "sec_kWh_kg", "barrel_heat_kW", "residence_s",
+	"melt_start_D", "max_pressure_D", "peak_temp_D", "energy_residual",
+};
+
+int ow_results_n_figures(void)
+{
+	return (int)(sizeof fig_keys / sizeof fig_keys[0]);
+}
+
+const char *ow_results_figure_key(int i)
+{
+	return i >= 0 && i < ow_results_n_figures() ? fig_keys[i] : "?";
+}
+
+double ow_results_figure(const struct ow_study *s, const struct ow_point *pt,
+			 int i)
+{
+	return fig(s, pt, i);
+}
+
+int ow_results_status_names(const struct ow_verdict *v, const char **names,
+			    int max)
+{
+	int c, n = 0;
+
+	for (c = 0; c < OW_CK_COUNT; c++)
+		if ((v->bits & (1u << c)) && n < max)
+			names[n++] = ow_check_key((enum ow_check)c);
+	return n;
+}
+
+static int add_names(cJSON *o, const char *key, const char **names, int n)
+{
+	cJSON *arr = cJSON_AddArrayToObject(o, key);
+	int i;
+
+	for (i = 0; arr && i < n; i++)
+		if (!cJSON_AddItemToArray(arr, cJSON_CreateString(names[i])))
+			return 0;
+	return arr != NULL;
+}
+
+static int add_zones(cJSON *o, const struct ow_study *s,
+		     const struct ow_point *pt)
+{
+	cJSON *arr = cJSON_AddArrayToObject(o, "zones");
+	int i, ok = arr != NULL;
+
+	for (i = 0; ok && i < s->line.n_zones; i++) {
+		cJSON *z = cJSON_CreateObject();
+
+		ok = z && cJSON_AddItemToArray(arr, z);
+		ok = ok && put_num(z, "to_D", per_D(s, s->line.zones[i].to_m));
+		ok = ok && put_num(z, "set_C", C_OF_K(pt->set_K[i]));
+		ok = ok && put_num(z, "heat_kW", pt->zone_heat_W[i] * 1e-3);
+	}
+	return ok;
+}
+
+static int add_margins(cJSON *o, const struct ow_verdict *v)
+{
+	cJSON *m = cJSON_AddObjectToObject(o, "margins");
+	int c, ok = m != NULL;
+
+	for (c = 0; ok && c < OW_CK_LIMITS; c++)
+		if (!isnan(v->margin[c]))
+			ok = put_num(m, ow_check_key((enum ow_check)c),
+				     v->margin[c]);
+	return ok;
+}
+
+enum ow_status ow_results_point_json(const struct ow_study *s,
+				     const struct ow_point *pt,
+				     const struct ow_verdict *v, char **out,
+				     struct ow_diag *d)
+{
+	const char *names[OW_CK_COUNT + 8];
+	cJSON *root = cJSON_CreateObject();
+	int ok = root != NULL, i, n;
+
+	*out = NULL;
+	ok = ok && put_num(root, "rpm", pt->rpm);
+	for (i = 0; ok && i < ow_results_n_figures(); i++)
+		ok = put_num(root, fig_keys[i], fig(s, pt, i));
+	n = ow_results_status_names(v, names, OW_CK_COUNT);
+	ok = ok && add_names(root, "status", names, n);
+	n = ow_solver_flag_names(pt->flags & (OW_FLAG_BACKFLOW |
+					      OW_FLAG_NO_MELTING),
+				 names, 8);
+	ok = ok && add_names(root, "notes", names, n);
+	ok = ok && put_num(root, "iterations", pt->n_iter);
+	ok = ok && add_zones(root, s, pt);
+	ok = ok && add_margins(root, v);
+	if (ok)
+		*out = cJSON_Print(root);
+	cJSON_Delete(root);
+	if (!*out)
+		return ow_diag_set(d, OW_ENOMEM, "out of memory");
+	return OW_OK;
+}
+
+/* ---- growing text buffer for CSV --------------------------------------- */
+
+struct text {
+	char *buf;
+	size_t len, cap;
+	int oom;
+};
+
+static void text_add(struct text *t, const char *str)
+{
+	size_t n = strlen(str);
+
+	if (t->oom)
+		return;
+	if (t->len + n + 1 > t->cap) {
+		size_t cap = t->cap ? 2 * t->cap : 4096;
+		char *nb;
+
+		while (cap < t->len + n + 1)
+			cap *= 2;
+		nb = realloc(t->buf, cap);
+		if (!nb) {
+			t->oom = 1;
+			return;
+		}
+		t->buf = nb;
+		t->cap = cap;
+	}
+	memcpy(t->buf + t->len, str, n + 1);
+	t->len += n;
+}
+
+static void text_num(struct text *t, double x, int sep)
+{
+	char b[40];
+
+	if (sep)
+		text_add(t, ",");
+	text_add(t, ow_fmt_double(b, sizeof b, x, 0));
+}
+
+static enum ow_status text_done(struct text *t, char **out,
+				struct ow_diag *d)
+{
+	if (t->oom || !t->buf) {
+		free(t->buf);
+		*out = NULL;
+		return ow_diag_set(d, OW_ENOMEM, "out of memory");
+	}
+	*out = t->buf;
+	return OW_OK;
+}
+
+enum ow_status ow_results_profile_csv(const struct ow_study *s,
+				      const struct ow_profile_row *rows,
+				      int n, char **out, struct ow_diag *d)
+{
+	struct text t = {0};
+	int i;
+
+	text_add(&t, "axial_D,pressure_MPa,bulk_temp_C,peak_temp_C,sbr,"
+		     "unmelt_fraction,depth_mm,barrel_C,shear_max_1_s\n");
+	for (i = 0; i < n; i++) {
+		const struct ow_profile_row *r = &rows[i];
+
+		text_num(&t, per_D(s, r->axial_m), 0);
+		text_num(&t, r->pressure_Pa * 1e-6, 1);
+		text_num(&t, C_OF_K(r->bulk_K), 1);
+		text_num(&t, C_OF_K(r->peak_K), 1);
+		text_num(&t, r->sbr, 1);
+		text_num(&t, r->unmelt_frac, 1);
+		text_num(&t, r->depth_m * 1e3, 1);
+		text_num(&t, C_OF_K(r->barrel_K), 1);
+		text_num(&t, r->shear_max_1_s, 1);
+		text_add(&t, "\n");
+	}
+	return text_done(&t, out, d);
+}

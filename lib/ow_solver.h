@@ -1,0 +1,90 @@
+/* ow_solver.h - one operating point: march from the hopper to the screw tip
+ * through solids conveying (Darnell & Mol 1956), melting (Tadmor 1966;
+ * Tadmor & Klein 1970) and depth-resolved melt conveying, and find the
+ * throughput at which the pressure the screw builds equals what the die and
+ * screen pack need (screw-die matching, Tadmor & Gogos 2006, ch. 9).
+ *
+ * A solver object is a per-thread workspace: create one per thread, share
+ * the (read-only) study between threads. */
+#ifndef OW_SOLVER_H
+#define OW_SOLVER_H
+
+#include "ow_config.h"
+#include "ow_status.h"
+
+/* Flags of a solved point (bits). */
+#define OW_FLAG_FEED_LIMITED 0x01u  /* feed section cannot supply the rate */
+#define OW_FLAG_PLUGGING 0x02u      /* solid bed filled the channel */
+#define OW_FLAG_NOT_CONVERGED 0x04u /* screw-die match failed */
+#define OW_FLAG_BACKFLOW 0x08u      /* a band's down-channel flow floored */
+#define OW_FLAG_NO_MELTING 0x10u    /* barrel never above the melting point
+				       and no melting by dissipation */
+
+/* Figures of one operating point, SI. */
+struct ow_point {
+	double rpm;
+	double set_K[OW_MAX_ZONES];   /* zone set-points used */
+	double output_kg_s;           /* matched throughput G */
+	double discharge_pressure_Pa; /* at the screw tip (= die + screen) */
+	double max_pressure_Pa;       /* anywhere on the screw */
+	double max_pressure_at_m;
+	double discharge_bulk_K;      /* flow-weighted mean at the tip */
+	double discharge_peak_K;      /* hottest band at the tip */
+	double peak_K;                /* hottest melt anywhere (bands, film) */
+	double peak_at_m;
+	double unmelt_frac;           /* solid mass fraction at the tip */
+	double melt_start_m;          /* NAN when melting never starts */
+	double melt_complete_m;       /* NAN when solids reach the tip */
+	double max_sbr;               /* solid bed ratio X/W, max */
+	double max_sbr_at_m;
+	double plugging_at_m;         /* NAN unless plugging */
+	double power_W;               /* screw drive power (shaft) */
+	double torque_Nm;
+	double sec_J_kg;              /* drive power / throughput */
+	double barrel_heat_W;         /* net heat barrel -> resin */
+	double zone_heat_W[OW_MAX_ZONES];
+	double residence_s;           /* mean residence time hopper -> tip */
+	double energy_residual;       /* (in - out) / drive power, - */
+	int n_iter;                   /* marches done by the match */
+	unsigned flags;
+};
+
+/* One row of the axial profile of the last solved point. */
+struct ow_profile_row {
+	double axial_m;
+	double depth_m;
+	double barrel_K;
+	double pressure_Pa;
+	double bulk_K;      /* melt bulk temperature (pool or channel) */
+	double peak_K;      /* hottest melt at this station (bands, film) */
+	double sbr;         /* X/W, 0 once melted */
+	double unmelt_frac; /* solid mass flow / G */
+	double shear_max_1_s;
+};
+
+struct ow_solver;
+
+/* Create a workspace for study s (borrowed: it must outlive the solver).
+ * Sizes come from s->line.numerics. */
+enum ow_status ow_solver_create(const struct ow_study *s,
+				struct ow_solver **out, struct ow_diag *d);
+void ow_solver_destroy(struct ow_solver *sv);
+
+/* Solve at screw speed rpm (rev/min) with zone set-points set_K (NULL: the
+ * study's own). warm_kg_s > 0 is a throughput guess (e.g. a neighbouring
+ * grid point's). A point that does not converge returns OW_OK with
+ * OW_FLAG_NOT_CONVERGED set: only invalid arguments or memory fail. */
+enum ow_status ow_solver_run(struct ow_solver *sv, double rpm,
+			     const double *set_K, double warm_kg_s,
+			     struct ow_point *out, struct ow_diag *d);
+
+/* Profile of the last run (stations from hopper to tip); valid until the
+ * next run or destroy. */
+const struct ow_profile_row *ow_solver_profile(const struct ow_solver *sv,
+					       int *n_rows);
+
+/* Names of the flags set in flags, e.g. "plugging", into names[] (at most
+ * max); returns the count. */
+int ow_solver_flag_names(unsigned flags, const char **names, int max);
+
+#endif

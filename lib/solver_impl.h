@@ -1,0 +1,52 @@
+/* solver_impl.h - internals shared by solver.c (matching, public API) and
+ * solver_march.c (the march from hopper to tip at one trial throughput).
+ * Not a public header. */
+#ifndef OW_SOLVER_IMPL_H
+#define OW_SOLVER_IMPL_H
+
+#include "ow_melt.h"
+#include "ow_melting.h"
+#include "ow_solids.h"
+#include "ow_solver.h"
+
+/* Totals of one march at one trial throughput G (whole screw: all parallel
+ * channels). */
+struct march {
+	double tip_Pa;        /* pressure reached at the tip */
+	double max_Pa, max_at_m;
+	double bulk_K, peak_tip_K;
+	double peak_K, peak_at_m;
+	double unmelt;        /* solid mass fraction at the tip */
+	double melt_start_m, melt_done_m;
+	double max_sbr, max_sbr_at_m, plug_at_m;
+	double power_W;       /* drive power */
+	double barrel_W;      /* heat barrel -> resin */
+	double root_W;        /* heat root -> resin */
+	double flow_work_W;   /* sum of Q dP over the screw */
+	double zone_W[OW_MAX_ZONES];
+	double hold_kg;       /* resin held in the channel (residence) */
+	unsigned flags;
+};
+
+struct ow_solver {
+	const struct ow_study *s;
+	struct ow_melt_ws *melt;
+	double rev_s;                 /* screw speed of the current run */
+	double set_K[OW_MAX_ZONES];   /* zone set-points of the current run */
+	int n_steps;                  /* axial steps hopper -> tip */
+	double dx_m;                  /* axial step */
+	struct ow_profile_row *rows;  /* n_steps + 1 rows */
+	int n_rows;
+	int record;                   /* store the profile during a march */
+	struct ow_diag diag;          /* first failure inside a march */
+};
+
+/* March from hopper to tip at throughput g_kg_s; fills *m. Returns OW_OK,
+ * or the stage failure (the point is then not converged). */
+enum ow_status ow_solver_march(struct ow_solver *sv, double g_kg_s,
+			       struct march *m);
+
+/* Barrel temperature at axial position x of the current run. */
+double ow_solver_barrel(const struct ow_solver *sv, double x_m);
+
+#endif
