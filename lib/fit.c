@@ -20,24 +20,34 @@
 #define RATE_HI 1000.0    /* 10..1000 1/s (common practice) */
 #define MAX_STARTS 32
 
-/* How one unknown maps to SI: 10^x when logarithmic, else scale * x. */
+/* How one unknown x maps to SI: LINEAR v = scale x; LOG v = 10^x;
+ * BOUNDED v = 10^(l0 + (l1 - l0) s(x)), s the logistic function, which keeps
+ * v inside (10^l0, 10^l1): the range a resin file accepts, for parameters
+ * the data may leave undetermined (WLF c2 when the shift is nearly
+ * Arrhenius, the Yasuda a with no transition in the data). */
+enum pkind { LINEAR, LOG, BOUNDED };
+
 struct pdef {
 	const char *key;
-	int is_log;
-	double scale;
+	enum pkind kind;
+	double scale;  /* LINEAR */
+	double l0, l1; /* BOUNDED: log10 of the bounds */
 };
 
 static const struct pdef defs_power[] = {
-	{"consistency", 1, 1.0}, {"index", 0, 1.0}};
-static const struct pdef defs_cross[] = {
-	{"zero_shear", 1, 1.0}, {"index", 0, 1.0}, {"critical_stress", 1, 1.0}};
-static const struct pdef defs_cy[] = {{"zero_shear", 1, 1.0},
-				      {"index", 0, 1.0},
-				      {"time_constant", 1, 1.0},
-				      {"a", 1, 1.0}};
+	{"consistency", LOG, 1, 0, 0}, {"index", LINEAR, 1, 0, 0}};
+static const struct pdef defs_cross[] = {{"zero_shear", LOG, 1, 0, 0},
+					 {"index", LINEAR, 1, 0, 0},
+					 {"critical_stress", LOG, 1, 0, 0}};
+static const struct pdef defs_cy[] = {
+	{"zero_shear", LOG, 1, 0, 0},
+	{"index", LINEAR, 1, 0, 0},
+	{"time_constant", LOG, 1, 0, 0},
+	{"a", BOUNDED, 1, -1.30103, 1.0}}; /* 0.05 .. 10 */
 static const struct pdef defs_arrhenius[] = {
-	{"activation_energy", 0, 1e3}}; /* unknown in kJ/mol: well scaled */
-static const struct pdef defs_wlf[] = {{"c1", 0, 1.0}, {"c2", 1, 1.0}};
+	{"activation_energy", LINEAR, 1e3, 0, 0}}; /* x in kJ/mol */
+static const struct pdef defs_wlf[] = {
+	{"c1", LINEAR, 1, 0, 0}, {"c2", BOUNDED, 1, 0.0, 3.0}}; /* 1..1000 K */
 
 /* One fit: the data, the model and shift, the reference temperature. */
 struct job {
@@ -143,9 +153,57 @@ static void job_init(struct job *j, const struct ow_fit_data *data,
 		j->defs[nm + i] = &s[i];
 }
 
+static double clamp(double x, double lo, double hi)
+{
+	return x < lo ? lo : x > hi ? hi : x;
+}
+
+static double logistic(double x)
+{
+	return 1.0 / (1.0 + exp(-x));
+}
+
 static double to_si(const struct pdef *p, double x)
 {
-	return p->is_log ? pow(10.0, x) : p->scale * x;
+	switch (p->kind) {
+	case LOG:
+		return pow(10.0, x);
+	case BOUNDED:
+		return pow(10.0, p->l0 + (p->l1 - p->l0) * logistic(x));
+	default:
+		return p->scale * x;
+	}
+}
+
+/* The inverse of to_si, for starting values (kept inside the bounds). */
+static double from_si(const struct pdef *p, double v)
+{
+	double s;
+
+	switch (p->kind) {
+	case LOG:
+		return log10(v);
+	case BOUNDED:
+		s = clamp((log10(v) - p->l0) / (p->l1 - p->l0), 0.02, 0.98);
+		return log(s / (1.0 - s));
+	default:
+		return v / p->scale;
+	}
+}
+
+/* dv/dx, for the delta method. */
+static double dsi_dx(const struct pdef *p, double x)
+{
+	double s = logistic(x);
+
+	switch (p->kind) {
+	case LOG:
+		return pow(10.0, x) * LN10;
+	case BOUNDED:
+		return to_si(p, x) * LN10 * (p->l1 - p->l0) * s * (1.0 - s);
+	default:
+		return p->scale;
+	}
 }
 
 /* The unknowns x -> the model the solver evaluates. Order: model unknowns
@@ -313,11 +371,6 @@ static int by_rate(const void *a, const void *b)
 	return (x > y) - (x < y);
 }
 
-static double clamp(double x, double lo, double hi)
-{
-	return x < lo ? lo : x > hi ? hi : x;
-}
-
 /* Starting values from the points at the reference temperature (all points
  * when fewer than 2 lie there), sorted by rate. */
 static enum ow_status make_guess(const struct ow_fit_data *data, double ref_K,
@@ -392,7 +445,7 @@ static void model_start(const struct job *j, const struct guess *g, double f,
 			     pow(ratio - 1.0, 1.0 / (1.0 - n)));
 	} else {
 		x[2] = log10(pow(ratio, 1.0 / (1.0 - n)) / g->rate_hi);
-		x[3] = log10(a);
+		x[3] = from_si(j->defs[3], a);
 	}
 }
 
@@ -412,7 +465,7 @@ static void shift_start(const struct job *j, const struct guess *g, double E,
 	}
 	c2 = variant ? fmax(0.35 * tr, 1.5 * (tr - g->t_min_K) + 10.0) : tr;
 	x[0] = c2 * E / (OW_GAS_CONSTANT * tr * tr * LN10);
-	x[1] = log10(c2);
+	x[1] = from_si(j->defs[j->n_model + 1], c2);
 }
 
 /* A small grid of starts: the model's surface has more than one valley
@@ -556,8 +609,9 @@ static enum ow_status std_errors(const struct job *j, const double *x,
 		sd[k] = var > 0 && isfinite(var) ? sqrt(var) : INFINITY;
 		q->key = j->defs[k]->key;
 		q->value = to_si(j->defs[k], x[k]);
-		q->std_error = j->defs[k]->is_log ? q->value * LN10 * sd[k]
-						  : j->defs[k]->scale * sd[k];
+		q->std_error = isfinite(sd[k])
+				       ? fabs(dsi_dx(j->defs[k], x[k])) * sd[k]
+				       : INFINITY;
 		q->rel_error = q->value != 0 ? q->std_error / fabs(q->value)
 					     : INFINITY;
 	}
@@ -642,7 +696,35 @@ static void where(const struct ow_fit_data *data, char *buf, size_t len)
 		snprintf(buf, len, "%s", data->source);
 }
 
-static void fit_warnings(const struct job *j, struct ow_fit_result *r)
+/* Why parameter k is poorly determined, in words. */
+static void poor_warning(const struct job *j, const double *x, int k,
+			 struct ow_fit_result *r)
+{
+	const char *name = ow_fit_model_name(j->model);
+	const struct ow_fit_param *q = &r->params[k];
+	const struct pdef *p = j->defs[k];
+	double s = logistic(x[k]);
+
+	if (p->kind == BOUNDED && (s < 0.01 || s > 0.99))
+		add_warning(r->warnings, &r->n_warnings,
+			    "%s: %s = %.4g sits at the edge of its range "
+			    "%.3g..%.3g: the data do not determine it",
+			    name, q->key, q->value, pow(10.0, p->l0),
+			    pow(10.0, p->l1));
+	else if (!(q->rel_error <= 10.0))
+		add_warning(r->warnings, &r->n_warnings,
+			    "%s: %s is not determined by the data (standard "
+			    "error above 1000 %% of its value)", name, q->key);
+	else
+		add_warning(r->warnings, &r->n_warnings,
+			    "%s: %s is poorly determined (standard error "
+			    "%.0f %% of its value, above %.0f %%): the data "
+			    "do not pin it down", name, q->key,
+			    100.0 * q->rel_error, 100.0 * POOR_REL);
+}
+
+static void fit_warnings(const struct job *j, const double *x,
+			 struct ow_fit_result *r)
 {
 	const char *name = ow_fit_model_name(j->model);
 	int k, l;
@@ -653,13 +735,7 @@ static void fit_warnings(const struct job *j, struct ow_fit_result *r)
 			    "convergence: this may not be the best fit", name);
 	for (k = 0; k < r->n_params; k++)
 		if (!(r->params[k].rel_error <= POOR_REL))
-			add_warning(r->warnings, &r->n_warnings,
-				    "%s: %s is poorly determined (standard "
-				    "error %.0f %% of its value, above %.0f "
-				    "%%): the data do not pin it down",
-				    name, r->params[k].key,
-				    fmin(100.0 * r->params[k].rel_error, 1e6),
-				    100.0 * POOR_REL);
+			poor_warning(j, x, k, r);
 	for (k = 0; k < r->n_params; k++)
 		for (l = k + 1; l < r->n_params; l++)
 			if (fabs(r->corr[k][l]) > POOR_CORR)
@@ -703,7 +779,7 @@ static void fit_best(const struct job *j, const struct guess *g,
 		snprintf(r->message, sizeof r->message, "out of memory");
 		return;
 	}
-	fit_warnings(j, r);
+	fit_warnings(j, best, r);
 	r->status = ow_viscosity_validate(&r->visc, "viscosity", &why);
 	if (r->status != OW_OK)
 		snprintf(r->message, sizeof r->message, "%s: the best fit "
