@@ -110,6 +110,7 @@ static void full_study_loads_screw_in_si(void **state)
 	assert_rel(s->sections[0].depth_m, 9.5e-3, 1e-12);
 	assert_rel(s->sections[2].depth_m, 3.2e-3, 1e-12);
 	assert_rel(s->sections[3].gap_m, 1.0e-3, 1e-12);
+	assert_int_equal(s->sections[3].lands, 6);
 	/* prepared: sections laid end to end, 30 D in all */
 	assert_rel(s->sections[2].start_m, 14 * 0.0635, 1e-12);
 	assert_rel(ow_screw_length(s), 30 * 0.0635, 1e-12);
