@@ -211,7 +211,7 @@ static double dsi_dx(const struct pdef *p, double x)
 static void unpack(const struct job *j, const double *x,
 		   struct ow_viscosity *v)
 {
-	double si[OW_FIT_MAX_PARAMS];
+	double si[OW_FIT_MAX_PARAMS] = {0};
 	int i, k = j->n_model;
 
 	for (i = 0; i < j->p; i++)

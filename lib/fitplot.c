@@ -275,7 +275,7 @@ static int group_of(const struct ow_fit_result *fit, double T)
 static void ranges(const struct ow_fit_data *data,
 		   const struct ow_fit_result *fit, struct frame *f)
 {
-	double x0 = INFINITY, x1 = 0, y0 = INFINITY, y1 = 0, c0, c1;
+	double x0 = INFINITY, x1 = 1e-300, y0 = INFINITY, y1 = 1e-300, c0, c1;
 	size_t i;
 	int k, e;
 

@@ -68,7 +68,8 @@ struct ow_fit_options {
 	int model;               /* enum ow_visc_model, or OW_FIT_ANY_MODEL:
 				    fit each and recommend one */
 	enum ow_shift_type shift;
-	double ref_temp_K;       /* NAN: the middle data temperature */
+	double ref_temp_K;       /* NAN: the middle data temperature (the
+				    lower middle one for an even count) */
 };
 
 /* Any model, Arrhenius shift, reference at the middle data temperature. */
@@ -123,7 +124,7 @@ struct ow_fit_report {
 	int n_fits;
 	struct ow_fit_result fits[OW_FIT_N_MODELS];
 	int best;                /* index into fits of the recommendation */
-	char why[512];           /* criterion and reason for the choice */
+	char why[1024];          /* criterion and reason for the choice */
 	int n_warnings;          /* warnings about the data as a whole */
 	char warnings[OW_FIT_MAX_WARN][OW_FIT_WARN_LEN];
 };

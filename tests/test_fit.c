@@ -587,7 +587,7 @@ static int run_opwin(const char *const *args)
 	int i, status = 0, rc;
 
 	argv[0] = (char *)exe;
-	for (i = 0; args[i] && i < 14; i++)
+	for (i = 0; i < 14 && args[i]; i++)
 		argv[i + 1] = (char *)args[i];
 	argv[i + 1] = NULL;
 	posix_spawn_file_actions_init(&fa);
