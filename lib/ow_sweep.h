@@ -1,0 +1,64 @@
+/* ow_sweep.h - the grid driver: solve every point of rpm x barrel-axis
+ * (the study's sweep), classify it, and refine the cells a boundary
+ * crosses. Points are stored on a lattice 2^refine times finer than the
+ * study's grid; only the coarse points and the refined cells are solved.
+ *
+ * Parallel over barrel-axis rows with OpenMP; within a row each point is
+ * warm-started from the previous speed of the same row, so the results do
+ * not depend on the number of threads. */
+#ifndef OW_SWEEP_H
+#define OW_SWEEP_H
+
+#include "ow_classify.h"
+#include "ow_config.h"
+#include "ow_solver.h"
+
+struct ow_sweep_config {
+	int jobs;      /* threads; 0: all cores */
+	int refine;    /* levels of halving around boundaries, 0..4 */
+	int rpm_steps; /* > 0: override the study's grid (--grid NxM) */
+	int axis_steps;
+	/* called now and then from one thread with points done / planned;
+	 * may be NULL */
+	void (*progress)(void *ctx, int done, int total);
+	void *progress_ctx;
+};
+
+struct ow_grid_point {
+	int solved;             /* 0: not solved (inside a uniform cell) */
+	double rpm;
+	double axis;            /* barrel axis value (K or K difference) */
+	double set_ref_K;       /* reference zone's set-point */
+	struct ow_point pt;
+	struct ow_verdict v;
+};
+
+struct ow_grid {
+	int n_rpm, n_axis;      /* lattice size (fine) */
+	int stride;             /* 2^refine: lattice steps per coarse step */
+	int solves;             /* points solved */
+	struct ow_grid_point *pts; /* [ia * n_rpm + ir] */
+};
+
+/* Defaults: all cores, no refinement, the study's grid. */
+void ow_sweep_default(struct ow_sweep_config *c);
+
+/* Run the sweep for study s (its sweep must be set: OW_EINPUT otherwise).
+ * *out is owned by the caller (ow_grid_destroy). */
+enum ow_status ow_sweep_run(const struct ow_study *s,
+			    const struct ow_sweep_config *c,
+			    struct ow_grid **out, struct ow_diag *d);
+
+void ow_grid_destroy(struct ow_grid *g);
+
+/* Point at lattice indices (ir, ia). */
+static inline struct ow_grid_point *ow_grid_at(const struct ow_grid *g,
+					       int ir, int ia)
+{
+	return &g->pts[ia * g->n_rpm + ir];
+}
+
+/* Axis value -> the reference zone's absolute set-point (K). */
+double ow_sweep_set_ref(const struct ow_study *s, double axis_value);
+
+#endif

@@ -1,0 +1,272 @@
+/* sweep.c - solve, classify and refine the rpm x barrel-axis grid. */
+#include "ow_sweep.h"
+
+#include <omp.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define MAX_REFINE 4
+
+void ow_sweep_default(struct ow_sweep_config *c)
+{
+	memset(c, 0, sizeof *c);
+}
+
+double ow_sweep_set_ref(const struct ow_study *s, double axis_value)
+{
+	double set_K[OW_MAX_ZONES];
+
+	ow_line_apply_axis(&s->line, axis_value, set_K);
+	return set_K[ow_line_reference_zone(&s->line)];
+}
+
+void ow_grid_destroy(struct ow_grid *g)
+{
+	if (!g)
+		return;
+	free(g->pts);
+	free(g);
+}
+
+/* Shared state of one sweep. */
+struct run {
+	const struct ow_study *s;
+	const struct ow_sweep_config *c;
+	struct ow_grid *g;
+	int threads;
+	int done, planned;
+	enum ow_status st; /* first failure (memory) */
+	struct ow_diag diag;
+};
+
+static void solve_point(struct run *r, struct ow_solver *sv, int ir, int ia,
+			double warm)
+{
+	struct ow_grid_point *gp = ow_grid_at(r->g, ir, ia);
+	double set_K[OW_MAX_ZONES];
+	struct ow_diag d = {{0}};
+	int done;
+
+	ow_line_apply_axis(&r->s->line, gp->axis, set_K);
+	if (ow_solver_run(sv, gp->rpm, set_K, warm, &gp->pt, &d) != OW_OK)
+		gp->pt.flags |= OW_FLAG_NOT_CONVERGED; /* never stop a sweep */
+	ow_classify(&gp->pt, &r->s->line.limits,
+		    ow_screw_length(&r->s->screw), &gp->v);
+	gp->solved = 1;
+#pragma omp atomic capture
+	done = ++r->done;
+	if (r->c->progress && omp_get_thread_num() == 0)
+		r->c->progress(r->c->progress_ctx, done, r->planned);
+}
+
+static double warm_of(const struct ow_grid_point *gp)
+{
+	if (!gp->solved || (gp->pt.flags & OW_FLAG_NOT_CONVERGED))
+		return 0.0;
+	return gp->pt.output_kg_s;
+}
+
+/* Coarse rows in parallel; along a row, warm starts from the previous
+ * speed, so every thread count gives the same answers. */
+static void coarse_pass(struct run *r, struct ow_solver **svs)
+{
+	struct ow_grid *g = r->g;
+	int rows = (g->n_axis - 1) / g->stride + 1, k;
+
+#pragma omp parallel for schedule(dynamic) num_threads(r->threads)
+	for (k = 0; k < rows; k++) {
+		struct ow_solver *sv = svs[omp_get_thread_num()];
+		int ia = k * g->stride, ir;
+		double warm = 0.0;
+
+		for (ir = 0; ir < g->n_rpm; ir += g->stride) {
+			solve_point(r, sv, ir, ia, warm);
+			warm = warm_of(ow_grid_at(g, ir, ia));
+		}
+	}
+}
+
+static int differ(const struct ow_grid *g, int ir, int ia, int s)
+{
+	unsigned b = ow_grid_at(g, ir, ia)->v.bits;
+
+	return ow_grid_at(g, ir + s, ia)->v.bits != b ||
+	       ow_grid_at(g, ir, ia + s)->v.bits != b ||
+	       ow_grid_at(g, ir + s, ia + s)->v.bits != b;
+}
+
+/* Mark the new points of every cell of size s that a boundary crosses;
+ * returns how many; their lattice indices go to list. */
+static int mark_level(struct ow_grid *g, int s, int *list)
+{
+	int h = s / 2, n = 0, ir, ia, k;
+	static const int off[5][2] = {{1, 0}, {0, 1}, {1, 1}, {2, 1}, {1, 2}};
+
+	for (ia = 0; ia + s < g->n_axis; ia += s)
+		for (ir = 0; ir + s < g->n_rpm; ir += s) {
+			if (!differ(g, ir, ia, s))
+				continue;
+			for (k = 0; k < 5; k++) {
+				int jr = ir + off[k][0] * h;
+				int ja = ia + off[k][1] * h;
+				struct ow_grid_point *gp =
+					ow_grid_at(g, jr, ja);
+
+				if (gp->solved) /* solved, or planned */
+					continue;
+				gp->solved = -1; /* planned */
+				list[n++] = ja * g->n_rpm + jr;
+			}
+		}
+	return n;
+}
+
+static int cmp_int(const void *a, const void *b)
+{
+	int x = *(const int *)a, y = *(const int *)b;
+
+	return (x > y) - (x < y);
+}
+
+static void refine_pass(struct run *r, struct ow_solver **svs, int *list)
+{
+	struct ow_grid *g = r->g;
+	int s, n, k;
+
+	for (s = g->stride; s >= 2; s /= 2) {
+		n = mark_level(g, s, list);
+		qsort(list, (size_t)n, sizeof *list, cmp_int);
+		r->planned += n;
+#pragma omp parallel for schedule(dynamic) num_threads(r->threads)
+		for (k = 0; k < n; k++) {
+			int ir = list[k] % g->n_rpm, ia = list[k] / g->n_rpm;
+			/* the cell corner below-left was solved earlier */
+			double warm = warm_of(ow_grid_at(g, ir - ir % s,
+							 ia - ia % s));
+
+			solve_point(r, svs[omp_get_thread_num()], ir, ia,
+				    warm);
+		}
+	}
+}
+
+/* Unsolved lattice points lie in cells no boundary crosses: they take the
+ * verdict of the smallest enclosing solved cell's corner. */
+static void fill_uniform(struct ow_grid *g)
+{
+	int ir, ia, s;
+
+	for (ia = 0; ia < g->n_axis; ia++)
+		for (ir = 0; ir < g->n_rpm; ir++) {
+			struct ow_grid_point *gp = ow_grid_at(g, ir, ia);
+
+			for (s = 2; !gp->solved && s <= g->stride; s *= 2) {
+				const struct ow_grid_point *c =
+					ow_grid_at(g, ir - ir % s, ia - ia % s);
+
+				if (c->solved == 1) {
+					gp->v = c->v;
+					break;
+				}
+			}
+		}
+}
+
+static enum ow_status make_grid(const struct ow_study *s,
+				const struct ow_sweep_config *c,
+				struct ow_grid **out, struct ow_diag *d)
+{
+	const struct ow_axes *ax = &s->line.axes;
+	int nr = c->rpm_steps > 0 ? c->rpm_steps : ax->rpm_steps;
+	int na = c->axis_steps > 0 ? c->axis_steps : ax->axis_steps;
+	int ref = c->refine, ir, ia;
+	struct ow_grid *g;
+
+	if (ax->rpm_steps < 2)
+		return ow_diag_set(d, OW_EINPUT,
+				   "%s: sweep: the study has no sweep "
+				   "(sweep.rpm and sweep.barrel)", s->path);
+	if (nr < 2 || na < 2 || nr > 1000 || na > 1000 || ref < 0 ||
+	    ref > MAX_REFINE)
+		return ow_diag_set(d, OW_EARG,
+				   "grid %dx%d with refine %d: steps must be "
+				   "2..1000 and refine 0..%d", nr, na, ref,
+				   MAX_REFINE);
+	g = calloc(1, sizeof *g);
+	if (!g)
+		return ow_diag_set(d, OW_ENOMEM, "out of memory");
+	g->stride = 1 << ref;
+	g->n_rpm = (nr - 1) * g->stride + 1;
+	g->n_axis = (na - 1) * g->stride + 1;
+	g->pts = calloc((size_t)g->n_rpm * (size_t)g->n_axis, sizeof *g->pts);
+	if (!g->pts) {
+		free(g);
+		return ow_diag_set(d, OW_ENOMEM, "out of memory");
+	}
+	for (ia = 0; ia < g->n_axis; ia++)
+		for (ir = 0; ir < g->n_rpm; ir++) {
+			struct ow_grid_point *gp = ow_grid_at(g, ir, ia);
+
+			gp->rpm = ax->rpm_from + (ax->rpm_to - ax->rpm_from) *
+					      ir / (g->n_rpm - 1);
+			gp->axis = ax->axis_from +
+				   (ax->axis_to - ax->axis_from) * ia /
+					   (g->n_axis - 1);
+			gp->set_ref_K = ow_sweep_set_ref(s, gp->axis);
+		}
+	*out = g;
+	return OW_OK;
+}
+
+static enum ow_status make_solvers(struct run *r, struct ow_solver **svs)
+{
+	enum ow_status st = OW_OK;
+	int t;
+
+	for (t = 0; t < r->threads && st == OW_OK; t++)
+		st = ow_solver_create(r->s, &svs[t], &r->diag);
+	return st;
+}
+
+enum ow_status ow_sweep_run(const struct ow_study *s,
+			    const struct ow_sweep_config *c,
+			    struct ow_grid **out, struct ow_diag *d)
+{
+	struct run r = {s, c, NULL, 0, 0, 0, OW_OK, {{0}}};
+	struct ow_solver **svs = NULL;
+	int *list = NULL, t;
+	enum ow_status st = make_grid(s, c, &r.g, d);
+
+	*out = NULL;
+	if (st != OW_OK)
+		return st;
+	r.threads = c->jobs > 0 ? c->jobs : omp_get_max_threads();
+	r.planned = ((r.g->n_rpm - 1) / r.g->stride + 1) *
+		    ((r.g->n_axis - 1) / r.g->stride + 1);
+	svs = calloc((size_t)r.threads, sizeof *svs);
+	list = malloc(sizeof *list * (size_t)r.g->n_rpm * (size_t)r.g->n_axis);
+	if (!svs || !list) {
+		st = ow_diag_set(d, OW_ENOMEM, "out of memory");
+		goto fail;
+	}
+	st = make_solvers(&r, svs);
+	if (st != OW_OK) {
+		ow_diag_set(d, st, "%s", r.diag.msg);
+		goto fail;
+	}
+	coarse_pass(&r, svs);
+	refine_pass(&r, svs, list);
+	fill_uniform(r.g);
+	r.g->solves = r.done;
+	if (c->progress)
+		c->progress(c->progress_ctx, r.done, r.done);
+	*out = r.g;
+	r.g = NULL;
+fail:
+	for (t = 0; svs && t < r.threads; t++)
+		ow_solver_destroy(svs[t]);
+	free(svs);
+	free(list);
+	ow_grid_destroy(r.g);
+	return st;
+}

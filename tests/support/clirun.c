@@ -1,0 +1,75 @@
+/* clirun.c - run the opwin binary for end-to-end tests. */
+#include "clirun.h"
+
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <sys/wait.h>
+#include <unistd.h>
+
+const char *cli_binary(void)
+{
+	const char *b = getenv("OPWIN");
+
+	return b && *b ? b : "build/opwin";
+}
+
+char *cli_slurp(const char *path)
+{
+	FILE *f = fopen(path, "rb");
+	char *buf = NULL;
+	size_t len = 0, cap = 0, n;
+	char chunk[4096];
+
+	if (!f)
+		return NULL;
+	while ((n = fread(chunk, 1, sizeof chunk, f)) > 0) {
+		if (len + n + 1 > cap) {
+			char *nb;
+
+			cap = (len + n + 1) * 2;
+			nb = realloc(buf, cap);
+			if (!nb) {
+				free(buf);
+				fclose(f);
+				return NULL;
+			}
+			buf = nb;
+		}
+		memcpy(buf + len, chunk, n);
+		len += n;
+	}
+	fclose(f);
+	if (!buf)
+		buf = calloc(1, 1);
+	else
+		buf[len] = '\0';
+	return buf;
+}
+
+void cli_run(const char *args, struct cli_result *r)
+{
+	char outp[] = "/tmp/opwin-test-outXXXXXX";
+	char errp[] = "/tmp/opwin-test-errXXXXXX";
+	int fo = mkstemp(outp), fe = mkstemp(errp), st;
+	size_t n = strlen(args) + strlen(cli_binary()) + 2 * sizeof outp + 32;
+	char *cmd = malloc(n);
+
+	snprintf(cmd, n, "%s %s >%s 2>%s", cli_binary(), args, outp, errp);
+	st = system(cmd);
+	r->code = WIFEXITED(st) ? WEXITSTATUS(st) : -1;
+	r->out = cli_slurp(outp);
+	r->err = cli_slurp(errp);
+	close(fo);
+	close(fe);
+	unlink(outp);
+	unlink(errp);
+	free(cmd);
+}
+
+void cli_result_free(struct cli_result *r)
+{
+	free(r->out);
+	free(r->err);
+	r->out = r->err = NULL;
+}
