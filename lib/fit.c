@@ -696,6 +696,26 @@ static void where(const struct ow_fit_data *data, char *buf, size_t len)
 		snprintf(buf, len, "%s", data->source);
 }
 
+/* WLF aT is infinite at T = Tref - c2: say where when that lies within
+ * 100 K below the coldest data (the melting zone runs that cold). */
+static void wlf_warning(const struct job *j, struct ow_fit_result *r)
+{
+	double t_min = INFINITY, t_sing = j->ref_K - r->visc.wlf_c2_K;
+	size_t i;
+
+	if (j->shift != OW_SHIFT_WLF)
+		return;
+	for (i = 0; i < j->data->n; i++)
+		t_min = fmin(t_min, j->data->points[i].temp_K);
+	if (t_sing > t_min - 100.0)
+		add_warning(r->warnings, &r->n_warnings,
+			    "%s: the WLF shift is singular at %.1f K "
+			    "(%.1f degC, Tref - c2), %.0f K below the coldest "
+			    "data: viscosities there are extrapolated far",
+			    ow_fit_model_name(j->model), t_sing,
+			    t_sing - OW_ZERO_C_K, t_min - t_sing);
+}
+
 /* Why parameter k is poorly determined, in words. */
 static void poor_warning(const struct job *j, const double *x, int k,
 			 struct ow_fit_result *r)
@@ -729,6 +749,7 @@ static void fit_warnings(const struct job *j, const double *x,
 	const char *name = ow_fit_model_name(j->model);
 	int k, l;
 
+	wlf_warning(j, r);
 	if (!r->converged)
 		add_warning(r->warnings, &r->n_warnings,
 			    "%s: the iteration limit was reached before "
