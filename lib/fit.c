@@ -690,7 +690,9 @@ static void where(const struct ow_fit_data *data, char *buf, size_t len)
 		if (l > hi)
 			hi = l;
 	}
-	if (lo > 0)
+	if (lo > 0 && lo == hi)
+		snprintf(buf, len, "%s: line %d", data->source, lo);
+	else if (lo > 0)
 		snprintf(buf, len, "%s: lines %d..%d", data->source, lo, hi);
 	else
 		snprintf(buf, len, "%s", data->source);
@@ -899,8 +901,10 @@ static enum ow_status check_data(const struct ow_fit_data *data,
 	if (g->n < need)
 		return ow_diag_set(d, OW_EINPUT,
 				   "%s: the points lie at %d temperature%s "
-				   "(%.2f K): the %s shift needs at least %d%s",
+				   "(%.2f K = %.2f degC%s): the %s shift needs "
+				   "at least %d%s",
 				   loc, g->n, g->n == 1 ? "" : "s", g->T[0],
+				   g->T[0] - OW_ZERO_C_K, g->n > 1 ? ", ..." : "",
 				   ow_fit_shift_name(rep->opts.shift), need,
 				   need == 3 ? " (two constants, c1 and c2, "
 					       "need three shift factors; try "

@@ -366,6 +366,9 @@ static void data_header_units_convert_to_si(void **state)
 		"100, 0.5 ,392\r\n";
 	static const char plain[] = "temperature_K,shear_rate_1/s,"
 				    "viscosity_Pa.s\n450,10,1200\n";
+	static const char osc[] = "temperature_degC,angular_frequency_rad/s,"
+				  "complex_viscosity_Pa s,storage_modulus_Pa\n"
+				  "190,1,5000,1200\n";
 	struct ow_fit_data *d = NULL;
 	struct ow_diag dg = {{0}};
 
@@ -384,6 +387,14 @@ static void data_header_units_convert_to_si(void **state)
 			 OW_OK);
 	assert_false(d->cox_merz);
 	assert_rel(d->points[0].viscosity_Pa_s, 1200, 1e-12);
+	ow_fit_data_destroy(d);
+	/* oscillatory names; an extra column is ignored */
+	assert_int_equal(ow_fit_data_parse(f->u, osc, strlen(osc), "o.csv",
+					   &d, &dg),
+			 OW_OK);
+	assert_true(d->cox_merz);
+	assert_rel(d->points[0].viscosity_Pa_s, 5000, 1e-12);
+	assert_rel(d->points[0].shear_rate_1_s, 1, 1e-12);
 	ow_fit_data_destroy(d);
 }
 
