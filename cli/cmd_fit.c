@@ -261,7 +261,7 @@ static int write_outputs(const struct fit_args *a, struct ow_units *u,
 			 const struct ow_fit_report *rep, FILE *info)
 {
 	const struct ow_fit_result *b = &rep->fits[rep->best];
-	struct ow_diag d = {{0}};
+	struct ow_diag d = {{0}}, why = {{0}};
 	struct ow_material m;
 	char notes[600], *text = NULL;
 	enum ow_status st = OW_OK;
@@ -284,9 +284,9 @@ static int write_outputs(const struct fit_args *a, struct ow_units *u,
 	    (st = ow_fit_merge_into(&b->visc, a->into, &d)) == OW_OK && info) {
 		fprintf(info, "\nmerged the viscosity block into %s\n",
 			a->into);
-		if (ow_config_load_resin(u, a->into, &m, &d) != OW_OK)
+		if (ow_config_load_resin(u, a->into, &m, &why) != OW_OK)
 			fprintf(info, "  but that file does not load as a "
-				      "resin yet: %s\n", d.msg);
+				      "resin yet: %s\n", why.msg);
 	}
 	if (st == OW_OK && a->plot &&
 	    (st = ow_fit_plot_png(data, b, a->c.units, a->plot, &d)) == OW_OK &&
