@@ -121,15 +121,17 @@ static double level_in(const struct ow_melt_ws *ws, double s, double ya,
 		double ux, f = ow_melt_psi_ux(ws, y, &ux) / ws->psistar - s;
 		double dfdy = ux / ws->psistar, yn;
 
+		if (f == 0.0)
+			return y;
 		if (f * up > 0.0) /* past the root */
 			yb = y;
 		else
 			ya = y;
 		yn = dfdy != 0.0 ? y - f / dfdy : 0.5 * (ya + yb);
+		if (fabs(yn - y) < 1e-13 * ws->H)
+			return yn;
 		if (!(yn > ya && yn < yb))
 			yn = 0.5 * (ya + yb);
-		if (fabs(yn - y) < 1e-13 * ws->H || f == 0.0)
-			return yn;
 		y = yn;
 	}
 	return y;
