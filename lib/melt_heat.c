@@ -171,7 +171,8 @@ double ow_melt_level_depth(const struct ow_melt_ws *ws, double s, int upper)
 static void layout_circulating(struct ow_melt_ws *ws)
 {
 	int K = ws->nb;
-	double lo_prev = ws->ystar, hi_prev = ws->ystar;
+	double lo_prev = ws->ystar; /* both legs of band 0 start at y* */
+	double hi_prev = lo_prev;
 
 	for (int k = 0; k < K; k++) {
 		double c = cos(PI * (double)(k + 1) / (2.0 * (double)K));
