@@ -296,18 +296,23 @@ static int cell_viscosities(struct ow_melt_ws *ws,
 		double tau = hypot(p[0] + p[1] * m, p[2] + p[3] * m);
 		double L = lnv[c], n = ws->nloc[c], g = 0.0, e = 0.0, up;
 		double lo = -INFINITY, hi = INFINITY; /* g(lo) < 0 < g(hi) */
+		double Lp = NAN, gp = NAN;
 
 		for (int it = 0; it < 200; it++) {
 			e = ow_viscosity_ref(v, at * tau * exp(-L));
 			if (!(e > 0.0) || !isfinite(e))
 				return -1;
-			g = L - log(at * e); /* increasing in L */
+			g = L - log(at * e); /* increasing in L, slope n */
 			if (fabs(g) < 1e-13)
 				break;
 			if (g > 0.0)
 				hi = L;
 			else
 				lo = L;
+			if (isfinite(gp) && L != Lp) /* secant slope */
+				n = fmax(0.01, fmin(2.0, (g - gp) / (L - Lp)));
+			Lp = L;
+			gp = g;
 			L -= fmax(-5.0, fmin(5.0, g / n));
 			if (!(L > lo && L < hi) && isfinite(lo) && isfinite(hi))
 				L = 0.5 * (lo + hi); /* left the bracket */

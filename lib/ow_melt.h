@@ -26,8 +26,8 @@
 /* ---- flight-edge shape factors ----------------------------------------- */
 
 /* Drag and pressure flow shape factors of a rectangular channel of depth H
- * and width W, as functions of h = H/W > 0 (Rowell & Finlayson, Engineering
- * 114 (1922) 606; the series as used by Tadmor & Klein 1970, ch. 7):
+ * and width W, as functions of h = H/W > 0 (Rowell & Finlayson, Engineering,
+ * 1922; the series as used by Tadmor & Klein 1970, ch. 7):
  *   F_d = (16/(pi^3 h)) sum_{i odd} tanh(i pi h/2) / i^3
  *   F_p = 1 - (192 h/pi^5) sum_{i odd} tanh(i pi/(2h)) / i^5
  * Summed to full double precision. Both -> 1 as h -> 0; NAN for h <= 0. */
@@ -161,6 +161,14 @@ enum ow_status ow_melt_step(struct ow_melt_ws *ws, const struct ow_melt_cond *c,
 			    double dz_m, struct ow_melt_out *out,
 			    struct ow_diag *d);
 
+/* Melt joining the channel: every band becomes (1 - frac) T + frac temp_K,
+ * i.e. the inflow spreads in proportion to the bands' flow, which keeps the
+ * flow-weighted enthalpy exact (frac = inflow / flow after joining). */
+void ow_melt_mix(struct ow_melt_ws *ws, double frac, double temp_K);
+
+/* Raise every band by dT_K (heat added uniformly, e.g. a mixing element). */
+void ow_melt_heat(struct ow_melt_ws *ws, double dT_K);
+
 /* Flow-weighted bulk and peak band temperature now, K. */
 double ow_melt_bulk(const struct ow_melt_ws *ws);
 double ow_melt_peak(const struct ow_melt_ws *ws);
@@ -192,8 +200,8 @@ double ow_melt_band_temp(const struct ow_melt_ws *ws, int k);
 
 /* Depth (m) on the other side of the circulation centre lying on the same
  * cross-channel streamline as depth y_m (equal stream function), from the
- * last solved station (Mohr, Saxton & Jepson, Ind. Eng. Chem. 49 (1957)
- * 1855). OW_ECOMPUTE when the station has no circulation. */
+ * last solved station (Mohr, Saxton & Jepson, Ind. Eng. Chem., 1957).
+ * OW_ECOMPUTE when the station has no circulation. */
 enum ow_status ow_melt_partner(const struct ow_melt_ws *ws, double y_m,
 			       double *partner_m);
 
