@@ -93,6 +93,24 @@ void ow_melt_reset(struct ow_melt_ws *ws, double temp_K)
 	ws->have_profile = 0;
 }
 
+void ow_melt_mix(struct ow_melt_ws *ws, double frac, double temp_K)
+{
+	for (int b = 0; b < ws->nb; b++)
+		ws->t[b] += frac * (temp_K - ws->t[b]);
+	for (int j = 0; j < ws->nn; j++)
+		ws->tn[j] += frac * (temp_K - ws->tn[j]);
+	ws->bulk += frac * (temp_K - ws->bulk);
+}
+
+void ow_melt_heat(struct ow_melt_ws *ws, double dT_K)
+{
+	for (int b = 0; b < ws->nb; b++)
+		ws->t[b] += dT_K;
+	for (int j = 0; j < ws->nn; j++)
+		ws->tn[j] += dT_K;
+	ws->bulk += dT_K;
+}
+
 double ow_melt_bulk(const struct ow_melt_ws *ws)
 {
 	return ws->bulk;

@@ -596,6 +596,37 @@ static void zero_step_leaves_temperatures_alone(void **state)
 	ow_melt_destroy(ws);
 }
 
+/* Melt joining the channel mixes in proportion to the band flows, and
+ * uniform heating raises every band: the flow-weighted bulk follows the
+ * enthalpy balance of the two streams (first law, constant c_p), and the
+ * next step's energy closure starts from the mixed bulk. */
+static void mixing_and_uniform_heating_keep_the_enthalpy_flux(void **state)
+{
+	struct ow_material m = carreau();
+	struct ow_melt_cond c = metering(&m);
+	struct ow_melt_ws *ws = workspace(41, 20, 450.0);
+	struct ow_melt_out o;
+	double before, peak, rc, dz = 0.02;
+
+	(void)state;
+	c.vol_flow_m3_s = 1.2e-5;
+	for (int i = 0; i < 20; i++)
+		station(ws, &c, dz);
+	before = ow_melt_bulk(ws);
+	peak = ow_melt_peak(ws);
+	ow_melt_mix(ws, 0.25, 430.0);
+	assert_rel(ow_melt_bulk(ws), 0.75 * before + 0.25 * 430.0, 1e-14);
+	assert_rel(ow_melt_peak(ws), 0.75 * peak + 0.25 * 430.0, 1e-14);
+	ow_melt_heat(ws, 3.0);
+	assert_rel(ow_melt_bulk(ws), 0.75 * before + 0.25 * 430.0 + 3.0, 1e-14);
+	before = ow_melt_bulk(ws);
+	o = station(ws, &c, dz);
+	rc = m.melt_density_kg_m3 * m.melt_cp_J_kgK * c.vol_flow_m3_s;
+	assert_abs(rc * (o.bulk_K - before) / dz,
+		   o.dissipation_W_m + o.barrel_heat_W_m, 1e-9 * o.dissipation_W_m);
+	ow_melt_destroy(ws);
+}
+
 /* ---- streamline bands ------------------------------------------------- */
 
 /* Streamline pairing in the Newtonian metering channel: xi_c = [(1 - xi) +
@@ -758,6 +789,8 @@ int main(void)
 		cmocka_unit_test(bands_reproduce_powerlaw_couette_heating),
 		cmocka_unit_test(bands_conserve_energy_step_by_step),
 		cmocka_unit_test(zero_step_leaves_temperatures_alone),
+		cmocka_unit_test(
+			mixing_and_uniform_heating_keep_the_enthalpy_flux),
 		cmocka_unit_test(bands_pair_layers_on_one_streamline),
 		cmocka_unit_test(band_legs_tile_the_depth_on_streamlines),
 		cmocka_unit_test(default_resolution_is_converged),
