@@ -132,7 +132,9 @@ struct ow_melt_out {
 				    clearance shear */
 	double barrel_heat_W_m;  /* heat barrel -> melt (< 0: melt cooled) */
 	double root_heat_W_m;    /* heat root -> melt */
-	double dissipation_W_m;  /* channel + clearance viscous heating */
+	double dissipation_W_m;  /* channel + clearance viscous heating, plus
+				    the pressure work G Q_L the leak flow
+				    releases falling back over the flight */
 	double leak_flow_m3_s;   /* Q_L, backward over the flight */
 	double channel_flow_m3_s; /* Q + Q_L carried down the channel */
 	double tau_barrel_z_Pa;  /* barrel-wall shear stress, down-channel */
@@ -149,11 +151,15 @@ struct ow_melt_out {
  * bulk temperature) and forget the viscosity warm start. */
 void ow_melt_reset(struct ow_melt_ws *ws, double temp_K);
 
-/* Solve the velocity profiles at the station (viscosity iterated to the
- * local shear-rate magnitude and band temperatures, warm-started from the
- * previous call), then, when dz_m > 0, advance the band temperatures over
- * dz_m by one implicit step (dz_m = 0: pressure gradient and heat terms
- * only, temperatures untouched). OW_EARG for bad conditions (names the
+/* Solve the velocity profiles at the station (one viscosity per depth
+ * cell, at its midpoint's shear-rate magnitude and the temperature of the
+ * band holding the midpoint, solved by Newton's method warm-started from
+ * the previous call), then, when dz_m > 0, advance the band temperatures
+ * over dz_m by one implicit step (dz_m = 0: pressure gradient and heat
+ * terms only, temperatures untouched; only a switch between circulating
+ * and layered bands, i.e. V_bx becoming 0 or not, re-maps them by depth).
+ * The clearance viscosity is taken at V_b/delta and the mean of the barrel
+ * and outer-band temperatures; its heat goes to the band at the barrel. OW_EARG for bad conditions (names the
  * field), OW_ENOCONV when the velocity iteration fails, OW_ECOMPUTE for a
  * non-finite viscosity or, with dz > 0, a net flow Q <= 0. On failure the
  * band temperatures are unchanged. */
