@@ -11,6 +11,7 @@ static const struct cli_command commands[] = {
 	{"check", cmd_check, "validate inputs; print derived screw data"},
 	{"fit", cmd_fit, "fit a viscosity model to lab data"},
 	{"help", cmd_help, "help on a command: opwin help COMMAND"},
+	{"point", cmd_point, "solve one operating point"},
 };
 
 #define N_COMMANDS (sizeof commands / sizeof commands[0])

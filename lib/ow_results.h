@@ -12,6 +12,7 @@
 #include "ow_classify.h"
 #include "ow_config.h"
 #include "ow_solver.h"
+#include "ow_window.h"
 #include "ow_status.h"
 
 /* Write x into buf with "%.17g" semantics (shortest form that round-trips
@@ -49,6 +50,20 @@ enum ow_status ow_results_point_json(const struct ow_study *s,
 enum ow_status ow_results_profile_csv(const struct ow_study *s,
 				      const struct ow_profile_row *rows,
 				      int n, char **out, struct ow_diag *d);
+
+/* grid.csv: one row per solved point: rpm, axis_value, set_C, every figure
+ * of `point --json`, status (names joined by ';', empty when safe). */
+enum ow_status ow_results_grid_csv(const struct ow_study *s,
+				   const struct ow_grid *g, char **out,
+				   struct ow_diag *d);
+
+/* window.json: rpm_min, rpm_max, set_min_C, set_max_C, centre{rpm,set_C},
+ * output_kg_h_min/max, safe_fraction, zones, plus melt temperature range,
+ * axis, boundaries, binding limits and solves. Null bounds when empty. */
+enum ow_status ow_results_window_json(const struct ow_study *s,
+				      const struct ow_grid *g,
+				      const struct ow_window *w, char **out,
+				      struct ow_diag *d);
 
 /* Write text to path atomically: a temporary file in the same folder, then
  * rename, so a failed write never replaces a good file. OW_EIO on failure

@@ -406,3 +406,194 @@ enum ow_status ow_results_profile_csv(const struct ow_study *s,
 	}
 	return text_done(&t, out, d);
 }
+
+/* ---- map outputs --------------------------------------------------------- */
+
+enum ow_status ow_results_grid_csv(const struct ow_study *s,
+				   const struct ow_grid *g, char **out,
+				   struct ow_diag *d)
+{
+	const char *names[OW_CK_COUNT];
+	struct text t = {0};
+	int i, k, n, f, nf = ow_results_n_figures();
+
+	text_add(&t, "rpm,axis_value,set_C");
+	for (f = 0; f < nf; f++) {
+		text_add(&t, ",");
+		text_add(&t, fig_keys[f]);
+	}
+	text_add(&t, ",status\n");
+	for (i = 0; i < g->n_rpm * g->n_axis; i++) {
+		const struct ow_grid_point *p = &g->pts[i];
+
+		if (p->solved != 1)
+			continue;
+		text_num(&t, p->rpm, 0);
+		text_num(&t, p->axis, 1);
+		text_num(&t, C_OF_K(p->set_ref_K), 1);
+		for (f = 0; f < nf; f++)
+			text_num(&t, fig(s, &p->pt, f), 1);
+		text_add(&t, ",");
+		n = ow_results_status_names(&p->v, names, OW_CK_COUNT);
+		for (k = 0; k < n; k++) {
+			text_add(&t, k ? ";" : "");
+			text_add(&t, names[k]);
+		}
+		text_add(&t, "\n");
+	}
+	return text_done(&t, out, d);
+}
+
+static const char *axis_mode_name(enum ow_axis_mode m)
+{
+	return m == OW_AXIS_SET ? "set" : (m == OW_AXIS_ZONE ? "zone"
+							     : "shift");
+}
+
+static int add_window_zones(cJSON *o, const struct ow_study *s,
+			    const struct ow_window *w)
+{
+	cJSON *arr = cJSON_AddArrayToObject(o, "zones");
+	int z, ok = arr != NULL;
+
+	for (z = 0; ok && z < s->line.n_zones; z++) {
+		cJSON *e = cJSON_CreateObject();
+
+		ok = e && cJSON_AddItemToArray(arr, e);
+		ok = ok && put_num(e, "zone", z + 1);
+		ok = ok && put_num(e, "to_D", per_D(s, s->line.zones[z].to_m));
+		ok = ok && put_num(e, "set_min_C",
+				   w->empty ? NAN : C_OF_K(w->zone_min_K[z]));
+		ok = ok && put_num(e, "set_max_C",
+				   w->empty ? NAN : C_OF_K(w->zone_max_K[z]));
+	}
+	return ok;
+}
+
+static cJSON *polyline_json(const struct ow_study *s,
+			    const struct ow_polyline *pl)
+{
+	cJSON *arr = cJSON_CreateArray();
+	int i, ok = arr != NULL;
+
+	for (i = 0; ok && i < pl->n; i++) {
+		double v[3] = {pl->p[i].rpm, pl->p[i].axis,
+			       C_OF_K(ow_sweep_set_ref(s, pl->p[i].axis))};
+		cJSON *pt = cJSON_CreateDoubleArray(v, 3);
+
+		ok = pt && cJSON_AddItemToArray(arr, pt);
+	}
+	if (!ok) {
+		cJSON_Delete(arr);
+		return NULL;
+	}
+	return arr;
+}
+
+static int add_boundaries(cJSON *o, const struct ow_study *s,
+			  const struct ow_window *w)
+{
+	cJSON *arr = cJSON_AddArrayToObject(o, "boundaries");
+	int b, l, ok = arr != NULL;
+
+	for (b = 0; ok && b < w->n_boundaries; b++) {
+		const struct ow_boundary *bd = &w->bounds[b];
+		cJSON *e = cJSON_CreateObject(), *lines;
+
+		ok = e && cJSON_AddItemToArray(arr, e);
+		ok = ok && cJSON_AddStringToObject(e, "limit",
+						   ow_check_key(bd->check));
+		lines = ok ? cJSON_AddArrayToObject(e, "lines") : NULL;
+		ok = lines != NULL;
+		for (l = 0; ok && l < bd->n_lines; l++) {
+			cJSON *pl = polyline_json(s, &bd->lines[l]);
+
+			ok = pl && cJSON_AddItemToArray(lines, pl);
+		}
+	}
+	return ok;
+}
+
+static int add_binding(cJSON *o, const struct ow_window *w)
+{
+	enum ow_check order[OW_CK_COUNT];
+	int n = ow_window_binding(w, order), i, ok;
+	cJSON *arr = cJSON_AddArrayToObject(o, "binding");
+
+	ok = arr != NULL;
+	for (i = 0; ok && i < n; i++) {
+		cJSON *e = cJSON_CreateObject();
+
+		ok = e && cJSON_AddItemToArray(arr, e);
+		ok = ok && cJSON_AddStringToObject(e, "limit",
+						   ow_check_key(order[i]));
+		ok = ok && put_num(e, "points_excluded",
+				   w->fail_count[order[i]]);
+	}
+	return ok;
+}
+
+static int add_bounds(cJSON *r, const struct ow_window *w)
+{
+	int e = w->empty, ok = 1;
+	cJSON *c;
+
+	ok = ok && put_num(r, "rpm_min", e ? NAN : w->rpm_min);
+	ok = ok && put_num(r, "rpm_max", e ? NAN : w->rpm_max);
+	ok = ok && put_num(r, "set_min_C", e ? NAN : C_OF_K(w->set_min_K));
+	ok = ok && put_num(r, "set_max_C", e ? NAN : C_OF_K(w->set_max_K));
+	ok = ok && put_num(r, "axis_min", e ? NAN : w->axis_min);
+	ok = ok && put_num(r, "axis_max", e ? NAN : w->axis_max);
+	if (e) {
+		ok = ok && cJSON_AddNullToObject(r, "centre");
+	} else {
+		c = cJSON_AddObjectToObject(r, "centre");
+		ok = ok && c && put_num(c, "rpm", w->centre.rpm);
+		ok = ok && put_num(c, "set_C", C_OF_K(w->centre_set_K));
+		ok = ok && put_num(c, "axis_value", w->centre.axis);
+		ok = ok && put_num(c, "clearance", w->centre_clearance);
+	}
+	ok = ok && put_num(r, "output_kg_h_min",
+			   e ? NAN : w->output_min_kg_s * 3600.0);
+	ok = ok && put_num(r, "output_kg_h_max",
+			   e ? NAN : w->output_max_kg_s * 3600.0);
+	ok = ok && put_num(r, "melt_temp_C_min", e ? NAN : C_OF_K(w->melt_min_K));
+	ok = ok && put_num(r, "melt_temp_C_max", e ? NAN : C_OF_K(w->melt_max_K));
+	ok = ok && put_num(r, "peak_temp_C_max", e ? NAN : C_OF_K(w->peak_max_K));
+	return ok;
+}
+
+enum ow_status ow_results_window_json(const struct ow_study *s,
+				      const struct ow_grid *g,
+				      const struct ow_window *w, char **out,
+				      struct ow_diag *d)
+{
+	cJSON *r = cJSON_CreateObject(), *ax;
+	int ok = r != NULL;
+
+	*out = NULL;
+	ok = ok && cJSON_AddStringToObject(r, "title", s->title);
+	ok = ok && cJSON_AddBoolToObject(r, "empty", w->empty);
+	ok = ok && add_bounds(r, w);
+	ok = ok && put_num(r, "safe_fraction", w->safe_fraction);
+	ok = ok && add_window_zones(r, s, w);
+	ax = ok ? cJSON_AddObjectToObject(r, "axis") : NULL;
+	ok = ax != NULL;
+	ok = ok && cJSON_AddStringToObject(ax, "mode",
+					   axis_mode_name(s->line.axes.mode));
+	ok = ok && put_num(ax, "reference_zone",
+			   ow_line_reference_zone(&s->line) + 1);
+	ok = ok && put_num(ax, "from", s->line.axes.axis_from);
+	ok = ok && put_num(ax, "to", s->line.axes.axis_to);
+	ok = ok && put_num(r, "solves", g->solves);
+	ok = ok && put_num(r, "lattice_rpm", g->n_rpm);
+	ok = ok && put_num(r, "lattice_axis", g->n_axis);
+	ok = ok && add_binding(r, w);
+	ok = ok && add_boundaries(r, s, w);
+	if (ok)
+		*out = cJSON_Print(r);
+	cJSON_Delete(r);
+	if (!*out)
+		return ow_diag_set(d, OW_ENOMEM, "out of memory");
+	return OW_OK;
+}

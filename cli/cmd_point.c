@@ -1,0 +1,227 @@
+/* cmd_point.c - `opwin point STUDY.json --rpm R [--set X]`: solve one
+ * operating point and report it as an engineer's note or as JSON. */
+#include "cli.h"
+
+#include <getopt.h>
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+struct point_opts {
+	struct cli_common c;
+	const char *rpm, *set, *profile;
+	int json;
+};
+
+static void help(void)
+{
+	printf("usage: opwin point STUDY.json --rpm R [--set X] [--json]\n"
+	       "                  [--profile FILE.csv] [--units si|us]\n\n"
+	       "Solves one operating point: throughput matched to the die, "
+	       "pressures,\nbulk and peak melt temperatures, melting, power, "
+	       "and the limits it breaks.\n\n"
+	       "  --rpm R          screw speed in rpm (a unit may be given)\n"
+	       "  --set X          barrel axis value in the study's sweep "
+	       "mode: a\n"
+	       "                   temperature (set, zone) or a difference "
+	       "(shift);\n"
+	       "                   without a unit: degC / K (degF with "
+	       "--units us);\n"
+	       "                   omitted: the study's own set-points\n"
+	       "  --profile FILE   write the axial profile (CSV)\n"
+	       "  --json           print the figures as JSON (SI keys)\n"
+	       "exit codes: 0 ok, 1 inputs rejected, 2 usage, 3 computation "
+	       "failed,\n            4 output could not be written\n");
+}
+
+/* A number with or without a unit; bare numbers are read in the display
+ * system (rpm; degC or degF; K or degF differences). */
+static enum ow_status read_value(const struct ow_units *u, const char *text,
+				 enum ow_dim dim, enum ow_unit_system sys,
+				 double *si, struct ow_diag *d)
+{
+	double x;
+
+	if (ow_units_parse_number(text, &x, NULL) == OW_OK) {
+		*si = ow_display_to_si(sys, dim, x);
+		return OW_OK;
+	}
+	return ow_units_parse(u, text, dim, 0.0, si, d);
+}
+
+static void print_limit_lines(const struct ow_verdict *v)
+{
+	const char *names[OW_CK_COUNT];
+	int n = ow_results_status_names(v, names, OW_CK_COUNT), i;
+
+	if (!n) {
+		printf("verdict   inside every limit of the study\n");
+		return;
+	}
+	printf("verdict   UNSAFE:");
+	for (i = 0; i < OW_CK_COUNT; i++)
+		if (v->bits & (1u << i))
+			printf(" %s;", ow_check_text((enum ow_check)i));
+	printf("\n");
+}
+
+#define SHOW(dim, si) ow_display_value(o->c.units, dim, si), \
+		      ow_display_label(o->c.units, dim)
+
+static void print_note(const struct ow_study *s, const struct ow_point *pt,
+		       const struct ow_verdict *v,
+		       const struct point_opts *o)
+{
+	double D = s->screw.diameter_m;
+
+	printf("point     %.1f rpm, last zone at %.1f %s  (%s)\n", pt->rpm,
+	       SHOW(OW_DIM_TEMPERATURE, pt->set_K[s->line.n_zones - 1]),
+	       s->title);
+	printf("output    %.2f %s\n", SHOW(OW_DIM_MASS_FLOW, pt->output_kg_s));
+	printf("pressure  %.2f %s at the tip (die + screen), max %.2f %s "
+	       "at %.1f D\n",
+	       SHOW(OW_DIM_PRESSURE, pt->discharge_pressure_Pa),
+	       SHOW(OW_DIM_PRESSURE, pt->max_pressure_Pa),
+	       pt->max_pressure_at_m / D);
+	printf("melt      %.1f %s bulk at the tip, %.1f %s peak across the "
+	       "depth there;\n          hottest %.1f %s at %.1f D\n",
+	       SHOW(OW_DIM_TEMPERATURE, pt->discharge_bulk_K),
+	       SHOW(OW_DIM_TEMPERATURE, pt->discharge_peak_K),
+	       SHOW(OW_DIM_TEMPERATURE, pt->peak_K), pt->peak_at_m / D);
+	if (isfinite(pt->melt_complete_m))
+		printf("melting   from %.1f D, complete at %.1f D; max solid bed "
+		       "ratio %.2f\n", pt->melt_start_m / D,
+		       pt->melt_complete_m / D, pt->max_sbr);
+	else
+		printf("melting   NOT complete: %.2f %% of the mass leaves "
+		       "unmelted; max solid bed ratio %.2f\n",
+		       100.0 * pt->unmelt_frac, pt->max_sbr);
+	printf("drive     %.2f %s, torque %.0f N·m, specific energy %.3f "
+	       "kWh/kg\n", SHOW(OW_DIM_POWER, pt->power_W), pt->torque_Nm,
+	       pt->sec_J_kg / 3.6e6);
+	printf("barrel    %+.2f %s net into the resin (negative: cooling)\n",
+	       SHOW(OW_DIM_POWER, pt->barrel_heat_W));
+	print_limit_lines(v);
+	if (pt->flags & OW_FLAG_NOT_CONVERGED)
+		printf("note      the screw-die match did not converge: "
+		       "figures are the closest trial\n");
+}
+
+static int write_profile(const struct ow_study *s, const struct ow_solver *sv,
+			 const char *path)
+{
+	struct ow_diag d = {{0}};
+	const struct ow_profile_row *rows;
+	int n;
+	char *csv = NULL;
+	enum ow_status st;
+
+	rows = ow_solver_profile(sv, &n);
+	st = ow_results_profile_csv(s, rows, n, &csv, &d);
+	if (st == OW_OK)
+		st = ow_results_write_file(path, csv, strlen(csv), &d);
+	free(csv);
+	return st == OW_OK ? CLI_OK : cli_fail("point", st, &d);
+}
+
+static int report(const struct ow_study *s, const struct ow_solver *sv,
+		  const struct ow_point *pt, const struct point_opts *o)
+{
+	struct ow_verdict v;
+	struct ow_diag d = {{0}};
+	char *json = NULL;
+	enum ow_status st;
+
+	ow_classify(pt, &s->line.limits, ow_screw_length(&s->screw), &v);
+	if (o->profile) {
+		int rc = write_profile(s, sv, o->profile);
+
+		if (rc)
+			return rc;
+	}
+	if (!o->json) {
+		print_note(s, pt, &v, o);
+		return CLI_OK;
+	}
+	st = ow_results_point_json(s, pt, &v, &json, &d);
+	if (st != OW_OK)
+		return cli_fail("point", st, &d);
+	printf("%s\n", json);
+	free(json);
+	return CLI_OK;
+}
+
+static int solve(const struct ow_units *u, const struct ow_study *s,
+		 const struct point_opts *o)
+{
+	struct ow_diag d = {{0}};
+	struct ow_solver *sv = NULL;
+	struct ow_point pt;
+	double rpm, v, set_K[OW_MAX_ZONES];
+	enum ow_status st;
+	int rc;
+
+	st = read_value(u, o->rpm, OW_DIM_ROT_SPEED, o->c.units, &rpm, &d);
+	if (st == OW_OK && o->set)
+		st = read_value(u, o->set,
+				s->line.axes.mode == OW_AXIS_SHIFT
+					? OW_DIM_TEMP_DIFF
+					: OW_DIM_TEMPERATURE,
+				o->c.units, &v, &d);
+	if (st != OW_OK)
+		return cli_usage_error("point", d.msg);
+	if (o->set)
+		ow_line_apply_axis(&s->line, v, set_K);
+	st = ow_solver_create(s, &sv, &d);
+	if (st == OW_OK)
+		st = ow_solver_run(sv, rpm, o->set ? set_K : NULL, 0.0, &pt,
+				   &d);
+	rc = st == OW_OK ? report(s, sv, &pt, o) : cli_fail("point", st, &d);
+	ow_solver_destroy(sv);
+	return rc;
+}
+
+int cmd_point(int argc, char **argv)
+{
+	static const struct option opts[] = {
+		CLI_COMMON_LONGOPTS,
+		{"rpm", required_argument, NULL, 'r'},
+		{"set", required_argument, NULL, 's'},
+		{"profile", required_argument, NULL, 'p'},
+		{"json", no_argument, NULL, 'J'},
+		{NULL, 0, NULL, 0},
+	};
+	struct point_opts o = {{OW_SYS_SI, 0, 0}, NULL, NULL, NULL, 0};
+	struct ow_units *u = NULL;
+	struct ow_study *s = NULL;
+	int id, rc;
+
+	optind = 1;
+	while ((id = getopt_long(argc, argv, "hq", opts, NULL)) != -1) {
+		if (id == 'h' || id == 'V') {
+			id == 'h' ? help() : cli_version();
+			return CLI_OK;
+		}
+		if (id == 'r')
+			o.rpm = optarg;
+		else if (id == 's')
+			o.set = optarg;
+		else if (id == 'p')
+			o.profile = optarg;
+		else if (id == 'J')
+			o.json = 1;
+		else if ((rc = cli_common_option("point", &o.c, id, optarg)))
+			return rc;
+	}
+	if (optind != argc - 1)
+		return cli_usage_error("point", "expects one STUDY.json");
+	if (!o.rpm)
+		return cli_usage_error("point", "--rpm is required");
+	if ((rc = cli_load_study("point", argv[optind], &u, &s)))
+		return rc;
+	rc = solve(u, s, &o);
+	free(s);
+	ow_units_destroy(u);
+	return rc;
+}

@@ -1,0 +1,258 @@
+/* solver.c - one operating point: the screw-die match and the figures.
+ *
+ * The pressure the screw builds at its tip falls as the throughput G rises,
+ * while the die (plus screen pack) needs more: find G with
+ *   f(G) = P_tip(G) - [dP_die(G, T_bulk(G)) + dP_screen] = 0
+ * by bracketing and the Illinois variant of regula falsi (Dowell & Jarratt,
+ * BIT 11 (1971) 168), a safeguarded root finder that keeps the bracket. */
+#include "solver_impl.h"
+
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "ow_die.h"
+
+#define OW_PI 3.14159265358979323846
+#define MAX_MARCHES 60
+#define G_RTOL 2e-5   /* relative throughput tolerance */
+#define P_ATOL 2e3    /* Pa: pressure mismatch accepted */
+
+enum ow_status ow_solver_create(const struct ow_study *s,
+				struct ow_solver **out, struct ow_diag *d)
+{
+	const struct ow_numerics *nm = &s->line.numerics;
+	struct ow_solver *sv = calloc(1, sizeof *sv);
+	double len = ow_screw_length(&s->screw);
+	enum ow_status st = OW_ENOMEM;
+	int bands;
+
+	*out = NULL;
+	if (!sv)
+		return ow_diag_set(d, OW_ENOMEM, "out of memory");
+	sv->s = s;
+	sv->n_steps = (int)ceil(len / s->screw.lead_m *
+				nm->stations_per_turn - 1e-9);
+	if (sv->n_steps < 4)
+		sv->n_steps = 4;
+	sv->dx_m = len / sv->n_steps;
+	sv->rows = calloc((size_t)sv->n_steps + 1, sizeof *sv->rows);
+	if (!sv->rows) {
+		ow_diag_set(d, OW_ENOMEM, "out of memory");
+		goto fail;
+	}
+	bands = (nm->depth_nodes - 1) / 2;
+	st = ow_melt_create(nm->depth_nodes, bands < 2 ? 2 : bands,
+			    &sv->melt, d);
+	if (st != OW_OK)
+		goto fail;
+	*out = sv;
+	return OW_OK;
+fail:
+	ow_solver_destroy(sv);
+	return st;
+}
+
+void ow_solver_destroy(struct ow_solver *sv)
+{
+	if (!sv)
+		return;
+	ow_melt_destroy(sv->melt);
+	free(sv->rows);
+	free(sv);
+}
+
+const struct ow_profile_row *ow_solver_profile(const struct ow_solver *sv,
+					       int *n_rows)
+{
+	*n_rows = sv->n_rows;
+	return sv->rows;
+}
+
+/* One evaluation of the match function. */
+struct eval {
+	double g, f, need;
+	struct march m;
+	enum ow_status st;
+};
+
+static void evaluate(struct ow_solver *sv, double g, struct eval *e, int *n)
+{
+	const struct ow_study *s = sv->s;
+	double dp = 0.0;
+
+	e->g = g;
+	(*n)++;
+	e->st = ow_solver_march(sv, g, &e->m);
+	if (e->st == OW_OK)
+		e->st = ow_die_pressure(&s->line.die, &s->resin, g,
+					e->m.bulk_K, &dp, &sv->diag);
+	e->need = dp + s->line.screen_pressure_Pa;
+	e->f = e->st == OW_OK ? e->m.tip_Pa - e->need : NAN;
+}
+
+/* Drag-flow capacity of the last conveying section, kg/s: a scale for G. */
+static double drag_scale(const struct ow_solver *sv)
+{
+	const struct ow_screw *sc = &sv->s->screw;
+	double phi = ow_screw_helix(sc, sc->diameter_m);
+	double vbz = OW_PI * sc->diameter_m * sv->rev_s * cos(phi);
+
+	return sv->s->resin.melt_density_kg_m3 * sc->flights * vbz *
+	       ow_screw_width(sc, sc->diameter_m) * ow_screw_meter_depth(sc) /
+	       2.0;
+}
+
+/* Walk from a guess until f changes sign: lo has f > 0, hi has f < 0. */
+static int bracket(struct ow_solver *sv, double g0, struct eval *lo,
+		   struct eval *hi, int *n)
+{
+	struct eval e;
+	double step = 1.3;
+
+	evaluate(sv, g0, &e, n);
+	if (e.st != OW_OK)
+		return 0;
+	*lo = *hi = e;
+	while (*n < MAX_MARCHES / 2) {
+		double g = e.f > 0.0 ? e.g * step : e.g / step;
+
+		evaluate(sv, g, &e, n);
+		if (e.st != OW_OK)
+			return 0;
+		if (e.f > 0.0)
+			*lo = e;
+		else
+			*hi = e;
+		if (lo->f > 0.0 && hi->f <= 0.0)
+			return 1;
+		step *= 1.3; /* widen: far guesses get there fast */
+	}
+	return 0;
+}
+
+/* Illinois regula falsi inside [lo, hi]; *best gets the last iterate. */
+static int refine(struct ow_solver *sv, struct eval *lo, struct eval *hi,
+		  struct eval *best, int *n)
+{
+	double flo = lo->f, fhi = hi->f;
+	int side = 0;
+
+	while (*n < MAX_MARCHES) {
+		double g = (lo->g * fhi - hi->g * flo) / (fhi - flo);
+
+		evaluate(sv, g, best, n);
+		if (best->st != OW_OK)
+			return 0;
+		if (fabs(best->f) < P_ATOL ||
+		    hi->g - lo->g < G_RTOL * best->g)
+			return 1;
+		if (best->f > 0.0) {
+			*lo = *best;
+			flo = best->f;
+			if (side == 1)
+				fhi *= 0.5;
+			side = 1;
+		} else {
+			*hi = *best;
+			fhi = best->f;
+			if (side == -1)
+				flo *= 0.5;
+			side = -1;
+		}
+	}
+	return 0;
+}
+
+/* Fill the figures of point *pt from the final march. */
+static void figures(const struct ow_solver *sv, const struct eval *e,
+		    struct ow_point *pt)
+{
+	const struct ow_study *s = sv->s;
+	const struct ow_material *mt = &s->resin;
+	double tf = s->line.feed_temp_K, g = e->g;
+	double h_out, in;
+
+	pt->output_kg_s = g;
+	pt->discharge_pressure_Pa = e->m.tip_Pa;
+	pt->max_pressure_Pa = e->m.max_Pa;
+	pt->max_pressure_at_m = e->m.max_at_m;
+	pt->discharge_bulk_K = e->m.bulk_K;
+	pt->discharge_peak_K = e->m.peak_tip_K;
+	pt->peak_K = e->m.peak_K;
+	pt->peak_at_m = e->m.peak_at_m;
+	pt->unmelt_frac = e->m.unmelt;
+	pt->melt_start_m = e->m.melt_start_m;
+	pt->melt_complete_m = e->m.melt_done_m;
+	pt->max_sbr = e->m.max_sbr;
+	pt->max_sbr_at_m = e->m.max_sbr_at_m;
+	pt->plugging_at_m = e->m.plug_at_m;
+	pt->power_W = e->m.power_W;
+	pt->torque_Nm = e->m.power_W / (2.0 * OW_PI * sv->rev_s);
+	pt->sec_J_kg = g > 0.0 ? e->m.power_W / g : NAN;
+	pt->barrel_heat_W = e->m.barrel_W;
+	memcpy(pt->zone_heat_W, e->m.zone_W, sizeof pt->zone_heat_W);
+	pt->residence_s = g > 0.0 ? e->m.hold_kg / g : NAN;
+	pt->flags |= e->m.flags;
+	/* energy book: drive + barrel + root = G (h_out - h_feed) + sum Q dP */
+	h_out = (1.0 - e->m.unmelt) * ow_material_enthalpy(mt, e->m.bulk_K, tf);
+	in = e->m.power_W + e->m.barrel_W + e->m.root_W;
+	pt->energy_residual = (in - g * h_out - e->m.flow_work_W) /
+			      (fabs(e->m.power_W) > 0.0 ? e->m.power_W : 1.0);
+}
+
+static enum ow_status check_run(const struct ow_solver *sv, double rpm,
+				const double *set_K, struct ow_diag *d)
+{
+	int i;
+
+	if (!(isfinite(rpm) && rpm > 0.0 && rpm < 5000.0))
+		return ow_diag_set(d, OW_EARG,
+				   "screw speed %g rpm must be positive", rpm);
+	for (i = 0; set_K && i < sv->s->line.n_zones; i++)
+		if (!(isfinite(set_K[i]) && set_K[i] > 200.0 &&
+		      set_K[i] < 900.0))
+			return ow_diag_set(d, OW_EARG,
+					   "zone %d set-point %g K is not a "
+					   "plausible temperature", i + 1,
+					   set_K[i]);
+	return OW_OK;
+}
+
+enum ow_status ow_solver_run(struct ow_solver *sv, double rpm,
+			     const double *set_K, double warm_kg_s,
+			     struct ow_point *out, struct ow_diag *d)
+{
+	const struct ow_line *l = &sv->s->line;
+	struct eval lo = {0}, hi = {0}, best = {0};
+	int n = 0, i, ok;
+	enum ow_status st = check_run(sv, rpm, set_K, d);
+
+	if (st != OW_OK)
+		return st;
+	memset(out, 0, sizeof *out);
+	ow_diag_clear(&sv->diag);
+	sv->rev_s = rpm / 60.0;
+	for (i = 0; i < l->n_zones; i++)
+		sv->set_K[i] = set_K ? set_K[i] : l->zones[i].set_K;
+	out->rpm = rpm;
+	memcpy(out->set_K, sv->set_K, sizeof out->set_K);
+	sv->record = 0;
+	ok = bracket(sv, warm_kg_s > 0.0 ? warm_kg_s : 0.5 * drag_scale(sv),
+		     &lo, &hi, &n) &&
+	     refine(sv, &lo, &hi, &best, &n);
+	if (!ok) {
+		out->flags |= OW_FLAG_NOT_CONVERGED;
+		best = fabs(lo.f) < fabs(hi.f) ? lo : hi;
+		if (!(best.g > 0.0))
+			best.g = 0.5 * drag_scale(sv);
+	}
+	sv->record = 1;
+	evaluate(sv, best.g, &best, &n); /* the profile of the answer */
+	sv->record = 0;
+	if (best.st != OW_OK)
+		out->flags |= OW_FLAG_NOT_CONVERGED;
+	out->n_iter = n;
+	figures(sv, &best, out);
+	return OW_OK;
+}
