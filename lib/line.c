@@ -13,7 +13,7 @@ void ow_line_default(struct ow_line *l)
 	l->limits = (struct ow_limits){NAN, NAN, NAN, NAN, NAN,
 				       NAN, NAN, NAN, NAN};
 	l->axes.mode = OW_AXIS_SHIFT;
-	l->numerics.stations_per_turn = 12;
+	l->numerics.stations_per_turn = 6; /* proven by test_solver */
 	l->numerics.depth_nodes = 21;
 	l->numerics.feed_pressure_Pa = 1e4; /* flood-fed hopper, small */
 }

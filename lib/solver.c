@@ -16,7 +16,8 @@
 #define OW_PI 3.14159265358979323846
 #define MAX_MARCHES 60
 #define G_RTOL 2e-5   /* relative throughput tolerance */
-#define P_ATOL 2e3    /* Pa: pressure mismatch accepted */
+#define P_ATOL 1e3    /* Pa: pressure mismatch accepted ... */
+#define P_RTOL 1e-4   /* ... or this share of the die's need */
 
 enum ow_status ow_solver_create(const struct ow_study *s,
 				struct ow_solver **out, struct ow_diag *d)
@@ -103,31 +104,45 @@ static double drag_scale(const struct ow_solver *sv)
 	       2.0;
 }
 
-/* Walk from a guess until f changes sign: lo has f > 0, hi has f < 0. */
-static int bracket(struct ow_solver *sv, double g0, struct eval *lo,
-		   struct eval *hi, int *n)
+static int done(const struct eval *e)
 {
-	struct eval e;
-	double step = 1.3;
+	return fabs(e->f) < fmax(P_ATOL, P_RTOL * e->need);
+}
 
-	evaluate(sv, g0, &e, n);
-	if (e.st != OW_OK)
-		return 0;
-	*lo = *hi = e;
-	while (*n < MAX_MARCHES / 2) {
-		double g = e.f > 0.0 ? e.g * step : e.g / step;
+/* Secant steps from a guess until f changes sign (lo: f > 0, hi: f < 0),
+ * each step kept within a factor of 3 and in the downhill direction. */
+static int bracket(struct ow_solver *sv, double g0, struct eval *lo,
+		   struct eval *hi, struct eval *best, int *n)
+{
+	struct eval a, b;
 
-		evaluate(sv, g, &e, n);
-		if (e.st != OW_OK)
-			return 0;
-		if (e.f > 0.0)
-			*lo = e;
-		else
-			*hi = e;
-		if (lo->f > 0.0 && hi->f <= 0.0)
-			return 1;
-		step *= 1.3; /* widen: far guesses get there fast */
+	evaluate(sv, g0, &a, n);
+	if (a.st != OW_OK)
+		return -1;
+	*best = a;
+	if (done(&a))
+		return 1;
+	evaluate(sv, a.f > 0.0 ? g0 * 1.1 : g0 / 1.1, &b, n);
+	while (b.st == OW_OK && !done(&b) && (a.f > 0.0) == (b.f > 0.0) &&
+	       *n < MAX_MARCHES / 2) {
+		double g = b.g - b.f * (b.g - a.g) / (b.f - a.f);
+		double up = b.f > 0.0 ? 1.0 : -1.0;
+
+		if (!isfinite(g) || (g - b.g) * up <= 0.0)
+			g = up > 0.0 ? b.g * 1.5 : b.g / 1.5;
+		g = fmin(fmax(g, b.g / 3.0), b.g * 3.0);
+		a = b;
+		evaluate(sv, g, &b, n);
 	}
+	if (b.st != OW_OK)
+		return -1;
+	*best = b;
+	if (done(&b))
+		return 1;
+	if ((a.f > 0.0) == (b.f > 0.0))
+		return -1;
+	*lo = a.f > 0.0 ? a : b;
+	*hi = a.f > 0.0 ? b : a;
 	return 0;
 }
 
@@ -144,8 +159,7 @@ static int refine(struct ow_solver *sv, struct eval *lo, struct eval *hi,
 		evaluate(sv, g, best, n);
 		if (best->st != OW_OK)
 			return 0;
-		if (fabs(best->f) < P_ATOL ||
-		    hi->g - lo->g < G_RTOL * best->g)
+		if (done(best) || hi->g - lo->g < G_RTOL * best->g)
 			return 1;
 		if (best->f > 0.0) {
 			*lo = *best;
@@ -225,7 +239,7 @@ enum ow_status ow_solver_run(struct ow_solver *sv, double rpm,
 {
 	const struct ow_line *l = &sv->s->line;
 	struct eval lo = {0}, hi = {0}, best = {0};
-	int n = 0, i, ok;
+	int n = 0, i, ok, rc;
 	enum ow_status st = check_run(sv, rpm, set_K, d);
 
 	if (st != OW_OK)
@@ -237,21 +251,19 @@ enum ow_status ow_solver_run(struct ow_solver *sv, double rpm,
 		sv->set_K[i] = set_K ? set_K[i] : l->zones[i].set_K;
 	out->rpm = rpm;
 	memcpy(out->set_K, sv->set_K, sizeof out->set_K);
-	sv->record = 0;
-	ok = bracket(sv, warm_kg_s > 0.0 ? warm_kg_s : 0.5 * drag_scale(sv),
-		     &lo, &hi, &n) &&
-	     refine(sv, &lo, &hi, &best, &n);
+	sv->record = 1; /* every march records: the last one is kept */
+	rc = bracket(sv, warm_kg_s > 0.0 ? warm_kg_s : 0.5 * drag_scale(sv),
+		     &lo, &hi, &best, &n);
+	ok = rc == 1 || (rc == 0 && refine(sv, &lo, &hi, &best, &n));
 	if (!ok) {
 		out->flags |= OW_FLAG_NOT_CONVERGED;
-		best = fabs(lo.f) < fabs(hi.f) ? lo : hi;
 		if (!(best.g > 0.0))
 			best.g = 0.5 * drag_scale(sv);
+		evaluate(sv, best.g, &best, &n); /* its profile */
+		if (best.st != OW_OK)
+			out->flags |= OW_FLAG_NOT_CONVERGED;
 	}
-	sv->record = 1;
-	evaluate(sv, best.g, &best, &n); /* the profile of the answer */
 	sv->record = 0;
-	if (best.st != OW_OK)
-		out->flags |= OW_FLAG_NOT_CONVERGED;
 	out->n_iter = n;
 	figures(sv, &best, out);
 	return OW_OK;

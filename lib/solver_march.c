@@ -39,6 +39,7 @@ struct ctx {
 	double pool_peak_K;
 	double film_peak_K;
 	double shear;      /* max shear rate at this station */
+	double melt_from;  /* melting may start from here (axial, m) */
 };
 
 double ow_solver_barrel(const struct ow_solver *sv, double x_m)
@@ -157,6 +158,21 @@ static void channel_split(const struct ctx *c, double x, struct split *sp)
 	sp->melt_w = c->width * share;
 	sp->melt_h = sec->melt_depth_start_m +
 		     (sec->melt_depth_end_m - sec->melt_depth_start_m) * f;
+}
+
+/* Feed capacity of the first section (Darnell & Mol 1956): the rate it
+ * conveys with no pressure loss along the plug. A demand above it means the
+ * feed section cannot supply the rate, even where melting starts at once. */
+static enum ow_status check_feed(struct ctx *c)
+{
+	struct ow_solids_in in = {c->sc, ow_screw_depth(c->sc, 0.0),
+				  c->sv->rev_s, c->mat};
+	struct ow_solids so;
+	enum ow_status st = ow_solids_prepare(&in, &so, &c->sv->diag);
+
+	if (st == OW_OK && c->g > ow_solids_max_flow(&so))
+		c->m->flags |= OW_FLAG_FEED_LIMITED;
+	return st;
 }
 
 static void start_melting(struct ctx *c, double x)
@@ -412,7 +428,7 @@ static enum ow_status one_step(struct ctx *c, double x, double dx)
 	double dz = dx / c->sinphi;
 
 	c->shear = 0.0;
-	if (c->ph == PH_SOLIDS &&
+	if (c->ph == PH_SOLIDS && x >= c->melt_from - 1e-9 &&
 	    ow_solver_barrel(c->sv, x) > c->mat->melt_temp_K)
 		start_melting(c, x);
 	if (c->ph == PH_SOLIDS)
@@ -445,6 +461,9 @@ static void init_ctx(struct ctx *c, struct ow_solver *sv, double g,
 	c->m = m;
 	c->P = c->ln->numerics.feed_pressure_Pa;
 	c->film_peak_K = NAN;
+	/* Melting starts where the barrel is above the melting point; the
+	 * delay zone is taken as zero (Tadmor & Klein 1970, ch. 9). */
+	c->melt_from = 0.0;
 	memset(m, 0, sizeof *m);
 	m->melt_start_m = m->melt_done_m = m->plug_at_m = NAN;
 	m->max_Pa = c->P;
@@ -483,6 +502,8 @@ enum ow_status ow_solver_march(struct ow_solver *sv, double g_kg_s,
 	enum ow_status st = OW_OK;
 
 	init_ctx(&c, sv, g_kg_s, m);
+	if (c.ph == PH_SOLIDS)
+		st = check_feed(&c);
 	sv->n_rows = 0;
 	record(&c, 0, 0.0);
 	for (i = 0; i < sv->n_steps && st == OW_OK; i++) {
