@@ -209,7 +209,9 @@ static void figures(const struct ow_solver *sv, const struct eval *e,
 	pt->residence_s = g > 0.0 ? e->m.hold_kg / g : NAN;
 	pt->flags |= e->m.flags;
 	/* energy book: drive + barrel + root = G (h_out - h_feed) + sum Q dP */
-	h_out = (1.0 - e->m.unmelt) * ow_material_enthalpy(mt, e->m.bulk_K, tf);
+	h_out = (1.0 - e->m.unmelt) *
+		(ow_material_enthalpy(mt, e->m.bulk_K, tf) -
+		 ow_material_enthalpy(mt, tf, tf)); /* solids leave at tf */
 	in = e->m.power_W + e->m.barrel_W + e->m.root_W;
 	pt->energy_residual = (in - g * h_out - e->m.flow_work_W) /
 			      (fabs(e->m.power_W) > 0.0 ? e->m.power_W : 1.0);

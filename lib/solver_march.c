@@ -107,9 +107,15 @@ static void melt_cond(const struct ctx *c, double x, double depth,
 	mc->leak_flight_len_per_z = 1.0;
 }
 
-/* Solids conveying over one step: P(z_b) = P1 exp(beta z_b) (Darnell &
- * Mol 1956). The barrel friction work is booked as drive power and, since
- * the plug's temperature is not tracked, as heat the barrel takes away. */
+/* Solids conveying over one step (Darnell & Mol 1956): the plug must carry
+ * the demanded rate G, which needs G below the section's zero-gradient
+ * capacity (feed_limited otherwise). Its constant-friction exponential
+ * pressure build-up P1 exp(beta z) is steep enough to reach absurd
+ * pressures over a few diameters, so the extruder is taken as melt
+ * controlled: the plug passes G at the feed pressure and the melt sections
+ * build the pressure (the usual case for smooth-barrel screws, Tadmor &
+ * Gogos 2006 ch. 9). The barrel friction work is drive power that heats
+ * the barrel wall, since the plug's temperature is not tracked. */
 static enum ow_status step_solids(struct ctx *c, double x, double dz)
 {
 	struct ow_solids_in in = {c->sc, ow_screw_depth(c->sc, x),
@@ -128,7 +134,6 @@ static enum ow_status step_solids(struct ctx *c, double x, double dz)
 	w = ow_solids_barrel_power(&so, o.theta_rad, c->P) * dz * c->p;
 	c->m->power_W += w;
 	book_barrel(c, x, -w);
-	c->P *= exp(o.beta_1_m * dz);
 	return OW_OK;
 }
 

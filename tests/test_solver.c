@@ -1,0 +1,247 @@
+/* test_solver.c - one operating point end to end: the screw-die match
+ * against a closed form, the energy balance, resolution, and the trends
+ * every extrusion engineer expects. */
+#include "testutil.h"
+
+#include <stdlib.h>
+#include <string.h>
+
+#include "ow_config.h"
+#include "ow_solver.h"
+#include "ow_units.h"
+
+static struct ow_units *units;
+
+static int setup(void **state)
+{
+	(void)state;
+	return ow_units_create(&units, NULL) == OW_OK ? 0 : -1;
+}
+
+static int teardown(void **state)
+{
+	(void)state;
+	ow_units_destroy(units);
+	return 0;
+}
+
+static struct ow_study *load(const char *path)
+{
+	struct ow_study *s = calloc(1, sizeof *s);
+	struct ow_diag d = {{0}};
+
+	assert_non_null(s);
+	if (ow_config_load_study(units, path, s, &d) != OW_OK)
+		fail_msg("%s", d.msg);
+	return s;
+}
+
+static struct ow_point solve(const struct ow_study *s, double rpm,
+			     const double *set_K)
+{
+	struct ow_solver *sv = NULL;
+	struct ow_point pt;
+	struct ow_diag d = {{0}};
+
+	assert_int_equal(ow_solver_create(s, &sv, &d), OW_OK);
+	assert_int_equal(ow_solver_run(sv, rpm, set_K, 0.0, &pt, &d), OW_OK);
+	ow_solver_destroy(sv);
+	assert_false(pt.flags & OW_FLAG_NOT_CONVERGED);
+	return pt;
+}
+
+/* Melt-fed Newtonian metering section (8 D, H = 3.175 mm, mu = 1000 Pa s,
+ * 60 rpm, shape factors F_d and F_p, no leakage) against a rod die R =
+ * 2.5 mm, L = 20 mm: operating point dP = mu Q_d / (K + B) = 1.8615e7 Pa,
+ * Q = 1.42774e-5 m3/s (Tadmor & Klein 1970 screw characteristic with the
+ * Hagen-Poiseuille die, Bird, Stewart & Lightfoot 2002; values
+ * recomputed). The full march, energy equation and matching reproduce it
+ * because the melt is Newtonian and its viscosity temperature-free. */
+static void match_reproduces_newtonian_rod_die_operating_point(void **st)
+{
+	struct ow_study *s = load("tests/data/newtonian-rod.json");
+	struct ow_point pt = solve(s, 60.0, NULL);
+	(void)st;
+	assert_rel(pt.discharge_pressure_Pa, 1.8615e7, 2e-4);
+	assert_rel(pt.output_kg_s / 760.0, 1.42774e-5, 2e-4);
+	free(s);
+}
+
+/* Drive power + barrel heat = G (h_out - h_in) + flow work, within 1 %
+ * (first law for the open system hopper -> tip; enthalpies with latent
+ * heat, Tadmor & Gogos 2006 ch. 9). */
+static void energy_closes_on_demo_and_melt_fed_line(void **st)
+{
+	const char *studies[] = {"demo/study-si.json",
+				 "fixtures/studies/melt-fed.json",
+				 "fixtures/studies/hdpe-barrier.json"};
+	double rpm[] = {30.0, 90.0};
+	size_t i, k;
+	(void)st;
+	for (i = 0; i < 3; i++) {
+		struct ow_study *s = load(studies[i]);
+
+		for (k = 0; k < 2; k++) {
+			struct ow_point pt = solve(s, rpm[k], NULL);
+
+			assert_abs(pt.energy_residual, 0.0, 0.01);
+			assert_true(pt.power_W > 0.0);
+		}
+		free(s);
+	}
+}
+
+/* Halving the station spacing and the depth spacing moves the peak
+ * temperature by < 0.5 K and the throughput by < 0.5 % (the default
+ * resolution is converged). */
+static void default_resolution_is_converged_on_demo(void **st)
+{
+	struct ow_study *s = load("demo/study-si.json");
+	double rpm[] = {30.0, 70.0, 120.0};
+	size_t k;
+	(void)st;
+	for (k = 0; k < 3; k++) {
+		struct ow_point a, b;
+		struct ow_numerics keep = s->line.numerics;
+
+		a = solve(s, rpm[k], NULL);
+		s->line.numerics.stations_per_turn *= 2;
+		s->line.numerics.depth_nodes =
+			2 * (s->line.numerics.depth_nodes - 1) + 1;
+		b = solve(s, rpm[k], NULL);
+		s->line.numerics = keep;
+		assert_abs(a.peak_K, b.peak_K, 0.5);
+		assert_rel(a.output_kg_s, b.output_kg_s, 0.005);
+	}
+	free(s);
+}
+
+/* Trends of the trade (common practice): output and peak melt temperature
+ * rise with screw speed. */
+static void output_and_peak_rise_with_speed(void **st)
+{
+	struct ow_study *s = load("fixtures/studies/hdpe-sf.json");
+	struct ow_point prev = solve(s, 30.0, NULL), pt;
+	double rpm;
+	(void)st;
+	for (rpm = 50.0; rpm <= 130.0; rpm += 20.0) {
+		pt = solve(s, rpm, NULL);
+		assert_true(pt.output_kg_s > prev.output_kg_s);
+		assert_true(pt.peak_K > prev.peak_K);
+		assert_true(pt.power_W > prev.power_W);
+		prev = pt;
+	}
+	free(s);
+}
+
+/* A deeper metering section gives more output and a cooler melt at the
+ * same speed (common practice; drag flow grows with depth, shear heating
+ * falls). */
+static void deeper_metering_gives_more_output_and_cooler_melt(void **st)
+{
+	struct ow_study *a = load("fixtures/studies/hdpe-sf.json");
+	struct ow_study *b = load("fixtures/studies/hdpe-deep.json");
+	struct ow_point pa = solve(a, 80.0, NULL), pb = solve(b, 80.0, NULL);
+	(void)st;
+	assert_true(pb.output_kg_s > pa.output_kg_s);
+	assert_true(pb.peak_K < pa.peak_K);
+	free(a);
+	free(b);
+}
+
+/* A worn screw (larger flight clearance) gives less output and a hotter
+ * melt at the same speed (common practice: leakage flow back over the
+ * flights, sheared hard in the clearance). */
+static void worn_screw_gives_less_output_and_hotter_melt(void **st)
+{
+	struct ow_study *a = load("fixtures/studies/hdpe-sf.json");
+	struct ow_study *b = load("fixtures/studies/hdpe-worn.json");
+	struct ow_point pa = solve(a, 80.0, NULL), pb = solve(b, 80.0, NULL);
+	(void)st;
+	assert_true(pb.output_kg_s < pa.output_kg_s);
+	assert_true(pb.discharge_bulk_K > pa.discharge_bulk_K);
+	assert_true(pb.peak_K > pa.peak_K);
+	free(a);
+	free(b);
+}
+
+/* With a cool feed barrel (below the melting point up to 12 D) the bed
+ * starts melting at 12 D at full width. The abrupt screw compresses the
+ * channel over 0.75 D there, faster than the bed can melt (Tadmor's
+ * criterion psi_t <= A, Tadmor & Klein 1970 ch. 9): the bed fills the
+ * channel and the point is flagged plugging. The gradual 8 D taper at the
+ * same rate is not. */
+static void abrupt_compression_plugs_and_gradual_does_not(void **st)
+{
+	struct ow_study *a = load("fixtures/studies/hdpe-abrupt.json");
+	struct ow_study *b = load("fixtures/studies/hdpe-sf.json");
+	double set[OW_MAX_ZONES];
+	struct ow_point pa, pb;
+	int i;
+	(void)st;
+	for (i = 0; i < a->line.n_zones; i++)
+		set[i] = a->line.zones[i].set_K;
+	set[0] = set[1] = 393.15; /* 120 degC, below 130 degC melting */
+	pa = solve(a, 60.0, set);
+	pb = solve(b, 60.0, set);
+	assert_true(pa.flags & OW_FLAG_PLUGGING);
+	assert_abs(pa.max_sbr, 1.0, 1e-9);
+	assert_false(pb.flags & OW_FLAG_PLUGGING);
+	assert_true(pb.max_sbr < 1.0);
+	free(a);
+	free(b);
+}
+
+/* The same point solved twice, and from a warm start, gives the same
+ * figures (no hidden state in the workspace). */
+static void solver_is_repeatable_and_warm_start_agrees(void **st)
+{
+	struct ow_study *s = load("demo/study-si.json");
+	struct ow_solver *sv = NULL;
+	struct ow_point a, b, c;
+	(void)st;
+	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, 70.0, NULL, 0.0, &a, NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, 70.0, NULL, 0.0, &b, NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, 70.0, NULL, a.output_kg_s * 0.9,
+				       &c, NULL), OW_OK);
+	assert_memory_equal(&a, &b, sizeof a);
+	assert_rel(c.output_kg_s, a.output_kg_s, 1e-3);
+	ow_solver_destroy(sv);
+	free(s);
+}
+
+/* A barrel far below the melting point never melts the feed: the point is
+ * returned with its flags and figures, never a crash. */
+static void cold_barrel_returns_a_flagged_point(void **st)
+{
+	struct ow_study *s = load("demo/study-si.json");
+	struct ow_solver *sv = NULL;
+	struct ow_point pt;
+	double set[OW_MAX_ZONES];
+	int i;
+	(void)st;
+	for (i = 0; i < s->line.n_zones; i++)
+		set[i] = 363.15; /* 90 degC */
+	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, 60.0, set, 0.0, &pt, NULL), OW_OK);
+	assert_true(pt.flags & (OW_FLAG_NO_MELTING | OW_FLAG_NOT_CONVERGED));
+	ow_solver_destroy(sv);
+	free(s);
+}
+
+int main(void)
+{
+	const struct CMUnitTest tests[] = {
+		cmocka_unit_test(match_reproduces_newtonian_rod_die_operating_point),
+		cmocka_unit_test(energy_closes_on_demo_and_melt_fed_line),
+		cmocka_unit_test(default_resolution_is_converged_on_demo),
+		cmocka_unit_test(output_and_peak_rise_with_speed),
+		cmocka_unit_test(deeper_metering_gives_more_output_and_cooler_melt),
+		cmocka_unit_test(worn_screw_gives_less_output_and_hotter_melt),
+		cmocka_unit_test(abrupt_compression_plugs_and_gradual_does_not),
+		cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
+		cmocka_unit_test(cold_barrel_returns_a_flagged_point),
+	};
+	return cmocka_run_group_tests(tests, setup, teardown);
+}
