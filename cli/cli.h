@@ -32,6 +32,7 @@ struct cli_command {
 
 int cmd_check(int argc, char **argv);
 int cmd_point(int argc, char **argv);
+int cmd_map(int argc, char **argv);
 int cmd_fit(int argc, char **argv);
 
 /* Map a library status to the exit code. */

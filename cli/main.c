@@ -11,6 +11,7 @@ static const struct cli_command commands[] = {
 	{"check", cmd_check, "validate inputs; print derived screw data"},
 	{"fit", cmd_fit, "fit a viscosity model to lab data"},
 	{"help", cmd_help, "help on a command: opwin help COMMAND"},
+	{"map", cmd_map, "sweep, classify, window, maps and report"},
 	{"point", cmd_point, "solve one operating point"},
 };
 

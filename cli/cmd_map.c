@@ -1,0 +1,270 @@
+/* cmd_map.c - `opwin map STUDY.json -o DIR`: sweep the grid, classify,
+ * extract the window, write grid.csv, window.json, the maps and the
+ * report, and print the recommended window. */
+#include "cli.h"
+
+#include <errno.h>
+#include <getopt.h>
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <sys/stat.h>
+#include <time.h>
+#include <unistd.h>
+
+struct map_opts {
+	struct cli_common c;
+	const char *dir;
+	int rpm_steps, axis_steps, refine;
+};
+
+static void help(void)
+{
+	printf("usage: opwin map STUDY.json [-o DIR] [--grid NxM] [--refine K]\n"
+	       "                [--jobs N] [--units si|us] [--quiet]\n\n"
+	       "Sweeps screw speed x barrel set-point, classifies every point "
+	       "against the\nstudy's limits, extracts the recommended window "
+	       "and writes grid.csv,\nwindow.json, the maps and report.pdf "
+	       "into DIR (default: opwin-map).\n\n"
+	       "  -o DIR        output folder (created if missing)\n"
+	       "  --grid NxM    N speeds x M barrel values (default: the "
+	       "study's sweep)\n"
+	       "  --refine K    re-solve cells a boundary crosses, K levels "
+	       "of halving (0..4)\n"
+	       "  --jobs N      threads (default: all cores)\n"
+	       "  --quiet       no progress bar, no summary\n"
+	       "exit codes: 0 ok (also for an empty window), 1 inputs "
+	       "rejected, 2 usage,\n            3 computation failed, 4 "
+	       "output could not be written\n");
+}
+
+/* Progress on stderr when it is a terminal: done, rate, time left. */
+struct progress {
+	struct timespec t0;
+};
+
+static double since(const struct timespec *t0)
+{
+	struct timespec t;
+
+	clock_gettime(CLOCK_MONOTONIC, &t);
+	return (double)(t.tv_sec - t0->tv_sec) +
+	       1e-9 * (double)(t.tv_nsec - t0->tv_nsec);
+}
+
+static void show_progress(void *ctx, int done, int total)
+{
+	struct progress *p = ctx;
+	double t = since(&p->t0), rate = t > 0.0 ? done / t : 0.0;
+	int width = 30, fill = total ? (int)((long)width * done / total) : 0;
+	char bar[32];
+
+	memset(bar, '#', (size_t)fill);
+	memset(bar + fill, '.', (size_t)(width - fill));
+	bar[width] = '\0';
+	fprintf(stderr, "\r[%s] %d/%d points, %.0f/s, %.0f s left ", bar, done,
+		total, rate, rate > 0.0 ? (total - done) / rate : 0.0);
+	if (done >= total)
+		fprintf(stderr, "\n");
+}
+
+static int parse_grid(const char *s, int *n, int *m)
+{
+	char *end;
+	long a = strtol(s, &end, 10), b;
+
+	if (*end != 'x' && *end != 'X')
+		return -1;
+	b = strtol(end + 1, &end, 10);
+	if (*end || a < 2 || b < 2 || a > 1000 || b > 1000)
+		return -1;
+	*n = (int)a;
+	*m = (int)b;
+	return 0;
+}
+
+static int make_dir(const char *dir)
+{
+	if (mkdir(dir, 0777) == 0 || errno == EEXIST) {
+		struct stat st;
+
+		if (stat(dir, &st) == 0 && S_ISDIR(st.st_mode))
+			return 0;
+	}
+	fprintf(stderr, "opwin map: %s: cannot create the output folder: %s\n",
+		dir, strerror(errno));
+	return CLI_OUTPUT;
+}
+
+static int write_text(const char *dir, const char *name, char *text,
+		      enum ow_status st, struct ow_diag *d)
+{
+	char path[OW_PATH_LEN];
+
+	if (st == OW_OK) {
+		snprintf(path, sizeof path, "%s/%s", dir, name);
+		st = ow_results_write_file(path, text, strlen(text), d);
+	}
+	free(text);
+	return st == OW_OK ? CLI_OK : cli_fail("map", st, d);
+}
+
+#define SHOW(dim, si) ow_display_value(o->c.units, dim, si), \
+		      ow_display_label(o->c.units, dim)
+
+static void print_empty(const struct ow_window *w)
+{
+	enum ow_check order[OW_CK_COUNT];
+	int n = ow_window_binding(w, order), i;
+
+	printf("No safe operating point in the swept range.\n"
+	       "Limits that exclude the most points:\n");
+	for (i = 0; i < n && i < 4; i++)
+		printf("  %-14s %s (%d points)\n", ow_check_key(order[i]),
+		       ow_check_text(order[i]), w->fail_count[order[i]]);
+}
+
+/* "lo - hi unit" in the display system. */
+static void range(const struct map_opts *o, enum ow_dim dim, double lo,
+		  double hi)
+{
+	printf("%.1f - %.1f %s", ow_display_value(o->c.units, dim, lo),
+	       ow_display_value(o->c.units, dim, hi),
+	       ow_display_label(o->c.units, dim));
+}
+
+static void print_window(const struct ow_study *s, const struct ow_grid *g,
+			 const struct ow_window *w,
+			 const struct map_opts *o)
+{
+	int z;
+
+	printf("%s\n", s->title);
+	if (w->empty) {
+		print_empty(w);
+		return;
+	}
+	printf("Recommended window\n  screw speed       %.1f - %.1f rpm\n",
+	       w->rpm_min, w->rpm_max);
+	for (z = 0; z < s->line.n_zones; z++) {
+		printf("  zone %-2d set-point ", z + 1);
+		range(o, OW_DIM_TEMPERATURE, w->zone_min_K[z], w->zone_max_K[z]);
+		printf("%s\n", z == ow_line_reference_zone(&s->line)
+				       ? "  (axis reference)" : "");
+	}
+	printf("  centre point      %.1f rpm at %.1f %s\n", w->centre.rpm,
+	       SHOW(OW_DIM_TEMPERATURE, w->centre_set_K));
+	printf("  expected output   ");
+	range(o, OW_DIM_MASS_FLOW, w->output_min_kg_s, w->output_max_kg_s);
+	printf("\n  melt temperature  ");
+	range(o, OW_DIM_TEMPERATURE, w->melt_min_K, w->melt_max_K);
+	printf(" bulk at discharge, hottest peak %.1f %s\n",
+	       SHOW(OW_DIM_TEMPERATURE, w->peak_max_K));
+	printf("  safe share of the map %.0f %%, %d points solved\n",
+	       100.0 * w->safe_fraction, g->solves);
+}
+
+static int write_outputs(const struct ow_study *s, const struct ow_grid *g,
+			 const struct ow_window *w, const struct map_opts *o)
+{
+	struct ow_diag d = {{0}};
+	char *text = NULL;
+	int rc;
+
+	rc = write_text(o->dir, "grid.csv", text,
+			ow_results_grid_csv(s, g, &text, &d), &d);
+	if (rc)
+		return rc;
+	text = NULL;
+	return write_text(o->dir, "window.json", text,
+			  ow_results_window_json(s, g, w, &text, &d), &d);
+}
+
+static int sweep(const struct ow_study *s, const struct map_opts *o)
+{
+	struct ow_sweep_config cfg;
+	struct progress pr;
+	struct ow_grid *g = NULL;
+	struct ow_window *w = NULL;
+	struct ow_diag d = {{0}};
+	enum ow_status st;
+	int rc;
+
+	ow_sweep_default(&cfg);
+	cfg.jobs = o->c.jobs;
+	cfg.refine = o->refine;
+	cfg.rpm_steps = o->rpm_steps;
+	cfg.axis_steps = o->axis_steps;
+	clock_gettime(CLOCK_MONOTONIC, &pr.t0);
+	if (!o->c.quiet && isatty(STDERR_FILENO)) {
+		cfg.progress = show_progress;
+		cfg.progress_ctx = &pr;
+	}
+	st = ow_sweep_run(s, &cfg, &g, &d);
+	if (st == OW_OK)
+		st = ow_window_extract(s, g, &w, &d);
+	if (st != OW_OK) {
+		rc = cli_fail("map", st, &d);
+		goto done;
+	}
+	rc = write_outputs(s, g, w, o);
+	if (!rc && !o->c.quiet) {
+		print_window(s, g, w, o);
+		printf("written to %s/ (grid.csv, window.json)\n", o->dir);
+	}
+done:
+	ow_window_destroy(w);
+	ow_grid_destroy(g);
+	return rc;
+}
+
+int cmd_map(int argc, char **argv)
+{
+	static const struct option opts[] = {
+		CLI_COMMON_LONGOPTS,
+		{"output", required_argument, NULL, 'o'},
+		{"grid", required_argument, NULL, 'g'},
+		{"refine", required_argument, NULL, 'r'},
+		{NULL, 0, NULL, 0},
+	};
+	struct map_opts o = {{OW_SYS_SI, 0, 0}, "opwin-map", 0, 0, 0};
+	struct ow_units *u = NULL;
+	struct ow_study *s = NULL;
+	char *end;
+	int id, rc;
+
+	optind = 1;
+	while ((id = getopt_long(argc, argv, "ho:q", opts, NULL)) != -1) {
+		if (id == 'h' || id == 'V') {
+			id == 'h' ? help() : cli_version();
+			return CLI_OK;
+		}
+		if (id == 'o') {
+			o.dir = optarg;
+		} else if (id == 'g') {
+			if (parse_grid(optarg, &o.rpm_steps, &o.axis_steps))
+				return cli_usage_error("map", "--grid takes NxM, "
+							      "2..1000 each");
+		} else if (id == 'r') {
+			long k = strtol(optarg, &end, 10);
+
+			if (*end || !*optarg || k < 0 || k > 4)
+				return cli_usage_error("map",
+						       "--refine takes 0..4");
+			o.refine = (int)k;
+		} else if ((rc = cli_common_option("map", &o.c, id, optarg))) {
+			return rc;
+		}
+	}
+	if (optind != argc - 1)
+		return cli_usage_error("map", "expects one STUDY.json");
+	if ((rc = cli_load_study("map", argv[optind], &u, &s)))
+		return rc;
+	rc = make_dir(o.dir);
+	if (!rc)
+		rc = sweep(s, &o);
+	free(s);
+	ow_units_destroy(u);
+	return rc;
+}
