@@ -1,0 +1,595 @@
+/* mapdir.c - save a map folder (self-contained study, lattice, centre
+ * profile) and load it back so the maps and the report can be drawn again
+ * without solving. Layout of the files: ow_mapdir.h. */
+#include "mapdir_impl.h"
+
+#include <cjson/cJSON.h>
+#include <errno.h>
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <sys/stat.h>
+
+#include "ow_classify.h"
+#include "ow_results.h"
+
+#define FORMAT "opwin map folder"
+#define FORMAT_VERSION 1
+#define MAX_STRIDE 16 /* 2^4: the sweep's deepest refinement */
+#define BIT_DIGITS ((OW_CK_COUNT + 3) / 4) /* hex digits of a status */
+
+/* CRC-32 continued over n bytes (IEEE 802.3 polynomial, reflected; ISO
+ * 3309), the same sum the study loader keeps in input_crc. */
+static unsigned long crc32_more(unsigned long crc, const void *p, size_t n)
+{
+	const unsigned char *b = p;
+	int k;
+
+	crc = ~crc & 0xFFFFFFFFUL;
+	while (n--) {
+		crc ^= *b++;
+		for (k = 0; k < 8; k++)
+			crc = (crc >> 1) ^ (0xEDB88320UL & (0UL - (crc & 1UL)));
+	}
+	return ~crc & 0xFFFFFFFFUL;
+}
+
+/* ---- study.json: the inputs with screw and resin embedded ------------ */
+
+/* Parse the file at path (continuing *crc over its bytes, skipping a
+ * UTF-8 byte order mark as the loader does). */
+static enum ow_status read_json(const char *path, unsigned long *crc,
+				cJSON **out, struct ow_diag *d)
+{
+	char *buf = NULL;
+	size_t len = 0, bom;
+	int err = md_slurp(path, &buf, &len);
+
+	if (err)
+		return ow_diag_set(d, OW_EINPUT, "%s: cannot read it again to "
+				   "copy it into the map folder: %s", path,
+				   strerror(err));
+	*crc = crc32_more(*crc, buf, len);
+	bom = len >= 3 && !memcmp(buf, "\xEF\xBB\xBF", 3) ? 3 : 0;
+	*out = cJSON_ParseWithLength(buf + bom, len - bom);
+	free(buf);
+	if (!*out)
+		return ow_diag_set(d, OW_EINPUT, "%s: no longer a JSON text "
+				   "(changed since it was loaded)", path);
+	return OW_OK;
+}
+
+/* Replace the file name under key by the parsed file (when it was one). */
+static enum ow_status embed(cJSON *study, const char *key, const char *file,
+			    unsigned long *crc, struct ow_diag *d)
+{
+	cJSON *part = NULL;
+	enum ow_status st;
+
+	if (!file[0])
+		return OW_OK; /* embedded already */
+	st = read_json(file, crc, &part, d);
+	if (st != OW_OK)
+		return st;
+	if (!cJSON_ReplaceItemInObjectCaseSensitive(study, key, part)) {
+		cJSON_Delete(part);
+		return ow_diag_set(d, OW_ENOMEM, "out of memory");
+	}
+	return OW_OK;
+}
+
+/* The text of DIR/study.json, in the reading order of the loader (study,
+ * screw, resin) so the CRC-32 must equal the one taken at loading. */
+static enum ow_status study_text(const struct ow_study *s, char **out,
+				 struct ow_diag *d)
+{
+	unsigned long crc = 0;
+	cJSON *doc = NULL;
+	enum ow_status st = read_json(s->path, &crc, &doc, d);
+
+	*out = NULL;
+	if (st == OW_OK)
+		st = embed(doc, "screw", s->screw_path, &crc, d);
+	if (st == OW_OK)
+		st = embed(doc, "resin", s->resin_path, &crc, d);
+	if (st == OW_OK && crc != s->input_crc)
+		st = ow_diag_set(d, OW_EINPUT, "%s: the input files changed "
+				 "since they were loaded (CRC-32 %08lX, was "
+				 "%08lX): run again", s->path, crc,
+				 s->input_crc);
+	if (st == OW_OK && !(*out = cJSON_Print(doc)))
+		st = ow_diag_set(d, OW_ENOMEM, "out of memory");
+	cJSON_Delete(doc);
+	return st;
+}
+
+/* ---- lattice.json ------------------------------------------------------ */
+
+/* Status bits of lattice row ia as hex digits, BIT_DIGITS per point. */
+static char *status_row(const struct ow_grid *g, int ia)
+{
+	char *row = malloc((size_t)g->n_rpm * BIT_DIGITS + 1);
+	int ir;
+
+	if (!row)
+		return NULL;
+	for (ir = 0; ir < g->n_rpm; ir++)
+		snprintf(row + ir * BIT_DIGITS, BIT_DIGITS + 1, "%0*X",
+			 BIT_DIGITS, ow_grid_at(g, ir, ia)->v.bits);
+	return row;
+}
+
+static int add_status(cJSON *o, const struct ow_grid *g)
+{
+	cJSON *rows = cJSON_AddArrayToObject(o, "status");
+	int ia, ok = rows != NULL;
+
+	for (ia = 0; ok && ia < g->n_axis; ia++) {
+		char *row = status_row(g, ia);
+		cJSON *item = row ? cJSON_CreateString(row) : NULL;
+
+		ok = item && cJSON_AddItemToArray(rows, item);
+		free(row);
+	}
+	return ok;
+}
+
+static int add_axes(cJSON *o, const struct ow_grid *g)
+{
+	double *v = malloc(sizeof *v * (size_t)(g->n_rpm + g->n_axis));
+	cJSON *rpm, *axis;
+	int i, ok;
+
+	if (!v)
+		return 0;
+	for (i = 0; i < g->n_rpm; i++)
+		v[i] = ow_grid_at(g, i, 0)->rpm;
+	for (i = 0; i < g->n_axis; i++)
+		v[g->n_rpm + i] = ow_grid_at(g, 0, i)->axis;
+	rpm = cJSON_CreateDoubleArray(v, g->n_rpm);
+	axis = cJSON_CreateDoubleArray(v + g->n_rpm, g->n_axis);
+	free(v);
+	ok = rpm && cJSON_AddItemToObject(o, "rpm", rpm);
+	if (!ok)
+		cJSON_Delete(rpm);
+	ok = ok && axis && cJSON_AddItemToObject(o, "axis", axis);
+	if (!ok)
+		cJSON_Delete(axis);
+	return ok;
+}
+
+static int add_inputs(cJSON *o, const struct ow_study *s, int has_profile)
+{
+	cJSON *in = cJSON_AddObjectToObject(o, "inputs");
+	const char *keys[OW_CK_COUNT];
+	char crc[16];
+	int k;
+
+	snprintf(crc, sizeof crc, "%08lX", s->input_crc);
+	for (k = 0; k < OW_CK_COUNT; k++)
+		keys[k] = ow_check_key((enum ow_check)k);
+	return in && cJSON_AddStringToObject(in, "study", s->path) &&
+	       cJSON_AddStringToObject(in, "screw", s->screw_path) &&
+	       cJSON_AddStringToObject(in, "resin", s->resin_path) &&
+	       cJSON_AddStringToObject(in, "crc32", crc) &&
+	       cJSON_AddItemToObject(o, "checks", cJSON_CreateStringArray(
+						       keys, OW_CK_COUNT)) &&
+	       cJSON_AddBoolToObject(o, "profile", has_profile);
+}
+
+static enum ow_status lattice_text(const struct ow_study *s,
+				   const struct ow_grid *g, int has_profile,
+				   char **out, struct ow_diag *d)
+{
+	cJSON *o = cJSON_CreateObject();
+	int ok = o && cJSON_AddStringToObject(o, "format", FORMAT) &&
+		 cJSON_AddNumberToObject(o, "version", FORMAT_VERSION) &&
+		 add_inputs(o, s, has_profile) &&
+		 cJSON_AddNumberToObject(o, "n_rpm", g->n_rpm) &&
+		 cJSON_AddNumberToObject(o, "n_axis", g->n_axis) &&
+		 cJSON_AddNumberToObject(o, "stride", g->stride) &&
+		 cJSON_AddNumberToObject(o, "solves", g->solves) &&
+		 add_axes(o, g) && add_status(o, g);
+
+	*out = ok ? cJSON_Print(o) : NULL;
+	cJSON_Delete(o);
+	return *out ? OW_OK : ow_diag_set(d, OW_ENOMEM, "out of memory");
+}
+
+/* ---- save ------------------------------------------------------------- */
+
+static enum ow_status put(const char *dir, const char *name, char *text,
+			  struct ow_diag *d)
+{
+	char path[OW_PATH_LEN + 32];
+	enum ow_status st = OW_OK;
+
+	if (!text)
+		return OW_OK;
+	st = md_path(path, sizeof path, dir, name, d);
+	if (st == OW_OK)
+		st = ow_results_write_file(path, text, strlen(text), d);
+	return st;
+}
+
+enum ow_status ow_mapdir_save(const struct ow_study *s,
+			      const struct ow_grid *g,
+			      const struct ow_profile_row *rows, int n_rows,
+			      const char *dir, struct ow_diag *d)
+{
+	char *study = NULL, *lat = NULL, *pts = NULL, *prof = NULL;
+	int has_profile = rows && n_rows > 0;
+	enum ow_status st;
+
+	if (!s || !g || !dir)
+		return ow_diag_set(d, OW_EARG, "ow_mapdir_save: NULL argument");
+	st = study_text(s, &study, d);
+	if (st == OW_OK)
+		st = lattice_text(s, g, has_profile, &lat, d);
+	if (st == OW_OK)
+		st = md_points_csv(g, s->line.n_zones, &pts, d);
+	if (st == OW_OK && has_profile)
+		st = ow_results_profile_csv(s, rows, n_rows, &prof, d);
+	/* lattice.json last: it marks a complete folder */
+	if (st == OW_OK)
+		st = put(dir, "study.json", study, d);
+	if (st == OW_OK)
+		st = put(dir, "lattice.csv", pts, d);
+	if (st == OW_OK && has_profile)
+		st = put(dir, "profile.csv", prof, d);
+	if (st == OW_OK)
+		st = put(dir, "lattice.json", lat, d);
+	free(study);
+	free(lat);
+	free(pts);
+	free(prof);
+	return st;
+}
+
+/* ---- load ------------------------------------------------------------- */
+
+struct lattice_doc {
+	const char *file; /* for messages */
+	const cJSON *o;
+	struct ow_diag *d;
+};
+
+static enum ow_status key_bad(const struct lattice_doc *L, const char *key,
+			      const char *what)
+{
+	return ow_diag_set(L->d, OW_EINPUT, "%s: %s: %s", L->file, key, what);
+}
+
+static enum ow_status get_int(const struct lattice_doc *L, const char *key,
+			      int lo, int hi, int *out)
+{
+	const cJSON *v = cJSON_GetObjectItemCaseSensitive(L->o, key);
+
+	if (!cJSON_IsNumber(v) || v->valuedouble != floor(v->valuedouble) ||
+	    v->valuedouble < lo || v->valuedouble > hi)
+		return key_bad(L, key, "missing or out of range");
+	*out = (int)v->valuedouble;
+	return OW_OK;
+}
+
+/* Format, version and the status bit order this build uses. */
+static enum ow_status check_format(const struct lattice_doc *L)
+{
+	const cJSON *f = cJSON_GetObjectItemCaseSensitive(L->o, "format");
+	const cJSON *c = cJSON_GetObjectItemCaseSensitive(L->o, "checks");
+	int v = 0, k;
+
+	if (!cJSON_IsString(f) || strcmp(f->valuestring, FORMAT))
+		return key_bad(L, "format", "not \"" FORMAT "\"");
+	if (get_int(L, "version", FORMAT_VERSION, FORMAT_VERSION, &v))
+		return OW_EINPUT;
+	if (cJSON_GetArraySize(c) != OW_CK_COUNT)
+		goto checks;
+	for (k = 0; k < OW_CK_COUNT; k++) {
+		const cJSON *e = cJSON_GetArrayItem(c, k);
+
+		if (!cJSON_IsString(e) ||
+		    strcmp(e->valuestring, ow_check_key((enum ow_check)k)))
+			goto checks;
+	}
+	return OW_OK;
+checks:
+	return key_bad(L, "checks", "the status bits were saved in another "
+		       "order (another version of opwin): run the map again");
+}
+
+static enum ow_status make_lattice(const struct lattice_doc *L,
+				   struct ow_grid **out)
+{
+	struct ow_grid *g = calloc(1, sizeof *g);
+	enum ow_status st;
+
+	*out = g;
+	if (!g)
+		return ow_diag_set(L->d, OW_ENOMEM, "out of memory");
+	st = get_int(L, "stride", 1, MAX_STRIDE, &g->stride);
+	if (st == OW_OK)
+		st = get_int(L, "n_rpm", 2, 999 * MAX_STRIDE + 1, &g->n_rpm);
+	if (st == OW_OK)
+		st = get_int(L, "n_axis", 2, 999 * MAX_STRIDE + 1, &g->n_axis);
+	if (st == OW_OK)
+		st = get_int(L, "solves", 0, g->n_rpm * g->n_axis, &g->solves);
+	if (st == OW_OK && ((g->n_rpm - 1) % g->stride ||
+			    (g->n_axis - 1) % g->stride))
+		st = key_bad(L, "stride", "does not divide the lattice");
+	if (st != OW_OK)
+		return st;
+	g->pts = calloc((size_t)g->n_rpm * (size_t)g->n_axis, sizeof *g->pts);
+	return g->pts ? OW_OK : ow_diag_set(L->d, OW_ENOMEM, "out of memory");
+}
+
+/* rpm of every column, axis value of every row; set-points from the
+ * study as the sweep computes them. */
+static enum ow_status lattice_axes(const struct lattice_doc *L,
+				   const struct ow_study *s, struct ow_grid *g)
+{
+	const cJSON *r = cJSON_GetObjectItemCaseSensitive(L->o, "rpm");
+	const cJSON *a = cJSON_GetObjectItemCaseSensitive(L->o, "axis");
+	int ir, ia;
+
+	if (cJSON_GetArraySize(r) != g->n_rpm)
+		return key_bad(L, "rpm", "expected n_rpm numbers");
+	if (cJSON_GetArraySize(a) != g->n_axis)
+		return key_bad(L, "axis", "expected n_axis numbers");
+	for (ia = 0; ia < g->n_axis; ia++) {
+		const cJSON *va = cJSON_GetArrayItem(a, ia);
+		double set_K;
+
+		if (!cJSON_IsNumber(va))
+			return key_bad(L, "axis", "expected numbers");
+		set_K = ow_sweep_set_ref(s, va->valuedouble);
+		for (ir = 0; ir < g->n_rpm; ir++) {
+			const cJSON *vr = cJSON_GetArrayItem(r, ir);
+			struct ow_grid_point *p = ow_grid_at(g, ir, ia);
+
+			if (!cJSON_IsNumber(vr))
+				return key_bad(L, "rpm", "expected numbers");
+			p->rpm = vr->valuedouble;
+			p->axis = va->valuedouble;
+			p->set_ref_K = set_K;
+		}
+	}
+	return OW_OK;
+}
+
+static int hex_bits(const char *s, unsigned *bits)
+{
+	char h[BIT_DIGITS + 1], *end = NULL;
+	unsigned long v;
+
+	memcpy(h, s, BIT_DIGITS);
+	h[BIT_DIGITS] = '\0';
+	v = strtoul(h, &end, 16);
+	*bits = (unsigned)v;
+	return *end == '\0' && v < (1UL << OW_CK_COUNT);
+}
+
+/* Status bits of every lattice point. */
+static enum ow_status lattice_status(const struct lattice_doc *L,
+				     struct ow_grid *g)
+{
+	const cJSON *rows = cJSON_GetObjectItemCaseSensitive(L->o, "status");
+	size_t len = (size_t)g->n_rpm * BIT_DIGITS;
+	int ia, ir;
+
+	if (cJSON_GetArraySize(rows) != g->n_axis)
+		return key_bad(L, "status", "expected n_axis rows");
+	for (ia = 0; ia < g->n_axis; ia++) {
+		const cJSON *row = cJSON_GetArrayItem(rows, ia);
+
+		if (!cJSON_IsString(row) || strlen(row->valuestring) != len)
+			return key_bad(L, "status", "a row of the wrong length");
+		for (ir = 0; ir < g->n_rpm; ir++)
+			if (!hex_bits(row->valuestring + ir * BIT_DIGITS,
+				      &ow_grid_at(g, ir, ia)->v.bits))
+				return key_bad(L, "status", "not hex digits");
+	}
+	return OW_OK;
+}
+
+/* The sweep gives a point it did not solve the verdict of the smallest
+ * enclosing solved cell's corner; the saved status bits stay authoritative
+ * (the margins come along as the sweep copied them). */
+static void fill_unsolved(struct ow_grid *g)
+{
+	int ir, ia, s;
+
+	for (ia = 0; ia < g->n_axis; ia++)
+		for (ir = 0; ir < g->n_rpm; ir++) {
+			struct ow_grid_point *p = ow_grid_at(g, ir, ia);
+			unsigned bits = p->v.bits;
+
+			for (s = 2; p->solved != 1 && s <= g->stride; s *= 2) {
+				const struct ow_grid_point *c =
+					ow_grid_at(g, ir - ir % s, ia - ia % s);
+
+				if (c->solved == 1) {
+					p->v = c->v;
+					p->v.bits = bits;
+					break;
+				}
+			}
+		}
+}
+
+/* The original input names and CRC-32, so the report traces to them. */
+static enum ow_status restore_inputs(const struct lattice_doc *L,
+				     struct ow_study *s)
+{
+	const cJSON *in = cJSON_GetObjectItemCaseSensitive(L->o, "inputs");
+	const char *keys[3] = {"study", "screw", "resin"};
+	char *dst[3] = {s->path, s->screw_path, s->resin_path};
+	const cJSON *v = cJSON_GetObjectItemCaseSensitive(in, "crc32");
+	char *end = NULL;
+	int k;
+
+	if (!cJSON_IsString(v) || strlen(v->valuestring) != 8)
+		return key_bad(L, "inputs.crc32", "expected 8 hex digits");
+	s->input_crc = strtoul(v->valuestring, &end, 16);
+	if (*end)
+		return key_bad(L, "inputs.crc32", "expected 8 hex digits");
+	for (k = 0; k < 3; k++) {
+		v = cJSON_GetObjectItemCaseSensitive(in, keys[k]);
+		if (!cJSON_IsString(v) ||
+		    strlen(v->valuestring) >= OW_PATH_LEN)
+			return key_bad(L, "inputs", "expected file names");
+		memcpy(dst[k], v->valuestring, strlen(v->valuestring) + 1);
+	}
+	return OW_OK;
+}
+
+/* Read DIR/name whole; a missing file is reported with `missing`. */
+static enum ow_status read_in(const char *dir, const char *name, char *path,
+			      char **text, const char *missing,
+			      struct ow_diag *d)
+{
+	size_t len = 0;
+	enum ow_status st = md_path(path, OW_PATH_LEN + 32, dir, name, d);
+	int err;
+
+	*text = NULL;
+	if (st != OW_OK)
+		return st;
+	err = md_slurp(path, text, &len);
+	if (err == ENOENT && missing)
+		return ow_diag_set(d, OW_EINPUT, "%s is not a map folder: %s "
+				   "(`opwin map STUDY.json -o DIR` makes one)",
+				   dir, missing);
+	if (err)
+		return ow_diag_set(d, err == ENOMEM ? OW_ENOMEM : OW_EINPUT,
+				   "%s: cannot read: %s", path, strerror(err));
+	if (strlen(*text) != len) {
+		free(*text);
+		*text = NULL;
+		return ow_diag_set(d, OW_EINPUT, "%s: contains a NUL byte",
+				   path);
+	}
+	return OW_OK;
+}
+
+static enum ow_status check_dir(const char *dir, struct ow_diag *d)
+{
+	struct stat sb;
+
+	if (stat(dir, &sb) != 0)
+		return ow_diag_set(d, OW_EINPUT, "%s: no such folder: %s", dir,
+				   strerror(errno));
+	if (!S_ISDIR(sb.st_mode))
+		return ow_diag_set(d, OW_EINPUT, "%s: not a folder (expected "
+				   "the output folder of opwin map)", dir);
+	return OW_OK;
+}
+
+/* The lattice of lattice.json and lattice.csv, points as the sweep left
+ * them. */
+static enum ow_status load_lattice(const struct lattice_doc *L,
+				   const char *dir, const struct ow_study *s,
+				   struct ow_grid **out, struct ow_diag *d)
+{
+	char path[OW_PATH_LEN + 32], *text = NULL;
+	int n_solved = 0;
+	enum ow_status st = make_lattice(L, out);
+
+	if (st == OW_OK)
+		st = lattice_axes(L, s, *out);
+	if (st == OW_OK)
+		st = lattice_status(L, *out);
+	if (st == OW_OK)
+		st = read_in(dir, "lattice.csv", path, &text,
+			     "lattice.csv is missing", d);
+	if (st == OW_OK)
+		st = md_points_read(text, path, s->line.n_zones, *out,
+				    &n_solved, d);
+	if (st == OW_OK && n_solved != (*out)->solves)
+		st = ow_diag_set(d, OW_EINPUT, "%s: %d points, lattice.json "
+				 "says %d were solved", path, n_solved,
+				 (*out)->solves);
+	free(text);
+	if (st == OW_OK)
+		fill_unsolved(*out);
+	return st;
+}
+
+static enum ow_status load_profile(const struct lattice_doc *L,
+				   const char *dir, const struct ow_study *s,
+				   struct ow_profile_row **rows, int *n_rows,
+				   struct ow_diag *d)
+{
+	const cJSON *p = cJSON_GetObjectItemCaseSensitive(L->o, "profile");
+	char path[OW_PATH_LEN + 32], *text = NULL;
+	enum ow_status st;
+
+	if (!rows || !n_rows)
+		return OW_OK;
+	*rows = NULL;
+	*n_rows = 0;
+	if (!cJSON_IsBool(p))
+		return key_bad(L, "profile", "expected true or false");
+	if (cJSON_IsFalse(p))
+		return OW_OK;
+	st = read_in(dir, "profile.csv", path, &text,
+		     "profile.csv is missing", d);
+	if (st == OW_OK)
+		st = md_profile_read(text, path, s->screw.diameter_m, rows,
+				     n_rows, d);
+	free(text);
+	return st;
+}
+
+enum ow_status ow_mapdir_load(const struct ow_units *u, const char *dir,
+			      struct ow_study *study, struct ow_grid **grid,
+			      struct ow_profile_row **rows, int *n_rows,
+			      struct ow_diag *d)
+{
+	char path[OW_PATH_LEN + 32], *text = NULL;
+	struct lattice_doc L = {path, NULL, d};
+	cJSON *doc = NULL;
+	enum ow_status st;
+
+	if (!u || !dir || !study || !grid)
+		return ow_diag_set(d, OW_EARG, "ow_mapdir_load: NULL argument");
+	*grid = NULL;
+	if (rows && n_rows) {
+		*rows = NULL;
+		*n_rows = 0;
+	}
+	st = check_dir(dir, d);
+	if (st == OW_OK)
+		st = read_in(dir, "lattice.json", path, &text,
+			     "lattice.json is missing", d);
+	if (st == OW_OK && !(doc = cJSON_Parse(text)))
+		st = ow_diag_set(d, OW_EINPUT, "%s: not a JSON text", path);
+	L.o = doc;
+	if (st == OW_OK)
+		st = check_format(&L);
+	if (st == OW_OK) {
+		char sp[OW_PATH_LEN + 32];
+
+		st = md_path(sp, sizeof sp, dir, "study.json", d);
+		if (st == OW_OK)
+			st = ow_config_load_study(u, sp, study, d);
+	}
+	if (st == OW_OK)
+		st = load_lattice(&L, dir, study, grid, d);
+	if (st == OW_OK)
+		st = load_profile(&L, dir, study, rows, n_rows, d);
+	if (st == OW_OK)
+		st = restore_inputs(&L, study);
+	if (st != OW_OK) {
+		ow_grid_destroy(*grid);
+		*grid = NULL;
+		if (rows && n_rows) {
+			free(*rows);
+			*rows = NULL;
+		}
+	}
+	cJSON_Delete(doc);
+	free(text);
+	return st;
+}

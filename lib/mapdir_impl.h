@@ -1,0 +1,53 @@
+/* mapdir_impl.h - internals of the map folder module (not public): a
+ * growing text buffer, whole-file reading, folder paths, exact number
+ * texts, and the lattice.csv writer and reader. */
+#ifndef OW_MAPDIR_IMPL_H
+#define OW_MAPDIR_IMPL_H
+
+#include <stddef.h>
+
+#include "ow_mapdir.h"
+
+/* A growing NUL-terminated text; failed growth sets oom and later
+ * appends do nothing. */
+struct md_text {
+	char *s;
+	size_t len, cap;
+	int oom;
+};
+
+void md_add(struct md_text *t, const char *s);
+void md_addf(struct md_text *t, const char *fmt, ...)
+	__attribute__((format(printf, 2, 3)));
+/* x with 17 significant digits (round trip), "nan", "inf" or "-inf". */
+void md_num(struct md_text *t, double x);
+
+/* Whole file into a NUL-terminated malloc'd buffer; 0 or an errno. */
+int md_slurp(const char *path, char **buf, size_t *len);
+
+/* "dir/name" into out (n bytes); OW_EINPUT when too long. */
+enum ow_status md_path(char *out, size_t n, const char *dir,
+		       const char *name, struct ow_diag *d);
+
+/* Read a number written by md_num ("nan" and "inf" included); 0 when the
+ * whole text is not one number. */
+int md_parse_num(const char *text, double *x);
+
+/* lattice.csv: one row per solved point (indices, bits, flags, margins,
+ * figures in SI). n_zones columns of set-points and zone heats. */
+enum ow_status md_points_csv(const struct ow_grid *g, int n_zones,
+			     char **out, struct ow_diag *d);
+
+/* Read lattice.csv text (named file in messages) into the solved points
+ * of g (lattice already sized, rpm and axis set); *n_solved counts rows. */
+enum ow_status md_points_read(char *text, const char *file, int n_zones,
+			      struct ow_grid *g, int *n_solved,
+			      struct ow_diag *d);
+
+/* profile.csv text (ow_results_profile_csv columns) back into rows in SI;
+ * empty cells are NAN. */
+enum ow_status md_profile_read(char *text, const char *file,
+			       double diameter_m, struct ow_profile_row **rows,
+			       int *n_rows, struct ow_diag *d);
+
+#endif
