@@ -166,6 +166,12 @@ enum ow_status ow_plot_isolines(const struct ow_plot *p,
 				struct ow_rgba colour, double width_pt,
 				struct ow_diag *d);
 
+/* text (font_pt, colour ink) centred at canvas point (X, Y) rotated ang
+ * degrees counter-clockwise, on a small white box: a label on a line. */
+void ow_plot_label_on_line(struct ow_canvas *cv, double X, double Y,
+			   double ang, const char *text, double font_pt,
+			   struct ow_rgba ink);
+
 /* A vertical colour bar in box (bands of the levels, tick labels on the
  * right, title with unit rotated along it). */
 void ow_plot_colour_bar(struct ow_canvas *cv, const struct ow_rect *box,
