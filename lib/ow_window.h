@@ -20,9 +20,13 @@ struct ow_polyline {
 	struct ow_xy *p;
 };
 
-/* Where one check changes from pass to fail. */
+/* Pseudo check of the window's own edge: where points stop being safe. */
+#define OW_WINDOW_EDGE OW_CK_COUNT
+
+/* Where one check (or, for OW_WINDOW_EDGE, the whole verdict) changes from
+ * pass to fail. */
 struct ow_boundary {
-	enum ow_check check;
+	int check; /* enum ow_check, or OW_WINDOW_EDGE */
 	int n_lines;
 	struct ow_polyline *lines;
 };
@@ -43,8 +47,11 @@ struct ow_window {
 	double zone_min_K[OW_MAX_ZONES], zone_max_K[OW_MAX_ZONES];
 	int fail_count[OW_CK_COUNT];   /* lattice points failing each check */
 	int n_boundaries;
-	struct ow_boundary bounds[OW_CK_COUNT];
+	struct ow_boundary bounds[OW_CK_COUNT + 1];
 };
+
+/* Output name of a boundary's check: ow_check_key, or "window". */
+const char *ow_window_boundary_key(int check);
 
 /* Extract the window from grid g of study s. *out is owned by the caller
  * (ow_window_destroy). */

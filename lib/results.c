@@ -501,8 +501,8 @@ static int add_boundaries(cJSON *o, const struct ow_study *s,
 		cJSON *e = cJSON_CreateObject(), *lines;
 
 		ok = e && cJSON_AddItemToArray(arr, e);
-		ok = ok && cJSON_AddStringToObject(e, "limit",
-						   ow_check_key(bd->check));
+		ok = ok && cJSON_AddStringToObject(
+				   e, "limit", ow_window_boundary_key(bd->check));
 		lines = ok ? cJSON_AddArrayToObject(e, "lines") : NULL;
 		ok = lines != NULL;
 		for (l = 0; ok && l < bd->n_lines; l++) {

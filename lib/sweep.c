@@ -86,13 +86,22 @@ static void coarse_pass(struct run *r, struct ow_solver **svs)
 	}
 }
 
+/* A cell the window's edge crosses: its corners are not all safe or all
+ * unsafe. (Where two limits meet inside the unsafe region nothing is
+ * refined: no decision depends on it.) */
 static int differ(const struct ow_grid *g, int ir, int ia, int s)
 {
-	unsigned b = ow_grid_at(g, ir, ia)->v.bits;
+	int safe = ow_grid_at(g, ir, ia)->v.bits == 0;
 
-	return ow_grid_at(g, ir + s, ia)->v.bits != b ||
-	       ow_grid_at(g, ir, ia + s)->v.bits != b ||
-	       ow_grid_at(g, ir + s, ia + s)->v.bits != b;
+	if (ow_grid_at(g, ir, ia)->solved != 1 ||
+	    ow_grid_at(g, ir + s, ia)->solved != 1 ||
+	    ow_grid_at(g, ir, ia + s)->solved != 1 ||
+	    ow_grid_at(g, ir + s, ia + s)->solved != 1)
+		return 0; /* inside a cell left unrefined at a coarser level */
+
+	return (ow_grid_at(g, ir + s, ia)->v.bits == 0) != safe ||
+	       (ow_grid_at(g, ir, ia + s)->v.bits == 0) != safe ||
+	       (ow_grid_at(g, ir + s, ia + s)->v.bits == 0) != safe;
 }
 
 /* Mark the new points of every cell of size s that a boundary crosses;

@@ -1,0 +1,310 @@
+/* test_cli_map.c - end-to-end: `opwin point` and `opwin map` through the
+ * command line, against the output contract and the window's promises. */
+#include "testutil.h"
+#include "clirun.h"
+
+#include <cjson/cJSON.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <unistd.h>
+
+#define FAST "tests/data/map-fast.json"
+
+static cJSON *run_json(const char *args)
+{
+	struct cli_result r;
+	cJSON *j;
+
+	cli_run(args, &r);
+	if (r.code != 0)
+		fprintf(stderr, "opwin %s: %s\n", args, r.err);
+	assert_int_equal(r.code, 0);
+	j = cJSON_Parse(r.out);
+	assert_non_null(j);
+	cli_result_free(&r);
+	return j;
+}
+
+static double num(const cJSON *o, const char *key)
+{
+	const cJSON *v = cJSON_GetObjectItemCaseSensitive(o, key);
+
+	if (!cJSON_IsNumber(v))
+		fail_msg("key %s is not a number", key);
+	return v->valuedouble;
+}
+
+static cJSON *read_json(const char *path)
+{
+	char *text = cli_slurp(path);
+	cJSON *j;
+
+	assert_non_null(text);
+	j = cJSON_Parse(text);
+	free(text);
+	assert_non_null(j);
+	return j;
+}
+
+static void map(const char *study, const char *dir, const char *extra)
+{
+	struct cli_result r;
+	char args[512];
+
+	snprintf(args, sizeof args, "map %s -o %s --quiet %s", study, dir,
+		 extra);
+	cli_run(args, &r);
+	if (r.code != 0)
+		fprintf(stderr, "%s\n", r.err);
+	assert_int_equal(r.code, 0);
+	cli_result_free(&r);
+}
+
+/* DESIGN.md output contract of `point --json` and `--profile`. */
+static void point_json_and_profile_follow_the_contract(void **state)
+{
+	static const char *keys[] = {
+		"output_kg_h", "discharge_pressure_MPa", "max_pressure_MPa",
+		"discharge_bulk_temp_C", "peak_temp_C", "unmelt_fraction",
+		"max_sbr", "power_kW", "torque_Nm", "sec_kWh_kg",
+		"barrel_heat_kW"};
+	cJSON *j = run_json("point demo/study-si.json --rpm 50 --json "
+			    "--profile build/tests/profile.csv");
+	char *csv = cli_slurp("build/tests/profile.csv");
+	size_t i;
+	(void)state;
+	for (i = 0; i < sizeof keys / sizeof keys[0]; i++)
+		(void)num(j, keys[i]);
+	(void)num(j, "melt_complete_D");
+	assert_true(cJSON_IsArray(cJSON_GetObjectItem(j, "status")));
+	/* drive power from torque: P = 2 pi N T (MODEL B9 identity) */
+	assert_rel(num(j, "power_kW") * 1e3,
+		   2.0 * OW_PI * 50.0 / 60.0 * num(j, "torque_Nm"), 1e-9);
+	/* specific energy = power / output: kWh/kg = kW / (kg/h) */
+	assert_rel(num(j, "sec_kWh_kg"),
+		   num(j, "power_kW") / num(j, "output_kg_h"), 1e-9);
+	assert_non_null(csv);
+	assert_non_null(strstr(csv, "axial_D,pressure_MPa,bulk_temp_C,"
+				    "peak_temp_C,sbr,unmelt_fraction"));
+	free(csv);
+	cJSON_Delete(j);
+}
+
+/* --set without a unit is read in the display system; with one it
+ * converts: +18 degF as a shift is +10 K (NIST SP 811). */
+static void point_set_reads_units(void **state)
+{
+	cJSON *a = run_json("point " FAST " --rpm 60 --set 10 --json");
+	cJSON *b = run_json("point " FAST " --rpm 60 --set '18 degF' --json");
+	cJSON *c = run_json("point " FAST " --rpm 60 --set 18 --units us "
+			    "--json");
+	(void)state;
+	assert_rel(num(a, "output_kg_h"), num(b, "output_kg_h"), 1e-9);
+	assert_rel(num(a, "peak_temp_C"), num(c, "peak_temp_C"), 1e-9);
+	cJSON_Delete(a);
+	cJSON_Delete(b);
+	cJSON_Delete(c);
+}
+
+static int safe_point(double rpm, double axis)
+{
+	char args[256];
+	cJSON *j, *st;
+	int n;
+
+	snprintf(args, sizeof args, "point %s --rpm %.17g --set '%.17g K' "
+		 "--json", FAST, rpm, axis);
+	j = run_json(args);
+	st = cJSON_GetObjectItem(j, "status");
+	n = cJSON_GetArraySize(st);
+	cJSON_Delete(j);
+	return n == 0;
+}
+
+/* Every corner and the centre of the recommended rectangle, re-solved
+ * alone, is safe; no unsafe grid point lies inside the rectangle. */
+static void window_corners_and_centre_are_safe(void **state)
+{
+	cJSON *w, *c;
+	char *grid, *line;
+	double r0, r1, a0, a1;
+	(void)state;
+	map(FAST, "build/tests/map-a", "--grid 21x21");
+	w = read_json("build/tests/map-a/window.json");
+	r0 = num(w, "rpm_min");
+	r1 = num(w, "rpm_max");
+	a0 = num(w, "axis_min");
+	a1 = num(w, "axis_max");
+	c = cJSON_GetObjectItem(w, "centre");
+	assert_true(r1 > r0 && a1 > a0);
+	assert_true(safe_point(r0, a0) && safe_point(r0, a1));
+	assert_true(safe_point(r1, a0) && safe_point(r1, a1));
+	assert_true(safe_point(num(c, "rpm"), num(c, "axis_value")));
+	grid = cli_slurp("build/tests/map-a/grid.csv");
+	for (line = strtok(strchr(grid, '\n') + 1, "\n"); line;
+	     line = strtok(NULL, "\n")) {
+		double rpm = atof(line), ax = atof(strchr(line, ',') + 1);
+		const char *status = strrchr(line, ',') + 1;
+
+		if (rpm >= r0 && rpm <= r1 && ax >= a0 && ax <= a1)
+			assert_int_equal(strlen(status), 0);
+	}
+	free(grid);
+	cJSON_Delete(w);
+}
+
+/* --jobs 1 and --jobs 2 give byte-identical grid.csv (refined too). */
+static void grid_is_identical_for_any_thread_count(void **state)
+{
+	char *a, *b;
+	(void)state;
+	map(FAST, "build/tests/map-j1", "--grid 15x13 --refine 1 --jobs 1");
+	map(FAST, "build/tests/map-j2", "--grid 15x13 --refine 1 --jobs 2");
+	a = cli_slurp("build/tests/map-j1/grid.csv");
+	b = cli_slurp("build/tests/map-j2/grid.csv");
+	assert_non_null(a);
+	assert_non_null(b);
+	assert_string_equal(a, b);
+	free(a);
+	free(b);
+}
+
+/* Distance from p to segment ab in fine-lattice cells. */
+static double seg_dist(const double *p, const double *a, const double *b,
+		       double sx, double sy)
+{
+	double ax = (a[0] - p[0]) / sx, ay = (a[1] - p[1]) / sy;
+	double bx = (b[0] - p[0]) / sx, by = (b[1] - p[1]) / sy;
+	double dx = bx - ax, dy = by - ay, l2 = dx * dx + dy * dy, t;
+
+	t = l2 > 0.0 ? -(ax * dx + ay * dy) / l2 : 0.0;
+	t = t < 0.0 ? 0.0 : (t > 1.0 ? 1.0 : t);
+	return hypot(ax + t * dx, ay + t * dy);
+}
+
+static double nearest(const double *p, const cJSON *lines, double sx,
+		      double sy)
+{
+	const cJSON *l, *q;
+	double best = INFINITY;
+
+	cJSON_ArrayForEach(l, lines) {
+		const cJSON *prev = NULL;
+
+		cJSON_ArrayForEach(q, l) {
+			double b[2] = {cJSON_GetArrayItem(q, 0)->valuedouble,
+				       cJSON_GetArrayItem(q, 1)->valuedouble};
+			if (prev) {
+				double a[2] = {
+					cJSON_GetArrayItem(prev, 0)->valuedouble,
+					cJSON_GetArrayItem(prev, 1)->valuedouble};
+				best = fmin(best, seg_dist(p, a, b, sx, sy));
+			}
+			prev = q;
+		}
+	}
+	return best;
+}
+
+static const cJSON *lines_of(const cJSON *w, const char *limit)
+{
+	const cJSON *b;
+
+	cJSON_ArrayForEach(b, cJSON_GetObjectItem(w, "boundaries"))
+		if (!strcmp(cJSON_GetObjectItem(b, "limit")->valuestring, limit))
+			return cJSON_GetObjectItem(b, "lines");
+	fail_msg("no boundary for %s", limit);
+	return NULL;
+}
+
+/* --refine 2 on 21x21 places the window's boundary within one fine cell
+ * of where a uniform 81x81 grid places it, with at most 40 % of its
+ * solves. */
+static void refinement_matches_fine_grid_with_fewer_solves(void **state)
+{
+	static const char *limits[] = {"window"};
+	double sx = 120.0 / 80.0, sy = 60.0 / 80.0; /* fine cell: rpm, K */
+	cJSON *fine, *ref;
+	size_t k;
+	(void)state;
+	map(FAST, "build/tests/map-r2", "--grid 21x21 --refine 2");
+	map(FAST, "build/tests/map-81", "--grid 81x81");
+	ref = read_json("build/tests/map-r2/window.json");
+	fine = read_json("build/tests/map-81/window.json");
+	assert_true(num(ref, "solves") <= 0.4 * 81 * 81);
+	for (k = 0; k < sizeof limits / sizeof limits[0]; k++) {
+		const cJSON *lr = lines_of(ref, limits[k]);
+		const cJSON *lf = lines_of(fine, limits[k]);
+		const cJSON *l, *q;
+		int n = 0;
+
+		cJSON_ArrayForEach(l, lr) cJSON_ArrayForEach(q, l) {
+			double p[2] = {cJSON_GetArrayItem(q, 0)->valuedouble,
+				       cJSON_GetArrayItem(q, 1)->valuedouble};
+			assert_true(nearest(p, lf, sx, sy) <= 1.0);
+			n++;
+		}
+		assert_true(n > 10);
+	}
+	cJSON_Delete(ref);
+	cJSON_Delete(fine);
+}
+
+/* Limits that exclude everything: an empty window, exit 0, the binding
+ * limits named, null bounds in window.json. */
+static void impossible_limits_give_an_empty_window(void **state)
+{
+	FILE *f = fopen("build/tests/empty.json", "w");
+	char *text = cli_slurp(FAST), *p;
+	struct cli_result r;
+	cJSON *w;
+	(void)state;
+	assert_non_null(text);
+	p = strstr(text, "\"peak_temp\": \"235 degC\"");
+	assert_non_null(p);
+	memcpy(p, "\"peak_temp\": \"150 degC\"", 23);
+	fputs(text, f);
+	fclose(f);
+	free(text);
+	/* the study file's relative paths: none (embedded) */
+	cli_run("map build/tests/empty.json -o build/tests/map-empty "
+		"--grid 5x5", &r);
+	assert_int_equal(r.code, 0);
+	assert_non_null(strstr(r.out, "No safe operating point"));
+	assert_non_null(strstr(r.out, "peak_temp"));
+	cli_result_free(&r);
+	w = read_json("build/tests/map-empty/window.json");
+	assert_true(cJSON_IsTrue(cJSON_GetObjectItem(w, "empty")));
+	assert_true(cJSON_IsNull(cJSON_GetObjectItem(w, "rpm_min")));
+	assert_true(cJSON_IsNull(cJSON_GetObjectItem(w, "set_max_C")));
+	cJSON_Delete(w);
+}
+
+/* An output folder that cannot be made: exit 4, nothing written. */
+static void unwritable_output_exits_four(void **state)
+{
+	struct cli_result r;
+	FILE *f = fopen("build/tests/not-a-dir", "w");
+	(void)state;
+	fputs("x", f);
+	fclose(f);
+	cli_run("map " FAST " -o build/tests/not-a-dir --grid 3x3 --quiet",
+		&r);
+	assert_int_equal(r.code, 4);
+	cli_result_free(&r);
+}
+
+int main(void)
+{
+	const struct CMUnitTest tests[] = {
+		cmocka_unit_test(point_json_and_profile_follow_the_contract),
+		cmocka_unit_test(point_set_reads_units),
+		cmocka_unit_test(window_corners_and_centre_are_safe),
+		cmocka_unit_test(grid_is_identical_for_any_thread_count),
+		cmocka_unit_test(refinement_matches_fine_grid_with_fewer_solves),
+		cmocka_unit_test(impossible_limits_give_an_empty_window),
+		cmocka_unit_test(unwritable_output_exits_four),
+	};
+	return cmocka_run_group_tests(tests, NULL, NULL);
+}
