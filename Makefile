@@ -79,8 +79,11 @@ demo: deps
 	@$(MAKE) --no-print-directory all
 	@sh demo/run.sh $(OPWIN)
 
-bench: all
-	@sh tests/bench.sh $(OPWIN)
+bench: all $(BUILD)/bench
+	@$(BUILD)/bench demo/study-si.json
+
+$(BUILD)/bench: $(BUILD)/tests/bench/bench.o $(LIBA)
+	$(CC) $(LDFLAGS) -o $@ $< $(LIBA) $(LDLIBS)
 
 # ASan + UBSan build in its own folder, running every test.
 sanitize: deps
