@@ -1,12 +1,26 @@
 #!/bin/sh
 # demo/run.sh - run the invented demo scenario (Line 3 of an imaginary
-# irrigation-pipe workshop) end to end.
+# irrigation-pipe workshop) end to end into demo/out/.
 # Usage: sh demo/run.sh PATH/TO/opwin      (`make demo` passes build/opwin)
 set -e
 
 opwin=${1:?usage: sh demo/run.sh PATH/TO/opwin}
 here=$(dirname "$0")
+out="$here/out"
+mkdir -p "$out"
 
-# The same line written twice, in SI and in US units: both must load.
+echo "== the line, checked in SI and in US units"
 "$opwin" check "$here/study-si.json"
-"$opwin" check "$here/study-us.json" --units us
+"$opwin" check "$here/study-us.json" --units us --json > "$out/check-us.json"
+
+echo "== one operating point: 60 rpm, the study's own set-points"
+"$opwin" point "$here/study-si.json" --rpm 60 --profile "$out/profile-60rpm.csv"
+
+echo "== the operating window"
+"$opwin" map "$here/study-si.json" -o "$out/window" --refine 1
+
+echo "== the demo resin refitted from (invented) lab data"
+"$opwin" fit "$here/lab/hdpe-pipe-lab.csv" -o "$out/fitted-viscosity.json" \
+	--plot "$out/fit.png"
+
+echo "demo outputs are in $out/"
