@@ -35,7 +35,7 @@ APT_PKGS := build-essential pkg-config libcjson-dev libudunits2-dev \
             fonts-dejavu-core poppler-utils valgrind
 FONT     := /usr/share/fonts/truetype/dejavu/DejaVuSans.ttf
 
-.PHONY: all deps test check-run demo bench sanitize lint format clean install
+.PHONY: all deps test check-run demo bench sanitize memcheck lint format clean install
 
 all: $(LIBA) $(OPWIN)
 
@@ -90,6 +90,18 @@ sanitize: deps
 	@$(MAKE) --no-print-directory BUILD=build-san OPT=-O1 \
 	  SANFLAGS="-fsanitize=address,undefined -fno-omit-frame-pointer -fno-sanitize-recover=undefined" \
 	  check-run
+
+# valgrind on the command line: no invalid access, no definite leak.
+VALGRIND := valgrind -q --leak-check=full --show-leak-kinds=definite \
+            --errors-for-leak-kinds=definite \
+            --error-exitcode=9
+memcheck: deps
+	@$(MAKE) --no-print-directory all
+	$(VALGRIND) $(OPWIN) check demo/study-si.json >/dev/null
+	$(VALGRIND) $(OPWIN) point demo/study-si.json --rpm 60 --json >/dev/null
+	$(VALGRIND) $(OPWIN) map tests/data/map-fast.json -o build/memcheck-map \
+	  --grid 4x4 --refine 1 --jobs 1 --quiet
+	@echo "memcheck: clean"
 
 lint:
 	cppcheck --quiet --enable=warning,performance,portability \
