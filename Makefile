@@ -35,6 +35,7 @@ APT_PKGS := build-essential pkg-config libcjson-dev libudunits2-dev \
             fonts-dejavu-core poppler-utils valgrind
 FONT     := /usr/share/fonts/truetype/dejavu/DejaVuSans.ttf
 
+.SECONDARY:
 .PHONY: all deps test check-run demo bench sanitize memcheck lint format clean install
 
 all: $(LIBA) $(OPWIN)
