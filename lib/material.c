@@ -50,6 +50,79 @@ double ow_viscosity_eval(const struct ow_viscosity *v, double gdot,
 	return aT * ow_viscosity_ref(v, aT * gdot);
 }
 
+/* Log-space forms of the models above (Dealy & Wissbrun 1990, ch. 2):
+ *   power law        ln eta = ln m + (n - 1) ln gdot
+ *   Cross            ln eta = ln eta0 - sp((1 - n)(ln gdot + ln(eta0/tau*)))
+ *   Carreau-Yasuda   ln eta = ln eta0 + ((n - 1)/a) sp(a (ln gdot + ln lambda))
+ * with the softplus sp(x) = ln(1 + e^x); the parameter logs are taken once
+ * here so an evaluation costs one exp and one log1p. */
+void ow_viscosity_log_init(const struct ow_viscosity *v,
+			   struct ow_visc_log *lv)
+{
+	double n = v->index;
+
+	lv->model = v->model;
+	lv->ln_gmin = log(GDOT_MIN);
+	lv->c0 = lv->k = lv->b = lv->s = lv->curv = 0.0;
+	switch (v->model) {
+	case OW_VISC_POWER_LAW:
+		lv->c0 = log(v->consistency_Pa_sn);
+		lv->k = n - 1.0; /* the slope */
+		break;
+	case OW_VISC_CROSS:
+		lv->c0 = log(v->zero_shear_Pa_s);
+		lv->k = -1.0;
+		lv->b = 1.0 - n;
+		lv->s = log(v->zero_shear_Pa_s / v->critical_stress_Pa);
+		break;
+	case OW_VISC_CARREAU_YASUDA:
+		lv->c0 = log(v->zero_shear_Pa_s);
+		lv->k = (n - 1.0) / v->a;
+		lv->b = v->a;
+		lv->s = log(v->time_constant_s);
+		break;
+	}
+	/* sp'' = sigma (1 - sigma) <= 1/4 */
+	lv->curv = fabs(lv->k) * lv->b * lv->b / 4.0;
+}
+
+double ow_viscosity_log_ref(const struct ow_visc_log *lv, double ln_gdot,
+			    double *slope)
+{
+	double x, e, sp, sig, ds = 1.0;
+
+	if (ln_gdot < lv->ln_gmin) { /* as ow_viscosity_ref clamps gdot */
+		ln_gdot = lv->ln_gmin;
+		ds = 0.0;
+	}
+	if (lv->model == OW_VISC_POWER_LAW) {
+		if (slope)
+			*slope = ds * lv->k;
+		return lv->c0 + lv->k * ln_gdot;
+	}
+	x = lv->b * (ln_gdot + lv->s);
+	e = exp(-fabs(x)); /* stable softplus and logistic for either sign */
+	sp = fmax(x, 0.0) + log1p(e);
+	sig = x > 0.0 ? 1.0 / (1.0 + e) : e / (1.0 + e);
+	if (slope)
+		*slope = ds * lv->k * lv->b * sig;
+	return lv->c0 + lv->k * sp;
+}
+
+double ow_viscosity_log_shift(const struct ow_viscosity *v, double temp_K)
+{
+	double dT = temp_K - v->ref_temp_K;
+
+	if (v->shift == OW_SHIFT_WLF) {
+		if (v->wlf_c2_K + dT <= 0.0)
+			return INFINITY;
+		return -v->wlf_c1 * dT / (v->wlf_c2_K + dT) *
+		       2.30258509299404568402; /* ln 10 */
+	}
+	return v->activation_J_mol / OW_GAS_CONSTANT *
+	       (1.0 / temp_K - 1.0 / v->ref_temp_K);
+}
+
 static int bad(double x, double lo, double hi)
 {
 	return !isfinite(x) || x < lo || x > hi;

@@ -6,6 +6,15 @@
 #include <stdlib.h>
 #include <string.h>
 
+static void cells_at(struct melt_cells *cs, double *mem, size_t nc)
+{
+	cs->lnv = mem;
+	cs->phi = mem + nc;
+	cs->lu = mem + 2 * nc;
+	cs->ltau = mem + 3 * nc;
+	cs->nloc = mem + 4 * nc;
+}
+
 enum ow_status ow_melt_create(int depth_nodes, int bands,
 			      struct ow_melt_ws **out, struct ow_diag *d)
 {
@@ -30,21 +39,19 @@ enum ow_status ow_melt_create(int depth_nodes, int bands,
 	ws->nn = depth_nodes;
 	ws->nc = depth_nodes - 1;
 	ws->nb = bands;
-	ws->lnv = calloc(7 * nc, sizeof(double));
+	ws->cell_mem = calloc(12 * nc, sizeof(double));
 	ws->cell_band = calloc(nc, sizeof(int));
 	ws->y = calloc(8 * nn, sizeof(double));
 	ws->t = calloc(12 * nb, sizeof(double));
 	ws->seg_lo = calloc(4 * nb, sizeof(double));
 	ws->seg_band = calloc(2 * nb, sizeof(int));
-	if (!ws->lnv || !ws->cell_band || !ws->y || !ws->t || !ws->seg_lo ||
-	    !ws->seg_band)
+	if (!ws->cell_mem || !ws->cell_band || !ws->y || !ws->t ||
+	    !ws->seg_lo || !ws->seg_band)
 		goto fail;
-	ws->lnv_try = ws->lnv + nc;
-	ws->tc = ws->lnv + 2 * nc;
-	ws->at = ws->lnv + 3 * nc;
-	ws->nloc = ws->lnv + 4 * nc;
-	ws->res = ws->lnv + 5 * nc;
-	ws->dlv = ws->lnv + 6 * nc;
+	cells_at(&ws->cur, ws->cell_mem, nc);
+	cells_at(&ws->trial, ws->cell_mem + 5 * nc, nc);
+	ws->tc = ws->cell_mem + 10 * nc;
+	ws->lat = ws->cell_mem + 11 * nc;
 	ws->uz = ws->y + nn;
 	ws->ux = ws->y + 2 * nn;
 	ws->gd = ws->y + 3 * nn;
@@ -73,7 +80,7 @@ void ow_melt_destroy(struct ow_melt_ws *ws)
 {
 	if (!ws)
 		return;
-	free(ws->lnv);
+	free(ws->cell_mem);
 	free(ws->cell_band);
 	free(ws->y);
 	free(ws->t);
@@ -182,6 +189,7 @@ static void station_geometry(struct ow_melt_ws *ws, const struct ow_melt_cond *c
 
 	memset(st, 0, sizeof *st);
 	st->mat = c->mat;
+	ow_viscosity_log_init(&c->mat->visc, &st->vlog);
 	st->H = c->depth_m;
 	st->W = c->width_m;
 	if (c->infinite_width) {
@@ -251,10 +259,10 @@ static void bookkeeping(const struct ow_melt_ws *ws,
 
 		if (j > 0)
 			o->max_shear_1_s = fmax(o->max_shear_1_s,
-						tau * exp(-ws->lnv[j - 1]));
+						tau * ws->cur.phi[j - 1]);
 		if (j < ws->nc)
 			o->max_shear_1_s =
-				fmax(o->max_shear_1_s, tau * exp(-ws->lnv[j]));
+				fmax(o->max_shear_1_s, tau * ws->cur.phi[j]);
 	}
 	o->fd = st->fd;
 	o->fp = st->fp;

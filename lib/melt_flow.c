@@ -185,22 +185,22 @@ static double vscale(const struct melt_station *st)
 	return fmax(fmax(fabs(st->vz), fabs(st->vx)), fabs(st->qz) / st->H);
 }
 
-/* The 4x4 linear system F p = rhs for given cell viscosities, rows scaled
- * by the velocity scale vs (rows 0, 2) and vs H (rows 1, 3). */
+/* The 4x4 linear system F p = rhs for given cell fluidities phi = 1/eta,
+ * rows scaled by the velocity scale vs (rows 0, 2) and vs H (rows 1, 3). */
 static void build_linear(const struct ow_melt_ws *ws,
-			 const struct melt_station *st, const double *lnv,
+			 const struct melt_station *st, const double *phi,
 			 double F[4][4], double rhs[4])
 {
 	double hh = 1.0 / (double)ws->nc, H = st->H, vs = vscale(st);
 	double s0 = 0.0, s1 = 0.0, t0 = 0.0, t1 = 0.0;
 
 	for (int c = 0; c < ws->nc; c++) {
-		double phi = exp(-lnv[c]), m = ((double)c + 0.5) * hh;
+		double m = ((double)c + 0.5) * hh;
 
-		s0 += phi * hh;
-		s1 += phi * hh * m;
-		t0 += phi * hh * (1.0 - m);
-		t1 += phi * hh * (m - m * m - hh * hh / 12.0);
+		s0 += phi[c] * hh;
+		s1 += phi[c] * hh * m;
+		t0 += phi[c] * hh * (1.0 - m);
+		t1 += phi[c] * hh * (m - m * m - hh * hh / 12.0);
 	}
 	memset(F, 0, sizeof(double) * 16);
 	F[0][0] = H * s0 / vs;
@@ -260,82 +260,110 @@ static int solve4(double A[4][4], double b[4], double x[4])
 }
 
 static int solve_p(const struct ow_melt_ws *ws, const struct melt_station *st,
-		   const double *lnv, double p[4])
+		   const double *phi, double p[4])
 {
 	double F[4][4], rhs[4];
 
-	build_linear(ws, st, lnv, F, rhs);
+	build_linear(ws, st, phi, F, rhs);
 	return solve4(F, rhs, p);
 }
 
 /* ---- the station: Newton iteration on the stresses ---------------------
  *
- * For given stresses p, each cell's viscosity solves the scalar equation
- * R_c(L) = L - ln eta_model(|tau_c| e^-L, T_c) = 0, L = ln eta_c, whose
- * slope dR/dL is the local power-law index n_c > 0 (Newton, a few steps;
- * one for a power law). The four conditions C(p) = F(eta(p)) p - rhs = 0
- * are then solved by Newton in p, with the Jacobian from implicit
- * differentiation: dL_c/dp = ((n_c - 1)/n_c) d ln|tau_c|/dp. Working in p
- * keeps the map smooth where a stress changes sign inside the channel (the
- * viscosity of a power law diverges there but its shear rate does not). A
- * backtracking line search on |C|^2 keeps the cold start safe. */
+ * For given stresses p, each cell's viscosity follows from its stress
+ * alone once the temperature shift is taken out (time-temperature
+ * superposition, Dealy & Wissbrun 1990, ch. 2): the reduced shear rate
+ * r = aT gdot solves r eta_ref(r) = |tau|, in logs with u = ln r
+ *   h(u) = u + ln eta_ref(u) - ln|tau| = 0,
+ * whose slope dh/du is the local power-law index n_c > 0, and then
+ * ln eta = ln aT + ln|tau| - u. h is increasing and concave for all three
+ * models, so Newton from any start converges; started from the last
+ * solution moved along its tangent, u + d ln|tau| / n_c, it needs one or
+ * two steps. The four conditions C(p) = F(eta(p)) p - rhs = 0 are then
+ * solved by Newton in p, with the Jacobian from implicit differentiation:
+ * dL_c/dp = ((n_c - 1)/n_c) d ln|tau_c|/dp. Working in p keeps the map
+ * smooth where a stress changes sign inside the channel (the viscosity of a
+ * power law diverges there but its shear rate does not). A backtracking
+ * line search on |C|^2 keeps the cold start safe. */
 
-#define EPS_INDEX 1e-4 /* step in ln gdot of the index difference */
+#define MAX_CELL_NEWTON 100
+#define CELL_TOL 1e-13 /* error in u left by the last Newton step */
+#define CELL_MAX_STEP 20.0
 
-/* Viscosities of all cells for stresses p into lnv (warm: the values in
- * lnv), local indices into ws->nloc. -1 for a viscosity not finite. */
-static int cell_viscosities(struct ow_melt_ws *ws,
-			    const struct melt_station *st, const double p[4],
-			    double *lnv)
+/* Newton on h(u) = u + ln eta_ref(u) - lt from *u; on return *u is the
+ * root and *n the slope there. The error left by a step du is about
+ * curv du^2 / (2 n) (curv bounds |h''|), so the last step is accepted
+ * without evaluating again; not across the kink of the rate clamp. */
+static int cell_solve(const struct ow_visc_log *lv, double lt, double *u,
+		      double *n)
 {
-	const struct ow_viscosity *v = &st->mat->visc;
+	double x = *u;
+
+	for (int it = 0; it < MAX_CELL_NEWTON; it++) {
+		double s, h = x + ow_viscosity_log_ref(lv, x, &s) - lt;
+		double nl = 1.0 + s, dx = -h / nl, xn;
+
+		if (!isfinite(h))
+			return -1;
+		dx = fmax(-CELL_MAX_STEP, fmin(CELL_MAX_STEP, dx));
+		xn = x + dx;
+		if (lv->curv * dx * dx <= 2.0 * CELL_TOL * nl &&
+		    (xn < lv->ln_gmin) == (x < lv->ln_gmin)) {
+			*u = xn;
+			*n = nl;
+			return 0;
+		}
+		x = xn;
+	}
+	return -1;
+}
+
+/* Viscosities of all cells for stresses p, started from the solution in
+ * from, into to (to may be from). -1 for a viscosity not finite. */
+static int cell_viscosities(const struct ow_melt_ws *ws,
+			    const struct melt_station *st, const double p[4],
+			    const struct melt_cells *from, struct melt_cells *to)
+{
+	const struct ow_visc_log *lv = &st->vlog;
 	double hh = 1.0 / (double)ws->nc;
 
 	for (int c = 0; c < ws->nc; c++) {
-		double m = ((double)c + 0.5) * hh, at = ws->at[c];
-		double tau = hypot(p[0] + p[1] * m, p[2] + p[3] * m);
-		double L = lnv[c], n = ws->nloc[c], g = 0.0, e = 0.0, up;
-		double lo = -INFINITY, hi = INFINITY; /* g(lo) < 0 < g(hi) */
-		double Lp = NAN, gp = NAN;
+		double m = ((double)c + 0.5) * hh;
+		double tz = p[0] + p[1] * m, tx = p[2] + p[3] * m;
+		double tau2 = tz * tz + tx * tx, lt, u, n, L;
 
-		for (int it = 0; it < 200; it++) {
-			e = ow_viscosity_ref(v, at * tau * exp(-L));
-			if (!(e > 0.0) || !isfinite(e))
+		if (tau2 > 0.0) {
+			lt = 0.5 * log(tau2);
+			u = from->lu[c] + (lt - from->ltau[c]) / from->nloc[c];
+			if (!isfinite(u))
+				u = lt;
+			if (cell_solve(lv, lt, &u, &n) != 0)
 				return -1;
-			g = L - log(at * e); /* increasing in L, slope n */
-			if (fabs(g) < 1e-13)
-				break;
-			if (g > 0.0)
-				hi = L;
-			else
-				lo = L;
-			if (isfinite(gp) && L != Lp) /* secant slope */
-				n = fmax(0.01, fmin(2.0, (g - gp) / (L - Lp)));
-			Lp = L;
-			gp = g;
-			L -= fmax(-5.0, fmin(5.0, g / n));
-			if (!(L > lo && L < hi) && isfinite(lo) && isfinite(hi))
-				L = 0.5 * (lo + hi); /* left the bracket */
+		} else { /* no stress: the rate clamp's viscosity */
+			u = lv->ln_gmin;
+			lt = u + ow_viscosity_log_ref(lv, u, NULL);
+			n = 1.0;
 		}
-		if (fabs(g) > 1e-8)
+		L = ws->lat[c] + lt - u;
+		if (!isfinite(L))
 			return -1;
-		lnv[c] = L;
-		/* forward difference: the index only shapes the Jacobian */
-		up = ow_viscosity_ref(v, at * tau * exp(-L + EPS_INDEX));
-		n = 1.0 + (log(up) - log(e)) / EPS_INDEX;
-		ws->nloc[c] = isfinite(n) && n > 0.02 ? n : 0.02;
+		to->lu[c] = u;
+		to->ltau[c] = lt;
+		to->nloc[c] = n > 0.02 ? n : 0.02;
+		to->lnv[c] = L;
+		to->phi[c] = exp(-L);
 	}
 	return 0;
 }
 
 /* Scaled condition residuals C = F p - rhs and their squared norm. */
 static double conditions(const struct ow_melt_ws *ws,
-			 const struct melt_station *st, const double *lnv,
+			 const struct melt_station *st, const double *phi,
 			 const double p[4], double C[4])
 {
 	double F[4][4], rhs[4], sum = 0.0;
 
-	build_linear(ws, st, lnv, F, rhs);
+	build_linear(ws, st, phi, F, rhs);
 	for (int i = 0; i < 4; i++) {
 		C[i] = -rhs[i];
 		for (int k = 0; k < 4; k++)
@@ -353,13 +381,13 @@ static int newton_step(const struct ow_melt_ws *ws,
 	double hh = 1.0 / (double)ws->nc, H = st->H, vs = vscale(st);
 	double J[4][4], r[4];
 
-	build_linear(ws, st, ws->lnv, J, r);
+	build_linear(ws, st, ws->cur.phi, J, r);
 	for (int i = 0; i < 4; i++)
 		r[i] = -C[i];
 	for (int c = 0; c < ws->nc; c++) {
-		double m = ((double)c + 0.5) * hh, phi = exp(-ws->lnv[c]);
+		double m = ((double)c + 0.5) * hh, phi = ws->cur.phi[c];
 		double tz = p[0] + p[1] * m, tx = p[2] + p[3] * m;
-		double tau2 = tz * tz + tx * tx, n = ws->nloc[c];
+		double tau2 = tz * tz + tx * tx, n = ws->cur.nloc[c];
 		double v0 = hh * (1.0 - m), v1 = hh * (m - m * m - hh * hh / 12.0);
 		double E[4], f;
 
@@ -381,23 +409,24 @@ static int newton_step(const struct ow_melt_ws *ws,
 }
 
 /* Backtracking along dp until |C|^2 falls; the accepted point is left in
- * p, ws->lnv, C and *merit. */
+ * p, ws->cur, C and *merit. */
 static int line_search(struct ow_melt_ws *ws, const struct melt_station *st,
 		       double p[4], const double dp[4], double C[4],
 		       double *merit)
 {
 	double lam = 1.0, pt[4], Ct[4], mt;
-	size_t bytes = sizeof(double) * (size_t)ws->nc;
 
 	for (int tries = 0; tries < 40; tries++, lam *= 0.5) {
 		for (int k = 0; k < 4; k++)
 			pt[k] = p[k] + lam * dp[k];
-		memcpy(ws->lnv_try, ws->lnv, bytes);
-		if (cell_viscosities(ws, st, pt, ws->lnv_try) != 0)
+		if (cell_viscosities(ws, st, pt, &ws->cur, &ws->trial) != 0)
 			continue;
-		mt = conditions(ws, st, ws->lnv_try, pt, Ct);
+		mt = conditions(ws, st, ws->trial.phi, pt, Ct);
 		if (mt < (1.0 - 1e-4 * lam) * *merit) {
-			memcpy(ws->lnv, ws->lnv_try, bytes);
+			struct melt_cells t = ws->cur;
+
+			ws->cur = ws->trial;
+			ws->trial = t;
 			memcpy(p, pt, sizeof pt);
 			memcpy(C, Ct, sizeof Ct);
 			*merit = mt;
@@ -411,19 +440,21 @@ static int line_search(struct ow_melt_ws *ws, const struct melt_station *st,
 static int cold_start(struct ow_melt_ws *ws, const struct melt_station *st)
 {
 	double g = hypot(st->vz, st->vx) / st->H;
+	struct melt_cells *cs = &ws->cur;
 
 	if (!(g > 0.0))
 		g = fabs(st->qz) / (st->H * st->H);
 	for (int c = 0; c < ws->nc; c++) {
-		double e = ws->at[c] * ow_viscosity_ref(&st->mat->visc,
-							ws->at[c] * g);
+		double s, u = ws->lat[c] + log(g);
+		double f = ow_viscosity_log_ref(&st->vlog, u, &s);
 
-		if (!(e > 0.0) || !isfinite(e))
+		cs->lnv[c] = ws->lat[c] + f;
+		if (!isfinite(cs->lnv[c]))
 			return -1;
-		ws->lnv[c] = log(e);
-		ws->nloc[c] = ow_melt_local_index(&st->mat->visc, g, ws->tc[c]);
-		if (!(ws->nloc[c] > 0.02))
-			ws->nloc[c] = 0.02;
+		cs->phi[c] = exp(-cs->lnv[c]);
+		cs->lu[c] = u;
+		cs->ltau[c] = u + f; /* the stress this rate belongs to */
+		cs->nloc[c] = 1.0 + s > 0.02 ? 1.0 + s : 0.02;
 	}
 	return 0;
 }
@@ -432,14 +463,14 @@ static int cold_start(struct ow_melt_ws *ws, const struct melt_station *st)
 static void fill_profile(struct ow_melt_ws *ws, const struct melt_station *st)
 {
 	double hh = 1.0 / (double)ws->nc, H = st->H;
-	const double *p = ws->p;
+	const double *p = ws->p, *ph = ws->cur.phi;
 
 	ws->uz[0] = ws->ux[0] = 0.0;
 	for (int c = 0; c < ws->nc; c++) {
-		double phi = exp(-ws->lnv[c]), m = ((double)c + 0.5) * hh;
+		double m = ((double)c + 0.5) * hh;
 
-		ws->uz[c + 1] = ws->uz[c] + phi * H * hh * (p[0] + p[1] * m);
-		ws->ux[c + 1] = ws->ux[c] + phi * H * hh * (p[2] + p[3] * m);
+		ws->uz[c + 1] = ws->uz[c] + ph[c] * H * hh * (p[0] + p[1] * m);
+		ws->ux[c + 1] = ws->ux[c] + ph[c] * H * hh * (p[2] + p[3] * m);
 	}
 	for (int j = 0; j < ws->nn; j++) {
 		double yh = (double)j * hh, phi = 0.0;
@@ -447,9 +478,9 @@ static void fill_profile(struct ow_melt_ws *ws, const struct melt_station *st)
 		int k = 0;
 
 		if (j > 0)
-			phi += exp(-ws->lnv[j - 1]), k++;
+			phi += ph[j - 1], k++;
 		if (j < ws->nc)
-			phi += exp(-ws->lnv[j]), k++;
+			phi += ph[j], k++;
 		phi /= (double)k;
 		ws->y[j] = yh * H;
 		ws->gd[j] = phi * hypot(tz, tx);
@@ -471,8 +502,11 @@ enum ow_status ow_melt_solve_velocity(struct ow_melt_ws *ws,
 	int it;
 
 	*iterations = 0;
-	for (int c = 0; c < ws->nc; c++)
-		ws->at[c] = ow_viscosity_shift(&st->mat->visc, ws->tc[c]);
+	for (int c = 0; c < ws->nc; c++) {
+		ws->lat[c] = ow_viscosity_log_shift(&st->mat->visc, ws->tc[c]);
+		if (!isfinite(ws->lat[c]))
+			goto bad_visc;
+	}
 	if (!ws->warm && cold_start(ws, st) != 0)
 		goto bad_visc;
 	if (!(vscale(st) > 0.0)) { /* nothing moves: no stress */
@@ -480,10 +514,10 @@ enum ow_status ow_melt_solve_velocity(struct ow_melt_ws *ws,
 		fill_profile(ws, st);
 		return OW_OK;
 	}
-	if (solve_p(ws, st, ws->lnv, ws->p) != 0 ||
-	    cell_viscosities(ws, st, ws->p, ws->lnv) != 0)
+	if (solve_p(ws, st, ws->cur.phi, ws->p) != 0 ||
+	    cell_viscosities(ws, st, ws->p, &ws->cur, &ws->cur) != 0)
 		goto bad_visc;
-	merit = conditions(ws, st, ws->lnv, ws->p, C);
+	merit = conditions(ws, st, ws->cur.phi, ws->p, C);
 	for (it = 0; max_abs4(C) > TOL_NEWTON; it++) {
 		if (it == MAX_NEWTON || newton_step(ws, st, ws->p, C, dp) ||
 		    line_search(ws, st, ws->p, dp, C, &merit)) {
@@ -495,7 +529,7 @@ enum ow_status ow_melt_solve_velocity(struct ow_melt_ws *ws,
 		}
 	}
 	*iterations = it;
-	if (solve_p(ws, st, ws->lnv, ws->p) != 0) /* conditions exactly */
+	if (solve_p(ws, st, ws->cur.phi, ws->p) != 0) /* conditions exactly */
 		goto bad_visc;
 	ws->warm = 1;
 	fill_profile(ws, st);
@@ -522,7 +556,7 @@ void ow_melt_seg_integrals(const struct ow_melt_ws *ws, double y0, double y1,
 	if (c1 > ws->nc - 1)
 		c1 = ws->nc - 1;
 	for (int c = c0; c <= c1; c++) {
-		double yc = (double)c * hh, phi = exp(-ws->lnv[c]);
+		double yc = (double)c * hh, phi = ws->cur.phi[c];
 		double t0 = fmax(a0 - yc, 0.0), t1 = fmin(a1 - yc, hh);
 		double tz = p[0] + p[1] * yc, tx = p[2] + p[3] * yc;
 		double d1 = t1 - t0, d2 = t1 * t1 - t0 * t0;
@@ -550,7 +584,7 @@ double ow_melt_psi_ux(const struct ow_melt_ws *ws, double y, double *ux)
 		c = ws->nc - 1;
 	yc = (double)c * hh;
 	t = a - yc;
-	phi = exp(-ws->lnv[c]);
+	phi = ws->cur.phi[c];
 	tx = ws->p[2] + ws->p[3] * yc;
 	if (ux)
 		*ux = ws->ux[c] + phi * H * (tx * t + ws->p[3] * t * t / 2.0);

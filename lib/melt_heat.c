@@ -35,7 +35,7 @@ static void stream_nodes(struct ow_melt_ws *ws)
 
 	ws->psi[0] = 0.0;
 	for (int c = 0; c < ws->nc; c++) {
-		double phi = exp(-ws->lnv[c]), yc = (double)c * hh;
+		double phi = ws->cur.phi[c], yc = (double)c * hh;
 		double tx = ws->p[2] + ws->p[3] * yc;
 
 		ws->psi[c + 1] = ws->psi[c] +
@@ -49,7 +49,7 @@ static void stream_nodes(struct ow_melt_ws *ws)
  * its start; -1 when there is none in [0, hh]. */
 static double ux_zero(const struct ow_melt_ws *ws, int c)
 {
-	double hh = 1.0 / (double)ws->nc, H = ws->H, phi = exp(-ws->lnv[c]);
+	double hh = 1.0 / (double)ws->nc, H = ws->H, phi = ws->cur.phi[c];
 	double A = phi * H * ws->p[3] / 2.0;
 	double B = phi * H * (ws->p[2] + ws->p[3] * (double)c * hh);
 	double C0 = ws->ux[c], r[2];

@@ -11,6 +11,7 @@
 /* Fixed data of one station solve (effective infinite-width channel). */
 struct melt_station {
 	const struct ow_material *mat;
+	struct ow_visc_log vlog; /* the resin's viscosity in log form */
 	double H;      /* depth, m */
 	double W;      /* width, m */
 	double fd, fp; /* shape factors */
@@ -25,16 +26,23 @@ struct melt_station {
 	double leak_heat;  /* clearance drag heating per unit length, W/m */
 };
 
+/* The viscosity of every cell for one set of stresses; the line search
+ * fills a trial set and swaps it in when accepted. */
+struct melt_cells {
+	double *lnv;  /* ln viscosity, ln(Pa s) */
+	double *phi;  /* fluidity exp(-lnv), 1/(Pa s) */
+	double *lu;   /* ln of the reduced shear rate aT gdot, ln(1/s) */
+	double *ltau; /* ln |tau| the cell was solved for, ln Pa */
+	double *nloc; /* local power-law index 1 + d ln eta / d ln gdot */
+};
+
 struct ow_melt_ws {
 	int nn, nc, nb;  /* nodes, cells (nn - 1), bands */
 	/* per cell */
-	double *lnv;     /* ln viscosity (the Newton unknowns) */
-	double *lnv_try; /* trial values in the line search */
+	struct melt_cells cur, trial; /* accepted and trial solutions */
+	double *cell_mem; /* the allocation behind the per-cell arrays */
 	double *tc;      /* cell temperature, K */
-	double *at;      /* shift factor at tc */
-	double *nloc;    /* local power-law index */
-	double *res;     /* ln eta - ln eta_model(gdot) */
-	double *dlv;     /* Newton step in lnv */
+	double *lat;     /* ln of the shift factor at tc */
 	int *cell_band;  /* band holding the cell's midpoint */
 	/* per node */
 	double *y, *uz, *ux, *gd, *dis, *eta, *tn, *psi;
@@ -56,13 +64,13 @@ struct ow_melt_ws {
 	double ystar, psistar;
 	int circ;        /* band layout: 1 streamline pairs, 0 layers */
 	int have_profile;
-	int warm;        /* lnv holds a previous solution */
+	int warm;        /* cur holds a previous solution */
 	double bulk;     /* flow-weighted band mean, K */
 	double hcache, fdcache, fpcache; /* last shape factors */
 };
 
 /* melt_flow.c: Newton solve of the viscosity and stress parameters at one
- * station; fills ws->lnv, ws->p and the node profiles. */
+ * station; fills ws->cur, ws->p and the node profiles. */
 enum ow_status ow_melt_solve_velocity(struct ow_melt_ws *ws,
 				      const struct melt_station *st,
 				      int *iterations, struct ow_diag *d);

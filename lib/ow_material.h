@@ -68,6 +68,30 @@ double ow_viscosity_ref(const struct ow_viscosity *v, double gdot_1_s);
 double ow_viscosity_eval(const struct ow_viscosity *v, double gdot_1_s,
 			 double temp_K);
 
+/* The same reference viscosity in log space, for solvers that evaluate it
+ * many times: ln eta_ref = c0 + k ln(1 + e^(b (ln gdot + s))) (power law:
+ * c0 + (n - 1) ln gdot). Fill once with ow_viscosity_log_init; the log
+ * form then costs one exp and one log1p and gives the slope too. */
+struct ow_visc_log {
+	enum ow_visc_model model;
+	double c0, k, b, s; /* see above; ln of Pa s for c0 */
+	double ln_gmin;     /* ln of the smallest shear rate (the clamp) */
+	double curv;        /* bound on |d2 ln eta / d(ln gdot)^2| */
+};
+
+void ow_viscosity_log_init(const struct ow_viscosity *v,
+			   struct ow_visc_log *lv);
+
+/* ln eta_ref at ln gdot (gdot in 1/s), equal to log(ow_viscosity_ref) to
+ * round-off; *slope (may be NULL) gets d ln eta_ref / d ln gdot, the local
+ * power-law index minus one (0 below the clamp). */
+double ow_viscosity_log_ref(const struct ow_visc_log *lv, double ln_gdot,
+			    double *slope);
+
+/* ln aT at temp_K, equal to log(ow_viscosity_shift) to round-off (+inf
+ * where WLF is singular). */
+double ow_viscosity_log_shift(const struct ow_viscosity *v, double temp_K);
+
 /* Check the model's parameters are in range; names the offending field with
  * the given JSON path prefix (e.g. "viscosity") in d. */
 enum ow_status ow_viscosity_validate(const struct ow_viscosity *v,
