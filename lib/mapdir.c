@@ -35,6 +35,52 @@ static unsigned long crc32_more(unsigned long crc, const void *p, size_t n)
 	return ~crc & 0xFFFFFFFFUL;
 }
 
+/* ---- exact numbers in JSON ---------------------------------------------- */
+
+/* A JSON number that reads back as exactly v: the shortest of 15, 16 or
+ * 17 significant digits that round-trips (cJSON's own printer accepts a
+ * 15-digit text within an epsilon); null for NaN and infinities. */
+static cJSON *exact_num(double v)
+{
+	char buf[40];
+	int digits;
+
+	if (!isfinite(v))
+		return cJSON_CreateNull();
+	for (digits = 15; digits < 17; digits++) {
+		snprintf(buf, sizeof buf, "%.*g", digits, v);
+		if (strtod(buf, NULL) == v)
+			break;
+	}
+	if (digits == 17)
+		snprintf(buf, sizeof buf, "%.17g", v);
+	return cJSON_CreateRaw(buf);
+}
+
+/* Every number of the tree under node printed exactly. */
+static int exact_tree(cJSON *node)
+{
+	cJSON *c = node->child, *next, *raw;
+
+	for (; c; c = next) {
+		next = c->next;
+		if (!cJSON_IsNumber(c)) {
+			if (!exact_tree(c))
+				return 0;
+			continue;
+		}
+		raw = exact_num(c->valuedouble);
+		if (!raw || !(c->string ? cJSON_ReplaceItemInObjectCaseSensitive(
+						  node, c->string, raw)
+					: cJSON_ReplaceItemViaPointer(node, c,
+								      raw))) {
+			cJSON_Delete(raw);
+			return 0;
+		}
+	}
+	return 1;
+}
+
 /* ---- study.json: the inputs with screw and resin embedded ------------ */
 
 /* Parse the file at path (continuing *crc over its bytes, skipping a
@@ -98,7 +144,7 @@ static enum ow_status study_text(const struct ow_study *s, char **out,
 				 "since they were loaded (CRC-32 %08lX, was "
 				 "%08lX): run again", s->path, crc,
 				 s->input_crc);
-	if (st == OW_OK && !(*out = cJSON_Print(doc)))
+	if (st == OW_OK && (!exact_tree(doc) || !(*out = cJSON_Print(doc))))
 		st = ow_diag_set(d, OW_ENOMEM, "out of memory");
 	cJSON_Delete(doc);
 	return st;
@@ -135,28 +181,67 @@ static int add_status(cJSON *o, const struct ow_grid *g)
 	return ok;
 }
 
+static int add_exact(cJSON *array, double v)
+{
+	cJSON *item = exact_num(v);
+
+	if (item && cJSON_AddItemToArray(array, item))
+		return 1;
+	cJSON_Delete(item);
+	return 0;
+}
+
+/* The rpm of every lattice column and the axis value of every row. */
 static int add_axes(cJSON *o, const struct ow_grid *g)
 {
-	double *v = malloc(sizeof *v * (size_t)(g->n_rpm + g->n_axis));
-	cJSON *rpm, *axis;
-	int i, ok;
+	cJSON *rpm = cJSON_AddArrayToObject(o, "rpm");
+	cJSON *axis = cJSON_AddArrayToObject(o, "axis");
+	int i, ok = rpm && axis;
 
-	if (!v)
-		return 0;
-	for (i = 0; i < g->n_rpm; i++)
-		v[i] = ow_grid_at(g, i, 0)->rpm;
-	for (i = 0; i < g->n_axis; i++)
-		v[g->n_rpm + i] = ow_grid_at(g, 0, i)->axis;
-	rpm = cJSON_CreateDoubleArray(v, g->n_rpm);
-	axis = cJSON_CreateDoubleArray(v + g->n_rpm, g->n_axis);
-	free(v);
-	ok = rpm && cJSON_AddItemToObject(o, "rpm", rpm);
-	if (!ok)
-		cJSON_Delete(rpm);
-	ok = ok && axis && cJSON_AddItemToObject(o, "axis", axis);
-	if (!ok)
-		cJSON_Delete(axis);
+	for (i = 0; ok && i < g->n_rpm; i++)
+		ok = add_exact(rpm, ow_grid_at(g, i, 0)->rpm);
+	for (i = 0; ok && i < g->n_axis; i++)
+		ok = add_exact(axis, ow_grid_at(g, 0, i)->axis);
 	return ok;
+}
+
+static int add_num(cJSON *o, const char *key, double v)
+{
+	cJSON *item = exact_num(v);
+
+	if (item && cJSON_AddItemToObject(o, key, item))
+		return 1;
+	cJSON_Delete(item);
+	return 0;
+}
+
+static int add_zone_array(cJSON *o, const char *key, const double *v, int n)
+{
+	cJSON *a = cJSON_AddArrayToObject(o, key);
+	int k, ok = a != NULL;
+
+	for (k = 0; ok && k < n; k++)
+		ok = add_exact(a, v[k]);
+	return ok;
+}
+
+/* "centre": the centre point's figures in SI (null when none). */
+static int add_centre(cJSON *o, const struct ow_point *c, int n_zones)
+{
+	struct ow_point pt;
+	cJSON *j;
+	int k, ok;
+
+	if (!c)
+		return cJSON_AddNullToObject(o, "centre") != NULL;
+	pt = *c;
+	j = cJSON_AddObjectToObject(o, "centre");
+	ok = j && cJSON_AddNumberToObject(j, "flags", pt.flags) &&
+	     cJSON_AddNumberToObject(j, "n_iter", pt.n_iter);
+	for (k = 0; ok && k < md_n_fields(); k++)
+		ok = add_num(j, md_field_name(k), *md_field(&pt, k));
+	return ok && add_zone_array(j, "set_K", pt.set_K, n_zones) &&
+	       add_zone_array(j, "zone_heat_W", pt.zone_heat_W, n_zones);
 }
 
 static int add_inputs(cJSON *o, const struct ow_study *s, int has_profile)
@@ -179,13 +264,15 @@ static int add_inputs(cJSON *o, const struct ow_study *s, int has_profile)
 }
 
 static enum ow_status lattice_text(const struct ow_study *s,
-				   const struct ow_grid *g, int has_profile,
+				   const struct ow_grid *g,
+				   const struct ow_point *centre, int has_profile,
 				   char **out, struct ow_diag *d)
 {
 	cJSON *o = cJSON_CreateObject();
 	int ok = o && cJSON_AddStringToObject(o, "format", FORMAT) &&
 		 cJSON_AddNumberToObject(o, "version", FORMAT_VERSION) &&
 		 add_inputs(o, s, has_profile) &&
+		 add_centre(o, centre, s->line.n_zones) &&
 		 cJSON_AddNumberToObject(o, "n_rpm", g->n_rpm) &&
 		 cJSON_AddNumberToObject(o, "n_axis", g->n_axis) &&
 		 cJSON_AddNumberToObject(o, "stride", g->stride) &&
@@ -215,6 +302,7 @@ static enum ow_status put(const char *dir, const char *name, char *text,
 
 enum ow_status ow_mapdir_save(const struct ow_study *s,
 			      const struct ow_grid *g,
+			      const struct ow_point *centre,
 			      const struct ow_profile_row *rows, int n_rows,
 			      const char *dir, struct ow_diag *d)
 {
@@ -226,7 +314,7 @@ enum ow_status ow_mapdir_save(const struct ow_study *s,
 		return ow_diag_set(d, OW_EARG, "ow_mapdir_save: NULL argument");
 	st = study_text(s, &study, d);
 	if (st == OW_OK)
-		st = lattice_text(s, g, has_profile, &lat, d);
+		st = lattice_text(s, g, centre, has_profile, &lat, d);
 	if (st == OW_OK)
 		st = md_points_csv(g, s->line.n_zones, &pts, d);
 	if (st == OW_OK && has_profile)
@@ -516,35 +604,95 @@ static enum ow_status load_lattice(const struct lattice_doc *L,
 	return st;
 }
 
-static enum ow_status load_profile(const struct lattice_doc *L,
-				   const char *dir, const struct ow_study *s,
-				   struct ow_profile_row **rows, int *n_rows,
-				   struct ow_diag *d)
+/* A number of the centre object, null meaning NAN. */
+static int centre_num(const cJSON *v, double *x)
+{
+	if (cJSON_IsNull(v)) {
+		*x = NAN;
+		return 1;
+	}
+	if (!cJSON_IsNumber(v))
+		return 0;
+	*x = v->valuedouble;
+	return 1;
+}
+
+static int centre_zones(const cJSON *j, const char *key, double *v, int n)
+{
+	const cJSON *a = cJSON_GetObjectItemCaseSensitive(j, key);
+	int k;
+
+	if (cJSON_GetArraySize(a) != n)
+		return 0;
+	for (k = 0; k < n; k++)
+		if (!centre_num(cJSON_GetArrayItem(a, k), &v[k]))
+			return 0;
+	return 1;
+}
+
+/* The centre point's figures from "centre" (null: none). */
+static enum ow_status read_centre(const struct lattice_doc *L, int n_zones,
+				  struct ow_mapdir_centre *c)
+{
+	const cJSON *j = cJSON_GetObjectItemCaseSensitive(L->o, "centre");
+	const cJSON *f = cJSON_GetObjectItemCaseSensitive(j, "flags");
+	const cJSON *it = cJSON_GetObjectItemCaseSensitive(j, "n_iter");
+	int k;
+
+	if (cJSON_IsNull(j))
+		return OW_OK;
+	if (!cJSON_IsObject(j) || !cJSON_IsNumber(f) || !cJSON_IsNumber(it))
+		return key_bad(L, "centre", "expected the centre point");
+	c->pt.flags = (unsigned)f->valuedouble;
+	c->pt.n_iter = (int)it->valuedouble;
+	for (k = 0; k < md_n_fields(); k++)
+		if (!centre_num(cJSON_GetObjectItemCaseSensitive(
+					j, md_field_name(k)),
+				md_field(&c->pt, k)))
+			return key_bad(L, "centre", "a figure is missing");
+	if (!centre_zones(j, "set_K", c->pt.set_K, n_zones) ||
+	    !centre_zones(j, "zone_heat_W", c->pt.zone_heat_W, n_zones))
+		return key_bad(L, "centre", "expected one value per zone");
+	c->valid = 1;
+	return OW_OK;
+}
+
+static enum ow_status load_centre(const struct lattice_doc *L,
+				  const char *dir, const struct ow_study *s,
+				  struct ow_mapdir_centre *c,
+				  struct ow_diag *d)
 {
 	const cJSON *p = cJSON_GetObjectItemCaseSensitive(L->o, "profile");
 	char path[OW_PATH_LEN + 32], *text = NULL;
 	enum ow_status st;
 
-	if (!rows || !n_rows)
+	if (!c)
 		return OW_OK;
-	*rows = NULL;
-	*n_rows = 0;
 	if (!cJSON_IsBool(p))
 		return key_bad(L, "profile", "expected true or false");
-	if (cJSON_IsFalse(p))
-		return OW_OK;
+	st = read_centre(L, s->line.n_zones, c);
+	if (st != OW_OK || cJSON_IsFalse(p))
+		return st;
 	st = read_in(dir, "profile.csv", path, &text,
 		     "profile.csv is missing", d);
 	if (st == OW_OK)
-		st = md_profile_read(text, path, s->screw.diameter_m, rows,
-				     n_rows, d);
+		st = md_profile_read(text, path, s->screw.diameter_m, &c->rows,
+				     &c->n_rows, d);
 	free(text);
 	return st;
 }
 
+void ow_mapdir_centre_free(struct ow_mapdir_centre *c)
+{
+	if (!c)
+		return;
+	free(c->rows);
+	memset(c, 0, sizeof *c);
+}
+
 enum ow_status ow_mapdir_load(const struct ow_units *u, const char *dir,
 			      struct ow_study *study, struct ow_grid **grid,
-			      struct ow_profile_row **rows, int *n_rows,
+			      struct ow_mapdir_centre *centre,
 			      struct ow_diag *d)
 {
 	char path[OW_PATH_LEN + 32], *text = NULL;
@@ -555,10 +703,8 @@ enum ow_status ow_mapdir_load(const struct ow_units *u, const char *dir,
 	if (!u || !dir || !study || !grid)
 		return ow_diag_set(d, OW_EARG, "ow_mapdir_load: NULL argument");
 	*grid = NULL;
-	if (rows && n_rows) {
-		*rows = NULL;
-		*n_rows = 0;
-	}
+	if (centre)
+		memset(centre, 0, sizeof *centre);
 	st = check_dir(dir, d);
 	if (st == OW_OK)
 		st = read_in(dir, "lattice.json", path, &text,
@@ -578,16 +724,13 @@ enum ow_status ow_mapdir_load(const struct ow_units *u, const char *dir,
 	if (st == OW_OK)
 		st = load_lattice(&L, dir, study, grid, d);
 	if (st == OW_OK)
-		st = load_profile(&L, dir, study, rows, n_rows, d);
+		st = load_centre(&L, dir, study, centre, d);
 	if (st == OW_OK)
 		st = restore_inputs(&L, study);
 	if (st != OW_OK) {
 		ow_grid_destroy(*grid);
 		*grid = NULL;
-		if (rows && n_rows) {
-			free(*rows);
-			*rows = NULL;
-		}
+		ow_mapdir_centre_free(centre);
 	}
 	cJSON_Delete(doc);
 	free(text);

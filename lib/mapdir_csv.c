@@ -155,6 +155,21 @@ static double *field_at(struct ow_point *p, int k)
 	return (double *)(void *)((char *)p + fields[k].off);
 }
 
+int md_n_fields(void)
+{
+	return N_FIELDS;
+}
+
+const char *md_field_name(int k)
+{
+	return fields[k].name;
+}
+
+double *md_field(struct ow_point *p, int k)
+{
+	return field_at(p, k);
+}
+
 static void points_header(struct md_text *t, int n_zones)
 {
 	int k;

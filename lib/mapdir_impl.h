@@ -33,6 +33,11 @@ enum ow_status md_path(char *out, size_t n, const char *dir,
  * whole text is not one number. */
 int md_parse_num(const char *text, double *x);
 
+/* The figures of struct ow_point kept in a map folder, by name. */
+int md_n_fields(void);
+const char *md_field_name(int k);
+double *md_field(struct ow_point *p, int k);
+
 /* lattice.csv: one row per solved point (indices, bits, flags, margins,
  * figures in SI). n_zones columns of set-points and zone heats. */
 enum ow_status md_points_csv(const struct ow_grid *g, int n_zones,

@@ -17,7 +17,7 @@
  *                     round trip; "nan" where a figure does not exist);
  *   DIR/profile.csv   the centre point's axial profile
  *                     (ow_results_profile_csv), absent when the window is
- *                     empty.
+ *                     empty; its figures are in lattice.json ("centre").
  *
  * Every file is written atomically (ow_results_write_file). */
 #ifndef OW_MAPDIR_H
@@ -29,30 +29,44 @@
 #include "ow_sweep.h"
 #include "ow_units.h"
 
+/* The window's centre point as solved for the profile page: its figures
+ * and its axial profile (hopper to tip). */
+struct ow_mapdir_centre {
+	int valid;                   /* 0: none saved (empty window) */
+	struct ow_point pt;          /* SI, as ow_solver_run gave it */
+	struct ow_profile_row *rows; /* malloc'd by ow_mapdir_load */
+	int n_rows;
+};
+
 /* Save study s (as loaded by ow_config_load_study: its files are read again
  * and must still hold the bytes that were loaded, checked by CRC-32),
- * lattice g and the centre profile (n_rows rows; rows NULL or n_rows 0:
- * no profile, e.g. an empty window) into the existing folder dir.
- * OW_EINPUT when an input file is gone or changed since it was loaded,
- * OW_EIO naming the file when a write fails, OW_ENOMEM. */
+ * lattice g, and the centre point (centre: its figures, rows/n_rows: its
+ * profile; NULL/0 when there is none, e.g. an empty window) into the
+ * existing folder dir. OW_EINPUT when an input file is gone or changed
+ * since it was loaded, OW_EIO naming the file when a write fails,
+ * OW_ENOMEM. */
 enum ow_status ow_mapdir_save(const struct ow_study *s,
 			      const struct ow_grid *g,
+			      const struct ow_point *centre,
 			      const struct ow_profile_row *rows, int n_rows,
 			      const char *dir, struct ow_diag *d);
 
-/* Load the map folder dir: the study from DIR/study.json (its input_crc
- * set back to the original files' CRC-32, so the report traces to them),
- * the lattice into *grid (owned by the caller: ow_grid_destroy) with every
- * point as the sweep left it, and the centre profile into *rows (malloc'd,
- * the caller frees; NULL with *n_rows = 0 when none was saved). rows and
- * n_rows may both be NULL when the profile is not wanted. Re-extracting
- * the window (ow_window_extract) gives the window of the original run.
- * OW_EINPUT when dir does not exist or is not a map folder ("... is not a
- * map folder: lattice.json is missing"), or a file in it is damaged
- * (message names the file and the line or key); OW_ENOMEM. */
+/* Load the map folder dir: the study from DIR/study.json (its path fields
+ * and input_crc set back to the original files' names and CRC-32, so the
+ * report traces to them), the lattice into *grid (owned by the caller:
+ * ow_grid_destroy) with every point as the sweep left it, and the centre
+ * point into *centre (may be NULL when not wanted; free its rows with
+ * ow_mapdir_centre_free). Re-extracting the window (ow_window_extract)
+ * gives the window of the original run. OW_EINPUT when dir does not exist
+ * or is not a map folder ("... is not a map folder: lattice.json is
+ * missing"), or a file in it is damaged (the message names the file and
+ * the line or key); OW_ENOMEM. */
 enum ow_status ow_mapdir_load(const struct ow_units *u, const char *dir,
 			      struct ow_study *study, struct ow_grid **grid,
-			      struct ow_profile_row **rows, int *n_rows,
+			      struct ow_mapdir_centre *centre,
 			      struct ow_diag *d);
+
+/* Free the rows of a loaded centre and mark it invalid (NULL-safe). */
+void ow_mapdir_centre_free(struct ow_mapdir_centre *c);
 
 #endif

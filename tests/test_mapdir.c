@@ -24,6 +24,7 @@ struct fx {
 	struct ow_window *w;
 	struct ow_profile_row *rows;
 	int n_rows;
+	struct ow_point centre;
 	char dir[64];
 };
 
@@ -40,13 +41,12 @@ static void centre_profile(struct fx *f)
 {
 	double set_K[OW_MAX_ZONES];
 	struct ow_solver *sv = NULL;
-	struct ow_point pt;
 	const struct ow_profile_row *r;
 
 	assert_int_equal(ow_solver_create(f->s, &sv, NULL), OW_OK);
 	ow_line_apply_axis(&f->s->line, f->w->centre.axis, set_K);
-	assert_int_equal(ow_solver_run(sv, f->w->centre.rpm, set_K, 0.0, &pt,
-				       NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, f->w->centre.rpm, set_K, 0.0,
+				       &f->centre, NULL), OW_OK);
 	r = ow_solver_profile(sv, &f->n_rows);
 	assert_true(f->n_rows > 10);
 	f->rows = malloc(sizeof *r * (size_t)f->n_rows);
@@ -76,8 +76,8 @@ static int setup(void **state)
 	centre_profile(f);
 	strcpy(f->dir, "/tmp/test_mapdir.XXXXXX");
 	assert_non_null(mkdtemp(f->dir));
-	assert_int_equal(ow_mapdir_save(f->s, f->g, f->rows, f->n_rows,
-					f->dir, &d), OW_OK);
+	assert_int_equal(ow_mapdir_save(f->s, f->g, &f->centre, f->rows,
+					f->n_rows, f->dir, &d), OW_OK);
 	*state = f;
 	return 0;
 }
@@ -99,15 +99,14 @@ static int teardown(void **state)
 struct loaded {
 	struct ow_study s;
 	struct ow_grid *g;
-	struct ow_profile_row *rows;
-	int n_rows;
+	struct ow_mapdir_centre c;
 };
 
 static void load(const struct fx *f, struct loaded *L)
 {
 	struct ow_diag d = {{0}};
-	enum ow_status st = ow_mapdir_load(f->u, f->dir, &L->s, &L->g,
-					   &L->rows, &L->n_rows, &d);
+	enum ow_status st = ow_mapdir_load(f->u, f->dir, &L->s, &L->g, &L->c,
+					   &d);
 
 	if (st != OW_OK)
 		fprintf(stderr, "%s\n", d.msg);
@@ -117,7 +116,7 @@ static void load(const struct fx *f, struct loaded *L)
 static void unload(struct loaded *L)
 {
 	ow_grid_destroy(L->g);
-	free(L->rows);
+	ow_mapdir_centre_free(&L->c);
 }
 
 /* Two doubles equal bit for bit, NaN equal to NaN. */
@@ -282,26 +281,37 @@ static void mapdir_study_embeds_screw_and_resin_with_sources(void **state)
 	free(text);
 }
 
-static void mapdir_reload_gives_the_centre_profile(void **state)
+static void mapdir_reload_gives_the_centre_point_and_profile(void **state)
 {
 	const struct fx *f = *state;
+	const struct ow_profile_row *rows;
 	struct loaded L;
-	int i;
+	int i, z;
 
 	load(f, &L);
-	assert_int_equal(L.n_rows, f->n_rows);
+	assert_true(L.c.valid);
+	same(L.c.pt.rpm, f->centre.rpm);
+	same(L.c.pt.output_kg_s, f->centre.output_kg_s);
+	same(L.c.pt.discharge_bulk_K, f->centre.discharge_bulk_K);
+	same(L.c.pt.peak_K, f->centre.peak_K);
+	same(L.c.pt.plugging_at_m, f->centre.plugging_at_m); /* NAN */
+	assert_int_equal(L.c.pt.flags, f->centre.flags);
+	for (z = 0; z < f->s->line.n_zones; z++)
+		same(L.c.pt.set_K[z], f->centre.set_K[z]);
+	rows = L.c.rows;
+	assert_int_equal(L.c.n_rows, f->n_rows);
 	for (i = 0; i < f->n_rows; i++) {
 		/* through mm, MPa and degC with 17 digits: a few ulps */
-		assert_rel(L.rows[i].axial_m + 1e-9, f->rows[i].axial_m + 1e-9,
+		assert_rel(rows[i].axial_m + 1e-9, f->rows[i].axial_m + 1e-9,
 			   1e-12);
-		assert_rel(L.rows[i].pressure_Pa, f->rows[i].pressure_Pa,
+		assert_rel(rows[i].pressure_Pa, f->rows[i].pressure_Pa,
 			   1e-12);
-		assert_rel(L.rows[i].depth_m, f->rows[i].depth_m, 1e-12);
-		assert_rel(L.rows[i].sbr + 1.0, f->rows[i].sbr + 1.0, 1e-12);
+		assert_rel(rows[i].depth_m, f->rows[i].depth_m, 1e-12);
+		assert_rel(rows[i].sbr + 1.0, f->rows[i].sbr + 1.0, 1e-12);
 		if (isnan(f->rows[i].bulk_K))
-			assert_true(isnan(L.rows[i].bulk_K));
+			assert_true(isnan(rows[i].bulk_K));
 		else
-			assert_rel(L.rows[i].bulk_K, f->rows[i].bulk_K, 1e-12);
+			assert_rel(rows[i].bulk_K, f->rows[i].bulk_K, 1e-12);
 	}
 	unload(&L);
 }
@@ -313,7 +323,7 @@ static void expect_refusal(const struct fx *f, const char *dir,
 	struct ow_grid *g = (struct ow_grid *)1;
 	struct ow_study *s = calloc(1, sizeof *s);
 
-	assert_int_equal(ow_mapdir_load(f->u, dir, s, &g, NULL, NULL, &d),
+	assert_int_equal(ow_mapdir_load(f->u, dir, s, &g, NULL, &d),
 			 OW_EINPUT);
 	assert_null(g);
 	if (!strstr(d.msg, words))
@@ -380,7 +390,8 @@ static void mapdir_save_refuses_inputs_changed_since_loading(void **state)
 	snprintf(cmd, sizeof cmd, "sed -i 's/950 kg/951 kg/' '%s/resin-si.json'",
 		 dir);
 	assert_int_equal(system(cmd), 0);
-	assert_int_equal(ow_mapdir_save(s, f->g, NULL, 0, dir, &d), OW_EINPUT);
+	assert_int_equal(ow_mapdir_save(s, f->g, NULL, NULL, 0, dir, &d),
+			 OW_EINPUT);
 	assert_non_null(strstr(d.msg, "changed since they were loaded"));
 	snprintf(path, sizeof path, "%s/lattice.json", dir);
 	assert_int_equal(access(path, F_OK), -1); /* nothing half-saved */
@@ -397,7 +408,8 @@ int main(void)
 		cmocka_unit_test(mapdir_reload_keeps_sources_crc_and_file_names),
 		cmocka_unit_test(
 			mapdir_study_embeds_screw_and_resin_with_sources),
-		cmocka_unit_test(mapdir_reload_gives_the_centre_profile),
+		cmocka_unit_test(
+			mapdir_reload_gives_the_centre_point_and_profile),
 		cmocka_unit_test(mapdir_load_refuses_a_missing_or_foreign_folder),
 		cmocka_unit_test(mapdir_load_refuses_damaged_files_naming_them),
 		cmocka_unit_test(
