@@ -32,9 +32,13 @@ struct ow_maps_options {
 	double current_set_K;    /* reference zone's absolute set-point, K */
 	int png, svg;            /* formats to write (default both) */
 	double font_pt;          /* base text size; 0: 9 pt */
+	/* profile rows of the window's centre (hopper to tip), borrowed;
+	 * NULL: ow_maps_write_all solves the centre point itself */
+	const struct ow_profile_row *profile;
+	int n_profile;
 };
 
-/* Defaults: SI, no current point, PNG and SVG, 9 pt. */
+/* Defaults: SI, no current point, PNG and SVG, 9 pt, no profile rows. */
 void ow_maps_default(struct ow_maps_options *o);
 
 /* The figure maps, in file order. */
@@ -64,6 +68,16 @@ enum ow_status ow_maps_draw_window(struct ow_canvas *cv,
 				   const struct ow_window *w,
 				   const struct ow_maps_options *o,
 				   struct ow_diag *d);
+
+/* The plot frame (data area, ranges) the window map uses in box, without
+ * drawing: for placing annotations over it, and for tests. */
+enum ow_status ow_maps_window_frame(struct ow_canvas *cv,
+				    const struct ow_rect *box,
+				    const struct ow_study *s,
+				    const struct ow_grid *g,
+				    const struct ow_window *w,
+				    const struct ow_maps_options *o,
+				    struct ow_plot *p, struct ow_diag *d);
 
 /* Draw the map of figure f into box of cv (filled contours of the solved
  * coarse grid points, colour bar, labelled iso-lines, the window's

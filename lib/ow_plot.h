@@ -77,6 +77,8 @@ struct ow_plot {
 	struct ow_ticks xt, yt; /* ticks chosen */
 	double font_pt;         /* base text size */
 	struct ow_rgba ink;     /* axes and text colour */
+	int hide_x_labels;      /* 1: ticks without numbers on x (a panel
+				   above another sharing its x axis) */
 };
 
 /* Lay out a plot in box (the whole chart, labels included): margins for
@@ -156,6 +158,15 @@ enum ow_status ow_plot_contour_fill(const struct ow_plot *p,
 				    const struct ow_field *f,
 				    const struct ow_ticks *levels,
 				    enum ow_cmap map, struct ow_diag *d);
+
+/* The region {z >= level} of f (the one ow_plot_contour_fill paints for
+ * that level) filled with tint (alpha 0: none), then hatched with h (NULL:
+ * none); clipped to the data area. */
+enum ow_status ow_plot_field_region(const struct ow_plot *p,
+				    const struct ow_field *f, double level,
+				    struct ow_rgba tint,
+				    const struct ow_hatch *h,
+				    struct ow_diag *d);
 
 /* Iso-lines at the levels (every `every`-th, from the first) in colour
  * width, each labelled once along its longest piece with the level

@@ -285,7 +285,8 @@ static void tick_labels(const struct ow_plot *p, int xaxis)
 
 			ow_canvas_move_to(cv, X, by);
 			ow_canvas_line_to(cv, X, by + TICK_LEN);
-			ow_canvas_text(cv, X, by + TICK_LEN + 0.35 * p->font_pt,
+			if (!p->hide_x_labels)
+				ow_canvas_text(cv, X, by + TICK_LEN + 0.35 * p->font_pt,
 				       buf, OW_ALIGN_CENTRE, OW_VALIGN_TOP, 0);
 		} else {
 			double Y = ow_plot_py(p, t->v[i]);
@@ -588,7 +589,8 @@ static void legend_sample(struct ow_canvas *cv, double x, double y,
 	{
 		enum ow_marker m = e->marker != OW_MARK_NONE ? e->marker
 							      : e->line.marker;
-		marker_at(cv, x + 0.5 * sw, y, m, 2.2 + 2.8 * e->line.width_pt,
+		marker_at(cv, x + 0.5 * sw, y, m,
+			  fmax(7.0, 2.2 + 2.8 * e->line.width_pt),
 			  ow_rgb(1, 1, 1), e->line.colour);
 	}
 }

@@ -293,7 +293,7 @@ enum ow_status ow_contour_levels(const struct ow_field *f, int max_levels,
 	if (!isfinite(lo))
 		return OW_EARG;
 	if (hi - lo <= 1e-12 * fmax(1.0, fabs(hi))) { /* constant */
-		double w = fmax(0.5 * fabs(hi), 1e-9);
+		double w = hi == 0.0 ? 1.0 : 0.05 * fabs(hi);
 
 		lo -= w;
 		hi += w;
@@ -411,6 +411,29 @@ enum ow_status ow_plot_contour_fill(const struct ow_plot *p,
 		ow_canvas_set_colour(p->cv, ow_contour_band_colour(map, k, nb));
 		ow_canvas_fill(p->cv);
 	}
+	ow_canvas_restore(p->cv);
+	return ow_canvas_status(p->cv, d);
+}
+
+enum ow_status ow_plot_field_region(const struct ow_plot *p,
+				    const struct ow_field *f, double level,
+				    struct ow_rgba tint,
+				    const struct ow_hatch *h,
+				    struct ow_diag *d)
+{
+	if (!p || !field_ok(f) || !isfinite(level))
+		return ow_diag_set(d, OW_EARG, "field region: a field of at "
+				   "least 2 x 2 values and a finite level "
+				   "needed");
+	ow_plot_clip(p);
+	region_path(p, f, level);
+	if (tint.a > 0.0) {
+		ow_canvas_set_colour(p->cv, tint);
+		ow_canvas_fill_preserve(p->cv);
+	}
+	if (h)
+		ow_canvas_hatch(p->cv, h);
+	ow_canvas_new_path(p->cv);
 	ow_canvas_restore(p->cv);
 	return ow_canvas_status(p->cv, d);
 }

@@ -1,0 +1,649 @@
+/* maps.c - the map images of a study: shared pieces (the lattice as a
+ * field, limit texts, label placement, the window overlay, titles) and
+ * writing every image file. The charts themselves: maps_window.c,
+ * maps_figure.c, maps_profile.c. */
+#include "maps_impl.h"
+
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "ow_classify.h"
+
+void ow_maps_default(struct ow_maps_options *o)
+{
+	memset(o, 0, sizeof *o);
+	o->units = OW_SYS_SI;
+	o->png = 1;
+	o->svg = 1;
+}
+
+double maps_font(const struct ow_maps_options *o)
+{
+	return o && o->font_pt > 0.0 ? o->font_pt : 9.0;
+}
+
+static const char *const fig_file[OW_MAP_COUNT] = {
+	"map-peak-temp", "map-unmelt", "map-pressure", "map-output", "map-sec"};
+static const char *const fig_title[OW_MAP_COUNT] = {
+	"Peak melt temperature", "Unmelted solids at discharge",
+	"Highest pressure on the screw", "Throughput",
+	"Specific energy (drive)"};
+
+const char *ow_maps_figure_file(enum ow_map_figure f)
+{
+	return (unsigned)f < OW_MAP_COUNT ? fig_file[f] : "";
+}
+
+const char *ow_maps_figure_title(enum ow_map_figure f)
+{
+	return (unsigned)f < OW_MAP_COUNT ? fig_title[f] : "";
+}
+
+char *ow_maps_axis_label(const struct ow_study *s, char *buf, size_t n)
+{
+	const struct ow_line *l = &s->line;
+
+	switch (l->axes.mode) {
+	case OW_AXIS_SHIFT:
+		snprintf(buf, n, "last zone set-point");
+		break;
+	case OW_AXIS_SET:
+		if (l->axes.zones_from >= l->n_zones - 1)
+			snprintf(buf, n, "zone %d set-point", l->n_zones);
+		else
+			snprintf(buf, n, "zones %d–%d set-point",
+				 l->axes.zones_from + 1, l->n_zones);
+		break;
+	case OW_AXIS_ZONE:
+		snprintf(buf, n, "zone %d set-point", l->axes.zone + 1);
+		break;
+	}
+	return buf;
+}
+
+double maps_temp(enum ow_unit_system u, double K)
+{
+	return ow_display_value(u, OW_DIM_TEMPERATURE, K);
+}
+
+char *maps_y_title(const struct ow_study *s, enum ow_unit_system u,
+		   char *buf, size_t n)
+{
+	char lab[96];
+
+	snprintf(buf, n, "%s (%s)", ow_maps_axis_label(s, lab, sizeof lab),
+		 ow_display_label(u, OW_DIM_TEMPERATURE));
+	return buf;
+}
+
+char *maps_num(char *buf, size_t n, double v)
+{
+	double a = fabs(v);
+	int dec = a >= 100.0 ? 0 : a >= 10.0 ? 1 : a >= 1.0 ? 2 : 3;
+
+	ow_plot_format(buf, n, v, dec);
+	if (strchr(buf, '.')) { /* drop trailing zeros */
+		char *e = buf + strlen(buf) - 1;
+
+		while (*e == '0')
+			*e-- = '\0';
+		if (*e == '.')
+			*e = '\0';
+	}
+	return buf;
+}
+
+char *maps_limit_text(const struct ow_study *s, int check,
+		      enum ow_unit_system u, const char *op, char *buf,
+		      size_t n)
+{
+	static const struct {
+		const char *name;
+		enum ow_dim dim;
+	} lim[OW_CK_LIMITS] = {
+		[OW_CK_PEAK_TEMP] = {"peak melt", OW_DIM_TEMPERATURE},
+		[OW_CK_UNMELT] = {"unmelt", OW_DIM_NONE},
+		[OW_CK_PRESSURE] = {"pressure", OW_DIM_PRESSURE},
+		[OW_CK_POWER] = {"power", OW_DIM_POWER},
+		[OW_CK_TORQUE] = {"torque", OW_DIM_TORQUE},
+		[OW_CK_MIN_MELT_TEMP] = {"min. melt", OW_DIM_TEMPERATURE},
+		[OW_CK_MIN_OUTPUT] = {"min. output", OW_DIM_MASS_FLOW},
+		[OW_CK_MAX_OUTPUT] = {"max. output", OW_DIM_MASS_FLOW},
+		[OW_CK_MAX_SBR] = {"solid bed ratio", OW_DIM_NONE},
+	};
+	char num[48];
+	double v;
+
+	op = op ? op : " ";
+	if (check == OW_CK_PLUGGING)
+		return snprintf(buf, n, "plugging"), buf;
+	if (check == OW_CK_FEED)
+		return snprintf(buf, n, "feed-limited"), buf;
+	if (check == OW_CK_NOCONV || check < 0 || check >= OW_CK_LIMITS)
+		return snprintf(buf, n, "no solution"), buf;
+	v = ow_check_limit(&s->line.limits, (enum ow_check)check);
+	if (check == OW_CK_UNMELT) {
+		snprintf(buf, n, "%s%s%s %%", lim[check].name, op,
+			 maps_num(num, sizeof num, 100.0 * v));
+		return buf;
+	}
+	if (lim[check].dim == OW_DIM_NONE) {
+		snprintf(buf, n, "%s%s%s", lim[check].name, op,
+			 maps_num(num, sizeof num, v));
+		return buf;
+	}
+	snprintf(buf, n, "%s%s%s %s", lim[check].name, op,
+		 maps_num(num, sizeof num,
+			   ow_display_value(u, lim[check].dim, v)),
+		 ow_display_label(u, lim[check].dim));
+	return buf;
+}
+
+char *maps_fit_text(struct ow_canvas *cv, const char *text, double max_w,
+		    char *buf, size_t n)
+{
+	size_t len;
+
+	snprintf(buf, n, "%s", text);
+	if (ow_canvas_text_width(cv, buf) <= max_w)
+		return buf;
+	len = strlen(buf);
+	while (len > 1) {
+		len--;
+		while (len > 0 && ((unsigned char)buf[len] & 0xC0) == 0x80)
+			len--; /* whole UTF-8 characters only */
+		while (len > 0 && buf[len - 1] == ' ')
+			len--;
+		if (len + 4 > n)
+			continue;
+		memcpy(buf + len, "…", 4); /* U+2026 and the terminator */
+		if (ow_canvas_text_width(cv, buf) <= max_w)
+			break;
+	}
+	return buf;
+}
+
+/* --- the lattice as a field ------------------------------------------- */
+
+void maps_field_free(struct maps_field *mf)
+{
+	free(mf->x);
+	free(mf->y);
+	free(mf->z);
+	memset(mf, 0, sizeof *mf);
+}
+
+enum ow_status maps_field_create(const struct ow_study *s,
+				 const struct ow_grid *g,
+				 enum ow_unit_system u, struct maps_field *mf,
+				 struct ow_diag *d)
+{
+	int i;
+
+	(void)s;
+	memset(mf, 0, sizeof *mf);
+	if (!g || g->n_rpm < 2 || g->n_axis < 2)
+		return ow_diag_set(d, OW_EARG, "maps: a lattice of at least "
+				   "2 x 2 points needed");
+	mf->x = malloc((size_t)g->n_rpm * sizeof *mf->x);
+	mf->y = malloc((size_t)g->n_axis * sizeof *mf->y);
+	mf->z = malloc((size_t)g->n_rpm * (size_t)g->n_axis * sizeof *mf->z);
+	if (!mf->x || !mf->y || !mf->z) {
+		maps_field_free(mf);
+		return ow_diag_set(d, OW_ENOMEM, "out of memory");
+	}
+	for (i = 0; i < g->n_rpm; i++)
+		mf->x[i] = ow_grid_at(g, i, 0)->rpm;
+	for (i = 0; i < g->n_axis; i++)
+		mf->y[i] = maps_temp(u, ow_grid_at(g, 0, i)->set_ref_K);
+	mf->f.nx = g->n_rpm;
+	mf->f.ny = g->n_axis;
+	mf->f.x = mf->x;
+	mf->f.y = mf->y;
+	mf->f.z = mf->z;
+	return OW_OK;
+}
+
+/* Bilinear from the corners of the cell of size s holding (ir, ia). */
+static int from_cell(const struct ow_grid *g, maps_get get, const void *ctx,
+		     int ir, int ia, int s, double *z)
+{
+	int i0 = ir - ir % s, j0 = ia - ia % s;
+	int i1 = i0 + s < g->n_rpm ? i0 + s : i0;
+	int j1 = j0 + s < g->n_axis ? j0 + s : j0;
+	double tx = (double)(ir - i0) / (double)s;
+	double ty = (double)(ia - j0) / (double)s;
+	const struct ow_grid_point *c[4] = {
+		ow_grid_at(g, i0, j0), ow_grid_at(g, i1, j0),
+		ow_grid_at(g, i0, j1), ow_grid_at(g, i1, j1)};
+	int k;
+
+	for (k = 0; k < 4; k++)
+		if (c[k]->solved != 1)
+			return 0;
+	*z = (1 - ty) * ((1 - tx) * get(c[0], ctx) + tx * get(c[1], ctx)) +
+	     ty * ((1 - tx) * get(c[2], ctx) + tx * get(c[3], ctx));
+	return 1;
+}
+
+void maps_fill(const struct ow_grid *g, maps_get get, const void *ctx,
+	       double *z)
+{
+	int ir, ia, s;
+
+	for (ia = 0; ia < g->n_axis; ia++)
+		for (ir = 0; ir < g->n_rpm; ir++) {
+			const struct ow_grid_point *p = ow_grid_at(g, ir, ia);
+			double *v = &z[ia * g->n_rpm + ir];
+
+			*v = NAN;
+			if (p->solved == 1) {
+				*v = get(p, ctx);
+				continue;
+			}
+			for (s = 2; s <= g->stride; s *= 2)
+				if (from_cell(g, get, ctx, ir, ia, s, v))
+					break;
+		}
+}
+
+/* --- labels ----------------------------------------------------------- */
+
+int maps_labels_free(const struct maps_labels *l, double x0, double y0,
+		     double x1, double y1)
+{
+	int k;
+
+	for (k = 0; k < l->n; k++)
+		if (x0 < l->x1[k] && x1 > l->x0[k] && y0 < l->y1[k] &&
+		    y1 > l->y0[k])
+			return 0;
+	return 1;
+}
+
+void maps_labels_take(struct maps_labels *l, double x0, double y0, double x1,
+		      double y1)
+{
+	if (l->n == MAPS_MAX_LABELS)
+		return;
+	l->x0[l->n] = x0;
+	l->y0[l->n] = y0;
+	l->x1[l->n] = x1;
+	l->y1[l->n] = y1;
+	l->n++;
+}
+
+/* --- window overlay --------------------------------------------------- */
+
+void maps_boundary_points(const struct ow_study *s, const struct ow_polyline *l,
+			  enum ow_unit_system u, struct ow_pt2 *out)
+{
+	int k;
+
+	for (k = 0; k < l->n; k++) {
+		out[k].x = l->p[k].rpm;
+		out[k].y = maps_temp(u, ow_sweep_set_ref(s, l->p[k].axis));
+	}
+}
+
+void maps_draw_rectangle(const struct ow_plot *p, const struct ow_study *s,
+			 const struct ow_window *w, enum ow_unit_system u,
+			 double width_pt)
+{
+	double x0, x1, y0, y1;
+
+	(void)s;
+	if (!w || w->empty)
+		return;
+	x0 = ow_plot_px(p, w->rpm_min);
+	x1 = ow_plot_px(p, w->rpm_max);
+	y0 = ow_plot_py(p, maps_temp(u, w->set_min_K));
+	y1 = ow_plot_py(p, maps_temp(u, w->set_max_K));
+	ow_plot_clip(p);
+	{ /* a white halo keeps it clear of hatching and dark colours */
+		ow_canvas_set_colour(p->cv, ow_rgb(1, 1, 1));
+		ow_canvas_set_line_width(p->cv, width_pt + 1.6);
+		ow_canvas_rect(p->cv, x0, y1, x1 - x0, y0 - y1);
+		ow_canvas_stroke(p->cv);
+	}
+	ow_canvas_set_colour(p->cv, ow_rgb(0, 0, 0));
+	ow_canvas_set_line_width(p->cv, width_pt);
+	ow_canvas_rect(p->cv, x0, y1, x1 - x0, y0 - y1);
+	ow_canvas_stroke(p->cv);
+	ow_canvas_restore(p->cv);
+}
+
+void maps_draw_edge(const struct ow_plot *p, const struct ow_study *s,
+		    const struct ow_window *w, enum ow_unit_system u)
+{
+	struct ow_line_style st = {ow_rgb(1, 1, 1), 1.6, OW_DASH_SOLID,
+				   OW_MARK_NONE};
+	int b, k;
+
+	for (b = 0; w && b < w->n_boundaries; b++) {
+		const struct ow_boundary *bd = &w->bounds[b];
+
+		if (bd->check != OW_WINDOW_EDGE)
+			continue;
+		for (k = 0; k < bd->n_lines; k++) {
+			struct ow_pt2 *pts = malloc((size_t)bd->lines[k].n *
+						    sizeof *pts);
+
+			if (!pts)
+				continue;
+			maps_boundary_points(s, &bd->lines[k], u, pts);
+			st.colour = ow_rgb(1, 1, 1);
+			st.width_pt = 2.2;
+			st.dash = OW_DASH_SOLID;
+			ow_plot_polyline(p, pts, bd->lines[k].n, &st);
+			st.colour = ow_rgb(0, 0, 0);
+			st.width_pt = 0.9;
+			st.dash = OW_DASH_DASHED;
+			ow_plot_polyline(p, pts, bd->lines[k].n, &st);
+			free(pts);
+		}
+	}
+}
+
+/* A marked point with a label beside it, placed where it is free. */
+static void mark_point(const struct ow_plot *p, double x, double y,
+		       enum ow_marker m, const char *text,
+		       struct maps_labels *taken)
+{
+	static const double off[4][2] = {{1, -1}, {1, 1}, {-1, -1}, {-1, 1}};
+	double X = ow_plot_px(p, x), Y = ow_plot_py(p, y), f = p->font_pt;
+	double w, h = 1.3 * f;
+	int k;
+
+	ow_plot_marker(p, x, y, m, 9.0, ow_rgb(1, 1, 1), ow_rgb(0, 0, 0));
+	ow_canvas_set_font(p->cv, 0.95 * f, 1);
+	w = ow_canvas_text_width(p->cv, text) + 0.6 * f;
+	for (k = 0; k < 4; k++) {
+		double bx = off[k][0] > 0 ? X + 6.0 : X - 6.0 - w;
+		double by = off[k][1] < 0 ? Y - 6.0 - h : Y + 6.0;
+
+		if (bx < p->area.x || bx + w > p->area.x + p->area.w ||
+		    by < p->area.y || by + h > p->area.y + p->area.h)
+			continue;
+		if (k < 3 && !maps_labels_free(taken, bx, by, bx + w, by + h))
+			continue;
+		ow_canvas_save(p->cv);
+		ow_canvas_rect(p->cv, bx, by, w, h);
+		ow_canvas_set_colour(p->cv,
+				     ow_rgba_with_alpha(ow_rgb(1, 1, 1), 0.9));
+		ow_canvas_fill(p->cv);
+		ow_canvas_set_colour(p->cv, ow_rgb(0, 0, 0));
+		ow_canvas_set_font(p->cv, 0.95 * f, 1);
+		ow_canvas_text(p->cv, bx + 0.3 * f, by + 0.5 * h, text,
+			       OW_ALIGN_LEFT, OW_VALIGN_MIDDLE, 0);
+		ow_canvas_restore(p->cv);
+		maps_labels_take(taken, bx, by, bx + w, by + h);
+		return;
+	}
+}
+
+static void point_text(char *buf, size_t n, const char *what, double rpm,
+		       double shown, enum ow_unit_system u)
+{
+	char a[32], b[32];
+
+	snprintf(buf, n, "%s %s rpm, %s %s", what, maps_num(a, sizeof a, rpm),
+		 ow_plot_format(b, sizeof b, shown, 0),
+		 ow_display_label(u, OW_DIM_TEMPERATURE));
+}
+
+void maps_draw_points(const struct ow_plot *p, const struct ow_study *s,
+		      const struct ow_window *w,
+		      const struct ow_maps_options *o,
+		      struct maps_labels *taken)
+{
+	char buf[128];
+
+	(void)s;
+	if (w && !w->empty) {
+		double y = maps_temp(o->units, w->centre_set_K);
+
+		point_text(buf, sizeof buf, "centre", w->centre.rpm, y,
+			   o->units);
+		mark_point(p, w->centre.rpm, y, OW_MARK_DIAMOND, buf, taken);
+	}
+	if (o->has_current && isfinite(o->current_rpm) &&
+	    isfinite(o->current_set_K)) {
+		double y = maps_temp(o->units, o->current_set_K);
+
+		point_text(buf, sizeof buf, "current", o->current_rpm, y,
+			   o->units);
+		mark_point(p, o->current_rpm, y, OW_MARK_TRIANGLE, buf, taken);
+	}
+}
+
+/* --- frames ----------------------------------------------------------- */
+
+void maps_paper(struct ow_canvas *cv, const struct ow_rect *box,
+		const char *title, const char *subtitle, double font_pt)
+{
+	char buf[320];
+
+	ow_canvas_save(cv);
+	ow_canvas_rect(cv, box->x, box->y, box->w, box->h);
+	ow_canvas_set_colour(cv, ow_rgb(1, 1, 1));
+	ow_canvas_fill(cv);
+	ow_canvas_set_colour(cv, ow_rgb(0.1, 0.1, 0.1));
+	ow_canvas_set_font(cv, 1.25 * font_pt, 1);
+	ow_canvas_text(cv, box->x + 0.8 * font_pt, box->y + 0.8 * font_pt,
+		       maps_fit_text(cv, title ? title : "", box->w - 1.6 * font_pt,
+				     buf, sizeof buf),
+		       OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+	if (subtitle) {
+		ow_canvas_set_font(cv, 0.95 * font_pt, 0);
+		ow_canvas_set_colour(cv, ow_rgb(0.3, 0.3, 0.3));
+		ow_canvas_text(cv, box->x + 0.8 * font_pt,
+			       box->y + 2.55 * font_pt,
+			       maps_fit_text(cv, subtitle,
+					     box->w - 1.6 * font_pt, buf,
+					     sizeof buf),
+			       OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+	}
+	ow_canvas_restore(cv);
+}
+
+void maps_axes(const struct ow_study *s, const struct ow_grid *g,
+	       enum ow_unit_system u, struct ow_plot_axis *x,
+	       struct ow_plot_axis *y, char *ytitle, size_t n)
+{
+	double ya = maps_temp(u, ow_grid_at(g, 0, 0)->set_ref_K);
+	double yb = maps_temp(u, ow_grid_at(g, 0, g->n_axis - 1)->set_ref_K);
+
+	memset(x, 0, sizeof *x);
+	memset(y, 0, sizeof *y);
+	x->min = ow_grid_at(g, 0, 0)->rpm;
+	x->max = ow_grid_at(g, g->n_rpm - 1, 0)->rpm;
+	x->title = "screw speed (rpm)";
+	y->min = fmin(ya, yb);
+	y->max = fmax(ya, yb);
+	y->title = maps_y_title(s, u, ytitle, n);
+}
+
+/* --- the centre profile ----------------------------------------------- */
+
+enum ow_status ow_maps_centre_profile(const struct ow_study *s,
+				      const struct ow_window *w,
+				      struct ow_profile_row **rows, int *n,
+				      struct ow_point *pt, struct ow_diag *d)
+{
+	struct ow_solver *sv = NULL;
+	struct ow_point p;
+	double set_K[OW_MAX_ZONES];
+	const struct ow_profile_row *r;
+	enum ow_status st;
+	int m = 0;
+
+	if (!s || !w || !rows || !n)
+		return ow_diag_set(d, OW_EARG, "centre profile: NULL argument");
+	*rows = NULL;
+	*n = 0;
+	if (w->empty)
+		return ow_diag_set(d, OW_EINPUT, "centre profile: the window "
+				   "is empty, there is no centre");
+	st = ow_solver_create(s, &sv, d);
+	if (st != OW_OK)
+		return st;
+	ow_line_apply_axis(&s->line, w->centre.axis, set_K);
+	st = ow_solver_run(sv, w->centre.rpm, set_K, 0.0, &p, d);
+	if (st != OW_OK)
+		goto fail;
+	r = ow_solver_profile(sv, &m);
+	if (m > 0) {
+		*rows = malloc((size_t)m * sizeof **rows);
+		if (!*rows) {
+			st = ow_diag_set(d, OW_ENOMEM, "out of memory");
+			goto fail;
+		}
+		memcpy(*rows, r, (size_t)m * sizeof **rows);
+	}
+	*n = m;
+	if (pt)
+		*pt = p;
+fail:
+	ow_solver_destroy(sv);
+	return st;
+}
+
+/* --- files ------------------------------------------------------------ */
+
+enum map_kind { MAP_WINDOW, MAP_FIGURE, MAP_PROFILE };
+
+struct job {
+	enum map_kind kind;
+	enum ow_map_figure fig;
+	const struct ow_study *s;
+	const struct ow_grid *g;
+	const struct ow_window *w;
+	const struct ow_maps_options *o;
+	const struct ow_profile_row *rows;
+	int n_rows;
+	const char *subtitle;
+};
+
+static enum ow_status draw_job(struct ow_canvas *cv, const struct job *j,
+			       struct ow_diag *d)
+{
+	struct ow_rect box = {0, 0, OW_MAPS_WIDTH_PT, OW_MAPS_HEIGHT_PT};
+
+	switch (j->kind) {
+	case MAP_WINDOW:
+		return ow_maps_draw_window(cv, &box, j->s, j->g, j->w, j->o, d);
+	case MAP_FIGURE:
+		return ow_maps_draw_figure(cv, &box, j->fig, j->s, j->g, j->w,
+					   j->o, d);
+	case MAP_PROFILE:
+		return ow_maps_draw_profile(cv, &box, j->s, j->rows, j->n_rows,
+					    j->subtitle, j->o, d);
+	}
+	return OW_EARG;
+}
+
+static enum ow_status write_one(const struct job *j, const char *dir,
+				const char *stem, enum ow_canvas_format fmt,
+				struct ow_diag *d)
+{
+	struct ow_canvas *cv = NULL;
+	size_t len = strlen(dir) + strlen(stem) + 8;
+	char *path = malloc(len);
+	enum ow_status st;
+
+	if (!path)
+		return ow_diag_set(d, OW_ENOMEM, "out of memory");
+	snprintf(path, len, "%s/%s.%s", dir, stem,
+		 fmt == OW_CANVAS_PNG ? "png" : "svg");
+	st = ow_canvas_create_image(fmt, OW_MAPS_WIDTH_PT, OW_MAPS_HEIGHT_PT,
+				    OW_MAPS_PNG_SCALE, &cv, d);
+	if (st == OW_OK)
+		st = draw_job(cv, j, d);
+	if (st == OW_OK)
+		st = ow_canvas_write_file(cv, path, d);
+	ow_canvas_destroy(cv);
+	free(path);
+	return st;
+}
+
+static enum ow_status write_both(const struct job *j, const char *dir,
+				 const char *stem, struct ow_diag *d)
+{
+	enum ow_status st = OW_OK;
+
+	if (j->o->png)
+		st = write_one(j, dir, stem, OW_CANVAS_PNG, d);
+	if (st == OW_OK && j->o->svg)
+		st = write_one(j, dir, stem, OW_CANVAS_SVG, d);
+	return st;
+}
+
+static char *centre_subtitle(const struct ow_study *s,
+			     const struct ow_window *w,
+			     enum ow_unit_system u, char *buf, size_t n)
+{
+	char a[32], b[32], lab[96];
+
+	snprintf(buf, n, "at the window's centre: %s rpm, %s %s %s",
+		 maps_num(a, sizeof a, w->centre.rpm),
+		 ow_maps_axis_label(s, lab, sizeof lab),
+		 ow_plot_format(b, sizeof b, maps_temp(u, w->centre_set_K), 0),
+		 ow_display_label(u, OW_DIM_TEMPERATURE));
+	return buf;
+}
+
+static enum ow_status write_profile(struct job *j, const char *dir,
+				    struct ow_diag *d)
+{
+	struct ow_profile_row *own = NULL;
+	char sub[200];
+	enum ow_status st = OW_OK;
+
+	j->kind = MAP_PROFILE;
+	j->rows = j->o->profile;
+	j->n_rows = j->o->n_profile;
+	if (!j->rows || j->n_rows < 2) {
+		st = ow_maps_centre_profile(j->s, j->w, &own, &j->n_rows, NULL,
+					    d);
+		j->rows = own;
+	}
+	j->subtitle = centre_subtitle(j->s, j->w, j->o->units, sub, sizeof sub);
+	if (st == OW_OK)
+		st = write_both(j, dir, "profile", d);
+	free(own);
+	return st;
+}
+
+enum ow_status ow_maps_write_all(const struct ow_study *s,
+				 const struct ow_grid *g,
+				 const struct ow_window *w,
+				 const struct ow_maps_options *o,
+				 const char *dir, struct ow_diag *d)
+{
+	struct ow_maps_options def;
+	struct job j;
+	enum ow_status st;
+	int f;
+
+	if (!s || !g || !w || !dir)
+		return ow_diag_set(d, OW_EARG, "maps: NULL argument");
+	if (!o) {
+		ow_maps_default(&def);
+		o = &def;
+	}
+	memset(&j, 0, sizeof j);
+	j.s = s, j.g = g, j.w = w, j.o = o;
+	j.kind = MAP_WINDOW;
+	st = write_both(&j, dir, "window", d);
+	for (f = 0; f < OW_MAP_COUNT && st == OW_OK; f++) {
+		j.kind = MAP_FIGURE;
+		j.fig = (enum ow_map_figure)f;
+		st = write_both(&j, dir, fig_file[f], d);
+	}
+	if (st == OW_OK && !w->empty)
+		st = write_profile(&j, dir, d);
+	return st;
+}
