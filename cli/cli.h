@@ -31,6 +31,7 @@ struct cli_command {
 };
 
 int cmd_check(int argc, char **argv);
+int cmd_compare(int argc, char **argv);
 int cmd_point(int argc, char **argv);
 int cmd_map(int argc, char **argv);
 int cmd_fit(int argc, char **argv);

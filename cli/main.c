@@ -9,6 +9,7 @@ static int cmd_help(int argc, char **argv);
 /* Sorted by name. */
 static const struct cli_command commands[] = {
 	{"check", cmd_check, "validate inputs; print derived screw data"},
+	{"compare", cmd_compare, "two studies on one grid, common window"},
 	{"fit", cmd_fit, "fit a viscosity model to lab data"},
 	{"help", cmd_help, "help on a command: opwin help COMMAND"},
 	{"map", cmd_map, "sweep, classify, window, maps and report"},
