@@ -35,6 +35,7 @@ int cmd_compare(int argc, char **argv);
 int cmd_point(int argc, char **argv);
 int cmd_map(int argc, char **argv);
 int cmd_fit(int argc, char **argv);
+int cmd_report(int argc, char **argv);
 
 /* Map a library status to the exit code. */
 int cli_exit_code(enum ow_status st);

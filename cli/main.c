@@ -14,6 +14,7 @@ static const struct cli_command commands[] = {
 	{"help", cmd_help, "help on a command: opwin help COMMAND"},
 	{"map", cmd_map, "sweep, classify, window, maps and report"},
 	{"point", cmd_point, "solve one operating point"},
+	{"report", cmd_report, "redraw maps and report from a map folder"},
 };
 
 #define N_COMMANDS (sizeof commands / sizeof commands[0])

@@ -1,0 +1,79 @@
+/* ow_report.h - the PDF report of a study's operating window, for a
+ * process engineer to sign and a quality team to attach to a work
+ * instruction (libharu; every chart drawn by lib/maps on a PDF canvas).
+ *
+ * Page 1: title block (title, screw, resin, date, revision, prepared by,
+ * approved by), the recommended window as a table (screw speed, reference
+ * zone and every zone's set-point range, throughput, melt temperature at
+ * discharge, hottest peak, centre point, the current point if given) and
+ * the window map; an empty window says so and names the limits that
+ * exclude the most points. Then the figure maps, the profiles at the
+ * centre point, the inputs with their sources, the model basis and what it
+ * leaves out, and the cautions. Every page carries "page N of M" and a
+ * footer with the title, the date and the inputs' CRC-32.
+ *
+ * Text is DejaVu Sans (embedded TTF, UTF-8); streams are compressed. */
+#ifndef OW_REPORT_H
+#define OW_REPORT_H
+
+#include <stddef.h>
+
+#include "ow_config.h"
+#include "ow_solver.h"
+#include "ow_status.h"
+#include "ow_sweep.h"
+#include "ow_units.h"
+#include "ow_window.h"
+
+enum ow_paper {
+	OW_PAPER_A4,    /* 210 x 297 mm (595.28 x 841.89 pt) */
+	OW_PAPER_LETTER /* 8.5 x 11 in (612 x 792 pt) */
+};
+
+struct ow_report_options {
+	enum ow_paper paper;
+	enum ow_unit_system units; /* what people read */
+	const char *date;          /* "YYYY-MM-DD" (required: the caller
+				      gives it, so output is reproducible) */
+	const char *revision;      /* NULL or "": a blank line to fill in */
+	const char *prepared_by;   /* NULL or "": a blank line */
+	const char *approved_by;   /* NULL or "": a blank line */
+	int has_current;           /* 1: the line's current operating point */
+	double current_rpm;        /* rev/min */
+	double current_set_K;      /* reference zone's set-point, K */
+	/* the window's centre point as solved (its figures fill the table's
+	 * centre column; NULL: taken from the lattice where it was solved
+	 * there), and its profile rows, hopper to tip (e.g. a copy of
+	 * ow_solver_profile's; NULL or 0: the profile page says none was
+	 * computed). Borrowed. */
+	const struct ow_point *centre_point;
+	const struct ow_profile_row *profile;
+	int n_profile;
+};
+
+/* Defaults: A4, SI, no date, blank revision and names, no current point,
+ * no centre point, no profile. */
+void ow_report_default(struct ow_report_options *o);
+
+/* "a4" or "letter" (any case) -> *out; OW_EARG otherwise. */
+enum ow_status ow_report_paper_parse(const char *s, enum ow_paper *out);
+
+/* A number as the report prints a window bound (screw speed, set-point):
+ * the fewest decimals (0 to 2) that show v to within 0.0005, U+2212 for a
+ * minus sign. Returns buf. Tests use it to find the bounds in the text. */
+char *ow_report_format_bound(char *buf, size_t n, double v);
+
+/* Write the report of study s, its lattice g and window w to pdf_path:
+ * built in memory, then written to a temporary file in the same folder
+ * and renamed, so a failure leaves nothing behind (and no half-written
+ * file in place of a good one). OW_EARG for a missing or malformed date
+ * or NULL arguments; OW_EIO naming the path when the file cannot be
+ * written, the font files are missing, or libharu fails (its first error
+ * code in the message); OW_ENOMEM. */
+enum ow_status ow_report_write(const struct ow_study *s,
+			       const struct ow_grid *g,
+			       const struct ow_window *w,
+			       const struct ow_report_options *o,
+			       const char *pdf_path, struct ow_diag *d);
+
+#endif

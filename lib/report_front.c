@@ -1,0 +1,439 @@
+/* report_front.c - page 1 of the report: title block, the recommended
+ * window as a table (or, for an empty window, the limits that exclude the
+ * most points), the line's current point, and the window map. */
+#include "report_impl.h"
+
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "ow_classify.h"
+
+#define MAP_ASPECT (OW_MAPS_WIDTH_PT / OW_MAPS_HEIGHT_PT)
+#define MAP_MIN_H 250.0 /* below this the map goes to the next page */
+
+void rpt_map_options(const struct rpt *r, struct ow_maps_options *mo)
+{
+	ow_maps_default(mo);
+	mo->units = r->sys;
+	mo->has_current = r->o->has_current;
+	mo->current_rpm = r->o->current_rpm;
+	mo->current_set_K = r->o->current_set_K;
+}
+
+char *rpt_zone_name(const struct rpt *r, int z, char *buf, size_t n)
+{
+	const struct ow_line *l = &r->s->line;
+	double D = r->s->screw.diameter_m;
+	double from = z ? l->zones[z - 1].to_m : 0.0;
+	char a[32], b[32];
+
+	rpt_num(a, sizeof a, from / D, 3);
+	rpt_num(b, sizeof b, l->zones[z].to_m / D, 3);
+	snprintf(buf, n, "zone %d (%s–%s D)", z + 1, a, b);
+	return buf;
+}
+
+/* ---- banner and title block ------------------------------------------ */
+
+static void banner(struct rpt *r)
+{
+	struct rpt_style kind = {7.5, 1, rpt_grey(0.40), 0.0};
+	struct rpt_style title = {14.0, 1, rpt_ink(), 0.0};
+	struct rpt_style note = {7.5, 0, rpt_grey(0.25), 0.0};
+
+	rpt_para(r, "OPERATING WINDOW REPORT  ·  SINGLE-SCREW EXTRUDER", &kind,
+		 3.0);
+	rpt_para(r, r->s->title, &title, 2.0);
+	rpt_para(r, "Estimates from published engineering models, not "
+		 "measurements. Read the cautions at the end of this report "
+		 "before setting the line.", &note, 6.0);
+}
+
+/* One labelled cell of the title block: a small label, then the value
+ * (or room to write one by hand). */
+static void field(struct rpt *r, double x, double y, double w, double h,
+		  const char *label, const char *value)
+{
+	struct ow_canvas *cv = r->cv;
+	char buf[512];
+	const char *lines[3];
+	int n, k;
+
+	ow_canvas_set_colour(cv, rpt_grey(0.45));
+	ow_canvas_set_line_width(cv, 0.6);
+	ow_canvas_rect(cv, x, y, w, h);
+	ow_canvas_stroke(cv);
+	ow_canvas_set_font(cv, 6.5, 1);
+	ow_canvas_text(cv, x + 4.0, y + 8.5, label, OW_ALIGN_LEFT,
+		       OW_VALIGN_BASELINE, 0.0);
+	if (!value || !*value)
+		return; /* left blank to fill in */
+	n = rpt_wrap(r, value, w - 8.0, 9.0, 0, buf, sizeof buf, lines, 2);
+	ow_canvas_set_colour(cv, rpt_ink());
+	ow_canvas_set_font(cv, 9.0, 0);
+	for (k = 0; k < n; k++)
+		ow_canvas_text(cv, x + 4.0, y + 19.0 + 10.5 * k, lines[k],
+			       OW_ALIGN_LEFT, OW_VALIGN_BASELINE, 0.0);
+}
+
+static void title_block(struct rpt *r)
+{
+	double x = r->x0, w = r->x1 - r->x0, y, q = w / 4.0;
+	const struct ow_report_options *o = r->o;
+
+	rpt_need(r, 64.0);
+	y = r->y;
+	field(r, x, y, w / 2.0, 34.0, "SCREW", r->s->screw.name);
+	field(r, x + w / 2.0, y, w / 2.0, 34.0, "RESIN", r->s->resin.name);
+	y += 34.0;
+	field(r, x, y, q, 30.0, "DATE", o->date);
+	field(r, x + q, y, q, 30.0, "REVISION", o->revision);
+	field(r, x + 2 * q, y, q, 30.0, "PREPARED BY", o->prepared_by);
+	field(r, x + 3 * q, y, q, 30.0, "APPROVED BY", o->approved_by);
+	r->y = y + 30.0;
+	rpt_check(r);
+}
+
+/* ---- the window table --------------------------------------------------- */
+
+/* The centre point's figures: as solved by the caller, else the lattice
+ * point's when the sweep solved it; NULL when neither. */
+static const struct ow_point *centre_point(const struct rpt *r)
+{
+	int i;
+
+	if (r->o->centre_point)
+		return r->o->centre_point;
+	for (i = 0; i < r->g->n_rpm * r->g->n_axis; i++) {
+		const struct ow_grid_point *p = &r->g->pts[i];
+
+		if (p->rpm == r->w->centre.rpm && p->axis == r->w->centre.axis)
+			return p->solved == 1 ? &p->pt : NULL;
+	}
+	return NULL;
+}
+
+static void bound_cell(const struct rpt *r, char *buf, size_t n,
+		       enum ow_dim dim, double si)
+{
+	ow_report_format_bound(buf, n, rpt_shown(r, dim, si));
+}
+
+static void row5(struct rpt *r, const struct rpt_table *t, const char *what,
+		 const char *lo, const char *hi, const char *unit,
+		 const char *centre, int shade)
+{
+	const char *cells[5] = {what, lo, hi, unit, centre};
+
+	rpt_table_row(r, t, cells, shade);
+}
+
+static void zone_rows(struct rpt *r, const struct rpt_table *t)
+{
+	const struct ow_line *l = &r->s->line;
+	int ref = ow_line_reference_zone(l), z;
+	double set_K[OW_MAX_ZONES];
+	char what[96], zn[48], lo[32], hi[32], c[32];
+
+	ow_line_apply_axis(l, r->w->centre.axis, set_K);
+	for (z = 0; z < l->n_zones; z++) {
+		snprintf(what, sizeof what, "Barrel %s set-point%s",
+			 rpt_zone_name(r, z, zn, sizeof zn),
+			 z == ref ? ", map axis" : "");
+		bound_cell(r, lo, sizeof lo, OW_DIM_TEMPERATURE,
+			   r->w->zone_min_K[z]);
+		bound_cell(r, hi, sizeof hi, OW_DIM_TEMPERATURE,
+			   r->w->zone_max_K[z]);
+		bound_cell(r, c, sizeof c, OW_DIM_TEMPERATURE, set_K[z]);
+		row5(r, t, what, lo, hi, rpt_unit(r, OW_DIM_TEMPERATURE), c,
+		     z == ref);
+	}
+}
+
+/* Expected results over the rectangle, and at its centre. */
+static void result_rows(struct rpt *r, const struct rpt_table *t)
+{
+	const struct ow_point *cp = centre_point(r);
+	const struct ow_window *w = r->w;
+	const char *T = rpt_unit(r, OW_DIM_TEMPERATURE);
+	char lo[32], hi[32], c[32];
+
+	rpt_fix(lo, sizeof lo, rpt_shown(r, OW_DIM_MASS_FLOW,
+					 w->output_min_kg_s), 1);
+	rpt_fix(hi, sizeof hi, rpt_shown(r, OW_DIM_MASS_FLOW,
+					 w->output_max_kg_s), 1);
+	rpt_fix(c, sizeof c, cp ? rpt_shown(r, OW_DIM_MASS_FLOW,
+					    cp->output_kg_s) : NAN, 1);
+	row5(r, t, "Throughput (expected)", lo, hi,
+	     rpt_unit(r, OW_DIM_MASS_FLOW), c, 0);
+	rpt_fix(lo, sizeof lo, rpt_shown(r, OW_DIM_TEMPERATURE,
+					 w->melt_min_K), 0);
+	rpt_fix(hi, sizeof hi, rpt_shown(r, OW_DIM_TEMPERATURE,
+					 w->melt_max_K), 0);
+	rpt_fix(c, sizeof c, cp ? rpt_shown(r, OW_DIM_TEMPERATURE,
+					    cp->discharge_bulk_K) : NAN, 0);
+	row5(r, t, "Melt temperature at discharge (bulk, expected)", lo, hi,
+	     T, c, 0);
+	rpt_fix(hi, sizeof hi, rpt_shown(r, OW_DIM_TEMPERATURE,
+					 w->peak_max_K), 0);
+	rpt_fix(c, sizeof c, cp ? rpt_shown(r, OW_DIM_TEMPERATURE,
+					    cp->peak_K) : NAN, 0);
+	row5(r, t, "Hottest melt anywhere (peak, expected)", "", hi, T, c, 0);
+}
+
+char *rpt_limit_text(struct rpt *r, enum ow_check c, char *buf, size_t n)
+{
+	static const enum ow_dim dims[OW_CK_LIMITS] = {
+		OW_DIM_TEMPERATURE, OW_DIM_NONE, OW_DIM_PRESSURE,
+		OW_DIM_POWER, OW_DIM_TORQUE, OW_DIM_TEMPERATURE,
+		OW_DIM_MASS_FLOW, OW_DIM_MASS_FLOW, OW_DIM_NONE};
+	int at_least = c == OW_CK_MIN_MELT_TEMP || c == OW_CK_MIN_OUTPUT;
+	double v = ow_check_limit(&r->s->line.limits, c);
+	char q[64];
+
+	if ((int)c >= OW_CK_LIMITS || !isfinite(v)) {
+		snprintf(buf, n, "%s (always unsafe)", ow_check_text(c));
+		return buf;
+	}
+	if (c == OW_CK_UNMELT) {
+		rpt_num(q, sizeof q, v * 100.0, 3);
+		strcat(q, " %");
+	} else {
+		rpt_qty(r, q, sizeof q, dims[c], v, 4);
+	}
+	snprintf(buf, n, "%s %s %s", ow_check_text(c), at_least ? "≥" : "≤",
+		 q);
+	return buf;
+}
+
+/* The limits that are set, as one sentence. */
+static void limits_sentence(struct rpt *r)
+{
+	struct rpt_style st = rpt_body();
+	char buf[1024], one[160];
+	int c, n = 0;
+
+	snprintf(buf, sizeof buf, "Limits applied: ");
+	for (c = 0; c < OW_CK_LIMITS; c++) {
+		if (!ow_check_active(&r->s->line.limits, (enum ow_check)c))
+			continue;
+		rpt_limit_text(r, (enum ow_check)c, one, sizeof one);
+		strncat(buf, n++ ? "; " : "", sizeof buf - strlen(buf) - 1);
+		strncat(buf, one, sizeof buf - strlen(buf) - 1);
+	}
+	strncat(buf, n ? ". Solid bed plugging, a starved feed and a point "
+			 "that did not converge are always unsafe."
+		       : "none set; only plugging, a starved feed and "
+			 "non-convergence count as unsafe.",
+		sizeof buf - strlen(buf) - 1);
+	st.size_pt = 7.5;
+	rpt_para(r, buf, &st, 2.0);
+}
+
+static const char *axis_words(const struct rpt *r, char *buf, size_t n)
+{
+	const struct ow_axes *a = &r->s->line.axes;
+	char zn[48];
+
+	if (a->mode == OW_AXIS_SHIFT)
+		snprintf(buf, n, "The map's set-point axis moves every heated "
+			 "zone by the same amount; the table gives each "
+			 "zone's resulting range.");
+	else if (a->mode == OW_AXIS_SET)
+		snprintf(buf, n, "The map's set-point axis sets zones %d to %d "
+			 "to one common value; the other zones keep their "
+			 "set-points.", a->zones_from + 1,
+			 r->s->line.n_zones);
+	else
+		snprintf(buf, n, "The map's set-point axis varies %s only; the "
+			 "other zones keep their set-points.",
+			 rpt_zone_name(r, a->zone, zn, sizeof zn));
+	return buf;
+}
+
+static void window_table(struct rpt *r)
+{
+	struct rpt_table t = {5, {"Setting or expected result", "Minimum",
+				  "Maximum", "Unit", "Centre point"},
+			      {0.52, 0.12, 0.12, 0.08, 0.16},
+			      {OW_ALIGN_LEFT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT,
+			       OW_ALIGN_LEFT, OW_ALIGN_RIGHT},
+			      8.5, 0};
+	struct rpt_style st = rpt_body();
+	char lo[32], hi[32], c[32], text[600], ax[300];
+
+	rpt_heading(r, "Recommended operating window", 120.0);
+	r->y -= 4.0;
+	t.first_bold = 1;
+	rpt_table_head(r, &t);
+	bound_cell(r, lo, sizeof lo, OW_DIM_ROT_SPEED, r->w->rpm_min);
+	bound_cell(r, hi, sizeof hi, OW_DIM_ROT_SPEED, r->w->rpm_max);
+	bound_cell(r, c, sizeof c, OW_DIM_ROT_SPEED, r->w->centre.rpm);
+	row5(r, &t, "Screw speed", lo, hi, "rpm", c, 1);
+	zone_rows(r, &t);
+	t.first_bold = 0;
+	result_rows(r, &t);
+	rpt_table_end(r);
+	snprintf(text, sizeof text, "Every mapped point inside this window "
+		 "passes every limit (%.0f %% of the swept points do). Start "
+		 "at the centre point: of all points in the window it lies "
+		 "farthest from any point that fails. %s",
+		 100.0 * r->w->safe_fraction,
+		 axis_words(r, ax, sizeof ax));
+	st.size_pt = 7.5;
+	rpt_para(r, text, &st, 2.0);
+	limits_sentence(r);
+}
+
+/* ---- an empty window ---------------------------------------------------- */
+
+static void no_window(struct rpt *r)
+{
+	struct rpt_table t = {4, {"Limit", "Points failing", "Share", ""},
+			      {0.58, 0.16, 0.12, 0.14},
+			      {OW_ALIGN_LEFT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT,
+			       OW_ALIGN_LEFT}, 9.0, 0};
+	struct rpt_style big = {12.0, 1, ow_rgb(0.55, 0.05, 0.05), 0.0};
+	struct rpt_style st = rpt_body();
+	enum ow_check order[OW_CK_COUNT];
+	int n = ow_window_binding(r->w, order), total, k;
+	char text[400], lim[200], cnt[32], pct[32];
+
+	total = r->g->n_rpm * r->g->n_axis;
+	rpt_heading(r, "Recommended operating window", 120.0);
+	rpt_para(r, "No safe operating point exists in the swept range.",
+		 &big, 4.0);
+	snprintf(text, sizeof text, "None of the %d mapped points passes every "
+		 "limit, so this report recommends no settings. The limits "
+		 "that exclude the most points:", total);
+	rpt_para(r, text, &st, 4.0);
+	rpt_table_head(r, &t);
+	for (k = 0; k < n; k++) {
+		const char *cells[4] = {lim, cnt, pct, ""};
+
+		rpt_limit_text(r, order[k], lim, sizeof lim);
+		snprintf(cnt, sizeof cnt, "%d", r->w->fail_count[order[k]]);
+		snprintf(pct, sizeof pct, "%.0f %%",
+			 100.0 * r->w->fail_count[order[k]] / total);
+		rpt_table_row(r, &t, cells, k == 0);
+	}
+	rpt_table_end(r);
+	st.size_pt = RPT_SMALL_PT;
+	rpt_para(r, "A point can fail several limits at once, so the shares "
+		 "add up to more than 100 %. To find a window: sweep other "
+		 "speeds or set-points, or change the die, the screw or the "
+		 "resin. Raise a limit only where the machine builder's "
+		 "ratings allow it.", &st, 4.0);
+}
+
+/* ---- the current operating point ---------------------------------------- */
+
+/* The lattice point nearest (rpm, set) in units of the sweep ranges. */
+static const struct ow_grid_point *nearest(const struct rpt *r, double rpm,
+					   double set_K)
+{
+	const struct ow_grid *g = r->g;
+	const struct ow_grid_point *a = &g->pts[0];
+	const struct ow_grid_point *b = &g->pts[g->n_rpm * g->n_axis - 1];
+	double sr = fabs(b->rpm - a->rpm), ss = fabs(b->set_ref_K -
+						      a->set_ref_K);
+	double best = INFINITY;
+	const struct ow_grid_point *near = NULL;
+	int i;
+
+	for (i = 0; i < g->n_rpm * g->n_axis; i++) {
+		const struct ow_grid_point *p = &g->pts[i];
+		double dx = (p->rpm - rpm) / (sr > 0 ? sr : 1.0);
+		double dy = (p->set_ref_K - set_K) / (ss > 0 ? ss : 1.0);
+
+		if (dx * dx + dy * dy < best) {
+			best = dx * dx + dy * dy;
+			near = p;
+		}
+	}
+	return near;
+}
+
+static void verdict_words(const struct ow_grid_point *p, char *buf,
+			  size_t n)
+{
+	int c, k = 0;
+
+	if (!p->v.bits) {
+		snprintf(buf, n, "the nearest mapped point passes every limit");
+		return;
+	}
+	snprintf(buf, n, "the nearest mapped point fails: ");
+	for (c = 0; c < OW_CK_COUNT; c++)
+		if (p->v.bits >> c & 1u) {
+			strncat(buf, k++ ? ", " : "", n - strlen(buf) - 1);
+			strncat(buf, ow_check_text((enum ow_check)c),
+				n - strlen(buf) - 1);
+		}
+}
+
+static void current_point(struct rpt *r)
+{
+	const struct ow_report_options *o = r->o;
+	const struct ow_window *w = r->w;
+	struct rpt_style st = rpt_body();
+	char rpm[32], set[48], verdict[300], text[600];
+	int inside;
+
+	if (!o->has_current || r->st != OW_OK)
+		return;
+	inside = !w->empty && o->current_rpm >= w->rpm_min - 1e-9 &&
+		 o->current_rpm <= w->rpm_max + 1e-9 &&
+		 o->current_set_K >= w->set_min_K - 1e-9 &&
+		 o->current_set_K <= w->set_max_K + 1e-9;
+	verdict_words(nearest(r, o->current_rpm, o->current_set_K), verdict,
+		      sizeof verdict);
+	ow_report_format_bound(rpm, sizeof rpm, o->current_rpm);
+	rpt_qty(r, set, sizeof set, OW_DIM_TEMPERATURE, o->current_set_K, 4);
+	snprintf(text, sizeof text, "Current operating point: %s rpm with the "
+		 "map-axis zone at %s — %s the recommended window; %s.", rpm,
+		 set, inside ? "inside" : "outside", verdict);
+	st.bold = 1;
+	rpt_para(r, text, &st, 4.0);
+}
+
+/* ---- the window map ----------------------------------------------------- */
+
+static void window_map(struct rpt *r)
+{
+	struct ow_maps_options mo;
+	struct ow_rect box;
+	double w = r->x1 - r->x0, h = w / MAP_ASPECT;
+
+	if (r->st != OW_OK)
+		return;
+	if (r->y1 - r->y - 4.0 < fmin(MAP_MIN_H, h))
+		rpt_new_page(r);
+	h = fmin(h, r->y1 - r->y - 4.0);
+	box.x = r->x0;
+	box.y = r->y + 4.0;
+	box.w = fmin(w, h * MAP_ASPECT * 1.08);
+	box.x += (w - box.w) / 2.0;
+	box.h = h;
+	rpt_map_options(r, &mo);
+	if (r->st == OW_OK)
+		r->st = ow_maps_draw_window(r->cv, &box, r->s, r->g, r->w, &mo,
+					    r->d);
+	r->y = box.y + box.h + 6.0;
+	rpt_check(r);
+}
+
+void rpt_front_page(struct rpt *r)
+{
+	rpt_new_page(r);
+	banner(r);
+	title_block(r);
+	if (r->w->empty)
+		no_window(r);
+	else
+		window_table(r);
+	current_point(r);
+	window_map(r);
+	rpt_check(r);
+}

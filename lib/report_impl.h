@@ -1,0 +1,151 @@
+/* report_impl.h - internals of the PDF report (not public): the state of
+ * one document being laid out, a flowing text cursor with page breaks,
+ * wrapped paragraphs, headings, tables, and number formatting in the
+ * reader's units. Every page is one full-page ow_canvas, so text, tables
+ * and charts go through the same drawing layer.
+ *
+ * Every helper returns at once when r->st already holds a failure: a
+ * section can be written straight through and checked once. */
+#ifndef OW_REPORT_IMPL_H
+#define OW_REPORT_IMPL_H
+
+#include <hpdf.h>
+
+#include "ow_canvas.h"
+#include "ow_classify.h"
+#include "ow_maps.h"
+#include "ow_plot.h"
+#include "ow_report.h"
+
+#define RPT_MAX_PAGES 64
+#define RPT_BODY_PT 9.0   /* body text */
+#define RPT_SMALL_PT 8.0  /* tables, captions */
+#define RPT_LINE 1.32     /* line height per point of font size */
+
+struct rpt {
+	const struct ow_study *s;
+	const struct ow_grid *g;
+	const struct ow_window *w;
+	const struct ow_report_options *o;
+	enum ow_unit_system sys;
+	HPDF_Doc pdf;
+	struct ow_canvas_fonts fonts;
+	HPDF_Page pages[RPT_MAX_PAGES];
+	int n_pages;
+	struct ow_canvas *cv; /* the current page's canvas */
+	double pw, ph;        /* page size, pt */
+	double x0, x1;        /* text column: left and right edges */
+	double y0, y1;        /* top of the text area, bottom of it */
+	double y;             /* cursor: top of the next block */
+	enum ow_status st;    /* first failure */
+	struct ow_diag *d;
+	HPDF_STATUS hpdf_error, hpdf_detail; /* first libharu error */
+};
+
+/* Grey levels and the accent used by the text pages. */
+struct ow_rgba rpt_ink(void);
+struct ow_rgba rpt_grey(double level);
+
+/* ---- pages and the cursor (report.c) ---- */
+
+/* Start a new page (closing the previous page's canvas). */
+void rpt_new_page(struct rpt *r);
+/* Make room for h points below the cursor: a new page when they do not
+ * fit. Returns 1 when a page was started. */
+int rpt_need(struct rpt *r, double h);
+/* Record a failure (the first one is kept) and return it. */
+enum ow_status rpt_fail(struct rpt *r, enum ow_status st, const char *what);
+/* Check the canvas and libharu after drawing a block. */
+void rpt_check(struct rpt *r);
+
+/* ---- text (report_text.c) ---- */
+
+struct rpt_style {
+	double size_pt;
+	int bold;
+	struct ow_rgba colour;
+	double indent_pt; /* from the left edge of the column */
+};
+
+struct rpt_style rpt_body(void);
+
+/* Width of utf8 at size and weight. */
+double rpt_text_width(struct rpt *r, const char *utf8, double size_pt,
+		      int bold);
+
+/* Break utf8 into lines no wider than width: the lines go one after the
+ * other into buf (each NUL-terminated), their starts into lines[];
+ * returns the count (at most max). Breaks at spaces; a word wider than a
+ * line is broken between characters. */
+int rpt_wrap(struct rpt *r, const char *utf8, double width, double size_pt,
+	     int bold, char *buf, size_t n, const char **lines, int max);
+
+/* A wrapped paragraph at the cursor, breaking pages between lines; space
+ * after it: after_pt. */
+void rpt_para(struct rpt *r, const char *utf8, const struct rpt_style *st,
+	      double after_pt);
+/* A bulleted paragraph. */
+void rpt_bullet(struct rpt *r, const char *utf8, const struct rpt_style *st);
+/* A section heading (kept with the next min_follow_pt of content). */
+void rpt_heading(struct rpt *r, const char *utf8, double min_follow_pt);
+/* A smaller heading inside a section. */
+void rpt_subheading(struct rpt *r, const char *utf8, double min_follow_pt);
+
+/* ---- tables (report_text.c) ---- */
+
+#define RPT_MAX_COLS 8
+
+struct rpt_table {
+	int n;
+	const char *head[RPT_MAX_COLS];
+	double frac[RPT_MAX_COLS]; /* share of the column width */
+	enum ow_halign align[RPT_MAX_COLS];
+	double size_pt;
+	int first_bold; /* first column in bold */
+};
+
+/* Header row (repeated after a page break by rpt_table_row). */
+void rpt_table_head(struct rpt *r, const struct rpt_table *t);
+/* One row: t->n cells (NULL: empty); cells wrap inside their column.
+ * shade: a light background (0 none). */
+void rpt_table_row(struct rpt *r, const struct rpt_table *t,
+		   const char *const *cells, int shade);
+/* Space after a table. */
+void rpt_table_end(struct rpt *r);
+
+/* ---- numbers in the reader's units (report_text.c) ---- */
+
+/* v with sig significant digits, trailing zeros dropped, U+2212 minus. */
+char *rpt_num(char *buf, size_t n, double v, int sig);
+/* v with a fixed number of decimals, U+2212 minus. */
+char *rpt_fix(char *buf, size_t n, double v, int decimals);
+/* SI value of dim in the report's units: "63.5 mm" (sig digits), "" for
+ * NAN. */
+char *rpt_qty(struct rpt *r, char *buf, size_t n, enum ow_dim dim,
+	      double si, int sig);
+/* SI value of dim in the report's units as a number only. */
+double rpt_shown(const struct rpt *r, enum ow_dim dim, double si);
+const char *rpt_unit(const struct rpt *r, enum ow_dim dim);
+
+/* The source text of input key ("resin.melt_density"), or NULL; marks it
+ * shown (shown[] has OW_MAX_SOURCES flags). */
+const char *rpt_source(const struct rpt *r, const char *key,
+		       unsigned char *shown);
+
+/* ---- the sections ---- */
+
+void rpt_front_page(struct rpt *r);                   /* report_front.c */
+void rpt_map_pages(struct rpt *r);                    /* report_pages.c */
+void rpt_profile_page(struct rpt *r);                 /* report_pages.c */
+void rpt_inputs(struct rpt *r);                       /* report_inputs.c */
+void rpt_basis(struct rpt *r);                        /* report_basis.c */
+
+/* The window-map options for the report's units and current point. */
+void rpt_map_options(const struct rpt *r, struct ow_maps_options *mo);
+/* "peak melt temperature ≤ 240 °C" for check c (a flag: "... (always
+ * unsafe)"). */
+char *rpt_limit_text(struct rpt *r, enum ow_check c, char *buf, size_t n);
+/* "zone 5" style name of the reference zone ("zone 5 (24–30 D)"). */
+char *rpt_zone_name(const struct rpt *r, int z, char *buf, size_t n);
+
+#endif
