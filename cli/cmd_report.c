@@ -58,8 +58,8 @@ static int valid_date(const char *s)
 
 /* A number in the display system, or a text with its unit. */
 static enum ow_status read_value(const struct ow_units *u, const char *text,
-				 enum ow_dim dim, enum ow_unit_system sys,
-				 double *si, struct ow_diag *d)
+                                 enum ow_dim dim, enum ow_unit_system sys,
+                                 double *si, struct ow_diag *d)
 {
 	double x;
 
@@ -83,31 +83,30 @@ static int parse_current(const struct ow_units *u, struct report_opts *o)
 	comma = strchr(buf, ',');
 	if (!comma)
 		return cli_usage_error("report", "--current takes RPM,SET "
-					"(e.g. 60,205)");
+		                                 "(e.g. 60,205)");
 	*comma = '\0';
-	st = read_value(u, buf, OW_DIM_ROT_SPEED, o->c.units,
-			&o->r.current_rpm, &d);
+	st = read_value(u, buf, OW_DIM_ROT_SPEED, o->c.units, &o->r.current_rpm,
+	                &d);
 	if (st == OW_OK)
 		st = read_value(u, comma + 1, OW_DIM_TEMPERATURE, o->c.units,
-				&o->r.current_set_K, &d);
+		                &o->r.current_set_K, &d);
 	if (st != OW_OK)
 		return cli_usage_error("report", d.msg);
 	o->r.has_current = 1;
 	return CLI_OK;
 }
 
-static int parse(int argc, char **argv, struct report_opts *o,
-		 const char **dir)
+static int parse(int argc, char **argv, struct report_opts *o, const char **dir)
 {
 	static const struct option opts[] = {
-		CLI_COMMON_LONGOPTS,
-		{"paper", required_argument, NULL, 'p'},
-		{"revision", required_argument, NULL, 'R'},
-		{"prepared-by", required_argument, NULL, 'P'},
-		{"approved-by", required_argument, NULL, 'A'},
-		{"date", required_argument, NULL, 'D'},
-		{"current", required_argument, NULL, 'C'},
-		{NULL, 0, NULL, 0},
+	    CLI_COMMON_LONGOPTS,
+	    {"paper", required_argument, NULL, 'p'},
+	    {"revision", required_argument, NULL, 'R'},
+	    {"prepared-by", required_argument, NULL, 'P'},
+	    {"approved-by", required_argument, NULL, 'A'},
+	    {"date", required_argument, NULL, 'D'},
+	    {"current", required_argument, NULL, 'C'},
+	    {NULL, 0, NULL, 0},
 	};
 	int id, rc;
 
@@ -119,21 +118,22 @@ static int parse(int argc, char **argv, struct report_opts *o,
 		}
 		if (id == 'p') {
 			if (ow_report_paper_parse(optarg, &o->r.paper))
-				return cli_usage_error("report", "--paper takes "
-							"a4 or letter");
+				return cli_usage_error("report",
+				                       "--paper takes "
+				                       "a4 or letter");
 		} else if (id == 'R' || id == 'P' || id == 'A') {
 			*(id == 'R'   ? &o->r.revision
 			  : id == 'P' ? &o->r.prepared_by
-				      : &o->r.approved_by) = optarg;
+			              : &o->r.approved_by) = optarg;
 		} else if (id == 'D') {
 			if (!valid_date(optarg))
 				return cli_usage_error("report", "--date takes "
-							"YYYY-MM-DD");
+				                                 "YYYY-MM-DD");
 			o->r.date = optarg;
 		} else if (id == 'C') {
 			o->current = optarg;
 		} else if ((rc = cli_common_option("report", &o->c, id,
-						     optarg)) != 0) {
+		                                   optarg)) != 0) {
 			return rc;
 		}
 	}
@@ -145,7 +145,7 @@ static int parse(int argc, char **argv, struct report_opts *o,
 
 /* Maps and report into dir. */
 static int render(const struct ow_study *s, const struct ow_grid *g,
-		  const struct report_opts *o, const char *dir)
+                  const struct report_opts *o, const char *dir)
 {
 	struct ow_maps_options mo;
 	struct ow_window *w = NULL;

@@ -14,10 +14,10 @@
 #include "ow_classify.h"
 #include "ow_results.h"
 
-#define FORMAT "opwin map folder"
+#define FORMAT         "opwin map folder"
 #define FORMAT_VERSION 1
-#define MAX_STRIDE 16 /* 2^4: the sweep's deepest refinement */
-#define BIT_DIGITS ((OW_CK_COUNT + 3) / 4) /* hex digits of a status */
+#define MAX_STRIDE     16 /* 2^4: the sweep's deepest refinement */
+#define BIT_DIGITS     ((OW_CK_COUNT + 3) / 4) /* hex digits of a status */
 
 /* CRC-32 continued over n bytes (IEEE 802.3 polynomial, reflected; ISO
  * 3309), the same sum the study loader keeps in input_crc. */
@@ -70,10 +70,10 @@ static int exact_tree(cJSON *node)
 			continue;
 		}
 		raw = exact_num(c->valuedouble);
-		if (!raw || !(c->string ? cJSON_ReplaceItemInObjectCaseSensitive(
-						  node, c->string, raw)
-					: cJSON_ReplaceItemViaPointer(node, c,
-								      raw))) {
+		if (!raw ||
+		    !(c->string ? cJSON_ReplaceItemInObjectCaseSensitive(
+		                      node, c->string, raw)
+		                : cJSON_ReplaceItemViaPointer(node, c, raw))) {
 			cJSON_Delete(raw);
 			return 0;
 		}
@@ -86,29 +86,32 @@ static int exact_tree(cJSON *node)
 /* Parse the file at path (continuing *crc over its bytes, skipping a
  * UTF-8 byte order mark as the loader does). */
 static enum ow_status read_json(const char *path, unsigned long *crc,
-				cJSON **out, struct ow_diag *d)
+                                cJSON **out, struct ow_diag *d)
 {
 	char *buf = NULL;
 	size_t len = 0, bom;
 	int err = md_slurp(path, &buf, &len);
 
 	if (err)
-		return ow_diag_set(d, OW_EINPUT, "%s: cannot read it again to "
-				   "copy it into the map folder: %s", path,
-				   strerror(err));
+		return ow_diag_set(d, OW_EINPUT,
+		                   "%s: cannot read it again to "
+		                   "copy it into the map folder: %s",
+		                   path, strerror(err));
 	*crc = crc32_more(*crc, buf, len);
 	bom = len >= 3 && !memcmp(buf, "\xEF\xBB\xBF", 3) ? 3 : 0;
 	*out = cJSON_ParseWithLength(buf + bom, len - bom);
 	free(buf);
 	if (!*out)
-		return ow_diag_set(d, OW_EINPUT, "%s: no longer a JSON text "
-				   "(changed since it was loaded)", path);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "%s: no longer a JSON text "
+		                   "(changed since it was loaded)",
+		                   path);
 	return OW_OK;
 }
 
 /* Replace the file name under key by the parsed file (when it was one). */
 static enum ow_status embed(cJSON *study, const char *key, const char *file,
-			    unsigned long *crc, struct ow_diag *d)
+                            unsigned long *crc, struct ow_diag *d)
 {
 	cJSON *part = NULL;
 	enum ow_status st;
@@ -128,7 +131,7 @@ static enum ow_status embed(cJSON *study, const char *key, const char *file,
 /* The text of DIR/study.json, in the reading order of the loader (study,
  * screw, resin) so the CRC-32 must equal the one taken at loading. */
 static enum ow_status study_text(const struct ow_study *s, char **out,
-				 struct ow_diag *d)
+                                 struct ow_diag *d)
 {
 	unsigned long crc = 0;
 	cJSON *doc = NULL;
@@ -140,10 +143,11 @@ static enum ow_status study_text(const struct ow_study *s, char **out,
 	if (st == OW_OK)
 		st = embed(doc, "resin", s->resin_path, &crc, d);
 	if (st == OW_OK && crc != s->input_crc)
-		st = ow_diag_set(d, OW_EINPUT, "%s: the input files changed "
-				 "since they were loaded (CRC-32 %08lX, was "
-				 "%08lX): run again", s->path, crc,
-				 s->input_crc);
+		st = ow_diag_set(d, OW_EINPUT,
+		                 "%s: the input files changed "
+		                 "since they were loaded (CRC-32 %08lX, was "
+		                 "%08lX): run again",
+		                 s->path, crc, s->input_crc);
 	if (st == OW_OK && (!exact_tree(doc) || !(*out = cJSON_Print(doc))))
 		st = ow_diag_set(d, OW_ENOMEM, "out of memory");
 	cJSON_Delete(doc);
@@ -162,7 +166,7 @@ static char *status_row(const struct ow_grid *g, int ia)
 		return NULL;
 	for (ir = 0; ir < g->n_rpm; ir++)
 		snprintf(row + ir * BIT_DIGITS, BIT_DIGITS + 1, "%0*X",
-			 BIT_DIGITS, ow_grid_at(g, ir, ia)->v.bits);
+		         BIT_DIGITS, ow_grid_at(g, ir, ia)->v.bits);
 	return row;
 }
 
@@ -258,26 +262,27 @@ static int add_inputs(cJSON *o, const struct ow_study *s, int has_profile)
 	       cJSON_AddStringToObject(in, "screw", s->screw_path) &&
 	       cJSON_AddStringToObject(in, "resin", s->resin_path) &&
 	       cJSON_AddStringToObject(in, "crc32", crc) &&
-	       cJSON_AddItemToObject(o, "checks", cJSON_CreateStringArray(
-						       keys, OW_CK_COUNT)) &&
+	       cJSON_AddItemToObject(
+	           o, "checks", cJSON_CreateStringArray(keys, OW_CK_COUNT)) &&
 	       cJSON_AddBoolToObject(o, "profile", has_profile);
 }
 
 static enum ow_status lattice_text(const struct ow_study *s,
-				   const struct ow_grid *g,
-				   const struct ow_point *centre, int has_profile,
-				   char **out, struct ow_diag *d)
+                                   const struct ow_grid *g,
+                                   const struct ow_point *centre,
+                                   int has_profile, char **out,
+                                   struct ow_diag *d)
 {
 	cJSON *o = cJSON_CreateObject();
 	int ok = o && cJSON_AddStringToObject(o, "format", FORMAT) &&
-		 cJSON_AddNumberToObject(o, "version", FORMAT_VERSION) &&
-		 add_inputs(o, s, has_profile) &&
-		 add_centre(o, centre, s->line.n_zones) &&
-		 cJSON_AddNumberToObject(o, "n_rpm", g->n_rpm) &&
-		 cJSON_AddNumberToObject(o, "n_axis", g->n_axis) &&
-		 cJSON_AddNumberToObject(o, "stride", g->stride) &&
-		 cJSON_AddNumberToObject(o, "solves", g->solves) &&
-		 add_axes(o, g) && add_status(o, g);
+	         cJSON_AddNumberToObject(o, "version", FORMAT_VERSION) &&
+	         add_inputs(o, s, has_profile) &&
+	         add_centre(o, centre, s->line.n_zones) &&
+	         cJSON_AddNumberToObject(o, "n_rpm", g->n_rpm) &&
+	         cJSON_AddNumberToObject(o, "n_axis", g->n_axis) &&
+	         cJSON_AddNumberToObject(o, "stride", g->stride) &&
+	         cJSON_AddNumberToObject(o, "solves", g->solves) &&
+	         add_axes(o, g) && add_status(o, g);
 
 	*out = ok ? cJSON_Print(o) : NULL;
 	cJSON_Delete(o);
@@ -287,7 +292,7 @@ static enum ow_status lattice_text(const struct ow_study *s,
 /* ---- save ------------------------------------------------------------- */
 
 static enum ow_status put(const char *dir, const char *name, char *text,
-			  struct ow_diag *d)
+                          struct ow_diag *d)
 {
 	char path[OW_PATH_LEN + 32];
 	enum ow_status st = OW_OK;
@@ -300,11 +305,10 @@ static enum ow_status put(const char *dir, const char *name, char *text,
 	return st;
 }
 
-enum ow_status ow_mapdir_save(const struct ow_study *s,
-			      const struct ow_grid *g,
-			      const struct ow_point *centre,
-			      const struct ow_profile_row *rows, int n_rows,
-			      const char *dir, struct ow_diag *d)
+enum ow_status ow_mapdir_save(const struct ow_study *s, const struct ow_grid *g,
+                              const struct ow_point *centre,
+                              const struct ow_profile_row *rows, int n_rows,
+                              const char *dir, struct ow_diag *d)
 {
 	char *study = NULL, *lat = NULL, *pts = NULL, *prof = NULL;
 	int has_profile = rows && n_rows > 0;
@@ -344,13 +348,13 @@ struct lattice_doc {
 };
 
 static enum ow_status key_bad(const struct lattice_doc *L, const char *key,
-			      const char *what)
+                              const char *what)
 {
 	return ow_diag_set(L->d, OW_EINPUT, "%s: %s: %s", L->file, key, what);
 }
 
 static enum ow_status get_int(const struct lattice_doc *L, const char *key,
-			      int lo, int hi, int *out)
+                              int lo, int hi, int *out)
 {
 	const cJSON *v = cJSON_GetObjectItemCaseSensitive(L->o, key);
 
@@ -383,12 +387,13 @@ static enum ow_status check_format(const struct lattice_doc *L)
 	}
 	return OW_OK;
 checks:
-	return key_bad(L, "checks", "the status bits were saved in another "
-		       "order (another version of opwin): run the map again");
+	return key_bad(L, "checks",
+	               "the status bits were saved in another "
+	               "order (another version of opwin): run the map again");
 }
 
 static enum ow_status make_lattice(const struct lattice_doc *L,
-				   struct ow_grid **out)
+                                   struct ow_grid **out)
 {
 	struct ow_grid *g = calloc(1, sizeof *g);
 	enum ow_status st;
@@ -403,8 +408,8 @@ static enum ow_status make_lattice(const struct lattice_doc *L,
 		st = get_int(L, "n_axis", 2, 999 * MAX_STRIDE + 1, &g->n_axis);
 	if (st == OW_OK)
 		st = get_int(L, "solves", 0, g->n_rpm * g->n_axis, &g->solves);
-	if (st == OW_OK && ((g->n_rpm - 1) % g->stride ||
-			    (g->n_axis - 1) % g->stride))
+	if (st == OW_OK &&
+	    ((g->n_rpm - 1) % g->stride || (g->n_axis - 1) % g->stride))
 		st = key_bad(L, "stride", "does not divide the lattice");
 	if (st != OW_OK)
 		return st;
@@ -415,7 +420,7 @@ static enum ow_status make_lattice(const struct lattice_doc *L,
 /* rpm of every column, axis value of every row; set-points from the
  * study as the sweep computes them. */
 static enum ow_status lattice_axes(const struct lattice_doc *L,
-				   const struct ow_study *s, struct ow_grid *g)
+                                   const struct ow_study *s, struct ow_grid *g)
 {
 	const cJSON *r = cJSON_GetObjectItemCaseSensitive(L->o, "rpm");
 	const cJSON *a = cJSON_GetObjectItemCaseSensitive(L->o, "axis");
@@ -460,7 +465,7 @@ static int hex_bits(const char *s, unsigned *bits)
 
 /* Status bits of every lattice point. */
 static enum ow_status lattice_status(const struct lattice_doc *L,
-				     struct ow_grid *g)
+                                     struct ow_grid *g)
 {
 	const cJSON *rows = cJSON_GetObjectItemCaseSensitive(L->o, "status");
 	size_t len = (size_t)g->n_rpm * BIT_DIGITS;
@@ -472,10 +477,11 @@ static enum ow_status lattice_status(const struct lattice_doc *L,
 		const cJSON *row = cJSON_GetArrayItem(rows, ia);
 
 		if (!cJSON_IsString(row) || strlen(row->valuestring) != len)
-			return key_bad(L, "status", "a row of the wrong length");
+			return key_bad(L, "status",
+			               "a row of the wrong length");
 		for (ir = 0; ir < g->n_rpm; ir++)
 			if (!hex_bits(row->valuestring + ir * BIT_DIGITS,
-				      &ow_grid_at(g, ir, ia)->v.bits))
+			              &ow_grid_at(g, ir, ia)->v.bits))
 				return key_bad(L, "status", "not hex digits");
 	}
 	return OW_OK;
@@ -495,7 +501,7 @@ static void fill_unsolved(struct ow_grid *g)
 
 			for (s = 2; p->solved != 1 && s <= g->stride; s *= 2) {
 				const struct ow_grid_point *c =
-					ow_grid_at(g, ir - ir % s, ia - ia % s);
+				    ow_grid_at(g, ir - ir % s, ia - ia % s);
 
 				if (c->solved == 1) {
 					p->v = c->v;
@@ -508,7 +514,7 @@ static void fill_unsolved(struct ow_grid *g)
 
 /* The original input names and CRC-32, so the report traces to them. */
 static enum ow_status restore_inputs(const struct lattice_doc *L,
-				     struct ow_study *s)
+                                     struct ow_study *s)
 {
 	const cJSON *in = cJSON_GetObjectItemCaseSensitive(L->o, "inputs");
 	const char *keys[3] = {"study", "screw", "resin"};
@@ -524,8 +530,7 @@ static enum ow_status restore_inputs(const struct lattice_doc *L,
 		return key_bad(L, "inputs.crc32", "expected 8 hex digits");
 	for (k = 0; k < 3; k++) {
 		v = cJSON_GetObjectItemCaseSensitive(in, keys[k]);
-		if (!cJSON_IsString(v) ||
-		    strlen(v->valuestring) >= OW_PATH_LEN)
+		if (!cJSON_IsString(v) || strlen(v->valuestring) >= OW_PATH_LEN)
 			return key_bad(L, "inputs", "expected file names");
 		memcpy(dst[k], v->valuestring, strlen(v->valuestring) + 1);
 	}
@@ -534,8 +539,8 @@ static enum ow_status restore_inputs(const struct lattice_doc *L,
 
 /* Read DIR/name whole; a missing file is reported with `missing`. */
 static enum ow_status read_in(const char *dir, const char *name, char *path,
-			      char **text, const char *missing,
-			      struct ow_diag *d)
+                              char **text, const char *missing,
+                              struct ow_diag *d)
 {
 	size_t len = 0;
 	enum ow_status st = md_path(path, OW_PATH_LEN + 32, dir, name, d);
@@ -546,17 +551,18 @@ static enum ow_status read_in(const char *dir, const char *name, char *path,
 		return st;
 	err = md_slurp(path, text, &len);
 	if (err == ENOENT && missing)
-		return ow_diag_set(d, OW_EINPUT, "%s is not a map folder: %s "
-				   "(`opwin map STUDY.json -o DIR` makes one)",
-				   dir, missing);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "%s is not a map folder: %s "
+		                   "(`opwin map STUDY.json -o DIR` makes one)",
+		                   dir, missing);
 	if (err)
 		return ow_diag_set(d, err == ENOMEM ? OW_ENOMEM : OW_EINPUT,
-				   "%s: cannot read: %s", path, strerror(err));
+		                   "%s: cannot read: %s", path, strerror(err));
 	if (strlen(*text) != len) {
 		free(*text);
 		*text = NULL;
 		return ow_diag_set(d, OW_EINPUT, "%s: contains a NUL byte",
-				   path);
+		                   path);
 	}
 	return OW_OK;
 }
@@ -567,18 +573,20 @@ static enum ow_status check_dir(const char *dir, struct ow_diag *d)
 
 	if (stat(dir, &sb) != 0)
 		return ow_diag_set(d, OW_EINPUT, "%s: no such folder: %s", dir,
-				   strerror(errno));
+		                   strerror(errno));
 	if (!S_ISDIR(sb.st_mode))
-		return ow_diag_set(d, OW_EINPUT, "%s: not a folder (expected "
-				   "the output folder of opwin map)", dir);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "%s: not a folder (expected "
+		                   "the output folder of opwin map)",
+		                   dir);
 	return OW_OK;
 }
 
 /* The lattice of lattice.json and lattice.csv, points as the sweep left
  * them. */
-static enum ow_status load_lattice(const struct lattice_doc *L,
-				   const char *dir, const struct ow_study *s,
-				   struct ow_grid **out, struct ow_diag *d)
+static enum ow_status load_lattice(const struct lattice_doc *L, const char *dir,
+                                   const struct ow_study *s,
+                                   struct ow_grid **out, struct ow_diag *d)
 {
 	char path[OW_PATH_LEN + 32], *text = NULL;
 	int n_solved = 0;
@@ -590,14 +598,15 @@ static enum ow_status load_lattice(const struct lattice_doc *L,
 		st = lattice_status(L, *out);
 	if (st == OW_OK)
 		st = read_in(dir, "lattice.csv", path, &text,
-			     "lattice.csv is missing", d);
+		             "lattice.csv is missing", d);
 	if (st == OW_OK)
 		st = md_points_read(text, path, s->line.n_zones, *out,
-				    &n_solved, d);
+		                    &n_solved, d);
 	if (st == OW_OK && n_solved != (*out)->solves)
-		st = ow_diag_set(d, OW_EINPUT, "%s: %d points, lattice.json "
-				 "says %d were solved", path, n_solved,
-				 (*out)->solves);
+		st = ow_diag_set(d, OW_EINPUT,
+		                 "%s: %d points, lattice.json "
+		                 "says %d were solved",
+		                 path, n_solved, (*out)->solves);
 	free(text);
 	if (st == OW_OK)
 		fill_unsolved(*out);
@@ -632,7 +641,7 @@ static int centre_zones(const cJSON *j, const char *key, double *v, int n)
 
 /* The centre point's figures from "centre" (null: none). */
 static enum ow_status read_centre(const struct lattice_doc *L, int n_zones,
-				  struct ow_mapdir_centre *c)
+                                  struct ow_mapdir_centre *c)
 {
 	const cJSON *j = cJSON_GetObjectItemCaseSensitive(L->o, "centre");
 	const cJSON *f = cJSON_GetObjectItemCaseSensitive(j, "flags");
@@ -646,9 +655,9 @@ static enum ow_status read_centre(const struct lattice_doc *L, int n_zones,
 	c->pt.flags = (unsigned)f->valuedouble;
 	c->pt.n_iter = (int)it->valuedouble;
 	for (k = 0; k < md_n_fields(); k++)
-		if (!centre_num(cJSON_GetObjectItemCaseSensitive(
-					j, md_field_name(k)),
-				md_field(&c->pt, k)))
+		if (!centre_num(
+		        cJSON_GetObjectItemCaseSensitive(j, md_field_name(k)),
+		        md_field(&c->pt, k)))
 			return key_bad(L, "centre", "a figure is missing");
 	if (!centre_zones(j, "set_K", c->pt.set_K, n_zones) ||
 	    !centre_zones(j, "zone_heat_W", c->pt.zone_heat_W, n_zones))
@@ -657,10 +666,9 @@ static enum ow_status read_centre(const struct lattice_doc *L, int n_zones,
 	return OW_OK;
 }
 
-static enum ow_status load_centre(const struct lattice_doc *L,
-				  const char *dir, const struct ow_study *s,
-				  struct ow_mapdir_centre *c,
-				  struct ow_diag *d)
+static enum ow_status load_centre(const struct lattice_doc *L, const char *dir,
+                                  const struct ow_study *s,
+                                  struct ow_mapdir_centre *c, struct ow_diag *d)
 {
 	const cJSON *p = cJSON_GetObjectItemCaseSensitive(L->o, "profile");
 	char path[OW_PATH_LEN + 32], *text = NULL;
@@ -673,11 +681,11 @@ static enum ow_status load_centre(const struct lattice_doc *L,
 	st = read_centre(L, s->line.n_zones, c);
 	if (st != OW_OK || cJSON_IsFalse(p))
 		return st;
-	st = read_in(dir, "profile.csv", path, &text,
-		     "profile.csv is missing", d);
+	st = read_in(dir, "profile.csv", path, &text, "profile.csv is missing",
+	             d);
 	if (st == OW_OK)
 		st = md_profile_read(text, path, s->screw.diameter_m, &c->rows,
-				     &c->n_rows, d);
+		                     &c->n_rows, d);
 	free(text);
 	return st;
 }
@@ -691,9 +699,9 @@ void ow_mapdir_centre_free(struct ow_mapdir_centre *c)
 }
 
 enum ow_status ow_mapdir_load(const struct ow_units *u, const char *dir,
-			      struct ow_study *study, struct ow_grid **grid,
-			      struct ow_mapdir_centre *centre,
-			      struct ow_diag *d)
+                              struct ow_study *study, struct ow_grid **grid,
+                              struct ow_mapdir_centre *centre,
+                              struct ow_diag *d)
 {
 	char path[OW_PATH_LEN + 32], *text = NULL;
 	struct lattice_doc L = {path, NULL, d};
@@ -708,7 +716,7 @@ enum ow_status ow_mapdir_load(const struct ow_units *u, const char *dir,
 	st = check_dir(dir, d);
 	if (st == OW_OK)
 		st = read_in(dir, "lattice.json", path, &text,
-			     "lattice.json is missing", d);
+		             "lattice.json is missing", d);
 	if (st == OW_OK && !(doc = cJSON_Parse(text)))
 		st = ow_diag_set(d, OW_EINPUT, "%s: not a JSON text", path);
 	L.o = doc;

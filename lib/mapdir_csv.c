@@ -84,7 +84,7 @@ int md_slurp(const char *path, char **buf, size_t *len)
 {
 	FILE *f = fopen(path, "rb");
 	size_t cap = 8192, n = 0, got;
-	char *b = NULL, *nb;
+	char *b, *nb;
 	int err = 0;
 
 	if (!f)
@@ -95,11 +95,8 @@ int md_slurp(const char *path, char **buf, size_t *len)
 		if (n + 1 < cap)
 			continue;
 		nb = realloc(b, cap * 2);
-		if (!nb) {
+		if (!nb)
 			free(b);
-			b = NULL;
-			break;
-		}
 		b = nb;
 		cap *= 2;
 	}
@@ -108,7 +105,7 @@ int md_slurp(const char *path, char **buf, size_t *len)
 	else if (ferror(f))
 		err = EIO;
 	fclose(f);
-	if (err) {
+	if (!b || err) {
 		free(b);
 		return err;
 	}
@@ -118,34 +115,52 @@ int md_slurp(const char *path, char **buf, size_t *len)
 	return 0;
 }
 
-enum ow_status md_path(char *out, size_t n, const char *dir,
-		       const char *name, struct ow_diag *d)
+enum ow_status md_path(char *out, size_t n, const char *dir, const char *name,
+                       struct ow_diag *d)
 {
 	size_t l = strlen(dir);
 	const char *sep = l && dir[l - 1] == '/' ? "" : "/";
 
 	if ((size_t)snprintf(out, n, "%s%s%s", dir, sep, name) >= n)
-		return ow_diag_set(d, OW_EINPUT, "%.60s...: the path is too "
-				   "long", dir);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "%.60s...: the path is too "
+		                   "long",
+		                   dir);
 	return OW_OK;
 }
 
 /* ---- lattice.csv -------------------------------------------------------- */
 
 /* The figures of struct ow_point kept, by name (the CSV header). */
-#define FIELD(f) {#f, offsetof(struct ow_point, f)}
+#define FIELD(f)                                                               \
+	{                                                                      \
+#f, offsetof(struct ow_point, f)                               \
+	}
 static const struct {
 	const char *name;
 	size_t off;
 } fields[] = {
-	FIELD(rpm), FIELD(output_kg_s), FIELD(discharge_pressure_Pa),
-	FIELD(max_pressure_Pa), FIELD(max_pressure_at_m),
-	FIELD(discharge_bulk_K), FIELD(discharge_peak_K), FIELD(peak_K),
-	FIELD(peak_at_m), FIELD(unmelt_frac), FIELD(melt_start_m),
-	FIELD(melt_complete_m), FIELD(max_sbr), FIELD(max_sbr_at_m),
-	FIELD(plugging_at_m), FIELD(power_W), FIELD(torque_Nm),
-	FIELD(sec_J_kg), FIELD(barrel_heat_W), FIELD(residence_s),
-	FIELD(energy_residual),
+    FIELD(rpm),
+    FIELD(output_kg_s),
+    FIELD(discharge_pressure_Pa),
+    FIELD(max_pressure_Pa),
+    FIELD(max_pressure_at_m),
+    FIELD(discharge_bulk_K),
+    FIELD(discharge_peak_K),
+    FIELD(peak_K),
+    FIELD(peak_at_m),
+    FIELD(unmelt_frac),
+    FIELD(melt_start_m),
+    FIELD(melt_complete_m),
+    FIELD(max_sbr),
+    FIELD(max_sbr_at_m),
+    FIELD(plugging_at_m),
+    FIELD(power_W),
+    FIELD(torque_Nm),
+    FIELD(sec_J_kg),
+    FIELD(barrel_heat_W),
+    FIELD(residence_s),
+    FIELD(energy_residual),
 };
 #undef FIELD
 #define N_FIELDS ((int)(sizeof fields / sizeof fields[0]))
@@ -187,13 +202,13 @@ static void points_header(struct md_text *t, int n_zones)
 }
 
 static void point_row(struct md_text *t, const struct ow_grid *g, int i,
-		      int n_zones)
+                      int n_zones)
 {
 	struct ow_grid_point *p = &g->pts[i];
 	int k;
 
 	md_addf(t, "%d,%d,%u,%u,%d", i % g->n_rpm, i / g->n_rpm, p->v.bits,
-		p->pt.flags, p->pt.n_iter);
+	        p->pt.flags, p->pt.n_iter);
 	for (k = 0; k < OW_CK_LIMITS; k++) {
 		md_add(t, ",");
 		md_num(t, p->v.margin[k]);
@@ -213,8 +228,8 @@ static void point_row(struct md_text *t, const struct ow_grid *g, int i,
 	md_add(t, "\n");
 }
 
-enum ow_status md_points_csv(const struct ow_grid *g, int n_zones,
-			     char **out, struct ow_diag *d)
+enum ow_status md_points_csv(const struct ow_grid *g, int n_zones, char **out,
+                             struct ow_diag *d)
 {
 	struct md_text t = {0};
 	int i;
@@ -276,16 +291,15 @@ static int int_cell(const char *c, long lo, long hi, long *v)
 }
 
 static enum ow_status bad(struct ow_diag *d, const char *file, int line,
-			  const char *what)
+                          const char *what)
 {
-	return ow_diag_set(d, OW_EINPUT, "%s: line %d: %s", file, line,
-			   what);
+	return ow_diag_set(d, OW_EINPUT, "%s: line %d: %s", file, line, what);
 }
 
 /* Cells of one row -> the lattice point it names. */
 static enum ow_status point_read(char **c, const char *file, int line,
-				 int n_zones, struct ow_grid *g,
-				 struct ow_diag *d)
+                                 int n_zones, struct ow_grid *g,
+                                 struct ow_diag *d)
 {
 	struct ow_grid_point *p;
 	long ir, ia, bits, flags, iter;
@@ -296,14 +310,16 @@ static enum ow_status point_read(char **c, const char *file, int line,
 	    !int_cell(c[2], 0, (1L << OW_CK_COUNT) - 1, &bits) ||
 	    !int_cell(c[3], 0, 0xFFFF, &flags) ||
 	    !int_cell(c[4], 0, 1000000, &iter))
-		return bad(d, file, line, "lattice indices, bits, flags or "
-			   "iterations out of range");
+		return bad(d, file, line,
+		           "lattice indices, bits, flags or "
+		           "iterations out of range");
 	p = ow_grid_at(g, (int)ir, (int)ia);
 	if (p->solved == 1)
 		return bad(d, file, line, "a lattice point listed twice");
 	if (p->v.bits != (unsigned)bits)
-		return bad(d, file, line, "status bits differ from those in "
-			   "lattice.json");
+		return bad(d, file, line,
+		           "status bits differ from those in "
+		           "lattice.json");
 	p->solved = 1;
 	p->v.bits = (unsigned)bits;
 	p->pt.flags = (unsigned)flags;
@@ -322,14 +338,15 @@ static enum ow_status point_read(char **c, const char *file, int line,
 			goto num;
 	return OW_OK;
 num:
-	return ow_diag_set(d, OW_EINPUT, "%s: line %d, column %d: expected "
-			   "a number, got \"%.40s\"", file, line, at,
-			   c[at - 1]);
+	return ow_diag_set(d, OW_EINPUT,
+	                   "%s: line %d, column %d: expected "
+	                   "a number, got \"%.40s\"",
+	                   file, line, at, c[at - 1]);
 }
 
 enum ow_status md_points_read(char *text, const char *file, int n_zones,
-			      struct ow_grid *g, int *n_solved,
-			      struct ow_diag *d)
+                              struct ow_grid *g, int *n_solved,
+                              struct ow_diag *d)
 {
 	int n_cols = 5 + OW_CK_LIMITS + N_FIELDS + 2 * n_zones, line = 0;
 	struct md_text want = {0};
@@ -346,8 +363,9 @@ enum ow_status md_points_read(char *text, const char *file, int n_zones,
 	want.s[want.len - 1] = '\0'; /* no newline */
 	l = next_line(&cur, &line);
 	if (!l || strcmp(l, want.s)) {
-		st = bad(d, file, 1, "unexpected header: the folder was "
-			 "written by another version of opwin or edited");
+		st = bad(d, file, 1,
+		         "unexpected header: the folder was "
+		         "written by another version of opwin or edited");
 		goto fail;
 	}
 	while (st == OW_OK && (l = next_line(&cur, &line)) != NULL) {
@@ -365,8 +383,9 @@ fail:
 
 /* ---- profile.csv -------------------------------------------------------- */
 
-#define PROFILE_HEADER "axial_D,pressure_MPa,bulk_temp_C,peak_temp_C,sbr," \
-		       "unmelt_fraction,depth_mm,barrel_C,shear_max_1_s"
+#define PROFILE_HEADER                                                         \
+	"axial_D,pressure_MPa,bulk_temp_C,peak_temp_C,sbr,"                    \
+	"unmelt_fraction,depth_mm,barrel_C,shear_max_1_s"
 
 static int cell_or_nan(const char *c, double *x)
 {
@@ -398,9 +417,9 @@ static int profile_row(char **c, double D, struct ow_profile_row *r)
 	return 1;
 }
 
-enum ow_status md_profile_read(char *text, const char *file,
-			       double diameter_m, struct ow_profile_row **rows,
-			       int *n_rows, struct ow_diag *d)
+enum ow_status md_profile_read(char *text, const char *file, double diameter_m,
+                               struct ow_profile_row **rows, int *n_rows,
+                               struct ow_diag *d)
 {
 	size_t cap = 1;
 	int line = 0, n = 0;
@@ -415,8 +434,8 @@ enum ow_status md_profile_read(char *text, const char *file,
 	l = next_line(&cur, &line);
 	if (!l || strcmp(l, PROFILE_HEADER)) {
 		free(r);
-		return bad(d, file, 1, "unexpected header: expected "
-			   PROFILE_HEADER);
+		return bad(d, file, 1,
+		           "unexpected header: expected " PROFILE_HEADER);
 	}
 	while ((l = next_line(&cur, &line)) != NULL) {
 		if (split(l, cells, 9) != 9 ||

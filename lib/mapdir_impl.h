@@ -18,7 +18,7 @@ struct md_text {
 
 void md_add(struct md_text *t, const char *s);
 void md_addf(struct md_text *t, const char *fmt, ...)
-	__attribute__((format(printf, 2, 3)));
+    __attribute__((format(printf, 2, 3)));
 /* x with 17 significant digits (round trip), "nan", "inf" or "-inf". */
 void md_num(struct md_text *t, double x);
 
@@ -26,8 +26,8 @@ void md_num(struct md_text *t, double x);
 int md_slurp(const char *path, char **buf, size_t *len);
 
 /* "dir/name" into out (n bytes); OW_EINPUT when too long. */
-enum ow_status md_path(char *out, size_t n, const char *dir,
-		       const char *name, struct ow_diag *d);
+enum ow_status md_path(char *out, size_t n, const char *dir, const char *name,
+                       struct ow_diag *d);
 
 /* Read a number written by md_num ("nan" and "inf" included); 0 when the
  * whole text is not one number. */
@@ -40,19 +40,19 @@ double *md_field(struct ow_point *p, int k);
 
 /* lattice.csv: one row per solved point (indices, bits, flags, margins,
  * figures in SI). n_zones columns of set-points and zone heats. */
-enum ow_status md_points_csv(const struct ow_grid *g, int n_zones,
-			     char **out, struct ow_diag *d);
+enum ow_status md_points_csv(const struct ow_grid *g, int n_zones, char **out,
+                             struct ow_diag *d);
 
 /* Read lattice.csv text (named file in messages) into the solved points
  * of g (lattice already sized, rpm and axis set); *n_solved counts rows. */
 enum ow_status md_points_read(char *text, const char *file, int n_zones,
-			      struct ow_grid *g, int *n_solved,
-			      struct ow_diag *d);
+                              struct ow_grid *g, int *n_solved,
+                              struct ow_diag *d);
 
 /* profile.csv text (ow_results_profile_csv columns) back into rows in SI;
  * empty cells are NAN. */
-enum ow_status md_profile_read(char *text, const char *file,
-			       double diameter_m, struct ow_profile_row **rows,
-			       int *n_rows, struct ow_diag *d);
+enum ow_status md_profile_read(char *text, const char *file, double diameter_m,
+                               struct ow_profile_row **rows, int *n_rows,
+                               struct ow_diag *d);
 
 #endif

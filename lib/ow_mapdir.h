@@ -45,11 +45,10 @@ struct ow_mapdir_centre {
  * existing folder dir. OW_EINPUT when an input file is gone or changed
  * since it was loaded, OW_EIO naming the file when a write fails,
  * OW_ENOMEM. */
-enum ow_status ow_mapdir_save(const struct ow_study *s,
-			      const struct ow_grid *g,
-			      const struct ow_point *centre,
-			      const struct ow_profile_row *rows, int n_rows,
-			      const char *dir, struct ow_diag *d);
+enum ow_status ow_mapdir_save(const struct ow_study *s, const struct ow_grid *g,
+                              const struct ow_point *centre,
+                              const struct ow_profile_row *rows, int n_rows,
+                              const char *dir, struct ow_diag *d);
 
 /* Load the map folder dir: the study from DIR/study.json (its path fields
  * and input_crc set back to the original files' names and CRC-32, so the
@@ -62,9 +61,9 @@ enum ow_status ow_mapdir_save(const struct ow_study *s,
  * missing"), or a file in it is damaged (the message names the file and
  * the line or key); OW_ENOMEM. */
 enum ow_status ow_mapdir_load(const struct ow_units *u, const char *dir,
-			      struct ow_study *study, struct ow_grid **grid,
-			      struct ow_mapdir_centre *centre,
-			      struct ow_diag *d);
+                              struct ow_study *study, struct ow_grid **grid,
+                              struct ow_mapdir_centre *centre,
+                              struct ow_diag *d);
 
 /* Free the rows of a loaded centre and mark it invalid (NULL-safe). */
 void ow_mapdir_centre_free(struct ow_mapdir_centre *c);

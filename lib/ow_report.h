@@ -34,7 +34,7 @@ struct ow_report_options {
 	enum ow_paper paper;
 	enum ow_unit_system units; /* what people read */
 	const char *date;          /* "YYYY-MM-DD" (required: the caller
-				      gives it, so output is reproducible) */
+	                              gives it, so output is reproducible) */
 	const char *revision;      /* NULL or "": a blank line to fill in */
 	const char *prepared_by;   /* NULL or "": a blank line */
 	const char *approved_by;   /* NULL or "": a blank line */
@@ -71,9 +71,9 @@ char *ow_report_format_bound(char *buf, size_t n, double v);
  * written, the font files are missing, or libharu fails (its first error
  * code in the message); OW_ENOMEM. */
 enum ow_status ow_report_write(const struct ow_study *s,
-			       const struct ow_grid *g,
-			       const struct ow_window *w,
-			       const struct ow_report_options *o,
-			       const char *pdf_path, struct ow_diag *d);
+                               const struct ow_grid *g,
+                               const struct ow_window *w,
+                               const struct ow_report_options *o,
+                               const char *pdf_path, struct ow_diag *d);
 
 #endif

@@ -15,9 +15,9 @@
 #include "ow_results.h"
 
 /* ISO 216 A4 is 210 x 297 mm; US Letter 8.5 x 11 in; 72 pt per inch. */
-#define MM_PT (72.0 / 25.4)
-#define MARGIN_X 54.0    /* 0.75 in */
-#define MARGIN_TOP 48.0
+#define MM_PT         (72.0 / 25.4)
+#define MARGIN_X      54.0 /* 0.75 in */
+#define MARGIN_TOP    48.0
 #define MARGIN_BOTTOM 64.0 /* room for the footer */
 
 void ow_report_default(struct ow_report_options *o)
@@ -60,7 +60,7 @@ enum ow_status rpt_fail(struct rpt *r, enum ow_status st, const char *what)
 /* libharu calls this on every failure; errors are sticky in the document,
  * so only the first says what went wrong. */
 static void on_hpdf_error(HPDF_STATUS error_no, HPDF_STATUS detail_no,
-			  void *user_data)
+                          void *user_data)
 {
 	struct rpt *r = user_data;
 
@@ -77,9 +77,11 @@ void rpt_check(struct rpt *r)
 	if (r->cv && r->st == OW_OK)
 		r->st = ow_canvas_status(r->cv, r->d);
 	if (r->hpdf_error && r->st == OW_OK) {
-		snprintf(msg, sizeof msg, "libharu error 0x%04X (detail %u) "
-			 "while drawing page %d", (unsigned)r->hpdf_error,
-			 (unsigned)r->hpdf_detail, r->n_pages);
+		snprintf(msg, sizeof msg,
+		         "libharu error 0x%04X (detail %u) "
+		         "while drawing page %d",
+		         (unsigned)r->hpdf_error, (unsigned)r->hpdf_detail,
+		         r->n_pages);
 		rpt_fail(r, OW_EIO, msg);
 	}
 }
@@ -98,8 +100,8 @@ static void open_canvas(struct rpt *r, int k)
 
 	if (r->st != OW_OK)
 		return;
-	r->st = ow_canvas_create_pdf(r->pdf, r->pages[k], &r->fonts, &at,
-				     r->pw, r->ph, &r->cv, r->d);
+	r->st = ow_canvas_create_pdf(r->pdf, r->pages[k], &r->fonts, &at, r->pw,
+	                             r->ph, &r->cv, r->d);
 }
 
 void rpt_new_page(struct rpt *r)
@@ -133,8 +135,8 @@ int rpt_need(struct rpt *r, double h)
 }
 
 /* Fit utf8 into width at size, cutting it with an ellipsis. */
-static void fit_text(struct rpt *r, const char *utf8, double width,
-		     double size, char *out, size_t n)
+static void fit_text(struct rpt *r, const char *utf8, double width, double size,
+                     char *out, size_t n)
 {
 	size_t len;
 
@@ -164,9 +166,11 @@ static void footer(struct rpt *r, int k, int n)
 		return;
 	snprintf(page, sizeof page, "page %d of %d", k + 1, n);
 	fit_text(r, r->s->title, w - rpt_text_width(r, page, 7.5, 0) - 24.0,
-		 7.5, title, sizeof title);
-	snprintf(line, sizeof line, "%s   ·   inputs CRC-32 %08lX   ·   "
-		 "opwin %s", r->o->date, r->s->input_crc, OW_VERSION);
+	         7.5, title, sizeof title);
+	snprintf(line, sizeof line,
+	         "%s   ·   inputs CRC-32 %08lX   ·   "
+	         "opwin %s",
+	         r->o->date, r->s->input_crc, OW_VERSION);
 	ow_canvas_set_colour(r->cv, rpt_grey(0.55));
 	ow_canvas_set_line_width(r->cv, 0.5);
 	ow_canvas_move_to(r->cv, r->x0, y);
@@ -175,12 +179,12 @@ static void footer(struct rpt *r, int k, int n)
 	ow_canvas_set_colour(r->cv, rpt_grey(0.25));
 	ow_canvas_set_font(r->cv, 7.5, 0);
 	ow_canvas_text(r->cv, r->x0, y + 11.0, title, OW_ALIGN_LEFT,
-		       OW_VALIGN_BASELINE, 0.0);
+	               OW_VALIGN_BASELINE, 0.0);
 	ow_canvas_text(r->cv, r->x0, y + 21.0, line, OW_ALIGN_LEFT,
-		       OW_VALIGN_BASELINE, 0.0);
+	               OW_VALIGN_BASELINE, 0.0);
 	ow_canvas_set_font(r->cv, 8.0, 1);
 	ow_canvas_text(r->cv, r->x1, y + 11.0, page, OW_ALIGN_RIGHT,
-		       OW_VALIGN_BASELINE, 0.0);
+	               OW_VALIGN_BASELINE, 0.0);
 	close_canvas(r);
 }
 
@@ -256,26 +260,29 @@ static void save(struct rpt *r, const char *path)
 		HPDF_ResetError(r->pdf);
 	rpt_check(r);
 	if (r->st == OW_OK)
-		r->st = ow_results_write_file(path, (const char *)buf, len,
-					      r->d);
+		r->st =
+		    ow_results_write_file(path, (const char *)buf, len, r->d);
 	free(buf);
 }
 
 enum ow_status ow_report_write(const struct ow_study *s,
-			       const struct ow_grid *g,
-			       const struct ow_window *w,
-			       const struct ow_report_options *o,
-			       const char *pdf_path, struct ow_diag *d)
+                               const struct ow_grid *g,
+                               const struct ow_window *w,
+                               const struct ow_report_options *o,
+                               const char *pdf_path, struct ow_diag *d)
 {
 	struct rpt r;
 	int k;
 
 	if (!s || !g || !w || !o || !pdf_path)
-		return ow_diag_set(d, OW_EARG, "ow_report_write: NULL "
-				   "argument");
+		return ow_diag_set(d, OW_EARG,
+		                   "ow_report_write: NULL "
+		                   "argument");
 	if (!valid_date(o->date))
-		return ow_diag_set(d, OW_EARG, "report date \"%s\": expected "
-				   "YYYY-MM-DD", o->date ? o->date : "");
+		return ow_diag_set(d, OW_EARG,
+		                   "report date \"%s\": expected "
+		                   "YYYY-MM-DD",
+		                   o->date ? o->date : "");
 	memset(&r, 0, sizeof r);
 	r.s = s;
 	r.g = g;

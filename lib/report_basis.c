@@ -5,69 +5,73 @@
 #include <stdio.h>
 
 static const char *const methods[] = {
-	"Rowell & Finlayson (1922), \"Screw viscosity pumps\", Engineering "
-	"114, 606: flow in a screw pump as drag flow minus pressure flow in "
-	"the unwound channel, with the flight-edge correction factors.",
-	"Darnell & Mol (1956), \"Solids conveying in extruders\", SPE Journal "
-	"12, 20: the pellet bed as a solid plug pushed by barrel friction "
-	"against screw friction; the feed capacity and the pressure it "
-	"builds.",
-	"Tadmor (1966), \"Fundamentals of plasticating extrusion\", Polymer "
-	"Engineering and Science 6, 185: melting of a contiguous solid bed "
-	"by a melt film at the barrel, heated by conduction and shear.",
-	"Tadmor & Klein (1970), Engineering Principles of Plasticating "
-	"Extrusion: the screw as one chain of solids conveying, melting and "
-	"melt conveying, and the geometry of the helical channel.",
-	"Tadmor & Gogos (2006), Principles of Polymer Processing, 2nd ed.: "
-	"conveying of shear-thinning melts, leakage over the flights, and "
-	"the match of screw and die that sets the throughput.",
-	"Bird, Stewart & Lightfoot (2002), Transport Phenomena, 2nd ed.: the "
-	"momentum and energy balances across the channel depth, viscous "
-	"heating and conduction to the barrel and the screw.",
-	"Dealy & Wissbrun (1990), Melt Rheology and its Role in Plastics "
-	"Processing: the viscosity models of the resin and their shift with "
-	"temperature.",
+    "Rowell & Finlayson (1922), \"Screw viscosity pumps\", Engineering "
+    "114, 606: flow in a screw pump as drag flow minus pressure flow in "
+    "the unwound channel, with the flight-edge correction factors.",
+    "Darnell & Mol (1956), \"Solids conveying in extruders\", SPE Journal "
+    "12, 20: the pellet bed as a solid plug pushed by barrel friction "
+    "against screw friction; the feed capacity and the pressure it "
+    "builds.",
+    "Tadmor (1966), \"Fundamentals of plasticating extrusion\", Polymer "
+    "Engineering and Science 6, 185: melting of a contiguous solid bed "
+    "by a melt film at the barrel, heated by conduction and shear.",
+    "Tadmor & Klein (1970), Engineering Principles of Plasticating "
+    "Extrusion: the screw as one chain of solids conveying, melting and "
+    "melt conveying, and the geometry of the helical channel.",
+    "Tadmor & Gogos (2006), Principles of Polymer Processing, 2nd ed.: "
+    "conveying of shear-thinning melts, leakage over the flights, and "
+    "the match of screw and die that sets the throughput.",
+    "Bird, Stewart & Lightfoot (2002), Transport Phenomena, 2nd ed.: the "
+    "momentum and energy balances across the channel depth, viscous "
+    "heating and conduction to the barrel and the screw.",
+    "Dealy & Wissbrun (1990), Melt Rheology and its Role in Plastics "
+    "Processing: the viscosity models of the resin and their shift with "
+    "temperature.",
 };
 
 static const char *const left_out[] = {
-	"break-up of the solid bed",
-	"the detail of the delay zone between solids conveying and melting",
-	"the effect of pressure on viscosity",
-	"slip of the melt or the pellets at the walls",
-	"melt elasticity (normal stresses, die swell)",
-	"eccentricity of the screw in the barrel, beyond its share in the "
-	"leakage over the flights",
-	"venting",
-	"surging and every transient: start-up, changes of settings, "
-	"purging",
+    "break-up of the solid bed",
+    "the detail of the delay zone between solids conveying and melting",
+    "the effect of pressure on viscosity",
+    "slip of the melt or the pellets at the walls",
+    "melt elasticity (normal stresses, die swell)",
+    "eccentricity of the screw in the barrel, beyond its share in the "
+    "leakage over the flights",
+    "venting",
+    "surging and every transient: start-up, changes of settings, "
+    "purging",
 };
 
 /* Our own words; each caution is a paragraph with a bold lead. */
 static const struct {
 	const char *lead, *text;
 } cautions[] = {
-	{"Hot melt and pressure can injure.", "Melt at these temperatures "
-	 "burns on contact and sticks to skin. Melt can spray from the die, "
-	 "the adapter or a vent without warning when pressure is released. "
-	 "Die and adapter bolts and clamps hold the whole head pressure: "
-	 "never loosen them, or open the die, while the barrel is hot and "
-	 "the melt may be under pressure."},
-	{"The machine's own ratings come first.", "The extruder builder's "
-	 "ratings for drive power, torque, speed, barrel pressure and "
-	 "temperature, and the rating of the barrel's rupture disc, govern "
-	 "wherever they are stricter than a limit used here. A pressure "
-	 "limit in this report is no substitute for a working rupture disc "
-	 "and pressure alarm."},
-	{"Verify every setting on the line.", "The figures are estimates "
-	 "from published engineering models, not measurements. Start inside "
-	 "the window, at or near the centre point; change one setting at a "
-	 "time and watch melt pressure, melt temperature and drive load "
-	 "settle before going on. Stop and review if the line behaves "
-	 "differently from this report."},
-	{"Local codes and licensed practice govern.", "Safety regulations, "
-	 "guarding, lock-out and the approval of a qualified engineer, "
-	 "where local rules require one, come before anything in this "
-	 "report."},
+    {"Hot melt and pressure can injure.",
+     "Melt at these temperatures "
+     "burns on contact and sticks to skin. Melt can spray from the die, "
+     "the adapter or a vent without warning when pressure is released. "
+     "Die and adapter bolts and clamps hold the whole head pressure: "
+     "never loosen them, or open the die, while the barrel is hot and "
+     "the melt may be under pressure."},
+    {"The machine's own ratings come first.",
+     "The extruder builder's "
+     "ratings for drive power, torque, speed, barrel pressure and "
+     "temperature, and the rating of the barrel's rupture disc, govern "
+     "wherever they are stricter than a limit used here. A pressure "
+     "limit in this report is no substitute for a working rupture disc "
+     "and pressure alarm."},
+    {"Verify every setting on the line.",
+     "The figures are estimates "
+     "from published engineering models, not measurements. Start inside "
+     "the window, at or near the centre point; change one setting at a "
+     "time and watch melt pressure, melt temperature and drive load "
+     "settle before going on. Stop and review if the line behaves "
+     "differently from this report."},
+    {"Local codes and licensed practice govern.",
+     "Safety regulations, "
+     "guarding, lock-out and the approval of a qualified engineer, "
+     "where local rules require one, come before anything in this "
+     "report."},
 };
 
 #define N_OF(a) ((int)(sizeof(a) / sizeof((a)[0])))
@@ -78,13 +82,17 @@ static void model_basis(struct rpt *r)
 	int k;
 
 	rpt_heading(r, "Model basis", 80.0);
-	rpt_para(r, "Each operating point is solved from the hopper to the "
-		 "die with published engineering models:", &st, 4.0);
+	rpt_para(r,
+	         "Each operating point is solved from the hopper to the "
+	         "die with published engineering models:",
+	         &st, 4.0);
 	for (k = 0; k < N_OF(methods); k++)
 		rpt_bullet(r, methods[k], &st);
 	r->y += 4.0;
-	rpt_para(r, "Rules of thumb in the screw warnings are common practice "
-		 "and are marked so.", &st, 0.0);
+	rpt_para(r,
+	         "Rules of thumb in the screw warnings are common practice "
+	         "and are marked so.",
+	         &st, 0.0);
 }
 
 static void leaves_out(struct rpt *r)
@@ -97,8 +105,10 @@ static void leaves_out(struct rpt *r)
 		rpt_bullet(r, left_out[k], &st);
 	r->y += 4.0;
 	st.bold = 1;
-	rpt_para(r, "The results are estimates from published engineering "
-		 "models, not measurements. Check them on the line.", &st, 0.0);
+	rpt_para(r,
+	         "The results are estimates from published engineering "
+	         "models, not measurements. Check them on the line.",
+	         &st, 0.0);
 }
 
 /* Height of the cautions, to keep them on one page with their bar. */
@@ -112,7 +122,7 @@ static double cautions_height(struct rpt *r, double width)
 	for (k = 0; k < N_OF(cautions); k++) {
 		h += RPT_BODY_PT * RPT_LINE *
 		     (1 + rpt_wrap(r, cautions[k].text, width, RPT_BODY_PT, 0,
-				   buf, sizeof buf, lines, 40));
+		                   buf, sizeof buf, lines, 40));
 		h += 7.0;
 	}
 	return h;

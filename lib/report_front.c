@@ -10,7 +10,7 @@
 #include "ow_classify.h"
 
 #define MAP_ASPECT (OW_MAPS_WIDTH_PT / OW_MAPS_HEIGHT_PT)
-#define MAP_MIN_H 250.0 /* below this the map goes to the next page */
+#define MAP_MIN_H  250.0 /* below this the map goes to the next page */
 
 void rpt_map_options(const struct rpt *r, struct ow_maps_options *mo)
 {
@@ -43,17 +43,19 @@ static void banner(struct rpt *r)
 	struct rpt_style note = {7.5, 0, rpt_grey(0.25), 0.0};
 
 	rpt_para(r, "OPERATING WINDOW REPORT  ·  SINGLE-SCREW EXTRUDER", &kind,
-		 3.0);
+	         3.0);
 	rpt_para(r, r->s->title, &title, 2.0);
-	rpt_para(r, "Estimates from published engineering models, not "
-		 "measurements. Read the cautions at the end of this report "
-		 "before setting the line.", &note, 6.0);
+	rpt_para(r,
+	         "Estimates from published engineering models, not "
+	         "measurements. Read the cautions at the end of this report "
+	         "before setting the line.",
+	         &note, 6.0);
 }
 
 /* One labelled cell of the title block: a small label, then the value
  * (or room to write one by hand). */
 static void field(struct rpt *r, double x, double y, double w, double h,
-		  const char *label, const char *value)
+                  const char *label, const char *value)
 {
 	struct ow_canvas *cv = r->cv;
 	char buf[512];
@@ -66,7 +68,7 @@ static void field(struct rpt *r, double x, double y, double w, double h,
 	ow_canvas_stroke(cv);
 	ow_canvas_set_font(cv, 6.5, 1);
 	ow_canvas_text(cv, x + 4.0, y + 8.5, label, OW_ALIGN_LEFT,
-		       OW_VALIGN_BASELINE, 0.0);
+	               OW_VALIGN_BASELINE, 0.0);
 	if (!value || !*value)
 		return; /* left blank to fill in */
 	n = rpt_wrap(r, value, w - 8.0, 9.0, 0, buf, sizeof buf, lines, 2);
@@ -74,7 +76,7 @@ static void field(struct rpt *r, double x, double y, double w, double h,
 	ow_canvas_set_font(cv, 9.0, 0);
 	for (k = 0; k < n; k++)
 		ow_canvas_text(cv, x + 4.0, y + 19.0 + 10.5 * k, lines[k],
-			       OW_ALIGN_LEFT, OW_VALIGN_BASELINE, 0.0);
+		               OW_ALIGN_LEFT, OW_VALIGN_BASELINE, 0.0);
 }
 
 static void title_block(struct rpt *r)
@@ -115,14 +117,14 @@ static const struct ow_point *centre_point(const struct rpt *r)
 }
 
 static void bound_cell(const struct rpt *r, char *buf, size_t n,
-		       enum ow_dim dim, double si)
+                       enum ow_dim dim, double si)
 {
 	ow_report_format_bound(buf, n, rpt_shown(r, dim, si));
 }
 
 static void row5(struct rpt *r, const struct rpt_table *t, const char *what,
-		 const char *lo, const char *hi, const char *unit,
-		 const char *centre, int shade)
+                 const char *lo, const char *hi, const char *unit,
+                 const char *centre, int shade)
 {
 	const char *cells[5] = {what, lo, hi, unit, centre};
 
@@ -139,12 +141,12 @@ static void zone_rows(struct rpt *r, const struct rpt_table *t)
 	ow_line_apply_axis(l, r->w->centre.axis, set_K);
 	for (z = 0; z < l->n_zones; z++) {
 		snprintf(what, sizeof what, "Barrel %s set-point%s",
-			 rpt_zone_name(r, z, zn, sizeof zn),
-			 z == ref ? ", map axis" : "");
+		         rpt_zone_name(r, z, zn, sizeof zn),
+		         z == ref ? ", map axis" : "");
 		bound_cell(r, lo, sizeof lo, OW_DIM_TEMPERATURE,
-			   r->w->zone_min_K[z]);
+		           r->w->zone_min_K[z]);
 		bound_cell(r, hi, sizeof hi, OW_DIM_TEMPERATURE,
-			   r->w->zone_max_K[z]);
+		           r->w->zone_max_K[z]);
 		bound_cell(r, c, sizeof c, OW_DIM_TEMPERATURE, set_K[z]);
 		row5(r, t, what, lo, hi, rpt_unit(r, OW_DIM_TEMPERATURE), c,
 		     z == ref);
@@ -159,35 +161,37 @@ static void result_rows(struct rpt *r, const struct rpt_table *t)
 	const char *T = rpt_unit(r, OW_DIM_TEMPERATURE);
 	char lo[32], hi[32], c[32];
 
-	rpt_fix(lo, sizeof lo, rpt_shown(r, OW_DIM_MASS_FLOW,
-					 w->output_min_kg_s), 1);
-	rpt_fix(hi, sizeof hi, rpt_shown(r, OW_DIM_MASS_FLOW,
-					 w->output_max_kg_s), 1);
-	rpt_fix(c, sizeof c, cp ? rpt_shown(r, OW_DIM_MASS_FLOW,
-					    cp->output_kg_s) : NAN, 1);
+	rpt_fix(lo, sizeof lo,
+	        rpt_shown(r, OW_DIM_MASS_FLOW, w->output_min_kg_s), 1);
+	rpt_fix(hi, sizeof hi,
+	        rpt_shown(r, OW_DIM_MASS_FLOW, w->output_max_kg_s), 1);
+	rpt_fix(c, sizeof c,
+	        cp ? rpt_shown(r, OW_DIM_MASS_FLOW, cp->output_kg_s) : NAN, 1);
 	row5(r, t, "Throughput (expected)", lo, hi,
 	     rpt_unit(r, OW_DIM_MASS_FLOW), c, 0);
-	rpt_fix(lo, sizeof lo, rpt_shown(r, OW_DIM_TEMPERATURE,
-					 w->melt_min_K), 0);
-	rpt_fix(hi, sizeof hi, rpt_shown(r, OW_DIM_TEMPERATURE,
-					 w->melt_max_K), 0);
-	rpt_fix(c, sizeof c, cp ? rpt_shown(r, OW_DIM_TEMPERATURE,
-					    cp->discharge_bulk_K) : NAN, 0);
-	row5(r, t, "Melt temperature at discharge (bulk, expected)", lo, hi,
-	     T, c, 0);
-	rpt_fix(hi, sizeof hi, rpt_shown(r, OW_DIM_TEMPERATURE,
-					 w->peak_max_K), 0);
-	rpt_fix(c, sizeof c, cp ? rpt_shown(r, OW_DIM_TEMPERATURE,
-					    cp->peak_K) : NAN, 0);
+	rpt_fix(lo, sizeof lo, rpt_shown(r, OW_DIM_TEMPERATURE, w->melt_min_K),
+	        0);
+	rpt_fix(hi, sizeof hi, rpt_shown(r, OW_DIM_TEMPERATURE, w->melt_max_K),
+	        0);
+	rpt_fix(c, sizeof c,
+	        cp ? rpt_shown(r, OW_DIM_TEMPERATURE, cp->discharge_bulk_K)
+	           : NAN,
+	        0);
+	row5(r, t, "Melt temperature at discharge (bulk, expected)", lo, hi, T,
+	     c, 0);
+	rpt_fix(hi, sizeof hi, rpt_shown(r, OW_DIM_TEMPERATURE, w->peak_max_K),
+	        0);
+	rpt_fix(c, sizeof c,
+	        cp ? rpt_shown(r, OW_DIM_TEMPERATURE, cp->peak_K) : NAN, 0);
 	row5(r, t, "Hottest melt anywhere (peak, expected)", "", hi, T, c, 0);
 }
 
 char *rpt_limit_text(struct rpt *r, enum ow_check c, char *buf, size_t n)
 {
 	static const enum ow_dim dims[OW_CK_LIMITS] = {
-		OW_DIM_TEMPERATURE, OW_DIM_NONE, OW_DIM_PRESSURE,
-		OW_DIM_POWER, OW_DIM_TORQUE, OW_DIM_TEMPERATURE,
-		OW_DIM_MASS_FLOW, OW_DIM_MASS_FLOW, OW_DIM_NONE};
+	    OW_DIM_TEMPERATURE, OW_DIM_NONE,      OW_DIM_PRESSURE,
+	    OW_DIM_POWER,       OW_DIM_TORQUE,    OW_DIM_TEMPERATURE,
+	    OW_DIM_MASS_FLOW,   OW_DIM_MASS_FLOW, OW_DIM_NONE};
 	int at_least = c == OW_CK_MIN_MELT_TEMP || c == OW_CK_MIN_OUTPUT;
 	double v = ow_check_limit(&r->s->line.limits, c);
 	char q[64];
@@ -202,8 +206,7 @@ char *rpt_limit_text(struct rpt *r, enum ow_check c, char *buf, size_t n)
 	} else {
 		rpt_qty(r, q, sizeof q, dims[c], v, 4);
 	}
-	snprintf(buf, n, "%s %s %s", ow_check_text(c), at_least ? "≥" : "≤",
-		 q);
+	snprintf(buf, n, "%s %s %s", ow_check_text(c), at_least ? "≥" : "≤", q);
 	return buf;
 }
 
@@ -222,11 +225,12 @@ static void limits_sentence(struct rpt *r)
 		strncat(buf, n++ ? "; " : "", sizeof buf - strlen(buf) - 1);
 		strncat(buf, one, sizeof buf - strlen(buf) - 1);
 	}
-	strncat(buf, n ? ". Solid bed plugging, a starved feed and a point "
-			 "that did not converge are always unsafe."
-		       : "none set; only plugging, a starved feed and "
-			 "non-convergence count as unsafe.",
-		sizeof buf - strlen(buf) - 1);
+	strncat(buf,
+	        n ? ". Solid bed plugging, a starved feed and a point "
+	            "that did not converge are always unsafe."
+	          : "none set; only plugging, a starved feed and "
+	            "non-convergence count as unsafe.",
+	        sizeof buf - strlen(buf) - 1);
 	st.size_pt = 7.5;
 	rpt_para(r, buf, &st, 2.0);
 }
@@ -237,29 +241,34 @@ static const char *axis_words(const struct rpt *r, char *buf, size_t n)
 	char zn[48];
 
 	if (a->mode == OW_AXIS_SHIFT)
-		snprintf(buf, n, "The map's set-point axis moves every heated "
-			 "zone by the same amount; the table gives each "
-			 "zone's resulting range.");
+		snprintf(buf, n,
+		         "The map's set-point axis moves every heated "
+		         "zone by the same amount; the table gives each "
+		         "zone's resulting range.");
 	else if (a->mode == OW_AXIS_SET)
-		snprintf(buf, n, "The map's set-point axis sets zones %d to %d "
-			 "to one common value; the other zones keep their "
-			 "set-points.", a->zones_from + 1,
-			 r->s->line.n_zones);
+		snprintf(buf, n,
+		         "The map's set-point axis sets zones %d to %d "
+		         "to one common value; the other zones keep their "
+		         "set-points.",
+		         a->zones_from + 1, r->s->line.n_zones);
 	else
-		snprintf(buf, n, "The map's set-point axis varies %s only; the "
-			 "other zones keep their set-points.",
-			 rpt_zone_name(r, a->zone, zn, sizeof zn));
+		snprintf(buf, n,
+		         "The map's set-point axis varies %s only; the "
+		         "other zones keep their set-points.",
+		         rpt_zone_name(r, a->zone, zn, sizeof zn));
 	return buf;
 }
 
 static void window_table(struct rpt *r)
 {
-	struct rpt_table t = {5, {"Setting or expected result", "Minimum",
-				  "Maximum", "Unit", "Centre point"},
-			      {0.52, 0.12, 0.12, 0.08, 0.16},
-			      {OW_ALIGN_LEFT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT,
-			       OW_ALIGN_LEFT, OW_ALIGN_RIGHT},
-			      8.5, 0};
+	struct rpt_table t = {5,
+	                      {"Setting or expected result", "Minimum",
+	                       "Maximum", "Unit", "Centre point"},
+	                      {0.52, 0.12, 0.12, 0.08, 0.16},
+	                      {OW_ALIGN_LEFT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT,
+	                       OW_ALIGN_LEFT, OW_ALIGN_RIGHT},
+	                      8.5,
+	                      0};
 	struct rpt_style st = rpt_body();
 	char lo[32], hi[32], c[32], text[600], ax[300];
 
@@ -275,12 +284,12 @@ static void window_table(struct rpt *r)
 	t.first_bold = 0;
 	result_rows(r, &t);
 	rpt_table_end(r);
-	snprintf(text, sizeof text, "Every mapped point inside this window "
-		 "passes every limit (%.0f %% of the swept points do). Start "
-		 "at the centre point: of all points in the window it lies "
-		 "farthest from any point that fails. %s",
-		 100.0 * r->w->safe_fraction,
-		 axis_words(r, ax, sizeof ax));
+	snprintf(text, sizeof text,
+	         "Every mapped point inside this window "
+	         "passes every limit (%.0f %% of the swept points do). Start "
+	         "at the centre point: of all points in the window it lies "
+	         "farthest from any point that fails. %s",
+	         100.0 * r->w->safe_fraction, axis_words(r, ax, sizeof ax));
 	st.size_pt = 7.5;
 	rpt_para(r, text, &st, 2.0);
 	limits_sentence(r);
@@ -290,10 +299,12 @@ static void window_table(struct rpt *r)
 
 static void no_window(struct rpt *r)
 {
-	struct rpt_table t = {4, {"Limit", "Points failing", "Share", ""},
-			      {0.58, 0.16, 0.12, 0.14},
-			      {OW_ALIGN_LEFT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT,
-			       OW_ALIGN_LEFT}, 9.0, 0};
+	struct rpt_table t = {3,
+	                      {"Limit", "Points failing", "Share"},
+	                      {0.64, 0.18, 0.18},
+	                      {OW_ALIGN_LEFT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT},
+	                      9.0,
+	                      0};
 	struct rpt_style big = {12.0, 1, ow_rgb(0.55, 0.05, 0.05), 0.0};
 	struct rpt_style st = rpt_body();
 	enum ow_check order[OW_CK_COUNT];
@@ -302,42 +313,46 @@ static void no_window(struct rpt *r)
 
 	total = r->g->n_rpm * r->g->n_axis;
 	rpt_heading(r, "Recommended operating window", 120.0);
-	rpt_para(r, "No safe operating point exists in the swept range.",
-		 &big, 4.0);
-	snprintf(text, sizeof text, "None of the %d mapped points passes every "
-		 "limit, so this report recommends no settings. The limits "
-		 "that exclude the most points:", total);
+	rpt_para(r, "No safe operating point exists in the swept range.", &big,
+	         4.0);
+	snprintf(text, sizeof text,
+	         "None of the %d mapped points passes every "
+	         "limit, so this report recommends no settings. The limits "
+	         "that exclude the most points:",
+	         total);
 	rpt_para(r, text, &st, 4.0);
 	rpt_table_head(r, &t);
 	for (k = 0; k < n; k++) {
-		const char *cells[4] = {lim, cnt, pct, ""};
+		const char *cells[3] = {lim, cnt, pct};
 
 		rpt_limit_text(r, order[k], lim, sizeof lim);
 		snprintf(cnt, sizeof cnt, "%d", r->w->fail_count[order[k]]);
 		snprintf(pct, sizeof pct, "%.0f %%",
-			 100.0 * r->w->fail_count[order[k]] / total);
+		         100.0 * r->w->fail_count[order[k]] / total);
 		rpt_table_row(r, &t, cells, k == 0);
 	}
 	rpt_table_end(r);
 	st.size_pt = RPT_SMALL_PT;
-	rpt_para(r, "A point can fail several limits at once, so the shares "
-		 "add up to more than 100 %. To find a window: sweep other "
-		 "speeds or set-points, or change the die, the screw or the "
-		 "resin. Raise a limit only where the machine builder's "
-		 "ratings allow it.", &st, 4.0);
+	rpt_para(r,
+	         "A point can fail several limits at once, so the shares "
+	         "add up to more than 100 %. To find a window: sweep other "
+	         "speeds or set-points, or change the die, the screw or the "
+	         "resin. Raise a limit only where the machine builder's "
+	         "ratings allow it.",
+	         &st, 4.0);
 }
 
 /* ---- the current operating point ---------------------------------------- */
 
 /* The lattice point nearest (rpm, set) in units of the sweep ranges. */
 static const struct ow_grid_point *nearest(const struct rpt *r, double rpm,
-					   double set_K)
+                                           double set_K)
 {
 	const struct ow_grid *g = r->g;
 	const struct ow_grid_point *a = &g->pts[0];
 	const struct ow_grid_point *b = &g->pts[g->n_rpm * g->n_axis - 1];
-	double sr = fabs(b->rpm - a->rpm), ss = fabs(b->set_ref_K -
-						      a->set_ref_K);
+	double sr = fabs(b->rpm - a->rpm),
+	       ss = fabs(b->set_ref_K - a->set_ref_K);
 	double best = INFINITY;
 	const struct ow_grid_point *near = NULL;
 	int i;
@@ -355,8 +370,7 @@ static const struct ow_grid_point *nearest(const struct rpt *r, double rpm,
 	return near;
 }
 
-static void verdict_words(const struct ow_grid_point *p, char *buf,
-			  size_t n)
+static void verdict_words(const struct ow_grid_point *p, char *buf, size_t n)
 {
 	int c, k = 0;
 
@@ -369,7 +383,7 @@ static void verdict_words(const struct ow_grid_point *p, char *buf,
 		if (p->v.bits >> c & 1u) {
 			strncat(buf, k++ ? ", " : "", n - strlen(buf) - 1);
 			strncat(buf, ow_check_text((enum ow_check)c),
-				n - strlen(buf) - 1);
+			        n - strlen(buf) - 1);
 		}
 }
 
@@ -384,16 +398,17 @@ static void current_point(struct rpt *r)
 	if (!o->has_current || r->st != OW_OK)
 		return;
 	inside = !w->empty && o->current_rpm >= w->rpm_min - 1e-9 &&
-		 o->current_rpm <= w->rpm_max + 1e-9 &&
-		 o->current_set_K >= w->set_min_K - 1e-9 &&
-		 o->current_set_K <= w->set_max_K + 1e-9;
+	         o->current_rpm <= w->rpm_max + 1e-9 &&
+	         o->current_set_K >= w->set_min_K - 1e-9 &&
+	         o->current_set_K <= w->set_max_K + 1e-9;
 	verdict_words(nearest(r, o->current_rpm, o->current_set_K), verdict,
-		      sizeof verdict);
+	              sizeof verdict);
 	ow_report_format_bound(rpm, sizeof rpm, o->current_rpm);
 	rpt_qty(r, set, sizeof set, OW_DIM_TEMPERATURE, o->current_set_K, 4);
-	snprintf(text, sizeof text, "Current operating point: %s rpm with the "
-		 "map-axis zone at %s — %s the recommended window; %s.", rpm,
-		 set, inside ? "inside" : "outside", verdict);
+	snprintf(text, sizeof text,
+	         "Current operating point: %s rpm with the "
+	         "map-axis zone at %s — %s the recommended window; %s.",
+	         rpm, set, inside ? "inside" : "outside", verdict);
 	st.bold = 1;
 	rpt_para(r, text, &st, 4.0);
 }
@@ -419,7 +434,7 @@ static void window_map(struct rpt *r)
 	rpt_map_options(r, &mo);
 	if (r->st == OW_OK)
 		r->st = ow_maps_draw_window(r->cv, &box, r->s, r->g, r->w, &mo,
-					    r->d);
+		                            r->d);
 	r->y = box.y + box.h + 6.0;
 	rpt_check(r);
 }

@@ -18,9 +18,9 @@
 #include "ow_report.h"
 
 #define RPT_MAX_PAGES 64
-#define RPT_BODY_PT 9.0   /* body text */
-#define RPT_SMALL_PT 8.0  /* tables, captions */
-#define RPT_LINE 1.32     /* line height per point of font size */
+#define RPT_BODY_PT   9.0  /* body text */
+#define RPT_SMALL_PT  8.0  /* tables, captions */
+#define RPT_LINE      1.32 /* line height per point of font size */
 
 struct rpt {
 	const struct ow_study *s;
@@ -71,19 +71,19 @@ struct rpt_style rpt_body(void);
 
 /* Width of utf8 at size and weight. */
 double rpt_text_width(struct rpt *r, const char *utf8, double size_pt,
-		      int bold);
+                      int bold);
 
 /* Break utf8 into lines no wider than width: the lines go one after the
  * other into buf (each NUL-terminated), their starts into lines[];
  * returns the count (at most max). Breaks at spaces; a word wider than a
  * line is broken between characters. */
 int rpt_wrap(struct rpt *r, const char *utf8, double width, double size_pt,
-	     int bold, char *buf, size_t n, const char **lines, int max);
+             int bold, char *buf, size_t n, const char **lines, int max);
 
 /* A wrapped paragraph at the cursor, breaking pages between lines; space
  * after it: after_pt. */
 void rpt_para(struct rpt *r, const char *utf8, const struct rpt_style *st,
-	      double after_pt);
+              double after_pt);
 /* A bulleted paragraph. */
 void rpt_bullet(struct rpt *r, const char *utf8, const struct rpt_style *st);
 /* A section heading (kept with the next min_follow_pt of content). */
@@ -109,7 +109,7 @@ void rpt_table_head(struct rpt *r, const struct rpt_table *t);
 /* One row: t->n cells (NULL: empty); cells wrap inside their column.
  * shade: a light background (0 none). */
 void rpt_table_row(struct rpt *r, const struct rpt_table *t,
-		   const char *const *cells, int shade);
+                   const char *const *cells, int shade);
 /* Space after a table. */
 void rpt_table_end(struct rpt *r);
 
@@ -121,8 +121,8 @@ char *rpt_num(char *buf, size_t n, double v, int sig);
 char *rpt_fix(char *buf, size_t n, double v, int decimals);
 /* SI value of dim in the report's units: "63.5 mm" (sig digits), "" for
  * NAN. */
-char *rpt_qty(struct rpt *r, char *buf, size_t n, enum ow_dim dim,
-	      double si, int sig);
+char *rpt_qty(struct rpt *r, char *buf, size_t n, enum ow_dim dim, double si,
+              int sig);
 /* SI value of dim in the report's units as a number only. */
 double rpt_shown(const struct rpt *r, enum ow_dim dim, double si);
 const char *rpt_unit(const struct rpt *r, enum ow_dim dim);
@@ -130,15 +130,15 @@ const char *rpt_unit(const struct rpt *r, enum ow_dim dim);
 /* The source text of input key ("resin.melt_density"), or NULL; marks it
  * shown (shown[] has OW_MAX_SOURCES flags). */
 const char *rpt_source(const struct rpt *r, const char *key,
-		       unsigned char *shown);
+                       unsigned char *shown);
 
 /* ---- the sections ---- */
 
-void rpt_front_page(struct rpt *r);                   /* report_front.c */
-void rpt_map_pages(struct rpt *r);                    /* report_pages.c */
-void rpt_profile_page(struct rpt *r);                 /* report_pages.c */
-void rpt_inputs(struct rpt *r);                       /* report_inputs.c */
-void rpt_basis(struct rpt *r);                        /* report_basis.c */
+void rpt_front_page(struct rpt *r);   /* report_front.c */
+void rpt_map_pages(struct rpt *r);    /* report_pages.c */
+void rpt_profile_page(struct rpt *r); /* report_pages.c */
+void rpt_inputs(struct rpt *r);       /* report_inputs.c */
+void rpt_basis(struct rpt *r);        /* report_basis.c */
 
 /* The window-map options for the report's units and current point. */
 void rpt_map_options(const struct rpt *r, struct ow_maps_options *mo);

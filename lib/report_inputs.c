@@ -14,8 +14,12 @@
 
 /* A Quantity | Value | Source table. */
 static const struct rpt_table qvs = {
-	3, {"Quantity", "Value", "Source"}, {0.27, 0.19, 0.54},
-	{OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT}, RPT_SMALL_PT, 0};
+    3,
+    {"Quantity", "Value", "Source"},
+    {0.27, 0.19, 0.54},
+    {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT},
+    RPT_SMALL_PT,
+    0};
 
 struct inputs {
 	struct rpt *r;
@@ -24,7 +28,7 @@ struct inputs {
 
 /* A row: the value in the reader's units and the source of key. */
 static void qty_row(struct inputs *in, const char *what, const char *key,
-		    enum ow_dim dim, double si, int sig)
+                    enum ow_dim dim, double si, int sig)
 {
 	char val[96];
 	const char *src = rpt_source(in->r, key, in->shown);
@@ -35,7 +39,7 @@ static void qty_row(struct inputs *in, const char *what, const char *key,
 }
 
 static void text_row(struct inputs *in, const char *what, const char *val,
-		     const char *key)
+                     const char *key)
 {
 	const char *src = key ? rpt_source(in->r, key, in->shown) : NULL;
 	const char *cells[3] = {what, val, src ? src : ""};
@@ -49,42 +53,43 @@ static void files(struct rpt *r)
 	const struct ow_study *s = r->s;
 	char text[3 * OW_PATH_LEN + 200];
 
-	snprintf(text, sizeof text, "Study file: %s. Screw: %s. Resin: %s. "
-		 "CRC-32 of the input files, in reading order: %08lX (printed "
-		 "in every page's footer; a changed file gives another sum).",
-		 s->path, s->screw_path[0] ? s->screw_path : "in the study",
-		 s->resin_path[0] ? s->resin_path : "in the study",
-		 s->input_crc);
+	snprintf(text, sizeof text,
+	         "Study file: %s. Screw: %s. Resin: %s. "
+	         "CRC-32 of the input files, in reading order: %08lX (printed "
+	         "in every page's footer; a changed file gives another sum).",
+	         s->path, s->screw_path[0] ? s->screw_path : "in the study",
+	         s->resin_path[0] ? s->resin_path : "in the study",
+	         s->input_crc);
 	st.size_pt = RPT_SMALL_PT;
 	rpt_para(r, text, &st, 4.0);
 }
 
-/* ---- screw ---------------------------------------------------------------- */
+/* ---- screw ----------------------------------------------------------------
+ */
 
 static void screw_main(struct inputs *in)
 {
 	const struct ow_screw *sc = &in->r->s->screw;
 	char n[16], head[200];
 
-
 	snprintf(head, sizeof head, "Screw: %s", sc->name);
 	rpt_subheading(in->r, head, 60.0);
 	rpt_table_head(in->r, &qvs);
 	qty_row(in, "Barrel bore (diameter)", "screw.diameter", OW_DIM_LENGTH,
-		sc->diameter_m, 4);
+	        sc->diameter_m, 4);
 	qty_row(in, "Lead", "screw.lead", OW_DIM_LENGTH, sc->lead_m, 4);
 	snprintf(n, sizeof n, "%d", sc->flights);
 	text_row(in, "Flights", n, "screw.flights");
 	qty_row(in, "Flight land width", "screw.flight_width", OW_DIM_LENGTH,
-		sc->flight_width_m, 4);
+	        sc->flight_width_m, 4);
 	qty_row(in, "Radial flight clearance (new)", "screw.clearance",
-		OW_DIM_LENGTH, sc->clearance_m, 3);
+	        OW_DIM_LENGTH, sc->clearance_m, 3);
 	rpt_table_end(in->r);
 }
 
 /* Extra words of a mixer or barrier section. */
 static void section_note(struct rpt *r, const struct ow_section *x, char *buf,
-			 size_t n)
+                         size_t n)
 {
 	char a[48], b[48], c[48], e[48];
 
@@ -92,28 +97,34 @@ static void section_note(struct rpt *r, const struct ow_section *x, char *buf,
 	if (x->type == OW_SEC_MIXER) {
 		rpt_qty(r, a, sizeof a, OW_DIM_LENGTH, x->gap_m, 3);
 		snprintf(buf, n, "gap over the lands %s, %d lands", a,
-			 x->lands ? x->lands : 8);
+		         x->lands ? x->lands : 8);
 	} else if (x->type == OW_SEC_BARRIER) {
-		rpt_qty(r, a, sizeof a, OW_DIM_LENGTH, x->melt_depth_start_m, 3);
+		rpt_qty(r, a, sizeof a, OW_DIM_LENGTH, x->melt_depth_start_m,
+		        3);
 		rpt_qty(r, b, sizeof b, OW_DIM_LENGTH, x->melt_depth_end_m, 3);
 		rpt_qty(r, c, sizeof c, OW_DIM_LENGTH, x->barrier_clearance_m,
-			3);
+		        3);
 		snprintf(e, sizeof e, "%.0f–%.0f %%",
-			 100.0 * x->melt_share_start,
-			 100.0 * x->melt_share_end);
-		snprintf(buf, n, "melt channel %s to %s deep, %s of the width; "
-			 "barrier clearance %s", a, b, e, c);
+		         100.0 * x->melt_share_start,
+		         100.0 * x->melt_share_end);
+		snprintf(buf, n,
+		         "melt channel %s to %s deep, %s of the width; "
+		         "barrier clearance %s",
+		         a, b, e, c);
 	}
 }
 
 static void sections(struct inputs *in)
 {
-	struct rpt_table t = {7, {"#", "Type", "From (D)", "To (D)",
-				  "Depth at start", "Depth at end", "Notes"},
-			      {0.05, 0.12, 0.10, 0.10, 0.14, 0.14, 0.35},
-			      {OW_ALIGN_RIGHT, OW_ALIGN_LEFT, OW_ALIGN_RIGHT,
-			       OW_ALIGN_RIGHT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT,
-			       OW_ALIGN_LEFT}, RPT_SMALL_PT, 0};
+	struct rpt_table t = {7,
+	                      {"#", "Type", "From (D)", "To (D)",
+	                       "Depth at start", "Depth at end", "Notes"},
+	                      {0.05, 0.12, 0.10, 0.10, 0.14, 0.14, 0.35},
+	                      {OW_ALIGN_RIGHT, OW_ALIGN_LEFT, OW_ALIGN_RIGHT,
+	                       OW_ALIGN_RIGHT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT,
+	                       OW_ALIGN_LEFT},
+	                      RPT_SMALL_PT,
+	                      0};
 	struct rpt *r = in->r;
 	const struct ow_screw *sc = &r->s->screw;
 	char k[8], a[32], b[32], c[48], e[48], note[320];
@@ -123,18 +134,22 @@ static void sections(struct inputs *in)
 	for (i = 0; i < sc->n_sections; i++) {
 		const struct ow_section *x = &sc->sections[i];
 		int mixer = x->type == OW_SEC_MIXER;
-		const char *cells[7] = {k, ow_section_name(x->type), a, b,
-					mixer ? "" : c, mixer ? "" : e, note};
+		const char *cells[7] = {
+		    k,   ow_section_name(x->type), a,
+		    b,   mixer ? "" : c,           mixer ? "" : e,
+		    note};
 
 		snprintf(k, sizeof k, "%d", i + 1);
 		rpt_num(a, sizeof a, x->start_m / sc->diameter_m, 4);
 		rpt_num(b, sizeof b, x->end_m / sc->diameter_m, 4);
 		rpt_qty(r, c, sizeof c, OW_DIM_LENGTH,
-			x->type == OW_SEC_BARRIER ? x->solids_depth_start_m
-						  : x->depth_start_m, 4);
+		        x->type == OW_SEC_BARRIER ? x->solids_depth_start_m
+		                                  : x->depth_start_m,
+		        4);
 		rpt_qty(r, e, sizeof e, OW_DIM_LENGTH,
-			x->type == OW_SEC_BARRIER ? x->solids_depth_end_m
-						  : x->depth_m, 4);
+		        x->type == OW_SEC_BARRIER ? x->solids_depth_end_m
+		                                  : x->depth_m,
+		        4);
 		section_note(r, x, note, sizeof note);
 		rpt_table_row(r, &t, cells, 0);
 	}
@@ -143,11 +158,13 @@ static void sections(struct inputs *in)
 
 static void wear(struct inputs *in)
 {
-	struct rpt_table t = {3, {"Worn from (D)", "To (D)",
-				  "Radial clearance there"},
-			      {0.2, 0.2, 0.6},
-			      {OW_ALIGN_RIGHT, OW_ALIGN_RIGHT, OW_ALIGN_LEFT},
-			      RPT_SMALL_PT, 0};
+	struct rpt_table t = {
+	    3,
+	    {"Worn from (D)", "To (D)", "Radial clearance there"},
+	    {0.2, 0.2, 0.6},
+	    {OW_ALIGN_RIGHT, OW_ALIGN_RIGHT, OW_ALIGN_LEFT},
+	    RPT_SMALL_PT,
+	    0};
 	const struct ow_screw *sc = &in->r->s->screw;
 	char a[32], b[32], c[48];
 	int i;
@@ -161,16 +178,19 @@ static void wear(struct inputs *in)
 		rpt_num(a, sizeof a, sc->wear[i].from_m / sc->diameter_m, 4);
 		rpt_num(b, sizeof b, sc->wear[i].to_m / sc->diameter_m, 4);
 		rpt_qty(in->r, c, sizeof c, OW_DIM_LENGTH,
-			sc->wear[i].clearance_m, 3);
+		        sc->wear[i].clearance_m, 3);
 		rpt_table_row(in->r, &t, cells, 0);
 	}
 	rpt_table_end(in->r);
 }
 
 /* A Quantity | Value table for derived data. */
-static const struct rpt_table two = {
-	2, {"Quantity", "Value"}, {0.46, 0.54},
-	{OW_ALIGN_LEFT, OW_ALIGN_LEFT}, RPT_SMALL_PT, 0};
+static const struct rpt_table two = {2,
+                                     {"Quantity", "Value"},
+                                     {0.46, 0.54},
+                                     {OW_ALIGN_LEFT, OW_ALIGN_LEFT},
+                                     RPT_SMALL_PT,
+                                     0};
 
 static void two_row(struct rpt *r, const char *what, const char *val)
 {
@@ -192,37 +212,41 @@ static void derived(struct inputs *in)
 	rpt_table_head(r, &two);
 	rpt_qty(r, len, sizeof len, OW_DIM_LENGTH, ow_screw_length(sc), 4);
 	snprintf(v, sizeof v, "%s (L/D %s)", len,
-		 rpt_num(ld, sizeof ld, ow_screw_ld(sc), 4));
+	         rpt_num(ld, sizeof ld, ow_screw_ld(sc), 4));
 	two_row(r, "Length", v);
-	rpt_num(v, sizeof v, ow_screw_helix(sc, sc->diameter_m) * 180.0 /
-				     OW_PI, 4);
+	rpt_num(v, sizeof v, ow_screw_helix(sc, sc->diameter_m) * 180.0 / OW_PI,
+	        4);
 	strcat(v, "°");
 	two_row(r, "Helix angle at the bore", v);
 	two_row(r, "Channel width at the bore",
-		 rpt_qty(r, v, sizeof v, OW_DIM_LENGTH,
-			 ow_screw_width(sc, sc->diameter_m), 4));
+	        rpt_qty(r, v, sizeof v, OW_DIM_LENGTH,
+	                ow_screw_width(sc, sc->diameter_m), 4));
 	two_row(r, "Compression ratio (depths)",
-		 rpt_num(v, sizeof v, ow_screw_compression_depth(sc), 3));
+	        rpt_num(v, sizeof v, ow_screw_compression_depth(sc), 3));
 	two_row(r, "Compression ratio (cross-sections)",
-		 rpt_num(v, sizeof v, ow_screw_compression_area(sc), 3));
+	        rpt_num(v, sizeof v, ow_screw_compression_area(sc), 3));
 	rpt_table_end(r);
 	n = ow_advise_screw(sc, warn, OW_MAX_WARNINGS);
 	st.size_pt = RPT_SMALL_PT;
-	rpt_para(r, n ? "Rule-of-thumb warnings (common practice, not "
-		 "published limits):" : "No rule-of-thumb warnings about "
-		 "this screw (common practice checks of compression, feed "
-		 "depth and clearance).", &st, 2.0);
+	rpt_para(r,
+	         n ? "Rule-of-thumb warnings (common practice, not "
+	             "published limits):"
+	           : "No rule-of-thumb warnings about "
+	             "this screw (common practice checks of compression, feed "
+	             "depth and clearance).",
+	         &st, 2.0);
 	for (k = 0; k < n; k++)
 		rpt_bullet(r, warn[k].text, &st);
 }
 
-/* ---- resin ---------------------------------------------------------------- */
+/* ---- resin ----------------------------------------------------------------
+ */
 
 static const char *model_name(enum ow_visc_model m)
 {
 	return m == OW_VISC_POWER_LAW ? "power law"
 	       : m == OW_VISC_CROSS   ? "Cross"
-				      : "Carreau-Yasuda";
+	                              : "Carreau-Yasuda";
 }
 
 static void viscosity(struct inputs *in)
@@ -233,36 +257,36 @@ static void viscosity(struct inputs *in)
 	text_row(in, "Viscosity model", model_name(v->model), NULL);
 	if (v->model == OW_VISC_POWER_LAW)
 		qty_row(in, "Consistency", "resin.viscosity.consistency",
-			OW_DIM_CONSISTENCY, v->consistency_Pa_sn, 4);
+		        OW_DIM_CONSISTENCY, v->consistency_Pa_sn, 4);
 	else
 		qty_row(in, "Zero-shear viscosity",
-			"resin.viscosity.zero_shear", OW_DIM_VISCOSITY,
-			v->zero_shear_Pa_s, 4);
+		        "resin.viscosity.zero_shear", OW_DIM_VISCOSITY,
+		        v->zero_shear_Pa_s, 4);
 	if (v->model == OW_VISC_CROSS)
 		qty_row(in, "Critical shear stress",
-			"resin.viscosity.critical_stress", OW_DIM_PRESSURE,
-			v->critical_stress_Pa, 4);
+		        "resin.viscosity.critical_stress", OW_DIM_PRESSURE,
+		        v->critical_stress_Pa, 4);
 	if (v->model == OW_VISC_CARREAU_YASUDA)
 		qty_row(in, "Time constant", "resin.viscosity.time_constant",
-			OW_DIM_TIME, v->time_constant_s, 4);
+		        OW_DIM_TIME, v->time_constant_s, 4);
 	qty_row(in, "Power-law index", "resin.viscosity.index", OW_DIM_NONE,
-		v->index, 4);
+	        v->index, 4);
 	if (v->model == OW_VISC_CARREAU_YASUDA)
 		qty_row(in, "Yasuda parameter a", "resin.viscosity.a",
-			OW_DIM_NONE, v->a, 4);
+		        OW_DIM_NONE, v->a, 4);
 	qty_row(in, "Reference temperature",
-		"resin.viscosity.reference_temperature", OW_DIM_TEMPERATURE,
-		v->ref_temp_K, 4);
+	        "resin.viscosity.reference_temperature", OW_DIM_TEMPERATURE,
+	        v->ref_temp_K, 4);
 	snprintf(key, sizeof key, "resin.viscosity.shift.%s",
-		 v->shift == OW_SHIFT_ARRHENIUS ? "activation_energy" : "c1");
+	         v->shift == OW_SHIFT_ARRHENIUS ? "activation_energy" : "c1");
 	if (v->shift == OW_SHIFT_ARRHENIUS) {
 		qty_row(in, "Shift: Arrhenius flow activation energy", key,
-			OW_DIM_MOLAR_ENERGY, v->activation_J_mol, 4);
+		        OW_DIM_MOLAR_ENERGY, v->activation_J_mol, 4);
 		return;
 	}
 	qty_row(in, "Shift: WLF C1", key, OW_DIM_NONE, v->wlf_c1, 4);
 	qty_row(in, "Shift: WLF C2", "resin.viscosity.shift.c2",
-		OW_DIM_TEMP_DIFF, v->wlf_c2_K, 4);
+	        OW_DIM_TEMP_DIFF, v->wlf_c2_K, 4);
 }
 
 /* Heat of fusion in kJ/kg or BTU/lb (the display unit of specific energy,
@@ -273,11 +297,10 @@ static void fusion_row(struct inputs *in, double J_kg)
 	const char *src = rpt_source(in->r, "resin.heat_of_fusion", in->shown);
 	int us = in->r->sys == OW_SYS_US;
 	char val[64];
-	const char *cells[3] = {"Heat of fusion", val,
-				src ? src : "not given"};
+	const char *cells[3] = {"Heat of fusion", val, src ? src : "not given"};
 
-	rpt_num(val, sizeof val, us ? J_kg * 0.45359237 / 1055.05585262
-				    : J_kg * 1e-3, 3);
+	rpt_num(val, sizeof val,
+	        us ? J_kg * 0.45359237 / 1055.05585262 : J_kg * 1e-3, 3);
 	strcat(val, us ? " BTU/lb" : " kJ/kg");
 	rpt_table_row(in->r, &qvs, cells, 0);
 }
@@ -292,37 +315,41 @@ static void resin(struct inputs *in)
 	rpt_subheading(in->r, head, 60.0);
 	rpt_table_head(in->r, &qvs);
 	qty_row(in, "Solid density", "resin.solid_density", OW_DIM_DENSITY,
-		m->solid_density_kg_m3, 4);
+	        m->solid_density_kg_m3, 4);
 	qty_row(in, "Bulk density (hopper)", "resin.bulk_density",
-		OW_DIM_DENSITY, m->bulk_density_kg_m3, 4);
+	        OW_DIM_DENSITY, m->bulk_density_kg_m3, 4);
 	qty_row(in, "Melt density", "resin.melt_density", OW_DIM_DENSITY,
-		m->melt_density_kg_m3, 4);
+	        m->melt_density_kg_m3, 4);
 	qty_row(in, "Heat capacity, solid", "resin.solid_heat_capacity",
-		OW_DIM_SPECIFIC_HEAT, m->solid_cp_J_kgK, 3);
+	        OW_DIM_SPECIFIC_HEAT, m->solid_cp_J_kgK, 3);
 	qty_row(in, "Heat capacity, melt", "resin.melt_heat_capacity",
-		OW_DIM_SPECIFIC_HEAT, m->melt_cp_J_kgK, 3);
+	        OW_DIM_SPECIFIC_HEAT, m->melt_cp_J_kgK, 3);
 	qty_row(in, "Thermal conductivity, solid", "resin.solid_conductivity",
-		OW_DIM_CONDUCTIVITY, m->solid_k_W_mK, 3);
+	        OW_DIM_CONDUCTIVITY, m->solid_k_W_mK, 3);
 	qty_row(in, "Thermal conductivity, melt", "resin.melt_conductivity",
-		OW_DIM_CONDUCTIVITY, m->melt_k_W_mK, 3);
-	qty_row(in, "Melting point", "resin.melting_point",
-		OW_DIM_TEMPERATURE, m->melt_temp_K, 4);
+	        OW_DIM_CONDUCTIVITY, m->melt_k_W_mK, 3);
+	qty_row(in, "Melting point", "resin.melting_point", OW_DIM_TEMPERATURE,
+	        m->melt_temp_K, 4);
 	fusion_row(in, m->fusion_J_kg);
 	qty_row(in, "Friction on the barrel", "resin.friction_barrel",
-		OW_DIM_NONE, m->friction_barrel, 3);
+	        OW_DIM_NONE, m->friction_barrel, 3);
 	qty_row(in, "Friction on the screw", "resin.friction_screw",
-		OW_DIM_NONE, m->friction_screw, 3);
+	        OW_DIM_NONE, m->friction_screw, 3);
 	viscosity(in);
 	rpt_table_end(in->r);
 }
 
-/* ---- the line ------------------------------------------------------------- */
+/* ---- the line -------------------------------------------------------------
+ */
 
 static void barrel(struct inputs *in)
 {
-	struct rpt_table t = {2, {"Barrel zone", "Set-point in the study"},
-			      {0.5, 0.5}, {OW_ALIGN_LEFT, OW_ALIGN_LEFT},
-			      RPT_SMALL_PT, 0};
+	struct rpt_table t = {2,
+	                      {"Barrel zone", "Set-point in the study"},
+	                      {0.5, 0.5},
+	                      {OW_ALIGN_LEFT, OW_ALIGN_LEFT},
+	                      RPT_SMALL_PT,
+	                      0};
 	struct rpt *r = in->r;
 	const struct ow_line *l = &r->s->line;
 	char zn[48], v[48];
@@ -335,26 +362,29 @@ static void barrel(struct inputs *in)
 
 		rpt_zone_name(r, z, zn, sizeof zn);
 		zn[0] = 'Z';
-		rpt_qty(r, v, sizeof v, OW_DIM_TEMPERATURE, l->zones[z].set_K, 4);
+		rpt_qty(r, v, sizeof v, OW_DIM_TEMPERATURE, l->zones[z].set_K,
+		        4);
 		rpt_table_row(r, &t, cells, 0);
 	}
 	rpt_table_end(r);
 	rpt_table_head(r, &qvs);
 	qty_row(in, "Feed temperature", "feed.temperature", OW_DIM_TEMPERATURE,
-		l->feed_temp_K, 4);
+	        l->feed_temp_K, 4);
 	if (l->root_adiabatic)
-		text_row(in, "Screw root", "adiabatic (no heat through the "
-			 "root)", NULL);
+		text_row(in, "Screw root",
+		         "adiabatic (no heat through the "
+		         "root)",
+		         NULL);
 	else
 		qty_row(in, "Screw root temperature", "barrel.screw_root",
-			OW_DIM_TEMPERATURE, l->root_temp_K, 4);
+		        OW_DIM_TEMPERATURE, l->root_temp_K, 4);
 	rpt_table_end(r);
 }
 
 static void die(struct inputs *in)
 {
 	static const char *names[] = {"circular", "slit", "annular",
-				      "measured operating point"};
+	                              "measured operating point"};
 	const struct ow_die *d = &in->r->s->line.die;
 
 	rpt_subheading(in->r, "Die and screen pack", 60.0);
@@ -362,31 +392,31 @@ static void die(struct inputs *in)
 	text_row(in, "Die", names[d->type], NULL);
 	if (d->type == OW_DIE_CIRCLE)
 		qty_row(in, "Diameter", "die.diameter", OW_DIM_LENGTH,
-			d->diameter_m, 4);
+		        d->diameter_m, 4);
 	if (d->type == OW_DIE_SLIT) {
 		qty_row(in, "Width", "die.width", OW_DIM_LENGTH, d->width_m, 4);
 		qty_row(in, "Gap", "die.gap", OW_DIM_LENGTH, d->gap_m, 4);
 	}
 	if (d->type == OW_DIE_ANNULUS) {
 		qty_row(in, "Outer diameter", "die.outer_diameter",
-			OW_DIM_LENGTH, d->outer_diameter_m, 5);
+		        OW_DIM_LENGTH, d->outer_diameter_m, 5);
 		qty_row(in, "Inner diameter", "die.inner_diameter",
-			OW_DIM_LENGTH, d->inner_diameter_m, 5);
+		        OW_DIM_LENGTH, d->inner_diameter_m, 5);
 	}
 	if (d->type == OW_DIE_MEASURED) {
 		qty_row(in, "Measured pressure", "die.pressure",
-			OW_DIM_PRESSURE, d->pressure_Pa, 4);
+		        OW_DIM_PRESSURE, d->pressure_Pa, 4);
 		qty_row(in, "at throughput", "die.output", OW_DIM_MASS_FLOW,
-			d->output_kg_s, 4);
+		        d->output_kg_s, 4);
 		qty_row(in, "and melt temperature", "die.temperature",
-			OW_DIM_TEMPERATURE, d->temp_K, 4);
+		        OW_DIM_TEMPERATURE, d->temp_K, 4);
 	} else {
 		qty_row(in, "Land length", "die.length", OW_DIM_LENGTH,
-			d->length_m, 4);
+		        d->length_m, 4);
 	}
 	qty_row(in, "Screen pack and adapter pressure drop",
-		"screen_pack.pressure_drop", OW_DIM_PRESSURE,
-		in->r->s->line.screen_pressure_Pa, 4);
+	        "screen_pack.pressure_drop", OW_DIM_PRESSURE,
+	        in->r->s->line.screen_pressure_Pa, 4);
 	rpt_table_end(in->r);
 }
 
@@ -400,18 +430,20 @@ static void limits(struct rpt *r)
 	st.size_pt = RPT_SMALL_PT;
 	for (c = 0; c < OW_CK_COUNT; c++)
 		if (ow_check_active(&r->s->line.limits, (enum ow_check)c))
-			rpt_bullet(r, rpt_limit_text(r, (enum ow_check)c, text,
-						     sizeof text), &st);
+			rpt_bullet(r,
+			           rpt_limit_text(r, (enum ow_check)c, text,
+			                          sizeof text),
+			           &st);
 }
 
 static void sweep(struct rpt *r)
 {
 	static const char *modes[] = {"shift of every heated zone",
-				      "common set-point of zones",
-				      "set-point of one zone"};
+	                              "common set-point of zones",
+	                              "set-point of one zone"};
 	const struct ow_axes *a = &r->s->line.axes;
-	enum ow_dim dim = a->mode == OW_AXIS_SHIFT ? OW_DIM_TEMP_DIFF
-						    : OW_DIM_TEMPERATURE;
+	enum ow_dim dim =
+	    a->mode == OW_AXIS_SHIFT ? OW_DIM_TEMP_DIFF : OW_DIM_TEMPERATURE;
 	struct rpt_style st = rpt_body();
 	char lo[48], hi[48], r0[32], r1[32], fine[120], text[700];
 
@@ -421,15 +453,19 @@ static void sweep(struct rpt *r)
 	ow_report_format_bound(r0, sizeof r0, a->rpm_from);
 	ow_report_format_bound(r1, sizeof r1, a->rpm_to);
 	if (r->g->stride > 1)
-		snprintf(fine, sizeof fine, ", refined %d times finer where "
-			 "a limit's boundary crosses a cell", r->g->stride);
+		snprintf(fine, sizeof fine,
+		         ", refined %d times finer where "
+		         "a limit's boundary crosses a cell",
+		         r->g->stride);
 	else
 		fine[0] = '\0';
-	snprintf(text, sizeof text, "Screw speed %s to %s rpm; barrel axis: "
-		 "%s, %s to %s. Lattice of %d speeds × %d set-points%s; %d "
-		 "points were solved, the others lie in cells whose corners "
-		 "all gave the same verdict.", r0, r1, modes[a->mode], lo, hi,
-		 r->g->n_rpm, r->g->n_axis, fine, r->g->solves);
+	snprintf(text, sizeof text,
+	         "Screw speed %s to %s rpm; barrel axis: "
+	         "%s, %s to %s. Lattice of %d speeds × %d set-points%s; %d "
+	         "points were solved, the others lie in cells whose corners "
+	         "all gave the same verdict.",
+	         r0, r1, modes[a->mode], lo, hi, r->g->n_rpm, r->g->n_axis,
+	         fine, r->g->solves);
 	st.size_pt = RPT_SMALL_PT;
 	rpt_para(r, text, &st, 4.0);
 }
@@ -437,22 +473,24 @@ static void sweep(struct rpt *r)
 /* Every source not yet shown beside its value. */
 static void other_sources(struct inputs *in)
 {
-	struct rpt_table t = {3, {"Input", "As written", "Source"},
-			      {0.27, 0.19, 0.54},
-			      {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT},
-			      RPT_SMALL_PT, 0};
+	struct rpt_table t = {3,
+	                      {"Input", "As written", "Source"},
+	                      {0.27, 0.19, 0.54},
+	                      {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT},
+	                      RPT_SMALL_PT,
+	                      0};
 	const struct ow_study *s = in->r->s;
 	int k, head = 0;
 
 	for (k = 0; k < s->n_sources; k++) {
 		const char *cells[3] = {s->sources[k].key, s->sources[k].value,
-					s->sources[k].text};
+		                        s->sources[k].text};
 
 		if (in->shown[k])
 			continue;
 		if (!head++) {
 			rpt_subheading(in->r, "Other inputs with a source",
-				       40.0);
+			               40.0);
 			rpt_table_head(in->r, &t);
 		}
 		rpt_table_row(in->r, &t, cells, 0);

@@ -16,21 +16,24 @@ static const struct {
 	const char *says;
 	int check; /* -1: none */
 } captions[OW_MAP_COUNT] = {
-	[OW_MAP_PEAK_TEMP] = {"hottest melt anywhere along the screw, across "
-			      "the channel depth and in the melt film: where "
-			      "the resin degrades first.", OW_CK_PEAK_TEMP},
-	[OW_MAP_UNMELT] = {"share of the resin still solid at the screw tip. "
-			   "Unmelted pellets reach the die and show as "
-			   "defects.", OW_CK_UNMELT},
-	[OW_MAP_PRESSURE] = {"highest pressure anywhere on the screw (it can "
-			     "peak upstream of the tip). Keep it well below "
-			     "the barrel's rupture-disc rating.",
-			     OW_CK_PRESSURE},
-	[OW_MAP_OUTPUT] = {"throughput at which the pressure the screw builds "
-			   "equals what the die and the screen pack need.",
-			   -1},
-	[OW_MAP_SEC] = {"drive energy put into each unit "
-			"mass of resin (drive power over throughput).", -1},
+    [OW_MAP_PEAK_TEMP] = {"Hottest melt anywhere along the screw, across "
+                          "the channel depth and in the melt film: where "
+                          "the resin degrades first.",
+                          OW_CK_PEAK_TEMP},
+    [OW_MAP_UNMELT] = {"Share of the resin still solid at the screw tip. "
+                       "Unmelted pellets reach the die and show as "
+                       "defects.",
+                       OW_CK_UNMELT},
+    [OW_MAP_PRESSURE] = {"Highest pressure anywhere on the screw (it can "
+                         "peak upstream of the tip). Keep it well below "
+                         "the barrel's rupture-disc rating.",
+                         OW_CK_PRESSURE},
+    [OW_MAP_OUTPUT] = {"Throughput at which the pressure the screw builds "
+                       "equals what the die and the screen pack need.",
+                       -1},
+    [OW_MAP_SEC] = {"Drive energy put into each unit "
+                    "mass of resin (drive power over throughput).",
+                    -1},
 };
 
 static void caption(struct rpt *r, enum ow_map_figure f)
@@ -39,8 +42,7 @@ static void caption(struct rpt *r, enum ow_map_figure f)
 	char text[600], lim[200];
 	int c = captions[f].check;
 
-	snprintf(text, sizeof text, "%s: %s", ow_maps_figure_title(f),
-		 captions[f].says);
+	snprintf(text, sizeof text, "%s", captions[f].says);
 	if (c >= 0 && ow_check_active(&r->s->line.limits, (enum ow_check)c)) {
 		rpt_limit_text(r, (enum ow_check)c, lim, sizeof lim);
 		strncat(text, " Limit: ", sizeof text - strlen(text) - 1);
@@ -64,8 +66,8 @@ static void one_map(struct rpt *r, enum ow_map_figure f, double h)
 	box.x = r->x0 + (cw - box.w) / 2.0;
 	box.y = r->y;
 	rpt_map_options(r, &mo);
-	r->st = ow_maps_draw_figure(r->cv, &box, f, r->s, r->g, r->w, &mo,
-				    r->d);
+	r->st =
+	    ow_maps_draw_figure(r->cv, &box, f, r->s, r->g, r->w, &mo, r->d);
 	r->y += h + 4.0;
 	rpt_check(r);
 	caption(r, f);
@@ -97,8 +99,9 @@ static void centre_words(struct rpt *r, char *buf, size_t n)
 	ow_report_format_bound(rpm, sizeof rpm, r->w->centre.rpm);
 	rpt_qty(r, set, sizeof set, OW_DIM_TEMPERATURE, r->w->centre_set_K, 4);
 	snprintf(buf, n, "centre: %s rpm, %s at %s", rpm,
-		 rpt_zone_name(r, ow_line_reference_zone(&r->s->line), zn,
-			       sizeof zn), set);
+	         rpt_zone_name(r, ow_line_reference_zone(&r->s->line), zn,
+	                       sizeof zn),
+	         set);
 }
 
 void rpt_profile_page(struct rpt *r)
@@ -112,20 +115,24 @@ void rpt_profile_page(struct rpt *r)
 		return;
 	if (r->w->empty || !r->o->profile || r->o->n_profile < 2) {
 		rpt_heading(r, "Along the screw", 40.0);
-		rpt_para(r, r->w->empty ? "No profile: the window is empty, so "
-			 "there is no centre point to show."
-			 : "No profile was computed for this report.", &st,
-			 4.0);
+		rpt_para(r,
+		         r->w->empty
+		             ? "No profile: the window is empty, so "
+		               "there is no centre point to show."
+		             : "No profile was computed for this report.",
+		         &st, 4.0);
 		return;
 	}
 	rpt_new_page(r);
 	rpt_heading(r, "Along the screw at the centre point", 400.0);
 	centre_words(r, sub, sizeof sub);
-	snprintf(text, sizeof text, "Computed at the window's %s. From the "
-		 "hopper (0 D) to the screw tip: pressure, bulk and peak melt "
-		 "temperature, solid bed ratio (width of the solid bed over "
-		 "the channel width) and unmelted fraction; the screw's "
-		 "sections are drawn under the axis.", sub);
+	snprintf(text, sizeof text,
+	         "Computed at the window's %s. From the "
+	         "hopper (0 D) to the screw tip: pressure, bulk and peak melt "
+	         "temperature, solid bed ratio (width of the solid bed over "
+	         "the channel width) and unmelted fraction; the screw's "
+	         "sections are drawn under the axis.",
+	         sub);
 	rpt_para(r, text, &st, 6.0);
 	box.x = r->x0;
 	box.y = r->y;
@@ -133,7 +140,7 @@ void rpt_profile_page(struct rpt *r)
 	box.h = fmin(r->y1 - r->y, box.w * 1.25);
 	rpt_map_options(r, &mo);
 	r->st = ow_maps_draw_profile(r->cv, &box, r->s, r->o->profile,
-				     r->o->n_profile, sub, &mo, r->d);
+	                             r->o->n_profile, sub, &mo, r->d);
 	r->y = box.y + box.h;
 	rpt_check(r);
 }

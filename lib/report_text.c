@@ -17,8 +17,7 @@ struct rpt_style rpt_body(void)
 	return s;
 }
 
-double rpt_text_width(struct rpt *r, const char *utf8, double size_pt,
-		      int bold)
+double rpt_text_width(struct rpt *r, const char *utf8, double size_pt, int bold)
 {
 	if (!r->cv)
 		return 0.0;
@@ -41,7 +40,7 @@ static size_t char_len(const char *s)
 /* Longest prefix of word (len bytes) that fits width; at least one
  * character. */
 static size_t fit_prefix(struct rpt *r, const char *word, size_t len,
-			 double width, double size, int bold, char *tmp)
+                         double width, double size, int bold, char *tmp)
 {
 	size_t k = 0, next;
 
@@ -95,7 +94,7 @@ static void wrap_put(struct wrap *w, const char *text, size_t len)
 
 /* Would the current line plus word still fit? */
 static int fits(struct rpt *r, struct wrap *w, const char *word, size_t len,
-		double width, double size, int bold)
+                double width, double size, int bold)
 {
 	char tmp[1024];
 	int k;
@@ -109,7 +108,7 @@ static int fits(struct rpt *r, struct wrap *w, const char *word, size_t len,
 
 /* Width of the first len bytes of word. */
 static double span_width(struct rpt *r, const char *word, size_t len,
-			 double size, int bold, char *tmp)
+                         double size, int bold, char *tmp)
 {
 	memcpy(tmp, word, len);
 	tmp[len] = '\0';
@@ -117,7 +116,7 @@ static double span_width(struct rpt *r, const char *word, size_t len,
 }
 
 static void wrap_word(struct rpt *r, struct wrap *w, const char *word,
-		      size_t len, double width, double size, int bold)
+                      size_t len, double width, double size, int bold)
 {
 	char tmp[1024];
 	size_t k;
@@ -140,7 +139,7 @@ static void wrap_word(struct rpt *r, struct wrap *w, const char *word,
 }
 
 int rpt_wrap(struct rpt *r, const char *utf8, double width, double size_pt,
-	     int bold, char *buf, size_t n, const char **lines, int max)
+             int bold, char *buf, size_t n, const char **lines, int max)
 {
 	struct wrap w = {buf, n, 0, lines, max, 0, NULL};
 	const char *p = utf8 ? utf8 : "";
@@ -168,17 +167,17 @@ int rpt_wrap(struct rpt *r, const char *utf8, double width, double size_pt,
 }
 
 static void draw_line(struct rpt *r, double x, double y, const char *text,
-		      const struct rpt_style *st)
+                      const struct rpt_style *st)
 {
 	ow_canvas_set_colour(r->cv, st->colour);
 	ow_canvas_set_font(r->cv, st->size_pt, st->bold);
 	ow_canvas_text(r->cv, x, y, text, OW_ALIGN_LEFT, OW_VALIGN_BASELINE,
-		       0.0);
+	               0.0);
 }
 
 /* Lines of a wrapped text at x, breaking pages between lines. */
 static void flow(struct rpt *r, const char *utf8, double x, double width,
-		 const struct rpt_style *st)
+                 const struct rpt_style *st)
 {
 	char buf[4096];
 	const char *lines[96];
@@ -188,7 +187,7 @@ static void flow(struct rpt *r, const char *utf8, double x, double width,
 	if (r->st != OW_OK)
 		return;
 	n = rpt_wrap(r, utf8, width, st->size_pt, st->bold, buf, sizeof buf,
-		     lines, 96);
+	             lines, 96);
 	for (k = 0; k < n && r->st == OW_OK; k++) {
 		rpt_need(r, lh);
 		draw_line(r, x, r->y + st->size_pt, lines[k], st);
@@ -197,7 +196,7 @@ static void flow(struct rpt *r, const char *utf8, double x, double width,
 }
 
 void rpt_para(struct rpt *r, const char *utf8, const struct rpt_style *st,
-	      double after_pt)
+              double after_pt)
 {
 	double x = r->x0 + st->indent_pt;
 
@@ -272,7 +271,7 @@ static double col_x(const struct rpt *r, const struct rpt_table *t, int c)
 
 /* Draw wrapped lines of cell c in a row starting at y. */
 static void cell_draw(struct rpt *r, const struct rpt_table *t, int c,
-		      const struct cell_lines *cl, double y, int bold)
+                      const struct cell_lines *cl, double y, int bold)
 {
 	double w = t->frac[c] * (r->x1 - r->x0), x = col_x(r, t, c);
 	double lh = t->size_pt * RPT_LINE;
@@ -288,14 +287,14 @@ static void cell_draw(struct rpt *r, const struct rpt_table *t, int c,
 		x += CELL_PAD;
 	for (k = 0; k < cl->n; k++)
 		ow_canvas_text(r->cv, x, y + CELL_PAD + t->size_pt + k * lh,
-			       cl->lines[k], t->align[c], OW_VALIGN_BASELINE,
-			       0.0);
+		               cl->lines[k], t->align[c], OW_VALIGN_BASELINE,
+		               0.0);
 }
 
 /* Wrap every cell; returns the row height. */
 static double row_layout(struct rpt *r, const struct rpt_table *t,
-			 const char *const *cells, struct cell_lines *cl,
-			 int head)
+                         const char *const *cells, struct cell_lines *cl,
+                         int head)
 {
 	double h = 0.0;
 	int c;
@@ -304,17 +303,17 @@ static double row_layout(struct rpt *r, const struct rpt_table *t,
 		double w = t->frac[c] * (r->x1 - r->x0) - 2.0 * CELL_PAD;
 		int bold = head || (c == 0 && t->first_bold);
 
-		cl[c].n = rpt_wrap(r, cells[c] ? cells[c] : "", w, t->size_pt,
-				   bold, cl[c].buf, sizeof cl[c].buf,
-				   cl[c].lines, 40);
+		cl[c].n =
+		    rpt_wrap(r, cells[c] ? cells[c] : "", w, t->size_pt, bold,
+		             cl[c].buf, sizeof cl[c].buf, cl[c].lines, 40);
 		h = fmax(h, cl[c].n * t->size_pt * RPT_LINE);
 	}
 	return h + 2.0 * CELL_PAD;
 }
 
 static void row_draw(struct rpt *r, const struct rpt_table *t,
-		     const struct cell_lines *cl, double h, double fill,
-		     int head)
+                     const struct cell_lines *cl, double h, double fill,
+                     int head)
 {
 	int c;
 
@@ -325,7 +324,7 @@ static void row_draw(struct rpt *r, const struct rpt_table *t,
 	}
 	for (c = 0; c < t->n; c++)
 		cell_draw(r, t, c, &cl[c], r->y,
-			  head || (c == 0 && t->first_bold));
+		          head || (c == 0 && t->first_bold));
 	r->y += h;
 	ow_canvas_set_colour(r->cv, rpt_grey(head ? 0.35 : 0.78));
 	ow_canvas_set_line_width(r->cv, head ? 0.8 : 0.4);
@@ -353,7 +352,7 @@ void rpt_table_head(struct rpt *r, const struct rpt_table *t)
 }
 
 void rpt_table_row(struct rpt *r, const struct rpt_table *t,
-		   const char *const *cells, int shade)
+                   const char *const *cells, int shade)
 {
 	struct cell_lines *cl;
 	double h;
@@ -438,9 +437,9 @@ char *ow_report_format_bound(char *buf, size_t n, double v)
 {
 	int dec = 0;
 
-	while (dec < 2 && fabs(v * pow(10.0, dec) -
-			       nearbyint(v * pow(10.0, dec))) >
-				  0.0005 * pow(10.0, dec))
+	while (dec < 2 &&
+	       fabs(v * pow(10.0, dec) - nearbyint(v * pow(10.0, dec))) >
+	           0.0005 * pow(10.0, dec))
 		dec++;
 	return rpt_fix(buf, n, v, dec);
 }
@@ -455,8 +454,8 @@ const char *rpt_unit(const struct rpt *r, enum ow_dim dim)
 	return ow_display_label(r->sys, dim);
 }
 
-char *rpt_qty(struct rpt *r, char *buf, size_t n, enum ow_dim dim,
-	      double si, int sig)
+char *rpt_qty(struct rpt *r, char *buf, size_t n, enum ow_dim dim, double si,
+              int sig)
 {
 	char num[64];
 	const char *u = rpt_unit(r, dim);
@@ -471,7 +470,7 @@ char *rpt_qty(struct rpt *r, char *buf, size_t n, enum ow_dim dim,
 }
 
 const char *rpt_source(const struct rpt *r, const char *key,
-		       unsigned char *shown)
+                       unsigned char *shown)
 {
 	int k;
 

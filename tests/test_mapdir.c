@@ -45,8 +45,9 @@ static void centre_profile(struct fx *f)
 
 	assert_int_equal(ow_solver_create(f->s, &sv, NULL), OW_OK);
 	ow_line_apply_axis(&f->s->line, f->w->centre.axis, set_K);
-	assert_int_equal(ow_solver_run(sv, f->w->centre.rpm, set_K, 0.0,
-				       &f->centre, NULL), OW_OK);
+	assert_int_equal(
+	    ow_solver_run(sv, f->w->centre.rpm, set_K, 0.0, &f->centre, NULL),
+	    OW_OK);
 	r = ow_solver_profile(sv, &f->n_rows);
 	assert_true(f->n_rows > 10);
 	f->rows = malloc(sizeof *r * (size_t)f->n_rows);
@@ -64,8 +65,8 @@ static int setup(void **state)
 	assert_non_null(f);
 	f->s = calloc(1, sizeof *f->s);
 	assert_int_equal(ow_units_create(&f->u, &d), OW_OK);
-	assert_int_equal(ow_config_load_study(f->u, "demo/study-si.json",
-					      f->s, &d), OW_OK);
+	assert_int_equal(
+	    ow_config_load_study(f->u, "demo/study-si.json", f->s, &d), OW_OK);
 	ow_sweep_default(&c);
 	c.rpm_steps = 7;
 	c.axis_steps = 6;
@@ -77,7 +78,8 @@ static int setup(void **state)
 	strcpy(f->dir, "/tmp/test_mapdir.XXXXXX");
 	assert_non_null(mkdtemp(f->dir));
 	assert_int_equal(ow_mapdir_save(f->s, f->g, &f->centre, f->rows,
-					f->n_rows, f->dir, &d), OW_OK);
+	                                f->n_rows, f->dir, &d),
+	                 OW_OK);
 	*state = f;
 	return 0;
 }
@@ -105,8 +107,8 @@ struct loaded {
 static void load(const struct fx *f, struct loaded *L)
 {
 	struct ow_diag d = {{0}};
-	enum ow_status st = ow_mapdir_load(f->u, f->dir, &L->s, &L->g, &L->c,
-					   &d);
+	enum ow_status st =
+	    ow_mapdir_load(f->u, f->dir, &L->s, &L->g, &L->c, &d);
 
 	if (st != OW_OK)
 		fprintf(stderr, "%s\n", d.msg);
@@ -129,7 +131,7 @@ static void same(double a, double b)
 }
 
 static void same_point(const struct ow_grid_point *a,
-		       const struct ow_grid_point *b, int n_zones)
+                       const struct ow_grid_point *b, int n_zones)
 {
 	int k;
 
@@ -173,7 +175,7 @@ static void mapdir_reload_gives_every_lattice_point_back(void **state)
 }
 
 static void same_boundaries(const struct ow_window *a,
-			    const struct ow_window *b)
+                            const struct ow_window *b)
 {
 	int k, l, i;
 
@@ -247,9 +249,8 @@ static void mapdir_reload_keeps_sources_crc_and_file_names(void **state)
 	for (k = 0; k < f->s->n_sources; k++) {
 		assert_string_equal(L.s.sources[k].key, f->s->sources[k].key);
 		assert_string_equal(L.s.sources[k].value,
-				    f->s->sources[k].value);
-		assert_string_equal(L.s.sources[k].text,
-				    f->s->sources[k].text);
+		                    f->s->sources[k].value);
+		assert_string_equal(L.s.sources[k].text, f->s->sources[k].text);
 	}
 	same(L.s.resin.visc.zero_shear_Pa_s, f->s->resin.visc.zero_shear_Pa_s);
 	same(L.s.line.zones[2].set_K, f->s->line.zones[2].set_K);
@@ -269,13 +270,13 @@ static void mapdir_study_embeds_screw_and_resin_with_sources(void **state)
 	assert_non_null(doc);
 	screw = cJSON_GetObjectItemCaseSensitive(doc, "screw");
 	assert_true(cJSON_IsObject(screw));
-	assert_true(cJSON_IsObject(
-		cJSON_GetObjectItemCaseSensitive(doc, "resin")));
+	assert_true(
+	    cJSON_IsObject(cJSON_GetObjectItemCaseSensitive(doc, "resin")));
 	dia = cJSON_GetObjectItemCaseSensitive(screw, "diameter");
 	assert_true(cJSON_IsObject(dia));
 	assert_string_equal(
-		cJSON_GetObjectItemCaseSensitive(dia, "value")->valuestring,
-		"63.5 mm");
+	    cJSON_GetObjectItemCaseSensitive(dia, "value")->valuestring,
+	    "63.5 mm");
 	assert_non_null(cJSON_GetObjectItemCaseSensitive(dia, "source"));
 	cJSON_Delete(doc);
 	free(text);
@@ -303,9 +304,8 @@ static void mapdir_reload_gives_the_centre_point_and_profile(void **state)
 	for (i = 0; i < f->n_rows; i++) {
 		/* through mm, MPa and degC with 17 digits: a few ulps */
 		assert_rel(rows[i].axial_m + 1e-9, f->rows[i].axial_m + 1e-9,
-			   1e-12);
-		assert_rel(rows[i].pressure_Pa, f->rows[i].pressure_Pa,
-			   1e-12);
+		           1e-12);
+		assert_rel(rows[i].pressure_Pa, f->rows[i].pressure_Pa, 1e-12);
 		assert_rel(rows[i].depth_m, f->rows[i].depth_m, 1e-12);
 		assert_rel(rows[i].sbr + 1.0, f->rows[i].sbr + 1.0, 1e-12);
 		if (isnan(f->rows[i].bulk_K))
@@ -317,14 +317,13 @@ static void mapdir_reload_gives_the_centre_point_and_profile(void **state)
 }
 
 static void expect_refusal(const struct fx *f, const char *dir,
-			   const char *words)
+                           const char *words)
 {
 	struct ow_diag d = {{0}};
 	struct ow_grid *g = (struct ow_grid *)1;
 	struct ow_study *s = calloc(1, sizeof *s);
 
-	assert_int_equal(ow_mapdir_load(f->u, dir, s, &g, NULL, &d),
-			 OW_EINPUT);
+	assert_int_equal(ow_mapdir_load(f->u, dir, s, &g, NULL, &d), OW_EINPUT);
 	assert_null(g);
 	if (!strstr(d.msg, words))
 		fprintf(stderr, "message: %s\n", d.msg);
@@ -346,12 +345,14 @@ static void mapdir_load_refuses_a_missing_or_foreign_folder(void **state)
 
 /* Copy the saved folder, then spoil one file of the copy. */
 static void spoil(const struct fx *f, const char *copy, const char *file,
-		  const char *sed)
+                  const char *sed)
 {
 	char cmd[512];
 
-	snprintf(cmd, sizeof cmd, "rm -rf '%s' && cp -r '%s' '%s' && "
-		 "sed -i '%s' '%s/%s'", copy, f->dir, copy, sed, copy, file);
+	snprintf(cmd, sizeof cmd,
+	         "rm -rf '%s' && cp -r '%s' '%s' && "
+	         "sed -i '%s' '%s/%s'",
+	         copy, f->dir, copy, sed, copy, file);
 	assert_int_equal(system(cmd), 0);
 }
 
@@ -361,7 +362,8 @@ static void mapdir_load_refuses_damaged_files_naming_them(void **state)
 	const char *copy = "/tmp/test_mapdir_spoilt";
 
 	/* status bits of the first solved row changed */
-	spoil(f, copy, "lattice.csv", "2s/^\\([0-9]*,[0-9]*\\),[0-9]*,/\\1,4095,/");
+	spoil(f, copy, "lattice.csv",
+	      "2s/^\\([0-9]*,[0-9]*\\),[0-9]*,/\\1,4095,/");
 	expect_refusal(f, copy, "lattice.csv: line 2");
 	spoil(f, copy, "lattice.csv", "3s/,[^,]*$/,12x/");
 	expect_refusal(f, copy, "lattice.csv: line 3, column");
@@ -382,16 +384,18 @@ static void mapdir_save_refuses_inputs_changed_since_loading(void **state)
 	struct ow_diag d = {{0}};
 
 	assert_non_null(mkdtemp(dir));
-	snprintf(cmd, sizeof cmd, "cp demo/study-si.json demo/screw-si.json "
-		 "demo/resin-si.json '%s'", dir);
+	snprintf(cmd, sizeof cmd,
+	         "cp demo/study-si.json demo/screw-si.json "
+	         "demo/resin-si.json '%s'",
+	         dir);
 	assert_int_equal(system(cmd), 0);
 	snprintf(path, sizeof path, "%s/study-si.json", dir);
 	assert_int_equal(ow_config_load_study(f->u, path, s, &d), OW_OK);
-	snprintf(cmd, sizeof cmd, "sed -i 's/950 kg/951 kg/' '%s/resin-si.json'",
-		 dir);
+	snprintf(cmd, sizeof cmd,
+	         "sed -i 's/950 kg/951 kg/' '%s/resin-si.json'", dir);
 	assert_int_equal(system(cmd), 0);
 	assert_int_equal(ow_mapdir_save(s, f->g, NULL, NULL, 0, dir, &d),
-			 OW_EINPUT);
+	                 OW_EINPUT);
 	assert_non_null(strstr(d.msg, "changed since they were loaded"));
 	snprintf(path, sizeof path, "%s/lattice.json", dir);
 	assert_int_equal(access(path, F_OK), -1); /* nothing half-saved */
@@ -402,18 +406,14 @@ static void mapdir_save_refuses_inputs_changed_since_loading(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(mapdir_reload_gives_every_lattice_point_back),
-		cmocka_unit_test(
-			mapdir_reload_then_extract_gives_the_same_window),
-		cmocka_unit_test(mapdir_reload_keeps_sources_crc_and_file_names),
-		cmocka_unit_test(
-			mapdir_study_embeds_screw_and_resin_with_sources),
-		cmocka_unit_test(
-			mapdir_reload_gives_the_centre_point_and_profile),
-		cmocka_unit_test(mapdir_load_refuses_a_missing_or_foreign_folder),
-		cmocka_unit_test(mapdir_load_refuses_damaged_files_naming_them),
-		cmocka_unit_test(
-			mapdir_save_refuses_inputs_changed_since_loading),
+	    cmocka_unit_test(mapdir_reload_gives_every_lattice_point_back),
+	    cmocka_unit_test(mapdir_reload_then_extract_gives_the_same_window),
+	    cmocka_unit_test(mapdir_reload_keeps_sources_crc_and_file_names),
+	    cmocka_unit_test(mapdir_study_embeds_screw_and_resin_with_sources),
+	    cmocka_unit_test(mapdir_reload_gives_the_centre_point_and_profile),
+	    cmocka_unit_test(mapdir_load_refuses_a_missing_or_foreign_folder),
+	    cmocka_unit_test(mapdir_load_refuses_damaged_files_naming_them),
+	    cmocka_unit_test(mapdir_save_refuses_inputs_changed_since_loading),
 	};
 
 	return cmocka_run_group_tests(tests, setup, teardown);

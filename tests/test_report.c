@@ -28,8 +28,8 @@ struct fx {
 	struct ow_profile_row *rows;
 	int n_rows;
 	char dir[64];
-	char pdf[96];  /* the A4 SI report with a current point */
-	char *text;    /* its pdftotext, whitespace runs made one space */
+	char pdf[96]; /* the A4 SI report with a current point */
+	char *text;   /* its pdftotext, whitespace runs made one space */
 };
 
 /* Output of a shell command (malloc'd); its exit status in *rc. */
@@ -113,8 +113,9 @@ static void centre_profile(struct fx *f)
 
 	assert_int_equal(ow_solver_create(f->s, &sv, NULL), OW_OK);
 	ow_line_apply_axis(&f->s->line, f->w->centre.axis, set_K);
-	assert_int_equal(ow_solver_run(sv, f->w->centre.rpm, set_K, 0.0,
-				       &f->centre, NULL), OW_OK);
+	assert_int_equal(
+	    ow_solver_run(sv, f->w->centre.rpm, set_K, 0.0, &f->centre, NULL),
+	    OW_OK);
 	r = ow_solver_profile(sv, &f->n_rows);
 	f->rows = malloc(sizeof *r * (size_t)f->n_rows);
 	assert_non_null(f->rows);
@@ -133,8 +134,8 @@ static void options(const struct fx *f, struct ow_report_options *o)
 	o->n_profile = f->n_rows;
 }
 
-static void write_report(const struct fx *f,
-			 const struct ow_report_options *o, const char *path)
+static void write_report(const struct fx *f, const struct ow_report_options *o,
+                         const char *path)
 {
 	struct ow_diag d = {{0}};
 	enum ow_status st = ow_report_write(f->s, f->g, f->w, o, path, &d);
@@ -154,8 +155,8 @@ static int setup(void **state)
 	assert_non_null(f);
 	f->s = calloc(1, sizeof *f->s);
 	assert_int_equal(ow_units_create(&f->u, &d), OW_OK);
-	assert_int_equal(ow_config_load_study(f->u, "demo/study-si.json",
-					      f->s, &d), OW_OK);
+	assert_int_equal(
+	    ow_config_load_study(f->u, "demo/study-si.json", f->s, &d), OW_OK);
 	ow_sweep_default(&c);
 	c.rpm_steps = 9;
 	c.axis_steps = 7;
@@ -223,7 +224,7 @@ static void report_footer_traces_to_the_input_files(void **state)
 	int n = 0;
 
 	snprintf(want, sizeof want, "2026-03-14 · inputs CRC-32 %08lX",
-		 f->s->input_crc);
+	         f->s->input_crc);
 	while ((p = strstr(p, want)) != NULL) {
 		n++;
 		p++;
@@ -262,20 +263,20 @@ static void report_prints_the_window_bounds_of_window_json(void **state)
 	int ref = ow_line_reference_zone(&f->s->line);
 	cJSON *w;
 
-	assert_int_equal(ow_results_window_json(f->s, f->g, f->w, &json,
-						NULL), OW_OK);
+	assert_int_equal(ow_results_window_json(f->s, f->g, f->w, &json, NULL),
+	                 OW_OK);
 	w = cJSON_Parse(json);
 	assert_non_null(w);
-	ow_report_format_bound(lo, sizeof lo, cJSON_GetObjectItem(
-		w, "rpm_min")->valuedouble);
-	ow_report_format_bound(hi, sizeof hi, cJSON_GetObjectItem(
-		w, "rpm_max")->valuedouble);
+	ow_report_format_bound(lo, sizeof lo,
+	                       cJSON_GetObjectItem(w, "rpm_min")->valuedouble);
+	ow_report_format_bound(hi, sizeof hi,
+	                       cJSON_GetObjectItem(w, "rpm_max")->valuedouble);
 	snprintf(row, sizeof row, "Screw speed %s %s rpm", lo, hi);
 	contains(f->text, row);
-	ow_report_format_bound(lo, sizeof lo, cJSON_GetObjectItem(
-		w, "set_min_C")->valuedouble);
-	ow_report_format_bound(hi, sizeof hi, cJSON_GetObjectItem(
-		w, "set_max_C")->valuedouble);
+	ow_report_format_bound(
+	    lo, sizeof lo, cJSON_GetObjectItem(w, "set_min_C")->valuedouble);
+	ow_report_format_bound(
+	    hi, sizeof hi, cJSON_GetObjectItem(w, "set_max_C")->valuedouble);
 	snprintf(zn, sizeof zn, "zone %d (", ref + 1);
 	snprintf(row, sizeof row, "set-point, map axis %s %s °C", lo, hi);
 	contains(f->text, row);
@@ -292,11 +293,12 @@ static void report_format_bound_uses_the_fewest_decimals(void **state)
 	assert_string_equal(ow_report_format_bound(b, sizeof b, 55.0), "55");
 	assert_string_equal(ow_report_format_bound(b, sizeof b, 22.5), "22.5");
 	assert_string_equal(ow_report_format_bound(b, sizeof b, 178.75),
-			    "178.75");
+	                    "178.75");
 	assert_string_equal(ow_report_format_bound(b, sizeof b, 200.0001),
-			    "200");
+	                    "200");
 	assert_string_equal(ow_report_format_bound(b, sizeof b, -1.25),
-			    "\xE2\x88\x92" "1.25"); /* U+2212 minus */
+	                    "\xE2\x88\x92"
+	                    "1.25"); /* U+2212 minus */
 }
 
 static void report_carries_title_block_cautions_and_basis(void **state)
@@ -310,7 +312,7 @@ static void report_carries_title_block_cautions_and_basis(void **state)
 	/* the cautions, in the report's own words */
 	contains(f->text, "Hot melt and pressure can injure.");
 	contains(f->text, "Die and adapter bolts and clamps hold the whole "
-			  "head pressure");
+	                  "head pressure");
 	contains(f->text, "rating of the barrel's rupture disc");
 	contains(f->text, "Verify every setting on the line.");
 	contains(f->text, "Local codes and licensed practice govern.");
@@ -372,7 +374,7 @@ static void report_leaves_nothing_when_the_folder_is_missing(void **state)
 	options(f, &o);
 	snprintf(path, sizeof path, "%s/missing/report.pdf", f->dir);
 	assert_int_equal(ow_report_write(f->s, f->g, f->w, &o, path, &d),
-			 OW_EIO);
+	                 OW_EIO);
 	assert_non_null(strstr(d.msg, path));
 	snprintf(path, sizeof path, "%s/missing", f->dir);
 	assert_int_equal(access(path, F_OK), -1);
@@ -388,7 +390,7 @@ static void report_refuses_a_malformed_date(void **state)
 	o.date = "14/03/2026";
 	snprintf(path, sizeof path, "%s/dated.pdf", f->dir);
 	assert_int_equal(ow_report_write(f->s, f->g, f->w, &o, path, NULL),
-			 OW_EARG);
+	                 OW_EARG);
 	assert_int_equal(access(path, F_OK), -1);
 }
 
@@ -410,7 +412,7 @@ static void report_says_plainly_when_no_point_is_safe(void **state)
 	for (i = 0; i < g.n_rpm * g.n_axis; i++) {
 		g.pts[i] = f->g->pts[i];
 		ow_classify(&g.pts[i].pt, &s->line.limits,
-			    ow_screw_length(&s->screw), &g.pts[i].v);
+		            ow_screw_length(&s->screw), &g.pts[i].v);
 	}
 	assert_int_equal(ow_window_extract(s, &g, &w, NULL), OW_OK);
 	assert_true(w->empty);
@@ -422,7 +424,7 @@ static void report_says_plainly_when_no_point_is_safe(void **state)
 	contains(text, "No safe operating point exists in the swept range.");
 	/* the binding limit first, with every point failing it */
 	snprintf(path, sizeof path, "peak melt temperature ≤ 27 °C %d 100 %%",
-		 g.n_rpm * g.n_axis);
+	         g.n_rpm * g.n_axis);
 	contains(text, path);
 	contains(text, "Hot melt and pressure can injure.");
 	free(text);
@@ -439,8 +441,9 @@ static void make_map_folder(const struct fx *f, char *dir, size_t n)
 
 	snprintf(dir, n, "%s/map", f->dir);
 	assert_int_equal(mkdir(dir, 0777), 0);
-	assert_int_equal(ow_mapdir_save(f->s, f->g, &f->centre, f->rows,
-					f->n_rows, dir, &d), OW_OK);
+	assert_int_equal(
+	    ow_mapdir_save(f->s, f->g, &f->centre, f->rows, f->n_rows, dir, &d),
+	    OW_OK);
 }
 
 static void cli_report_redraws_a_saved_map_folder(void **state)
@@ -450,9 +453,11 @@ static void cli_report_redraws_a_saved_map_folder(void **state)
 	char dir[96], args[256], path[128], size[64], *text;
 
 	make_map_folder(f, dir, sizeof dir);
-	snprintf(args, sizeof args, "report '%s' --paper letter --units us "
-		 "--date 2026-03-15 --revision D --approved-by 'Q. Lead' "
-		 "--current 60,400", dir);
+	snprintf(args, sizeof args,
+	         "report '%s' --paper letter --units us "
+	         "--date 2026-03-15 --revision D --approved-by 'Q. Lead' "
+	         "--current 60,400",
+	         dir);
 	cli_run(args, &r);
 	if (r.code)
 		fprintf(stderr, "%s", r.err);
@@ -465,7 +470,7 @@ static void cli_report_redraws_a_saved_map_folder(void **state)
 	contains(text, "Q. Lead");
 	contains(text, "°F"); /* --units us */
 	contains(text, "Current operating point: 60 rpm with the map-axis "
-		       "zone at 400 °F");
+	               "zone at 400 °F");
 	free(text);
 	snprintf(path, sizeof path, "%s/window.png", dir);
 	assert_int_equal(access(path, F_OK), 0);
@@ -507,21 +512,19 @@ static void cli_report_exit_codes(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(report_numbers_every_page_of_the_whole),
-		cmocka_unit_test(report_footer_traces_to_the_input_files),
-		cmocka_unit_test(report_embeds_every_font),
-		cmocka_unit_test(
-			report_prints_the_window_bounds_of_window_json),
-		cmocka_unit_test(report_format_bound_uses_the_fewest_decimals),
-		cmocka_unit_test(report_carries_title_block_cautions_and_basis),
-		cmocka_unit_test(report_comes_in_a4_and_letter),
-		cmocka_unit_test(report_is_the_same_bytes_for_the_same_inputs),
-		cmocka_unit_test(
-			report_leaves_nothing_when_the_folder_is_missing),
-		cmocka_unit_test(report_refuses_a_malformed_date),
-		cmocka_unit_test(report_says_plainly_when_no_point_is_safe),
-		cmocka_unit_test(cli_report_redraws_a_saved_map_folder),
-		cmocka_unit_test(cli_report_exit_codes),
+	    cmocka_unit_test(report_numbers_every_page_of_the_whole),
+	    cmocka_unit_test(report_footer_traces_to_the_input_files),
+	    cmocka_unit_test(report_embeds_every_font),
+	    cmocka_unit_test(report_prints_the_window_bounds_of_window_json),
+	    cmocka_unit_test(report_format_bound_uses_the_fewest_decimals),
+	    cmocka_unit_test(report_carries_title_block_cautions_and_basis),
+	    cmocka_unit_test(report_comes_in_a4_and_letter),
+	    cmocka_unit_test(report_is_the_same_bytes_for_the_same_inputs),
+	    cmocka_unit_test(report_leaves_nothing_when_the_folder_is_missing),
+	    cmocka_unit_test(report_refuses_a_malformed_date),
+	    cmocka_unit_test(report_says_plainly_when_no_point_is_safe),
+	    cmocka_unit_test(cli_report_redraws_a_saved_map_folder),
+	    cmocka_unit_test(cli_report_exit_codes),
 	};
 
 	return cmocka_run_group_tests(tests, setup, teardown);
