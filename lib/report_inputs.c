@@ -127,7 +127,7 @@ static void sections(struct inputs *in)
 	                      0};
 	struct rpt *r = in->r;
 	const struct ow_screw *sc = &r->s->screw;
-	char k[8], a[32], b[32], c[48], e[48], note[320];
+	char k[16], a[32], b[32], c[48], e[48], note[320];
 	int i;
 
 	rpt_table_head(r, &t);
