@@ -167,8 +167,7 @@ static enum ow_status limit_line(const struct ow_plot *p,
 			X = x0 + (at - run) / ds * (x1 - x0);
 			Y = y0 + (at - run) / ds * (y1 - y0);
 			ang = atan2(y0 - y1, x1 - x0) * 57.29577951308232;
-			ang = ang > 90.0 ? ang - 180.0 : ang < -90.0 ? ang + 180.0
-								     : ang;
+			ang = ow_plot_upright(ang);
 			maps_limit_text(s, c, u, NULL, text, sizeof text);
 			ow_plot_label_on_line(p->cv, X, Y, ang, text,
 					      0.9 * p->font_pt, red);

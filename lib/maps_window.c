@@ -168,8 +168,7 @@ static double along(const struct ow_plot *p, const struct ow_pt2 *q, int n,
 			*X = x0 + f * (x1 - x0);
 			*Y = y0 + f * (y1 - y0);
 			*ang = atan2(-(y1 - y0), x1 - x0) * 180.0 / OW_PI;
-			*ang = *ang > 90.0 ? *ang - 180.0
-			       : *ang < -90.0 ? *ang + 180.0 : *ang;
+			*ang = ow_plot_upright(*ang);
 			return total;
 		}
 		s += ds;

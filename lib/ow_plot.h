@@ -177,6 +177,11 @@ enum ow_status ow_plot_isolines(const struct ow_plot *p,
 				struct ow_rgba colour, double width_pt,
 				struct ow_diag *d);
 
+/* The direction angle_deg of a line (degrees, counter-clockwise) turned
+ * by 180 where needed so text along it reads left to right, or upwards
+ * on steep lines: the result lies in (-80, 100]. */
+double ow_plot_upright(double angle_deg);
+
 /* text (font_pt, colour ink) centred at canvas point (X, Y) rotated ang
  * degrees counter-clockwise, on a small white box: a label on a line. */
 void ow_plot_label_on_line(struct ow_canvas *cv, double X, double Y,

@@ -484,11 +484,8 @@ static void point_along(const struct ow_plot *p, const struct ow_isoline *l,
 
 			*X = x0 + t * (x1 - x0);
 			*Y = y0 + t * (y1 - y0);
-			*ang = atan2(-(y1 - y0), x1 - x0) * 180.0 / OW_PI;
-			if (*ang > 90.0) /* keep the text upright */
-				*ang -= 180.0;
-			if (*ang < -90.0)
-				*ang += 180.0;
+			*ang = ow_plot_upright(atan2(-(y1 - y0), x1 - x0) *
+					       180.0 / OW_PI);
 			return;
 		}
 		s += ds;
@@ -496,6 +493,15 @@ static void point_along(const struct ow_plot *p, const struct ow_isoline *l,
 	*X = ow_plot_px(p, l->p[0].x);
 	*Y = ow_plot_py(p, l->p[0].y);
 	*ang = 0.0;
+}
+
+double ow_plot_upright(double a)
+{
+	while (a > 100.0)
+		a -= 180.0;
+	while (a <= -80.0)
+		a += 180.0;
+	return a;
 }
 
 void ow_plot_label_on_line(struct ow_canvas *cv, double X, double Y, double ang,
@@ -524,7 +530,8 @@ void ow_plot_label_on_line(struct ow_canvas *cv, double X, double Y, double ang,
 static void label_longest(const struct ow_plot *p, const struct ow_isolines *L,
 			  const char *text, struct ow_rgba ink)
 {
-	double best = 0.0, len, X, Y, ang, need;
+	static const double frac[7] = {0.5, 0.4, 0.6, 0.3, 0.7, 0.2, 0.8};
+	double best = 0.0, len, X = 0, Y = 0, ang = 0, need, tw;
 	int k, b = -1;
 
 	for (k = 0; k < L->n; k++) {
@@ -535,10 +542,26 @@ static void label_longest(const struct ow_plot *p, const struct ow_isolines *L,
 		}
 	}
 	ow_canvas_set_font(p->cv, 0.85 * p->font_pt, 0);
-	need = 2.0 * ow_canvas_text_width(p->cv, text);
+	tw = ow_canvas_text_width(p->cv, text);
+	need = 2.0 * tw;
 	if (b < 0 || best < need)
 		return;
-	point_along(p, &L->lines[b], 0.5 * best, &X, &Y, &ang);
+	/* the middle, or the nearest place where the label stays inside */
+	for (k = 0; k < 7; k++) {
+		double a, hx, hy;
+
+		point_along(p, &L->lines[b], frac[k] * best, &X, &Y, &ang);
+		a = ang * OW_PI / 180.0;
+		hx = 0.5 * (tw + p->font_pt) * fabs(cos(a)) +
+		     0.7 * p->font_pt * fabs(sin(a));
+		hy = 0.5 * (tw + p->font_pt) * fabs(sin(a)) +
+		     0.7 * p->font_pt * fabs(cos(a));
+		if (X - hx >= p->area.x && X + hx <= p->area.x + p->area.w &&
+		    Y - hy >= p->area.y && Y + hy <= p->area.y + p->area.h)
+			break;
+	}
+	if (k == 7)
+		return; /* no room: an unlabelled line beats a clipped label */
 	ow_plot_label_on_line(p->cv, X, Y, ang, text, 0.85 * p->font_pt, ink);
 }
 
