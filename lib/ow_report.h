@@ -58,10 +58,26 @@ void ow_report_default(struct ow_report_options *o);
 /* "a4" or "letter" (any case) -> *out; OW_EARG otherwise. */
 enum ow_status ow_report_paper_parse(const char *s, enum ow_paper *out);
 
-/* A number as the report prints a window bound (screw speed, set-point):
- * the fewest decimals (0 to 2) that show v to within 0.0005, U+2212 for a
- * minus sign. Returns buf. Tests use it to find the bounds in the text. */
-char *ow_report_format_bound(char *buf, size_t n, double v);
+/* Decimals of the window table: screw speed to 0.1 rpm, set-points to
+ * whole degrees (°C or °F), as drives and controllers are set. When the
+ * inward rounding below would empty a range, that range gets one more. */
+#define OW_REPORT_RPM_DECIMALS  1
+#define OW_REPORT_TEMP_DECIMALS 0
+
+/* Which way a printed bound is rounded: towards the inside of the window,
+ * so every printed range lies within the computed one. */
+enum ow_round {
+	OW_ROUND_NEAREST, /* centre and other single values */
+	OW_ROUND_UP,      /* a lower bound */
+	OW_ROUND_DOWN     /* an upper bound */
+};
+
+/* A window bound as the report prints it: v (already in display units)
+ * rounded to `decimals` places in direction dir, trailing zeros dropped,
+ * U+2212 for a minus sign. Returns buf. Tests use it to find the bounds
+ * of window.json in the report's text. */
+char *ow_report_format_bound(char *buf, size_t n, double v, int decimals,
+                             enum ow_round dir);
 
 /* Write the report of study s, its lattice g and window w to pdf_path:
  * built in memory, then written to a temporary file in the same folder

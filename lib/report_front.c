@@ -116,10 +116,24 @@ static const struct ow_point *centre_point(const struct rpt *r)
 	return NULL;
 }
 
-static void bound_cell(const struct rpt *r, char *buf, size_t n,
-                       enum ow_dim dim, double si)
+void rpt_range(const struct rpt *r, enum ow_dim dim, double lo, double hi,
+               double centre, int decimals, char out[3][32])
 {
-	ow_report_format_bound(buf, n, rpt_shown(r, dim, si));
+	double a = rpt_shown(r, dim, lo), b = rpt_shown(r, dim, hi);
+	int dec;
+
+	/* inwards, so the printed range lies inside the computed one; one
+	 * more decimal while that would turn the range over */
+	for (dec = decimals; dec <= decimals + 2; dec++) {
+		ow_report_format_bound(out[0], 32, a, dec, OW_ROUND_UP);
+		ow_report_format_bound(out[1], 32, b, dec, OW_ROUND_DOWN);
+		if (ceil(a * pow(10.0, dec) - 1e-6) <=
+		    floor(b * pow(10.0, dec) + 1e-6))
+			break;
+	}
+	ow_report_format_bound(out[2], 32, rpt_shown(r, dim, centre),
+	                       dec > decimals + 2 ? decimals + 2 : dec,
+	                       OW_ROUND_NEAREST);
 }
 
 static void row5(struct rpt *r, const struct rpt_table *t, const char *what,
@@ -136,20 +150,18 @@ static void zone_rows(struct rpt *r, const struct rpt_table *t)
 	const struct ow_line *l = &r->s->line;
 	int ref = ow_line_reference_zone(l), z;
 	double set_K[OW_MAX_ZONES];
-	char what[96], zn[48], lo[32], hi[32], c[32];
+	char what[96], zn[48], v[3][32];
 
 	ow_line_apply_axis(l, r->w->centre.axis, set_K);
 	for (z = 0; z < l->n_zones; z++) {
 		snprintf(what, sizeof what, "Barrel %s set-point%s",
 		         rpt_zone_name(r, z, zn, sizeof zn),
 		         z == ref ? ", map axis" : "");
-		bound_cell(r, lo, sizeof lo, OW_DIM_TEMPERATURE,
-		           r->w->zone_min_K[z]);
-		bound_cell(r, hi, sizeof hi, OW_DIM_TEMPERATURE,
-		           r->w->zone_max_K[z]);
-		bound_cell(r, c, sizeof c, OW_DIM_TEMPERATURE, set_K[z]);
-		row5(r, t, what, lo, hi, rpt_unit(r, OW_DIM_TEMPERATURE), c,
-		     z == ref);
+		rpt_range(r, OW_DIM_TEMPERATURE, r->w->zone_min_K[z],
+		          r->w->zone_max_K[z], set_K[z],
+		          OW_REPORT_TEMP_DECIMALS, v);
+		row5(r, t, what, v[0], v[1], rpt_unit(r, OW_DIM_TEMPERATURE),
+		     v[2], z == ref);
 	}
 }
 
@@ -270,25 +282,25 @@ static void window_table(struct rpt *r)
 	                      8.5,
 	                      0};
 	struct rpt_style st = rpt_body();
-	char lo[32], hi[32], c[32], text[600], ax[300];
+	char v[3][32], text[700], ax[300];
 
 	rpt_heading(r, "Recommended operating window", 120.0);
 	r->y -= 4.0;
 	t.first_bold = 1;
 	rpt_table_head(r, &t);
-	bound_cell(r, lo, sizeof lo, OW_DIM_ROT_SPEED, r->w->rpm_min);
-	bound_cell(r, hi, sizeof hi, OW_DIM_ROT_SPEED, r->w->rpm_max);
-	bound_cell(r, c, sizeof c, OW_DIM_ROT_SPEED, r->w->centre.rpm);
-	row5(r, &t, "Screw speed", lo, hi, "rpm", c, 1);
+	rpt_range(r, OW_DIM_ROT_SPEED, r->w->rpm_min, r->w->rpm_max,
+	          r->w->centre.rpm, OW_REPORT_RPM_DECIMALS, v);
+	row5(r, &t, "Screw speed", v[0], v[1], "rpm", v[2], 1);
 	zone_rows(r, &t);
 	t.first_bold = 0;
 	result_rows(r, &t);
 	rpt_table_end(r);
 	snprintf(text, sizeof text,
 	         "Every mapped point inside this window "
-	         "passes every limit (%.0f %% of the swept points do). Start "
-	         "at the centre point: of all points in the window it lies "
-	         "farthest from any point that fails. %s",
+	         "passes every limit (%.0f %% of the swept points do); the "
+	         "bounds are rounded towards its inside. Start at the centre "
+	         "point: of all points in the window it lies farthest from "
+	         "any point that fails. %s",
 	         100.0 * r->w->safe_fraction, axis_words(r, ax, sizeof ax));
 	st.size_pt = 7.5;
 	rpt_para(r, text, &st, 2.0);
@@ -403,8 +415,11 @@ static void current_point(struct rpt *r)
 	         o->current_set_K <= w->set_max_K + 1e-9;
 	verdict_words(nearest(r, o->current_rpm, o->current_set_K), verdict,
 	              sizeof verdict);
-	ow_report_format_bound(rpm, sizeof rpm, o->current_rpm);
-	rpt_qty(r, set, sizeof set, OW_DIM_TEMPERATURE, o->current_set_K, 4);
+	rpt_exact(rpm, sizeof rpm, o->current_rpm);
+	rpt_exact(set, sizeof set,
+	          rpt_shown(r, OW_DIM_TEMPERATURE, o->current_set_K));
+	strcat(set, " ");
+	strcat(set, rpt_unit(r, OW_DIM_TEMPERATURE));
 	snprintf(text, sizeof text,
 	         "Current operating point: %s rpm with the "
 	         "map-axis zone at %s — %s the recommended window; %s.",

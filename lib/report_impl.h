@@ -117,6 +117,13 @@ void rpt_table_end(struct rpt *r);
 
 /* v with sig significant digits, trailing zeros dropped, U+2212 minus. */
 char *rpt_num(char *buf, size_t n, double v, int sig);
+/* v with the fewest decimals (0 to 2) that show it to 0.0005. */
+char *rpt_exact(char *buf, size_t n, double v);
+/* A range lo..hi (SI) of dim in the report's units, rounded inwards to
+ * decimals (more when that would empty it), and its centre (SI, NAN:
+ * none) rounded to the same decimals. */
+void rpt_range(const struct rpt *r, enum ow_dim dim, double lo, double hi,
+               double centre, int decimals, char out[3][32]);
 /* v with a fixed number of decimals, U+2212 minus. */
 char *rpt_fix(char *buf, size_t n, double v, int decimals);
 /* SI value of dim in the report's units: "63.5 mm" (sig digits), "" for

@@ -450,8 +450,8 @@ static void sweep(struct rpt *r)
 	rpt_subheading(r, "Sweep", 40.0);
 	rpt_qty(r, lo, sizeof lo, dim, a->axis_from, 4);
 	rpt_qty(r, hi, sizeof hi, dim, a->axis_to, 4);
-	ow_report_format_bound(r0, sizeof r0, a->rpm_from);
-	ow_report_format_bound(r1, sizeof r1, a->rpm_to);
+	rpt_exact(r0, sizeof r0, a->rpm_from);
+	rpt_exact(r1, sizeof r1, a->rpm_to);
 	if (r->g->stride > 1)
 		snprintf(fine, sizeof fine,
 		         ", refined %d times finer where "

@@ -96,12 +96,16 @@ static void centre_words(struct rpt *r, char *buf, size_t n)
 {
 	char rpm[32], set[48], zn[48];
 
-	ow_report_format_bound(rpm, sizeof rpm, r->w->centre.rpm);
-	rpt_qty(r, set, sizeof set, OW_DIM_TEMPERATURE, r->w->centre_set_K, 4);
-	snprintf(buf, n, "centre: %s rpm, %s at %s", rpm,
+	ow_report_format_bound(rpm, sizeof rpm, r->w->centre.rpm,
+	                       OW_REPORT_RPM_DECIMALS, OW_ROUND_NEAREST);
+	ow_report_format_bound(
+	    set, sizeof set,
+	    rpt_shown(r, OW_DIM_TEMPERATURE, r->w->centre_set_K),
+	    OW_REPORT_TEMP_DECIMALS, OW_ROUND_NEAREST);
+	snprintf(buf, n, "centre: %s rpm, %s at %s %s", rpm,
 	         rpt_zone_name(r, ow_line_reference_zone(&r->s->line), zn,
 	                       sizeof zn),
-	         set);
+	         set, rpt_unit(r, OW_DIM_TEMPERATURE));
 }
 
 void rpt_profile_page(struct rpt *r)

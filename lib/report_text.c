@@ -433,7 +433,7 @@ char *rpt_num(char *buf, size_t n, double v, int sig)
 	return minus(buf, n, tmp);
 }
 
-char *ow_report_format_bound(char *buf, size_t n, double v)
+char *rpt_exact(char *buf, size_t n, double v)
 {
 	int dec = 0;
 
@@ -442,6 +442,26 @@ char *ow_report_format_bound(char *buf, size_t n, double v)
 	           0.0005 * pow(10.0, dec))
 		dec++;
 	return rpt_fix(buf, n, v, dec);
+}
+
+char *ow_report_format_bound(char *buf, size_t n, double v, int decimals,
+                             enum ow_round dir)
+{
+	double f = pow(10.0, decimals), x = v * f;
+	char tmp[64];
+
+	if (!isfinite(v))
+		return rpt_fix(buf, n, v, 0);
+	/* a hair of slack, so 185.0000000001 is not taken up to 186 */
+	if (dir == OW_ROUND_UP)
+		x = ceil(x - 1e-6);
+	else if (dir == OW_ROUND_DOWN)
+		x = floor(x + 1e-6);
+	else
+		x = round(x);
+	snprintf(tmp, sizeof tmp, "%.*f", decimals, x / f);
+	trim_zeros(tmp);
+	return minus(buf, n, tmp);
 }
 
 double rpt_shown(const struct rpt *r, enum ow_dim dim, double si)

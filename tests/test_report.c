@@ -255,6 +255,15 @@ static void report_embeds_every_font(void **state)
 	free(out);
 }
 
+static void bound(const cJSON *w, const char *key, int decimals,
+                  enum ow_round dir, char *out)
+{
+	const cJSON *v = cJSON_GetObjectItemCaseSensitive(w, key);
+
+	assert_true(cJSON_IsNumber(v));
+	ow_report_format_bound(out, 32, v->valuedouble, decimals, dir);
+}
+
 /* The bounds of window.json, as the report prints them, in their row. */
 static void report_prints_the_window_bounds_of_window_json(void **state)
 {
@@ -267,16 +276,13 @@ static void report_prints_the_window_bounds_of_window_json(void **state)
 	                 OW_OK);
 	w = cJSON_Parse(json);
 	assert_non_null(w);
-	ow_report_format_bound(lo, sizeof lo,
-	                       cJSON_GetObjectItem(w, "rpm_min")->valuedouble);
-	ow_report_format_bound(hi, sizeof hi,
-	                       cJSON_GetObjectItem(w, "rpm_max")->valuedouble);
+	/* printed inwards: screw speed to 0.1 rpm, set-points to 1 degC */
+	bound(w, "rpm_min", OW_REPORT_RPM_DECIMALS, OW_ROUND_UP, lo);
+	bound(w, "rpm_max", OW_REPORT_RPM_DECIMALS, OW_ROUND_DOWN, hi);
 	snprintf(row, sizeof row, "Screw speed %s %s rpm", lo, hi);
 	contains(f->text, row);
-	ow_report_format_bound(
-	    lo, sizeof lo, cJSON_GetObjectItem(w, "set_min_C")->valuedouble);
-	ow_report_format_bound(
-	    hi, sizeof hi, cJSON_GetObjectItem(w, "set_max_C")->valuedouble);
+	bound(w, "set_min_C", OW_REPORT_TEMP_DECIMALS, OW_ROUND_UP, lo);
+	bound(w, "set_max_C", OW_REPORT_TEMP_DECIMALS, OW_ROUND_DOWN, hi);
 	snprintf(zn, sizeof zn, "zone %d (", ref + 1);
 	snprintf(row, sizeof row, "set-point, map axis %s %s °C", lo, hi);
 	contains(f->text, row);
@@ -285,20 +291,31 @@ static void report_prints_the_window_bounds_of_window_json(void **state)
 	free(json);
 }
 
-static void report_format_bound_uses_the_fewest_decimals(void **state)
+static void report_rounds_bounds_towards_the_inside(void **state)
 {
 	char b[32];
 
 	(void)state;
-	assert_string_equal(ow_report_format_bound(b, sizeof b, 55.0), "55");
-	assert_string_equal(ow_report_format_bound(b, sizeof b, 22.5), "22.5");
-	assert_string_equal(ow_report_format_bound(b, sizeof b, 178.75),
-	                    "178.75");
-	assert_string_equal(ow_report_format_bound(b, sizeof b, 200.0001),
-	                    "200");
-	assert_string_equal(ow_report_format_bound(b, sizeof b, -1.25),
-	                    "\xE2\x88\x92"
-	                    "1.25"); /* U+2212 minus */
+	assert_string_equal(
+	    ow_report_format_bound(b, 32, 178.125, 0, OW_ROUND_DOWN), "178");
+	assert_string_equal(
+	    ow_report_format_bound(b, 32, 185.4, 0, OW_ROUND_UP), "186");
+	assert_string_equal(
+	    ow_report_format_bound(b, 32, 155.0, 0, OW_ROUND_UP), "155");
+	/* representation error does not push a whole value up */
+	assert_string_equal(
+	    ow_report_format_bound(b, 32, 155.0000000001, 0, OW_ROUND_UP),
+	    "155");
+	assert_string_equal(
+	    ow_report_format_bound(b, 32, 56.25, 1, OW_ROUND_DOWN), "56.2");
+	assert_string_equal(
+	    ow_report_format_bound(b, 32, 43.75, 1, OW_ROUND_NEAREST), "43.8");
+	assert_string_equal(ow_report_format_bound(b, 32, 20.0, 1, OW_ROUND_UP),
+	                    "20");
+	assert_string_equal(
+	    ow_report_format_bound(b, 32, -1.25, 1, OW_ROUND_DOWN),
+	    "\xE2\x88\x92"
+	    "1.3"); /* U+2212 minus */
 }
 
 static void report_carries_title_block_cautions_and_basis(void **state)
@@ -516,7 +533,7 @@ int main(void)
 	    cmocka_unit_test(report_footer_traces_to_the_input_files),
 	    cmocka_unit_test(report_embeds_every_font),
 	    cmocka_unit_test(report_prints_the_window_bounds_of_window_json),
-	    cmocka_unit_test(report_format_bound_uses_the_fewest_decimals),
+	    cmocka_unit_test(report_rounds_bounds_towards_the_inside),
 	    cmocka_unit_test(report_carries_title_block_cautions_and_basis),
 	    cmocka_unit_test(report_comes_in_a4_and_letter),
 	    cmocka_unit_test(report_is_the_same_bytes_for_the_same_inputs),
