@@ -15,6 +15,7 @@ struct diffs {
 	enum ow_unit_system sys;
 	struct ow_input_diff *out;
 	int max, n;
+	int all; /* every field, not only those that differ */
 };
 
 static void add(struct diffs *x, const char *field, const char *va,
@@ -22,8 +23,10 @@ static void add(struct diffs *x, const char *field, const char *va,
 {
 	struct ow_input_diff *e;
 
-	if (!strcmp(va, vb))
+	if (!x->all && !strcmp(va, vb))
 		return;
+	if (!strcmp(va, ABSENT) && !strcmp(vb, ABSENT))
+		return; /* a field neither study has */
 	if (x->n < x->max) {
 		e = &x->out[x->n];
 		snprintf(e->field, sizeof e->field, "%s", field);
@@ -227,6 +230,20 @@ static void viscosity(struct diffs *x)
 	    b->wlf_c2_K);
 }
 
+/* Heats of fusion read in kJ/kg or BTU/lb (1 BTU/lb = 2.326 kJ/kg
+ * exactly, International Table BTU: NIST SP 811 (2008) B.8), not in the
+ * kWh/kg or hp h/lb of specific drive energies. */
+static void fusion(struct diffs *x, double va, double vb)
+{
+	int us = x->sys == OW_SYS_US;
+	double f = us ? 2326.0 : 1e3;
+	char a[80], b[80];
+
+	snprintf(a, sizeof a, "%.6g %s", va / f, us ? "BTU/lb" : "kJ/kg");
+	snprintf(b, sizeof b, "%.6g %s", vb / f, us ? "BTU/lb" : "kJ/kg");
+	add(x, "resin.heat_of_fusion", a, b);
+}
+
 static void resin(struct diffs *x)
 {
 	const struct ow_material *a = &x->s[0]->resin, *b = &x->s[1]->resin;
@@ -249,8 +266,7 @@ static void resin(struct diffs *x)
 	     b->melt_k_W_mK);
 	qty2(x, "resin.melting_point", OW_DIM_TEMPERATURE, a->melt_temp_K,
 	     b->melt_temp_K);
-	qty2(x, "resin.heat_of_fusion", OW_DIM_SPECIFIC_ENERGY, a->fusion_J_kg,
-	     b->fusion_J_kg);
+	fusion(x, a->fusion_J_kg, b->fusion_J_kg);
 	qty2(x, "resin.friction_barrel", OW_DIM_NONE, a->friction_barrel,
 	     b->friction_barrel);
 	qty2(x, "resin.friction_screw", OW_DIM_NONE, a->friction_screw,
@@ -365,15 +381,22 @@ static void line(struct diffs *x)
 	      b->numerics.depth_nodes);
 }
 
-int ow_compare_inputs(const struct ow_study *a, const struct ow_study *b,
-		      enum ow_unit_system sys, struct ow_input_diff *out,
-		      int max)
+int ow_compare_fields(const struct ow_study *a, const struct ow_study *b,
+		      enum ow_unit_system sys, int all,
+		      struct ow_input_diff *out, int max)
 {
-	struct diffs x = {{a, b}, sys, out, max, 0};
+	struct diffs x = {{a, b}, sys, out, max, 0, all};
 
 	text(&x, "title", (const int[2]){1, 1}, a->title, b->title);
 	screw(&x);
 	resin(&x);
 	line(&x);
 	return x.n;
+}
+
+int ow_compare_inputs(const struct ow_study *a, const struct ow_study *b,
+		      enum ow_unit_system sys, struct ow_input_diff *out,
+		      int max)
+{
+	return ow_compare_fields(a, b, sys, 0, out, max);
 }

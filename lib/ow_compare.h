@@ -158,6 +158,12 @@ int ow_compare_inputs(const struct ow_study *a, const struct ow_study *b,
 		      enum ow_unit_system sys, struct ow_input_diff *out,
 		      int max);
 
+/* The same walk over every field (all 1: also those that are equal, for
+ * echoing both inputs side by side; all 0: ow_compare_inputs). */
+int ow_compare_fields(const struct ow_study *a, const struct ow_study *b,
+		      enum ow_unit_system sys, int all,
+		      struct ow_input_diff *out, int max);
+
 /* ---- outputs (compare_out.c) ---- */
 
 /* compare.json: "a" and "b" (each study's path and its window, keys as

@@ -1,0 +1,427 @@
+/* compare_pages.c - the content of the comparison PDF: title block, the
+ * three windows, the overlay map, where and why the windows differ, both
+ * cases at the centre points, the input fields that differ, both inputs
+ * side by side, and the cautions. */
+#include "compare_pdf_impl.h"
+
+#include "ow_maps.h"
+
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define MAX_FIELDS 400
+
+/* ---- title block ---------------------------------------------------------- */
+
+static void title_block(struct cpdf *r)
+{
+	const struct ow_compare *c = r->cmp;
+	struct table t = {3, {"", "", ""}, {0.16, 0.42, 0.42},
+			  {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT}};
+	char head[2][96], line[400], axis[96];
+	const char *cells[3];
+	int k;
+
+	cpdf_para(r, "Operating windows compared", 18.0, 1, 0.0, 4.0);
+	snprintf(line, sizeof line, "%s and %s, swept on one grid of screw "
+		 "speed and %s", cpdf_label(r, 0), cpdf_label(r, 1),
+		 ow_maps_axis_label(c->study[0], axis, sizeof axis));
+	cpdf_para(r, line, 10.0, 0, 0.0, 8.0);
+	for (k = 0; k < 2; k++) {
+		snprintf(head[k], sizeof head[k], "%s  (case %s)",
+			 cpdf_label(r, k), k ? "B" : "A");
+		t.head[k + 1] = head[k];
+	}
+	cpdf_table_head(r, &t);
+	cells[0] = "study";
+	cells[1] = c->study[0]->title;
+	cells[2] = c->study[1]->title;
+	cpdf_table_row(r, &t, cells, 0, 0);
+	cells[0] = "file";
+	cells[1] = c->study[0]->path;
+	cells[2] = c->study[1]->path;
+	cpdf_table_row(r, &t, cells, 0, 0);
+	cells[0] = "screw";
+	cells[1] = c->study[0]->screw.name;
+	cells[2] = c->study[1]->screw.name;
+	cpdf_table_row(r, &t, cells, 0, 0);
+	cells[0] = "resin";
+	cells[1] = c->study[0]->resin.name;
+	cells[2] = c->study[1]->resin.name;
+	cpdf_table_row(r, &t, cells, 0, 0);
+	snprintf(line, sizeof line, "Date %s      Revision ________      "
+		 "Prepared by ______________      Approved by ______________",
+		 r->o->date);
+	r->y += 6.0;
+	cpdf_para(r, line, BODY_PT, 0, 0.0, 4.0);
+}
+
+/* ---- the windows ------------------------------------------------------------ */
+
+static void range(char *buf, size_t n, double lo, double hi, int dec)
+{
+	char a[32], b[32];
+
+	snprintf(buf, n, "%s – %s", cpdf_fix(a, sizeof a, lo, dec),
+		 cpdf_fix(b, sizeof b, hi, dec));
+}
+
+static void output_range(const struct cpdf *r, const struct ow_window *w,
+			 char *buf, size_t n)
+{
+	enum ow_unit_system u = r->o->units;
+
+	range(buf, n, ow_display_value(u, OW_DIM_MASS_FLOW, w->output_min_kg_s),
+	      ow_display_value(u, OW_DIM_MASS_FLOW, w->output_max_kg_s), 1);
+}
+
+static void window_row(struct cpdf *r, const struct table *t,
+		       const char *name, const struct ow_window *w,
+		       const char *output)
+{
+	char rpm[64], set[64], ctr[96], safe[32];
+	const char *cells[6] = {name, rpm, set, ctr, output, safe};
+
+	snprintf(safe, sizeof safe, "%.0f %%", 100.0 * w->safe_fraction);
+	if (w->empty) {
+		const char *none[6] = {name, "no safe point", "", "", "", safe};
+
+		cpdf_table_row(r, t, none, 0, 0);
+		return;
+	}
+	range(rpm, sizeof rpm, w->rpm_min, w->rpm_max, 0);
+	range(set, sizeof set, cpdf_temp(r, w->set_min_K),
+	      cpdf_temp(r, w->set_max_K), 0);
+	snprintf(ctr, sizeof ctr, "%.0f rpm, %.0f %s", w->centre.rpm,
+		 cpdf_temp(r, w->centre_set_K), cpdf_tunit(r));
+	cpdf_table_row(r, t, cells, !strcmp(name, "common"), 0);
+}
+
+static void windows(struct cpdf *r)
+{
+	const struct ow_compare *c = r->cmp;
+	char h2[96], h4[64], out[3][64], both[160], axis[64];
+	struct table t = {6, {"", "screw speed, rpm", h2, "centre", h4,
+			      "safe share of the map"},
+			  {0.13, 0.15, 0.19, 0.18, 0.20, 0.15},
+			  {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT,
+			   OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT}};
+	int k;
+
+	snprintf(h2, sizeof h2, "%s, %s",
+		 ow_maps_axis_label(c->study[0], axis, sizeof axis),
+		 cpdf_tunit(r));
+	snprintf(h4, sizeof h4, "throughput, %s",
+		 ow_display_label(r->o->units, OW_DIM_MASS_FLOW));
+	cpdf_heading(r, "Recommended windows", 80.0);
+	cpdf_table_head(r, &t);
+	for (k = 0; k < 2; k++) {
+		output_range(r, c->win[k], out[k], sizeof out[k]);
+		window_row(r, &t, cpdf_label(r, k), c->win[k], out[k]);
+	}
+	output_range(r, c->common[0], out[0], sizeof out[0]);
+	output_range(r, c->common[1], out[1], sizeof out[1]);
+	snprintf(both, sizeof both, "%s: %s; %s: %s", cpdf_label(r, 0), out[0],
+		 cpdf_label(r, 1), out[1]);
+	window_row(r, &t, "common", c->common[0], both);
+	r->y += 4.0;
+	cpdf_para(r, "Each window is the largest rectangle of grid points at "
+		  "which every limit of that study is met. The common window "
+		  "is the largest rectangle of points safe in both cases, and "
+		  "its centre the point of it farthest from any point unsafe "
+		  "in either: the setting to start from when the line must "
+		  "run either case.", BODY_PT, 0, 0.0, 4.0);
+}
+
+/* The overlay map at full column width. */
+static void overlay(struct cpdf *r)
+{
+	double s = (r->x1 - r->x0) / OW_MAPS_WIDTH_PT;
+	struct ow_canvas_place at;
+	struct ow_rect box = {0.0, 0.0, OW_MAPS_WIDTH_PT, OW_MAPS_HEIGHT_PT};
+	struct ow_canvas *cv = NULL;
+
+	cpdf_need(r, s * OW_MAPS_HEIGHT_PT + 8.0);
+	if (r->st != OW_OK)
+		return;
+	at = (struct ow_canvas_place){r->x0, r->y + 4.0, s};
+	r->st = ow_canvas_create_pdf(r->pdf, r->pages[r->n_pages - 1],
+				     &r->fonts, &at, box.w, box.h, &cv, r->d);
+	if (r->st == OW_OK)
+		r->st = ow_compare_draw_overlay(cv, &box, r->cmp, r->o, r->d);
+	if (r->st == OW_OK)
+		r->st = ow_canvas_status(cv, r->d);
+	ow_canvas_destroy(cv);
+	r->y += s * OW_MAPS_HEIGHT_PT + 8.0;
+}
+
+/* ---- why they differ ---------------------------------------------------- */
+
+/* "pressure on the screw (16 points), ..." for counts[]; "none". */
+static void limit_list(const int *counts, char *buf, size_t n)
+{
+	enum ow_check order[OW_CK_COUNT];
+	struct ow_window tmp;
+	int c, m;
+
+	memset(&tmp, 0, sizeof tmp);
+	for (c = 0; c < OW_CK_COUNT; c++)
+		tmp.fail_count[c] = counts[c];
+	m = ow_window_binding(&tmp, order);
+	snprintf(buf, n, "%s", m ? "" : "none");
+	for (c = 0; c < m; c++)
+		snprintf(buf + strlen(buf), n - strlen(buf), "%s%s (%d points)",
+			 c ? ", " : "", ow_check_text(order[c]),
+			 counts[order[c]]);
+}
+
+static void why(struct cpdf *r)
+{
+	const struct ow_compare *c = r->cmp;
+	int n = c->n_rpm * c->n_axis, k;
+	char text[640], list[400];
+
+	cpdf_heading(r, "Where and why the windows differ", 60.0);
+	snprintf(text, sizeof text, "Of the %d grid points (%d speeds × %d "
+		 "set-points), both cases are safe at %d, only %s at %d, only "
+		 "%s at %d, and neither at %d.", n, c->n_rpm, c->n_axis,
+		 c->count[OW_CMP_BOTH], cpdf_label(r, 0),
+		 c->count[OW_CMP_A_ONLY], cpdf_label(r, 1),
+		 c->count[OW_CMP_B_ONLY], c->count[OW_CMP_NEITHER]);
+	cpdf_para(r, text, BODY_PT, 0, 0.0, 5.0);
+	for (k = 0; k < 2; k++) {
+		if (!c->count[k ? OW_CMP_B_ONLY : OW_CMP_A_ONLY])
+			continue;
+		limit_list(c->lost[k], list, sizeof list);
+		snprintf(text, sizeof text, "Where only %s is safe, %s exceeds: "
+			 "%s.", cpdf_label(r, k), cpdf_label(r, 1 - k), list);
+		cpdf_para(r, text, BODY_PT, 0, 0.0, 5.0);
+	}
+	for (k = 0; k < 2; k++) {
+		limit_list(c->win[k]->fail_count, list, sizeof list);
+		snprintf(text, sizeof text, "Limits that shape %s's window "
+			 "(grid points each excludes): %s.", cpdf_label(r, k),
+			 list);
+		cpdf_para(r, text, BODY_PT, 0, 0.0, 5.0);
+	}
+}
+
+/* ---- both cases at the centres -------------------------------------------- */
+
+/* A difference: "+" before a positive value that does not print as 0. */
+static char *signed_fix(char *buf, size_t n, double v, int dec)
+{
+	char tmp[48];
+
+	cpdf_fix(tmp, sizeof tmp, v, dec);
+	snprintf(buf, n, "%s%s",
+		 v > 0.0 && strspn(tmp, "0.") != strlen(tmp) ? "+" : "", tmp);
+	return buf;
+}
+
+static void figure_row(struct cpdf *r, const struct table *t,
+		       const struct ow_cmp_point *p, int i)
+{
+	const struct ow_compare *c = r->cmp;
+	enum ow_unit_system u = r->o->units;
+	const char *unit = ow_compare_figure_unit(i, u);
+	int dec = ow_compare_figure_decimals(i, u), k;
+	char name[96], v[3][48];
+	const char *cells[4] = {name, v[0], v[1], v[2]};
+	double x[2];
+
+	snprintf(name, sizeof name, "%s%s%s", ow_compare_figure_text(i),
+		 *unit ? ", " : "", unit);
+	for (k = 0; k < 2; k++) {
+		x[k] = ow_compare_figure_shown(c->study[k], &p->pt[k], i, u);
+		cpdf_fix(v[k], sizeof v[k], x[k], dec);
+	}
+	signed_fix(v[2], sizeof v[2], x[1] - x[0], dec);
+	cpdf_table_row(r, t, cells, 0, 0);
+}
+
+/* Which earlier point (index) is the same as at, or -1. */
+static int same_as(const struct ow_compare *c, int at)
+{
+	int k;
+
+	for (k = 0; k < at; k++)
+		if (c->at[k].valid && c->at[k].rpm == c->at[at].rpm &&
+		    c->at[k].axis == c->at[at].axis)
+			return k;
+	return -1;
+}
+
+static void verdict_cell(const struct ow_verdict *v, char *buf, size_t n)
+{
+	int c;
+
+	snprintf(buf, n, "%s", v->bits ? "UNSAFE:" : "safe");
+	for (c = 0; c < OW_CK_COUNT; c++)
+		if (v->bits & (1u << c))
+			snprintf(buf + strlen(buf), n - strlen(buf), " %s",
+				 ow_check_key((enum ow_check)c));
+}
+
+static void centre_table(struct cpdf *r, int at)
+{
+	const struct ow_cmp_point *p = &r->cmp->at[at];
+	char diff[96], title[200], va[160], vb[160];
+	struct table t = {4, {"", cpdf_label(r, 0), cpdf_label(r, 1), diff},
+			  {0.46, 0.18, 0.18, 0.18},
+			  {OW_ALIGN_LEFT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT,
+			   OW_ALIGN_RIGHT}};
+	const char *cells[4] = {"verdict", va, vb, ""};
+	int i;
+
+	snprintf(diff, sizeof diff, "%s − %s", cpdf_label(r, 1),
+		 cpdf_label(r, 0));
+	snprintf(title, sizeof title, "At the %s: %.0f rpm, %.0f %s",
+		 ow_compare_at_text((enum ow_cmp_at)at), p->rpm,
+		 cpdf_temp(r, p->set_ref_K[0]), cpdf_tunit(r));
+	cpdf_need(r, 12.0 * SMALL_PT * LINE + 20.0);
+	cpdf_para(r, title, BODY_PT + 1.0, 1, 0.0, 3.0);
+	cpdf_table_head(r, &t);
+	for (i = 0; i < ow_compare_n_figures(); i++)
+		figure_row(r, &t, p, i);
+	verdict_cell(&p->v[0], va, sizeof va);
+	verdict_cell(&p->v[1], vb, sizeof vb);
+	cpdf_table_row(r, &t, cells, 0, 0);
+	r->y += 8.0;
+}
+
+static void centres(struct cpdf *r)
+{
+	const struct ow_compare *c = r->cmp;
+	char text[200];
+	int at, k;
+
+	cpdf_heading(r, "Both cases at the centre points", 160.0);
+	cpdf_para(r, "Each case solved alone at the point, as a single run "
+		  "there gives it.", BODY_PT, 0, 0.0, 5.0);
+	for (at = 0; at < OW_CMP_AT_COUNT; at++) {
+		if (!c->at[at].valid)
+			continue;
+		k = same_as(c, at);
+		if (k >= 0) {
+			snprintf(text, sizeof text, "The %s is the %s.",
+				 ow_compare_at_text((enum ow_cmp_at)at),
+				 ow_compare_at_text((enum ow_cmp_at)k));
+			cpdf_para(r, text, BODY_PT, 0, 0.0, 8.0);
+			continue;
+		}
+		centre_table(r, at);
+	}
+}
+
+/* ---- inputs --------------------------------------------------------------- */
+
+static void input_table(struct cpdf *r, const struct ow_input_diff *e, int n,
+			const struct ow_input_diff *diff, int n_diff)
+{
+	struct table t = {3, {"input field", cpdf_label(r, 0), cpdf_label(r, 1)},
+			  {0.36, 0.32, 0.32},
+			  {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT}};
+	int i, j;
+
+	cpdf_table_head(r, &t);
+	for (i = 0; i < n && i < MAX_FIELDS; i++) {
+		const char *cells[3] = {e[i].field, e[i].a, e[i].b};
+		int differs = 0;
+
+		for (j = 0; diff && j < n_diff && !differs; j++)
+			differs = !strcmp(diff[j].field, e[i].field);
+		cpdf_table_row(r, &t, cells, differs, 0);
+	}
+	r->y += 6.0;
+}
+
+static void inputs(struct cpdf *r)
+{
+	const struct ow_compare *c = r->cmp;
+	struct ow_input_diff *all = malloc(sizeof *all * MAX_FIELDS);
+	struct ow_input_diff *diff = malloc(sizeof *diff * MAX_FIELDS);
+	int na, nd;
+
+	if (!all || !diff) {
+		free(all);
+		free(diff);
+		r->st = ow_diag_set(r->d, OW_ENOMEM, "out of memory");
+		return;
+	}
+	nd = ow_compare_fields(c->study[0], c->study[1], r->o->units, 0, diff,
+			       MAX_FIELDS);
+	na = ow_compare_fields(c->study[0], c->study[1], r->o->units, 1, all,
+			       MAX_FIELDS);
+	cpdf_heading(r, "Input fields that differ", 40.0);
+	if (nd)
+		input_table(r, diff, nd, NULL, 0);
+	else
+		cpdf_para(r, "None: the two studies have the same inputs.",
+			  BODY_PT, 0, 0.0, 6.0);
+	cpdf_new_page(r);
+	cpdf_heading(r, "Both inputs", 40.0);
+	cpdf_para(r, "Every input of both studies as loaded (in the reader's "
+		  "units; lengths along the screw in its diameters D); "
+		  "shaded rows differ. The sources of the values are named "
+		  "in the study files and in each study's own report.",
+		  BODY_PT, 0, 0.0, 5.0);
+	input_table(r, all, na, diff, nd);
+	free(all);
+	free(diff);
+}
+
+/* ---- cautions ----------------------------------------------------------- */
+
+static const struct {
+	const char *lead, *text;
+} cautions[] = {
+	{"Estimates, not measurements.", "Both cases are computed from "
+	 "published engineering models and the inputs listed above; a "
+	 "difference between them is only as good as the difference "
+	 "between their inputs. Where the inputs of a case are uncertain "
+	 "(a worn screw's clearance, a new grade's viscosity), treat its "
+	 "window as uncertain too."},
+	{"Start at the common centre.", "When the line must run either "
+	 "case, start at the centre of the common window, change one "
+	 "setting at a time and watch melt pressure, melt temperature and "
+	 "drive load settle before going on. Stop and review if the line "
+	 "behaves differently from this comparison."},
+	{"The machine's own ratings come first.", "The extruder builder's "
+	 "ratings for drive power, torque, speed, barrel pressure and "
+	 "temperature, and the rating of the rupture disc, govern wherever "
+	 "they are stricter than a limit used here."},
+	{"Hot melt and pressure can injure.", "Melt at these temperatures "
+	 "burns on contact and can spray from the die or adapter when "
+	 "pressure is released. Never open the head while the barrel is hot "
+	 "and the melt may be under pressure. Local safety rules and the "
+	 "approval of a qualified engineer, where required, come first."},
+};
+
+static void caution_block(struct cpdf *r)
+{
+	char text[640];
+	size_t k;
+
+	cpdf_heading(r, "Cautions", 60.0);
+	for (k = 0; k < sizeof cautions / sizeof cautions[0]; k++) {
+		cpdf_para(r, cautions[k].lead, BODY_PT, 1, 0.0, 1.0);
+		snprintf(text, sizeof text, "%s", cautions[k].text);
+		cpdf_para(r, text, BODY_PT, 0, 0.0, 6.0);
+	}
+}
+
+void cpdf_pages(struct cpdf *r)
+{
+	cpdf_new_page(r);
+	title_block(r);
+	windows(r);
+	overlay(r);
+	cpdf_new_page(r);
+	why(r);
+	centres(r);
+	inputs(r);
+	caution_block(r);
+}
