@@ -503,19 +503,27 @@ enum ow_status ow_melt_solve_velocity(struct ow_melt_ws *ws,
 
 	*iterations = 0;
 	for (int c = 0; c < ws->nc; c++) {
-		ws->lat[c] = ow_viscosity_log_shift(&st->mat->visc, ws->tc[c]);
-		if (!isfinite(ws->lat[c]))
+		double la = ow_viscosity_log_shift(&st->mat->visc, ws->tc[c]);
+
+		if (!isfinite(la))
 			goto bad_visc;
+		if (ws->warm && la != ws->lat[c]) { /* same stress, new T */
+			ws->cur.lnv[c] += la - ws->lat[c];
+			ws->cur.phi[c] = exp(-ws->cur.lnv[c]);
+		}
+		ws->lat[c] = la;
 	}
-	if (!ws->warm && cold_start(ws, st) != 0)
-		goto bad_visc;
 	if (!(vscale(st) > 0.0)) { /* nothing moves: no stress */
+		if (!ws->warm && cold_start(ws, st) != 0)
+			goto bad_visc;
 		memset(ws->p, 0, sizeof ws->p);
 		fill_profile(ws, st);
 		return OW_OK;
 	}
-	if (solve_p(ws, st, ws->cur.phi, ws->p) != 0 ||
-	    cell_viscosities(ws, st, ws->p, &ws->cur, &ws->cur) != 0)
+	if (!ws->warm && (cold_start(ws, st) != 0 ||
+			  solve_p(ws, st, ws->cur.phi, ws->p) != 0 ||
+			  cell_viscosities(ws, st, ws->p, &ws->cur,
+					   &ws->cur) != 0))
 		goto bad_visc;
 	merit = conditions(ws, st, ws->cur.phi, ws->p, C);
 	for (it = 0; max_abs4(C) > TOL_NEWTON; it++) {
