@@ -102,13 +102,20 @@ static void find_centre(struct ow_melt_ws *ws)
 	}
 }
 
-/* Solve psi(y)/psi* = s for y in [ya, yb] where the left side runs from
- * fa to fb (bracketing s): Newton on the exact cubic (slope u_x/psi*),
- * falling back to bisection when a step leaves the bracket. */
+#define LEVEL_TOL 1e-14 /* depth error left, share of H */
+
+/* Solve psi(y)/psi* = s for y in [ya, yb] (inside one cell) where the left
+ * side runs from fa to fb (bracketing s): Newton on the cell's exact cubic
+ * psi = psi_c + H (u_c t + phi H (tau_c t^2/2 + beta t^3/6)), t = y/H - y_c
+ * (slope u_x/psi*), falling back to bisection when a step leaves the
+ * bracket. A Newton step dt leaves an error of about |f''/(2 f')| dt^2, so
+ * the last one is taken without evaluating again. */
 static double level_in(const struct ow_melt_ws *ws, double s, double ya,
 		       double yb, double fa, double fb)
 {
-	double y, up = fb > fa ? 1.0 : -1.0; /* direction f increases */
+	double hh = 1.0 / (double)ws->nc, H = ws->H, up = fb > fa ? 1.0 : -1.0;
+	int c = (int)floor(0.5 * (ya + yb) / H / hh);
+	double yc, phi, tx, b3, u0, k, ta, tb, t;
 
 	fa -= s;
 	fb -= s;
@@ -116,25 +123,41 @@ static double level_in(const struct ow_melt_ws *ws, double s, double ya,
 		return ya;
 	if (fb == 0.0)
 		return yb;
-	y = ya - fa * (yb - ya) / (fb - fa);
+	c = c < 0 ? 0 : (c > ws->nc - 1 ? ws->nc - 1 : c);
+	yc = (double)c * hh;
+	phi = ws->cur.phi[c];
+	tx = ws->p[2] + ws->p[3] * yc;
+	b3 = ws->p[3];
+	u0 = ws->ux[c];
+	k = H / ws->psistar;
+	ta = ya / H - yc;
+	tb = yb / H - yc;
+	t = ta - fa * (tb - ta) / (fb - fa);
 	for (int it = 0; it < 60; it++) {
-		double ux, f = ow_melt_psi_ux(ws, y, &ux) / ws->psistar - s;
-		double dfdy = ux / ws->psistar, yn;
+		double ux = u0 + phi * H * (tx * t + b3 * t * t / 2.0);
+		double f = (ws->psi[c] +
+			    H * (u0 * t + phi * H * (tx * t * t / 2.0 +
+						     b3 * t * t * t / 6.0))) /
+				   ws->psistar - s;
+		double d1 = k * ux, d2 = k * phi * H * (tx + b3 * t), tn;
 
 		if (f == 0.0)
-			return y;
+			return (yc + t) * H;
 		if (f * up > 0.0) /* past the root */
-			yb = y;
+			tb = t;
 		else
-			ya = y;
-		yn = dfdy != 0.0 ? y - f / dfdy : 0.5 * (ya + yb);
-		if (fabs(yn - y) < 1e-13 * ws->H)
-			return yn;
-		if (!(yn > ya && yn < yb))
-			yn = 0.5 * (ya + yb);
-		y = yn;
+			ta = t;
+		tn = d1 != 0.0 ? t - f / d1 : 0.5 * (ta + tb);
+		if (tn > ta && tn < tb && d1 != 0.0 &&
+		    fabs(d2 / d1) * (tn - t) * (tn - t) < 2.0 * LEVEL_TOL)
+			return (yc + tn) * H;
+		if (fabs(tn - t) < LEVEL_TOL)
+			return (yc + tn) * H;
+		if (!(tn > ta && tn < tb))
+			tn = 0.5 * (ta + tb);
+		t = tn;
 	}
-	return y;
+	return (yc + t) * H;
 }
 
 /* First depth, walking from the root (upper = 0) or the barrel (upper = 1)
