@@ -5,6 +5,7 @@
 #define OW_CLI_H
 
 #include "opwin.h"
+#include "ow_report.h"
 
 /* Exit codes (DESIGN.md). */
 enum {
@@ -68,5 +69,57 @@ int cli_common_option(const char *cmd, struct cli_common *c, int id,
  * ow_units_destroy(*u), free(*study). */
 int cli_load_study(const char *cmd, const char *path, struct ow_units **u,
 		   struct ow_study **study);
+
+/* A number in the display system (rpm; degC or degF; K or degF
+ * differences), or a text with its unit. */
+enum ow_status cli_read_value(const struct ow_units *u, const char *text,
+			      enum ow_dim dim, enum ow_unit_system sys,
+			      double *si, struct ow_diag *d);
+
+/* Options of the maps and the report (map and report commands). */
+struct cli_render {
+	struct ow_report_options rep;
+	const char *current; /* "--current RPM,SET" as typed */
+	char today[16];
+};
+
+#define CLI_RENDER_LONGOPTS                                      \
+	{"paper", required_argument, NULL, 'p'},                 \
+	{"revision", required_argument, NULL, 'R'},              \
+	{"prepared-by", required_argument, NULL, 'P'},           \
+	{"approved-by", required_argument, NULL, 'A'},           \
+	{"date", required_argument, NULL, 'D'},                  \
+	{"current", required_argument, NULL, 'C'}
+
+#define CLI_RENDER_HELP                                                      \
+	"  --paper P          a4 (default) or letter\n"                       \
+	"  --revision R       revision text in the title block\n"             \
+	"  --prepared-by NAME, --approved-by NAME\n"                          \
+	"                     names in the title block (blank lines to "      \
+	"sign otherwise)\n"                                                   \
+	"  --date YYYY-MM-DD  date of the report (default: today)\n"          \
+	"  --current RPM,SET  the line's current point: screw speed and the " \
+	"set-point\n"                                                         \
+	"                     of the map's axis zone (degC, or degF with "    \
+	"--units us,\n"                                                       \
+	"                     or with a unit: 60,205degC)\n"
+
+/* Defaults: A4, today's date, no current point. */
+void cli_render_init(struct cli_render *r);
+
+/* Handle one of CLI_RENDER_LONGOPTS: 0 done, CLI_USAGE after printing
+ * why, -1 not one of them. */
+int cli_render_option(const char *cmd, struct cli_render *r, int id,
+		      const char *arg);
+
+/* Read --current (if given) in unit system sys; also sets the report's
+ * unit system. Returns 0 or CLI_USAGE. */
+int cli_render_current(const char *cmd, const struct ow_units *u,
+		       struct cli_render *r, enum ow_unit_system sys);
+
+/* Draw the maps and report.pdf of study s, grid g, window w into dir. */
+int cli_render(const char *cmd, const struct ow_study *s,
+	       const struct ow_grid *g, const struct ow_window *w,
+	       const struct cli_render *r, const char *dir);
 
 #endif

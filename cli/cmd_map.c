@@ -2,6 +2,8 @@
  * extract the window, write grid.csv, window.json, the maps and the
  * report, and print the recommended window. */
 #include "cli.h"
+#include "ow_mapdir.h"
+#include "ow_maps.h"
 
 #include <errno.h>
 #include <getopt.h>
@@ -17,12 +19,17 @@ struct map_opts {
 	struct cli_common c;
 	const char *dir;
 	int rpm_steps, axis_steps, refine;
+	struct cli_render r;
 };
 
 static void help(void)
 {
 	printf("usage: opwin map STUDY.json [-o DIR] [--grid NxM] [--refine K]\n"
-	       "                [--jobs N] [--units si|us] [--quiet]\n\n"
+	       "                [--jobs N] [--units si|us] [--quiet]\n"
+	       "                [--paper a4|letter] [--revision R] "
+	       "[--prepared-by NAME]\n"
+	       "                [--approved-by NAME] [--date YYYY-MM-DD] "
+	       "[--current RPM,SET]\n\n"
 	       "Sweeps screw speed x barrel set-point, classifies every point "
 	       "against the\nstudy's limits, extracts the recommended window "
 	       "and writes grid.csv,\nwindow.json, the maps and report.pdf "
@@ -34,6 +41,8 @@ static void help(void)
 	       "of halving (0..4)\n"
 	       "  --jobs N      threads (default: all cores)\n"
 	       "  --quiet       no progress bar, no summary\n"
+	       "  --units si|us units of the maps, report and summary\n"
+	       CLI_RENDER_HELP
 	       "exit codes: 0 ok (also for an empty window), 1 inputs "
 	       "rejected, 2 usage,\n            3 computation failed, 4 "
 	       "output could not be written\n");
@@ -166,22 +175,44 @@ static void print_window(const struct ow_study *s, const struct ow_grid *g,
 }
 
 static int write_outputs(const struct ow_study *s, const struct ow_grid *g,
-			 const struct ow_window *w, const struct map_opts *o)
+			 const struct ow_window *w, struct map_opts *o)
 {
 	struct ow_diag d = {{0}};
+	struct ow_profile_row *rows = NULL;
+	struct ow_point centre;
 	char *text = NULL;
-	int rc;
+	int rc, n = 0;
+	enum ow_status st = OW_OK;
 
 	rc = write_text(o->dir, "grid.csv", text,
 			ow_results_grid_csv(s, g, &text, &d), &d);
+	text = NULL;
+	if (!rc)
+		rc = write_text(o->dir, "window.json", text,
+				ow_results_window_json(s, g, w, &text, &d),
+				&d);
 	if (rc)
 		return rc;
-	text = NULL;
-	return write_text(o->dir, "window.json", text,
-			  ow_results_window_json(s, g, w, &text, &d), &d);
+	if (!w->empty) /* the centre point, solved alone, with its profile */
+		st = ow_maps_centre_profile(s, w, &rows, &n, &centre, &d);
+	if (st == OW_OK)
+		st = ow_mapdir_save(s, g, w->empty ? NULL : &centre, rows, n,
+				    o->dir, &d);
+	if (st != OW_OK) {
+		free(rows);
+		return cli_fail("map", st, &d);
+	}
+	o->r.rep.centre_point = w->empty ? NULL : &centre;
+	o->r.rep.profile = rows;
+	o->r.rep.n_profile = n;
+	rc = cli_render("map", s, g, w, &o->r, o->dir);
+	o->r.rep.centre_point = NULL;
+	o->r.rep.profile = NULL;
+	free(rows);
+	return rc;
 }
 
-static int sweep(const struct ow_study *s, const struct map_opts *o)
+static int sweep(const struct ow_study *s, struct map_opts *o)
 {
 	struct ow_sweep_config cfg;
 	struct progress pr;
@@ -211,7 +242,8 @@ static int sweep(const struct ow_study *s, const struct map_opts *o)
 	rc = write_outputs(s, g, w, o);
 	if (!rc && !o->c.quiet) {
 		print_window(s, g, w, o);
-		printf("written to %s/ (grid.csv, window.json)\n", o->dir);
+		printf("written to %s/ (grid.csv, window.json, maps, "
+		       "report.pdf)\n", o->dir);
 	}
 done:
 	ow_window_destroy(w);
@@ -223,17 +255,19 @@ int cmd_map(int argc, char **argv)
 {
 	static const struct option opts[] = {
 		CLI_COMMON_LONGOPTS,
+		CLI_RENDER_LONGOPTS,
 		{"output", required_argument, NULL, 'o'},
 		{"grid", required_argument, NULL, 'g'},
 		{"refine", required_argument, NULL, 'r'},
 		{NULL, 0, NULL, 0},
 	};
-	struct map_opts o = {{OW_SYS_SI, 0, 0}, "opwin-map", 0, 0, 0};
+	struct map_opts o = {.c = {OW_SYS_SI, 0, 0}, .dir = "opwin-map"};
 	struct ow_units *u = NULL;
 	struct ow_study *s = NULL;
 	char *end;
 	int id, rc;
 
+	cli_render_init(&o.r);
 	optind = 1;
 	while ((id = getopt_long(argc, argv, "ho:q", opts, NULL)) != -1) {
 		if (id == 'h' || id == 'V') {
@@ -253,15 +287,19 @@ int cmd_map(int argc, char **argv)
 				return cli_usage_error("map",
 						       "--refine takes 0..4");
 			o.refine = (int)k;
-		} else if ((rc = cli_common_option("map", &o.c, id, optarg))) {
-			return rc;
+		} else if ((rc = cli_render_option("map", &o.r, id, optarg))) {
+			if (rc > 0 || (rc = cli_common_option("map", &o.c, id,
+							      optarg)))
+				return rc;
 		}
 	}
 	if (optind != argc - 1)
 		return cli_usage_error("map", "expects one STUDY.json");
 	if ((rc = cli_load_study("map", argv[optind], &u, &s)))
 		return rc;
-	rc = make_dir(o.dir);
+	rc = cli_render_current("map", u, &o.r, o.c.units);
+	if (!rc)
+		rc = make_dir(o.dir);
 	if (!rc)
 		rc = sweep(s, &o);
 	free(s);

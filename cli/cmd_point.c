@@ -35,21 +35,6 @@ static void help(void)
 	       "failed,\n            4 output could not be written\n");
 }
 
-/* A number with or without a unit; bare numbers are read in the display
- * system (rpm; degC or degF; K or degF differences). */
-static enum ow_status read_value(const struct ow_units *u, const char *text,
-				 enum ow_dim dim, enum ow_unit_system sys,
-				 double *si, struct ow_diag *d)
-{
-	double x;
-
-	if (ow_units_parse_number(text, &x, NULL) == OW_OK) {
-		*si = ow_display_to_si(sys, dim, x);
-		return OW_OK;
-	}
-	return ow_units_parse(u, text, dim, 0.0, si, d);
-}
-
 static void print_limit_lines(const struct ow_verdict *v)
 {
 	const char *names[OW_CK_COUNT];
@@ -162,9 +147,9 @@ static int solve(const struct ow_units *u, const struct ow_study *s,
 	enum ow_status st;
 	int rc;
 
-	st = read_value(u, o->rpm, OW_DIM_ROT_SPEED, o->c.units, &rpm, &d);
+	st = cli_read_value(u, o->rpm, OW_DIM_ROT_SPEED, o->c.units, &rpm, &d);
 	if (st == OW_OK && o->set)
-		st = read_value(u, o->set,
+		st = cli_read_value(u, o->set,
 				s->line.axes.mode == OW_AXIS_SHIFT
 					? OW_DIM_TEMP_DIFF
 					: OW_DIM_TEMPERATURE,

@@ -1,0 +1,123 @@
+/* render.c - what `opwin map` and `opwin report` share: the report's
+ * options (paper, revision, signatures, date, current point) and drawing
+ * the maps and report.pdf into a map folder; reading a value typed on the
+ * command line with or without its unit. */
+#include "cli.h"
+
+#include <stdio.h>
+#include <string.h>
+#include <time.h>
+
+#include "ow_maps.h"
+
+enum ow_status cli_read_value(const struct ow_units *u, const char *text,
+			      enum ow_dim dim, enum ow_unit_system sys,
+			      double *si, struct ow_diag *d)
+{
+	double x;
+
+	if (ow_units_parse_number(text, &x, NULL) == OW_OK) {
+		*si = ow_display_to_si(sys, dim, x);
+		return OW_OK;
+	}
+	return ow_units_parse(u, text, dim, 0.0, si, d);
+}
+
+void cli_render_init(struct cli_render *r)
+{
+	time_t now = time(NULL);
+
+	memset(r, 0, sizeof *r);
+	ow_report_default(&r->rep);
+	strftime(r->today, sizeof r->today, "%Y-%m-%d", localtime(&now));
+	r->rep.date = r->today;
+}
+
+static int valid_date(const char *s)
+{
+	int y, m, d, n = 0;
+
+	return strlen(s) == 10 &&
+	       sscanf(s, "%4d-%2d-%2d%n", &y, &m, &d, &n) == 3 && n == 10 &&
+	       m >= 1 && m <= 12 && d >= 1 && d <= 31;
+}
+
+int cli_render_option(const char *cmd, struct cli_render *r, int id,
+		      const char *arg)
+{
+	switch (id) {
+	case 'p':
+		if (ow_report_paper_parse(arg, &r->rep.paper))
+			return cli_usage_error(cmd, "--paper takes a4 or letter");
+		return 0;
+	case 'R':
+		r->rep.revision = arg;
+		return 0;
+	case 'P':
+		r->rep.prepared_by = arg;
+		return 0;
+	case 'A':
+		r->rep.approved_by = arg;
+		return 0;
+	case 'D':
+		if (!valid_date(arg))
+			return cli_usage_error(cmd, "--date takes YYYY-MM-DD");
+		r->rep.date = arg;
+		return 0;
+	case 'C':
+		r->current = arg;
+		return 0;
+	default:
+		return -1;
+	}
+}
+
+int cli_render_current(const char *cmd, const struct ow_units *u,
+		       struct cli_render *r, enum ow_unit_system sys)
+{
+	char buf[128], *comma;
+	struct ow_diag d = {{0}};
+	enum ow_status st;
+
+	r->rep.units = sys;
+	if (!r->current)
+		return CLI_OK;
+	snprintf(buf, sizeof buf, "%s", r->current);
+	comma = strchr(buf, ',');
+	if (!comma)
+		return cli_usage_error(cmd, "--current takes RPM,SET (e.g. "
+					    "60,205)");
+	*comma = '\0';
+	st = cli_read_value(u, buf, OW_DIM_ROT_SPEED, sys,
+			    &r->rep.current_rpm, &d);
+	if (st == OW_OK)
+		st = cli_read_value(u, comma + 1, OW_DIM_TEMPERATURE, sys,
+				    &r->rep.current_set_K, &d);
+	if (st != OW_OK)
+		return cli_usage_error(cmd, d.msg);
+	r->rep.has_current = 1;
+	return CLI_OK;
+}
+
+int cli_render(const char *cmd, const struct ow_study *s,
+	       const struct ow_grid *g, const struct ow_window *w,
+	       const struct cli_render *r, const char *dir)
+{
+	struct ow_maps_options mo;
+	struct ow_diag d = {{0}};
+	char path[OW_PATH_LEN + 16];
+	enum ow_status st;
+
+	ow_maps_default(&mo);
+	mo.units = r->rep.units;
+	mo.has_current = r->rep.has_current;
+	mo.current_rpm = r->rep.current_rpm;
+	mo.current_set_K = r->rep.current_set_K;
+	mo.profile = r->rep.profile;
+	mo.n_profile = r->rep.n_profile;
+	st = ow_maps_write_all(s, g, w, &mo, dir, &d);
+	snprintf(path, sizeof path, "%s/report.pdf", dir);
+	if (st == OW_OK)
+		st = ow_report_write(s, g, w, &r->rep, path, &d);
+	return st == OW_OK ? CLI_OK : cli_fail(cmd, st, &d);
+}
