@@ -347,41 +347,58 @@ void maps_draw_edge(const struct ow_plot *p, const struct ow_study *s,
 	}
 }
 
-/* A marked point with a label beside it, placed where it is free. */
+/* A label box at (bx, by), w x h: white, bold text. */
+static void point_label(const struct ow_plot *p, double bx, double by,
+			double w, double h, const char *text)
+{
+	double f = p->font_pt;
+
+	ow_canvas_save(p->cv);
+	ow_canvas_rect(p->cv, bx, by, w, h);
+	ow_canvas_set_colour(p->cv, ow_rgba_with_alpha(ow_rgb(1, 1, 1), 0.9));
+	ow_canvas_fill(p->cv);
+	ow_canvas_set_colour(p->cv, ow_rgb(0, 0, 0));
+	ow_canvas_set_font(p->cv, 0.95 * f, 1);
+	ow_canvas_text(p->cv, bx + 0.3 * f, by + 0.5 * h, text, OW_ALIGN_LEFT,
+		       OW_VALIGN_MIDDLE, 0);
+	ow_canvas_restore(p->cv);
+}
+
+/* A marked point with a label beside it: at the first of four corners
+ * that lies inside the plot and clear of other labels; failing that, the
+ * first inside the plot; failing that, pushed inside. */
 static void mark_point(const struct ow_plot *p, double x, double y,
 		       enum ow_marker m, const char *text,
 		       struct maps_labels *taken)
 {
 	static const double off[4][2] = {{1, -1}, {1, 1}, {-1, -1}, {-1, 1}};
 	double X = ow_plot_px(p, x), Y = ow_plot_py(p, y), f = p->font_pt;
-	double w, h = 1.3 * f;
-	int k;
+	double w, h = 1.3 * f, bx[4], by[4];
+	int k, pick = -1, inside = -1;
 
 	ow_plot_marker(p, x, y, m, 9.0, ow_rgb(1, 1, 1), ow_rgb(0, 0, 0));
 	ow_canvas_set_font(p->cv, 0.95 * f, 1);
 	w = ow_canvas_text_width(p->cv, text) + 0.6 * f;
-	for (k = 0; k < 4; k++) {
-		double bx = off[k][0] > 0 ? X + 6.0 : X - 6.0 - w;
-		double by = off[k][1] < 0 ? Y - 6.0 - h : Y + 6.0;
-
-		if (bx < p->area.x || bx + w > p->area.x + p->area.w ||
-		    by < p->area.y || by + h > p->area.y + p->area.h)
+	for (k = 0; k < 4 && pick < 0; k++) {
+		bx[k] = off[k][0] > 0 ? X + 6.0 : X - 6.0 - w;
+		by[k] = off[k][1] < 0 ? Y - 6.0 - h : Y + 6.0;
+		if (bx[k] < p->area.x || bx[k] + w > p->area.x + p->area.w ||
+		    by[k] < p->area.y || by[k] + h > p->area.y + p->area.h)
 			continue;
-		if (k < 3 && !maps_labels_free(taken, bx, by, bx + w, by + h))
-			continue;
-		ow_canvas_save(p->cv);
-		ow_canvas_rect(p->cv, bx, by, w, h);
-		ow_canvas_set_colour(p->cv,
-				     ow_rgba_with_alpha(ow_rgb(1, 1, 1), 0.9));
-		ow_canvas_fill(p->cv);
-		ow_canvas_set_colour(p->cv, ow_rgb(0, 0, 0));
-		ow_canvas_set_font(p->cv, 0.95 * f, 1);
-		ow_canvas_text(p->cv, bx + 0.3 * f, by + 0.5 * h, text,
-			       OW_ALIGN_LEFT, OW_VALIGN_MIDDLE, 0);
-		ow_canvas_restore(p->cv);
-		maps_labels_take(taken, bx, by, bx + w, by + h);
-		return;
+		if (inside < 0)
+			inside = k;
+		if (maps_labels_free(taken, bx[k], by[k], bx[k] + w, by[k] + h))
+			pick = k;
 	}
+	if (pick < 0 && inside >= 0)
+		pick = inside;
+	if (pick < 0) {
+		pick = 0;
+		bx[0] = fmax(p->area.x, fmin(bx[0], p->area.x + p->area.w - w));
+		by[0] = fmax(p->area.y, fmin(by[0], p->area.y + p->area.h - h));
+	}
+	point_label(p, bx[pick], by[pick], w, h, text);
+	maps_labels_take(taken, bx[pick], by[pick], bx[pick] + w, by[pick] + h);
 }
 
 static void point_text(char *buf, size_t n, const char *what, double rpm,
@@ -396,7 +413,7 @@ static void point_text(char *buf, size_t n, const char *what, double rpm,
 
 void maps_draw_points(const struct ow_plot *p, const struct ow_study *s,
 		      const struct ow_window *w,
-		      const struct ow_maps_options *o,
+		      const struct ow_maps_options *o, int brief,
 		      struct maps_labels *taken)
 {
 	char buf[128];
@@ -407,6 +424,8 @@ void maps_draw_points(const struct ow_plot *p, const struct ow_study *s,
 
 		point_text(buf, sizeof buf, "centre", w->centre.rpm, y,
 			   o->units);
+		if (brief)
+			snprintf(buf, sizeof buf, "centre");
 		mark_point(p, w->centre.rpm, y, OW_MARK_DIAMOND, buf, taken);
 	}
 	if (o->has_current && isfinite(o->current_rpm) &&
@@ -415,6 +434,8 @@ void maps_draw_points(const struct ow_plot *p, const struct ow_study *s,
 
 		point_text(buf, sizeof buf, "current", o->current_rpm, y,
 			   o->units);
+		if (brief)
+			snprintf(buf, sizeof buf, "current");
 		mark_point(p, o->current_rpm, y, OW_MARK_TRIANGLE, buf, taken);
 	}
 }

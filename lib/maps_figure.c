@@ -129,12 +129,26 @@ static int longest(const struct ow_plot *p, const struct ow_isolines *L,
 	return b;
 }
 
+/* Keep the box a rotated label covers from later labels. */
+static void take_label(const struct ow_plot *p, struct maps_labels *taken,
+		       double X, double Y, double ang, const char *text)
+{
+	double a = ang * 3.14159265358979323846 / 180.0, tw, hx, hy;
+
+	ow_canvas_set_font(p->cv, 0.9 * p->font_pt, 0);
+	tw = ow_canvas_text_width(p->cv, text) + 0.5 * p->font_pt;
+	hx = 0.5 * tw * fabs(cos(a)) + 0.65 * p->font_pt * fabs(sin(a));
+	hy = 0.5 * tw * fabs(sin(a)) + 0.65 * p->font_pt * fabs(cos(a));
+	maps_labels_take(taken, X - hx, Y - hy, X + hx, Y + hy);
+}
+
 /* The figure's limit as a bold red dashed line, labelled with the
  * limit's name and value a third of the way along its longest piece. */
 static enum ow_status limit_line(const struct ow_plot *p,
 				 const struct ow_study *s, int c,
 				 const struct ow_field *fd,
-				 enum ow_unit_system u, struct ow_diag *d)
+				 enum ow_unit_system u, struct maps_labels *taken,
+				 struct ow_diag *d)
 {
 	struct ow_rgba red = ow_rgb(0.80, 0.10, 0.05);
 	struct ow_isolines *L = NULL;
@@ -171,6 +185,7 @@ static enum ow_status limit_line(const struct ow_plot *p,
 			maps_limit_text(s, c, u, NULL, text, sizeof text);
 			ow_plot_label_on_line(p->cv, X, Y, ang, text,
 					      0.9 * p->font_pt, red);
+			take_label(p, taken, X, Y, ang, text);
 			break;
 		}
 	}
@@ -181,14 +196,15 @@ static enum ow_status limit_line(const struct ow_plot *p,
 static enum ow_status limit_lines(const struct ow_plot *p,
 				  const struct ow_study *s,
 				  enum ow_map_figure f, const struct ow_field *fd,
-				  enum ow_unit_system u, struct ow_diag *d)
+				  enum ow_unit_system u, struct maps_labels *taken,
+				  struct ow_diag *d)
 {
 	int c[2], n = limits_of(f, c), k;
 	enum ow_status st = OW_OK;
 
 	for (k = 0; k < n && st == OW_OK; k++)
 		if (isfinite(shown_limit(s, c[k], u)))
-			st = limit_line(p, s, c[k], fd, u, d);
+			st = limit_line(p, s, c[k], fd, u, taken, d);
 	return st;
 }
 
@@ -263,14 +279,11 @@ static void subtitle_of(enum ow_map_figure f, const struct ow_study *s,
 			char *buf, size_t n)
 {
 	int c[2];
+	int lim = limits_of(f, c) > 0 &&
+		  isfinite(ow_check_limit(&s->line.limits, (enum ow_check)c[0]));
 
-	snprintf(buf, n, "%s over the sweep%s; black dashed: edge of the safe "
-		 "region; box: recommended window",
-		 ow_maps_figure_title(f),
-		 limits_of(f, c) > 0 &&
-				 isfinite(ow_check_limit(&s->line.limits,
-							 (enum ow_check)c[0]))
-			 ? "; red dashed: its limit" : "");
+	snprintf(buf, n, "%sDashed black: edge of the safe region. Box: "
+		 "recommended window.", lim ? "Dashed red: the limit. " : "");
 }
 
 static enum ow_status draw_body(const struct ow_plot *p,
@@ -299,9 +312,9 @@ static enum ow_status draw_body(const struct ow_plot *p,
 		return st;
 	maps_draw_edge(p, s, w, o->units);
 	maps_draw_rectangle(p, s, w, o->units, 1.2);
-	st = limit_lines(p, s, f, fd, o->units, d);
+	st = limit_lines(p, s, f, fd, o->units, &taken, d);
 	po.has_current = 0; /* the window map shows it; keep these clear */
-	maps_draw_points(p, s, w, &po, &taken);
+	maps_draw_points(p, s, w, &po, 1, &taken);
 	return st;
 }
 
@@ -321,7 +334,7 @@ enum ow_status ow_maps_draw_figure(struct ow_canvas *cv,
 	struct ow_plot p;
 	struct ow_ticks lv;
 	struct ow_rect inner, bar;
-	char ytitle[128], btitle[128], sub[256];
+	char ytitle[128], btitle[128], sub[256], title[400];
 	double fs;
 	enum ow_status st;
 	int constant = 0;
@@ -345,7 +358,9 @@ enum ow_status ow_maps_draw_figure(struct ow_canvas *cv,
 				   "to draw", ow_maps_figure_file(f));
 	}
 	subtitle_of(f, s, sub, sizeof sub);
-	maps_paper(cv, box, s->title, sub, fs);
+	snprintf(title, sizeof title, "%s — %s", ow_maps_figure_title(f),
+		 s->title);
+	maps_paper(cv, box, title, sub, fs);
 	inner = *box;
 	inner.y += 3.4 * fs;
 	inner.h -= 3.4 * fs;

@@ -74,10 +74,11 @@ void maps_draw_edge(const struct ow_plot *p, const struct ow_study *s,
 void maps_boundary_points(const struct ow_study *s, const struct ow_polyline *l,
 			  enum ow_unit_system u, struct ow_pt2 *out);
 
-/* The centre and the current point, marked and labelled. */
+/* The centre and the current point, marked and labelled with their
+ * speed and set-point (brief: with their names only). */
 void maps_draw_points(const struct ow_plot *p, const struct ow_study *s,
 		      const struct ow_window *w,
-		      const struct ow_maps_options *o,
+		      const struct ow_maps_options *o, int brief,
 		      struct maps_labels *taken);
 
 /* Canvas white, a shortened title at the top. */

@@ -350,11 +350,11 @@ static void subtitle_of(const struct ow_study *s, const struct ow_window *w,
 {
 	char pct[32];
 
-	snprintf(buf, n, "Operating window: white is safe (%s %% of the map), "
-		 "hatched regions exceed a limit%s",
+	snprintf(buf, n, "White: safe (%s %% of the map). Hatched: a limit is "
+		 "exceeded.%s",
 		 maps_num(pct, sizeof pct, 100.0 * w->safe_fraction),
 		 s->line.axes.mode == OW_AXIS_SHIFT
-			 ? "; all zones shifted together" : "");
+			 ? " All zones shifted together." : "");
 }
 
 static enum ow_status draw_body(const struct ow_plot *p,
@@ -379,7 +379,7 @@ static enum ow_status draw_body(const struct ow_plot *p,
 		return st;
 	boundary_lines(p, s, w, o->units);
 	maps_draw_rectangle(p, s, w, o->units, 2.2);
-	maps_draw_points(p, s, w, o, &taken);
+	maps_draw_points(p, s, w, o, 0, &taken);
 	if (!w->empty)
 		label_rectangle(p, w, o->units, &taken);
 	for (c = 0; c < OW_CK_COUNT; c++)
@@ -398,6 +398,8 @@ struct wlayout {
 	struct ow_plot_axis x, y;
 	struct ow_plot p;
 	int n;
+	int cols;        /* legend columns: 1 beside the plot, more below */
+	double lx, ly;   /* legend's top-left corner */
 };
 
 static enum ow_status window_layout(struct ow_canvas *cv,
@@ -408,19 +410,38 @@ static enum ow_status window_layout(struct ow_canvas *cv,
 				    const struct ow_maps_options *o,
 				    struct wlayout *ly, struct ow_diag *d)
 {
-	double f = maps_font(o), lw, lh;
+	double f = maps_font(o), lw, lh, right = 0.0;
 	struct ow_rect inner = *box;
 
 	ly->n = legend_entries(s, w, o, ly->e, ly->h, ly->text);
 	ow_plot_legend_size(cv, ly->e, ly->n, 0.9 * f, &lw, &lh);
 	inner.y += 3.4 * f;
 	inner.h -= 3.4 * f;
+	ly->cols = 1;
+	if (lw > 0.25 * box->w) { /* a narrow box: the legend goes below */
+		double gw, gh;
+
+		ly->cols = 3;
+		do
+			ow_plot_legend_grid_size(cv, ly->e, ly->n, 0.9 * f,
+						 ly->cols, &gw, &gh);
+		while (gw > box->w - 2.0 * f && --ly->cols > 1);
+		inner.h -= gh + 0.6 * f;
+		ly->lx = box->x + 0.5 * (box->w - gw);
+		ly->ly = inner.y + inner.h + 0.3 * f;
+	} else {
+		right = lw + 0.8 * f;
+	}
 	maps_axes(s, g, o->units, &ly->x, &ly->y, ly->ytitle,
 		  sizeof ly->ytitle);
-	if (ow_plot_init(&ly->p, cv, &inner, &ly->x, &ly->y, f,
-			 lw + 0.8 * f) != OW_OK)
+	if (ow_plot_init(&ly->p, cv, &inner, &ly->x, &ly->y, f, right) !=
+	    OW_OK)
 		return ow_diag_set(d, OW_EARG, "window map: box %.0f x %.0f pt "
 				   "too small", box->w, box->h);
+	if (ly->cols == 1) {
+		ly->lx = ly->p.area.x + ly->p.area.w + 1.2 * f;
+		ly->ly = ly->p.area.y;
+	}
 	return OW_OK;
 }
 
@@ -484,8 +505,8 @@ enum ow_status ow_maps_draw_window(struct ow_canvas *cv,
 	}
 	if (st == OW_OK) {
 		ow_plot_axes(&ly->p, &ly->x, &ly->y);
-		ow_plot_legend(cv, ly->p.area.x + ly->p.area.w + 1.2 * f,
-			       ly->p.area.y, ly->e, ly->n, 0.9 * f);
+		ow_plot_legend_grid(cv, ly->lx, ly->ly, ly->e, ly->n, 0.9 * f,
+				    ly->cols);
 		st = ow_canvas_status(cv, d);
 	}
 	free(ly);

@@ -67,7 +67,8 @@ struct ow_plot_axis {
 	double min, max;   /* data range (min < max) */
 	const char *title; /* with its unit: "screw speed (rpm)"; NULL: none */
 	int nice;          /* 1: widen min..max to whole tick steps */
-	int max_ticks;     /* 0: about one tick per 70 points */
+	int max_ticks;     /* 0: about one tick per 5 font sizes across,
+			      3.2 font sizes up */
 };
 
 struct ow_plot {
@@ -256,6 +257,15 @@ void ow_plot_legend_size(struct ow_canvas *cv, const struct ow_legend_entry *e,
 /* Draw the legend with its top-left corner at (x, y), on a white box. */
 void ow_plot_legend(struct ow_canvas *cv, double x, double y,
 		    const struct ow_legend_entry *e, int n, double font_pt);
+
+/* The same legend in cols columns (filled column by column), and its
+ * size: for a legend under a plot rather than beside it. */
+void ow_plot_legend_grid_size(struct ow_canvas *cv,
+			      const struct ow_legend_entry *e, int n,
+			      double font_pt, int cols, double *w, double *h);
+void ow_plot_legend_grid(struct ow_canvas *cv, double x, double y,
+			 const struct ow_legend_entry *e, int n, double font_pt,
+			 int cols);
 
 /* A series of a line chart. */
 struct ow_series {

@@ -220,7 +220,7 @@ enum ow_status ow_plot_init(struct ow_plot *p, struct ow_canvas *cv,
 	right = right_pt + 1.6 * font_pt;
 	w = box->w - left - right;
 	if (w < 4.0 * font_pt ||
-	    axis_ticks(x, w, 7.5 * font_pt, &p->xt, &p->x0, &p->x1) != OW_OK)
+	    axis_ticks(x, w, 5.0 * font_pt, &p->xt, &p->x0, &p->x1) != OW_OK)
 		return OW_EARG;
 	p->area.x = box->x + left;
 	p->area.y = box->y + top;
@@ -549,18 +549,37 @@ void ow_plot_region(const struct ow_plot *p, const struct ow_pt2 *pts,
 
 #define SAMPLE_W(f) (2.6 * (f))
 
-void ow_plot_legend_size(struct ow_canvas *cv, const struct ow_legend_entry *e,
-			 int n, double font_pt, double *w, double *h)
+/* One entry's width: sample, gaps and its label. */
+static double entry_w(struct ow_canvas *cv, const struct ow_legend_entry *e,
+		      int n, double f)
 {
 	double tw = 0.0;
 	int i;
 
-	ow_canvas_set_font(cv, font_pt, 0);
+	ow_canvas_set_font(cv, f, 0);
 	for (i = 0; i < n; i++)
 		tw = fmax(tw, ow_canvas_text_width(cv, e[i].label));
-	*w = 0.6 * font_pt + SAMPLE_W(font_pt) + 0.6 * font_pt + tw +
-	     0.6 * font_pt;
-	*h = (double)n * 1.45 * font_pt + 0.6 * font_pt;
+	return 0.6 * f + SAMPLE_W(f) + 0.6 * f + tw + 0.6 * f;
+}
+
+static int rows_of(int n, int cols)
+{
+	return (n + cols - 1) / cols;
+}
+
+void ow_plot_legend_grid_size(struct ow_canvas *cv,
+			      const struct ow_legend_entry *e, int n,
+			      double font_pt, int cols, double *w, double *h)
+{
+	cols = cols < 1 ? 1 : cols;
+	*w = (double)cols * entry_w(cv, e, n, font_pt);
+	*h = (double)rows_of(n, cols) * 1.45 * font_pt + 0.6 * font_pt;
+}
+
+void ow_plot_legend_size(struct ow_canvas *cv, const struct ow_legend_entry *e,
+			 int n, double font_pt, double *w, double *h)
+{
+	ow_plot_legend_grid_size(cv, e, n, font_pt, 1, w, h);
 }
 
 static void legend_sample(struct ow_canvas *cv, double x, double y,
@@ -595,15 +614,19 @@ static void legend_sample(struct ow_canvas *cv, double x, double y,
 	}
 }
 
-void ow_plot_legend(struct ow_canvas *cv, double x, double y,
-		    const struct ow_legend_entry *e, int n, double font_pt)
+void ow_plot_legend_grid(struct ow_canvas *cv, double x, double y,
+			 const struct ow_legend_entry *e, int n, double font_pt,
+			 int cols)
 {
-	double w, h, f = font_pt;
-	int i;
+	double w, h, f = font_pt, cw;
+	int i, rows;
 
 	if (!e || n < 1)
 		return;
-	ow_plot_legend_size(cv, e, n, f, &w, &h);
+	cols = cols < 1 ? 1 : cols;
+	rows = rows_of(n, cols);
+	cw = entry_w(cv, e, n, f);
+	ow_plot_legend_grid_size(cv, e, n, f, cols, &w, &h);
 	ow_canvas_save(cv);
 	ow_canvas_rect(cv, x, y, w, h);
 	ow_canvas_set_colour(cv, ow_rgba_with_alpha(ow_rgb(1, 1, 1), 0.92));
@@ -611,18 +634,25 @@ void ow_plot_legend(struct ow_canvas *cv, double x, double y,
 	ow_canvas_set_colour(cv, ow_rgb(0.6, 0.6, 0.6));
 	ow_canvas_set_line_width(cv, 0.5);
 	ow_canvas_stroke(cv);
-	for (i = 0; i < n; i++) {
-		double yy = y + 0.3 * f + ((double)i + 0.5) * 1.45 * f;
+	for (i = 0; i < n; i++) { /* down the first column, then the next */
+		double xx = x + (double)(i / rows) * cw;
+		double yy = y + 0.3 * f + ((double)(i % rows) + 0.5) * 1.45 * f;
 
 		ow_canvas_save(cv);
-		legend_sample(cv, x + 0.6 * f, yy, &e[i], f);
+		legend_sample(cv, xx + 0.6 * f, yy, &e[i], f);
 		ow_canvas_restore(cv);
 		ow_canvas_set_colour(cv, ow_rgb(0.12, 0.12, 0.12));
 		ow_canvas_set_font(cv, f, 0);
-		ow_canvas_text(cv, x + 1.2 * f + SAMPLE_W(f), yy, e[i].label,
+		ow_canvas_text(cv, xx + 1.2 * f + SAMPLE_W(f), yy, e[i].label,
 			       OW_ALIGN_LEFT, OW_VALIGN_MIDDLE, 0);
 	}
 	ow_canvas_restore(cv);
+}
+
+void ow_plot_legend(struct ow_canvas *cv, double x, double y,
+		    const struct ow_legend_entry *e, int n, double font_pt)
+{
+	ow_plot_legend_grid(cv, x, y, e, n, font_pt, 1);
 }
 
 int ow_plot_series_range(const struct ow_series *s, int n, int use_y,
