@@ -3,6 +3,7 @@
  * and write compare.json, compare.csv, the overlay map and compare.pdf. */
 #include "cli.h"
 #include "ow_compare.h"
+#include "ow_report.h"
 
 #include <errno.h>
 #include <getopt.h>
@@ -122,36 +123,6 @@ static int make_dir(const char *dir)
 #define SHOW(dim, si) ow_display_value(o->c.units, dim, si), \
 		      ow_display_label(o->c.units, dim)
 
-static void print_window(const char *name, const struct ow_window *w,
-			 const struct cmp_opts *o)
-{
-	printf("  %-8s ", name);
-	if (w->empty) {
-		printf("no safe point in the swept range\n");
-		return;
-	}
-	printf("%5.1f - %5.1f rpm, %6.1f - %6.1f %s;  centre %.1f rpm at "
-	       "%.1f %s;  %.0f %% of the map safe\n", w->rpm_min, w->rpm_max,
-	       ow_display_value(o->c.units, OW_DIM_TEMPERATURE, w->set_min_K),
-	       SHOW(OW_DIM_TEMPERATURE, w->set_max_K), w->centre.rpm,
-	       SHOW(OW_DIM_TEMPERATURE, w->centre_set_K),
-	       100.0 * w->safe_fraction);
-}
-
-static void print_limits(const char *lead, const int *counts)
-{
-	int c, any = 0;
-
-	printf("%s", lead);
-	for (c = 0; c < OW_CK_COUNT; c++)
-		if (counts[c]) {
-			printf("%s %s (%d)", any ? "," : "",
-			       ow_check_key((enum ow_check)c), counts[c]);
-			any = 1;
-		}
-	printf("%s\n", any ? "" : " none");
-}
-
 /* Columns of UTF-8 text ("°C" is two bytes, one column). */
 static int columns(const char *s)
 {
@@ -172,6 +143,52 @@ static void cell(const char *s, int width)
 	printf("%s", s);
 	if (width > 0)
 		printf("%*s", pad > 0 ? pad : 0, "");
+}
+
+/* Bounds as the reports print them: rounded towards the inside. */
+static void print_window(const char *name, const struct ow_window *w,
+			 const struct cmp_opts *o)
+{
+	enum ow_unit_system u = o->c.units;
+	char rpm[64], set[64], c[2][32];
+
+	printf("  ");
+	cell(name, 9);
+	if (w->empty) {
+		printf("no safe point in the swept range\n");
+		return;
+	}
+	ow_compare_format_range(rpm, sizeof rpm, w->rpm_min, w->rpm_max,
+				OW_REPORT_RPM_DECIMALS);
+	ow_compare_format_range(
+		set, sizeof set,
+		ow_display_value(u, OW_DIM_TEMPERATURE, w->set_min_K),
+		ow_display_value(u, OW_DIM_TEMPERATURE, w->set_max_K),
+		OW_REPORT_TEMP_DECIMALS);
+	ow_report_format_bound(c[0], sizeof c[0], w->centre.rpm,
+			       OW_REPORT_RPM_DECIMALS, OW_ROUND_NEAREST);
+	ow_report_format_bound(
+		c[1], sizeof c[1],
+		ow_display_value(u, OW_DIM_TEMPERATURE, w->centre_set_K),
+		OW_REPORT_TEMP_DECIMALS + 1, OW_ROUND_NEAREST);
+	printf("%s rpm, %s %s;  centre %s rpm at %s %s;  %.0f %% of the map "
+	       "safe\n", rpm, set, ow_display_label(u, OW_DIM_TEMPERATURE),
+	       c[0], c[1], ow_display_label(u, OW_DIM_TEMPERATURE),
+	       100.0 * w->safe_fraction);
+}
+
+static void print_limits(const char *lead, const int *counts)
+{
+	int c, any = 0;
+
+	printf("%s", lead);
+	for (c = 0; c < OW_CK_COUNT; c++)
+		if (counts[c]) {
+			printf("%s %s (%d)", any ? "," : "",
+			       ow_check_key((enum ow_check)c), counts[c]);
+			any = 1;
+		}
+	printf("%s\n", any ? "" : " none");
 }
 
 static void print_row(const struct ow_compare *cmp,

@@ -8,6 +8,7 @@
 #include "ow_compare.h"
 
 #include "ow_maps.h"
+#include "ow_report.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -41,6 +42,23 @@ static struct ow_hatch hatch(int k)
 			     ow_rgba_with_alpha(ink(k), 0.8)};
 
 	return h;
+}
+
+char *ow_compare_format_range(char *buf, size_t n, double lo, double hi,
+			      int decimals)
+{
+	char a[32], b[32];
+	int dec;
+
+	for (dec = decimals; dec <= decimals + 2; dec++) {
+		ow_report_format_bound(a, sizeof a, lo, dec, OW_ROUND_UP);
+		ow_report_format_bound(b, sizeof b, hi, dec, OW_ROUND_DOWN);
+		if (ceil(lo * pow(10.0, dec) - 1e-6) <=
+		    floor(hi * pow(10.0, dec) + 1e-6))
+			break;
+	}
+	snprintf(buf, n, "%s–%s", a, b);
+	return buf;
 }
 
 void ow_compare_draw_default(struct ow_compare_draw_options *o)
@@ -393,17 +411,19 @@ static void label_edges(const struct ow_plot *p, const struct ow_compare *cmp,
 static void label_common(const struct ow_plot *p, const struct ow_window *w,
 			 enum ow_unit_system u, struct taken *t)
 {
-	char a[32], b[32], c[32], e[32], text[160];
+	char a[64], b[64], text[160];
 	double f = p->font_pt, x0, y0, x1, y1, tw, h = 1.4 * f, bx, by;
 
 	if (w->empty)
 		return;
 	rect_of(p, w, u, &x0, &y0, &x1, &y1);
-	snprintf(text, sizeof text, "common window %s–%s rpm, %s–%s %s",
-		 ow_plot_format(a, sizeof a, w->rpm_min, 0),
-		 ow_plot_format(b, sizeof b, w->rpm_max, 0),
-		 ow_plot_format(c, sizeof c, shown_temp(u, w->set_min_K), 0),
-		 ow_plot_format(e, sizeof e, shown_temp(u, w->set_max_K), 0),
+	snprintf(text, sizeof text, "common window %s rpm, %s %s",
+		 ow_compare_format_range(a, sizeof a, w->rpm_min, w->rpm_max,
+					 OW_REPORT_RPM_DECIMALS),
+		 ow_compare_format_range(b, sizeof b,
+					 shown_temp(u, w->set_min_K),
+					 shown_temp(u, w->set_max_K),
+					 OW_REPORT_TEMP_DECIMALS),
 		 ow_display_label(u, OW_DIM_TEMPERATURE));
 	ow_canvas_set_font(p->cv, f, 1);
 	tw = ow_canvas_text_width(p->cv, text) + 0.6 * f;

@@ -5,6 +5,7 @@
 #include "compare_pdf_impl.h"
 
 #include "ow_maps.h"
+#include "ow_report.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -81,7 +82,7 @@ static void window_row(struct cpdf *r, const struct table *t,
 		       const char *name, const struct ow_window *w,
 		       const char *output)
 {
-	char rpm[64], set[64], ctr[96], safe[32];
+	char rpm[64], set[64], ctr[96], safe[32], a[32], b[32];
 	const char *cells[6] = {name, rpm, set, ctr, output, safe};
 
 	snprintf(safe, sizeof safe, "%.0f %%", 100.0 * w->safe_fraction);
@@ -91,11 +92,20 @@ static void window_row(struct cpdf *r, const struct table *t,
 		cpdf_table_row(r, t, none, 0, 0);
 		return;
 	}
-	range(rpm, sizeof rpm, w->rpm_min, w->rpm_max, 0);
-	range(set, sizeof set, cpdf_temp(r, w->set_min_K),
-	      cpdf_temp(r, w->set_max_K), 0);
-	snprintf(ctr, sizeof ctr, "%.0f rpm, %.0f %s", w->centre.rpm,
-		 cpdf_temp(r, w->centre_set_K), cpdf_tunit(r));
+	ow_compare_format_range(rpm, sizeof rpm, w->rpm_min, w->rpm_max,
+				OW_REPORT_RPM_DECIMALS);
+	ow_compare_format_range(set, sizeof set, cpdf_temp(r, w->set_min_K),
+				cpdf_temp(r, w->set_max_K),
+				OW_REPORT_TEMP_DECIMALS);
+	snprintf(ctr, sizeof ctr, "%s rpm, %s %s",
+		 ow_report_format_bound(a, sizeof a, w->centre.rpm,
+					OW_REPORT_RPM_DECIMALS,
+					OW_ROUND_NEAREST),
+		 ow_report_format_bound(b, sizeof b,
+					cpdf_temp(r, w->centre_set_K),
+					OW_REPORT_TEMP_DECIMALS + 1,
+					OW_ROUND_NEAREST),
+		 cpdf_tunit(r));
 	cpdf_table_row(r, t, cells, !strcmp(name, "common"), 0);
 }
 
@@ -278,9 +288,16 @@ static void centre_table(struct cpdf *r, int at)
 
 	snprintf(diff, sizeof diff, "%s − %s", cpdf_label(r, 1),
 		 cpdf_label(r, 0));
-	snprintf(title, sizeof title, "At the %s: %.0f rpm, %.0f %s",
-		 ow_compare_at_text((enum ow_cmp_at)at), p->rpm,
-		 cpdf_temp(r, p->set_ref_K[0]), cpdf_tunit(r));
+	snprintf(title, sizeof title, "At the %s: %s rpm, %s %s",
+		 ow_compare_at_text((enum ow_cmp_at)at),
+		 ow_report_format_bound(va, sizeof va, p->rpm,
+					OW_REPORT_RPM_DECIMALS,
+					OW_ROUND_NEAREST),
+		 ow_report_format_bound(vb, sizeof vb,
+					cpdf_temp(r, p->set_ref_K[0]),
+					OW_REPORT_TEMP_DECIMALS + 1,
+					OW_ROUND_NEAREST),
+		 cpdf_tunit(r));
 	cpdf_need(r, 12.0 * SMALL_PT * LINE + 20.0);
 	cpdf_para(r, title, BODY_PT + 1.0, 1, 0.0, 3.0);
 	cpdf_table_head(r, &t);

@@ -147,7 +147,7 @@ int ow_compare_figure_decimals(int i, enum ow_unit_system sys);
  * "0.5 mm"; "-" where a field does not exist in one study). */
 struct ow_input_diff {
 	char field[96]; /* "screw.wear[0].clearance", "resin.melt_density" */
-	char a[80], b[80];
+	char a[264], b[264]; /* a title (256) fits whole */
 };
 
 /* Compare studies a and b field by field (title, screw geometry and
@@ -191,6 +191,14 @@ struct ow_compare_draw_options {
 	double font_pt;            /* 0: 9 pt */
 	const char *date;          /* PDF: "YYYY-MM-DD" (required there) */
 };
+
+/* "lo–hi" of a window bound pair (already in display units) as the
+ * single report prints its window: rounded towards the inside to
+ * `decimals` places (OW_REPORT_RPM_DECIMALS, OW_REPORT_TEMP_DECIMALS),
+ * one more while that would turn the range over; U+2212 minus, U+2013
+ * dash. Returns buf. */
+char *ow_compare_format_range(char *buf, size_t n, double lo, double hi,
+			      int decimals);
 
 /* Defaults: SI, labels "A" and "B", 9 pt, no date. */
 void ow_compare_draw_default(struct ow_compare_draw_options *o);
