@@ -315,32 +315,66 @@ static int legend_entries(const struct ow_study *s, const struct ow_window *w,
 	return n;
 }
 
-static void empty_message(const struct ow_plot *p, const struct ow_study *s,
-			  const struct ow_window *w, enum ow_unit_system u)
+/* The box of the empty-window message: two lines, centred. */
+static void empty_box(const struct ow_plot *p, const char *l1,
+		      const char *l2, double *x, double *y, double *w,
+		      double *h)
+{
+	double f = p->font_pt, w1, w2;
+
+	ow_canvas_set_font(p->cv, 1.2 * f, 1);
+	w1 = ow_canvas_text_width(p->cv, l1);
+	ow_canvas_set_font(p->cv, f, 0);
+	w2 = ow_canvas_text_width(p->cv, l2);
+	*w = fmin(fmax(w1, w2) + 1.6 * f, p->area.w);
+	*h = 3.6 * f;
+	*x = p->area.x + 0.5 * (p->area.w - *w);
+	*y = p->area.y + 0.5 * (p->area.h - *h);
+}
+
+/* "no safe operating point" and the limits that exclude most points. */
+static void empty_lines(const struct ow_study *s, const struct ow_window *w,
+			enum ow_unit_system u, char *l2, size_t n)
 {
 	enum ow_check order[OW_CK_COUNT];
 	int nb = ow_window_binding(w, order), k;
-	char text[320], one[96];
-	double f = p->font_pt, tw, X = p->area.x + 0.5 * p->area.w;
-	double Y = p->area.y + 0.5 * p->area.h;
+	char one[96];
 
-	snprintf(text, sizeof text, "no safe operating point:");
+	snprintf(l2, n, "binding limits:");
 	for (k = 0; k < nb && k < 3; k++) {
 		maps_limit_text(s, (int)order[k], u, NULL, one, sizeof one);
-		snprintf(text + strlen(text), sizeof text - strlen(text), "%s %s",
-			 k ? "," : "", one);
+		snprintf(l2 + strlen(l2), n - strlen(l2), "%s %s", k ? "," : "",
+			 one);
+	}
+}
+
+static void empty_message(const struct ow_plot *p, const struct ow_study *s,
+			  const struct ow_window *w, enum ow_unit_system u,
+			  int draw, struct maps_labels *taken)
+{
+	const char *l1 = "no safe operating point";
+	char l2[320], fit[320];
+	double f = p->font_pt, x, y, bw, bh;
+
+	empty_lines(s, w, u, l2, sizeof l2);
+	empty_box(p, l1, l2, &x, &y, &bw, &bh);
+	if (!draw) {
+		maps_labels_take(taken, x, y, x + bw, y + bh);
+		return;
 	}
 	ow_canvas_save(p->cv);
-	ow_canvas_set_font(p->cv, 1.2 * f, 1);
-	tw = fmin(ow_canvas_text_width(p->cv, text) + 1.6 * f, p->area.w);
-	ow_canvas_rect(p->cv, X - 0.5 * tw, Y - 1.3 * f, tw, 2.6 * f);
+	ow_canvas_rect(p->cv, x, y, bw, bh);
 	ow_canvas_set_colour(p->cv, ow_rgb(1, 1, 1));
 	ow_canvas_fill_preserve(p->cv);
 	ow_canvas_set_colour(p->cv, ow_rgb(0, 0, 0));
 	ow_canvas_set_line_width(p->cv, 1.2);
 	ow_canvas_stroke(p->cv);
-	ow_canvas_text(p->cv, X, Y,
-		       maps_fit_text(p->cv, text, tw - 1.0 * f, one, sizeof one),
+	ow_canvas_set_font(p->cv, 1.2 * f, 1);
+	ow_canvas_text(p->cv, x + 0.5 * bw, y + 1.2 * f, l1, OW_ALIGN_CENTRE,
+		       OW_VALIGN_MIDDLE, 0);
+	ow_canvas_set_font(p->cv, f, 0);
+	ow_canvas_text(p->cv, x + 0.5 * bw, y + 2.6 * f,
+		       maps_fit_text(p->cv, l2, bw - f, fit, sizeof fit),
 		       OW_ALIGN_CENTRE, OW_VALIGN_MIDDLE, 0);
 	ow_canvas_restore(p->cv);
 }
@@ -382,11 +416,13 @@ static enum ow_status draw_body(const struct ow_plot *p,
 	maps_draw_points(p, s, w, o, 0, &taken);
 	if (!w->empty)
 		label_rectangle(p, w, o->units, &taken);
+	else
+		empty_message(p, s, w, o->units, 0, &taken); /* reserve */
 	for (c = 0; c < OW_CK_COUNT; c++)
 		if (shown(s, w, c))
 			label_boundary(p, s, w, o->units, c, &taken);
 	if (w->empty)
-		empty_message(p, s, w, o->units);
+		empty_message(p, s, w, o->units, 1, &taken);
 	return OW_OK;
 }
 
