@@ -237,7 +237,8 @@ void ow_canvas_set_dash(struct ow_canvas *cv, const double *lengths_pt, int n)
 				    lengths_pt[i]);
 			return;
 		}
-	memcpy(cv->gs.dash, lengths_pt, (size_t)n * sizeof *lengths_pt);
+	if (n > 0)
+		memcpy(cv->gs.dash, lengths_pt, (size_t)n * sizeof *lengths_pt);
 	cv->gs.n_dash = n;
 }
 
