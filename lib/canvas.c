@@ -33,7 +33,7 @@ struct ow_rgba ow_rgba_with_alpha(struct ow_rgba c, double a)
 }
 
 struct ow_canvas *canvas_new(const struct canvas_ops *ops, double width_pt,
-			     double height_pt)
+                             double height_pt)
 {
 	struct ow_canvas *cv = calloc(1, sizeof *cv);
 
@@ -48,8 +48,7 @@ struct ow_canvas *canvas_new(const struct canvas_ops *ops, double width_pt,
 	return cv;
 }
 
-void canvas_fail(struct ow_canvas *cv, enum ow_status st, const char *fmt,
-		 ...)
+void canvas_fail(struct ow_canvas *cv, enum ow_status st, const char *fmt, ...)
 {
 	va_list ap;
 
@@ -62,28 +61,32 @@ void canvas_fail(struct ow_canvas *cv, enum ow_status st, const char *fmt,
 }
 
 enum ow_status ow_canvas_create_image(enum ow_canvas_format fmt,
-				      double width_pt, double height_pt,
-				      double scale, struct ow_canvas **out,
-				      struct ow_diag *d)
+                                      double width_pt, double height_pt,
+                                      double scale, struct ow_canvas **out,
+                                      struct ow_diag *d)
 {
 	if (!out)
 		return ow_diag_set(d, OW_EARG, "canvas: no output pointer");
 	*out = NULL;
 	if (!(width_pt >= 1.0 && height_pt >= 1.0 && width_pt <= 20000.0 &&
 	      height_pt <= 20000.0))
-		return ow_diag_set(d, OW_EARG, "canvas: size %g x %g pt out "
-				   "of range", width_pt, height_pt);
+		return ow_diag_set(d, OW_EARG,
+		                   "canvas: size %g x %g pt out "
+		                   "of range",
+		                   width_pt, height_pt);
 	if (fmt == OW_CANVAS_PNG) {
 		if (!(scale > 0.0 && width_pt * scale <= 20000.0 &&
 		      height_pt * scale <= 20000.0))
-			return ow_diag_set(d, OW_EARG, "canvas: PNG scale %g "
-					   "out of range", scale);
+			return ow_diag_set(d, OW_EARG,
+			                   "canvas: PNG scale %g "
+			                   "out of range",
+			                   scale);
 		return canvas_cairo_png(width_pt, height_pt, scale, out, d);
 	}
 	if (fmt == OW_CANVAS_SVG)
 		return canvas_svg(width_pt, height_pt, out, d);
 	return ow_diag_set(d, OW_EARG, "canvas: unknown image format %d",
-			   (int)fmt);
+	                   (int)fmt);
 }
 
 void ow_canvas_destroy(struct ow_canvas *cv)
@@ -97,7 +100,7 @@ void ow_canvas_destroy(struct ow_canvas *cv)
 }
 
 void ow_canvas_size(const struct ow_canvas *cv, double *width_pt,
-		    double *height_pt)
+                    double *height_pt)
 {
 	if (width_pt)
 		*width_pt = cv->width_pt;
@@ -120,15 +123,16 @@ static int live(struct ow_canvas *cv)
 	if (!cv)
 		return 0;
 	if (cv->finished) {
-		canvas_fail(cv, OW_EARG, "canvas: drawing after the image "
-			    "was written");
+		canvas_fail(cv, OW_EARG,
+		            "canvas: drawing after the image "
+		            "was written");
 		return 0;
 	}
 	return cv->st == OW_OK;
 }
 
 enum ow_status ow_canvas_encode(struct ow_canvas *cv, unsigned char **bytes,
-				size_t *len, struct ow_diag *d)
+                                size_t *len, struct ow_diag *d)
 {
 	enum ow_status st;
 
@@ -137,8 +141,9 @@ enum ow_status ow_canvas_encode(struct ow_canvas *cv, unsigned char **bytes,
 	*bytes = NULL;
 	*len = 0;
 	if (!cv->ops->encode)
-		return ow_diag_set(d, OW_EARG, "canvas: a PDF canvas has no "
-				   "image to encode");
+		return ow_diag_set(d, OW_EARG,
+		                   "canvas: a PDF canvas has no "
+		                   "image to encode");
 	if (cv->finished)
 		return ow_diag_set(d, OW_EARG, "canvas: image already written");
 	if (cv->st != OW_OK)
@@ -151,7 +156,7 @@ enum ow_status ow_canvas_encode(struct ow_canvas *cv, unsigned char **bytes,
 }
 
 enum ow_status ow_canvas_write_file(struct ow_canvas *cv, const char *path,
-				    struct ow_diag *d)
+                                    struct ow_diag *d)
 {
 	unsigned char *b = NULL;
 	size_t n = 0;
@@ -174,7 +179,7 @@ void ow_canvas_save(struct ow_canvas *cv)
 		return;
 	if (cv->depth >= CANVAS_MAX_DEPTH) {
 		canvas_fail(cv, OW_EARG, "canvas: save nested deeper than %d",
-			    CANVAS_MAX_DEPTH);
+		            CANVAS_MAX_DEPTH);
 		return;
 	}
 	cv->stack[cv->depth++] = cv->gs;
@@ -227,14 +232,16 @@ void ow_canvas_set_dash(struct ow_canvas *cv, const double *lengths_pt, int n)
 	if (!live(cv))
 		return;
 	if (n < 0 || n > CANVAS_MAX_DASH || (n > 0 && !lengths_pt)) {
-		canvas_fail(cv, OW_EARG, "canvas: dash of %d lengths (at most "
-			    "%d)", n, CANVAS_MAX_DASH);
+		canvas_fail(cv, OW_EARG,
+		            "canvas: dash of %d lengths (at most "
+		            "%d)",
+		            n, CANVAS_MAX_DASH);
 		return;
 	}
 	for (i = 0; i < n; i++)
 		if (!(lengths_pt[i] > 0.0 && lengths_pt[i] < 1000.0)) {
 			canvas_fail(cv, OW_EARG, "canvas: dash length %g pt",
-				    lengths_pt[i]);
+			            lengths_pt[i]);
 			return;
 		}
 	if (n > 0)
@@ -264,7 +271,8 @@ static struct canvas_seg *push(struct ow_canvas *cv, enum canvas_op op)
 		return NULL;
 	if (cv->n_path == cv->cap_path) {
 		int cap = cv->cap_path ? 2 * cv->cap_path : 64;
-		struct canvas_seg *p = realloc(cv->path, (size_t)cap * sizeof *p);
+		struct canvas_seg *p =
+		    realloc(cv->path, (size_t)cap * sizeof *p);
 
 		if (!p) {
 			canvas_fail(cv, OW_ENOMEM, "canvas: out of memory");
@@ -310,8 +318,8 @@ void ow_canvas_line_to(struct ow_canvas *cv, double x, double y)
 	seg2(cv, CANVAS_LINE, x, y);
 }
 
-void ow_canvas_curve_to(struct ow_canvas *cv, double x1, double y1,
-			double x2, double y2, double x3, double y3)
+void ow_canvas_curve_to(struct ow_canvas *cv, double x1, double y1, double x2,
+                        double y2, double x3, double y3)
 {
 	struct canvas_seg *s;
 
@@ -331,7 +339,7 @@ void ow_canvas_close_path(struct ow_canvas *cv)
 }
 
 void ow_canvas_rect(struct ow_canvas *cv, double x, double y, double w,
-		    double h)
+                    double h)
 {
 	ow_canvas_move_to(cv, x, y);
 	ow_canvas_line_to(cv, x + w, y);
@@ -400,7 +408,7 @@ void ow_canvas_clip(struct ow_canvas *cv)
 }
 
 void ow_canvas_clip_rect(struct ow_canvas *cv, double x, double y, double w,
-			 double h)
+                         double h)
 {
 	if (!live(cv))
 		return;
@@ -411,7 +419,7 @@ void ow_canvas_clip_rect(struct ow_canvas *cv, double x, double y, double w,
 
 /* Extent of the recorded path (control points included). */
 static int path_box(const struct ow_canvas *cv, double *x0, double *y0,
-		    double *x1, double *y1)
+                    double *x1, double *y1)
 {
 	int i, k, n = 0;
 
@@ -419,7 +427,9 @@ static int path_box(const struct ow_canvas *cv, double *x0, double *y0,
 	*x1 = *y1 = -INFINITY;
 	for (i = 0; i < cv->n_path; i++) {
 		const struct canvas_seg *s = &cv->path[i];
-		int np = s->op == CANVAS_CURVE ? 3 : s->op == CANVAS_CLOSE ? 0 : 1;
+		int np = s->op == CANVAS_CURVE   ? 3
+		         : s->op == CANVAS_CLOSE ? 0
+		                                 : 1;
 
 		for (k = 0; k < np; k++, n++) {
 			*x0 = fmin(*x0, s->p[2 * k]);
@@ -434,7 +444,7 @@ static int path_box(const struct ow_canvas *cv, double *x0, double *y0,
 /* Hatch lines at whole multiples of the spacing from the canvas origin,
  * so neighbouring regions with the same hatch line up. */
 static void hatch_lines(struct ow_canvas *cv, const struct ow_hatch *h,
-			double x0, double y0, double x1, double y1)
+                        double x0, double y0, double x1, double y1)
 {
 	double a = h->angle_deg * OW_PI / 180.0;
 	double ux = cos(a), uy = -sin(a); /* along the lines (y down) */
@@ -472,8 +482,9 @@ void ow_canvas_hatch(struct ow_canvas *cv, const struct ow_hatch *h)
 		return;
 	if (!h || !(h->spacing_pt >= 0.5) || !(h->width_pt > 0.0) ||
 	    !isfinite(h->angle_deg)) {
-		canvas_fail(cv, OW_EARG, "canvas: hatch needs a spacing of at "
-			    "least 0.5 pt and a positive width");
+		canvas_fail(cv, OW_EARG,
+		            "canvas: hatch needs a spacing of at "
+		            "least 0.5 pt and a positive width");
 		return;
 	}
 	if (!path_box(cv, &x0, &y0, &x1, &y1) ||
@@ -500,9 +511,8 @@ double ow_canvas_text_width(struct ow_canvas *cv, const char *utf8)
 	return cv->ops->text_width(cv, utf8);
 }
 
-void ow_canvas_text(struct ow_canvas *cv, double x, double y,
-		    const char *utf8, enum ow_halign ha, enum ow_valign va,
-		    double angle_deg)
+void ow_canvas_text(struct ow_canvas *cv, double x, double y, const char *utf8,
+                    enum ow_halign ha, enum ow_valign va, double angle_deg)
 {
 	double w, dx, dy, size;
 
@@ -516,6 +526,6 @@ void ow_canvas_text(struct ow_canvas *cv, double x, double y,
 	dy = va == OW_VALIGN_TOP      ? CANVAS_CAP_EM * size
 	     : va == OW_VALIGN_MIDDLE ? 0.5 * CANVAS_CAP_EM * size
 	     : va == OW_VALIGN_BOTTOM ? -CANVAS_DESC_EM * size
-				      : 0.0;
+	                              : 0.0;
 	cv->ops->text(cv, x, y, angle_deg * OW_PI / 180.0, dx, dy, utf8);
 }

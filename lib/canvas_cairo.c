@@ -29,7 +29,7 @@ struct canvas_ft {
 };
 
 static const char *const font_file[2] = {OW_FONT_REGULAR_FILE,
-					 OW_FONT_BOLD_FILE};
+                                         OW_FONT_BOLD_FILE};
 static const cairo_user_data_key_t face_key; /* its address is the key */
 
 static void shared_release(void *p)
@@ -67,19 +67,21 @@ static enum ow_status open_face(struct canvas_ft *f, int i, struct ow_diag *d)
 
 	if (FT_New_Face(sh->lib, font_file[i], 0, &sh->face[i]) != 0) {
 		sh->face[i] = NULL;
-		return ow_diag_set(d, OW_EIO, "font %s is missing or "
-				   "unreadable: install the Debian package "
-				   "fonts-dejavu-core", font_file[i]);
+		return ow_diag_set(d, OW_EIO,
+		                   "font %s is missing or "
+		                   "unreadable: install the Debian package "
+		                   "fonts-dejavu-core",
+		                   font_file[i]);
 	}
 	f->cface[i] = cairo_ft_font_face_create_for_ft_face(sh->face[i],
-							    FT_LOAD_NO_HINTING);
+	                                                    FT_LOAD_NO_HINTING);
 	atomic_fetch_add(&sh->refs, 1);
 	if (cairo_font_face_set_user_data(f->cface[i], &face_key, sh,
-					  shared_release) !=
+	                                  shared_release) !=
 	    CAIRO_STATUS_SUCCESS) {
 		atomic_fetch_sub(&sh->refs, 1);
 		return ow_diag_set(d, OW_EIO, "font %s: cairo refused it",
-				   font_file[i]);
+		                   font_file[i]);
 	}
 	return OW_OK;
 }
@@ -119,7 +121,7 @@ void *canvas_ft_face(struct canvas_ft *f, int bold)
 }
 
 void canvas_ft_select(void *cairo_cr, struct canvas_ft *f, int bold,
-		      double size)
+                      double size)
 {
 	cairo_t *cr = cairo_cr;
 	cairo_font_options_t *o = cairo_font_options_create();
@@ -153,8 +155,9 @@ static void check(struct ow_canvas *cv)
 	cairo_status_t s = cairo_status(cr_of(cv));
 
 	if (s != CAIRO_STATUS_SUCCESS)
-		canvas_fail(cv, s == CAIRO_STATUS_NO_MEMORY ? OW_ENOMEM : OW_EIO,
-			    "cairo: %s", cairo_status_to_string(s));
+		canvas_fail(cv,
+		            s == CAIRO_STATUS_NO_MEMORY ? OW_ENOMEM : OW_EIO,
+		            "cairo: %s", cairo_status_to_string(s));
 }
 
 static void replay(cairo_t *cr, const struct ow_canvas *cv)
@@ -166,12 +169,18 @@ static void replay(cairo_t *cr, const struct ow_canvas *cv)
 		const double *p = cv->path[i].p;
 
 		switch (cv->path[i].op) {
-		case CANVAS_MOVE: cairo_move_to(cr, p[0], p[1]); break;
-		case CANVAS_LINE: cairo_line_to(cr, p[0], p[1]); break;
+		case CANVAS_MOVE:
+			cairo_move_to(cr, p[0], p[1]);
+			break;
+		case CANVAS_LINE:
+			cairo_line_to(cr, p[0], p[1]);
+			break;
 		case CANVAS_CURVE:
 			cairo_curve_to(cr, p[0], p[1], p[2], p[3], p[4], p[5]);
 			break;
-		case CANVAS_CLOSE: cairo_close_path(cr); break;
+		case CANVAS_CLOSE:
+			cairo_close_path(cr);
+			break;
 		}
 	}
 }
@@ -219,8 +228,8 @@ static void png_restore(struct ow_canvas *cv)
 	check(cv);
 }
 
-static void png_text(struct ow_canvas *cv, double x, double y,
-		     double angle_rad, double dx, double dy, const char *s)
+static void png_text(struct ow_canvas *cv, double x, double y, double angle_rad,
+                     double dx, double dy, const char *s)
 {
 	struct png_impl *im = cv->impl;
 	cairo_t *cr = im->cr;
@@ -256,7 +265,7 @@ struct membuf {
 };
 
 static cairo_status_t to_mem(void *closure, const unsigned char *data,
-			     unsigned int len)
+                             unsigned int len)
 {
 	struct membuf *m = closure;
 
@@ -278,7 +287,7 @@ static cairo_status_t to_mem(void *closure, const unsigned char *data,
 }
 
 static enum ow_status png_encode(struct ow_canvas *cv, unsigned char **bytes,
-				 size_t *len, struct ow_diag *d)
+                                 size_t *len, struct ow_diag *d)
 {
 	struct png_impl *im = cv->impl;
 	struct membuf m = {NULL, 0, 0};
@@ -288,10 +297,9 @@ static enum ow_status png_encode(struct ow_canvas *cv, unsigned char **bytes,
 	s = cairo_surface_write_to_png_stream(im->surf, to_mem, &m);
 	if (s != CAIRO_STATUS_SUCCESS) {
 		free(m.b);
-		return ow_diag_set(d, s == CAIRO_STATUS_NO_MEMORY ? OW_ENOMEM
-								  : OW_EIO,
-				   "PNG encoding failed: %s",
-				   cairo_status_to_string(s));
+		return ow_diag_set(
+		    d, s == CAIRO_STATUS_NO_MEMORY ? OW_ENOMEM : OW_EIO,
+		    "PNG encoding failed: %s", cairo_status_to_string(s));
 	}
 	*bytes = m.b;
 	*len = m.n;
@@ -314,13 +322,12 @@ static void png_destroy(struct ow_canvas *cv)
 }
 
 static const struct canvas_ops png_ops = {
-	png_paint, png_save,    png_restore, png_text,
-	png_text_width, png_encode, png_destroy,
+    png_paint,      png_save,   png_restore, png_text,
+    png_text_width, png_encode, png_destroy,
 };
 
-enum ow_status canvas_cairo_png(double width_pt, double height_pt,
-				double scale, struct ow_canvas **out,
-				struct ow_diag *d)
+enum ow_status canvas_cairo_png(double width_pt, double height_pt, double scale,
+                                struct ow_canvas **out, struct ow_diag *d)
 {
 	struct ow_canvas *cv = canvas_new(&png_ops, width_pt, height_pt);
 	struct png_impl *im = calloc(1, sizeof *im);
@@ -340,7 +347,7 @@ enum ow_status canvas_cairo_png(double width_pt, double height_pt,
 	im->cr = cairo_create(im->surf);
 	if (cairo_status(im->cr) != CAIRO_STATUS_SUCCESS) {
 		st = ow_diag_set(d, OW_ENOMEM, "cairo: %s",
-				 cairo_status_to_string(cairo_status(im->cr)));
+		                 cairo_status_to_string(cairo_status(im->cr)));
 		goto fail;
 	}
 	cairo_scale(im->cr, scale, scale);

@@ -6,13 +6,13 @@
 
 #include "ow_canvas.h"
 
-#define CANVAS_MAX_DASH 8
+#define CANVAS_MAX_DASH  8
 #define CANVAS_MAX_DEPTH 16 /* libharu allows 28 nested GSave */
 
 /* DejaVu Sans metrics as fractions of the em (its 'OS/2' and 'hhea'
  * tables: cap height 1493, descender 483 of 2048 units), used to place
  * text by its capitals the same way in every back-end. */
-#define CANVAS_CAP_EM 0.729
+#define CANVAS_CAP_EM  0.729
 #define CANVAS_DESC_EM 0.236
 
 struct canvas_state {
@@ -42,12 +42,12 @@ struct canvas_ops {
 	void (*restore)(struct ow_canvas *cv);
 	/* show s with its origin at (dx, dy) in a frame translated to
 	 * (x, y) and rotated by angle_rad counter-clockwise as seen */
-	void (*text)(struct ow_canvas *cv, double x, double y,
-		     double angle_rad, double dx, double dy, const char *s);
+	void (*text)(struct ow_canvas *cv, double x, double y, double angle_rad,
+	             double dx, double dy, const char *s);
 	double (*text_width)(struct ow_canvas *cv, const char *s);
 	/* image back-ends: finish and hand out the encoded bytes */
 	enum ow_status (*encode)(struct ow_canvas *cv, unsigned char **bytes,
-				 size_t *len, struct ow_diag *d);
+	                         size_t *len, struct ow_diag *d);
 	void (*destroy)(struct ow_canvas *cv);
 };
 
@@ -67,11 +67,11 @@ struct ow_canvas {
 
 /* A canvas with default state for a back-end (impl filled by caller). */
 struct ow_canvas *canvas_new(const struct canvas_ops *ops, double width_pt,
-			     double height_pt);
+                             double height_pt);
 
 /* Record a failure (the first one is kept). */
-void canvas_fail(struct ow_canvas *cv, enum ow_status st, const char *fmt,
-		 ...) __attribute__((format(printf, 3, 4)));
+void canvas_fail(struct ow_canvas *cv, enum ow_status st, const char *fmt, ...)
+    __attribute__((format(printf, 3, 4)));
 
 /* FreeType faces of DejaVu Sans regular and bold as cairo font faces,
  * for the cairo back-end and the SVG back-end's text measure
@@ -83,13 +83,12 @@ void canvas_ft_close(struct canvas_ft *f);
 void *canvas_ft_face(struct canvas_ft *f, int bold);
 /* Select the face and size on a cairo_t (unhinted). */
 void canvas_ft_select(void *cairo_cr, struct canvas_ft *f, int bold,
-		      double size);
+                      double size);
 
 /* Back-end constructors. */
-enum ow_status canvas_cairo_png(double width_pt, double height_pt,
-				double scale, struct ow_canvas **out,
-				struct ow_diag *d);
+enum ow_status canvas_cairo_png(double width_pt, double height_pt, double scale,
+                                struct ow_canvas **out, struct ow_diag *d);
 enum ow_status canvas_svg(double width_pt, double height_pt,
-			  struct ow_canvas **out, struct ow_diag *d);
+                          struct ow_canvas **out, struct ow_diag *d);
 
 #endif

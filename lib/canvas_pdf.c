@@ -20,7 +20,7 @@ struct pdf_impl {
 	HPDF_Doc doc;
 	HPDF_Page page;
 	HPDF_Font font[2];
-	double ox, oy, s, page_h; /* placement, scale, page height */
+	double ox, oy, s, page_h;           /* placement, scale, page height */
 	double alpha[CANVAS_MAX_DEPTH + 1]; /* alpha in force per level */
 	int n_alphas;
 	double alpha_v[MAX_ALPHAS];
@@ -33,7 +33,7 @@ static int ok(struct ow_canvas *cv, HPDF_STATUS r, const char *what)
 	if (r == HPDF_OK)
 		return 1;
 	canvas_fail(cv, OW_EIO, "PDF: libharu refused %s (error 0x%04X)", what,
-		    (unsigned)r);
+	            (unsigned)r);
 	return 0;
 }
 
@@ -63,9 +63,10 @@ static HPDF_ExtGState alpha_state(struct ow_canvas *cv, double a)
 	im->alpha_v[i] = a;
 	if (!im->alpha_gs[i] ||
 	    !ok(cv, HPDF_ExtGState_SetAlphaFill(im->alpha_gs[i], (HPDF_REAL)a),
-		"an alpha") ||
-	    !ok(cv, HPDF_ExtGState_SetAlphaStroke(im->alpha_gs[i],
-						  (HPDF_REAL)a), "an alpha")) {
+	        "an alpha") ||
+	    !ok(cv,
+	        HPDF_ExtGState_SetAlphaStroke(im->alpha_gs[i], (HPDF_REAL)a),
+	        "an alpha")) {
 		canvas_fail(cv, OW_EIO, "PDF: libharu refused an alpha state");
 		im->n_alphas = i; /* do not cache a broken one */
 		return NULL;
@@ -89,10 +90,10 @@ static int set_colour(struct ow_canvas *cv, int stroke)
 	}
 	if (stroke)
 		r = HPDF_Page_SetRGBStroke(im->page, (HPDF_REAL)c->r,
-					   (HPDF_REAL)c->g, (HPDF_REAL)c->b);
+		                           (HPDF_REAL)c->g, (HPDF_REAL)c->b);
 	else
 		r = HPDF_Page_SetRGBFill(im->page, (HPDF_REAL)c->r,
-					 (HPDF_REAL)c->g, (HPDF_REAL)c->b);
+		                         (HPDF_REAL)c->g, (HPDF_REAL)c->b);
 	return ok(cv, r, "a colour");
 }
 
@@ -104,18 +105,19 @@ static int set_stroke(struct ow_canvas *cv)
 
 	for (k = 0; k < cv->gs.n_dash; k++) {
 		double v = fmin(fmax(round(cv->gs.dash[k] * im->s), 1.0),
-				(double)HPDF_MAX_DASH_PATTERN);
+		                (double)HPDF_MAX_DASH_PATTERN);
 
 		dash[k] = (HPDF_UINT16)v; /* libharu: whole points */
 	}
 	return set_colour(cv, 1) &&
-	       ok(cv, HPDF_Page_SetLineWidth(im->page,
-					     (HPDF_REAL)(cv->gs.line_width *
-							 im->s)),
-		  "a line width") &&
-	       ok(cv, HPDF_Page_SetDash(im->page, cv->gs.n_dash ? dash : NULL,
-					(HPDF_UINT)cv->gs.n_dash, 0),
-		  "a dash");
+	       ok(cv,
+	          HPDF_Page_SetLineWidth(
+	              im->page, (HPDF_REAL)(cv->gs.line_width * im->s)),
+	          "a line width") &&
+	       ok(cv,
+	          HPDF_Page_SetDash(im->page, cv->gs.n_dash ? dash : NULL,
+	                            (HPDF_UINT)cv->gs.n_dash, 0),
+	          "a dash");
 }
 
 static int replay(struct ow_canvas *cv)
@@ -129,25 +131,26 @@ static int replay(struct ow_canvas *cv)
 
 		switch (cv->path[i].op) {
 		case CANVAS_MOVE:
-			r = HPDF_Page_MoveTo(im->page, X(im, p[0]), Y(im, p[1]));
+			r = HPDF_Page_MoveTo(im->page, X(im, p[0]),
+			                     Y(im, p[1]));
 			have = 1;
 			break;
 		case CANVAS_LINE:
 			r = have ? HPDF_Page_LineTo(im->page, X(im, p[0]),
-						    Y(im, p[1]))
-				 : HPDF_Page_MoveTo(im->page, X(im, p[0]),
-						    Y(im, p[1]));
+			                            Y(im, p[1]))
+			         : HPDF_Page_MoveTo(im->page, X(im, p[0]),
+			                            Y(im, p[1]));
 			have = 1;
 			break;
 		case CANVAS_CURVE:
 			if (!have)
 				r = HPDF_Page_MoveTo(im->page, X(im, p[0]),
-						     Y(im, p[1]));
+				                     Y(im, p[1]));
 			if (r == HPDF_OK)
-				r = HPDF_Page_CurveTo(
-					im->page, X(im, p[0]), Y(im, p[1]),
-					X(im, p[2]), Y(im, p[3]), X(im, p[4]),
-					Y(im, p[5]));
+				r = HPDF_Page_CurveTo(im->page, X(im, p[0]),
+				                      Y(im, p[1]), X(im, p[2]),
+				                      Y(im, p[3]), X(im, p[4]),
+				                      Y(im, p[5]));
 			have = 1;
 			break;
 		case CANVAS_CLOSE:
@@ -193,8 +196,8 @@ static void pdf_restore(struct ow_canvas *cv)
 	   "GRestore");
 }
 
-static void pdf_text(struct ow_canvas *cv, double x, double y,
-		     double angle_rad, double dx, double dy, const char *s)
+static void pdf_text(struct ow_canvas *cv, double x, double y, double angle_rad,
+                     double dx, double dy, const char *s)
 {
 	struct pdf_impl *im = cv->impl;
 	double c = cos(angle_rad), sn = sin(angle_rad);
@@ -205,14 +208,14 @@ static void pdf_text(struct ow_canvas *cv, double x, double y,
 	if (!set_colour(cv, 0) ||
 	    !ok(cv, HPDF_Page_BeginText(im->page), "BeginText"))
 		return;
-	if (ok(cv, HPDF_Page_SetFontAndSize(im->page,
-					    im->font[cv->gs.bold ? 1 : 0],
-					    (HPDF_REAL)(cv->gs.font_pt * im->s)),
+	if (ok(cv,
+	       HPDF_Page_SetFontAndSize(im->page, im->font[cv->gs.bold ? 1 : 0],
+	                                (HPDF_REAL)(cv->gs.font_pt * im->s)),
 	       "a font") &&
-	    ok(cv, HPDF_Page_SetTextMatrix(im->page, (HPDF_REAL)c,
-					   (HPDF_REAL)sn, (HPDF_REAL)-sn,
-					   (HPDF_REAL)c, (HPDF_REAL)px,
-					   (HPDF_REAL)py),
+	    ok(cv,
+	       HPDF_Page_SetTextMatrix(im->page, (HPDF_REAL)c, (HPDF_REAL)sn,
+	                               (HPDF_REAL)-sn, (HPDF_REAL)c,
+	                               (HPDF_REAL)px, (HPDF_REAL)py),
 	       "a text matrix"))
 		ok(cv, HPDF_Page_ShowText(im->page, s), "a text");
 	ok(cv, HPDF_Page_EndText(im->page), "EndText");
@@ -222,9 +225,9 @@ static void pdf_text(struct ow_canvas *cv, double x, double y,
 static double pdf_text_width(struct ow_canvas *cv, const char *s)
 {
 	struct pdf_impl *im = cv->impl;
-	HPDF_TextWidth tw = HPDF_Font_TextWidth(
-		im->font[cv->gs.bold ? 1 : 0], (const HPDF_BYTE *)s,
-		(HPDF_UINT)strlen(s));
+	HPDF_TextWidth tw =
+	    HPDF_Font_TextWidth(im->font[cv->gs.bold ? 1 : 0],
+	                        (const HPDF_BYTE *)s, (HPDF_UINT)strlen(s));
 
 	return (double)tw.width * cv->gs.font_pt / 1000.0;
 }
@@ -245,15 +248,15 @@ static void pdf_destroy(struct ow_canvas *cv)
 }
 
 static const struct canvas_ops pdf_ops = {
-	pdf_paint, pdf_save,       pdf_restore, pdf_text,
-	pdf_text_width, NULL, pdf_destroy,
+    pdf_paint,      pdf_save, pdf_restore, pdf_text,
+    pdf_text_width, NULL,     pdf_destroy,
 };
 
 enum ow_status ow_canvas_create_pdf(void *hpdf_doc, void *hpdf_page,
-				    const struct ow_canvas_fonts *fonts,
-				    const struct ow_canvas_place *place,
-				    double width_pt, double height_pt,
-				    struct ow_canvas **out, struct ow_diag *d)
+                                    const struct ow_canvas_fonts *fonts,
+                                    const struct ow_canvas_place *place,
+                                    double width_pt, double height_pt,
+                                    struct ow_canvas **out, struct ow_diag *d)
 {
 	struct ow_canvas *cv;
 	struct pdf_impl *im;
@@ -264,8 +267,9 @@ enum ow_status ow_canvas_create_pdf(void *hpdf_doc, void *hpdf_page,
 	if (!hpdf_doc || !hpdf_page || !fonts || !fonts->regular ||
 	    !fonts->bold || !place || !(place->scale > 0.0) ||
 	    !(width_pt >= 1.0 && height_pt >= 1.0))
-		return ow_diag_set(d, OW_EARG, "PDF canvas: missing document, "
-				   "page, fonts, placement or size");
+		return ow_diag_set(d, OW_EARG,
+		                   "PDF canvas: missing document, "
+		                   "page, fonts, placement or size");
 	cv = canvas_new(&pdf_ops, width_pt, height_pt);
 	im = calloc(1, sizeof *im);
 	if (!cv || !im) {
@@ -287,8 +291,9 @@ enum ow_status ow_canvas_create_pdf(void *hpdf_doc, void *hpdf_page,
 	if (!im->open || HPDF_Page_SetLineJoin(im->page, HPDF_ROUND_JOIN) ||
 	    HPDF_Page_SetLineCap(im->page, HPDF_BUTT_END)) {
 		ow_canvas_destroy(cv);
-		return ow_diag_set(d, OW_EIO, "PDF canvas: libharu refused "
-				   "the page (is a path or text open?)");
+		return ow_diag_set(d, OW_EIO,
+		                   "PDF canvas: libharu refused "
+		                   "the page (is a path or text open?)");
 	}
 	*out = cv;
 	return OW_OK;
@@ -305,10 +310,10 @@ static int file_exists(const char *path)
 }
 
 enum ow_status ow_canvas_pdf_fonts(void *hpdf_doc, struct ow_canvas_fonts *out,
-				   struct ow_diag *d)
+                                   struct ow_diag *d)
 {
 	static const char *const file[2] = {OW_FONT_REGULAR_FILE,
-					    OW_FONT_BOLD_FILE};
+	                                    OW_FONT_BOLD_FILE};
 	HPDF_Font f[2];
 	int i;
 
@@ -316,21 +321,26 @@ enum ow_status ow_canvas_pdf_fonts(void *hpdf_doc, struct ow_canvas_fonts *out,
 		return ow_diag_set(d, OW_EARG, "PDF fonts: NULL argument");
 	for (i = 0; i < 2; i++)
 		if (!file_exists(file[i]))
-			return ow_diag_set(d, OW_EIO, "font %s is missing: "
-					   "install the Debian package "
-					   "fonts-dejavu-core", file[i]);
+			return ow_diag_set(d, OW_EIO,
+			                   "font %s is missing: "
+			                   "install the Debian package "
+			                   "fonts-dejavu-core",
+			                   file[i]);
 	if (HPDF_UseUTFEncodings(hpdf_doc) != HPDF_OK ||
 	    HPDF_SetCurrentEncoder(hpdf_doc, "UTF-8") != HPDF_OK)
-		return ow_diag_set(d, OW_EIO, "PDF fonts: libharu has no "
-				   "UTF-8 encoder");
+		return ow_diag_set(d, OW_EIO,
+		                   "PDF fonts: libharu has no "
+		                   "UTF-8 encoder");
 	for (i = 0; i < 2; i++) {
-		const char *name = HPDF_LoadTTFontFromFile(hpdf_doc, file[i],
-							   HPDF_TRUE);
+		const char *name =
+		    HPDF_LoadTTFontFromFile(hpdf_doc, file[i], HPDF_TRUE);
 
 		f[i] = name ? HPDF_GetFont(hpdf_doc, name, "UTF-8") : NULL;
 		if (!f[i])
-			return ow_diag_set(d, OW_EIO, "font %s: libharu could "
-					   "not load it", file[i]);
+			return ow_diag_set(d, OW_EIO,
+			                   "font %s: libharu could "
+			                   "not load it",
+			                   file[i]);
 	}
 	out->regular = f[0];
 	out->bold = f[1];

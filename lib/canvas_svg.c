@@ -19,9 +19,9 @@ struct svg_impl {
 	char *b;
 	size_t n, cap;
 	int oom;
-	int clips;                       /* clip paths defined so far */
+	int clips;                        /* clip paths defined so far */
 	int groups[CANVAS_MAX_DEPTH + 1]; /* <g> opened at each save level */
-	cairo_surface_t *msurf;          /* 1 x 1 surface for text measure */
+	cairo_surface_t *msurf;           /* 1 x 1 surface for text measure */
 	cairo_t *mcr;
 	struct canvas_ft *ft;
 };
@@ -65,21 +65,21 @@ static void num(struct svg_impl *im, double v)
 		snprintf(buf, sizeof buf, "%s%lld", neg ? "-" : "", c / 100);
 	else if (c % 10 == 0)
 		snprintf(buf, sizeof buf, "%s%lld.%lld", neg ? "-" : "",
-			 c / 100, c % 100 / 10);
+		         c / 100, c % 100 / 10);
 	else
 		snprintf(buf, sizeof buf, "%s%lld.%02lld", neg ? "-" : "",
-			 c / 100, c % 100);
+		         c / 100, c % 100);
 	puts_(im, buf);
 }
 
 static void colour(struct svg_impl *im, const char *attr,
-		   const struct ow_rgba *c)
+                   const struct ow_rgba *c)
 {
 	char buf[64];
 
 	snprintf(buf, sizeof buf, " %s=\"#%02x%02x%02x\"", attr,
-		 (unsigned)lround(c->r * 255.0), (unsigned)lround(c->g * 255.0),
-		 (unsigned)lround(c->b * 255.0));
+	         (unsigned)lround(c->r * 255.0), (unsigned)lround(c->g * 255.0),
+	         (unsigned)lround(c->b * 255.0));
 	puts_(im, buf);
 	if (c->a < 1.0) {
 		snprintf(buf, sizeof buf, " %s-opacity=\"", attr);
@@ -97,7 +97,9 @@ static void path_data(struct svg_impl *im, const struct ow_canvas *cv)
 	puts_(im, " d=\"");
 	for (i = 0; i < cv->n_path; i++) {
 		const struct canvas_seg *s = &cv->path[i];
-		int np = s->op == CANVAS_CURVE ? 6 : s->op == CANVAS_CLOSE ? 0 : 2;
+		int np = s->op == CANVAS_CURVE   ? 6
+		         : s->op == CANVAS_CLOSE ? 0
+		                                 : 2;
 
 		puts_(im, cmd[s->op]);
 		for (k = 0; k < np; k++) {
@@ -117,11 +119,13 @@ static void svg_paint(struct ow_canvas *cv, enum canvas_paint op)
 
 	if (op == CANVAS_CLIP) {
 		snprintf(buf, sizeof buf, "<clipPath id=\"c%d\"><path",
-			 ++im->clips);
+		         ++im->clips);
 		puts_(im, buf);
 		path_data(im, cv);
-		snprintf(buf, sizeof buf, "/></clipPath>\n<g clip-path="
-			 "\"url(#c%d)\">\n", im->clips);
+		snprintf(buf, sizeof buf,
+		         "/></clipPath>\n<g clip-path="
+		         "\"url(#c%d)\">\n",
+		         im->clips);
 		puts_(im, buf);
 		im->groups[cv->depth]++;
 		return;
@@ -169,17 +173,26 @@ static void escaped(struct svg_impl *im, const char *s)
 {
 	for (; *s; s++) {
 		switch (*s) {
-		case '&': puts_(im, "&amp;"); break;
-		case '<': puts_(im, "&lt;"); break;
-		case '>': puts_(im, "&gt;"); break;
-		case '"': puts_(im, "&quot;"); break;
-		default: put(im, s, 1);
+		case '&':
+			puts_(im, "&amp;");
+			break;
+		case '<':
+			puts_(im, "&lt;");
+			break;
+		case '>':
+			puts_(im, "&gt;");
+			break;
+		case '"':
+			puts_(im, "&quot;");
+			break;
+		default:
+			put(im, s, 1);
 		}
 	}
 }
 
-static void svg_text(struct ow_canvas *cv, double x, double y,
-		     double angle_rad, double dx, double dy, const char *s)
+static void svg_text(struct ow_canvas *cv, double x, double y, double angle_rad,
+                     double dx, double dy, const char *s)
 {
 	struct svg_impl *im = cv->impl;
 
@@ -217,7 +230,7 @@ static double svg_text_width(struct ow_canvas *cv, const char *s)
 }
 
 static enum ow_status svg_encode(struct ow_canvas *cv, unsigned char **bytes,
-				 size_t *len, struct ow_diag *d)
+                                 size_t *len, struct ow_diag *d)
 {
 	struct svg_impl *im = cv->impl;
 
@@ -250,15 +263,15 @@ static void svg_destroy(struct ow_canvas *cv)
 }
 
 static const struct canvas_ops svg_ops = {
-	svg_paint, svg_save,    svg_restore, svg_text,
-	svg_text_width, svg_encode, svg_destroy,
+    svg_paint,      svg_save,   svg_restore, svg_text,
+    svg_text_width, svg_encode, svg_destroy,
 };
 
 static void header(struct svg_impl *im, double w, double h)
 {
 	puts_(im, "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n"
-		  "<svg xmlns=\"http://www.w3.org/2000/svg\" version=\"1.1\" "
-		  "width=\"");
+	          "<svg xmlns=\"http://www.w3.org/2000/svg\" version=\"1.1\" "
+	          "width=\"");
 	num(im, w);
 	puts_(im, "pt\" height=\"");
 	num(im, h);
@@ -270,7 +283,7 @@ static void header(struct svg_impl *im, double w, double h)
 }
 
 enum ow_status canvas_svg(double width_pt, double height_pt,
-			  struct ow_canvas **out, struct ow_diag *d)
+                          struct ow_canvas **out, struct ow_diag *d)
 {
 	struct ow_canvas *cv = canvas_new(&svg_ops, width_pt, height_pt);
 	struct svg_impl *im = calloc(1, sizeof *im);

@@ -25,11 +25,10 @@ double maps_font(const struct ow_maps_options *o)
 }
 
 static const char *const fig_file[OW_MAP_COUNT] = {
-	"map-peak-temp", "map-unmelt", "map-pressure", "map-output", "map-sec"};
+    "map-peak-temp", "map-unmelt", "map-pressure", "map-output", "map-sec"};
 static const char *const fig_title[OW_MAP_COUNT] = {
-	"Peak melt temperature", "Unmelted solids at discharge",
-	"Highest pressure on the screw", "Throughput",
-	"Specific energy (drive)"};
+    "Peak melt temperature", "Unmelted solids at discharge",
+    "Highest pressure on the screw", "Throughput", "Specific energy (drive)"};
 
 const char *ow_maps_figure_file(enum ow_map_figure f)
 {
@@ -54,7 +53,7 @@ char *ow_maps_axis_label(const struct ow_study *s, char *buf, size_t n)
 			snprintf(buf, n, "zone %d set-point", l->n_zones);
 		else
 			snprintf(buf, n, "zones %d–%d set-point",
-				 l->axes.zones_from + 1, l->n_zones);
+			         l->axes.zones_from + 1, l->n_zones);
 		break;
 	case OW_AXIS_ZONE:
 		snprintf(buf, n, "zone %d set-point", l->axes.zone + 1);
@@ -68,13 +67,13 @@ double maps_temp(enum ow_unit_system u, double K)
 	return ow_display_value(u, OW_DIM_TEMPERATURE, K);
 }
 
-char *maps_y_title(const struct ow_study *s, enum ow_unit_system u,
-		   char *buf, size_t n)
+char *maps_y_title(const struct ow_study *s, enum ow_unit_system u, char *buf,
+                   size_t n)
 {
 	char lab[96];
 
 	snprintf(buf, n, "%s (%s)", ow_maps_axis_label(s, lab, sizeof lab),
-		 ow_display_label(u, OW_DIM_TEMPERATURE));
+	         ow_display_label(u, OW_DIM_TEMPERATURE));
 	return buf;
 }
 
@@ -96,22 +95,22 @@ char *maps_num(char *buf, size_t n, double v)
 }
 
 char *maps_limit_text(const struct ow_study *s, int check,
-		      enum ow_unit_system u, const char *op, char *buf,
-		      size_t n)
+                      enum ow_unit_system u, const char *op, char *buf,
+                      size_t n)
 {
 	static const struct {
 		const char *name;
 		enum ow_dim dim;
 	} lim[OW_CK_LIMITS] = {
-		[OW_CK_PEAK_TEMP] = {"peak melt", OW_DIM_TEMPERATURE},
-		[OW_CK_UNMELT] = {"unmelt", OW_DIM_NONE},
-		[OW_CK_PRESSURE] = {"pressure", OW_DIM_PRESSURE},
-		[OW_CK_POWER] = {"power", OW_DIM_POWER},
-		[OW_CK_TORQUE] = {"torque", OW_DIM_TORQUE},
-		[OW_CK_MIN_MELT_TEMP] = {"min. melt", OW_DIM_TEMPERATURE},
-		[OW_CK_MIN_OUTPUT] = {"min. output", OW_DIM_MASS_FLOW},
-		[OW_CK_MAX_OUTPUT] = {"max. output", OW_DIM_MASS_FLOW},
-		[OW_CK_MAX_SBR] = {"solid bed ratio", OW_DIM_NONE},
+	    [OW_CK_PEAK_TEMP] = {"peak melt", OW_DIM_TEMPERATURE},
+	    [OW_CK_UNMELT] = {"unmelt", OW_DIM_NONE},
+	    [OW_CK_PRESSURE] = {"pressure", OW_DIM_PRESSURE},
+	    [OW_CK_POWER] = {"power", OW_DIM_POWER},
+	    [OW_CK_TORQUE] = {"torque", OW_DIM_TORQUE},
+	    [OW_CK_MIN_MELT_TEMP] = {"min. melt", OW_DIM_TEMPERATURE},
+	    [OW_CK_MIN_OUTPUT] = {"min. output", OW_DIM_MASS_FLOW},
+	    [OW_CK_MAX_OUTPUT] = {"max. output", OW_DIM_MASS_FLOW},
+	    [OW_CK_MAX_SBR] = {"solid bed ratio", OW_DIM_NONE},
 	};
 	char num[48];
 	double v;
@@ -126,23 +125,23 @@ char *maps_limit_text(const struct ow_study *s, int check,
 	v = ow_check_limit(&s->line.limits, (enum ow_check)check);
 	if (check == OW_CK_UNMELT) {
 		snprintf(buf, n, "%s%s%s %%", lim[check].name, op,
-			 maps_num(num, sizeof num, 100.0 * v));
+		         maps_num(num, sizeof num, 100.0 * v));
 		return buf;
 	}
 	if (lim[check].dim == OW_DIM_NONE) {
 		snprintf(buf, n, "%s%s%s", lim[check].name, op,
-			 maps_num(num, sizeof num, v));
+		         maps_num(num, sizeof num, v));
 		return buf;
 	}
-	snprintf(buf, n, "%s%s%s %s", lim[check].name, op,
-		 maps_num(num, sizeof num,
-			   ow_display_value(u, lim[check].dim, v)),
-		 ow_display_label(u, lim[check].dim));
+	snprintf(
+	    buf, n, "%s%s%s %s", lim[check].name, op,
+	    maps_num(num, sizeof num, ow_display_value(u, lim[check].dim, v)),
+	    ow_display_label(u, lim[check].dim));
 	return buf;
 }
 
 char *maps_fit_text(struct ow_canvas *cv, const char *text, double max_w,
-		    char *buf, size_t n)
+                    char *buf, size_t n)
 {
 	size_t len;
 
@@ -176,17 +175,17 @@ void maps_field_free(struct maps_field *mf)
 }
 
 enum ow_status maps_field_create(const struct ow_study *s,
-				 const struct ow_grid *g,
-				 enum ow_unit_system u, struct maps_field *mf,
-				 struct ow_diag *d)
+                                 const struct ow_grid *g, enum ow_unit_system u,
+                                 struct maps_field *mf, struct ow_diag *d)
 {
 	int i;
 
 	(void)s;
 	memset(mf, 0, sizeof *mf);
 	if (!g || g->n_rpm < 2 || g->n_axis < 2)
-		return ow_diag_set(d, OW_EARG, "maps: a lattice of at least "
-				   "2 x 2 points needed");
+		return ow_diag_set(d, OW_EARG,
+		                   "maps: a lattice of at least "
+		                   "2 x 2 points needed");
 	mf->x = malloc((size_t)g->n_rpm * sizeof *mf->x);
 	mf->y = malloc((size_t)g->n_axis * sizeof *mf->y);
 	mf->z = malloc((size_t)g->n_rpm * (size_t)g->n_axis * sizeof *mf->z);
@@ -208,7 +207,7 @@ enum ow_status maps_field_create(const struct ow_study *s,
 
 /* Bilinear from the corners of the cell of size s holding (ir, ia). */
 static int from_cell(const struct ow_grid *g, maps_get get, const void *ctx,
-		     int ir, int ia, int s, double *z)
+                     int ir, int ia, int s, double *z)
 {
 	int i0 = ir - ir % s, j0 = ia - ia % s;
 	int i1 = i0 + s < g->n_rpm ? i0 + s : i0;
@@ -216,8 +215,8 @@ static int from_cell(const struct ow_grid *g, maps_get get, const void *ctx,
 	double tx = (double)(ir - i0) / (double)s;
 	double ty = (double)(ia - j0) / (double)s;
 	const struct ow_grid_point *c[4] = {
-		ow_grid_at(g, i0, j0), ow_grid_at(g, i1, j0),
-		ow_grid_at(g, i0, j1), ow_grid_at(g, i1, j1)};
+	    ow_grid_at(g, i0, j0), ow_grid_at(g, i1, j0), ow_grid_at(g, i0, j1),
+	    ow_grid_at(g, i1, j1)};
 	int k;
 
 	for (k = 0; k < 4; k++)
@@ -229,7 +228,7 @@ static int from_cell(const struct ow_grid *g, maps_get get, const void *ctx,
 }
 
 void maps_fill(const struct ow_grid *g, maps_get get, const void *ctx,
-	       double *z)
+               double *z)
 {
 	int ir, ia, s;
 
@@ -252,7 +251,7 @@ void maps_fill(const struct ow_grid *g, maps_get get, const void *ctx,
 /* --- labels ----------------------------------------------------------- */
 
 int maps_labels_free(const struct maps_labels *l, double x0, double y0,
-		     double x1, double y1)
+                     double x1, double y1)
 {
 	int k;
 
@@ -264,7 +263,7 @@ int maps_labels_free(const struct maps_labels *l, double x0, double y0,
 }
 
 void maps_labels_take(struct maps_labels *l, double x0, double y0, double x1,
-		      double y1)
+                      double y1)
 {
 	if (l->n == MAPS_MAX_LABELS)
 		return;
@@ -278,7 +277,7 @@ void maps_labels_take(struct maps_labels *l, double x0, double y0, double x1,
 /* --- window overlay --------------------------------------------------- */
 
 void maps_boundary_points(const struct ow_study *s, const struct ow_polyline *l,
-			  enum ow_unit_system u, struct ow_pt2 *out)
+                          enum ow_unit_system u, struct ow_pt2 *out)
 {
 	int k;
 
@@ -289,8 +288,8 @@ void maps_boundary_points(const struct ow_study *s, const struct ow_polyline *l,
 }
 
 void maps_draw_rectangle(const struct ow_plot *p, const struct ow_study *s,
-			 const struct ow_window *w, enum ow_unit_system u,
-			 double width_pt)
+                         const struct ow_window *w, enum ow_unit_system u,
+                         double width_pt)
 {
 	double x0, x1, y0, y1;
 
@@ -316,10 +315,10 @@ void maps_draw_rectangle(const struct ow_plot *p, const struct ow_study *s,
 }
 
 void maps_draw_edge(const struct ow_plot *p, const struct ow_study *s,
-		    const struct ow_window *w, enum ow_unit_system u)
+                    const struct ow_window *w, enum ow_unit_system u)
 {
 	struct ow_line_style st = {ow_rgb(1, 1, 1), 1.6, OW_DASH_SOLID,
-				   OW_MARK_NONE};
+	                           OW_MARK_NONE};
 	int b, k;
 
 	for (b = 0; w && b < w->n_boundaries; b++) {
@@ -328,8 +327,8 @@ void maps_draw_edge(const struct ow_plot *p, const struct ow_study *s,
 		if (bd->check != OW_WINDOW_EDGE)
 			continue;
 		for (k = 0; k < bd->n_lines; k++) {
-			struct ow_pt2 *pts = malloc((size_t)bd->lines[k].n *
-						    sizeof *pts);
+			struct ow_pt2 *pts =
+			    malloc((size_t)bd->lines[k].n * sizeof *pts);
 
 			if (!pts)
 				continue;
@@ -348,8 +347,8 @@ void maps_draw_edge(const struct ow_plot *p, const struct ow_study *s,
 }
 
 /* A label box at (bx, by), w x h: white, bold text. */
-static void point_label(const struct ow_plot *p, double bx, double by,
-			double w, double h, const char *text)
+static void point_label(const struct ow_plot *p, double bx, double by, double w,
+                        double h, const char *text)
 {
 	double f = p->font_pt;
 
@@ -360,7 +359,7 @@ static void point_label(const struct ow_plot *p, double bx, double by,
 	ow_canvas_set_colour(p->cv, ow_rgb(0, 0, 0));
 	ow_canvas_set_font(p->cv, 0.95 * f, 1);
 	ow_canvas_text(p->cv, bx + 0.3 * f, by + 0.5 * h, text, OW_ALIGN_LEFT,
-		       OW_VALIGN_MIDDLE, 0);
+	               OW_VALIGN_MIDDLE, 0);
 	ow_canvas_restore(p->cv);
 }
 
@@ -368,8 +367,8 @@ static void point_label(const struct ow_plot *p, double bx, double by,
  * that lies inside the plot and clear of other labels; failing that, the
  * first inside the plot; failing that, pushed inside. */
 static void mark_point(const struct ow_plot *p, double x, double y,
-		       enum ow_marker m, const char *text,
-		       struct maps_labels *taken)
+                       enum ow_marker m, const char *text,
+                       struct maps_labels *taken)
 {
 	static const double off[4][2] = {{1, -1}, {1, 1}, {-1, -1}, {-1, 1}};
 	double X = ow_plot_px(p, x), Y = ow_plot_py(p, y), f = p->font_pt;
@@ -402,19 +401,19 @@ static void mark_point(const struct ow_plot *p, double x, double y,
 }
 
 static void point_text(char *buf, size_t n, const char *what, double rpm,
-		       double shown, enum ow_unit_system u)
+                       double shown, enum ow_unit_system u)
 {
 	char a[32], b[32];
 
 	snprintf(buf, n, "%s %s rpm, %s %s", what, maps_num(a, sizeof a, rpm),
-		 ow_plot_format(b, sizeof b, shown, 0),
-		 ow_display_label(u, OW_DIM_TEMPERATURE));
+	         ow_plot_format(b, sizeof b, shown, 0),
+	         ow_display_label(u, OW_DIM_TEMPERATURE));
 }
 
 void maps_draw_points(const struct ow_plot *p, const struct ow_study *s,
-		      const struct ow_window *w,
-		      const struct ow_maps_options *o, int brief,
-		      struct maps_labels *taken)
+                      const struct ow_window *w,
+                      const struct ow_maps_options *o, int brief,
+                      struct maps_labels *taken)
 {
 	char buf[128];
 
@@ -423,7 +422,7 @@ void maps_draw_points(const struct ow_plot *p, const struct ow_study *s,
 		double y = maps_temp(o->units, w->centre_set_K);
 
 		point_text(buf, sizeof buf, "centre", w->centre.rpm, y,
-			   o->units);
+		           o->units);
 		if (brief)
 			snprintf(buf, sizeof buf, "centre");
 		mark_point(p, w->centre.rpm, y, OW_MARK_DIAMOND, buf, taken);
@@ -433,7 +432,7 @@ void maps_draw_points(const struct ow_plot *p, const struct ow_study *s,
 		double y = maps_temp(o->units, o->current_set_K);
 
 		point_text(buf, sizeof buf, "current", o->current_rpm, y,
-			   o->units);
+		           o->units);
 		if (brief)
 			snprintf(buf, sizeof buf, "current");
 		mark_point(p, o->current_rpm, y, OW_MARK_TRIANGLE, buf, taken);
@@ -443,7 +442,7 @@ void maps_draw_points(const struct ow_plot *p, const struct ow_study *s,
 /* --- frames ----------------------------------------------------------- */
 
 void maps_paper(struct ow_canvas *cv, const struct ow_rect *box,
-		const char *title, const char *subtitle, double font_pt)
+                const char *title, const char *subtitle, double font_pt)
 {
 	char buf[320];
 
@@ -454,25 +453,24 @@ void maps_paper(struct ow_canvas *cv, const struct ow_rect *box,
 	ow_canvas_set_colour(cv, ow_rgb(0.1, 0.1, 0.1));
 	ow_canvas_set_font(cv, 1.25 * font_pt, 1);
 	ow_canvas_text(cv, box->x + 0.8 * font_pt, box->y + 0.8 * font_pt,
-		       maps_fit_text(cv, title ? title : "", box->w - 1.6 * font_pt,
-				     buf, sizeof buf),
-		       OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+	               maps_fit_text(cv, title ? title : "",
+	                             box->w - 1.6 * font_pt, buf, sizeof buf),
+	               OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
 	if (subtitle) {
 		ow_canvas_set_font(cv, 0.95 * font_pt, 0);
 		ow_canvas_set_colour(cv, ow_rgb(0.3, 0.3, 0.3));
-		ow_canvas_text(cv, box->x + 0.8 * font_pt,
-			       box->y + 2.55 * font_pt,
-			       maps_fit_text(cv, subtitle,
-					     box->w - 1.6 * font_pt, buf,
-					     sizeof buf),
-			       OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+		ow_canvas_text(
+		    cv, box->x + 0.8 * font_pt, box->y + 2.55 * font_pt,
+		    maps_fit_text(cv, subtitle, box->w - 1.6 * font_pt, buf,
+		                  sizeof buf),
+		    OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
 	}
 	ow_canvas_restore(cv);
 }
 
 void maps_axes(const struct ow_study *s, const struct ow_grid *g,
-	       enum ow_unit_system u, struct ow_plot_axis *x,
-	       struct ow_plot_axis *y, char *ytitle, size_t n)
+               enum ow_unit_system u, struct ow_plot_axis *x,
+               struct ow_plot_axis *y, char *ytitle, size_t n)
 {
 	double ya = maps_temp(u, ow_grid_at(g, 0, 0)->set_ref_K);
 	double yb = maps_temp(u, ow_grid_at(g, 0, g->n_axis - 1)->set_ref_K);
@@ -490,9 +488,9 @@ void maps_axes(const struct ow_study *s, const struct ow_grid *g,
 /* --- the centre profile ----------------------------------------------- */
 
 enum ow_status ow_maps_centre_profile(const struct ow_study *s,
-				      const struct ow_window *w,
-				      struct ow_profile_row **rows, int *n,
-				      struct ow_point *pt, struct ow_diag *d)
+                                      const struct ow_window *w,
+                                      struct ow_profile_row **rows, int *n,
+                                      struct ow_point *pt, struct ow_diag *d)
 {
 	struct ow_solver *sv = NULL;
 	struct ow_point p;
@@ -506,8 +504,9 @@ enum ow_status ow_maps_centre_profile(const struct ow_study *s,
 	*rows = NULL;
 	*n = 0;
 	if (w->empty)
-		return ow_diag_set(d, OW_EINPUT, "centre profile: the window "
-				   "is empty, there is no centre");
+		return ow_diag_set(d, OW_EINPUT,
+		                   "centre profile: the window "
+		                   "is empty, there is no centre");
 	st = ow_solver_create(s, &sv, d);
 	if (st != OW_OK)
 		return st;
@@ -549,7 +548,7 @@ struct job {
 };
 
 static enum ow_status draw_job(struct ow_canvas *cv, const struct job *j,
-			       struct ow_diag *d)
+                               struct ow_diag *d)
 {
 	struct ow_rect box = {0, 0, OW_MAPS_WIDTH_PT, OW_MAPS_HEIGHT_PT};
 
@@ -558,17 +557,17 @@ static enum ow_status draw_job(struct ow_canvas *cv, const struct job *j,
 		return ow_maps_draw_window(cv, &box, j->s, j->g, j->w, j->o, d);
 	case MAP_FIGURE:
 		return ow_maps_draw_figure(cv, &box, j->fig, j->s, j->g, j->w,
-					   j->o, d);
+		                           j->o, d);
 	case MAP_PROFILE:
 		return ow_maps_draw_profile(cv, &box, j->s, j->rows, j->n_rows,
-					    j->subtitle, j->o, d);
+		                            j->subtitle, j->o, d);
 	}
 	return OW_EARG;
 }
 
 static enum ow_status write_one(const struct job *j, const char *dir,
-				const char *stem, enum ow_canvas_format fmt,
-				struct ow_diag *d)
+                                const char *stem, enum ow_canvas_format fmt,
+                                struct ow_diag *d)
 {
 	struct ow_canvas *cv = NULL;
 	size_t len = strlen(dir) + strlen(stem) + 8;
@@ -578,9 +577,9 @@ static enum ow_status write_one(const struct job *j, const char *dir,
 	if (!path)
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	snprintf(path, len, "%s/%s.%s", dir, stem,
-		 fmt == OW_CANVAS_PNG ? "png" : "svg");
+	         fmt == OW_CANVAS_PNG ? "png" : "svg");
 	st = ow_canvas_create_image(fmt, OW_MAPS_WIDTH_PT, OW_MAPS_HEIGHT_PT,
-				    OW_MAPS_PNG_SCALE, &cv, d);
+	                            OW_MAPS_PNG_SCALE, &cv, d);
 	if (st == OW_OK)
 		st = draw_job(cv, j, d);
 	if (st == OW_OK)
@@ -591,7 +590,7 @@ static enum ow_status write_one(const struct job *j, const char *dir,
 }
 
 static enum ow_status write_both(const struct job *j, const char *dir,
-				 const char *stem, struct ow_diag *d)
+                                 const char *stem, struct ow_diag *d)
 {
 	enum ow_status st = OW_OK;
 
@@ -603,21 +602,21 @@ static enum ow_status write_both(const struct job *j, const char *dir,
 }
 
 static char *centre_subtitle(const struct ow_study *s,
-			     const struct ow_window *w,
-			     enum ow_unit_system u, char *buf, size_t n)
+                             const struct ow_window *w, enum ow_unit_system u,
+                             char *buf, size_t n)
 {
 	char a[32], b[32], lab[96];
 
 	snprintf(buf, n, "at the window's centre: %s rpm, %s %s %s",
-		 maps_num(a, sizeof a, w->centre.rpm),
-		 ow_maps_axis_label(s, lab, sizeof lab),
-		 ow_plot_format(b, sizeof b, maps_temp(u, w->centre_set_K), 0),
-		 ow_display_label(u, OW_DIM_TEMPERATURE));
+	         maps_num(a, sizeof a, w->centre.rpm),
+	         ow_maps_axis_label(s, lab, sizeof lab),
+	         ow_plot_format(b, sizeof b, maps_temp(u, w->centre_set_K), 0),
+	         ow_display_label(u, OW_DIM_TEMPERATURE));
 	return buf;
 }
 
 static enum ow_status write_profile(struct job *j, const char *dir,
-				    struct ow_diag *d)
+                                    struct ow_diag *d)
 {
 	struct ow_profile_row *own = NULL;
 	char sub[200];
@@ -628,7 +627,7 @@ static enum ow_status write_profile(struct job *j, const char *dir,
 	j->n_rows = j->o->n_profile;
 	if (!j->rows || j->n_rows < 2) {
 		st = ow_maps_centre_profile(j->s, j->w, &own, &j->n_rows, NULL,
-					    d);
+		                            d);
 		j->rows = own;
 	}
 	j->subtitle = centre_subtitle(j->s, j->w, j->o->units, sub, sizeof sub);
@@ -639,10 +638,10 @@ static enum ow_status write_profile(struct job *j, const char *dir,
 }
 
 enum ow_status ow_maps_write_all(const struct ow_study *s,
-				 const struct ow_grid *g,
-				 const struct ow_window *w,
-				 const struct ow_maps_options *o,
-				 const char *dir, struct ow_diag *d)
+                                 const struct ow_grid *g,
+                                 const struct ow_window *w,
+                                 const struct ow_maps_options *o,
+                                 const char *dir, struct ow_diag *d)
 {
 	struct ow_maps_options def;
 	struct job j;

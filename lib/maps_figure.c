@@ -28,16 +28,19 @@ static double fig_value(const struct ow_grid_point *p, const void *ctx)
 	switch (c->fig) {
 	case OW_MAP_PEAK_TEMP:
 		return ow_display_value(c->u, OW_DIM_TEMPERATURE, pt->peak_K);
-	case OW_MAP_UNMELT: return 100.0 * pt->unmelt_frac;
+	case OW_MAP_UNMELT:
+		return 100.0 * pt->unmelt_frac;
 	case OW_MAP_PRESSURE:
 		return ow_display_value(c->u, OW_DIM_PRESSURE,
-					pt->max_pressure_Pa);
+		                        pt->max_pressure_Pa);
 	case OW_MAP_OUTPUT:
-		return ow_display_value(c->u, OW_DIM_MASS_FLOW, pt->output_kg_s);
+		return ow_display_value(c->u, OW_DIM_MASS_FLOW,
+		                        pt->output_kg_s);
 	case OW_MAP_SEC:
 		return ow_display_value(c->u, OW_DIM_SPECIFIC_ENERGY,
-					pt->sec_J_kg);
-	case OW_MAP_COUNT: break;
+		                        pt->sec_J_kg);
+	case OW_MAP_COUNT:
+		break;
 	}
 	return NAN;
 }
@@ -45,34 +48,34 @@ static double fig_value(const struct ow_grid_point *p, const void *ctx)
 static const char *unit_of(enum ow_map_figure f, enum ow_unit_system u)
 {
 	static const enum ow_dim dim[OW_MAP_COUNT] = {
-		OW_DIM_TEMPERATURE, OW_DIM_NONE, OW_DIM_PRESSURE,
-		OW_DIM_MASS_FLOW, OW_DIM_SPECIFIC_ENERGY};
+	    OW_DIM_TEMPERATURE, OW_DIM_NONE, OW_DIM_PRESSURE, OW_DIM_MASS_FLOW,
+	    OW_DIM_SPECIFIC_ENERGY};
 
 	return f == OW_MAP_UNMELT ? "%" : ow_display_label(u, dim[f]);
 }
 
-static char *bar_title(enum ow_map_figure f, enum ow_unit_system u,
-		       char *buf, size_t n)
+static char *bar_title(enum ow_map_figure f, enum ow_unit_system u, char *buf,
+                       size_t n)
 {
 	switch (f) {
 	case OW_MAP_PEAK_TEMP:
 		snprintf(buf, n, "peak melt temperature (%s)",
-			 ow_display_label(u, OW_DIM_TEMPERATURE));
+		         ow_display_label(u, OW_DIM_TEMPERATURE));
 		break;
 	case OW_MAP_UNMELT:
 		snprintf(buf, n, "unmelted fraction at discharge (%%)");
 		break;
 	case OW_MAP_PRESSURE:
 		snprintf(buf, n, "highest pressure (%s)",
-			 ow_display_label(u, OW_DIM_PRESSURE));
+		         ow_display_label(u, OW_DIM_PRESSURE));
 		break;
 	case OW_MAP_OUTPUT:
 		snprintf(buf, n, "throughput (%s)",
-			 ow_display_label(u, OW_DIM_MASS_FLOW));
+		         ow_display_label(u, OW_DIM_MASS_FLOW));
 		break;
 	default:
 		snprintf(buf, n, "specific energy (%s)",
-			 ow_display_label(u, OW_DIM_SPECIFIC_ENERGY));
+		         ow_display_label(u, OW_DIM_SPECIFIC_ENERGY));
 	}
 	return buf;
 }
@@ -81,34 +84,44 @@ static char *bar_title(enum ow_map_figure f, enum ow_unit_system u,
 static int limits_of(enum ow_map_figure f, int *c)
 {
 	switch (f) {
-	case OW_MAP_PEAK_TEMP: c[0] = OW_CK_PEAK_TEMP; return 1;
-	case OW_MAP_UNMELT: c[0] = OW_CK_UNMELT; return 1;
-	case OW_MAP_PRESSURE: c[0] = OW_CK_PRESSURE; return 1;
+	case OW_MAP_PEAK_TEMP:
+		c[0] = OW_CK_PEAK_TEMP;
+		return 1;
+	case OW_MAP_UNMELT:
+		c[0] = OW_CK_UNMELT;
+		return 1;
+	case OW_MAP_PRESSURE:
+		c[0] = OW_CK_PRESSURE;
+		return 1;
 	case OW_MAP_OUTPUT:
 		c[0] = OW_CK_MIN_OUTPUT;
 		c[1] = OW_CK_MAX_OUTPUT;
 		return 2;
-	default: return 0;
+	default:
+		return 0;
 	}
 }
 
 static double shown_limit(const struct ow_study *s, int c,
-			  enum ow_unit_system u)
+                          enum ow_unit_system u)
 {
 	double v = ow_check_limit(&s->line.limits, (enum ow_check)c);
 
 	switch (c) {
 	case OW_CK_PEAK_TEMP:
 		return ow_display_value(u, OW_DIM_TEMPERATURE, v);
-	case OW_CK_UNMELT: return 100.0 * v;
-	case OW_CK_PRESSURE: return ow_display_value(u, OW_DIM_PRESSURE, v);
-	default: return ow_display_value(u, OW_DIM_MASS_FLOW, v);
+	case OW_CK_UNMELT:
+		return 100.0 * v;
+	case OW_CK_PRESSURE:
+		return ow_display_value(u, OW_DIM_PRESSURE, v);
+	default:
+		return ow_display_value(u, OW_DIM_MASS_FLOW, v);
 	}
 }
 
 /* Longest piece of L, drawn length in points. */
 static int longest(const struct ow_plot *p, const struct ow_isolines *L,
-		   double *len)
+                   double *len)
 {
 	int k, i, b = -1;
 
@@ -118,9 +131,9 @@ static int longest(const struct ow_plot *p, const struct ow_isolines *L,
 
 		for (i = 1; i < L->lines[k].n; i++)
 			s += hypot(ow_plot_px(p, L->lines[k].p[i].x) -
-					   ow_plot_px(p, L->lines[k].p[i - 1].x),
-				   ow_plot_py(p, L->lines[k].p[i].y) -
-					   ow_plot_py(p, L->lines[k].p[i - 1].y));
+			               ow_plot_px(p, L->lines[k].p[i - 1].x),
+			           ow_plot_py(p, L->lines[k].p[i].y) -
+			               ow_plot_py(p, L->lines[k].p[i - 1].y));
 		if (s > *len) {
 			*len = s;
 			b = k;
@@ -131,7 +144,7 @@ static int longest(const struct ow_plot *p, const struct ow_isolines *L,
 
 /* Keep the box a rotated label covers from later labels. */
 static void take_label(const struct ow_plot *p, struct maps_labels *taken,
-		       double X, double Y, double ang, const char *text)
+                       double X, double Y, double ang, const char *text)
 {
 	double a = ang * 3.14159265358979323846 / 180.0, tw, hx, hy;
 
@@ -145,10 +158,10 @@ static void take_label(const struct ow_plot *p, struct maps_labels *taken,
 /* The figure's limit as a bold red dashed line, labelled with the
  * limit's name and value a third of the way along its longest piece. */
 static enum ow_status limit_line(const struct ow_plot *p,
-				 const struct ow_study *s, int c,
-				 const struct ow_field *fd,
-				 enum ow_unit_system u, struct maps_labels *taken,
-				 struct ow_diag *d)
+                                 const struct ow_study *s, int c,
+                                 const struct ow_field *fd,
+                                 enum ow_unit_system u,
+                                 struct maps_labels *taken, struct ow_diag *d)
 {
 	struct ow_rgba red = ow_rgb(0.80, 0.10, 0.05);
 	struct ow_isolines *L = NULL;
@@ -184,7 +197,7 @@ static enum ow_status limit_line(const struct ow_plot *p,
 			ang = ow_plot_upright(ang);
 			maps_limit_text(s, c, u, NULL, text, sizeof text);
 			ow_plot_label_on_line(p->cv, X, Y, ang, text,
-					      0.9 * p->font_pt, red);
+			                      0.9 * p->font_pt, red);
 			take_label(p, taken, X, Y, ang, text);
 			break;
 		}
@@ -193,11 +206,10 @@ static enum ow_status limit_line(const struct ow_plot *p,
 	return ow_canvas_status(p->cv, d);
 }
 
-static enum ow_status limit_lines(const struct ow_plot *p,
-				  const struct ow_study *s,
-				  enum ow_map_figure f, const struct ow_field *fd,
-				  enum ow_unit_system u, struct maps_labels *taken,
-				  struct ow_diag *d)
+static enum ow_status
+limit_lines(const struct ow_plot *p, const struct ow_study *s,
+            enum ow_map_figure f, const struct ow_field *fd,
+            enum ow_unit_system u, struct maps_labels *taken, struct ow_diag *d)
 {
 	int c[2], n = limits_of(f, c), k;
 	enum ow_status st = OW_OK;
@@ -210,8 +222,8 @@ static enum ow_status limit_lines(const struct ow_plot *p,
 
 /* The levels without those a limit line takes (drawn apart, labelled). */
 static void without_limits(const struct ow_study *s, enum ow_map_figure f,
-			   enum ow_unit_system u, const struct ow_ticks *lv,
-			   struct ow_ticks *out)
+                           enum ow_unit_system u, const struct ow_ticks *lv,
+                           struct ow_ticks *out)
 {
 	int c[2], n = limits_of(f, c), i, k, m = 0;
 
@@ -221,7 +233,7 @@ static void without_limits(const struct ow_study *s, enum ow_map_figure f,
 
 		for (k = 0; k < n; k++)
 			skip |= fabs(lv->v[i] - shown_limit(s, c[k], u)) <
-				1e-6 * lv->step;
+			        1e-6 * lv->step;
 		if (!skip)
 			out->v[m++] = lv->v[i];
 	}
@@ -231,8 +243,9 @@ static void without_limits(const struct ow_study *s, enum ow_map_figure f,
 /* Levels over the field's range (the unmelt map reaches up to its limit,
  * so the limit always has a place on the scale). */
 static enum ow_status levels_of(const struct ow_study *s, enum ow_map_figure f,
-				enum ow_unit_system u, const struct ow_field *fd,
-				struct ow_ticks *lv, int *constant)
+                                enum ow_unit_system u,
+                                const struct ow_field *fd, struct ow_ticks *lv,
+                                int *constant)
 {
 	double lo = INFINITY, hi = -INFINITY;
 	long k;
@@ -252,7 +265,7 @@ static enum ow_status levels_of(const struct ow_study *s, enum ow_map_figure f,
 
 /* "0 % everywhere on the map" for a field with one value. */
 static void constant_note(const struct ow_plot *p, const struct ow_field *fd,
-			  const char *unit)
+                          const char *unit)
 {
 	char num[48], text[128];
 	double f = p->font_pt, w;
@@ -261,37 +274,40 @@ static void constant_note(const struct ow_plot *p, const struct ow_field *fd,
 	for (k = 0; k < (long)fd->nx * fd->ny && !isfinite(fd->z[k]); k++)
 		;
 	snprintf(text, sizeof text, "%s %s everywhere on the map",
-		 maps_num(num, sizeof num, fd->z[k]), unit);
+	         maps_num(num, sizeof num, fd->z[k]), unit);
 	ow_canvas_save(p->cv);
 	ow_canvas_set_font(p->cv, 1.1 * f, 1);
 	w = ow_canvas_text_width(p->cv, text) + 1.2 * f;
 	ow_canvas_rect(p->cv, p->area.x + 0.5 * (p->area.w - w),
-		       p->area.y + 1.0 * f, w, 2.0 * f);
+	               p->area.y + 1.0 * f, w, 2.0 * f);
 	ow_canvas_set_colour(p->cv, ow_rgb(1, 1, 1));
 	ow_canvas_fill(p->cv);
 	ow_canvas_set_colour(p->cv, ow_rgb(0, 0, 0));
 	ow_canvas_text(p->cv, p->area.x + 0.5 * p->area.w, p->area.y + 2.0 * f,
-		       text, OW_ALIGN_CENTRE, OW_VALIGN_MIDDLE, 0);
+	               text, OW_ALIGN_CENTRE, OW_VALIGN_MIDDLE, 0);
 	ow_canvas_restore(p->cv);
 }
 
 static void subtitle_of(enum ow_map_figure f, const struct ow_study *s,
-			char *buf, size_t n)
+                        char *buf, size_t n)
 {
 	int c[2];
-	int lim = limits_of(f, c) > 0 &&
-		  isfinite(ow_check_limit(&s->line.limits, (enum ow_check)c[0]));
+	int lim =
+	    limits_of(f, c) > 0 &&
+	    isfinite(ow_check_limit(&s->line.limits, (enum ow_check)c[0]));
 
-	snprintf(buf, n, "%sDashed black: edge of the safe region. Box: "
-		 "recommended window.", lim ? "Dashed red: the limit. " : "");
+	snprintf(buf, n,
+	         "%sDashed black: edge of the safe region. Box: "
+	         "recommended window.",
+	         lim ? "Dashed red: the limit. " : "");
 }
 
 static enum ow_status draw_body(const struct ow_plot *p,
-				const struct ow_study *s,
-				const struct ow_window *w,
-				const struct ow_maps_options *o,
-				enum ow_map_figure f, const struct ow_field *fd,
-				const struct ow_ticks *lv, struct ow_diag *d)
+                                const struct ow_study *s,
+                                const struct ow_window *w,
+                                const struct ow_maps_options *o,
+                                enum ow_map_figure f, const struct ow_field *fd,
+                                const struct ow_ticks *lv, struct ow_diag *d)
 {
 	struct maps_labels taken = {0};
 	struct ow_maps_options po = *o;
@@ -306,8 +322,8 @@ static enum ow_status draw_body(const struct ow_plot *p,
 	st = ow_plot_contour_fill(p, fd, lv, OW_CMAP_VIRIDIS, d);
 	if (st == OW_OK && iso.n > 0)
 		st = ow_plot_isolines(p, fd, &iso, 1,
-				      ow_rgba_with_alpha(ow_rgb(0, 0, 0), 0.55),
-				      0.5, d);
+		                      ow_rgba_with_alpha(ow_rgb(0, 0, 0), 0.55),
+		                      0.5, d);
 	if (st != OW_OK)
 		return st;
 	maps_draw_edge(p, s, w, o->units);
@@ -318,14 +334,11 @@ static enum ow_status draw_body(const struct ow_plot *p,
 	return st;
 }
 
-enum ow_status ow_maps_draw_figure(struct ow_canvas *cv,
-				   const struct ow_rect *box,
-				   enum ow_map_figure f,
-				   const struct ow_study *s,
-				   const struct ow_grid *g,
-				   const struct ow_window *w,
-				   const struct ow_maps_options *o,
-				   struct ow_diag *d)
+enum ow_status
+ow_maps_draw_figure(struct ow_canvas *cv, const struct ow_rect *box,
+                    enum ow_map_figure f, const struct ow_study *s,
+                    const struct ow_grid *g, const struct ow_window *w,
+                    const struct ow_maps_options *o, struct ow_diag *d)
 {
 	struct ow_maps_options def;
 	struct maps_field mf;
@@ -354,12 +367,14 @@ enum ow_status ow_maps_draw_figure(struct ow_canvas *cv,
 	maps_fill(g, fig_value, &ctx, mf.z);
 	if (levels_of(s, f, o->units, &mf.f, &lv, &constant) != OW_OK) {
 		maps_field_free(&mf);
-		return ow_diag_set(d, OW_ECOMPUTE, "%s map: no solved point "
-				   "to draw", ow_maps_figure_file(f));
+		return ow_diag_set(d, OW_ECOMPUTE,
+		                   "%s map: no solved point "
+		                   "to draw",
+		                   ow_maps_figure_file(f));
 	}
 	subtitle_of(f, s, sub, sizeof sub);
 	snprintf(title, sizeof title, "%s — %s", ow_maps_figure_title(f),
-		 s->title);
+	         s->title);
 	maps_paper(cv, box, title, sub, fs);
 	inner = *box;
 	inner.y += 3.4 * fs;
@@ -381,6 +396,6 @@ enum ow_status ow_maps_draw_figure(struct ow_canvas *cv,
 	bar.w = 7.0 * fs;
 	bar.h = p.area.h + 5.4 * fs + 4.0;
 	ow_plot_colour_bar(cv, &bar, &lv, OW_CMAP_VIRIDIS,
-			   bar_title(f, o->units, btitle, sizeof btitle), fs);
+	                   bar_title(f, o->units, btitle, sizeof btitle), fs);
 	return ow_canvas_status(cv, d);
 }

@@ -17,9 +17,8 @@ struct maps_field {
 };
 
 enum ow_status maps_field_create(const struct ow_study *s,
-				 const struct ow_grid *g,
-				 enum ow_unit_system u, struct maps_field *mf,
-				 struct ow_diag *d);
+                                 const struct ow_grid *g, enum ow_unit_system u,
+                                 struct maps_field *mf, struct ow_diag *d);
 void maps_field_free(struct maps_field *mf);
 
 /* z at every lattice point: get() at solved points; at the others (inside
@@ -28,7 +27,7 @@ void maps_field_free(struct maps_field *mf);
  * over unchanged; NAN where get() is NAN at a corner. */
 typedef double (*maps_get)(const struct ow_grid_point *p, const void *ctx);
 void maps_fill(const struct ow_grid *g, maps_get get, const void *ctx,
-	       double *z);
+               double *z);
 
 /* Shown value of a reference set-point (K). */
 double maps_temp(enum ow_unit_system u, double K);
@@ -36,19 +35,19 @@ double maps_temp(enum ow_unit_system u, double K);
 /* "peak melt 240 °C", "unmelt 0.5 %", "pressure 35 MPa", "plugging";
  * op goes between name and value (NULL: a space; " > " for a legend). */
 char *maps_limit_text(const struct ow_study *s, int check,
-		      enum ow_unit_system u, const char *op, char *buf,
-		      size_t n);
+                      enum ow_unit_system u, const char *op, char *buf,
+                      size_t n);
 
 /* A value with a sensible number of digits for a label. */
 char *maps_num(char *buf, size_t n, double v);
 
 /* "screw speed (rpm)" and "<axis label> (°C)". */
-char *maps_y_title(const struct ow_study *s, enum ow_unit_system u,
-		   char *buf, size_t n);
+char *maps_y_title(const struct ow_study *s, enum ow_unit_system u, char *buf,
+                   size_t n);
 
 /* text shortened with "…" to fit max_w at the canvas's current font. */
 char *maps_fit_text(struct ow_canvas *cv, const char *text, double max_w,
-		    char *buf, size_t n);
+                    char *buf, size_t n);
 
 /* Boxes already taken by labels, so later labels can avoid them. */
 struct maps_labels {
@@ -58,37 +57,37 @@ struct maps_labels {
 };
 
 int maps_labels_free(const struct maps_labels *l, double x0, double y0,
-		     double x1, double y1);
+                     double x1, double y1);
 void maps_labels_take(struct maps_labels *l, double x0, double y0, double x1,
-		      double y1);
+                      double y1);
 
 /* The window's recommended rectangle (width_pt; bold on the window map,
  * thin on the figure maps) and, when thin, its safe-region edge. */
 void maps_draw_rectangle(const struct ow_plot *p, const struct ow_study *s,
-			 const struct ow_window *w, enum ow_unit_system u,
-			 double width_pt);
+                         const struct ow_window *w, enum ow_unit_system u,
+                         double width_pt);
 void maps_draw_edge(const struct ow_plot *p, const struct ow_study *s,
-		    const struct ow_window *w, enum ow_unit_system u);
+                    const struct ow_window *w, enum ow_unit_system u);
 
 /* A boundary polyline of w in plot coordinates. */
 void maps_boundary_points(const struct ow_study *s, const struct ow_polyline *l,
-			  enum ow_unit_system u, struct ow_pt2 *out);
+                          enum ow_unit_system u, struct ow_pt2 *out);
 
 /* The centre and the current point, marked and labelled with their
  * speed and set-point (brief: with their names only). */
 void maps_draw_points(const struct ow_plot *p, const struct ow_study *s,
-		      const struct ow_window *w,
-		      const struct ow_maps_options *o, int brief,
-		      struct maps_labels *taken);
+                      const struct ow_window *w,
+                      const struct ow_maps_options *o, int brief,
+                      struct maps_labels *taken);
 
 /* Canvas white, a shortened title at the top. */
 void maps_paper(struct ow_canvas *cv, const struct ow_rect *box,
-		const char *title, const char *subtitle, double font_pt);
+                const char *title, const char *subtitle, double font_pt);
 
 /* Axes of a map: x rpm, y reference set-point, from the lattice. */
 void maps_axes(const struct ow_study *s, const struct ow_grid *g,
-	       enum ow_unit_system u, struct ow_plot_axis *x,
-	       struct ow_plot_axis *y, char *ytitle, size_t n);
+               enum ow_unit_system u, struct ow_plot_axis *x,
+               struct ow_plot_axis *y, char *ytitle, size_t n);
 
 double maps_font(const struct ow_maps_options *o);
 

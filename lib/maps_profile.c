@@ -11,7 +11,7 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define N_PANELS 4
+#define N_PANELS         4
 #define SILHOUETTE_STEPS 300
 
 struct panel {
@@ -33,8 +33,8 @@ static void columns_free(struct columns *c)
 }
 
 static int columns_fill(const struct ow_study *s,
-			const struct ow_profile_row *r, int n,
-			enum ow_unit_system u, struct columns *c)
+                        const struct ow_profile_row *r, int n,
+                        enum ow_unit_system u, struct columns *c)
 {
 	double D = s->screw.diameter_m;
 	int i;
@@ -49,12 +49,14 @@ static int columns_fill(const struct ow_study *s,
 	c->unmelt = c->sbr + n;
 	for (i = 0; i < n; i++) {
 		c->xD[i] = r[i].axial_m / D;
-		c->pres[i] = ow_display_value(u, OW_DIM_PRESSURE,
-					      r[i].pressure_Pa);
-		c->bulk[i] = ow_display_value(u, OW_DIM_TEMPERATURE, r[i].bulk_K);
-		c->peak[i] = ow_display_value(u, OW_DIM_TEMPERATURE, r[i].peak_K);
-		c->barrel[i] = ow_display_value(u, OW_DIM_TEMPERATURE,
-						r[i].barrel_K);
+		c->pres[i] =
+		    ow_display_value(u, OW_DIM_PRESSURE, r[i].pressure_Pa);
+		c->bulk[i] =
+		    ow_display_value(u, OW_DIM_TEMPERATURE, r[i].bulk_K);
+		c->peak[i] =
+		    ow_display_value(u, OW_DIM_TEMPERATURE, r[i].peak_K);
+		c->barrel[i] =
+		    ow_display_value(u, OW_DIM_TEMPERATURE, r[i].barrel_K);
 		c->sbr[i] = r[i].sbr;
 		c->unmelt[i] = r[i].unmelt_frac;
 	}
@@ -62,7 +64,7 @@ static int columns_fill(const struct ow_study *s,
 }
 
 static struct ow_series series(const char *name, const struct columns *c,
-			       const double *y, int style)
+                               const double *y, int style)
 {
 	struct ow_series s;
 
@@ -76,8 +78,8 @@ static struct ow_series series(const char *name, const struct columns *c,
 
 /* Lay panel k out in rows [y0, y0 + h] of the chart's column. */
 static enum ow_status panel_init(struct panel *pn, struct ow_canvas *cv,
-				 const struct ow_rect *col, double y0,
-				 double h, double f, double right, int last)
+                                 const struct ow_rect *col, double y0, double h,
+                                 double f, double right, int last)
 {
 	struct ow_rect b = *col;
 	double top = 2.0 * f, bot = 4.0 + (last ? 3.2 : 1.6) * f;
@@ -123,12 +125,12 @@ static void limit_line(const struct ow_plot *p, double v, const char *text)
 	ow_canvas_set_font(p->cv, 0.85 * f, 0);
 	if (Y - p->area.y > 1.4 * f) /* above the line, else below it */
 		ow_canvas_text(p->cv, p->area.x + p->area.w - 0.3 * f,
-			       Y - 0.25 * f, text, OW_ALIGN_RIGHT,
-			       OW_VALIGN_BOTTOM, 0);
+		               Y - 0.25 * f, text, OW_ALIGN_RIGHT,
+		               OW_VALIGN_BOTTOM, 0);
 	else
 		ow_canvas_text(p->cv, p->area.x + p->area.w - 0.3 * f,
-			       Y + 0.35 * f, text, OW_ALIGN_RIGHT,
-			       OW_VALIGN_TOP, 0);
+		               Y + 0.35 * f, text, OW_ALIGN_RIGHT,
+		               OW_VALIGN_TOP, 0);
 	ow_canvas_restore(p->cv);
 }
 
@@ -146,12 +148,12 @@ static void panel_draw(struct panel *pn, const struct ow_series *s, int n)
 	}
 	ow_plot_legend_size(pn->p.cv, e, n, 0.85 * f, &w, &h);
 	ow_plot_legend(pn->p.cv, pn->p.area.x + pn->p.area.w + 0.8 * f,
-		       pn->p.area.y, e, n, 0.85 * f);
+	               pn->p.area.y, e, n, 0.85 * f);
 }
 
 /* y range of the finite values of n series, padded; from zero if asked. */
 static void y_range(struct panel *pn, const struct ow_series *s, int n,
-		    int from_zero, double lim)
+                    int from_zero, double lim)
 {
 	double lo, hi;
 
@@ -171,7 +173,7 @@ static void y_range(struct panel *pn, const struct ow_series *s, int n,
 /* The screw: barrel wall at the top, the root at the channel depth below
  * it, the root body shaded, sections separated and named. */
 static void silhouette(struct panel *pn, const struct ow_study *s,
-		       enum ow_unit_system u)
+                       enum ow_unit_system u)
 {
 	struct ow_legend_entry e[2];
 	const struct ow_screw *sc = &s->screw;
@@ -187,10 +189,10 @@ static void silhouette(struct panel *pn, const struct ow_study *s,
 	for (i = 0; i <= SILHOUETTE_STEPS; i++) {
 		double x = L * (double)i / SILHOUETTE_STEPS;
 
-		ow_canvas_line_to(p->cv, ow_plot_px(p, x / D),
-				  ow_plot_py(p, ow_display_value(
-						      u, OW_DIM_LENGTH,
-						      ow_screw_depth(sc, x))));
+		ow_canvas_line_to(
+		    p->cv, ow_plot_px(p, x / D),
+		    ow_plot_py(p, ow_display_value(u, OW_DIM_LENGTH,
+		                                   ow_screw_depth(sc, x))));
 	}
 	ow_canvas_line_to(p->cv, ow_plot_px(p, L / D), ow_plot_py(p, 0.0));
 	ow_canvas_close_path(p->cv);
@@ -210,8 +212,8 @@ static void silhouette(struct panel *pn, const struct ow_study *s,
 		ow_canvas_stroke(p->cv);
 		if (ow_canvas_text_width(p->cv, name) < xb - xa - 4.0)
 			ow_canvas_text(p->cv, 0.5 * (xa + xb),
-				       p->area.y + p->area.h - 0.4 * f, name,
-				       OW_ALIGN_CENTRE, OW_VALIGN_BOTTOM, 0);
+			               p->area.y + p->area.h - 0.4 * f, name,
+			               OW_ALIGN_CENTRE, OW_VALIGN_BOTTOM, 0);
 	}
 	ow_canvas_restore(p->cv);
 	ow_plot_axes(p, &pn->x, &pn->y);
@@ -225,7 +227,7 @@ static void silhouette(struct panel *pn, const struct ow_study *s,
 	e[1].label = "screw root";
 	e[1].fill = ow_rgb(0.62, 0.64, 0.67);
 	ow_plot_legend(p->cv, p->area.x + p->area.w + 0.8 * f, p->area.y, e, 2,
-		       0.85 * f);
+	               0.85 * f);
 }
 
 /* Vertical gap between panels: room for the tick labels at both ends. */
@@ -233,7 +235,7 @@ static void silhouette(struct panel *pn, const struct ow_study *s,
 
 /* The widest legend of the panels. */
 static double legend_width(struct ow_canvas *cv, const struct ow_series *sr,
-			   double f)
+                           double f)
 {
 	struct ow_legend_entry e[6];
 	double w, h;
@@ -254,9 +256,10 @@ struct layout {
 };
 
 static enum ow_status layout(struct layout *ly, struct ow_canvas *cv,
-			     const struct ow_rect *box, const struct ow_study *s,
-			     const struct ow_series *sr, enum ow_unit_system u,
-			     double f)
+                             const struct ow_rect *box,
+                             const struct ow_study *s,
+                             const struct ow_series *sr, enum ow_unit_system u,
+                             double f)
 {
 	static const double share[N_PANELS] = {1.0, 1.15, 0.85, 0.6};
 	struct ow_rect col = *box;
@@ -268,7 +271,7 @@ static enum ow_status layout(struct layout *ly, struct ow_canvas *cv,
 
 	for (k = 0; k < s->screw.n_sections; k++)
 		maxd = fmax(maxd, fmax(s->screw.sections[k].depth_m,
-				       s->screw.sections[k].depth_start_m));
+		                       s->screw.sections[k].depth_start_m));
 	for (k = 0; k < N_PANELS; k++) {
 		struct panel *pn = &ly->pn[k];
 
@@ -276,14 +279,14 @@ static enum ow_status layout(struct layout *ly, struct ow_canvas *cv,
 		pn->x.max = ow_screw_length(&s->screw) / s->screw.diameter_m;
 		pn->x.max_ticks = (int)(col.w * 0.8 / (6.0 * f)) + 1;
 		pn->x.title = k == N_PANELS - 1
-				     ? "axial position from the hopper end (D)"
-				     : NULL;
+		                  ? "axial position from the hopper end (D)"
+		                  : NULL;
 	}
 	y_range(&ly->pn[0], sr, 1, 1, NAN);
 	ly->pn[0].y.title = ly->t_pres;
 	y_range(&ly->pn[1], sr + 1, 3, 0,
-		ow_display_value(u, OW_DIM_TEMPERATURE,
-				 s->line.limits.peak_temp_K));
+	        ow_display_value(u, OW_DIM_TEMPERATURE,
+	                         s->line.limits.peak_temp_K));
 	ly->pn[1].y.title = ly->t_temp;
 	ly->pn[2].y.min = 0.0, ly->pn[2].y.max = 1.0;
 	ly->pn[2].y.title = "fraction (–)";
@@ -295,7 +298,7 @@ static enum ow_status layout(struct layout *ly, struct ow_canvas *cv,
 		double h = avail * share[k] / 3.6;
 
 		if (panel_init(&ly->pn[k], cv, &col, y, h, f, right,
-			       k == N_PANELS - 1) != OW_OK)
+		               k == N_PANELS - 1) != OW_OK)
 			return OW_EARG;
 		y += h + GAP(f);
 	}
@@ -304,28 +307,26 @@ static enum ow_status layout(struct layout *ly, struct ow_canvas *cv,
 }
 
 static void titles(struct layout *ly, const struct ow_study *s,
-		   enum ow_unit_system u)
+                   enum ow_unit_system u)
 {
 	char a[48];
 
 	snprintf(ly->t_pres, sizeof ly->t_pres, "pressure (%s)",
-		 ow_display_label(u, OW_DIM_PRESSURE));
+	         ow_display_label(u, OW_DIM_PRESSURE));
 	snprintf(ly->t_temp, sizeof ly->t_temp, "temperature (%s)",
-		 ow_display_label(u, OW_DIM_TEMPERATURE));
+	         ow_display_label(u, OW_DIM_TEMPERATURE));
 	snprintf(ly->t_depth, sizeof ly->t_depth, "depth (%s)",
-		 ow_display_label(u, OW_DIM_LENGTH));
+	         ow_display_label(u, OW_DIM_LENGTH));
 	snprintf(ly->l_pres, sizeof ly->l_pres, "limit: %s",
-		 maps_limit_text(s, OW_CK_PRESSURE, u, NULL, a, sizeof a));
+	         maps_limit_text(s, OW_CK_PRESSURE, u, NULL, a, sizeof a));
 	snprintf(ly->l_temp, sizeof ly->l_temp, "limit: %s",
-		 maps_limit_text(s, OW_CK_PEAK_TEMP, u, NULL, a, sizeof a));
+	         maps_limit_text(s, OW_CK_PEAK_TEMP, u, NULL, a, sizeof a));
 }
 
-static enum ow_status draw_panels(struct ow_canvas *cv,
-				  const struct ow_rect *box,
-				  const struct ow_study *s,
-				  const struct columns *c,
-				  enum ow_unit_system u, double f,
-				  struct ow_diag *d)
+static enum ow_status
+draw_panels(struct ow_canvas *cv, const struct ow_rect *box,
+            const struct ow_study *s, const struct columns *c,
+            enum ow_unit_system u, double f, struct ow_diag *d)
 {
 	struct ow_series sr[6];
 	struct layout ly;
@@ -347,15 +348,16 @@ static enum ow_status draw_panels(struct ow_canvas *cv,
 		return ow_diag_set(d, OW_EARG, "profile: box too small");
 	panel_draw(&ly.pn[0], sr, 1);
 	if (ow_check_active(lim, OW_CK_PRESSURE))
-		limit_line(&ly.pn[0].p,
-			   ow_display_value(u, OW_DIM_PRESSURE, lim->pressure_Pa),
-			   ly.l_pres);
+		limit_line(
+		    &ly.pn[0].p,
+		    ow_display_value(u, OW_DIM_PRESSURE, lim->pressure_Pa),
+		    ly.l_pres);
 	panel_draw(&ly.pn[1], sr + 1, 3);
 	if (ow_check_active(lim, OW_CK_PEAK_TEMP))
-		limit_line(&ly.pn[1].p,
-			   ow_display_value(u, OW_DIM_TEMPERATURE,
-					    lim->peak_temp_K),
-			   ly.l_temp);
+		limit_line(
+		    &ly.pn[1].p,
+		    ow_display_value(u, OW_DIM_TEMPERATURE, lim->peak_temp_K),
+		    ly.l_temp);
 	panel_draw(&ly.pn[2], sr + 4, 2);
 	/* depth grows downwards, like the channel seen in section */
 	ly.pn[3].p.y1 = ly.pn[3].p.y0;
@@ -364,13 +366,10 @@ static enum ow_status draw_panels(struct ow_canvas *cv,
 	return ow_canvas_status(cv, d);
 }
 
-enum ow_status ow_maps_draw_profile(struct ow_canvas *cv,
-				    const struct ow_rect *box,
-				    const struct ow_study *s,
-				    const struct ow_profile_row *rows, int n,
-				    const char *subtitle,
-				    const struct ow_maps_options *o,
-				    struct ow_diag *d)
+enum ow_status ow_maps_draw_profile(
+    struct ow_canvas *cv, const struct ow_rect *box, const struct ow_study *s,
+    const struct ow_profile_row *rows, int n, const char *subtitle,
+    const struct ow_maps_options *o, struct ow_diag *d)
 {
 	struct ow_maps_options def;
 	struct columns c;
@@ -387,7 +386,7 @@ enum ow_status ow_maps_draw_profile(struct ow_canvas *cv,
 	if (!columns_fill(s, rows, n, o->units, &c))
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	maps_paper(cv, box, s->title,
-		   subtitle ? subtitle : "Profiles along the screw", f);
+	           subtitle ? subtitle : "Profiles along the screw", f);
 	st = draw_panels(cv, box, s, &c, o->units, f, d);
 	columns_free(&c);
 	return st;

@@ -11,7 +11,7 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define OW_PI 3.14159265358979323846
+#define OW_PI      3.14159265358979323846
 #define TINT_ALPHA 0.16
 
 struct group {
@@ -24,28 +24,34 @@ struct group {
  * feed, no solution. Hues from Okabe & Ito, "Color Universal Design"
  * (2008), darkened for thin lines. */
 static const struct group groups[6] = {
-	{0.78, 0.20, 0.05, 45.0, OW_DASH_SOLID},
-	{0.60, 0.30, 0.55, 135.0, OW_DASH_DASHED},
-	{0.00, 0.36, 0.60, 90.0, OW_DASH_DASH_DOT},
-	{0.55, 0.40, 0.00, 0.0, OW_DASH_LONG},
-	{0.00, 0.48, 0.36, 67.5, OW_DASH_DOTTED},
-	{0.35, 0.35, 0.35, 112.5, OW_DASH_SOLID}};
+    {0.78, 0.20, 0.05, 45.0, OW_DASH_SOLID},
+    {0.60, 0.30, 0.55, 135.0, OW_DASH_DASHED},
+    {0.00, 0.36, 0.60, 90.0, OW_DASH_DASH_DOT},
+    {0.55, 0.40, 0.00, 0.0, OW_DASH_LONG},
+    {0.00, 0.48, 0.36, 67.5, OW_DASH_DOTTED},
+    {0.35, 0.35, 0.35, 112.5, OW_DASH_SOLID}};
 
 static const struct group *group_of(int c)
 {
 	switch (c) {
 	case OW_CK_PEAK_TEMP:
-	case OW_CK_MIN_MELT_TEMP: return &groups[0];
+	case OW_CK_MIN_MELT_TEMP:
+		return &groups[0];
 	case OW_CK_UNMELT:
 	case OW_CK_MAX_SBR:
-	case OW_CK_PLUGGING: return &groups[1];
-	case OW_CK_PRESSURE: return &groups[2];
+	case OW_CK_PLUGGING:
+		return &groups[1];
+	case OW_CK_PRESSURE:
+		return &groups[2];
 	case OW_CK_POWER:
-	case OW_CK_TORQUE: return &groups[3];
+	case OW_CK_TORQUE:
+		return &groups[3];
 	case OW_CK_MIN_OUTPUT:
 	case OW_CK_MAX_OUTPUT:
-	case OW_CK_FEED: return &groups[4];
-	default: return &groups[5];
+	case OW_CK_FEED:
+		return &groups[4];
+	default:
+		return &groups[5];
 	}
 }
 
@@ -85,10 +91,10 @@ static int shown(const struct ow_study *s, const struct ow_window *w, int c)
 }
 
 static enum ow_status unsafe_regions(const struct ow_plot *p,
-				     const struct ow_study *s,
-				     const struct ow_grid *g,
-				     const struct ow_window *w,
-				     struct maps_field *mf, struct ow_diag *d)
+                                     const struct ow_study *s,
+                                     const struct ow_grid *g,
+                                     const struct ow_window *w,
+                                     struct maps_field *mf, struct ow_diag *d)
 {
 	enum ow_status st = OW_OK;
 	int c;
@@ -99,10 +105,9 @@ static enum ow_status unsafe_regions(const struct ow_plot *p,
 		if (!shown(s, w, c))
 			continue;
 		maps_fill(g, fail_value, &c, mf->z);
-		st = ow_plot_field_region(p, &mf->f, 0.0,
-					  ow_rgba_with_alpha(ink_of(c),
-							     TINT_ALPHA),
-					  &h, d);
+		st = ow_plot_field_region(
+		    p, &mf->f, 0.0, ow_rgba_with_alpha(ink_of(c), TINT_ALPHA),
+		    &h, d);
 	}
 	return st;
 }
@@ -118,22 +123,22 @@ static const struct ow_boundary *boundary_of(const struct ow_window *w, int c)
 }
 
 static void boundary_lines(const struct ow_plot *p, const struct ow_study *s,
-			   const struct ow_window *w, enum ow_unit_system u)
+                           const struct ow_window *w, enum ow_unit_system u)
 {
 	int c, k;
 
 	for (c = 0; c < OW_CK_COUNT; c++) {
 		const struct ow_boundary *bd = boundary_of(w, c);
 		struct ow_line_style halo = {ow_rgb(1, 1, 1), 3.4,
-					     OW_DASH_SOLID, OW_MARK_NONE};
+		                             OW_DASH_SOLID, OW_MARK_NONE};
 		struct ow_line_style ln = {ink_of(c), 1.6, group_of(c)->dash,
-					   OW_MARK_NONE};
+		                           OW_MARK_NONE};
 
 		if (!bd || !shown(s, w, c))
 			continue;
 		for (k = 0; k < bd->n_lines; k++) {
-			struct ow_pt2 *pts = malloc((size_t)bd->lines[k].n *
-						    sizeof *pts);
+			struct ow_pt2 *pts =
+			    malloc((size_t)bd->lines[k].n * sizeof *pts);
 
 			if (!pts)
 				continue;
@@ -148,17 +153,19 @@ static void boundary_lines(const struct ow_plot *p, const struct ow_study *s,
 /* Canvas length of a boundary polyline, and the point at arc fraction t
  * with the line's direction (kept upright) there. */
 static double along(const struct ow_plot *p, const struct ow_pt2 *q, int n,
-		    double t, double *X, double *Y, double *ang)
+                    double t, double *X, double *Y, double *ang)
 {
 	double total = 0.0, s = 0.0, at;
 	int k;
 
 	for (k = 1; k < n; k++)
-		total += hypot(ow_plot_px(p, q[k].x) - ow_plot_px(p, q[k - 1].x),
-			       ow_plot_py(p, q[k].y) - ow_plot_py(p, q[k - 1].y));
+		total +=
+		    hypot(ow_plot_px(p, q[k].x) - ow_plot_px(p, q[k - 1].x),
+		          ow_plot_py(p, q[k].y) - ow_plot_py(p, q[k - 1].y));
 	at = t * total;
 	for (k = 1; k < n; k++) {
-		double x0 = ow_plot_px(p, q[k - 1].x), y0 = ow_plot_py(p, q[k - 1].y);
+		double x0 = ow_plot_px(p, q[k - 1].x),
+		       y0 = ow_plot_py(p, q[k - 1].y);
 		double x1 = ow_plot_px(p, q[k].x), y1 = ow_plot_py(p, q[k].y);
 		double ds = hypot(x1 - x0, y1 - y0);
 
@@ -182,8 +189,8 @@ static double along(const struct ow_plot *p, const struct ow_pt2 *q, int n,
 /* Place the label of check c on its longest boundary piece, where it
  * fits inside the plot and clear of labels already placed. */
 static void label_boundary(const struct ow_plot *p, const struct ow_study *s,
-			   const struct ow_window *w, enum ow_unit_system u,
-			   int c, struct maps_labels *taken)
+                           const struct ow_window *w, enum ow_unit_system u,
+                           int c, struct maps_labels *taken)
 {
 	static const double frac[] = {0.5, 0.35, 0.65, 0.2, 0.8, 0.1, 0.9};
 	const struct ow_boundary *bd = boundary_of(w, c);
@@ -230,7 +237,7 @@ static void label_boundary(const struct ow_plot *p, const struct ow_study *s,
 /* "recommended 40–90 rpm, 190–215 °C" inside the rectangle's top-left
  * corner if it fits there, else just above or below it. */
 static void label_rectangle(const struct ow_plot *p, const struct ow_window *w,
-			    enum ow_unit_system u, struct maps_labels *taken)
+                            enum ow_unit_system u, struct maps_labels *taken)
 {
 	char a[32], b[32], c[32], e[32], text[160];
 	double f = p->font_pt, x0 = ow_plot_px(p, w->rpm_min);
@@ -240,11 +247,11 @@ static void label_rectangle(const struct ow_plot *p, const struct ow_window *w,
 	double tw, h = 1.35 * f, bx, by;
 
 	snprintf(text, sizeof text, "recommended %s–%s rpm, %s–%s %s",
-		 maps_num(a, sizeof a, w->rpm_min),
-		 maps_num(b, sizeof b, w->rpm_max),
-		 ow_plot_format(c, sizeof c, maps_temp(u, w->set_min_K), 0),
-		 ow_plot_format(e, sizeof e, maps_temp(u, w->set_max_K), 0),
-		 ow_display_label(u, OW_DIM_TEMPERATURE));
+	         maps_num(a, sizeof a, w->rpm_min),
+	         maps_num(b, sizeof b, w->rpm_max),
+	         ow_plot_format(c, sizeof c, maps_temp(u, w->set_min_K), 0),
+	         ow_plot_format(e, sizeof e, maps_temp(u, w->set_max_K), 0),
+	         ow_display_label(u, OW_DIM_TEMPERATURE));
 	ow_canvas_set_font(p->cv, f, 1);
 	tw = ow_canvas_text_width(p->cv, text) + 0.6 * f;
 	bx = fmin(x0 + 3.0, p->area.x + p->area.w - tw);
@@ -260,7 +267,7 @@ static void label_rectangle(const struct ow_plot *p, const struct ow_window *w,
 	ow_canvas_fill(p->cv);
 	ow_canvas_set_colour(p->cv, ow_rgb(0, 0, 0));
 	ow_canvas_text(p->cv, bx + 0.3 * f, by + 0.5 * h, text, OW_ALIGN_LEFT,
-		       OW_VALIGN_MIDDLE, 0);
+	               OW_VALIGN_MIDDLE, 0);
 	ow_canvas_restore(p->cv);
 	maps_labels_take(taken, bx, by, bx + tw, by + h);
 }
@@ -268,9 +275,9 @@ static void label_rectangle(const struct ow_plot *p, const struct ow_window *w,
 /* Legend entries: each limit that excludes points (most first), then the
  * safe region, the rectangle, the centre and the current point. */
 static int legend_entries(const struct ow_study *s, const struct ow_window *w,
-			  const struct ow_maps_options *o,
-			  struct ow_legend_entry *e, struct ow_hatch *h,
-			  char (*text)[96])
+                          const struct ow_maps_options *o,
+                          struct ow_legend_entry *e, struct ow_hatch *h,
+                          char (*text)[96])
 {
 	enum ow_check order[OW_CK_COUNT];
 	int nb = ow_window_binding(w, order), k, n = 0;
@@ -284,7 +291,7 @@ static int legend_entries(const struct ow_study *s, const struct ow_window *w,
 			continue;
 		h[n] = hatch_of(c);
 		maps_limit_text(s, c, o->units, min ? " < " : " > ", text[n],
-				sizeof text[n]);
+		                sizeof text[n]);
 		e[n].label = text[n];
 		e[n].swatch = 1;
 		e[n].fill = ow_rgba_with_alpha(ink_of(c), TINT_ALPHA);
@@ -316,9 +323,8 @@ static int legend_entries(const struct ow_study *s, const struct ow_window *w,
 }
 
 /* The box of the empty-window message: two lines, centred. */
-static void empty_box(const struct ow_plot *p, const char *l1,
-		      const char *l2, double *x, double *y, double *w,
-		      double *h)
+static void empty_box(const struct ow_plot *p, const char *l1, const char *l2,
+                      double *x, double *y, double *w, double *h)
 {
 	double f = p->font_pt, w1, w2;
 
@@ -334,7 +340,7 @@ static void empty_box(const struct ow_plot *p, const char *l1,
 
 /* "no safe operating point" and the limits that exclude most points. */
 static void empty_lines(const struct ow_study *s, const struct ow_window *w,
-			enum ow_unit_system u, char *l2, size_t n)
+                        enum ow_unit_system u, char *l2, size_t n)
 {
 	enum ow_check order[OW_CK_COUNT];
 	int nb = ow_window_binding(w, order), k;
@@ -344,13 +350,13 @@ static void empty_lines(const struct ow_study *s, const struct ow_window *w,
 	for (k = 0; k < nb && k < 3; k++) {
 		maps_limit_text(s, (int)order[k], u, NULL, one, sizeof one);
 		snprintf(l2 + strlen(l2), n - strlen(l2), "%s %s", k ? "," : "",
-			 one);
+		         one);
 	}
 }
 
 static void empty_message(const struct ow_plot *p, const struct ow_study *s,
-			  const struct ow_window *w, enum ow_unit_system u,
-			  int draw, struct maps_labels *taken)
+                          const struct ow_window *w, enum ow_unit_system u,
+                          int draw, struct maps_labels *taken)
 {
 	const char *l1 = "no safe operating point";
 	char l2[320], fit[320];
@@ -371,32 +377,32 @@ static void empty_message(const struct ow_plot *p, const struct ow_study *s,
 	ow_canvas_stroke(p->cv);
 	ow_canvas_set_font(p->cv, 1.2 * f, 1);
 	ow_canvas_text(p->cv, x + 0.5 * bw, y + 1.2 * f, l1, OW_ALIGN_CENTRE,
-		       OW_VALIGN_MIDDLE, 0);
+	               OW_VALIGN_MIDDLE, 0);
 	ow_canvas_set_font(p->cv, f, 0);
 	ow_canvas_text(p->cv, x + 0.5 * bw, y + 2.6 * f,
-		       maps_fit_text(p->cv, l2, bw - f, fit, sizeof fit),
-		       OW_ALIGN_CENTRE, OW_VALIGN_MIDDLE, 0);
+	               maps_fit_text(p->cv, l2, bw - f, fit, sizeof fit),
+	               OW_ALIGN_CENTRE, OW_VALIGN_MIDDLE, 0);
 	ow_canvas_restore(p->cv);
 }
 
 static void subtitle_of(const struct ow_study *s, const struct ow_window *w,
-			char *buf, size_t n)
+                        char *buf, size_t n)
 {
 	char pct[32];
 
-	snprintf(buf, n, "White: safe (%s %% of the map). Hatched: a limit is "
-		 "exceeded.%s",
-		 maps_num(pct, sizeof pct, 100.0 * w->safe_fraction),
-		 s->line.axes.mode == OW_AXIS_SHIFT
-			 ? " All zones shifted together." : "");
+	snprintf(buf, n,
+	         "White: safe (%s %% of the map). Hatched: a limit is "
+	         "exceeded.%s",
+	         maps_num(pct, sizeof pct, 100.0 * w->safe_fraction),
+	         s->line.axes.mode == OW_AXIS_SHIFT
+	             ? " All zones shifted together."
+	             : "");
 }
 
-static enum ow_status draw_body(const struct ow_plot *p,
-				const struct ow_study *s,
-				const struct ow_grid *g,
-				const struct ow_window *w,
-				const struct ow_maps_options *o,
-				struct ow_diag *d)
+static enum ow_status
+draw_body(const struct ow_plot *p, const struct ow_study *s,
+          const struct ow_grid *g, const struct ow_window *w,
+          const struct ow_maps_options *o, struct ow_diag *d)
 {
 	struct maps_field mf;
 	struct maps_labels taken = {0};
@@ -434,17 +440,15 @@ struct wlayout {
 	struct ow_plot_axis x, y;
 	struct ow_plot p;
 	int n;
-	int cols;        /* legend columns: 1 beside the plot, more below */
-	double lx, ly;   /* legend's top-left corner */
+	int cols;      /* legend columns: 1 beside the plot, more below */
+	double lx, ly; /* legend's top-left corner */
 };
 
-static enum ow_status window_layout(struct ow_canvas *cv,
-				    const struct ow_rect *box,
-				    const struct ow_study *s,
-				    const struct ow_grid *g,
-				    const struct ow_window *w,
-				    const struct ow_maps_options *o,
-				    struct wlayout *ly, struct ow_diag *d)
+static enum ow_status
+window_layout(struct ow_canvas *cv, const struct ow_rect *box,
+              const struct ow_study *s, const struct ow_grid *g,
+              const struct ow_window *w, const struct ow_maps_options *o,
+              struct wlayout *ly, struct ow_diag *d)
 {
 	double f = maps_font(o), lw, lh, right = 0.0;
 	struct ow_rect inner = *box;
@@ -460,7 +464,7 @@ static enum ow_status window_layout(struct ow_canvas *cv,
 		ly->cols = 3;
 		do
 			ow_plot_legend_grid_size(cv, ly->e, ly->n, 0.9 * f,
-						 ly->cols, &gw, &gh);
+			                         ly->cols, &gw, &gh);
 		while (gw > box->w - 2.0 * f && --ly->cols > 1);
 		inner.h -= gh + 0.6 * f;
 		ly->lx = box->x + 0.5 * (box->w - gw);
@@ -469,11 +473,12 @@ static enum ow_status window_layout(struct ow_canvas *cv,
 		right = lw + 0.8 * f;
 	}
 	maps_axes(s, g, o->units, &ly->x, &ly->y, ly->ytitle,
-		  sizeof ly->ytitle);
-	if (ow_plot_init(&ly->p, cv, &inner, &ly->x, &ly->y, f, right) !=
-	    OW_OK)
-		return ow_diag_set(d, OW_EARG, "window map: box %.0f x %.0f pt "
-				   "too small", box->w, box->h);
+	          sizeof ly->ytitle);
+	if (ow_plot_init(&ly->p, cv, &inner, &ly->x, &ly->y, f, right) != OW_OK)
+		return ow_diag_set(d, OW_EARG,
+		                   "window map: box %.0f x %.0f pt "
+		                   "too small",
+		                   box->w, box->h);
 	if (ly->cols == 1) {
 		ly->lx = ly->p.area.x + ly->p.area.w + 1.2 * f;
 		ly->ly = ly->p.area.y;
@@ -481,13 +486,11 @@ static enum ow_status window_layout(struct ow_canvas *cv,
 	return OW_OK;
 }
 
-enum ow_status ow_maps_window_frame(struct ow_canvas *cv,
-				    const struct ow_rect *box,
-				    const struct ow_study *s,
-				    const struct ow_grid *g,
-				    const struct ow_window *w,
-				    const struct ow_maps_options *o,
-				    struct ow_plot *p, struct ow_diag *d)
+enum ow_status
+ow_maps_window_frame(struct ow_canvas *cv, const struct ow_rect *box,
+                     const struct ow_study *s, const struct ow_grid *g,
+                     const struct ow_window *w, const struct ow_maps_options *o,
+                     struct ow_plot *p, struct ow_diag *d)
 {
 	struct ow_maps_options def;
 	struct wlayout *ly;
@@ -509,13 +512,11 @@ enum ow_status ow_maps_window_frame(struct ow_canvas *cv,
 	return st;
 }
 
-enum ow_status ow_maps_draw_window(struct ow_canvas *cv,
-				   const struct ow_rect *box,
-				   const struct ow_study *s,
-				   const struct ow_grid *g,
-				   const struct ow_window *w,
-				   const struct ow_maps_options *o,
-				   struct ow_diag *d)
+enum ow_status
+ow_maps_draw_window(struct ow_canvas *cv, const struct ow_rect *box,
+                    const struct ow_study *s, const struct ow_grid *g,
+                    const struct ow_window *w, const struct ow_maps_options *o,
+                    struct ow_diag *d)
 {
 	struct ow_maps_options def;
 	struct wlayout *ly;
@@ -542,7 +543,7 @@ enum ow_status ow_maps_draw_window(struct ow_canvas *cv,
 	if (st == OW_OK) {
 		ow_plot_axes(&ly->p, &ly->x, &ly->y);
 		ow_plot_legend_grid(cv, ly->lx, ly->ly, ly->e, ly->n, 0.9 * f,
-				    ly->cols);
+		                    ly->cols);
 		st = ow_canvas_status(cv, d);
 	}
 	free(ly);

@@ -27,7 +27,7 @@
 #define OW_FONT_DIR "/usr/share/fonts/truetype/dejavu"
 #endif
 #define OW_FONT_REGULAR_FILE OW_FONT_DIR "/DejaVuSans.ttf"
-#define OW_FONT_BOLD_FILE OW_FONT_DIR "/DejaVuSans-Bold.ttf"
+#define OW_FONT_BOLD_FILE    OW_FONT_DIR "/DejaVuSans-Bold.ttf"
 
 struct ow_canvas;
 
@@ -70,9 +70,9 @@ struct ow_hatch {
  * is missing ("font .../DejaVuSans.ttf is missing: install the Debian
  * package fonts-dejavu-core"). Free with ow_canvas_destroy. */
 enum ow_status ow_canvas_create_image(enum ow_canvas_format fmt,
-				      double width_pt, double height_pt,
-				      double scale, struct ow_canvas **out,
-				      struct ow_diag *d);
+                                      double width_pt, double height_pt,
+                                      double scale, struct ow_canvas **out,
+                                      struct ow_diag *d);
 
 /* Fonts of a libharu document: HPDF_Font handles (regular, bold), loaded
  * once per document. */
@@ -86,7 +86,7 @@ struct ow_canvas_fonts {
  * and makes "UTF-8" the current encoder). OW_EIO naming the file when a
  * font file is missing or libharu refuses it. */
 enum ow_status ow_canvas_pdf_fonts(void *hpdf_doc, struct ow_canvas_fonts *out,
-				   struct ow_diag *d);
+                                   struct ow_diag *d);
 
 /* Where a PDF canvas lies on its page: its top-left corner at (x_pt, y_pt)
  * measured from the page's top-left corner (y down), and scale page
@@ -105,10 +105,10 @@ struct ow_canvas_place {
  * Failed libharu calls (non-zero HPDF_STATUS) become OW_EIO in the
  * canvas status; the document's error handler stays the caller's. */
 enum ow_status ow_canvas_create_pdf(void *hpdf_doc, void *hpdf_page,
-				    const struct ow_canvas_fonts *fonts,
-				    const struct ow_canvas_place *place,
-				    double width_pt, double height_pt,
-				    struct ow_canvas **out, struct ow_diag *d);
+                                    const struct ow_canvas_fonts *fonts,
+                                    const struct ow_canvas_place *place,
+                                    double width_pt, double height_pt,
+                                    struct ow_canvas **out, struct ow_diag *d);
 
 /* Free the canvas (NULL-safe). An image not yet written is discarded; a
  * PDF canvas closes any graphics states still open on the page. */
@@ -116,12 +116,11 @@ void ow_canvas_destroy(struct ow_canvas *cv);
 
 /* Size in canvas points. */
 void ow_canvas_size(const struct ow_canvas *cv, double *width_pt,
-		    double *height_pt);
+                    double *height_pt);
 
 /* The first failure of any drawing call so far (OW_OK if none), its
  * message copied into d. */
-enum ow_status ow_canvas_status(const struct ow_canvas *cv,
-				struct ow_diag *d);
+enum ow_status ow_canvas_status(const struct ow_canvas *cv, struct ow_diag *d);
 
 /* Image canvases only: finish drawing and write the PNG or SVG to path
  * atomically (temporary file in the same folder, then rename). After this
@@ -129,13 +128,13 @@ enum ow_status ow_canvas_status(const struct ow_canvas *cv,
  * OW_EARG for a PDF canvas; a drawing failure recorded earlier is
  * returned instead of writing. */
 enum ow_status ow_canvas_write_file(struct ow_canvas *cv, const char *path,
-				    struct ow_diag *d);
+                                    struct ow_diag *d);
 
 /* Image canvases only: finish drawing and return the encoded PNG or SVG
  * bytes in *bytes (malloc'd, the caller frees), their count in *len.
  * Same inputs give byte-identical PNGs (no timestamps). */
 enum ow_status ow_canvas_encode(struct ow_canvas *cv, unsigned char **bytes,
-				size_t *len, struct ow_diag *d);
+                                size_t *len, struct ow_diag *d);
 
 /* --- graphics state (saved and restored together) -------------------- */
 
@@ -159,12 +158,12 @@ void ow_canvas_set_font(struct ow_canvas *cv, double size_pt, int bold);
 void ow_canvas_move_to(struct ow_canvas *cv, double x, double y);
 void ow_canvas_line_to(struct ow_canvas *cv, double x, double y);
 /* Cubic Bezier from the current point through controls 1, 2 to 3. */
-void ow_canvas_curve_to(struct ow_canvas *cv, double x1, double y1,
-			double x2, double y2, double x3, double y3);
+void ow_canvas_curve_to(struct ow_canvas *cv, double x1, double y1, double x2,
+                        double y2, double x3, double y3);
 void ow_canvas_close_path(struct ow_canvas *cv);
 /* A closed rectangle sub-path. */
 void ow_canvas_rect(struct ow_canvas *cv, double x, double y, double w,
-		    double h);
+                    double h);
 /* A closed circle sub-path (four Bezier arcs). */
 void ow_canvas_circle(struct ow_canvas *cv, double cx, double cy, double r);
 /* Forget the current path without drawing it. */
@@ -186,15 +185,14 @@ void ow_canvas_hatch(struct ow_canvas *cv, const struct ow_hatch *h);
  * with a rectangle. Undone by ow_canvas_restore. */
 void ow_canvas_clip(struct ow_canvas *cv);
 void ow_canvas_clip_rect(struct ow_canvas *cv, double x, double y, double w,
-			 double h);
+                         double h);
 
 /* --- text ------------------------------------------------------------ */
 
 /* Draw utf8 anchored at (x, y) by ha, va, rotated angle_deg
  * counter-clockwise as seen (90: reading upwards) about the anchor. */
-void ow_canvas_text(struct ow_canvas *cv, double x, double y,
-		    const char *utf8, enum ow_halign ha, enum ow_valign va,
-		    double angle_deg);
+void ow_canvas_text(struct ow_canvas *cv, double x, double y, const char *utf8,
+                    enum ow_halign ha, enum ow_valign va, double angle_deg);
 
 /* Advance width of utf8 in points at the current font and size. */
 double ow_canvas_text_width(struct ow_canvas *cv, const char *utf8);

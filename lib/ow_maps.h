@@ -21,17 +21,17 @@
 #include "ow_window.h"
 
 /* The image files: 600 x 433.3 pt, PNG at 1.5 px/pt (900 x 650 px). */
-#define OW_MAPS_WIDTH_PT 600.0
+#define OW_MAPS_WIDTH_PT  600.0
 #define OW_MAPS_HEIGHT_PT 433.3333333333333
 #define OW_MAPS_PNG_SCALE 1.5
 
 struct ow_maps_options {
 	enum ow_unit_system units;
-	int has_current;         /* 1: mark the line's current point */
-	double current_rpm;      /* rev/min */
-	double current_set_K;    /* reference zone's absolute set-point, K */
-	int png, svg;            /* formats to write (default both) */
-	double font_pt;          /* base text size; 0: 9 pt */
+	int has_current;      /* 1: mark the line's current point */
+	double current_rpm;   /* rev/min */
+	double current_set_K; /* reference zone's absolute set-point, K */
+	int png, svg;         /* formats to write (default both) */
+	double font_pt;       /* base text size; 0: 9 pt */
 	/* profile rows of the window's centre (hopper to tip), borrowed;
 	 * NULL: ow_maps_write_all solves the centre point itself */
 	const struct ow_profile_row *profile;
@@ -61,64 +61,54 @@ const char *ow_maps_figure_title(enum ow_map_figure f);
 char *ow_maps_axis_label(const struct ow_study *s, char *buf, size_t n);
 
 /* Draw the window map into box of cv. */
-enum ow_status ow_maps_draw_window(struct ow_canvas *cv,
-				   const struct ow_rect *box,
-				   const struct ow_study *s,
-				   const struct ow_grid *g,
-				   const struct ow_window *w,
-				   const struct ow_maps_options *o,
-				   struct ow_diag *d);
+enum ow_status
+ow_maps_draw_window(struct ow_canvas *cv, const struct ow_rect *box,
+                    const struct ow_study *s, const struct ow_grid *g,
+                    const struct ow_window *w, const struct ow_maps_options *o,
+                    struct ow_diag *d);
 
 /* The plot frame (data area, ranges) the window map uses in box, without
  * drawing: for placing annotations over it, and for tests. */
-enum ow_status ow_maps_window_frame(struct ow_canvas *cv,
-				    const struct ow_rect *box,
-				    const struct ow_study *s,
-				    const struct ow_grid *g,
-				    const struct ow_window *w,
-				    const struct ow_maps_options *o,
-				    struct ow_plot *p, struct ow_diag *d);
+enum ow_status
+ow_maps_window_frame(struct ow_canvas *cv, const struct ow_rect *box,
+                     const struct ow_study *s, const struct ow_grid *g,
+                     const struct ow_window *w, const struct ow_maps_options *o,
+                     struct ow_plot *p, struct ow_diag *d);
 
 /* Draw the map of figure f into box of cv (filled contours of the solved
  * coarse grid points, colour bar, labelled iso-lines, the window's
  * rectangle and safe-region boundaries overlaid thinly). */
-enum ow_status ow_maps_draw_figure(struct ow_canvas *cv,
-				   const struct ow_rect *box,
-				   enum ow_map_figure f,
-				   const struct ow_study *s,
-				   const struct ow_grid *g,
-				   const struct ow_window *w,
-				   const struct ow_maps_options *o,
-				   struct ow_diag *d);
+enum ow_status
+ow_maps_draw_figure(struct ow_canvas *cv, const struct ow_rect *box,
+                    enum ow_map_figure f, const struct ow_study *s,
+                    const struct ow_grid *g, const struct ow_window *w,
+                    const struct ow_maps_options *o, struct ow_diag *d);
 
 /* Draw the axial profiles of rows (n rows, hopper to tip, as from
  * ow_solver_profile) into box: stacked panels sharing x = axial position
  * in D (pressure; bulk and peak temperature; solid bed ratio and unmelted
  * fraction) over a depth silhouette of the screw's sections. subtitle
  * (NULL: none) says which point ("centre: 62 rpm, 205 °C"). */
-enum ow_status ow_maps_draw_profile(struct ow_canvas *cv,
-				    const struct ow_rect *box,
-				    const struct ow_study *s,
-				    const struct ow_profile_row *rows, int n,
-				    const char *subtitle,
-				    const struct ow_maps_options *o,
-				    struct ow_diag *d);
+enum ow_status ow_maps_draw_profile(
+    struct ow_canvas *cv, const struct ow_rect *box, const struct ow_study *s,
+    const struct ow_profile_row *rows, int n, const char *subtitle,
+    const struct ow_maps_options *o, struct ow_diag *d);
 
 /* Solve study s at the window's centre and return a copy of the profile
  * rows in *rows (malloc'd, the caller frees) and their count in *n, with
  * the point in *pt (may be NULL). OW_EINPUT when the window is empty. */
 enum ow_status ow_maps_centre_profile(const struct ow_study *s,
-				      const struct ow_window *w,
-				      struct ow_profile_row **rows, int *n,
-				      struct ow_point *pt, struct ow_diag *d);
+                                      const struct ow_window *w,
+                                      struct ow_profile_row **rows, int *n,
+                                      struct ow_point *pt, struct ow_diag *d);
 
 /* Write window.png/.svg, map-*.png/.svg and profile.png/.svg (profiles
  * only when the window is not empty) into the existing folder dir, each
  * file atomically. OW_EIO naming the file on a write failure. */
 enum ow_status ow_maps_write_all(const struct ow_study *s,
-				 const struct ow_grid *g,
-				 const struct ow_window *w,
-				 const struct ow_maps_options *o,
-				 const char *dir, struct ow_diag *d);
+                                 const struct ow_grid *g,
+                                 const struct ow_window *w,
+                                 const struct ow_maps_options *o,
+                                 const char *dir, struct ow_diag *d);
 
 #endif

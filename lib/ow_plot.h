@@ -14,7 +14,7 @@
 #include "ow_canvas.h"
 #include "ow_status.h"
 
-#define OW_PLOT_MAX_TICKS 24
+#define OW_PLOT_MAX_TICKS  24
 #define OW_PLOT_MAX_LEVELS 32
 
 /* A rectangle in canvas points (top-left origin, y down). */
@@ -43,7 +43,7 @@ struct ow_ticks {
  * 0, 20, ..., 120). Heckbert, "Nice numbers for graph labels", Graphics
  * Gems (1990). OW_EARG for a non-finite or empty range. */
 enum ow_status ow_plot_nice_ticks(double lo, double hi, int max_ticks,
-				  struct ow_ticks *t);
+                                  struct ow_ticks *t);
 
 /* Format v with decimals digits, "-0" printed as "0", U+2212 minus sign.
  * Returns buf. */
@@ -52,7 +52,8 @@ char *ow_plot_format(char *buf, size_t n, double v, int decimals);
 /* --- colour maps ----------------------------------------------------- */
 
 enum ow_cmap {
-	OW_CMAP_VIRIDIS, /* van der Walt & Smith (2015), matplotlib _cm_listed */
+	OW_CMAP_VIRIDIS, /* van der Walt & Smith (2015), matplotlib _cm_listed
+	                  */
 	OW_CMAP_CIVIDIS  /* Nunez, Anderton & Renslow, PLoS ONE 13 (2018) */
 };
 
@@ -68,7 +69,7 @@ struct ow_plot_axis {
 	const char *title; /* with its unit: "screw speed (rpm)"; NULL: none */
 	int nice;          /* 1: widen min..max to whole tick steps */
 	int max_ticks;     /* 0: about one tick per 5 font sizes across,
-			      3.2 font sizes up */
+	                      3.2 font sizes up */
 };
 
 struct ow_plot {
@@ -79,7 +80,7 @@ struct ow_plot {
 	double font_pt;         /* base text size */
 	struct ow_rgba ink;     /* axes and text colour */
 	int hide_x_labels;      /* 1: ticks without numbers on x (a panel
-				   above another sharing its x axis) */
+	                           above another sharing its x axis) */
 };
 
 /* Lay out a plot in box (the whole chart, labels included): margins for
@@ -88,10 +89,10 @@ struct ow_plot {
  * (colour bar, legend). Draws nothing. OW_EARG for an empty range or a
  * box too small for the margins. */
 enum ow_status ow_plot_init(struct ow_plot *p, struct ow_canvas *cv,
-			    const struct ow_rect *box,
-			    const struct ow_plot_axis *x,
-			    const struct ow_plot_axis *y, double font_pt,
-			    double right_pt);
+                            const struct ow_rect *box,
+                            const struct ow_plot_axis *x,
+                            const struct ow_plot_axis *y, double font_pt,
+                            double right_pt);
 
 /* Data -> canvas coordinates. */
 double ow_plot_px(const struct ow_plot *p, double x);
@@ -102,7 +103,7 @@ void ow_plot_grid(const struct ow_plot *p);
 
 /* Frame, ticks, tick labels and axis titles (draw after the data). */
 void ow_plot_axes(const struct ow_plot *p, const struct ow_plot_axis *x,
-		  const struct ow_plot_axis *y);
+                  const struct ow_plot_axis *y);
 
 /* Clip later drawing to the data area (pair with ow_canvas_restore). */
 void ow_plot_clip(const struct ow_plot *p);
@@ -138,14 +139,14 @@ struct ow_isolines {
  * (so a linear field is contoured exactly), segments joined into
  * polylines. *out owned by the caller (ow_isolines_destroy). */
 enum ow_status ow_contour_lines(const struct ow_field *f, double level,
-				struct ow_isolines **out, struct ow_diag *d);
+                                struct ow_isolines **out, struct ow_diag *d);
 void ow_isolines_destroy(struct ow_isolines *l);
 
 /* Levels for a filled contour of f: nice ticks over its finite range
  * (at most max_levels + 1 boundaries). OW_EARG when f has no finite
  * value; a constant field gives one level. */
 enum ow_status ow_contour_levels(const struct ow_field *f, int max_levels,
-				 struct ow_ticks *levels);
+                                 struct ow_ticks *levels);
 
 /* Colour of band k of n bands (between levels[k] and levels[k+1]). */
 struct ow_rgba ow_contour_band_colour(enum ow_cmap map, int k, int n);
@@ -156,27 +157,27 @@ struct ow_rgba ow_contour_band_colour(enum ow_cmap map, int k, int n);
  * bands show no seams. The area below levels->v[0] in band 0's colour.
  * Clipped to the data area. */
 enum ow_status ow_plot_contour_fill(const struct ow_plot *p,
-				    const struct ow_field *f,
-				    const struct ow_ticks *levels,
-				    enum ow_cmap map, struct ow_diag *d);
+                                    const struct ow_field *f,
+                                    const struct ow_ticks *levels,
+                                    enum ow_cmap map, struct ow_diag *d);
 
 /* The region {z >= level} of f (the one ow_plot_contour_fill paints for
  * that level) filled with tint (alpha 0: none), then hatched with h (NULL:
  * none); clipped to the data area. */
 enum ow_status ow_plot_field_region(const struct ow_plot *p,
-				    const struct ow_field *f, double level,
-				    struct ow_rgba tint,
-				    const struct ow_hatch *h,
-				    struct ow_diag *d);
+                                    const struct ow_field *f, double level,
+                                    struct ow_rgba tint,
+                                    const struct ow_hatch *h,
+                                    struct ow_diag *d);
 
 /* Iso-lines at the levels (every `every`-th, from the first) in colour
  * width, each labelled once along its longest piece with the level
  * (decimals digits), the label on a small clear box. */
 enum ow_status ow_plot_isolines(const struct ow_plot *p,
-				const struct ow_field *f,
-				const struct ow_ticks *levels, int every,
-				struct ow_rgba colour, double width_pt,
-				struct ow_diag *d);
+                                const struct ow_field *f,
+                                const struct ow_ticks *levels, int every,
+                                struct ow_rgba colour, double width_pt,
+                                struct ow_diag *d);
 
 /* The direction angle_deg of a line (degrees, counter-clockwise) turned
  * by 180 where needed so text along it reads left to right, or upwards
@@ -185,15 +186,15 @@ double ow_plot_upright(double angle_deg);
 
 /* text (font_pt, colour ink) centred at canvas point (X, Y) rotated ang
  * degrees counter-clockwise, on a small white box: a label on a line. */
-void ow_plot_label_on_line(struct ow_canvas *cv, double X, double Y,
-			   double ang, const char *text, double font_pt,
-			   struct ow_rgba ink);
+void ow_plot_label_on_line(struct ow_canvas *cv, double X, double Y, double ang,
+                           const char *text, double font_pt,
+                           struct ow_rgba ink);
 
 /* A vertical colour bar in box (bands of the levels, tick labels on the
  * right, title with unit rotated along it). */
 void ow_plot_colour_bar(struct ow_canvas *cv, const struct ow_rect *box,
-			const struct ow_ticks *levels, enum ow_cmap map,
-			const char *title, double font_pt);
+                        const struct ow_ticks *levels, enum ow_cmap map,
+                        const char *title, double font_pt);
 
 /* --- lines, regions, legends ----------------------------------------- */
 
@@ -205,8 +206,14 @@ enum ow_dash_style {
 	OW_DASH_LONG
 };
 
-enum ow_marker { OW_MARK_NONE, OW_MARK_CIRCLE, OW_MARK_SQUARE, OW_MARK_TRIANGLE,
-		 OW_MARK_DIAMOND, OW_MARK_CROSS };
+enum ow_marker {
+	OW_MARK_NONE,
+	OW_MARK_CIRCLE,
+	OW_MARK_SQUARE,
+	OW_MARK_TRIANGLE,
+	OW_MARK_DIAMOND,
+	OW_MARK_CROSS
+};
 
 struct ow_line_style {
 	struct ow_rgba colour;
@@ -224,20 +231,20 @@ struct ow_line_style ow_plot_series_style(int k);
 
 /* A polyline through n data points (NAN points break it), clipped to the
  * data area. */
-void ow_plot_polyline(const struct ow_plot *p, const struct ow_pt2 *pts,
-		      int n, const struct ow_line_style *s);
+void ow_plot_polyline(const struct ow_plot *p, const struct ow_pt2 *pts, int n,
+                      const struct ow_line_style *s);
 
 /* A marker of style m, size_pt across, at data point (x, y). */
 void ow_plot_marker(const struct ow_plot *p, double x, double y,
-		    enum ow_marker m, double size_pt, struct ow_rgba fill,
-		    struct ow_rgba edge);
+                    enum ow_marker m, double size_pt, struct ow_rgba fill,
+                    struct ow_rgba edge);
 
 /* Closed polygon(s) in data coordinates: n_rings rings, ring k has
  * counts[k] points; filled under the non-zero rule with tint (alpha 0:
  * none) and then hatched with h (NULL: none); clipped to the data area. */
 void ow_plot_region(const struct ow_plot *p, const struct ow_pt2 *pts,
-		    const int *counts, int n_rings, struct ow_rgba tint,
-		    const struct ow_hatch *h);
+                    const int *counts, int n_rings, struct ow_rgba tint,
+                    const struct ow_hatch *h);
 
 /* One entry of a legend: a line sample (style), or a filled swatch with an
  * optional hatch (swatch = 1). */
@@ -252,20 +259,20 @@ struct ow_legend_entry {
 
 /* Size a legend of n entries would take at font_pt (width, height). */
 void ow_plot_legend_size(struct ow_canvas *cv, const struct ow_legend_entry *e,
-			 int n, double font_pt, double *w, double *h);
+                         int n, double font_pt, double *w, double *h);
 
 /* Draw the legend with its top-left corner at (x, y), on a white box. */
 void ow_plot_legend(struct ow_canvas *cv, double x, double y,
-		    const struct ow_legend_entry *e, int n, double font_pt);
+                    const struct ow_legend_entry *e, int n, double font_pt);
 
 /* The same legend in cols columns (filled column by column), and its
  * size: for a legend under a plot rather than beside it. */
 void ow_plot_legend_grid_size(struct ow_canvas *cv,
-			      const struct ow_legend_entry *e, int n,
-			      double font_pt, int cols, double *w, double *h);
+                              const struct ow_legend_entry *e, int n,
+                              double font_pt, int cols, double *w, double *h);
 void ow_plot_legend_grid(struct ow_canvas *cv, double x, double y,
-			 const struct ow_legend_entry *e, int n, double font_pt,
-			 int cols);
+                         const struct ow_legend_entry *e, int n, double font_pt,
+                         int cols);
 
 /* A series of a line chart. */
 struct ow_series {
@@ -278,12 +285,12 @@ struct ow_series {
 /* Grid, series, axes and (when legend is set) a legend in the upper right
  * of the data area: a complete line chart on an initialised plot. */
 void ow_plot_lines(const struct ow_plot *p, const struct ow_plot_axis *x,
-		   const struct ow_plot_axis *y, const struct ow_series *s,
-		   int n, int legend);
+                   const struct ow_plot_axis *y, const struct ow_series *s,
+                   int n, int legend);
 
 /* Range of the finite values of n series (x or y), for axis set-up;
  * returns 0 when there is none. */
 int ow_plot_series_range(const struct ow_series *s, int n, int use_y,
-			 double *lo, double *hi);
+                         double *lo, double *hi);
 
 #endif

@@ -7,7 +7,7 @@
 #include <stdio.h>
 #include <string.h>
 
-#define OW_PI 3.14159265358979323846
+#define OW_PI    3.14159265358979323846
 #define TICK_LEN 4.0 /* pt */
 
 /* --- ticks and numbers ------------------------------------------------ */
@@ -21,7 +21,7 @@ static int count_ticks(double lo, double hi, double step)
  * 1, 2, 5 x 10^k; the smallest that gives at most max_ticks ticks over
  * the range widened to whole steps. */
 enum ow_status ow_plot_nice_ticks(double lo, double hi, int max_ticks,
-				  struct ow_ticks *t)
+                                  struct ow_ticks *t)
 {
 	static const double mant[3] = {1.0, 2.0, 5.0};
 	double span = hi - lo, step = 0.0, first;
@@ -56,7 +56,7 @@ enum ow_status ow_plot_nice_ticks(double lo, double hi, int max_ticks,
 	}
 	t->decimals = step >= 1.0 ? 0 : (int)ceil(-log10(step) - 1e-9);
 	if (step < 1.0 && fabs(step * pow(10.0, t->decimals) -
-			       round(step * pow(10.0, t->decimals))) > 1e-6)
+	                       round(step * pow(10.0, t->decimals))) > 1e-6)
 		t->decimals++;
 	return OW_OK;
 }
@@ -103,26 +103,26 @@ char *ow_plot_format(char *buf, size_t n, double v, int decimals)
  *   consideration for color vision deficiency...", PLoS ONE 13(7)
  *   e0199239 (2018), as listed in matplotlib's _cm_listed.py. */
 static const double viridis[17][3] = {
-	{0.267004, 0.004874, 0.329415}, {0.282327, 0.094955, 0.417331},
-	{0.278826, 0.175490, 0.483397}, {0.258965, 0.251537, 0.524736},
-	{0.229739, 0.322361, 0.545706}, {0.199430, 0.387607, 0.554642},
-	{0.172719, 0.448791, 0.557885}, {0.149039, 0.508051, 0.557250},
-	{0.127568, 0.566949, 0.550556}, {0.120638, 0.625828, 0.533488},
-	{0.157851, 0.683765, 0.501686}, {0.246070, 0.738910, 0.452024},
-	{0.369214, 0.788888, 0.382914}, {0.515992, 0.831158, 0.294279},
-	{0.678489, 0.863742, 0.189503}, {0.845561, 0.887322, 0.099702},
-	{0.993248, 0.906157, 0.143936}};
+    {0.267004, 0.004874, 0.329415}, {0.282327, 0.094955, 0.417331},
+    {0.278826, 0.175490, 0.483397}, {0.258965, 0.251537, 0.524736},
+    {0.229739, 0.322361, 0.545706}, {0.199430, 0.387607, 0.554642},
+    {0.172719, 0.448791, 0.557885}, {0.149039, 0.508051, 0.557250},
+    {0.127568, 0.566949, 0.550556}, {0.120638, 0.625828, 0.533488},
+    {0.157851, 0.683765, 0.501686}, {0.246070, 0.738910, 0.452024},
+    {0.369214, 0.788888, 0.382914}, {0.515992, 0.831158, 0.294279},
+    {0.678489, 0.863742, 0.189503}, {0.845561, 0.887322, 0.099702},
+    {0.993248, 0.906157, 0.143936}};
 
 static const double cividis[17][3] = {
-	{0.000000, 0.135112, 0.304751}, {0.000000, 0.178802, 0.414764},
-	{0.103401, 0.220406, 0.435790}, {0.195057, 0.264372, 0.425924},
-	{0.263738, 0.307831, 0.422789}, {0.324250, 0.351289, 0.426250},
-	{0.380830, 0.395164, 0.435653}, {0.435168, 0.439763, 0.451134},
-	{0.488697, 0.485318, 0.471008}, {0.547840, 0.531895, 0.471704},
-	{0.609105, 0.579816, 0.463638}, {0.671991, 0.629316, 0.448018},
-	{0.736488, 0.680629, 0.424028}, {0.802667, 0.733978, 0.390153},
-	{0.870717, 0.789572, 0.343333}, {0.941147, 0.847530, 0.275815},
-	{0.995737, 0.909344, 0.217772}};
+    {0.000000, 0.135112, 0.304751}, {0.000000, 0.178802, 0.414764},
+    {0.103401, 0.220406, 0.435790}, {0.195057, 0.264372, 0.425924},
+    {0.263738, 0.307831, 0.422789}, {0.324250, 0.351289, 0.426250},
+    {0.380830, 0.395164, 0.435653}, {0.435168, 0.439763, 0.451134},
+    {0.488697, 0.485318, 0.471008}, {0.547840, 0.531895, 0.471704},
+    {0.609105, 0.579816, 0.463638}, {0.671991, 0.629316, 0.448018},
+    {0.736488, 0.680629, 0.424028}, {0.802667, 0.733978, 0.390153},
+    {0.870717, 0.789572, 0.343333}, {0.941147, 0.847530, 0.275815},
+    {0.995737, 0.909344, 0.217772}};
 
 /* Table entry index of control point k (the last one is 255, not 256). */
 static double entry(int k)
@@ -158,8 +158,8 @@ static int auto_ticks(double len_pt, double per_tick_pt)
 }
 
 static enum ow_status axis_ticks(const struct ow_plot_axis *a, double len,
-				 double per, struct ow_ticks *t, double *lo,
-				 double *hi)
+                                 double per, struct ow_ticks *t, double *lo,
+                                 double *hi)
 {
 	int max = a->max_ticks > 0 ? a->max_ticks : auto_ticks(len, per);
 
@@ -180,7 +180,7 @@ static enum ow_status axis_ticks(const struct ow_plot_axis *a, double len,
 }
 
 static double widest_label(struct ow_canvas *cv, const struct ow_ticks *t,
-			   double font_pt)
+                           double font_pt)
 {
 	char buf[64];
 	double w = 0.0;
@@ -189,16 +189,16 @@ static double widest_label(struct ow_canvas *cv, const struct ow_ticks *t,
 	ow_canvas_set_font(cv, font_pt, 0);
 	for (i = 0; i < t->n; i++)
 		w = fmax(w, ow_canvas_text_width(
-				    cv, ow_plot_format(buf, sizeof buf, t->v[i],
-						       t->decimals)));
+		                cv, ow_plot_format(buf, sizeof buf, t->v[i],
+		                                   t->decimals)));
 	return w;
 }
 
 enum ow_status ow_plot_init(struct ow_plot *p, struct ow_canvas *cv,
-			    const struct ow_rect *box,
-			    const struct ow_plot_axis *x,
-			    const struct ow_plot_axis *y, double font_pt,
-			    double right_pt)
+                            const struct ow_rect *box,
+                            const struct ow_plot_axis *x,
+                            const struct ow_plot_axis *y, double font_pt,
+                            double right_pt)
 {
 	double top, bottom, left, right, h, w;
 
@@ -236,14 +236,14 @@ double ow_plot_px(const struct ow_plot *p, double x)
 
 double ow_plot_py(const struct ow_plot *p, double y)
 {
-	return p->area.y + p->area.h - (y - p->y0) / (p->y1 - p->y0) * p->area.h;
+	return p->area.y + p->area.h -
+	       (y - p->y0) / (p->y1 - p->y0) * p->area.h;
 }
 
 void ow_plot_clip(const struct ow_plot *p)
 {
 	ow_canvas_save(p->cv);
-	ow_canvas_clip_rect(p->cv, p->area.x, p->area.y, p->area.w,
-			    p->area.h);
+	ow_canvas_clip_rect(p->cv, p->area.x, p->area.y, p->area.w, p->area.h);
 }
 
 void ow_plot_grid(const struct ow_plot *p)
@@ -286,22 +286,24 @@ static void tick_labels(const struct ow_plot *p, int xaxis)
 			ow_canvas_move_to(cv, X, by);
 			ow_canvas_line_to(cv, X, by + TICK_LEN);
 			if (!p->hide_x_labels)
-				ow_canvas_text(cv, X, by + TICK_LEN + 0.35 * p->font_pt,
-				       buf, OW_ALIGN_CENTRE, OW_VALIGN_TOP, 0);
+				ow_canvas_text(
+				    cv, X, by + TICK_LEN + 0.35 * p->font_pt,
+				    buf, OW_ALIGN_CENTRE, OW_VALIGN_TOP, 0);
 		} else {
 			double Y = ow_plot_py(p, t->v[i]);
 
 			ow_canvas_move_to(cv, bx, Y);
 			ow_canvas_line_to(cv, bx - TICK_LEN, Y);
 			ow_canvas_text(cv, bx - TICK_LEN - 0.3 * p->font_pt, Y,
-				       buf, OW_ALIGN_RIGHT, OW_VALIGN_MIDDLE, 0);
+			               buf, OW_ALIGN_RIGHT, OW_VALIGN_MIDDLE,
+			               0);
 		}
 	}
 	ow_canvas_stroke(cv);
 }
 
 void ow_plot_axes(const struct ow_plot *p, const struct ow_plot_axis *x,
-		  const struct ow_plot_axis *y)
+                  const struct ow_plot_axis *y)
 {
 	struct ow_canvas *cv = p->cv;
 	double f = p->font_pt;
@@ -316,14 +318,14 @@ void ow_plot_axes(const struct ow_plot *p, const struct ow_plot_axis *x,
 	tick_labels(p, 0);
 	if (x && x->title)
 		ow_canvas_text(cv, p->area.x + 0.5 * p->area.w,
-			       p->area.y + p->area.h + TICK_LEN + 1.7 * f,
-			       x->title, OW_ALIGN_CENTRE, OW_VALIGN_TOP, 0);
+		               p->area.y + p->area.h + TICK_LEN + 1.7 * f,
+		               x->title, OW_ALIGN_CENTRE, OW_VALIGN_TOP, 0);
 	if (y && y->title) {
 		double lw = widest_label(cv, &p->yt, f);
 
 		ow_canvas_text(cv, p->area.x - TICK_LEN - 0.6 * f - lw,
-			       p->area.y + 0.5 * p->area.h, y->title,
-			       OW_ALIGN_CENTRE, OW_VALIGN_BOTTOM, 90);
+		               p->area.y + 0.5 * p->area.h, y->title,
+		               OW_ALIGN_CENTRE, OW_VALIGN_BOTTOM, 90);
 	}
 	ow_canvas_restore(cv);
 }
@@ -336,8 +338,8 @@ void ow_plot_title(const struct ow_plot *p, const char *utf8, int bold)
 	ow_canvas_set_colour(p->cv, p->ink);
 	ow_canvas_set_font(p->cv, p->font_pt * 1.1, bold);
 	ow_canvas_text(p->cv, p->area.x + 0.5 * p->area.w,
-		       p->area.y - 0.6 * p->font_pt, utf8, OW_ALIGN_CENTRE,
-		       OW_VALIGN_BASELINE, 0);
+	               p->area.y - 0.6 * p->font_pt, utf8, OW_ALIGN_CENTRE,
+	               OW_VALIGN_BASELINE, 0);
 	ow_canvas_restore(p->cv);
 }
 
@@ -346,18 +348,27 @@ void ow_plot_title(const struct ow_plot *p, const char *utf8, int bold)
 void ow_plot_set_dash(struct ow_canvas *cv, enum ow_dash_style d, double w)
 {
 	static const double dashed[] = {5.0, 3.0}, dotted[] = {1.2, 2.0},
-			    dashdot[] = {6.0, 2.5, 1.5, 2.5},
-			    longd[] = {10.0, 4.0};
+	                    dashdot[] = {6.0, 2.5, 1.5, 2.5},
+	                    longd[] = {10.0, 4.0};
 	const double *pat = NULL;
 	double s[4];
 	int n = 0, i;
 
 	switch (d) {
-	case OW_DASH_SOLID: break;
-	case OW_DASH_DASHED: pat = dashed, n = 2; break;
-	case OW_DASH_DOTTED: pat = dotted, n = 2; break;
-	case OW_DASH_DASH_DOT: pat = dashdot, n = 4; break;
-	case OW_DASH_LONG: pat = longd, n = 2; break;
+	case OW_DASH_SOLID:
+		break;
+	case OW_DASH_DASHED:
+		pat = dashed, n = 2;
+		break;
+	case OW_DASH_DOTTED:
+		pat = dotted, n = 2;
+		break;
+	case OW_DASH_DASH_DOT:
+		pat = dashdot, n = 4;
+		break;
+	case OW_DASH_LONG:
+		pat = longd, n = 2;
+		break;
 	}
 	for (i = 0; i < n; i++)
 		s[i] = pat[i] * fmax(1.0, w); /* heavier lines, longer dashes */
@@ -369,16 +380,15 @@ struct ow_line_style ow_plot_series_style(int k)
 	/* Okabe & Ito, "Color Universal Design" (2008): blue, vermillion,
 	 * bluish green, reddish purple, orange, sky blue, black */
 	static const double pal[7][3] = {
-		{0.000, 0.447, 0.698}, {0.835, 0.369, 0.000},
-		{0.000, 0.620, 0.451}, {0.800, 0.475, 0.655},
-		{0.902, 0.624, 0.000}, {0.337, 0.706, 0.914},
-		{0.000, 0.000, 0.000}};
+	    {0.000, 0.447, 0.698}, {0.835, 0.369, 0.000}, {0.000, 0.620, 0.451},
+	    {0.800, 0.475, 0.655}, {0.902, 0.624, 0.000}, {0.337, 0.706, 0.914},
+	    {0.000, 0.000, 0.000}};
 	static const enum ow_dash_style dash[5] = {
-		OW_DASH_SOLID, OW_DASH_DASHED, OW_DASH_DOTTED,
-		OW_DASH_DASH_DOT, OW_DASH_LONG};
+	    OW_DASH_SOLID, OW_DASH_DASHED, OW_DASH_DOTTED, OW_DASH_DASH_DOT,
+	    OW_DASH_LONG};
 	static const enum ow_marker mark[6] = {
-		OW_MARK_NONE,     OW_MARK_CIRCLE,  OW_MARK_SQUARE,
-		OW_MARK_TRIANGLE, OW_MARK_DIAMOND, OW_MARK_CROSS};
+	    OW_MARK_NONE,     OW_MARK_CIRCLE,  OW_MARK_SQUARE,
+	    OW_MARK_TRIANGLE, OW_MARK_DIAMOND, OW_MARK_CROSS};
 	struct ow_line_style s;
 
 	k = k < 0 ? 0 : k;
@@ -390,15 +400,19 @@ struct ow_line_style ow_plot_series_style(int k)
 }
 
 static void marker_path(struct ow_canvas *cv, double X, double Y,
-			enum ow_marker m, double size)
+                        enum ow_marker m, double size)
 {
 	double r = 0.5 * size;
 
 	switch (m) {
-	case OW_MARK_NONE: break;
-	case OW_MARK_CIRCLE: ow_canvas_circle(cv, X, Y, r); break;
+	case OW_MARK_NONE:
+		break;
+	case OW_MARK_CIRCLE:
+		ow_canvas_circle(cv, X, Y, r);
+		break;
 	case OW_MARK_SQUARE:
-		ow_canvas_rect(cv, X - 0.85 * r, Y - 0.85 * r, 1.7 * r, 1.7 * r);
+		ow_canvas_rect(cv, X - 0.85 * r, Y - 0.85 * r, 1.7 * r,
+		               1.7 * r);
 		break;
 	case OW_MARK_TRIANGLE:
 		ow_canvas_move_to(cv, X, Y - 1.1 * r);
@@ -424,8 +438,8 @@ static void marker_path(struct ow_canvas *cv, double X, double Y,
 
 /* A marker at canvas point (X, Y): filled and edged (a cross: edged). */
 static void marker_at(struct ow_canvas *cv, double X, double Y,
-		      enum ow_marker m, double size, struct ow_rgba fill,
-		      struct ow_rgba edge)
+                      enum ow_marker m, double size, struct ow_rgba fill,
+                      struct ow_rgba edge)
 {
 	if (m == OW_MARK_NONE)
 		return;
@@ -443,19 +457,19 @@ static void marker_at(struct ow_canvas *cv, double X, double Y,
 }
 
 void ow_plot_marker(const struct ow_plot *p, double x, double y,
-		    enum ow_marker m, double size_pt, struct ow_rgba fill,
-		    struct ow_rgba edge)
+                    enum ow_marker m, double size_pt, struct ow_rgba fill,
+                    struct ow_rgba edge)
 {
 	if (!isfinite(x) || !isfinite(y))
 		return;
 	marker_at(p->cv, ow_plot_px(p, x), ow_plot_py(p, y), m, size_pt, fill,
-		  edge);
+	          edge);
 }
 
 /* Markers along the drawn line every ~spacing points of its length, so
  * series stay apart in greyscale however dense their data. */
 static void line_markers(const struct ow_plot *p, const struct ow_pt2 *pts,
-			 int n, const struct ow_line_style *s, double spacing)
+                         int n, const struct ow_line_style *s, double spacing)
 {
 	double run = 0.5 * spacing, pX = 0, pY = 0;
 	int i, have = 0;
@@ -474,16 +488,17 @@ static void line_markers(const struct ow_plot *p, const struct ow_pt2 *pts,
 		if (run >= spacing && X >= p->area.x - 0.5 &&
 		    X <= p->area.x + p->area.w + 0.5 && Y >= p->area.y - 0.5 &&
 		    Y <= p->area.y + p->area.h + 0.5) {
-			marker_at(p->cv, X, Y, s->marker, 2.2 + 2.8 * s->width_pt,
-				  ow_rgb(1, 1, 1), s->colour);
+			marker_at(p->cv, X, Y, s->marker,
+			          2.2 + 2.8 * s->width_pt, ow_rgb(1, 1, 1),
+			          s->colour);
 			run = 0.0;
 		}
 		pX = X, pY = Y, have = 1;
 	}
 }
 
-void ow_plot_polyline(const struct ow_plot *p, const struct ow_pt2 *pts,
-		      int n, const struct ow_line_style *s)
+void ow_plot_polyline(const struct ow_plot *p, const struct ow_pt2 *pts, int n,
+                      const struct ow_line_style *s)
 {
 	struct ow_canvas *cv = p->cv;
 	int i, pen = 0;
@@ -501,10 +516,10 @@ void ow_plot_polyline(const struct ow_plot *p, const struct ow_pt2 *pts,
 		}
 		if (pen)
 			ow_canvas_line_to(cv, ow_plot_px(p, pts[i].x),
-					  ow_plot_py(p, pts[i].y));
+			                  ow_plot_py(p, pts[i].y));
 		else
 			ow_canvas_move_to(cv, ow_plot_px(p, pts[i].x),
-					  ow_plot_py(p, pts[i].y));
+			                  ow_plot_py(p, pts[i].y));
 		pen = 1;
 	}
 	ow_canvas_stroke(cv);
@@ -514,8 +529,8 @@ void ow_plot_polyline(const struct ow_plot *p, const struct ow_pt2 *pts,
 }
 
 void ow_plot_region(const struct ow_plot *p, const struct ow_pt2 *pts,
-		    const int *counts, int n_rings, struct ow_rgba tint,
-		    const struct ow_hatch *h)
+                    const int *counts, int n_rings, struct ow_rgba tint,
+                    const struct ow_hatch *h)
 {
 	struct ow_canvas *cv = p->cv;
 	int r, i, k = 0;
@@ -551,7 +566,7 @@ void ow_plot_region(const struct ow_plot *p, const struct ow_pt2 *pts,
 
 /* One entry's width: sample, gaps and its label. */
 static double entry_w(struct ow_canvas *cv, const struct ow_legend_entry *e,
-		      int n, double f)
+                      int n, double f)
 {
 	double tw = 0.0;
 	int i;
@@ -568,8 +583,8 @@ static int rows_of(int n, int cols)
 }
 
 void ow_plot_legend_grid_size(struct ow_canvas *cv,
-			      const struct ow_legend_entry *e, int n,
-			      double font_pt, int cols, double *w, double *h)
+                              const struct ow_legend_entry *e, int n,
+                              double font_pt, int cols, double *w, double *h)
 {
 	cols = cols < 1 ? 1 : cols;
 	*w = (double)cols * entry_w(cv, e, n, font_pt);
@@ -577,13 +592,13 @@ void ow_plot_legend_grid_size(struct ow_canvas *cv,
 }
 
 void ow_plot_legend_size(struct ow_canvas *cv, const struct ow_legend_entry *e,
-			 int n, double font_pt, double *w, double *h)
+                         int n, double font_pt, double *w, double *h)
 {
 	ow_plot_legend_grid_size(cv, e, n, font_pt, 1, w, h);
 }
 
 static void legend_sample(struct ow_canvas *cv, double x, double y,
-			  const struct ow_legend_entry *e, double f)
+                          const struct ow_legend_entry *e, double f)
 {
 	double sw = SAMPLE_W(f);
 
@@ -606,17 +621,17 @@ static void legend_sample(struct ow_canvas *cv, double x, double y,
 	ow_canvas_new_path(cv);
 	ow_canvas_set_dash(cv, NULL, 0);
 	{
-		enum ow_marker m = e->marker != OW_MARK_NONE ? e->marker
-							      : e->line.marker;
+		enum ow_marker m =
+		    e->marker != OW_MARK_NONE ? e->marker : e->line.marker;
 		marker_at(cv, x + 0.5 * sw, y, m,
-			  fmax(7.0, 2.2 + 2.8 * e->line.width_pt),
-			  ow_rgb(1, 1, 1), e->line.colour);
+		          fmax(7.0, 2.2 + 2.8 * e->line.width_pt),
+		          ow_rgb(1, 1, 1), e->line.colour);
 	}
 }
 
 void ow_plot_legend_grid(struct ow_canvas *cv, double x, double y,
-			 const struct ow_legend_entry *e, int n, double font_pt,
-			 int cols)
+                         const struct ow_legend_entry *e, int n, double font_pt,
+                         int cols)
 {
 	double w, h, f = font_pt, cw;
 	int i, rows;
@@ -644,19 +659,19 @@ void ow_plot_legend_grid(struct ow_canvas *cv, double x, double y,
 		ow_canvas_set_colour(cv, ow_rgb(0.12, 0.12, 0.12));
 		ow_canvas_set_font(cv, f, 0);
 		ow_canvas_text(cv, xx + 1.2 * f + SAMPLE_W(f), yy, e[i].label,
-			       OW_ALIGN_LEFT, OW_VALIGN_MIDDLE, 0);
+		               OW_ALIGN_LEFT, OW_VALIGN_MIDDLE, 0);
 	}
 	ow_canvas_restore(cv);
 }
 
 void ow_plot_legend(struct ow_canvas *cv, double x, double y,
-		    const struct ow_legend_entry *e, int n, double font_pt)
+                    const struct ow_legend_entry *e, int n, double font_pt)
 {
 	ow_plot_legend_grid(cv, x, y, e, n, font_pt, 1);
 }
 
 int ow_plot_series_range(const struct ow_series *s, int n, int use_y,
-			 double *lo, double *hi)
+                         double *lo, double *hi)
 {
 	int i, k, any = 0;
 
@@ -697,8 +712,8 @@ static void draw_series(const struct ow_plot *p, const struct ow_series *s)
 }
 
 void ow_plot_lines(const struct ow_plot *p, const struct ow_plot_axis *x,
-		   const struct ow_plot_axis *y, const struct ow_series *s,
-		   int n, int legend)
+                   const struct ow_plot_axis *y, const struct ow_series *s,
+                   int n, int legend)
 {
 	struct ow_legend_entry e[16];
 	int k, m = 0;
@@ -721,8 +736,8 @@ void ow_plot_lines(const struct ow_plot *p, const struct ow_plot_axis *x,
 		double w, h;
 
 		ow_plot_legend_size(p->cv, e, m, 0.9 * p->font_pt, &w, &h);
-		ow_plot_legend(p->cv, p->area.x + p->area.w - w - 0.4 * p->font_pt,
-			       p->area.y + 0.4 * p->font_pt, e, m,
-			       0.9 * p->font_pt);
+		ow_plot_legend(
+		    p->cv, p->area.x + p->area.w - w - 0.4 * p->font_pt,
+		    p->area.y + 0.4 * p->font_pt, e, m, 0.9 * p->font_pt);
 	}
 }

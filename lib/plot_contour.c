@@ -53,7 +53,7 @@ static long edge_id(const struct ow_field *f, int ai, int aj, int bi, int bj)
 
 struct seg {
 	struct ow_pt2 p[2];
-	long e[2];  /* edge ids of the ends */
+	long e[2]; /* edge ids of the ends */
 	int used;
 };
 
@@ -77,8 +77,8 @@ static int seg_push(struct segs *S, const struct seg *g)
 	return 1;
 }
 
-static struct ow_pt2 cross_pt(const struct ow_field *f, int ai, int aj,
-			      int bi, int bj, double level)
+static struct ow_pt2 cross_pt(const struct ow_field *f, int ai, int aj, int bi,
+                              int bj, double level)
 {
 	double za = zat(f, ai, aj), zb = zat(f, bi, bj);
 	double t = (level - za) / (zb - za);
@@ -91,7 +91,7 @@ static struct ow_pt2 cross_pt(const struct ow_field *f, int ai, int aj,
 
 /* The segment of triangle t of cell (i, j) where z = level, if any. */
 static int tri_segment(const struct ow_field *f, int i, int j, int t,
-		       double level, struct seg *g)
+                       double level, struct seg *g)
 {
 	int ci[3], cj[3], in[3], k, m = 0, n_in = 0;
 
@@ -139,7 +139,7 @@ struct edge_index {
 };
 
 static int index_build(const struct ow_field *f, const struct segs *S,
-		       struct edge_index *x)
+                       struct edge_index *x)
 {
 	int k, e;
 
@@ -166,8 +166,8 @@ static int other_seg(const struct edge_index *x, long e, int k)
 
 static int line_push(struct ow_isolines *L, struct ow_pt2 *p, int n)
 {
-	struct ow_isoline *q = realloc(L->lines,
-				       (size_t)(L->n + 1) * sizeof *q);
+	struct ow_isoline *q =
+	    realloc(L->lines, (size_t)(L->n + 1) * sizeof *q);
 
 	if (!q)
 		return 0;
@@ -180,7 +180,7 @@ static int line_push(struct ow_isolines *L, struct ow_pt2 *p, int n)
 
 /* Follow the chain from segment k leaving through its end `end`. */
 static int trace(const struct segs *S, const struct edge_index *x, int k,
-		 int end, struct ow_isolines *L)
+                 int end, struct ow_isolines *L)
 {
 	struct ow_pt2 *p = malloc((size_t)(S->n + 2) * sizeof *p);
 	long first = S->s[k].e[1 - end], last = -1;
@@ -212,7 +212,7 @@ static int trace(const struct segs *S, const struct edge_index *x, int k,
 }
 
 static int join(const struct segs *S, const struct edge_index *x,
-		struct ow_isolines *L)
+                struct ow_isolines *L)
 {
 	int k, e;
 
@@ -247,7 +247,7 @@ static int field_ok(const struct ow_field *f)
 }
 
 enum ow_status ow_contour_lines(const struct ow_field *f, double level,
-				struct ow_isolines **out, struct ow_diag *d)
+                                struct ow_isolines **out, struct ow_diag *d)
 {
 	struct segs S = {NULL, 0, 0};
 	struct edge_index x = {0, NULL};
@@ -258,8 +258,9 @@ enum ow_status ow_contour_lines(const struct ow_field *f, double level,
 		return ow_diag_set(d, OW_EARG, "contour: no output pointer");
 	*out = NULL;
 	if (!field_ok(f) || !isfinite(level))
-		return ow_diag_set(d, OW_EARG, "contour: a field of at least "
-				   "2 x 2 values and a finite level needed");
+		return ow_diag_set(d, OW_EARG,
+		                   "contour: a field of at least "
+		                   "2 x 2 values and a finite level needed");
 	L = calloc(1, sizeof *L);
 	if (!L || !collect(f, level, &S) || !index_build(f, &S, &x) ||
 	    !join(&S, &x, L)) {
@@ -278,7 +279,7 @@ enum ow_status ow_contour_lines(const struct ow_field *f, double level,
 /* --- levels and filled contours --------------------------------------- */
 
 enum ow_status ow_contour_levels(const struct ow_field *f, int max_levels,
-				 struct ow_ticks *levels)
+                                 struct ow_ticks *levels)
 {
 	double lo = INFINITY, hi = -INFINITY;
 	long k;
@@ -326,8 +327,8 @@ static void poly_to(const struct ow_plot *p, const struct ow_pt2 *q, int n)
 
 /* Part of triangle t of cell (i, j) where z >= level (0, 3 or 4
  * vertices), counter-clockwise like the triangle. */
-static int tri_clip(const struct ow_field *f, int i, int j, int t,
-		    double level, struct ow_pt2 *q)
+static int tri_clip(const struct ow_field *f, int i, int j, int t, double level,
+                    struct ow_pt2 *q)
 {
 	int ci[3], cj[3], k, n = 0;
 
@@ -359,7 +360,7 @@ static int cell_in(const struct ow_field *f, int i, int j, double level)
 /* The region {z >= level} as one path: runs of whole cells as rectangles,
  * partial cells as clipped triangles, all the same orientation. */
 static void region_path(const struct ow_plot *p, const struct ow_field *f,
-			double level)
+                        double level)
 {
 	struct ow_pt2 q[5];
 	int i, j, t;
@@ -392,15 +393,16 @@ static void region_path(const struct ow_plot *p, const struct ow_field *f,
 }
 
 enum ow_status ow_plot_contour_fill(const struct ow_plot *p,
-				    const struct ow_field *f,
-				    const struct ow_ticks *levels,
-				    enum ow_cmap map, struct ow_diag *d)
+                                    const struct ow_field *f,
+                                    const struct ow_ticks *levels,
+                                    enum ow_cmap map, struct ow_diag *d)
 {
 	int k, nb;
 
 	if (!p || !field_ok(f) || !levels || levels->n < 2)
-		return ow_diag_set(d, OW_EARG, "contour fill: a field of at "
-				   "least 2 x 2 values and two levels needed");
+		return ow_diag_set(d, OW_EARG,
+		                   "contour fill: a field of at "
+		                   "least 2 x 2 values and two levels needed");
 	nb = levels->n - 1;
 	ow_plot_clip(p);
 	for (k = 0; k < nb; k++) {
@@ -416,15 +418,15 @@ enum ow_status ow_plot_contour_fill(const struct ow_plot *p,
 }
 
 enum ow_status ow_plot_field_region(const struct ow_plot *p,
-				    const struct ow_field *f, double level,
-				    struct ow_rgba tint,
-				    const struct ow_hatch *h,
-				    struct ow_diag *d)
+                                    const struct ow_field *f, double level,
+                                    struct ow_rgba tint,
+                                    const struct ow_hatch *h, struct ow_diag *d)
 {
 	if (!p || !field_ok(f) || !isfinite(level))
-		return ow_diag_set(d, OW_EARG, "field region: a field of at "
-				   "least 2 x 2 values and a finite level "
-				   "needed");
+		return ow_diag_set(d, OW_EARG,
+		                   "field region: a field of at "
+		                   "least 2 x 2 values and a finite level "
+		                   "needed");
 	ow_plot_clip(p);
 	region_path(p, f, level);
 	if (tint.a > 0.0) {
@@ -446,8 +448,9 @@ static double canvas_len(const struct ow_plot *p, const struct ow_isoline *l)
 	int k;
 
 	for (k = 1; k < l->n; k++)
-		s += hypot(ow_plot_px(p, l->p[k].x) - ow_plot_px(p, l->p[k - 1].x),
-			   ow_plot_py(p, l->p[k].y) - ow_plot_py(p, l->p[k - 1].y));
+		s += hypot(
+		    ow_plot_px(p, l->p[k].x) - ow_plot_px(p, l->p[k - 1].x),
+		    ow_plot_py(p, l->p[k].y) - ow_plot_py(p, l->p[k - 1].y));
 	return s;
 }
 
@@ -456,7 +459,8 @@ static void stroke_line(const struct ow_plot *p, const struct ow_isoline *l)
 	int k;
 
 	for (k = 0; k < l->n; k++) {
-		double X = ow_plot_px(p, l->p[k].x), Y = ow_plot_py(p, l->p[k].y);
+		double X = ow_plot_px(p, l->p[k].x),
+		       Y = ow_plot_py(p, l->p[k].y);
 
 		if (k == 0)
 			ow_canvas_move_to(p->cv, X, Y);
@@ -468,7 +472,7 @@ static void stroke_line(const struct ow_plot *p, const struct ow_isoline *l)
 
 /* Point at arc length `at` along l (canvas), and the direction there. */
 static void point_along(const struct ow_plot *p, const struct ow_isoline *l,
-			double at, double *X, double *Y, double *ang)
+                        double at, double *X, double *Y, double *ang)
 {
 	double s = 0.0;
 	int k;
@@ -476,7 +480,8 @@ static void point_along(const struct ow_plot *p, const struct ow_isoline *l,
 	for (k = 1; k < l->n; k++) {
 		double x0 = ow_plot_px(p, l->p[k - 1].x);
 		double y0 = ow_plot_py(p, l->p[k - 1].y);
-		double x1 = ow_plot_px(p, l->p[k].x), y1 = ow_plot_py(p, l->p[k].y);
+		double x1 = ow_plot_px(p, l->p[k].x),
+		       y1 = ow_plot_py(p, l->p[k].y);
 		double ds = hypot(x1 - x0, y1 - y0);
 
 		if (s + ds >= at || k == l->n - 1) {
@@ -485,7 +490,7 @@ static void point_along(const struct ow_plot *p, const struct ow_isoline *l,
 			*X = x0 + t * (x1 - x0);
 			*Y = y0 + t * (y1 - y0);
 			*ang = ow_plot_upright(atan2(-(y1 - y0), x1 - x0) *
-					       180.0 / OW_PI);
+			                       180.0 / OW_PI);
 			return;
 		}
 		s += ds;
@@ -505,7 +510,7 @@ double ow_plot_upright(double a)
 }
 
 void ow_plot_label_on_line(struct ow_canvas *cv, double X, double Y, double ang,
-			const char *text, double font_pt, struct ow_rgba ink)
+                           const char *text, double font_pt, struct ow_rgba ink)
 {
 	double w, h = 1.25 * font_pt, a = ang * OW_PI / 180.0;
 	double ux = cos(a), uy = -sin(a), vx = sin(a), vy = cos(a);
@@ -528,7 +533,7 @@ void ow_plot_label_on_line(struct ow_canvas *cv, double X, double Y, double ang,
 }
 
 static void label_longest(const struct ow_plot *p, const struct ow_isolines *L,
-			  const char *text, struct ow_rgba ink)
+                          const char *text, struct ow_rgba ink)
 {
 	static const double frac[7] = {0.5, 0.4, 0.6, 0.3, 0.7, 0.2, 0.8};
 	double best = 0.0, len, X = 0, Y = 0, ang = 0, need, tw;
@@ -566,10 +571,10 @@ static void label_longest(const struct ow_plot *p, const struct ow_isolines *L,
 }
 
 enum ow_status ow_plot_isolines(const struct ow_plot *p,
-				const struct ow_field *f,
-				const struct ow_ticks *levels, int every,
-				struct ow_rgba colour, double width_pt,
-				struct ow_diag *d)
+                                const struct ow_field *f,
+                                const struct ow_ticks *levels, int every,
+                                struct ow_rgba colour, double width_pt,
+                                struct ow_diag *d)
 {
 	enum ow_status st = OW_OK;
 	char buf[64];
@@ -600,8 +605,8 @@ enum ow_status ow_plot_isolines(const struct ow_plot *p,
 /* --- colour bar ------------------------------------------------------- */
 
 void ow_plot_colour_bar(struct ow_canvas *cv, const struct ow_rect *box,
-			const struct ow_ticks *levels, enum ow_cmap map,
-			const char *title, double font_pt)
+                        const struct ow_ticks *levels, enum ow_cmap map,
+                        const char *title, double font_pt)
 {
 	double bw = 1.3 * font_pt, top = box->y + 2.0 * font_pt;
 	double bot = box->y + box->h - 3.4 * font_pt - 4.0, lw = 0.0;
@@ -617,7 +622,8 @@ void ow_plot_colour_bar(struct ow_canvas *cv, const struct ow_rect *box,
 	ow_canvas_save(cv);
 	for (k = 0; k < nb; k++) {
 		double ya = bot - (levels->v[k] - v0) / (v1 - v0) * (bot - top);
-		double yb = bot - (levels->v[k + 1] - v0) / (v1 - v0) * (bot - top);
+		double yb =
+		    bot - (levels->v[k + 1] - v0) / (v1 - v0) * (bot - top);
 
 		ow_canvas_rect(cv, box->x, yb, bw, ya - yb + 0.02);
 		ow_canvas_set_colour(cv, ow_contour_band_colour(map, k, nb));
@@ -637,13 +643,13 @@ void ow_plot_colour_bar(struct ow_canvas *cv, const struct ow_rect *box,
 		ow_canvas_line_to(cv, box->x + bw + 3.0, y);
 		ow_plot_format(buf, sizeof buf, levels->v[k], levels->decimals);
 		ow_canvas_text(cv, box->x + bw + 4.5, y, buf, OW_ALIGN_LEFT,
-			       OW_VALIGN_MIDDLE, 0);
+		               OW_VALIGN_MIDDLE, 0);
 		lw = fmax(lw, ow_canvas_text_width(cv, buf));
 	}
 	ow_canvas_stroke(cv);
 	if (title)
 		ow_canvas_text(cv, box->x + bw + 6.0 + lw + 0.3 * font_pt,
-			       0.5 * (top + bot), title, OW_ALIGN_CENTRE,
-			       OW_VALIGN_TOP, 90);
+		               0.5 * (top + bot), title, OW_ALIGN_CENTRE,
+		               OW_VALIGN_TOP, 90);
 	ow_canvas_restore(cv);
 }

@@ -28,7 +28,8 @@ static void scene(struct ow_canvas *cv)
 	ow_canvas_set_colour(cv, ow_rgb(1, 1, 1));
 	ow_canvas_rect(cv, 0, 0, 200, 100);
 	ow_canvas_fill(cv);
-	ow_canvas_set_colour(cv, ow_rgba_with_alpha(ow_rgb(0.8, 0.2, 0.1), 0.3));
+	ow_canvas_set_colour(cv,
+	                     ow_rgba_with_alpha(ow_rgb(0.8, 0.2, 0.1), 0.3));
 	ow_canvas_rect(cv, 10, 10, 80, 50);
 	ow_canvas_fill_preserve(cv);
 	ow_canvas_hatch(cv, &h);
@@ -41,20 +42,20 @@ static void scene(struct ow_canvas *cv)
 	ow_canvas_set_colour(cv, ow_rgb(0, 0, 0));
 	ow_canvas_set_font(cv, 11, 1);
 	ow_canvas_text(cv, 100, 90, "peak melt 240 °C", OW_ALIGN_CENTRE,
-		       OW_VALIGN_BASELINE, 0);
+	               OW_VALIGN_BASELINE, 0);
 	ow_canvas_set_font(cv, 9, 0);
 	ow_canvas_text(cv, 8, 95, "set-point (°F)", OW_ALIGN_LEFT,
-		       OW_VALIGN_MIDDLE, 90);
+	               OW_VALIGN_MIDDLE, 90);
 }
 
 static void png_of(double w, double h, double scale, unsigned char **b,
-		   size_t *n)
+                   size_t *n)
 {
 	struct ow_canvas *cv = NULL;
 	struct ow_diag d = {{0}};
 
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_PNG, w, h, scale,
-						&cv, &d), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_PNG, w, h, scale, &cv, &d), OW_OK);
 	scene(cv);
 	assert_int_equal(ow_canvas_encode(cv, b, n, &d), OW_OK);
 	ow_canvas_destroy(cv);
@@ -98,8 +99,9 @@ static char *svg_of(void (*draw)(struct ow_canvas *), size_t *n)
 	unsigned char *b = NULL;
 	char *s;
 
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_SVG, 200, 100, 1.0,
-						&cv, &d), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_SVG, 200, 100, 1.0, &cv, &d),
+	    OW_OK);
 	draw(cv);
 	assert_int_equal(ow_canvas_encode(cv, &b, n, &d), OW_OK);
 	ow_canvas_destroy(cv);
@@ -127,7 +129,7 @@ static void canvas_svg_keeps_labels_as_text(void **state)
 static void markup(struct ow_canvas *cv)
 {
 	ow_canvas_text(cv, 10, 10, "a<b & \"c\">d", OW_ALIGN_LEFT,
-		       OW_VALIGN_TOP, 0);
+	               OW_VALIGN_TOP, 0);
 }
 
 static void canvas_svg_escapes_markup_in_text(void **state)
@@ -146,8 +148,9 @@ static void canvas_text_width_scales_with_size_and_weight(void **state)
 	double w10, w20, wb;
 
 	(void)state;
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_PNG, 100, 100, 1.0,
-						&cv, NULL), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_PNG, 100, 100, 1.0, &cv, NULL),
+	    OW_OK);
 	ow_canvas_set_font(cv, 10, 0);
 	w10 = ow_canvas_text_width(cv, "screw speed (rpm)");
 	ow_canvas_set_font(cv, 20, 0);
@@ -184,8 +187,8 @@ static cairo_status_t read_fn(void *c, unsigned char *data, unsigned len)
 static cairo_surface_t *decode(const unsigned char *b, size_t n)
 {
 	struct reader r = {b, n, 0};
-	cairo_surface_t *s = cairo_image_surface_create_from_png_stream(read_fn,
-									 &r);
+	cairo_surface_t *s =
+	    cairo_image_surface_create_from_png_stream(read_fn, &r);
 
 	assert_int_equal(cairo_surface_status(s), CAIRO_STATUS_SUCCESS);
 	return s;
@@ -195,7 +198,7 @@ static cairo_surface_t *decode(const unsigned char *b, size_t n)
 static int grey_at(cairo_surface_t *s, int x, int y, int *alpha)
 {
 	const unsigned char *p = cairo_image_surface_get_data(s) +
-				 y * cairo_image_surface_get_stride(s) + 4 * x;
+	                         y * cairo_image_surface_get_stride(s) + 4 * x;
 
 	*alpha = p[3];
 	return (p[0] + p[1] + p[2]) / 3; /* premultiplied BGRA */
@@ -221,8 +224,9 @@ static void canvas_hatch_draws_lines_only_inside_the_path(void **state)
 	int x, y, a, dark = 0, light = 0, outside_dark = 0;
 
 	(void)state;
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_PNG, 100, 100, 1.0,
-						&cv, NULL), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_PNG, 100, 100, 1.0, &cv, NULL),
+	    OW_OK);
 	hatch_scene(cv);
 	assert_int_equal(ow_canvas_encode(cv, &b, &n, NULL), OW_OK);
 	s = decode(b, n);
@@ -256,8 +260,9 @@ static void canvas_clip_keeps_paint_inside_and_restore_lifts_it(void **state)
 	int a;
 
 	(void)state;
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_PNG, 40, 40, 1.0,
-						&cv, NULL), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_PNG, 40, 40, 1.0, &cv, NULL),
+	    OW_OK);
 	ow_canvas_save(cv);
 	ow_canvas_clip_rect(cv, 0, 0, 20, 40);
 	ow_canvas_set_colour(cv, ow_rgb(0, 0, 0));
@@ -287,8 +292,9 @@ static void canvas_keeps_the_first_error_and_refuses_late_drawing(void **state)
 	size_t n = 0;
 
 	(void)state;
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_PNG, 10, 10, 1.0,
-						&cv, NULL), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_PNG, 10, 10, 1.0, &cv, NULL),
+	    OW_OK);
 	ow_canvas_restore(cv); /* without save */
 	ow_canvas_set_line_width(cv, -1.0);
 	assert_int_equal(ow_canvas_status(cv, &d), OW_EARG);
@@ -296,8 +302,9 @@ static void canvas_keeps_the_first_error_and_refuses_late_drawing(void **state)
 	assert_int_equal(ow_canvas_encode(cv, &b, &n, NULL), OW_EARG);
 	ow_canvas_destroy(cv);
 
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_SVG, 10, 10, 1.0,
-						&cv, NULL), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_SVG, 10, 10, 1.0, &cv, NULL),
+	    OW_OK);
 	assert_int_equal(ow_canvas_encode(cv, &b, &n, NULL), OW_OK);
 	free(b);
 	ow_canvas_rect(cv, 0, 0, 1, 1);
@@ -314,15 +321,19 @@ static void canvas_rejects_sizes_and_formats_out_of_range(void **state)
 	struct ow_diag d = {{0}};
 
 	(void)state;
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_PNG, 0, 10, 1.0,
-						&cv, &d), OW_EARG);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_PNG, 0, 10, 1.0, &cv, &d),
+	    OW_EARG);
 	assert_null(cv);
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_PNG, 10, 10, 0.0,
-						&cv, NULL), OW_EARG);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_PNG, 10, 10, 0.0, &cv, NULL),
+	    OW_EARG);
 	assert_int_equal(ow_canvas_create_image((enum ow_canvas_format)7, 10,
-						10, 1.0, &cv, NULL), OW_EARG);
-	assert_int_equal(ow_canvas_create_pdf(NULL, NULL, NULL, NULL, 10, 10,
-					      &cv, NULL), OW_EARG);
+	                                        10, 1.0, &cv, NULL),
+	                 OW_EARG);
+	assert_int_equal(
+	    ow_canvas_create_pdf(NULL, NULL, NULL, NULL, 10, 10, &cv, NULL),
+	    OW_EARG);
 	assert_non_null(strstr(d.msg, "size"));
 }
 
@@ -337,8 +348,9 @@ static void canvas_writes_files_atomically_and_names_bad_paths(void **state)
 	(void)state;
 	assert_non_null(mkdtemp(path));
 	snprintf(file, sizeof file, "%s/a.png", path);
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_PNG, 20, 20, 1.0,
-						&cv, NULL), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_PNG, 20, 20, 1.0, &cv, NULL),
+	    OW_OK);
 	scene(cv);
 	assert_int_equal(ow_canvas_write_file(cv, file, &d), OW_OK);
 	ow_canvas_destroy(cv);
@@ -347,10 +359,11 @@ static void canvas_writes_files_atomically_and_names_bad_paths(void **state)
 	fclose(f);
 	remove(file);
 	rmdir(path);
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_SVG, 20, 20, 1.0,
-						&cv, NULL), OW_OK);
-	assert_int_equal(ow_canvas_write_file(cv, "/nonexistent-dir/a.svg",
-					      &d), OW_EIO);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_SVG, 20, 20, 1.0, &cv, NULL),
+	    OW_OK);
+	assert_int_equal(ow_canvas_write_file(cv, "/nonexistent-dir/a.svg", &d),
+	                 OW_EIO);
 	assert_non_null(strstr(d.msg, "/nonexistent-dir/a.svg"));
 	ow_canvas_destroy(cv);
 }
@@ -426,13 +439,15 @@ static void canvas_pdf_back_end_draws_readable_embedded_text(void **state)
 	assert_int_equal(ow_canvas_pdf_fonts(doc, &fonts, &d), OW_OK);
 	page = HPDF_AddPage(doc);
 	HPDF_Page_SetSize(page, HPDF_PAGE_SIZE_A4, HPDF_PAGE_PORTRAIT);
-	assert_int_equal(ow_canvas_create_pdf(doc, page, &fonts, &place, 200,
-					      100, &cv, &d), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_pdf(doc, page, &fonts, &place, 200, 100, &cv, &d),
+	    OW_OK);
 	scene(cv);
 	assert_int_equal(ow_canvas_status(cv, &d), OW_OK);
 	/* both back-ends measure the same font's advance widths */
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_PNG, 10, 10, 1.0,
-						&img, NULL), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_PNG, 10, 10, 1.0, &img, NULL),
+	    OW_OK);
 	ow_canvas_set_font(cv, 12, 0);
 	ow_canvas_set_font(img, 12, 0);
 	wp = ow_canvas_text_width(cv, "last zone set-point (°C)");
@@ -462,21 +477,20 @@ static void canvas_pdf_back_end_draws_readable_embedded_text(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(canvas_png_has_the_size_of_points_times_scale),
-		cmocka_unit_test(canvas_same_drawing_gives_byte_identical_png),
-		cmocka_unit_test(canvas_svg_keeps_labels_as_text),
-		cmocka_unit_test(canvas_svg_escapes_markup_in_text),
-		cmocka_unit_test(canvas_text_width_scales_with_size_and_weight),
-		cmocka_unit_test(canvas_hatch_draws_lines_only_inside_the_path),
-		cmocka_unit_test(
-			canvas_clip_keeps_paint_inside_and_restore_lifts_it),
-		cmocka_unit_test(
-			canvas_keeps_the_first_error_and_refuses_late_drawing),
-		cmocka_unit_test(canvas_rejects_sizes_and_formats_out_of_range),
-		cmocka_unit_test(
-			canvas_writes_files_atomically_and_names_bad_paths),
-		cmocka_unit_test(
-			canvas_pdf_back_end_draws_readable_embedded_text),
+	    cmocka_unit_test(canvas_png_has_the_size_of_points_times_scale),
+	    cmocka_unit_test(canvas_same_drawing_gives_byte_identical_png),
+	    cmocka_unit_test(canvas_svg_keeps_labels_as_text),
+	    cmocka_unit_test(canvas_svg_escapes_markup_in_text),
+	    cmocka_unit_test(canvas_text_width_scales_with_size_and_weight),
+	    cmocka_unit_test(canvas_hatch_draws_lines_only_inside_the_path),
+	    cmocka_unit_test(
+	        canvas_clip_keeps_paint_inside_and_restore_lifts_it),
+	    cmocka_unit_test(
+	        canvas_keeps_the_first_error_and_refuses_late_drawing),
+	    cmocka_unit_test(canvas_rejects_sizes_and_formats_out_of_range),
+	    cmocka_unit_test(
+	        canvas_writes_files_atomically_and_names_bad_paths),
+	    cmocka_unit_test(canvas_pdf_back_end_draws_readable_embedded_text),
 	};
 
 	return cmocka_run_group_tests(tests, NULL, NULL);

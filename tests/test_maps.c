@@ -37,8 +37,8 @@ static int setup(void **state)
 	struct ow_diag d = {{0}};
 
 	if (!f || ow_units_create(&f->u, &d) != OW_OK ||
-	    ow_config_load_study(f->u, "demo/study-si.json",
-				 &f->s, &d) != OW_OK)
+	    ow_config_load_study(f->u, "demo/study-si.json", &f->s, &d) !=
+	        OW_OK)
 		goto fail;
 	ow_sweep_default(&c);
 	c.rpm_steps = 7;
@@ -122,8 +122,8 @@ static double seconds(void)
 static void maps_write_every_image_at_900_by_650(void **state)
 {
 	static const char *const stems[] = {
-		"window", "map-peak-temp", "map-unmelt", "map-pressure",
-		"map-output", "map-sec", "profile"};
+	    "window",     "map-peak-temp", "map-unmelt", "map-pressure",
+	    "map-output", "map-sec",       "profile"};
 	struct fix *f = *state;
 	struct ow_maps_options o;
 	struct ow_diag d = {{0}};
@@ -134,10 +134,10 @@ static void maps_write_every_image_at_900_by_650(void **state)
 	assert_false(f->w->empty);
 	t0 = seconds();
 	assert_int_equal(ow_maps_write_all(&f->s, f->g, f->w, &o, f->dir, &d),
-			 OW_OK);
+	                 OW_OK);
 	t1 = seconds();
 	print_message("maps: 7 PNG + 7 SVG (centre point solved) in %.3f s\n",
-		      t1 - t0);
+	              t1 - t0);
 	for (k = 0; k < sizeof stems / sizeof stems[0]; k++) {
 		char name[64];
 		size_t n = 0;
@@ -164,17 +164,17 @@ static void maps_same_inputs_give_byte_identical_pngs(void **state)
 	struct ow_maps_options o;
 	char dir2[80];
 	const char *names[] = {"window.png", "map-peak-temp.png",
-			       "profile.png"};
+	                       "profile.png"};
 	unsigned k;
 
 	ow_maps_default(&o);
 	o.svg = 0;
 	snprintf(dir2, sizeof dir2, "%s/again", f->dir);
 	assert_int_equal(mkdir(dir2, 0755), 0);
-	assert_int_equal(ow_maps_write_all(&f->s, f->g, f->w, &o, f->dir,
-					   NULL), OW_OK);
+	assert_int_equal(ow_maps_write_all(&f->s, f->g, f->w, &o, f->dir, NULL),
+	                 OW_OK);
 	assert_int_equal(ow_maps_write_all(&f->s, f->g, f->w, &o, dir2, NULL),
-			 OW_OK);
+	                 OW_OK);
 	for (k = 0; k < 3; k++) {
 		size_t na = 0, nb = 0;
 		unsigned char *a = file_in(f->dir, names[k], &na);
@@ -190,7 +190,7 @@ static void maps_same_inputs_give_byte_identical_pngs(void **state)
 }
 
 static char *draw_svg(struct fix *f, const struct ow_window *w,
-		      const struct ow_maps_options *o)
+                      const struct ow_maps_options *o)
 {
 	struct ow_canvas *cv = NULL;
 	struct ow_rect box = {0, 0, OW_MAPS_WIDTH_PT, OW_MAPS_HEIGHT_PT};
@@ -199,10 +199,11 @@ static char *draw_svg(struct fix *f, const struct ow_window *w,
 	size_t n = 0;
 	char *s;
 
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_SVG, box.w, box.h,
-						1.0, &cv, NULL), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_SVG, box.w, box.h, 1.0, &cv, NULL),
+	    OW_OK);
 	assert_int_equal(ow_maps_draw_window(cv, &box, &f->s, f->g, w, o, &d),
-			 OW_OK);
+	                 OW_OK);
 	assert_int_equal(ow_canvas_encode(cv, &b, &n, NULL), OW_OK);
 	ow_canvas_destroy(cv);
 	s = realloc(b, n + 1);
@@ -233,7 +234,7 @@ static void maps_window_labels_each_limit_with_name_and_value(void **state)
 	free(svg);
 
 	o.units = OW_SYS_US; /* 240 degC = 464 degF; 45 MPa = 6527 psi
-				(NIST SP 811, 2008, App. B; recomputed) */
+	                        (NIST SP 811, 2008, App. B; recomputed) */
 	svg = draw_svg(f, f->w, &o);
 	assert_non_null(strstr(svg, ">peak melt 464 °F</text>"));
 	assert_non_null(strstr(svg, ">pressure 6527 psi</text>"));
@@ -255,8 +256,8 @@ static cairo_surface_t *png_file(const char *dir, const char *name)
 
 /* Grey levels (mean of R, G, B) of a square of half-width r (px) around
  * (X, Y): their standard deviation and darkest value. */
-static void patch(cairo_surface_t *s, double X, double Y, int r,
-		  double *sd, int *darkest)
+static void patch(cairo_surface_t *s, double X, double Y, int r, double *sd,
+                  int *darkest)
 {
 	double sum = 0.0, sum2 = 0.0;
 	int x, y, n = 0;
@@ -264,8 +265,9 @@ static void patch(cairo_surface_t *s, double X, double Y, int r,
 	*darkest = 255;
 	for (y = (int)Y - r; y <= (int)Y + r; y++)
 		for (x = (int)X - r; x <= (int)X + r; x++) {
-			const unsigned char *p = cairo_image_surface_get_data(s) +
-				y * cairo_image_surface_get_stride(s) + 4 * x;
+			const unsigned char *p =
+			    cairo_image_surface_get_data(s) +
+			    y * cairo_image_surface_get_stride(s) + 4 * x;
 			int g = (p[0] + p[1] + p[2]) / 3;
 
 			sum += g;
@@ -287,17 +289,19 @@ static void maps_unsafe_region_is_hatched_and_safe_region_clear(void **state)
 	struct ow_rect box = {0, 0, OW_MAPS_WIDTH_PT, OW_MAPS_HEIGHT_PT};
 	struct ow_plot p;
 	const struct ow_grid_point *corner =
-		ow_grid_at(f->g, f->g->n_rpm - 1, f->g->n_axis - 1);
+	    ow_grid_at(f->g, f->g->n_rpm - 1, f->g->n_axis - 1);
 	cairo_surface_t *s;
 	double sc = OW_MAPS_PNG_SCALE, sd, X, Y;
 	int darkest;
 
 	ow_maps_default(&o);
 	assert_true(corner->v.bits != 0); /* the demo's corner is unsafe */
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_SVG, box.w, box.h,
-						1.0, &cv, NULL), OW_OK);
-	assert_int_equal(ow_maps_window_frame(cv, &box, &f->s, f->g, f->w, &o,
-					      &p, NULL), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_SVG, box.w, box.h, 1.0, &cv, NULL),
+	    OW_OK);
+	assert_int_equal(
+	    ow_maps_window_frame(cv, &box, &f->s, f->g, f->w, &o, &p, NULL),
+	    OW_OK);
 	ow_canvas_destroy(cv);
 	s = png_file(f->dir, "window.png");
 	X = sc * (p.area.x + p.area.w) - 30.0;
@@ -308,9 +312,9 @@ static void maps_unsafe_region_is_hatched_and_safe_region_clear(void **state)
 	/* a quarter into the rectangle from its lower-left corner, clear
 	 * of its outline, labels and the centre mark */
 	X = sc * ow_plot_px(&p, f->w->rpm_min +
-				 0.25 * (f->w->rpm_max - f->w->rpm_min));
+	                            0.25 * (f->w->rpm_max - f->w->rpm_min));
 	Y = sc * ow_plot_py(&p, (f->w->set_min_K - 273.15) +
-				 0.25 * (f->w->set_max_K - f->w->set_min_K));
+	                            0.25 * (f->w->set_max_K - f->w->set_min_K));
 	patch(s, X, Y, 6, &sd, &darkest);
 	assert_true(darkest > 200); /* white paper, at most a light grid line */
 	cairo_surface_destroy(s);
@@ -355,18 +359,18 @@ static void maps_axis_label_names_the_reference_zone(void **state)
 	assert_non_null(s);
 	*s = f->s; /* the demo: 5 zones, mode shift */
 	assert_string_equal(ow_maps_axis_label(s, buf, sizeof buf),
-			    "last zone set-point");
+	                    "last zone set-point");
 	s->line.axes.mode = OW_AXIS_SET;
 	s->line.axes.zones_from = 2;
 	assert_string_equal(ow_maps_axis_label(s, buf, sizeof buf),
-			    "zones 3–5 set-point");
+	                    "zones 3–5 set-point");
 	s->line.axes.zones_from = 4;
 	assert_string_equal(ow_maps_axis_label(s, buf, sizeof buf),
-			    "zone 5 set-point");
+	                    "zone 5 set-point");
 	s->line.axes.mode = OW_AXIS_ZONE;
 	s->line.axes.zone = 1;
 	assert_string_equal(ow_maps_axis_label(s, buf, sizeof buf),
-			    "zone 2 set-point");
+	                    "zone 2 set-point");
 	free(s);
 }
 
@@ -383,14 +387,16 @@ static void maps_profile_shows_the_screw_sections(void **state)
 	int m = 0;
 	char *svg;
 
-	assert_int_equal(ow_maps_centre_profile(&f->s, f->w, &rows, &m, NULL,
-						NULL), OW_OK);
+	assert_int_equal(
+	    ow_maps_centre_profile(&f->s, f->w, &rows, &m, NULL, NULL), OW_OK);
 	assert_true(m > 20);
 	assert_abs(rows[m - 1].axial_m / f->s.screw.diameter_m, 30.0, 0.5);
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_SVG, box.w, box.h,
-						1.0, &cv, NULL), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_SVG, box.w, box.h, 1.0, &cv, NULL),
+	    OW_OK);
 	assert_int_equal(ow_maps_draw_profile(cv, &box, &f->s, rows, m,
-					      "centre", NULL, NULL), OW_OK);
+	                                      "centre", NULL, NULL),
+	                 OW_OK);
 	assert_int_equal(ow_canvas_encode(cv, &b, &n, NULL), OW_OK);
 	ow_canvas_destroy(cv);
 	svg = realloc(b, n + 1);
@@ -402,21 +408,22 @@ static void maps_profile_shows_the_screw_sections(void **state)
 	assert_non_null(strstr(svg, ">pressure (MPa)</text>"));
 	assert_non_null(strstr(svg, ">temperature (°C)</text>"));
 	assert_non_null(strstr(svg, ">axial position from the hopper end "
-				    "(D)</text>"));
+	                            "(D)</text>"));
 	assert_non_null(strstr(svg, ">limit: peak melt 240 °C</text>"));
 	free(svg);
 	free(rows);
-	assert_int_equal(ow_maps_draw_profile(cv, &box, &f->s, NULL, 0, NULL,
-					      NULL, NULL), OW_EARG);
+	assert_int_equal(
+	    ow_maps_draw_profile(cv, &box, &f->s, NULL, 0, NULL, NULL, NULL),
+	    OW_EARG);
 }
 
 static void maps_figure_maps_carry_colour_bar_titles_with_units(void **state)
 {
 	static const char *const want[OW_MAP_COUNT] = {
-		">peak melt temperature (°C)</text>",
-		">unmelted fraction at discharge (%)</text>",
-		">highest pressure (MPa)</text>", ">throughput (kg/h)</text>",
-		">specific energy (kWh/kg)</text>"};
+	    ">peak melt temperature (°C)</text>",
+	    ">unmelted fraction at discharge (%)</text>",
+	    ">highest pressure (MPa)</text>", ">throughput (kg/h)</text>",
+	    ">specific energy (kWh/kg)</text>"};
 	struct fix *f = *state;
 	int k;
 
@@ -426,7 +433,7 @@ static void maps_figure_maps_carry_colour_bar_titles_with_units(void **state)
 		unsigned char *b;
 
 		snprintf(name, sizeof name, "%s.svg",
-			 ow_maps_figure_file((enum ow_map_figure)k));
+		         ow_maps_figure_file((enum ow_map_figure)k));
 		b = file_in(f->dir, name, &n);
 		assert_non_null(b);
 		assert_non_null(strstr((char *)b, want[k]));
@@ -438,17 +445,16 @@ static void maps_figure_maps_carry_colour_bar_titles_with_units(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(maps_write_every_image_at_900_by_650),
-		cmocka_unit_test(maps_same_inputs_give_byte_identical_pngs),
-		cmocka_unit_test(
-			maps_window_labels_each_limit_with_name_and_value),
-		cmocka_unit_test(
-			maps_unsafe_region_is_hatched_and_safe_region_clear),
-		cmocka_unit_test(maps_empty_window_says_so_on_the_map),
-		cmocka_unit_test(maps_axis_label_names_the_reference_zone),
-		cmocka_unit_test(maps_profile_shows_the_screw_sections),
-		cmocka_unit_test(
-			maps_figure_maps_carry_colour_bar_titles_with_units),
+	    cmocka_unit_test(maps_write_every_image_at_900_by_650),
+	    cmocka_unit_test(maps_same_inputs_give_byte_identical_pngs),
+	    cmocka_unit_test(maps_window_labels_each_limit_with_name_and_value),
+	    cmocka_unit_test(
+	        maps_unsafe_region_is_hatched_and_safe_region_clear),
+	    cmocka_unit_test(maps_empty_window_says_so_on_the_map),
+	    cmocka_unit_test(maps_axis_label_names_the_reference_zone),
+	    cmocka_unit_test(maps_profile_shows_the_screw_sections),
+	    cmocka_unit_test(
+	        maps_figure_maps_carry_colour_bar_titles_with_units),
 	};
 
 	return cmocka_run_group_tests(tests, setup, teardown);

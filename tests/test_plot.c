@@ -36,8 +36,8 @@ static void plot_nice_ticks_choose_the_finest_step_that_fits(void **state)
 {
 	static const double frac[] = {0, 0.2, 0.4, 0.6, 0.8, 1.0};
 	static const double neg[] = {-40, -20, 0, 20, 40, 60};
-	static const double set[] = {185, 190, 195, 200, 205, 210, 215, 220,
-				     225, 230, 235};
+	static const double set[] = {185, 190, 195, 200, 205, 210,
+	                             215, 220, 225, 230, 235};
 	struct ow_ticks t;
 
 	(void)state;
@@ -75,8 +75,10 @@ static void plot_format_uses_a_minus_sign_and_never_minus_zero(void **state)
 
 	(void)state;
 	assert_string_equal(ow_plot_format(buf, sizeof buf, -20.0, 0),
-			    "\xe2\x88\x92" "20");
-	assert_string_equal(ow_plot_format(buf, sizeof buf, -0.0001, 2), "0.00");
+	                    "\xe2\x88\x92"
+	                    "20");
+	assert_string_equal(ow_plot_format(buf, sizeof buf, -0.0001, 2),
+	                    "0.00");
 	assert_string_equal(ow_plot_format(buf, sizeof buf, 0.35, 2), "0.35");
 	assert_string_equal(ow_plot_format(buf, sizeof buf, 240.0, 0), "240");
 }
@@ -128,8 +130,9 @@ static double luminance(struct ow_rgba c)
 	int i;
 
 	for (i = 0; i < 3; i++)
-		y += w[i] * (v[i] <= 0.04045 ? v[i] / 12.92
-					     : pow((v[i] + 0.055) / 1.055, 2.4));
+		y +=
+		    w[i] * (v[i] <= 0.04045 ? v[i] / 12.92
+		                            : pow((v[i] + 0.055) / 1.055, 2.4));
 	return y;
 }
 
@@ -145,8 +148,8 @@ static void plot_colour_maps_grow_lighter_from_end_to_end(void **state)
 		double prev = -1.0;
 
 		for (k = 0; k <= 64; k++) {
-			double y = luminance(ow_cmap_at((enum ow_cmap)m,
-							k / 64.0));
+			double y =
+			    luminance(ow_cmap_at((enum ow_cmap)m, k / 64.0));
 
 			assert_true(y > prev);
 			prev = y;
@@ -162,8 +165,8 @@ struct grid {
 
 static void make_grid(struct grid *g, double (*fn)(double, double))
 {
-	static const double xs[9] = {0, 0.07, 0.2, 0.33, 0.5, 0.61, 0.8,
-				     0.9, 1.0};
+	static const double xs[9] = {0,    0.07, 0.2, 0.33, 0.5,
+	                             0.61, 0.8,  0.9, 1.0};
 	static const double ys[7] = {0, 0.1, 0.3, 0.45, 0.7, 0.85, 1.0};
 	int i, j;
 
@@ -239,7 +242,7 @@ static void plot_contour_of_a_cone_is_one_closed_loop(void **state)
 	l = &L->lines[0];
 	assert_true(l->n > 8);
 	assert_true(l->p[0].x == l->p[l->n - 1].x &&
-		    l->p[0].y == l->p[l->n - 1].y);
+	            l->p[0].y == l->p[l->n - 1].y);
 	for (k = 0; k < l->n; k++)
 		assert_abs(hypot(l->p[k].x - 0.5, l->p[k].y - 0.5), 0.3, 0.02);
 	ow_isolines_destroy(L);
@@ -264,7 +267,7 @@ static void plot_contour_leaves_out_cells_with_missing_values(void **state)
 	for (k = 0; k < L->n; k++)
 		for (i = 0; i < L->lines[k].n; i++)
 			assert_true(L->lines[k].p[i].y <= 0.1 + 1e-12 ||
-				    L->lines[k].p[i].y >= 0.45 - 1e-12);
+			            L->lines[k].p[i].y >= 0.45 - 1e-12);
 	ow_isolines_destroy(L);
 	assert_int_equal(ow_contour_lines(NULL, 1.0, &L, NULL), OW_EARG);
 }
@@ -326,7 +329,7 @@ static cairo_surface_t *pixels(struct ow_canvas *cv)
 static unsigned pixel(cairo_surface_t *s, int x, int y)
 {
 	const unsigned char *p = cairo_image_surface_get_data(s) +
-				 y * cairo_image_surface_get_stride(s) + 4 * x;
+	                         y * cairo_image_surface_get_stride(s) + 4 * x;
 
 	return (unsigned)p[0] | (unsigned)p[1] << 8 | (unsigned)p[2] << 16 |
 	       (unsigned)p[3] << 24;
@@ -341,8 +344,9 @@ static void plot_frame_maps_the_ranges_onto_the_data_area(void **state)
 	struct ow_plot p;
 
 	(void)state;
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_SVG, 420, 330, 1.0,
-						&cv, NULL), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_SVG, 420, 330, 1.0, &cv, NULL),
+	    OW_OK);
 	assert_int_equal(ow_plot_init(&p, cv, &box, &x, &y, 9.0, 50.0), OW_OK);
 	assert_true(p.area.x > box.x + 20.0); /* room for labels and title */
 	assert_true(p.area.x + p.area.w <= box.x + box.w - 50.0);
@@ -385,11 +389,12 @@ static void plot_filled_contours_have_no_seams(void **state)
 
 	(void)state;
 	make_grid(&g, ramp);
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_PNG, 400, 300, 1.0,
-						&cv, NULL), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_PNG, 400, 300, 1.0, &cv, NULL),
+	    OW_OK);
 	assert_int_equal(ow_plot_init(&p, cv, &box, &x, &y, 9.0, 0.0), OW_OK);
-	assert_int_equal(ow_plot_contour_fill(&p, &g.f, &lv, OW_CMAP_VIRIDIS,
-					      NULL), OW_OK);
+	assert_int_equal(
+	    ow_plot_contour_fill(&p, &g.f, &lv, OW_CMAP_VIRIDIS, NULL), OW_OK);
 	s = pixels(cv);
 	Y = (int)(p.area.y + 0.5 * p.area.h);
 	band0 = pixel(s, (int)ow_plot_px(&p, 0.1), Y);
@@ -421,15 +426,17 @@ static void plot_field_region_is_tinted_and_hatched(void **state)
 
 	(void)state;
 	make_grid(&g, plane);
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_PNG, 400, 300, 1.0,
-						&cv, NULL), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_PNG, 400, 300, 1.0, &cv, NULL),
+	    OW_OK);
 	ow_canvas_set_colour(cv, ow_rgb(1, 1, 1));
 	ow_canvas_rect(cv, 0, 0, 400, 300);
 	ow_canvas_fill(cv);
 	assert_int_equal(ow_plot_init(&p, cv, &box, &x, &y, 9.0, 0.0), OW_OK);
-	assert_int_equal(ow_plot_field_region(&p, &g.f, 1.5,
-					      ow_rgba_with_alpha(h.colour, 0.15),
-					      &h, NULL), OW_OK);
+	assert_int_equal(
+	    ow_plot_field_region(&p, &g.f, 1.5,
+	                         ow_rgba_with_alpha(h.colour, 0.15), &h, NULL),
+	    OW_OK);
 	s = pixels(cv);
 	for (Y = (int)p.area.y; Y < (int)(p.area.y + p.area.h); Y++)
 		for (X = (int)p.area.x; X < (int)(p.area.x + p.area.w); X++) {
@@ -437,7 +444,8 @@ static void plot_field_region_is_tinted_and_hatched(void **state)
 			double dy = 1.0 - (Y - p.area.y) / p.area.h;
 			unsigned c = pixel(s, X, Y);
 			int grey = (int)(((c & 255) + (c >> 8 & 255) +
-					  (c >> 16 & 255)) / 3);
+			                  (c >> 16 & 255)) /
+			                 3);
 
 			if (dx + dy > 1.56) { /* inside, off the edge */
 				dark += grey < 150;
@@ -457,7 +465,8 @@ static void plot_isolines_are_labelled_with_their_levels(void **state)
 {
 	struct ow_canvas *cv = NULL;
 	struct ow_rect box = {0, 0, 400, 300};
-	struct ow_plot_axis x = {0, 1, "x (m)", 0, 0}, y = {0, 1, "y (m)", 0, 0};
+	struct ow_plot_axis x = {0, 1, "x (m)", 0, 0},
+	                    y = {0, 1, "y (m)", 0, 0};
 	struct ow_ticks lv = {3, {0.5, 1.0, 1.5}, 0.5, 1};
 	struct ow_plot p;
 	struct grid g;
@@ -467,11 +476,13 @@ static void plot_isolines_are_labelled_with_their_levels(void **state)
 
 	(void)state;
 	make_grid(&g, plane);
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_SVG, 400, 300, 1.0,
-						&cv, NULL), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_SVG, 400, 300, 1.0, &cv, NULL),
+	    OW_OK);
 	assert_int_equal(ow_plot_init(&p, cv, &box, &x, &y, 9.0, 0.0), OW_OK);
-	assert_int_equal(ow_plot_isolines(&p, &g.f, &lv, 1, ow_rgb(0, 0, 0),
-					  0.6, NULL), OW_OK);
+	assert_int_equal(
+	    ow_plot_isolines(&p, &g.f, &lv, 1, ow_rgb(0, 0, 0), 0.6, NULL),
+	    OW_OK);
 	ow_plot_axes(&p, &x, &y);
 	assert_int_equal(ow_canvas_encode(cv, &b, &n, NULL), OW_OK);
 	svg = realloc(b, n + 1);
@@ -493,9 +504,8 @@ static void plot_line_chart_draws_series_and_legend(void **state)
 	struct ow_rect box = {0, 0, 400, 300};
 	struct ow_plot_axis x = {0, 4, "axial position (D)", 0, 0};
 	struct ow_plot_axis y = {0, 5, "pressure (MPa)", 1, 0};
-	struct ow_series s[2] = {
-		{"bulk", 5, xs, y1, ow_plot_series_style(0)},
-		{"peak", 5, xs, y2, ow_plot_series_style(1)}};
+	struct ow_series s[2] = {{"bulk", 5, xs, y1, ow_plot_series_style(0)},
+	                         {"peak", 5, xs, y2, ow_plot_series_style(1)}};
 	struct ow_plot p;
 	unsigned char *b = NULL;
 	size_t n = 0;
@@ -509,8 +519,9 @@ static void plot_line_chart_draws_series_and_legend(void **state)
 	/* series differ in dash and marker too, not only in colour */
 	assert_true(s[0].style.dash != s[1].style.dash);
 	assert_true(s[0].style.marker != s[1].style.marker);
-	assert_int_equal(ow_canvas_create_image(OW_CANVAS_SVG, 400, 300, 1.0,
-						&cv, NULL), OW_OK);
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_SVG, 400, 300, 1.0, &cv, NULL),
+	    OW_OK);
 	assert_int_equal(ow_plot_init(&p, cv, &box, &x, &y, 9.0, 0.0), OW_OK);
 	ow_plot_lines(&p, &x, &y, s, 2, 1);
 	assert_int_equal(ow_canvas_encode(cv, &b, &n, NULL), OW_OK);
@@ -527,26 +538,23 @@ static void plot_line_chart_draws_series_and_legend(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(plot_nice_ticks_cover_0_to_117_in_steps_of_20),
-		cmocka_unit_test(
-			plot_nice_ticks_choose_the_finest_step_that_fits),
-		cmocka_unit_test(
-			plot_nice_ticks_refuse_empty_and_non_finite_ranges),
-		cmocka_unit_test(
-			plot_format_uses_a_minus_sign_and_never_minus_zero),
-		cmocka_unit_test(plot_colour_maps_match_the_published_tables),
-		cmocka_unit_test(plot_colour_maps_grow_lighter_from_end_to_end),
-		cmocka_unit_test(plot_contour_of_a_plane_lies_on_its_exact_line),
-		cmocka_unit_test(plot_contour_of_a_cone_is_one_closed_loop),
-		cmocka_unit_test(
-			plot_contour_leaves_out_cells_with_missing_values),
-		cmocka_unit_test(plot_contour_levels_span_the_field),
-		cmocka_unit_test(
-			plot_frame_maps_the_ranges_onto_the_data_area),
-		cmocka_unit_test(plot_filled_contours_have_no_seams),
-		cmocka_unit_test(plot_field_region_is_tinted_and_hatched),
-		cmocka_unit_test(plot_isolines_are_labelled_with_their_levels),
-		cmocka_unit_test(plot_line_chart_draws_series_and_legend),
+	    cmocka_unit_test(plot_nice_ticks_cover_0_to_117_in_steps_of_20),
+	    cmocka_unit_test(plot_nice_ticks_choose_the_finest_step_that_fits),
+	    cmocka_unit_test(
+	        plot_nice_ticks_refuse_empty_and_non_finite_ranges),
+	    cmocka_unit_test(
+	        plot_format_uses_a_minus_sign_and_never_minus_zero),
+	    cmocka_unit_test(plot_colour_maps_match_the_published_tables),
+	    cmocka_unit_test(plot_colour_maps_grow_lighter_from_end_to_end),
+	    cmocka_unit_test(plot_contour_of_a_plane_lies_on_its_exact_line),
+	    cmocka_unit_test(plot_contour_of_a_cone_is_one_closed_loop),
+	    cmocka_unit_test(plot_contour_leaves_out_cells_with_missing_values),
+	    cmocka_unit_test(plot_contour_levels_span_the_field),
+	    cmocka_unit_test(plot_frame_maps_the_ranges_onto_the_data_area),
+	    cmocka_unit_test(plot_filled_contours_have_no_seams),
+	    cmocka_unit_test(plot_field_region_is_tinted_and_hatched),
+	    cmocka_unit_test(plot_isolines_are_labelled_with_their_levels),
+	    cmocka_unit_test(plot_line_chart_draws_series_and_legend),
 	};
 
 	return cmocka_run_group_tests(tests, NULL, NULL);
