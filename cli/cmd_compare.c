@@ -113,15 +113,17 @@ static int make_dir(const char *dir)
 		if (stat(dir, &st) == 0 && S_ISDIR(st.st_mode))
 			return 0;
 	}
-	fprintf(stderr, "opwin compare: %s: cannot create the output folder: "
-		"%s\n", dir, strerror(errno));
+	fprintf(stderr,
+	        "opwin compare: %s: cannot create the output folder: "
+	        "%s\n",
+	        dir, strerror(errno));
 	return CLI_OUTPUT;
 }
 
 /* ---- the printed summary ---- */
 
-#define SHOW(dim, si) ow_display_value(o->c.units, dim, si), \
-		      ow_display_label(o->c.units, dim)
+#define SHOW(dim, si)                                                          \
+	ow_display_value(o->c.units, dim, si), ow_display_label(o->c.units, dim)
 
 /* Columns of UTF-8 text ("°C" is two bytes, one column). */
 static int columns(const char *s)
@@ -147,7 +149,7 @@ static void cell(const char *s, int width)
 
 /* Bounds as the reports print them: rounded towards the inside. */
 static void print_window(const char *name, const struct ow_window *w,
-			 const struct cmp_opts *o)
+                         const struct cmp_opts *o)
 {
 	enum ow_unit_system u = o->c.units;
 	char rpm[64], set[64], c[2][32];
@@ -159,21 +161,22 @@ static void print_window(const char *name, const struct ow_window *w,
 		return;
 	}
 	ow_compare_format_range(rpm, sizeof rpm, w->rpm_min, w->rpm_max,
-				OW_REPORT_RPM_DECIMALS);
+	                        OW_REPORT_RPM_DECIMALS);
 	ow_compare_format_range(
-		set, sizeof set,
-		ow_display_value(u, OW_DIM_TEMPERATURE, w->set_min_K),
-		ow_display_value(u, OW_DIM_TEMPERATURE, w->set_max_K),
-		OW_REPORT_TEMP_DECIMALS);
+	    set, sizeof set,
+	    ow_display_value(u, OW_DIM_TEMPERATURE, w->set_min_K),
+	    ow_display_value(u, OW_DIM_TEMPERATURE, w->set_max_K),
+	    OW_REPORT_TEMP_DECIMALS);
 	ow_report_format_bound(c[0], sizeof c[0], w->centre.rpm,
-			       OW_REPORT_RPM_DECIMALS, OW_ROUND_NEAREST);
+	                       OW_REPORT_RPM_DECIMALS, OW_ROUND_NEAREST);
 	ow_report_format_bound(
-		c[1], sizeof c[1],
-		ow_display_value(u, OW_DIM_TEMPERATURE, w->centre_set_K),
-		OW_REPORT_TEMP_DECIMALS + 1, OW_ROUND_NEAREST);
+	    c[1], sizeof c[1],
+	    ow_display_value(u, OW_DIM_TEMPERATURE, w->centre_set_K),
+	    OW_REPORT_TEMP_DECIMALS + 1, OW_ROUND_NEAREST);
 	printf("%s rpm, %s %s;  centre %s rpm at %s %s;  %.0f %% of the map "
-	       "safe\n", rpm, set, ow_display_label(u, OW_DIM_TEMPERATURE),
-	       c[0], c[1], ow_display_label(u, OW_DIM_TEMPERATURE),
+	       "safe\n",
+	       rpm, set, ow_display_label(u, OW_DIM_TEMPERATURE), c[0], c[1],
+	       ow_display_label(u, OW_DIM_TEMPERATURE),
 	       100.0 * w->safe_fraction);
 }
 
@@ -192,8 +195,8 @@ static void print_limits(const char *lead, const int *counts)
 }
 
 static void print_row(const struct ow_compare *cmp,
-		      const struct ow_cmp_point *p, int i,
-		      const struct cmp_opts *o)
+                      const struct ow_cmp_point *p, int i,
+                      const struct cmp_opts *o)
 {
 	const char *unit = ow_compare_figure_unit(i, o->c.units);
 	int dec = ow_compare_figure_decimals(i, o->c.units), k;
@@ -202,9 +205,9 @@ static void print_row(const struct ow_compare *cmp,
 
 	for (k = 0; k < 2; k++)
 		v[k] = ow_compare_figure_shown(cmp->study[k], &p->pt[k], i,
-					       o->c.units);
+		                               o->c.units);
 	snprintf(buf, sizeof buf, "%s%s%s", ow_compare_figure_text(i),
-		 *unit ? ", " : "", unit);
+	         *unit ? ", " : "", unit);
 	printf("  ");
 	cell(buf, 40);
 	for (k = 0; k < 2; k++) {
@@ -229,7 +232,7 @@ static int same_as_earlier(const struct ow_compare *cmp, enum ow_cmp_at at)
 }
 
 static void print_point(const struct ow_compare *cmp, enum ow_cmp_at at,
-			const struct cmp_opts *o)
+                        const struct cmp_opts *o)
 {
 	const struct ow_cmp_point *p = &cmp->at[at];
 	char diff[64];
@@ -259,8 +262,7 @@ static void print_point(const struct ow_compare *cmp, enum ow_cmp_at at,
 	printf("\n");
 }
 
-static void print_inputs(const struct ow_compare *cmp,
-			 const struct cmp_opts *o)
+static void print_inputs(const struct ow_compare *cmp, const struct cmp_opts *o)
 {
 	struct ow_input_diff *e = malloc(sizeof *e * MAX_DIFFS);
 	int n, i;
@@ -268,29 +270,37 @@ static void print_inputs(const struct ow_compare *cmp,
 	if (!e)
 		return;
 	n = ow_compare_inputs(cmp->study[0], cmp->study[1], o->c.units, e,
-			      MAX_DIFFS);
+	                      MAX_DIFFS);
 	printf("\nInputs that differ (%d):\n", n);
 	for (i = 0; i < n && i < 12; i++)
 		printf("  %-36s %s -> %s\n", e[i].field, e[i].a, e[i].b);
 	if (n > 12)
-		printf("  ... and %d more (compare.json, compare.pdf)\n", n - 12);
+		printf("  ... and %d more (compare.json, compare.pdf)\n",
+		       n - 12);
 	free(e);
 }
 
 static void print_summary(const struct ow_compare *cmp,
-			  const struct cmp_opts *o)
+                          const struct cmp_opts *o)
 {
-	printf("A (%s): %s\nB (%s): %s\n\nRecommended windows (screw speed, "
-	       "reference zone set-point)\n",
-	       o->label[0], cmp->study[0]->title, o->label[1],
-	       cmp->study[1]->title);
+	int k;
+
+	for (k = 0; k < 2; k++)
+		if (strcmp(o->label[k], k ? "B" : "A"))
+			printf("%s (%s): %s\n", k ? "B" : "A", o->label[k],
+			       cmp->study[k]->title);
+		else
+			printf("%s: %s\n", o->label[k], cmp->study[k]->title);
+	printf("\nRecommended windows (screw speed, reference zone "
+	       "set-point)\n");
 	print_window(o->label[0], cmp->win[0], o);
 	print_window(o->label[1], cmp->win[1], o);
 	print_window("common", cmp->common[0], o);
 	printf("\nGrid points: safe in both %d, only in %s %d, only in %s %d, "
-	       "in neither %d\n", cmp->count[OW_CMP_BOTH], o->label[0],
-	       cmp->count[OW_CMP_A_ONLY], o->label[1],
-	       cmp->count[OW_CMP_B_ONLY], cmp->count[OW_CMP_NEITHER]);
+	       "in neither %d\n",
+	       cmp->count[OW_CMP_BOTH], o->label[0], cmp->count[OW_CMP_A_ONLY],
+	       o->label[1], cmp->count[OW_CMP_B_ONLY],
+	       cmp->count[OW_CMP_NEITHER]);
 	printf("Limits binding %s:", o->label[0]);
 	print_limits("", cmp->win[0]->fail_count);
 	printf("Limits binding %s:", o->label[1]);
@@ -314,11 +324,11 @@ static void print_summary(const struct ow_compare *cmp,
 /* ---- outputs ---- */
 
 static int write_text(const char *dir, const char *name, char *text,
-		      enum ow_status st, struct ow_diag *d)
+                      enum ow_status st, struct ow_diag *d)
 {
 	char path[OW_PATH_LEN];
 
-	if (st == OW_OK) {
+	if (st == OW_OK && text) {
 		snprintf(path, sizeof path, "%s/%s", dir, name);
 		st = ow_results_write_file(path, text, strlen(text), d);
 	}
@@ -326,8 +336,7 @@ static int write_text(const char *dir, const char *name, char *text,
 	return st == OW_OK ? CLI_OK : cli_fail("compare", st, d);
 }
 
-static int write_outputs(const struct ow_compare *cmp,
-			 const struct cmp_opts *o)
+static int write_outputs(const struct ow_compare *cmp, const struct cmp_opts *o)
 {
 	struct ow_compare_draw_options dopt;
 	struct ow_diag d = {{0}};
@@ -335,12 +344,13 @@ static int write_outputs(const struct ow_compare *cmp,
 	enum ow_status st;
 	int rc;
 
-	rc = write_text(o->dir, "compare.json", text,
-			ow_compare_json(cmp, &text, &d), &d);
+	st = ow_compare_json(cmp, &text, &d); /* before text is read */
+	rc = write_text(o->dir, "compare.json", text, st, &d);
 	text = NULL;
-	if (!rc)
-		rc = write_text(o->dir, "compare.csv", text,
-				ow_compare_csv(cmp, &text, &d), &d);
+	if (!rc) {
+		st = ow_compare_csv(cmp, &text, &d);
+		rc = write_text(o->dir, "compare.csv", text, st, &d);
+	}
 	if (rc)
 		return rc;
 	ow_compare_draw_default(&dopt);
@@ -356,7 +366,7 @@ static int write_outputs(const struct ow_compare *cmp,
 }
 
 static int run(const struct ow_study *a, const struct ow_study *b,
-	       const struct cmp_opts *o)
+               const struct cmp_opts *o)
 {
 	struct ow_sweep_config cfg;
 	struct ow_compare *cmp = NULL;
@@ -371,7 +381,7 @@ static int run(const struct ow_study *a, const struct ow_study *b,
 	cfg.axis_steps = o->axis_steps;
 	if (!o->c.quiet && isatty(STDERR_FILENO)) {
 		cfg.progress = show_progress;
-		cfg.progress_ctx = (void *)"A and B";
+		cfg.progress_ctx = (void *)"A, then B";
 	}
 	st = ow_compare_run(a, b, &cfg, &cmp, &d);
 	if (st != OW_OK)
@@ -382,7 +392,8 @@ static int run(const struct ow_study *a, const struct ow_study *b,
 	if (!rc && !o->c.quiet) {
 		print_summary(cmp, o);
 		printf("\nwritten to %s/ (compare.json, compare.csv, "
-		       "compare.png, compare.svg, compare.pdf)\n", o->dir);
+		       "compare.png, compare.svg, compare.pdf)\n",
+		       o->dir);
 	}
 	ow_compare_destroy(cmp);
 	return rc;
@@ -392,14 +403,14 @@ static int run(const struct ow_study *a, const struct ow_study *b,
 static int parse(int argc, char **argv, struct cmp_opts *o)
 {
 	static const struct option opts[] = {
-		CLI_COMMON_LONGOPTS,
-		{"output", required_argument, NULL, 'o'},
-		{"grid", required_argument, NULL, 'g'},
-		{"refine", required_argument, NULL, 'r'},
-		{"label-a", required_argument, NULL, 'A'},
-		{"label-b", required_argument, NULL, 'B'},
-		{"date", required_argument, NULL, 'D'},
-		{NULL, 0, NULL, 0},
+	    CLI_COMMON_LONGOPTS,
+	    {"output", required_argument, NULL, 'o'},
+	    {"grid", required_argument, NULL, 'g'},
+	    {"refine", required_argument, NULL, 'r'},
+	    {"label-a", required_argument, NULL, 'A'},
+	    {"label-b", required_argument, NULL, 'B'},
+	    {"date", required_argument, NULL, 'D'},
+	    {NULL, 0, NULL, 0},
 	};
 	char *end;
 	long k;
@@ -408,45 +419,57 @@ static int parse(int argc, char **argv, struct cmp_opts *o)
 	optind = 1;
 	while ((id = getopt_long(argc, argv, "ho:q", opts, NULL)) != -1) {
 		switch (id) {
-		case 'h': help(); return CLI_OK;
-		case 'V': cli_version(); return CLI_OK;
-		case 'o': o->dir = optarg; break;
-		case 'A': o->label[0] = optarg; break;
-		case 'B': o->label[1] = optarg; break;
+		case 'h':
+			help();
+			return CLI_OK;
+		case 'V':
+			cli_version();
+			return CLI_OK;
+		case 'o':
+			o->dir = optarg;
+			break;
+		case 'A':
+			o->label[0] = optarg;
+			break;
+		case 'B':
+			o->label[1] = optarg;
+			break;
 		case 'g':
 			if (parse_grid(optarg, &o->rpm_steps, &o->axis_steps))
-				return cli_usage_error("compare", "--grid takes "
-						       "NxM, 2..1000 each");
+				return cli_usage_error("compare",
+				                       "--grid takes "
+				                       "NxM, 2..1000 each");
 			break;
 		case 'r':
 			k = strtol(optarg, &end, 10);
 			if (*end || !*optarg || k < 0 || k > 4)
 				return cli_usage_error("compare",
-						       "--refine takes 0..4");
+				                       "--refine takes 0..4");
 			o->refine = (int)k;
 			break;
 		case 'D':
 			if (!valid_date(optarg))
-				return cli_usage_error("compare", "--date takes "
-						       "YYYY-MM-DD");
+				return cli_usage_error("compare",
+				                       "--date takes "
+				                       "YYYY-MM-DD");
 			o->date = optarg;
 			break;
 		default:
 			if ((rc = cli_common_option("compare", &o->c, id,
-						    optarg)))
+			                            optarg)))
 				return rc;
 		}
 	}
 	if (optind != argc - 2)
 		return cli_usage_error("compare", "expects two studies: "
-					      "A.json B.json");
+		                                  "A.json B.json");
 	return -1;
 }
 
 int cmd_compare(int argc, char **argv)
 {
-	struct cmp_opts o = {{OW_SYS_SI, 0, 0}, "opwin-compare", {"A", "B"},
-			     NULL, 0, 0, 0};
+	struct cmp_opts o = {
+	    {OW_SYS_SI, 0, 0}, "opwin-compare", {"A", "B"}, NULL, 0, 0, 0};
 	struct ow_units *u[2] = {NULL, NULL};
 	struct ow_study *s[2] = {NULL, NULL};
 	char date[16];

@@ -9,7 +9,7 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define C_OF_K(k) ((k) - OW_ZERO_C_K)
+#define C_OF_K(k) ((k)-OW_ZERO_C_K)
 
 /* ---- axes ---------------------------------------------------------------- */
 
@@ -20,26 +20,27 @@ static int same(double x, double y)
 
 static const char *mode_name(enum ow_axis_mode m)
 {
-	return m == OW_AXIS_SET ? "set" : (m == OW_AXIS_ZONE ? "zone" : "shift");
+	return m == OW_AXIS_SET ? "set"
+	                        : (m == OW_AXIS_ZONE ? "zone" : "shift");
 }
 
 /* "<A> and <B>: <field> differs (A: <va>, B: <vb>): <why>". */
 static enum ow_status axes_differ(const struct ow_study *a,
-				  const struct ow_study *b, const char *field,
-				  const char *va, const char *vb,
-				  struct ow_diag *d)
+                                  const struct ow_study *b, const char *field,
+                                  const char *va, const char *vb,
+                                  struct ow_diag *d)
 {
 	return ow_diag_set(d, OW_EINPUT,
-			   "%s and %s: %s differs (A: %s, B: %s): compare "
-			   "solves both studies on one lattice, so their "
-			   "sweeps must be equal",
-			   a->path, b->path, field, va, vb);
+	                   "%s and %s: %s differs (A: %s, B: %s): compare "
+	                   "solves both studies on one lattice, so their "
+	                   "sweeps must be equal",
+	                   a->path, b->path, field, va, vb);
 }
 
 static enum ow_status num_field(const struct ow_study *a,
-				const struct ow_study *b, const char *field,
-				double x, double y, const char *unit,
-				struct ow_diag *d)
+                                const struct ow_study *b, const char *field,
+                                double x, double y, const char *unit,
+                                struct ow_diag *d)
 {
 	char va[48], vb[48];
 
@@ -53,8 +54,8 @@ static enum ow_status num_field(const struct ow_study *a,
 /* The reference zone's absolute set-point at both ends of the axis: with
  * mode shift it depends on each study's own last zone. */
 static enum ow_status reference_zone(const struct ow_study *a,
-				     const struct ow_study *b,
-				     struct ow_diag *d)
+                                     const struct ow_study *b,
+                                     struct ow_diag *d)
 {
 	const struct ow_axes *x = &a->line.axes;
 	char field[64];
@@ -62,49 +63,51 @@ static enum ow_status reference_zone(const struct ow_study *a,
 	double ta = ow_sweep_set_ref(a, x->axis_from);
 	double tb = ow_sweep_set_ref(b, x->axis_from);
 
-	if (same(ta, tb) &&
-	    same(ow_sweep_set_ref(a, x->axis_to), ow_sweep_set_ref(b, x->axis_to)))
+	if (same(ta, tb) && same(ow_sweep_set_ref(a, x->axis_to),
+	                         ow_sweep_set_ref(b, x->axis_to)))
 		return OW_OK;
-	snprintf(field, sizeof field, "barrel.zones[%d].set (the reference "
-		 "zone of the set-point axis)", za);
-	return num_field(a, b, field, C_OF_K(a->line.zones[za].set_K),
-			 C_OF_K(b->line.zones[ow_line_reference_zone(&b->line)]
-					.set_K),
-			 "degC", d);
+	snprintf(field, sizeof field,
+	         "barrel.zones[%d].set (the reference "
+	         "zone of the set-point axis)",
+	         za);
+	return num_field(
+	    a, b, field, C_OF_K(a->line.zones[za].set_K),
+	    C_OF_K(b->line.zones[ow_line_reference_zone(&b->line)].set_K),
+	    "degC", d);
 }
 
 static enum ow_status barrel_axis(const struct ow_study *a,
-				  const struct ow_study *b, int steps,
-				  struct ow_diag *d)
+                                  const struct ow_study *b, int steps,
+                                  struct ow_diag *d)
 {
 	const struct ow_axes *x = &a->line.axes, *y = &b->line.axes;
 	const char *u = x->mode == OW_AXIS_SHIFT ? "K" : "K (absolute)";
 	enum ow_status st = OW_OK;
 
 	if (x->mode != y->mode)
-		return axes_differ(a, b, "sweep.barrel.mode", mode_name(x->mode),
-				   mode_name(y->mode), d);
-	st = num_field(a, b, "sweep.barrel.from", x->axis_from, y->axis_from,
-		       u, d);
+		return axes_differ(a, b, "sweep.barrel.mode",
+		                   mode_name(x->mode), mode_name(y->mode), d);
+	st = num_field(a, b, "sweep.barrel.from", x->axis_from, y->axis_from, u,
+	               d);
 	if (st == OW_OK)
 		st = num_field(a, b, "sweep.barrel.to", x->axis_to, y->axis_to,
-			       u, d);
+		               u, d);
 	if (st == OW_OK && steps)
 		st = num_field(a, b, "sweep.barrel.steps", x->axis_steps,
-			       y->axis_steps, "", d);
+		               y->axis_steps, "", d);
 	if (st == OW_OK && x->mode == OW_AXIS_SET)
 		st = num_field(a, b, "sweep.barrel.zones_from",
-			       x->zones_from + 1, y->zones_from + 1, "", d);
+		               x->zones_from + 1, y->zones_from + 1, "", d);
 	if (st == OW_OK && x->mode == OW_AXIS_ZONE)
 		st = num_field(a, b, "sweep.barrel.zone", x->zone + 1,
-			       y->zone + 1, "", d);
+		               y->zone + 1, "", d);
 	return st == OW_OK ? reference_zone(a, b, d) : st;
 }
 
 enum ow_status ow_compare_check_axes(const struct ow_study *a,
-				     const struct ow_study *b,
-				     const struct ow_sweep_config *c,
-				     struct ow_diag *d)
+                                     const struct ow_study *b,
+                                     const struct ow_sweep_config *c,
+                                     struct ow_diag *d)
 {
 	const struct ow_axes *x, *y;
 	enum ow_status st;
@@ -114,17 +117,18 @@ enum ow_status ow_compare_check_axes(const struct ow_study *a,
 	x = &a->line.axes;
 	y = &b->line.axes;
 	if (x->rpm_steps < 2 || y->rpm_steps < 2)
-		return ow_diag_set(d, OW_EINPUT, "%s: sweep: the study has no "
-				   "sweep (sweep.rpm and sweep.barrel)",
-				   x->rpm_steps < 2 ? a->path : b->path);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "%s: sweep: the study has no "
+		                   "sweep (sweep.rpm and sweep.barrel)",
+		                   x->rpm_steps < 2 ? a->path : b->path);
 	st = num_field(a, b, "sweep.rpm.from", x->rpm_from, y->rpm_from, "rpm",
-		       d);
+	               d);
 	if (st == OW_OK)
 		st = num_field(a, b, "sweep.rpm.to", x->rpm_to, y->rpm_to,
-			       "rpm", d);
+		               "rpm", d);
 	if (st == OW_OK && !(c && c->rpm_steps > 0))
 		st = num_field(a, b, "sweep.rpm.steps", x->rpm_steps,
-			       y->rpm_steps, "", d);
+		               y->rpm_steps, "", d);
 	if (st == OW_OK)
 		st = barrel_axis(a, b, !(c && c->axis_steps > 0), d);
 	return st;
@@ -135,8 +139,8 @@ enum ow_status ow_compare_check_axes(const struct ow_study *a,
 /* Unsafe if unsafe in A or in B: bits OR-ed; margins min-ed (fmin keeps
  * the one that is set when the other study sets no such limit). */
 static void combine_point(const struct ow_grid_point *p,
-			  const struct ow_grid_point *q, int take_b,
-			  struct ow_grid_point *out)
+                          const struct ow_grid_point *q, int take_b,
+                          struct ow_grid_point *out)
 {
 	int c;
 
@@ -150,8 +154,8 @@ static void combine_point(const struct ow_grid_point *p,
 }
 
 enum ow_status ow_compare_combine(const struct ow_grid *a,
-				  const struct ow_grid *b, int take_b,
-				  struct ow_grid **out, struct ow_diag *d)
+                                  const struct ow_grid *b, int take_b,
+                                  struct ow_grid **out, struct ow_diag *d)
 {
 	struct ow_grid *g;
 	int i, n;
@@ -159,8 +163,9 @@ enum ow_status ow_compare_combine(const struct ow_grid *a,
 	*out = NULL;
 	if (!a || !b || a->n_rpm != b->n_rpm || a->n_axis != b->n_axis ||
 	    a->stride != b->stride)
-		return ow_diag_set(d, OW_EARG, "compare: the two lattices "
-				   "differ in size");
+		return ow_diag_set(d, OW_EARG,
+		                   "compare: the two lattices "
+		                   "differ in size");
 	n = a->n_rpm * a->n_axis;
 	g = calloc(1, sizeof *g);
 	if (g)
@@ -188,7 +193,7 @@ static void merge_limit(double *mine, double theirs)
 }
 
 struct ow_study *ow_compare_merged_study(const struct ow_study *s,
-					 const struct ow_study *other)
+                                         const struct ow_study *other)
 {
 	struct ow_study *m = malloc(sizeof *m);
 	struct ow_limits *l;
@@ -213,7 +218,7 @@ struct ow_study *ow_compare_merged_study(const struct ow_study *s,
 /* ---- classes and the limits behind them ---------------------------------- */
 
 enum ow_cmp_class ow_compare_class_at(const struct ow_compare *cmp, int ir,
-				      int ia)
+                                      int ia)
 {
 	return (enum ow_cmp_class)cmp->cls[ia * cmp->n_rpm + ir];
 }
@@ -224,7 +229,7 @@ static void classify_points(struct ow_compare *cmp)
 
 	for (i = 0; i < n; i++) {
 		unsigned bits[2] = {cmp->grid[0]->pts[i].v.bits,
-				    cmp->grid[1]->pts[i].v.bits};
+		                    cmp->grid[1]->pts[i].v.bits};
 		int cls = (bits[0] == 0) | (bits[1] == 0) << 1;
 
 		cmp->cls[i] = (unsigned char)cls;
@@ -240,11 +245,11 @@ static void classify_points(struct ow_compare *cmp)
 
 /* ---- both cases at the centres ------------------------------------------- */
 
-static const char *const at_keys[OW_CMP_AT_COUNT] = {
-	"common_centre", "a_centre", "b_centre"};
+static const char *const at_keys[OW_CMP_AT_COUNT] = {"common_centre",
+                                                     "a_centre", "b_centre"};
 static const char *const at_texts[OW_CMP_AT_COUNT] = {
-	"centre of the common window", "centre of A's window",
-	"centre of B's window"};
+    "centre of the common window", "centre of A's window",
+    "centre of B's window"};
 
 const char *ow_compare_at_key(enum ow_cmp_at at)
 {
@@ -259,8 +264,8 @@ const char *ow_compare_at_text(enum ow_cmp_at at)
 /* Solve each case alone at (rpm, axis), cold-started as `opwin point`
  * does, so the figures are what a single run there gives. */
 static enum ow_status solve_at(struct ow_compare *cmp, struct ow_solver **sv,
-			       const struct ow_window *w,
-			       struct ow_cmp_point *p, struct ow_diag *d)
+                               const struct ow_window *w,
+                               struct ow_cmp_point *p, struct ow_diag *d)
 {
 	double set_K[OW_MAX_ZONES];
 	int k;
@@ -281,17 +286,16 @@ static enum ow_status solve_at(struct ow_compare *cmp, struct ow_solver **sv,
 		if (st != OW_OK)
 			return st;
 		ow_classify(&p->pt[k], &s->line.limits,
-			    ow_screw_length(&s->screw), &p->v[k]);
+		            ow_screw_length(&s->screw), &p->v[k]);
 	}
 	return OW_OK;
 }
 
-static enum ow_status solve_centres(struct ow_compare *cmp,
-				    struct ow_diag *d)
+static enum ow_status solve_centres(struct ow_compare *cmp, struct ow_diag *d)
 {
 	struct ow_solver *sv[2] = {NULL, NULL};
-	const struct ow_window *w[OW_CMP_AT_COUNT] = {
-		cmp->common[0], cmp->win[0], cmp->win[1]};
+	const struct ow_window *w[OW_CMP_AT_COUNT] = {cmp->common[0],
+	                                              cmp->win[0], cmp->win[1]};
 	enum ow_status st = OW_OK;
 	int k;
 
@@ -325,43 +329,71 @@ void ow_compare_destroy(struct ow_compare *cmp)
 /* The common window of case k: the combined lattice with k's figures,
  * judged by the union of both studies' limits. */
 static enum ow_status common_window(struct ow_compare *cmp, int k,
-				    struct ow_diag *d)
+                                    struct ow_diag *d)
 {
-	struct ow_study *m = ow_compare_merged_study(cmp->study[k],
-						     cmp->study[1 - k]);
+	struct ow_study *m =
+	    ow_compare_merged_study(cmp->study[k], cmp->study[1 - k]);
 	enum ow_status st;
 
 	if (!m)
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	st = ow_compare_combine(cmp->grid[0], cmp->grid[1], k,
-				&cmp->common_grid[k], d);
+	                        &cmp->common_grid[k], d);
 	if (st == OW_OK)
 		st = ow_window_extract(m, cmp->common_grid[k], &cmp->common[k],
-				       d);
+		                       d);
 	free(m);
 	return st;
 }
 
-static enum ow_status sweep_both(struct ow_compare *cmp,
-				 const struct ow_sweep_config *c,
-				 struct ow_diag *d)
+/* Progress of the two sweeps as one: A's points first, then B's (B's
+ * count taken as A's until B reports its own). */
+struct progress2 {
+	const struct ow_sweep_config *user;
+	int k, offset, total_a;
+};
+
+static void progress2(void *ctx, int done, int total)
 {
+	struct progress2 *p = ctx;
+
+	if (p->k == 0) {
+		p->total_a = total;
+		p->user->progress(p->user->progress_ctx, done, 2 * total);
+	} else {
+		p->user->progress(p->user->progress_ctx, p->offset + done,
+		                  p->offset + total);
+	}
+}
+
+static enum ow_status sweep_both(struct ow_compare *cmp,
+                                 const struct ow_sweep_config *c,
+                                 struct ow_diag *d)
+{
+	struct ow_sweep_config each = *c;
+	struct progress2 pr = {c, 0, 0, 0};
 	enum ow_status st = OW_OK;
 	int k;
 
+	if (c->progress) {
+		each.progress = progress2;
+		each.progress_ctx = &pr;
+	}
 	for (k = 0; k < 2 && st == OW_OK; k++) {
-		st = ow_sweep_run(cmp->study[k], c, &cmp->grid[k], d);
+		pr.k = k;
+		st = ow_sweep_run(cmp->study[k], &each, &cmp->grid[k], d);
 		if (st == OW_OK)
 			st = ow_window_extract(cmp->study[k], cmp->grid[k],
-					       &cmp->win[k], d);
+			                       &cmp->win[k], d);
+		pr.offset = pr.total_a;
 	}
 	return st;
 }
 
 enum ow_status ow_compare_run(const struct ow_study *a,
-			      const struct ow_study *b,
-			      const struct ow_sweep_config *c,
-			      struct ow_compare **out, struct ow_diag *d)
+                              const struct ow_study *b,
+                              const struct ow_sweep_config *c,
+                              struct ow_compare **out, struct ow_diag *d)
 {
 	struct ow_compare *cmp = NULL;
 	enum ow_status st;
@@ -402,21 +434,21 @@ fail:
 /* ---- the figures compared ------------------------------------------------ */
 
 struct cmp_figure {
-	const char *key;  /* ow_results_figure_key */
+	const char *key; /* ow_results_figure_key */
 	const char *text;
 	enum ow_dim dim;
 };
 
 static const struct cmp_figure figures[] = {
-	{"output_kg_h", "throughput", OW_DIM_MASS_FLOW},
-	{"discharge_pressure_MPa", "discharge pressure", OW_DIM_PRESSURE},
-	{"max_pressure_MPa", "highest pressure on the screw", OW_DIM_PRESSURE},
-	{"discharge_bulk_temp_C", "bulk melt temperature at discharge",
-	 OW_DIM_TEMPERATURE},
-	{"peak_temp_C", "peak melt temperature", OW_DIM_TEMPERATURE},
-	{"unmelt_fraction", "unmelted fraction at discharge", OW_DIM_NONE},
-	{"power_kW", "drive power", OW_DIM_POWER},
-	{"sec_kWh_kg", "specific energy (drive)", OW_DIM_SPECIFIC_ENERGY},
+    {"output_kg_h", "throughput", OW_DIM_MASS_FLOW},
+    {"discharge_pressure_MPa", "discharge pressure", OW_DIM_PRESSURE},
+    {"max_pressure_MPa", "highest pressure on the screw", OW_DIM_PRESSURE},
+    {"discharge_bulk_temp_C", "bulk melt temperature at discharge",
+     OW_DIM_TEMPERATURE},
+    {"peak_temp_C", "peak melt temperature", OW_DIM_TEMPERATURE},
+    {"unmelt_fraction", "unmelted fraction at discharge", OW_DIM_NONE},
+    {"power_kW", "drive power", OW_DIM_POWER},
+    {"sec_kWh_kg", "specific energy (drive)", OW_DIM_SPECIFIC_ENERGY},
 };
 
 #define N_FIGURES ((int)(sizeof figures / sizeof figures[0]))
@@ -451,17 +483,23 @@ enum ow_dim ow_compare_figure_dim(int i)
 /* The figure in SI from the point's fields (the results module prints its
  * output keys in their own units: convert those back to SI first). */
 static double figure_si(const struct ow_study *s, const struct ow_point *pt,
-			int i)
+                        int i)
 {
 	double v = ow_results_figure(s, pt, ow_compare_figure_index(i));
 
 	switch (figures[i].dim) {
-	case OW_DIM_MASS_FLOW: return v / 3600.0;
-	case OW_DIM_PRESSURE: return v * 1e6;
-	case OW_DIM_TEMPERATURE: return v + OW_ZERO_C_K;
-	case OW_DIM_POWER: return v * 1e3;
-	case OW_DIM_SPECIFIC_ENERGY: return v * 3.6e6;
-	default: return v;
+	case OW_DIM_MASS_FLOW:
+		return v / 3600.0;
+	case OW_DIM_PRESSURE:
+		return v * 1e6;
+	case OW_DIM_TEMPERATURE:
+		return v + OW_ZERO_C_K;
+	case OW_DIM_POWER:
+		return v * 1e3;
+	case OW_DIM_SPECIFIC_ENERGY:
+		return v * 3.6e6;
+	default:
+		return v;
 	}
 }
 
@@ -472,8 +510,8 @@ static int percent(int i)
 }
 
 double ow_compare_figure_shown(const struct ow_study *s,
-			       const struct ow_point *pt, int i,
-			       enum ow_unit_system sys)
+                               const struct ow_point *pt, int i,
+                               enum ow_unit_system sys)
 {
 	double si;
 
@@ -481,7 +519,7 @@ double ow_compare_figure_shown(const struct ow_study *s,
 		return NAN;
 	si = figure_si(s, pt, i);
 	return percent(i) ? 100.0 * si
-			  : ow_display_value(sys, figures[i].dim, si);
+	                  : ow_display_value(sys, figures[i].dim, si);
 }
 
 const char *ow_compare_figure_unit(int i, enum ow_unit_system sys)
@@ -494,11 +532,17 @@ const char *ow_compare_figure_unit(int i, enum ow_unit_system sys)
 int ow_compare_figure_decimals(int i, enum ow_unit_system sys)
 {
 	switch (ow_compare_figure_dim(i)) {
-	case OW_DIM_MASS_FLOW: return 1;
-	case OW_DIM_PRESSURE: return sys == OW_SYS_US ? 0 : 2;
-	case OW_DIM_TEMPERATURE: return 1;
-	case OW_DIM_POWER: return 2;
-	case OW_DIM_SPECIFIC_ENERGY: return 4;
-	default: return 2;
+	case OW_DIM_MASS_FLOW:
+		return 1;
+	case OW_DIM_PRESSURE:
+		return sys == OW_SYS_US ? 0 : 2;
+	case OW_DIM_TEMPERATURE:
+		return 1;
+	case OW_DIM_POWER:
+		return 2;
+	case OW_DIM_SPECIFIC_ENERGY:
+		return 4;
+	default:
+		return 2;
 	}
 }

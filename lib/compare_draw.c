@@ -15,9 +15,9 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define OW_PI 3.14159265358979323846
+#define OW_PI      3.14159265358979323846
 #define TINT_ALPHA 0.20
-#define MAX_TAKEN 8
+#define MAX_TAKEN  8
 
 struct case_style {
 	double r, g, b;
@@ -27,8 +27,8 @@ struct case_style {
 };
 
 static const struct case_style styles[2] = {
-	{0.00, 0.447, 0.698, OW_DASH_SOLID, OW_MARK_CIRCLE, 45.0},
-	{0.835, 0.369, 0.00, OW_DASH_DASHED, OW_MARK_SQUARE, 135.0},
+    {0.00, 0.447, 0.698, OW_DASH_SOLID, OW_MARK_CIRCLE, 45.0},
+    {0.835, 0.369, 0.00, OW_DASH_DASHED, OW_MARK_SQUARE, 135.0},
 };
 
 static struct ow_rgba ink(int k)
@@ -39,15 +39,15 @@ static struct ow_rgba ink(int k)
 static struct ow_hatch hatch(int k)
 {
 	struct ow_hatch h = {styles[k].hatch_deg, 5.0, 0.7,
-			     ow_rgba_with_alpha(ink(k), 0.8)};
+	                     ow_rgba_with_alpha(ink(k), 0.8)};
 
 	return h;
 }
 
 char *ow_compare_format_range(char *buf, size_t n, double lo, double hi,
-			      int decimals)
+                              int decimals)
 {
-	char a[32], b[32];
+	char a[32] = "", b[32] = "";
 	int dec;
 
 	for (dec = decimals; dec <= decimals + 2; dec++) {
@@ -90,7 +90,7 @@ static double shown_temp(enum ow_unit_system u, double K)
  * edge function): -1 where a flag fails, else the smallest margin of the
  * limits set, capped at 1. */
 static double edge_value(const struct ow_grid_point *p,
-			 const struct ow_limits *lim)
+                         const struct ow_limits *lim)
 {
 	double v = 1.0;
 	int c;
@@ -118,8 +118,8 @@ static void fields_free(struct fields *fs)
 }
 
 static enum ow_status fields_make(const struct ow_compare *cmp,
-				  enum ow_unit_system u, struct fields *fs,
-				  struct ow_diag *d)
+                                  enum ow_unit_system u, struct fields *fs,
+                                  struct ow_diag *d)
 {
 	size_t n = (size_t)cmp->n_rpm * (size_t)cmp->n_axis;
 	int i, k;
@@ -137,12 +137,12 @@ static enum ow_status fields_make(const struct ow_compare *cmp,
 	for (i = 0; i < cmp->n_rpm; i++)
 		fs->x[i] = ow_grid_at(cmp->grid[0], i, 0)->rpm;
 	for (i = 0; i < cmp->n_axis; i++)
-		fs->y[i] = shown_temp(u, ow_grid_at(cmp->grid[0], 0, i)
-						 ->set_ref_K);
+		fs->y[i] =
+		    shown_temp(u, ow_grid_at(cmp->grid[0], 0, i)->set_ref_K);
 	for (k = 0; k < 2; k++)
 		for (i = 0; i < (int)n; i++)
 			fs->e[k][i] = edge_value(&cmp->grid[k]->pts[i],
-						 &cmp->study[k]->line.limits);
+			                         &cmp->study[k]->line.limits);
 	fs->f = (struct ow_field){cmp->n_rpm, cmp->n_axis, fs->x, fs->y, fs->z};
 	return OW_OK;
 }
@@ -158,8 +158,8 @@ static void fields_set(struct fields *fs, double sa, double sb)
 }
 
 static enum ow_status regions(const struct ow_plot *p,
-			      const struct ow_compare *cmp,
-			      enum ow_unit_system u, struct ow_diag *d)
+                              const struct ow_compare *cmp,
+                              enum ow_unit_system u, struct ow_diag *d)
 {
 	struct fields fs;
 	struct ow_hatch h[2] = {hatch(0), hatch(1)};
@@ -169,15 +169,14 @@ static enum ow_status regions(const struct ow_plot *p,
 	if (st != OW_OK)
 		return st;
 	fields_set(&fs, -1.0, -1.0); /* safe in neither */
-	st = ow_plot_field_region(p, &fs.f, 0.0,
-				  ow_rgba_with_alpha(ow_rgb(0.45, 0.45, 0.45),
-						     0.30),
-				  NULL, d);
+	st = ow_plot_field_region(
+	    p, &fs.f, 0.0, ow_rgba_with_alpha(ow_rgb(0.45, 0.45, 0.45), 0.30),
+	    NULL, d);
 	for (k = 0; k < 2 && st == OW_OK; k++) {
 		fields_set(&fs, k ? -1.0 : 1.0, k ? 1.0 : -1.0); /* k only */
-		st = ow_plot_field_region(p, &fs.f, 0.0,
-					  ow_rgba_with_alpha(ink(k), TINT_ALPHA),
-					  &h[k], d);
+		st = ow_plot_field_region(
+		    p, &fs.f, 0.0, ow_rgba_with_alpha(ink(k), TINT_ALPHA),
+		    &h[k], d);
 	}
 	fields_free(&fs);
 	return st;
@@ -197,34 +196,34 @@ static const struct ow_boundary *edge_of(const struct ow_window *w)
 
 /* Polyline l of study s in plot data (rpm, shown set-point). */
 static struct ow_pt2 *edge_points(const struct ow_study *s,
-				  const struct ow_polyline *l,
-				  enum ow_unit_system u)
+                                  const struct ow_polyline *l,
+                                  enum ow_unit_system u)
 {
 	struct ow_pt2 *q = malloc(sizeof *q * (size_t)(l->n > 0 ? l->n : 1));
 	int i;
 
 	for (i = 0; q && i < l->n; i++)
-		q[i] = (struct ow_pt2){l->p[i].rpm,
-				       shown_temp(u, ow_sweep_set_ref(
-							     s, l->p[i].axis))};
+		q[i] = (struct ow_pt2){
+		    l->p[i].rpm,
+		    shown_temp(u, ow_sweep_set_ref(s, l->p[i].axis))};
 	return q;
 }
 
 static void draw_edges(const struct ow_plot *p, const struct ow_compare *cmp,
-		       enum ow_unit_system u)
+                       enum ow_unit_system u)
 {
 	int k, l;
 
 	for (k = 0; k < 2; k++) {
 		const struct ow_boundary *b = edge_of(cmp->win[k]);
 		struct ow_line_style halo = {ow_rgb(1, 1, 1), 4.2,
-					     OW_DASH_SOLID, OW_MARK_NONE};
+		                             OW_DASH_SOLID, OW_MARK_NONE};
 		struct ow_line_style ln = {ink(k), 2.2, styles[k].dash,
-					   OW_MARK_NONE};
+		                           OW_MARK_NONE};
 
 		for (l = 0; b && l < b->n_lines; l++) {
-			struct ow_pt2 *q = edge_points(cmp->study[k],
-						       &b->lines[l], u);
+			struct ow_pt2 *q =
+			    edge_points(cmp->study[k], &b->lines[l], u);
 
 			if (!q)
 				continue;
@@ -236,8 +235,8 @@ static void draw_edges(const struct ow_plot *p, const struct ow_compare *cmp,
 }
 
 static void rect_of(const struct ow_plot *p, const struct ow_window *w,
-		    enum ow_unit_system u, double *x0, double *y0, double *x1,
-		    double *y1)
+                    enum ow_unit_system u, double *x0, double *y0, double *x1,
+                    double *y1)
 {
 	*x0 = ow_plot_px(p, w->rpm_min);
 	*x1 = ow_plot_px(p, w->rpm_max);
@@ -246,7 +245,7 @@ static void rect_of(const struct ow_plot *p, const struct ow_window *w,
 }
 
 static void draw_common(const struct ow_plot *p, const struct ow_window *w,
-			enum ow_unit_system u)
+                        enum ow_unit_system u)
 {
 	double x0, y0, x1, y1;
 
@@ -266,23 +265,22 @@ static void draw_common(const struct ow_plot *p, const struct ow_window *w,
 }
 
 static void draw_centres(const struct ow_plot *p, const struct ow_compare *cmp,
-			 enum ow_unit_system u)
+                         enum ow_unit_system u)
 {
 	const struct ow_window *c = cmp->common[0];
 	int k;
 
 	if (!c->empty)
 		ow_plot_marker(p, c->centre.rpm, shown_temp(u, c->centre_set_K),
-			       OW_MARK_DIAMOND, 15.0, ow_rgb(1, 1, 1),
-			       ow_rgb(0, 0, 0));
+		               OW_MARK_DIAMOND, 15.0, ow_rgb(1, 1, 1),
+		               ow_rgb(0, 0, 0));
 	for (k = 0; k < 2; k++) {
 		const struct ow_window *w = cmp->win[k];
 
 		if (!w->empty)
-			ow_plot_marker(p, w->centre.rpm,
-				       shown_temp(u, w->centre_set_K),
-				       styles[k].marker, 8.0, ow_rgb(1, 1, 1),
-				       ink(k));
+			ow_plot_marker(
+			    p, w->centre.rpm, shown_temp(u, w->centre_set_K),
+			    styles[k].marker, 8.0, ow_rgb(1, 1, 1), ink(k));
 	}
 }
 
@@ -294,7 +292,7 @@ struct taken {
 };
 
 static int is_free(const struct taken *t, double x0, double y0, double x1,
-		   double y1)
+                   double y1)
 {
 	int i;
 
@@ -318,19 +316,21 @@ static void take(struct taken *t, double x0, double y0, double x1, double y1)
 /* Canvas point at arc fraction f of polyline q (n points) and the line's
  * direction there, kept upright. */
 static void along(const struct ow_plot *p, const struct ow_pt2 *q, int n,
-		  double f, double *X, double *Y, double *ang)
+                  double f, double *X, double *Y, double *ang)
 {
 	double total = 0.0, s = 0.0;
 	int k;
 
 	for (k = 1; k < n; k++)
-		total += hypot(ow_plot_px(p, q[k].x) - ow_plot_px(p, q[k - 1].x),
-			       ow_plot_py(p, q[k].y) - ow_plot_py(p, q[k - 1].y));
+		total +=
+		    hypot(ow_plot_px(p, q[k].x) - ow_plot_px(p, q[k - 1].x),
+		          ow_plot_py(p, q[k].y) - ow_plot_py(p, q[k - 1].y));
 	*X = ow_plot_px(p, q[0].x);
 	*Y = ow_plot_py(p, q[0].y);
 	*ang = 0.0;
 	for (k = 1; k < n; k++) {
-		double x0 = ow_plot_px(p, q[k - 1].x), y0 = ow_plot_py(p, q[k - 1].y);
+		double x0 = ow_plot_px(p, q[k - 1].x),
+		       y0 = ow_plot_py(p, q[k - 1].y);
 		double x1 = ow_plot_px(p, q[k].x), y1 = ow_plot_py(p, q[k].y);
 		double ds = hypot(x1 - x0, y1 - y0);
 
@@ -340,8 +340,9 @@ static void along(const struct ow_plot *p, const struct ow_pt2 *q, int n,
 			*X = x0 + t * (x1 - x0);
 			*Y = y0 + t * (y1 - y0);
 			*ang = atan2(-(y1 - y0), x1 - x0) * 180.0 / OW_PI;
-			*ang = *ang > 90.0 ? *ang - 180.0
-			       : *ang < -90.0 ? *ang + 180.0 : *ang;
+			*ang = *ang > 90.0    ? *ang - 180.0
+			       : *ang < -90.0 ? *ang + 180.0
+			                      : *ang;
 			return;
 		}
 		s += ds;
@@ -351,7 +352,7 @@ static void along(const struct ow_plot *p, const struct ow_pt2 *q, int n,
 /* Try to put text along polyline q at a free place inside the data area;
  * returns 1 when placed. */
 static int place_on(const struct ow_plot *p, const struct ow_pt2 *q, int n,
-		    const char *text, int k, struct taken *t)
+                    const char *text, int k, struct taken *t)
 {
 	static const double frac[] = {0.5, 0.3, 0.7, 0.15, 0.85, 0.4, 0.6};
 	double fs = p->font_pt, tw, X, Y, ang;
@@ -379,8 +380,8 @@ static int place_on(const struct ow_plot *p, const struct ow_pt2 *q, int n,
 
 /* Each case's label on its own edge: the longest piece first. */
 static void label_edges(const struct ow_plot *p, const struct ow_compare *cmp,
-			const struct ow_compare_draw_options *o,
-			struct taken *t)
+                        const struct ow_compare_draw_options *o,
+                        struct taken *t)
 {
 	int k, l;
 
@@ -395,12 +396,12 @@ static void label_edges(const struct ow_plot *p, const struct ow_compare *cmp,
 				best = l;
 		for (l = -1; b && best >= 0 && l < b->n_lines && !placed; l++) {
 			int m = l < 0 ? best : l;
-			struct ow_pt2 *q = edge_points(cmp->study[k],
-						       &b->lines[m], o->units);
+			struct ow_pt2 *q =
+			    edge_points(cmp->study[k], &b->lines[m], o->units);
 
 			if (q && b->lines[m].n > 1)
-				placed = place_on(p, q, b->lines[m].n, text, k,
-						  t);
+				placed =
+				    place_on(p, q, b->lines[m].n, text, k, t);
 			free(q);
 		}
 	}
@@ -409,7 +410,7 @@ static void label_edges(const struct ow_plot *p, const struct ow_compare *cmp,
 /* "common window 20–68 rpm, 188–218 °C" by the rectangle's top-left
  * corner, inside when it fits, else above or below. */
 static void label_common(const struct ow_plot *p, const struct ow_window *w,
-			 enum ow_unit_system u, struct taken *t)
+                         enum ow_unit_system u, struct taken *t)
 {
 	char a[64], b[64], text[160];
 	double f = p->font_pt, x0, y0, x1, y1, tw, h = 1.4 * f, bx, by;
@@ -418,13 +419,12 @@ static void label_common(const struct ow_plot *p, const struct ow_window *w,
 		return;
 	rect_of(p, w, u, &x0, &y0, &x1, &y1);
 	snprintf(text, sizeof text, "common window %s rpm, %s %s",
-		 ow_compare_format_range(a, sizeof a, w->rpm_min, w->rpm_max,
-					 OW_REPORT_RPM_DECIMALS),
-		 ow_compare_format_range(b, sizeof b,
-					 shown_temp(u, w->set_min_K),
-					 shown_temp(u, w->set_max_K),
-					 OW_REPORT_TEMP_DECIMALS),
-		 ow_display_label(u, OW_DIM_TEMPERATURE));
+	         ow_compare_format_range(a, sizeof a, w->rpm_min, w->rpm_max,
+	                                 OW_REPORT_RPM_DECIMALS),
+	         ow_compare_format_range(
+	             b, sizeof b, shown_temp(u, w->set_min_K),
+	             shown_temp(u, w->set_max_K), OW_REPORT_TEMP_DECIMALS),
+	         ow_display_label(u, OW_DIM_TEMPERATURE));
 	ow_canvas_set_font(p->cv, f, 1);
 	tw = ow_canvas_text_width(p->cv, text) + 0.6 * f;
 	bx = fmax(p->area.x, fmin(x0 + 4.0, p->area.x + p->area.w - tw));
@@ -441,7 +441,7 @@ static void label_common(const struct ow_plot *p, const struct ow_window *w,
 	ow_canvas_fill(p->cv);
 	ow_canvas_set_colour(p->cv, ow_rgb(0, 0, 0));
 	ow_canvas_text(p->cv, bx + 0.3 * f, by + 0.5 * h, text, OW_ALIGN_LEFT,
-		       OW_VALIGN_MIDDLE, 0);
+	               OW_VALIGN_MIDDLE, 0);
 	ow_canvas_restore(p->cv);
 	take(t, bx, by, bx + tw, by + h);
 }
@@ -459,7 +459,7 @@ struct layout {
 };
 
 static void entry_line(struct layout *ly, const char *text, struct ow_rgba c,
-		       double w, enum ow_dash_style dash, enum ow_marker m)
+                       double w, enum ow_dash_style dash, enum ow_marker m)
 {
 	struct ow_legend_entry *e = &ly->e[ly->n];
 
@@ -472,7 +472,7 @@ static void entry_line(struct layout *ly, const char *text, struct ow_rgba c,
 }
 
 static void entry_swatch(struct layout *ly, const char *text,
-			 struct ow_rgba fill, const struct ow_hatch *h)
+                         struct ow_rgba fill, const struct ow_hatch *h)
 {
 	struct ow_legend_entry *e = &ly->e[ly->n];
 
@@ -494,7 +494,7 @@ static void legend(struct layout *ly, const struct ow_compare_draw_options *o)
 	ly->n = 0;
 	for (k = 0; k < 2; k++) {
 		snprintf(t, sizeof t, "%s: edge of its safe region",
-			 label_of(o, k));
+		         label_of(o, k));
 		entry_line(ly, t, ink(k), 2.2, styles[k].dash, OW_MARK_NONE);
 	}
 	entry_swatch(ly, "safe in both", ow_rgb(1, 1, 1), NULL);
@@ -502,14 +502,14 @@ static void legend(struct layout *ly, const struct ow_compare_draw_options *o)
 		ly->h[k] = hatch(k);
 		snprintf(t, sizeof t, "safe only in %s", label_of(o, k));
 		entry_swatch(ly, t, ow_rgba_with_alpha(ink(k), TINT_ALPHA),
-			     &ly->h[k]);
+		             &ly->h[k]);
 	}
 	entry_swatch(ly, "safe in neither",
-		     ow_rgba_with_alpha(ow_rgb(0.45, 0.45, 0.45), 0.30), NULL);
+	             ow_rgba_with_alpha(ow_rgb(0.45, 0.45, 0.45), 0.30), NULL);
 	entry_line(ly, "common window (safe in both)", ow_rgb(0, 0, 0), 2.6,
-		   OW_DASH_SOLID, OW_MARK_NONE);
+	           OW_DASH_SOLID, OW_MARK_NONE);
 	entry_line(ly, "centre of the common window", ow_rgb(0, 0, 0), 0.0,
-		   OW_DASH_SOLID, OW_MARK_DIAMOND);
+	           OW_DASH_SOLID, OW_MARK_DIAMOND);
 	for (k = 0; k < 2; k++) {
 		snprintf(t, sizeof t, "centre of %s's window", label_of(o, k));
 		entry_line(ly, t, ink(k), 0.0, OW_DASH_SOLID, styles[k].marker);
@@ -518,8 +518,8 @@ static void legend(struct layout *ly, const struct ow_compare_draw_options *o)
 
 /* Title, and one line per case saying which line is which. */
 static void titles(struct ow_canvas *cv, const struct ow_rect *box,
-		   const struct ow_compare *cmp,
-		   const struct ow_compare_draw_options *o, double f)
+                   const struct ow_compare *cmp,
+                   const struct ow_compare_draw_options *o, double f)
 {
 	static const char *const how[2] = {"solid", "dashed"};
 	char line[400];
@@ -529,9 +529,9 @@ static void titles(struct ow_canvas *cv, const struct ow_rect *box,
 	ow_canvas_set_colour(cv, ow_rgb(0.08, 0.08, 0.1));
 	ow_canvas_set_font(cv, 1.25 * f, 1);
 	snprintf(line, sizeof line, "Operating windows compared: %s and %s",
-		 label_of(o, 0), label_of(o, 1));
+	         label_of(o, 0), label_of(o, 1));
 	ow_canvas_text(cv, box->x + 0.8 * f, box->y + 0.6 * f, line,
-		       OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+	               OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
 	for (k = 0; k < 2; k++) {
 		double y = box->y + (2.35 + 1.35 * k) * f;
 
@@ -545,15 +545,15 @@ static void titles(struct ow_canvas *cv, const struct ow_rect *box,
 		ow_canvas_set_font(cv, 0.9 * f, 0);
 		ow_canvas_set_colour(cv, ow_rgb(0.15, 0.15, 0.15));
 		ow_canvas_text(cv, x, y, cmp->study[k]->title, OW_ALIGN_LEFT,
-			       OW_VALIGN_TOP, 0);
+		               OW_VALIGN_TOP, 0);
 	}
 	ow_canvas_restore(cv);
 }
 
 static enum ow_status layout(struct ow_canvas *cv, const struct ow_rect *box,
-			     const struct ow_compare *cmp,
-			     const struct ow_compare_draw_options *o,
-			     struct layout *ly, struct ow_diag *d)
+                             const struct ow_compare *cmp,
+                             const struct ow_compare_draw_options *o,
+                             struct layout *ly, struct ow_diag *d)
 {
 	double f = font_of(o), lw, lh;
 	struct ow_rect inner = *box;
@@ -565,27 +565,28 @@ static enum ow_status layout(struct ow_canvas *cv, const struct ow_rect *box,
 	inner.y += 5.2 * f;
 	inner.h -= 5.2 * f;
 	snprintf(ly->ytitle, sizeof ly->ytitle, "%s (%s)",
-		 ow_maps_axis_label(cmp->study[0], lab, sizeof lab),
-		 ow_display_label(o->units, OW_DIM_TEMPERATURE));
+	         ow_maps_axis_label(cmp->study[0], lab, sizeof lab),
+	         ow_display_label(o->units, OW_DIM_TEMPERATURE));
 	ly->x = (struct ow_plot_axis){ax->rpm_from, ax->rpm_to,
-				      "screw speed (rpm)", 0, 9};
+	                              "screw speed (rpm)", 0, 9};
 	ly->y = (struct ow_plot_axis){
-		shown_temp(o->units, ow_sweep_set_ref(cmp->study[0],
-						      ax->axis_from)),
-		shown_temp(o->units, ow_sweep_set_ref(cmp->study[0],
-						      ax->axis_to)),
-		ly->ytitle, 0, 0};
-	if (ow_plot_init(&ly->p, cv, &inner, &ly->x, &ly->y, f,
-			 lw + 0.8 * f) != OW_OK)
-		return ow_diag_set(d, OW_EARG, "overlay map: box %.0f x %.0f pt "
-				   "too small", box->w, box->h);
+	    shown_temp(o->units,
+	               ow_sweep_set_ref(cmp->study[0], ax->axis_from)),
+	    shown_temp(o->units, ow_sweep_set_ref(cmp->study[0], ax->axis_to)),
+	    ly->ytitle, 0, 0};
+	if (ow_plot_init(&ly->p, cv, &inner, &ly->x, &ly->y, f, lw + 0.8 * f) !=
+	    OW_OK)
+		return ow_diag_set(d, OW_EARG,
+		                   "overlay map: box %.0f x %.0f pt "
+		                   "too small",
+		                   box->w, box->h);
 	return OW_OK;
 }
 
 static enum ow_status draw_body(const struct ow_plot *p,
-				const struct ow_compare *cmp,
-				const struct ow_compare_draw_options *o,
-				struct ow_diag *d)
+                                const struct ow_compare *cmp,
+                                const struct ow_compare_draw_options *o,
+                                struct ow_diag *d)
 {
 	struct taken t = {0};
 	enum ow_status st;
@@ -605,8 +606,8 @@ static enum ow_status draw_body(const struct ow_plot *p,
 /* Below the legend: how many grid points each case alone keeps, and the
  * limits the other case exceeds there (the reason for the difference). */
 static void notes(struct ow_canvas *cv, double x, double y, double w,
-		  const struct ow_compare *cmp,
-		  const struct ow_compare_draw_options *o, double f)
+                  const struct ow_compare *cmp,
+                  const struct ow_compare_draw_options *o, double f)
 {
 	char line[160];
 	int k, c, n = cmp->n_rpm * cmp->n_axis;
@@ -615,9 +616,24 @@ static void notes(struct ow_canvas *cv, double x, double y, double w,
 	ow_canvas_set_colour(cv, ow_rgb(0.12, 0.12, 0.12));
 	ow_canvas_set_font(cv, f, 0);
 	snprintf(line, sizeof line, "Safe in both: %.0f %% of the map",
-		 100.0 * cmp->count[OW_CMP_BOTH] / n);
+	         100.0 * cmp->count[OW_CMP_BOTH] / n);
 	ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
-	y += 1.9 * f;
+	y += 1.4 * f;
+	for (k = 0; k < 2; k++)
+		if (cmp->win[k]->empty) {
+			snprintf(line, sizeof line, "%s: no safe point at all",
+			         label_of(o, k));
+			ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT,
+			               OW_VALIGN_TOP, 0);
+			y += 1.4 * f;
+		}
+	if (cmp->common[0]->empty) {
+		ow_canvas_set_font(cv, f, 1);
+		ow_canvas_text(cv, x, y, "No common window", OW_ALIGN_LEFT,
+		               OW_VALIGN_TOP, 0);
+		y += 1.4 * f;
+	}
+	y += 0.5 * f;
 	for (k = 0; k < 2; k++) {
 		int only = cmp->count[k ? OW_CMP_B_ONLY : OW_CMP_A_ONLY];
 
@@ -626,23 +642,23 @@ static void notes(struct ow_canvas *cv, double x, double y, double w,
 		ow_canvas_set_font(cv, f, 1);
 		ow_canvas_set_colour(cv, ink(k));
 		snprintf(line, sizeof line, "Safe only in %s: %.0f %%",
-			 label_of(o, k), 100.0 * only / n);
+		         label_of(o, k), 100.0 * only / n);
 		ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
 		y += 1.4 * f;
 		ow_canvas_set_font(cv, f, 0);
 		ow_canvas_set_colour(cv, ow_rgb(0.12, 0.12, 0.12));
-		snprintf(line, sizeof line, "there %s exceeds:",
-			 label_of(o, 1 - k));
+		snprintf(line, sizeof line,
+		         "there %s exceeds:", label_of(o, 1 - k));
 		ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
 		y += 1.3 * f;
 		for (c = 0; c < OW_CK_COUNT; c++) {
 			if (!cmp->lost[k][c])
 				continue;
 			snprintf(line, sizeof line, "  %s (%d points)",
-				 ow_check_text((enum ow_check)c),
-				 cmp->lost[k][c]);
+			         ow_check_text((enum ow_check)c),
+			         cmp->lost[k][c]);
 			ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT,
-				       OW_VALIGN_TOP, 0);
+			               OW_VALIGN_TOP, 0);
 			y += 1.3 * f;
 		}
 		y += 0.6 * f;
@@ -652,10 +668,10 @@ static void notes(struct ow_canvas *cv, double x, double y, double w,
 }
 
 enum ow_status ow_compare_draw_overlay(struct ow_canvas *cv,
-				       const struct ow_rect *box,
-				       const struct ow_compare *cmp,
-				       const struct ow_compare_draw_options *o,
-				       struct ow_diag *d)
+                                       const struct ow_rect *box,
+                                       const struct ow_compare *cmp,
+                                       const struct ow_compare_draw_options *o,
+                                       struct ow_diag *d)
 {
 	struct ow_compare_draw_options def;
 	struct layout *ly;
@@ -683,8 +699,8 @@ enum ow_status ow_compare_draw_overlay(struct ow_canvas *cv,
 		ow_plot_axes(&ly->p, &ly->x, &ly->y);
 		ow_plot_legend(cv, lx, ly->p.area.y, ly->e, ly->n, 0.9 * f);
 		ow_plot_legend_size(cv, ly->e, ly->n, 0.9 * f, &lw, &lh);
-		notes(cv, lx + 0.3 * f, ly->p.area.y + lh + 1.2 * f, lw, cmp,
-		      o, 0.9 * f);
+		notes(cv, lx + 0.3 * f, ly->p.area.y + lh + 1.2 * f, lw, cmp, o,
+		      0.9 * f);
 		st = ow_canvas_status(cv, d);
 	}
 	free(ly);
@@ -693,16 +709,16 @@ enum ow_status ow_compare_draw_overlay(struct ow_canvas *cv,
 
 /* One image file: white paper, the overlay, written atomically. */
 static enum ow_status write_image(const struct ow_compare *cmp,
-				  const struct ow_compare_draw_options *o,
-				  enum ow_canvas_format fmt, const char *path,
-				  struct ow_diag *d)
+                                  const struct ow_compare_draw_options *o,
+                                  enum ow_canvas_format fmt, const char *path,
+                                  struct ow_diag *d)
 {
 	struct ow_rect box = {0.0, 0.0, OW_MAPS_WIDTH_PT, OW_MAPS_HEIGHT_PT};
 	struct ow_canvas *cv = NULL;
 	enum ow_status st;
 
 	st = ow_canvas_create_image(fmt, box.w, box.h, OW_MAPS_PNG_SCALE, &cv,
-				    d);
+	                            d);
 	if (st != OW_OK)
 		return st;
 	ow_canvas_rect(cv, 0, 0, box.w, box.h);
@@ -716,8 +732,8 @@ static enum ow_status write_image(const struct ow_compare *cmp,
 }
 
 enum ow_status ow_compare_write_maps(const struct ow_compare *cmp,
-				     const struct ow_compare_draw_options *o,
-				     const char *dir, struct ow_diag *d)
+                                     const struct ow_compare_draw_options *o,
+                                     const char *dir, struct ow_diag *d)
 {
 	char path[OW_PATH_LEN];
 	enum ow_status st;

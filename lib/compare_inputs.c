@@ -19,7 +19,7 @@ struct diffs {
 };
 
 static void add(struct diffs *x, const char *field, const char *va,
-		const char *vb)
+                const char *vb)
 {
 	struct ow_input_diff *e;
 
@@ -38,7 +38,7 @@ static void add(struct diffs *x, const char *field, const char *va,
 
 /* A value of dim in the reader's units; NAN: a limit or value not set. */
 static void fmt_qty(const struct diffs *x, enum ow_dim dim, double si,
-		    char *buf, size_t n)
+                    char *buf, size_t n)
 {
 	const char *u = ow_display_label(x->sys, dim);
 
@@ -46,12 +46,12 @@ static void fmt_qty(const struct diffs *x, enum ow_dim dim, double si,
 		snprintf(buf, n, "not set");
 	else
 		snprintf(buf, n, "%.6g%s%s", ow_display_value(x->sys, dim, si),
-			 *u ? " " : "", u);
+		         *u ? " " : "", u);
 }
 
 /* A quantity present in a (has[0]) and/or b (has[1]). */
 static void qty(struct diffs *x, const char *field, enum ow_dim dim,
-		const int *has, double va, double vb)
+                const int *has, double va, double vb)
 {
 	char a[80] = ABSENT, b[80] = ABSENT;
 
@@ -62,8 +62,8 @@ static void qty(struct diffs *x, const char *field, enum ow_dim dim,
 	add(x, field, a, b);
 }
 
-static void qty2(struct diffs *x, const char *field, enum ow_dim dim,
-		 double va, double vb)
+static void qty2(struct diffs *x, const char *field, enum ow_dim dim, double va,
+                 double vb)
 {
 	static const int both[2] = {1, 1};
 
@@ -72,21 +72,21 @@ static void qty2(struct diffs *x, const char *field, enum ow_dim dim,
 
 /* A position along the screw, in diameters of each study's own screw. */
 static void along(struct diffs *x, const char *field, const int *has,
-		  double va_m, double vb_m)
+                  double va_m, double vb_m)
 {
 	char a[80] = ABSENT, b[80] = ABSENT;
 
 	if (has[0])
 		snprintf(a, sizeof a, "%.6g D",
-			 va_m / x->s[0]->screw.diameter_m);
+		         va_m / x->s[0]->screw.diameter_m);
 	if (has[1])
 		snprintf(b, sizeof b, "%.6g D",
-			 vb_m / x->s[1]->screw.diameter_m);
+		         vb_m / x->s[1]->screw.diameter_m);
 	add(x, field, a, b);
 }
 
 static void text(struct diffs *x, const char *field, const int *has,
-		 const char *va, const char *vb)
+                 const char *va, const char *vb)
 {
 	add(x, field, has[0] ? va : ABSENT, has[1] ? vb : ABSENT);
 }
@@ -114,12 +114,13 @@ static void section(struct diffs *x, int i)
 	const struct ow_section *sa = &x->s[0]->screw.sections[i];
 	const struct ow_section *sb = &x->s[1]->screw.sections[i];
 	int in[2] = {i < x->s[0]->screw.n_sections,
-		     i < x->s[1]->screw.n_sections};
+	             i < x->s[1]->screw.n_sections};
 	int mix[2] = {in[0] && sa->type == OW_SEC_MIXER,
-		      in[1] && sb->type == OW_SEC_MIXER};
+	              in[1] && sb->type == OW_SEC_MIXER};
 	int bar[2] = {in[0] && sa->type == OW_SEC_BARRIER,
-		      in[1] && sb->type == OW_SEC_BARRIER};
-	int deep[2] = {in[0] && !mix[0] && !bar[0], in[1] && !mix[1] && !bar[1]};
+	              in[1] && sb->type == OW_SEC_BARRIER};
+	int deep[2] = {in[0] && !mix[0] && !bar[0],
+	               in[1] && !mix[1] && !bar[1]};
 	char f[96];
 
 	text(x, sec_field(f, i, "type"), in, ow_section_name(sa->type),
@@ -127,7 +128,8 @@ static void section(struct diffs *x, int i)
 	along(x, sec_field(f, i, "length"), in, sa->length_m, sb->length_m);
 	qty(x, sec_field(f, i, "depth"), OW_DIM_LENGTH, deep, sa->depth_m,
 	    sb->depth_m);
-	qty(x, sec_field(f, i, "gap"), OW_DIM_LENGTH, mix, sa->gap_m, sb->gap_m);
+	qty(x, sec_field(f, i, "gap"), OW_DIM_LENGTH, mix, sa->gap_m,
+	    sb->gap_m);
 	qty(x, sec_field(f, i, "solids_depth_start"), OW_DIM_LENGTH, bar,
 	    sa->solids_depth_start_m, sb->solids_depth_start_m);
 	qty(x, sec_field(f, i, "solids_depth_end"), OW_DIM_LENGTH, bar,
@@ -188,9 +190,9 @@ static void screw(struct diffs *x)
 
 static const char *model_name(enum ow_visc_model m)
 {
-	return m == OW_VISC_POWER_LAW ? "power-law"
-				      : (m == OW_VISC_CROSS ? "cross"
-							    : "carreau-yasuda");
+	return m == OW_VISC_POWER_LAW
+	           ? "power-law"
+	           : (m == OW_VISC_CROSS ? "cross" : "carreau-yasuda");
 }
 
 static void viscosity(struct diffs *x)
@@ -198,12 +200,14 @@ static void viscosity(struct diffs *x)
 	const struct ow_viscosity *a = &x->s[0]->resin.visc;
 	const struct ow_viscosity *b = &x->s[1]->resin.visc;
 	static const int both[2] = {1, 1};
-	int pl[2] = {a->model == OW_VISC_POWER_LAW, b->model == OW_VISC_POWER_LAW};
+	int pl[2] = {a->model == OW_VISC_POWER_LAW,
+	             b->model == OW_VISC_POWER_LAW};
 	int cr[2] = {a->model == OW_VISC_CROSS, b->model == OW_VISC_CROSS};
 	int cy[2] = {a->model == OW_VISC_CARREAU_YASUDA,
-		     b->model == OW_VISC_CARREAU_YASUDA};
+	             b->model == OW_VISC_CARREAU_YASUDA};
 	int eta0[2] = {!pl[0], !pl[1]};
-	int ar[2] = {a->shift == OW_SHIFT_ARRHENIUS, b->shift == OW_SHIFT_ARRHENIUS};
+	int ar[2] = {a->shift == OW_SHIFT_ARRHENIUS,
+	             b->shift == OW_SHIFT_ARRHENIUS};
 	int wlf[2] = {!ar[0], !ar[1]};
 
 	text(x, "resin.viscosity.model", both, model_name(a->model),
@@ -220,8 +224,8 @@ static void viscosity(struct diffs *x)
 	qty(x, "resin.viscosity.a", OW_DIM_NONE, cy, a->a, b->a);
 	qty2(x, "resin.viscosity.reference_temperature", OW_DIM_TEMPERATURE,
 	     a->ref_temp_K, b->ref_temp_K);
-	text(x, "resin.viscosity.shift.type", both,
-	     ar[0] ? "arrhenius" : "wlf", ar[1] ? "arrhenius" : "wlf");
+	text(x, "resin.viscosity.shift.type", both, ar[0] ? "arrhenius" : "wlf",
+	     ar[1] ? "arrhenius" : "wlf");
 	qty(x, "resin.viscosity.shift.activation_energy", OW_DIM_MOLAR_ENERGY,
 	    ar, a->activation_J_mol, b->activation_J_mol);
 	qty(x, "resin.viscosity.shift.c1", OW_DIM_NONE, wlf, a->wlf_c1,
@@ -292,9 +296,8 @@ static void zones(struct diffs *x)
 		    b->zones[i].set_K);
 	}
 	text(x, "barrel.screw_root", (const int[2]){1, 1},
-	     a->root_adiabatic ? "adiabatic" : "held", b->root_adiabatic
-							  ? "adiabatic"
-							  : "held");
+	     a->root_adiabatic ? "adiabatic" : "held",
+	     b->root_adiabatic ? "adiabatic" : "held");
 	qty(x, "barrel.screw_root_temperature", OW_DIM_TEMPERATURE,
 	    (const int[2]){!a->root_adiabatic, !b->root_adiabatic},
 	    a->root_temp_K, b->root_temp_K);
@@ -303,7 +306,7 @@ static void zones(struct diffs *x)
 static const char *die_name(enum ow_die_type t)
 {
 	static const char *const names[] = {"circle", "slit", "annulus",
-					    "measured"};
+	                                    "measured"};
 
 	return names[t];
 }
@@ -330,7 +333,7 @@ static void die(struct diffs *x)
 	    a->inner_diameter_m, b->inner_diameter_m);
 	qty(x, "die.length", OW_DIM_LENGTH,
 	    (const int[2]){a->type != OW_DIE_MEASURED,
-			   b->type != OW_DIE_MEASURED},
+	                   b->type != OW_DIE_MEASURED},
 	    a->length_m, b->length_m);
 	qty(x, "die.pressure", OW_DIM_PRESSURE, is[OW_DIE_MEASURED],
 	    a->pressure_Pa, b->pressure_Pa);
@@ -382,8 +385,8 @@ static void line(struct diffs *x)
 }
 
 int ow_compare_fields(const struct ow_study *a, const struct ow_study *b,
-		      enum ow_unit_system sys, int all,
-		      struct ow_input_diff *out, int max)
+                      enum ow_unit_system sys, int all,
+                      struct ow_input_diff *out, int max)
 {
 	struct diffs x = {{a, b}, sys, out, max, 0, all};
 
@@ -395,8 +398,8 @@ int ow_compare_fields(const struct ow_study *a, const struct ow_study *b,
 }
 
 int ow_compare_inputs(const struct ow_study *a, const struct ow_study *b,
-		      enum ow_unit_system sys, struct ow_input_diff *out,
-		      int max)
+                      enum ow_unit_system sys, struct ow_input_diff *out,
+                      int max)
 {
 	return ow_compare_fields(a, b, sys, 0, out, max);
 }

@@ -11,7 +11,7 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define C_OF_K(k) ((k) - OW_ZERO_C_K)
+#define C_OF_K(k) ((k)-OW_ZERO_C_K)
 #define MAX_DIFFS 200
 
 static const char *const case_key[2] = {"a", "b"};
@@ -25,7 +25,7 @@ static int put_num(cJSON *o, const char *key, double v)
 
 /* window.json of (s, g, w) parsed back into a cJSON object, or NULL. */
 static cJSON *window_obj(const struct ow_study *s, const struct ow_grid *g,
-			 const struct ow_window *w, struct ow_diag *d)
+                         const struct ow_window *w, struct ow_diag *d)
 {
 	char *text = NULL;
 	cJSON *o;
@@ -38,7 +38,7 @@ static cJSON *window_obj(const struct ow_study *s, const struct ow_grid *g,
 }
 
 static cJSON *case_window(const struct ow_compare *cmp, int k,
-			  struct ow_diag *d)
+                          struct ow_diag *d)
 {
 	cJSON *o = window_obj(cmp->study[k], cmp->grid[k], cmp->win[k], d);
 
@@ -51,9 +51,9 @@ static cJSON *case_window(const struct ow_compare *cmp, int k,
 
 /* ---- the common window ---- */
 
-static const char *const range_keys[] = {
-	"output_kg_h_min", "output_kg_h_max", "melt_temp_C_min",
-	"melt_temp_C_max", "peak_temp_C_max"};
+static const char *const range_keys[] = {"output_kg_h_min", "output_kg_h_max",
+                                         "melt_temp_C_min", "melt_temp_C_max",
+                                         "peak_temp_C_max"};
 #define N_RANGE_KEYS ((int)(sizeof range_keys / sizeof range_keys[0]))
 
 /* Case k's own ranges and zones over the common rectangle. */
@@ -64,12 +64,12 @@ static cJSON *case_ranges(const cJSON *win)
 
 	for (i = 0; ok && i < N_RANGE_KEYS; i++)
 		ok = cJSON_AddItemToObject(
-			o, range_keys[i],
-			cJSON_Duplicate(cJSON_GetObjectItem(win, range_keys[i]),
-					1));
+		    o, range_keys[i],
+		    cJSON_Duplicate(cJSON_GetObjectItem(win, range_keys[i]),
+		                    1));
 	ok = ok && cJSON_AddItemToObject(
-			   o, "zones",
-			   cJSON_Duplicate(cJSON_GetObjectItem(win, "zones"), 1));
+	               o, "zones",
+	               cJSON_Duplicate(cJSON_GetObjectItem(win, "zones"), 1));
 	if (!ok) {
 		cJSON_Delete(o);
 		return NULL;
@@ -93,7 +93,7 @@ static int union_ranges(cJSON *common, const struct ow_compare *cmp)
 	v[4] = C_OF_K(fmax(a->peak_max_K, b->peak_max_K));
 	for (i = 0; ok && i < N_RANGE_KEYS; i++) {
 		cJSON *n = isfinite(v[i]) ? cJSON_CreateNumber(v[i])
-					  : cJSON_CreateNull();
+		                          : cJSON_CreateNull();
 
 		ok = n && cJSON_ReplaceItemInObject(common, range_keys[i], n);
 	}
@@ -107,11 +107,11 @@ static cJSON *common_window(const struct ow_compare *cmp, struct ow_diag *d)
 	int k, ok = 1;
 
 	for (k = 0; ok && k < 2; k++) {
-		m[k] = ow_compare_merged_study(cmp->study[k],
-					       cmp->study[1 - k]);
+		m[k] =
+		    ow_compare_merged_study(cmp->study[k], cmp->study[1 - k]);
 		w[k] = m[k] ? window_obj(m[k], cmp->common_grid[k],
-					 cmp->common[k], d)
-			    : NULL;
+		                         cmp->common[k], d)
+		            : NULL;
 		ok = w[k] != NULL;
 	}
 	if (ok) {
@@ -119,7 +119,7 @@ static cJSON *common_window(const struct ow_compare *cmp, struct ow_diag *d)
 		ok = union_ranges(w[0], cmp);
 		for (k = 0; ok && k < 2; k++)
 			ok = cJSON_AddItemToObject(w[0], case_key[k],
-						   case_ranges(w[k]));
+			                           case_ranges(w[k]));
 		if (ok) {
 			out = w[0];
 			w[0] = NULL;
@@ -145,7 +145,7 @@ static cJSON *binding(const struct ow_window *w, const char *count_key)
 
 		ok = e && cJSON_AddItemToArray(arr, e);
 		ok = ok && cJSON_AddStringToObject(e, "limit",
-						   ow_check_key(order[i]));
+		                                   ow_check_key(order[i]));
 		ok = ok && put_num(e, count_key, w->fail_count[order[i]]);
 	}
 	if (!ok) {
@@ -169,8 +169,8 @@ static cJSON *lost(const struct ow_compare *cmp, int k)
 }
 
 static int add_figures(cJSON *o, const struct ow_study *s,
-		       const struct ow_point *pt, const struct ow_verdict *v,
-		       double set_K)
+                       const struct ow_point *pt, const struct ow_verdict *v,
+                       double set_K)
 {
 	const char *names[OW_CK_COUNT];
 	cJSON *st;
@@ -180,7 +180,7 @@ static int add_figures(cJSON *o, const struct ow_study *s,
 		int f = ow_compare_figure_index(i);
 
 		ok = put_num(o, ow_results_figure_key(f),
-			     ow_results_figure(s, pt, f));
+		             ow_results_figure(s, pt, f));
 	}
 	st = ok ? cJSON_AddArrayToObject(o, "status") : NULL;
 	ok = st != NULL;
@@ -191,23 +191,23 @@ static int add_figures(cJSON *o, const struct ow_study *s,
 }
 
 static int add_delta(cJSON *o, const struct ow_compare *cmp,
-		     const struct ow_cmp_point *p)
+                     const struct ow_cmp_point *p)
 {
 	int i, ok = 1;
 
 	for (i = 0; ok && i < ow_compare_n_figures(); i++) {
 		int f = ow_compare_figure_index(i);
 
-		ok = put_num(o, ow_results_figure_key(f),
-			     ow_results_figure(cmp->study[1], &p->pt[1], f) -
-				     ow_results_figure(cmp->study[0],
-						       &p->pt[0], f));
+		ok =
+		    put_num(o, ow_results_figure_key(f),
+		            ow_results_figure(cmp->study[1], &p->pt[1], f) -
+		                ow_results_figure(cmp->study[0], &p->pt[0], f));
 	}
 	return ok;
 }
 
 static cJSON *point_obj(const struct ow_compare *cmp,
-			const struct ow_cmp_point *p)
+                        const struct ow_cmp_point *p)
 {
 	cJSON *o, *c;
 	int k, ok;
@@ -220,7 +220,7 @@ static cJSON *point_obj(const struct ow_compare *cmp,
 	for (k = 0; ok && k < 2; k++) {
 		c = cJSON_AddObjectToObject(o, case_key[k]);
 		ok = c && add_figures(c, cmp->study[k], &p->pt[k], &p->v[k],
-				      p->set_ref_K[k]);
+		                      p->set_ref_K[k]);
 	}
 	c = ok ? cJSON_AddObjectToObject(o, "b_minus_a") : NULL;
 	ok = c && add_delta(c, cmp, p);
@@ -249,19 +249,18 @@ static cJSON *differences(const struct ow_compare *cmp)
 	b = ok ? cJSON_AddObjectToObject(o, "binding") : NULL;
 	ok = b != NULL;
 	for (k = 0; ok && k < 2; k++)
-		ok = cJSON_AddItemToObject(b, case_key[k],
-					   binding(cmp->win[k],
-						   "points_excluded"));
+		ok = cJSON_AddItemToObject(
+		    b, case_key[k], binding(cmp->win[k], "points_excluded"));
 	ok = ok && cJSON_AddItemToObject(o, "only_a_safe_b_fails",
-					 lost(cmp, OW_CMP_A));
+	                                 lost(cmp, OW_CMP_A));
 	ok = ok && cJSON_AddItemToObject(o, "only_b_safe_a_fails",
-					 lost(cmp, OW_CMP_B));
+	                                 lost(cmp, OW_CMP_B));
 	at = ok ? cJSON_AddObjectToObject(o, "at") : NULL;
 	ok = at != NULL;
 	for (k = 0; ok && k < OW_CMP_AT_COUNT; k++)
 		ok = cJSON_AddItemToObject(at,
-					   ow_compare_at_key((enum ow_cmp_at)k),
-					   point_obj(cmp, &cmp->at[k]));
+		                           ow_compare_at_key((enum ow_cmp_at)k),
+		                           point_obj(cmp, &cmp->at[k]));
 	if (!ok) {
 		cJSON_Delete(o);
 		return NULL;
@@ -277,7 +276,7 @@ static cJSON *inputs(const struct ow_compare *cmp)
 	int n, i, ok = arr != NULL;
 
 	n = ok ? ow_compare_inputs(cmp->study[0], cmp->study[1], OW_SYS_SI, e,
-				   MAX_DIFFS)
+	                           MAX_DIFFS)
 	       : 0;
 	for (i = 0; ok && i < n && i < MAX_DIFFS; i++) {
 		cJSON *o = cJSON_CreateObject();
@@ -296,7 +295,7 @@ static cJSON *inputs(const struct ow_compare *cmp)
 }
 
 enum ow_status ow_compare_json(const struct ow_compare *cmp, char **out,
-			       struct ow_diag *d)
+                               struct ow_diag *d)
 {
 	cJSON *r = cJSON_CreateObject();
 	int k, ok = r != NULL;
@@ -304,7 +303,7 @@ enum ow_status ow_compare_json(const struct ow_compare *cmp, char **out,
 	*out = NULL;
 	for (k = 0; ok && k < 2; k++)
 		ok = cJSON_AddItemToObject(r, case_key[k],
-					   case_window(cmp, k, d));
+		                           case_window(cmp, k, d));
 	ok = ok && cJSON_AddItemToObject(r, "common", common_window(cmp, d));
 	ok = ok && cJSON_AddItemToObject(r, "differences", differences(cmp));
 	ok = ok && cJSON_AddItemToObject(r, "inputs", inputs(cmp));
@@ -383,7 +382,7 @@ static void csv_head(struct text *t)
 }
 
 enum ow_status ow_compare_csv(const struct ow_compare *cmp, char **out,
-			      struct ow_diag *d)
+                              struct ow_diag *d)
 {
 	struct text t = {0};
 	int i, f, k, n = cmp->n_rpm * cmp->n_axis;
@@ -392,7 +391,7 @@ enum ow_status ow_compare_csv(const struct ow_compare *cmp, char **out,
 	csv_head(&t);
 	for (i = 0; i < n; i++) {
 		const struct ow_grid_point *p[2] = {&cmp->grid[0]->pts[i],
-						    &cmp->grid[1]->pts[i]};
+		                                    &cmp->grid[1]->pts[i]};
 
 		if (p[0]->solved != 1 || p[1]->solved != 1)
 			continue;
@@ -402,7 +401,7 @@ enum ow_status ow_compare_csv(const struct ow_compare *cmp, char **out,
 		for (f = 0; f < ow_results_n_figures(); f++)
 			for (k = 0; k < 2; k++)
 				text_num(&t, ow_results_figure(cmp->study[k],
-							       &p[k]->pt, f));
+				                               &p[k]->pt, f));
 		text_status(&t, &p[0]->v);
 		text_status(&t, &p[1]->v);
 		text_add(&t, "\n");

@@ -14,25 +14,34 @@
 
 #define MAX_FIELDS 400
 
-/* ---- title block ---------------------------------------------------------- */
+/* ---- title block ----------------------------------------------------------
+ */
 
 static void title_block(struct cpdf *r)
 {
 	const struct ow_compare *c = r->cmp;
-	struct table t = {3, {"", "", ""}, {0.16, 0.42, 0.42},
-			  {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT}};
+	struct table t = {3,
+	                  {"", "", ""},
+	                  {0.16, 0.42, 0.42},
+	                  {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT}};
 	char head[2][96], line[400], axis[96];
 	const char *cells[3];
 	int k;
 
 	cpdf_para(r, "Operating windows compared", 18.0, 1, 0.0, 4.0);
-	snprintf(line, sizeof line, "%s and %s, swept on one grid of screw "
-		 "speed and %s", cpdf_label(r, 0), cpdf_label(r, 1),
-		 ow_maps_axis_label(c->study[0], axis, sizeof axis));
+	snprintf(line, sizeof line,
+	         "%s and %s, swept on one grid of screw "
+	         "speed and %s",
+	         cpdf_label(r, 0), cpdf_label(r, 1),
+	         ow_maps_axis_label(c->study[0], axis, sizeof axis));
 	cpdf_para(r, line, 10.0, 0, 0.0, 8.0);
 	for (k = 0; k < 2; k++) {
-		snprintf(head[k], sizeof head[k], "%s  (case %s)",
-			 cpdf_label(r, k), k ? "B" : "A");
+		if (strcmp(cpdf_label(r, k), k ? "B" : "A"))
+			snprintf(head[k], sizeof head[k], "%s  (case %s)",
+			         cpdf_label(r, k), k ? "B" : "A");
+		else
+			snprintf(head[k], sizeof head[k], "case %s",
+			         k ? "B" : "A");
 		t.head[k + 1] = head[k];
 	}
 	cpdf_table_head(r, &t);
@@ -52,25 +61,27 @@ static void title_block(struct cpdf *r)
 	cells[1] = c->study[0]->resin.name;
 	cells[2] = c->study[1]->resin.name;
 	cpdf_table_row(r, &t, cells, 0, 0);
-	snprintf(line, sizeof line, "Date %s      Revision ________      "
-		 "Prepared by ______________      Approved by ______________",
-		 r->o->date);
+	snprintf(line, sizeof line,
+	         "Date %s      Revision ________      "
+	         "Prepared by ______________      Approved by ______________",
+	         r->o->date);
 	r->y += 6.0;
 	cpdf_para(r, line, BODY_PT, 0, 0.0, 4.0);
 }
 
-/* ---- the windows ------------------------------------------------------------ */
+/* ---- the windows ------------------------------------------------------------
+ */
 
 static void range(char *buf, size_t n, double lo, double hi, int dec)
 {
 	char a[32], b[32];
 
 	snprintf(buf, n, "%s – %s", cpdf_fix(a, sizeof a, lo, dec),
-		 cpdf_fix(b, sizeof b, hi, dec));
+	         cpdf_fix(b, sizeof b, hi, dec));
 }
 
 static void output_range(const struct cpdf *r, const struct ow_window *w,
-			 char *buf, size_t n)
+                         char *buf, size_t n)
 {
 	enum ow_unit_system u = r->o->units;
 
@@ -78,9 +89,8 @@ static void output_range(const struct cpdf *r, const struct ow_window *w,
 	      ow_display_value(u, OW_DIM_MASS_FLOW, w->output_max_kg_s), 1);
 }
 
-static void window_row(struct cpdf *r, const struct table *t,
-		       const char *name, const struct ow_window *w,
-		       const char *output)
+static void window_row(struct cpdf *r, const struct table *t, const char *name,
+                       const struct ow_window *w, const char *output)
 {
 	char rpm[64], set[64], ctr[96], safe[32], a[32], b[32];
 	const char *cells[6] = {name, rpm, set, ctr, output, safe};
@@ -93,19 +103,18 @@ static void window_row(struct cpdf *r, const struct table *t,
 		return;
 	}
 	ow_compare_format_range(rpm, sizeof rpm, w->rpm_min, w->rpm_max,
-				OW_REPORT_RPM_DECIMALS);
+	                        OW_REPORT_RPM_DECIMALS);
 	ow_compare_format_range(set, sizeof set, cpdf_temp(r, w->set_min_K),
-				cpdf_temp(r, w->set_max_K),
-				OW_REPORT_TEMP_DECIMALS);
-	snprintf(ctr, sizeof ctr, "%s rpm, %s %s",
-		 ow_report_format_bound(a, sizeof a, w->centre.rpm,
-					OW_REPORT_RPM_DECIMALS,
-					OW_ROUND_NEAREST),
-		 ow_report_format_bound(b, sizeof b,
-					cpdf_temp(r, w->centre_set_K),
-					OW_REPORT_TEMP_DECIMALS + 1,
-					OW_ROUND_NEAREST),
-		 cpdf_tunit(r));
+	                        cpdf_temp(r, w->set_max_K),
+	                        OW_REPORT_TEMP_DECIMALS);
+	snprintf(
+	    ctr, sizeof ctr, "%s rpm, %s %s",
+	    ow_report_format_bound(a, sizeof a, w->centre.rpm,
+	                           OW_REPORT_RPM_DECIMALS, OW_ROUND_NEAREST),
+	    ow_report_format_bound(b, sizeof b, cpdf_temp(r, w->centre_set_K),
+	                           OW_REPORT_TEMP_DECIMALS + 1,
+	                           OW_ROUND_NEAREST),
+	    cpdf_tunit(r));
 	cpdf_table_row(r, t, cells, !strcmp(name, "common"), 0);
 }
 
@@ -113,18 +122,19 @@ static void windows(struct cpdf *r)
 {
 	const struct ow_compare *c = r->cmp;
 	char h2[96], h4[64], out[3][64], both[160], axis[64];
-	struct table t = {6, {"", "screw speed, rpm", h2, "centre", h4,
-			      "safe share of the map"},
-			  {0.13, 0.15, 0.19, 0.18, 0.20, 0.15},
-			  {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT,
-			   OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT}};
+	struct table t = {
+	    6,
+	    {"", "screw speed, rpm", h2, "centre", h4, "safe share of the map"},
+	    {0.13, 0.15, 0.19, 0.18, 0.20, 0.15},
+	    {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT,
+	     OW_ALIGN_LEFT, OW_ALIGN_LEFT}};
 	int k;
 
 	snprintf(h2, sizeof h2, "%s, %s",
-		 ow_maps_axis_label(c->study[0], axis, sizeof axis),
-		 cpdf_tunit(r));
+	         ow_maps_axis_label(c->study[0], axis, sizeof axis),
+	         cpdf_tunit(r));
 	snprintf(h4, sizeof h4, "throughput, %s",
-		 ow_display_label(r->o->units, OW_DIM_MASS_FLOW));
+	         ow_display_label(r->o->units, OW_DIM_MASS_FLOW));
 	cpdf_heading(r, "Recommended windows", 80.0);
 	cpdf_table_head(r, &t);
 	for (k = 0; k < 2; k++) {
@@ -134,15 +144,17 @@ static void windows(struct cpdf *r)
 	output_range(r, c->common[0], out[0], sizeof out[0]);
 	output_range(r, c->common[1], out[1], sizeof out[1]);
 	snprintf(both, sizeof both, "%s: %s; %s: %s", cpdf_label(r, 0), out[0],
-		 cpdf_label(r, 1), out[1]);
+	         cpdf_label(r, 1), out[1]);
 	window_row(r, &t, "common", c->common[0], both);
 	r->y += 4.0;
-	cpdf_para(r, "Each window is the largest rectangle of grid points at "
-		  "which every limit of that study is met. The common window "
-		  "is the largest rectangle of points safe in both cases, and "
-		  "its centre the point of it farthest from any point unsafe "
-		  "in either: the setting to start from when the line must "
-		  "run either case.", BODY_PT, 0, 0.0, 4.0);
+	cpdf_para(r,
+	          "Each window is the largest rectangle of grid points at "
+	          "which every limit of that study is met. The common window "
+	          "is the largest rectangle of points safe in both cases, and "
+	          "its centre the point of it farthest from any point unsafe "
+	          "in either: the setting to start from when the line must "
+	          "run either case.",
+	          BODY_PT, 0, 0.0, 4.0);
 }
 
 /* The overlay map at full column width. */
@@ -158,7 +170,7 @@ static void overlay(struct cpdf *r)
 		return;
 	at = (struct ow_canvas_place){r->x0, r->y + 4.0, s};
 	r->st = ow_canvas_create_pdf(r->pdf, r->pages[r->n_pages - 1],
-				     &r->fonts, &at, box.w, box.h, &cv, r->d);
+	                             &r->fonts, &at, box.w, box.h, &cv, r->d);
 	if (r->st == OW_OK)
 		r->st = ow_compare_draw_overlay(cv, &box, r->cmp, r->o, r->d);
 	if (r->st == OW_OK)
@@ -183,8 +195,8 @@ static void limit_list(const int *counts, char *buf, size_t n)
 	snprintf(buf, n, "%s", m ? "" : "none");
 	for (c = 0; c < m; c++)
 		snprintf(buf + strlen(buf), n - strlen(buf), "%s%s (%d points)",
-			 c ? ", " : "", ow_check_text(order[c]),
-			 counts[order[c]]);
+		         c ? ", " : "", ow_check_text(order[c]),
+		         counts[order[c]]);
 }
 
 static void why(struct cpdf *r)
@@ -194,31 +206,36 @@ static void why(struct cpdf *r)
 	char text[640], list[400];
 
 	cpdf_heading(r, "Where and why the windows differ", 60.0);
-	snprintf(text, sizeof text, "Of the %d grid points (%d speeds × %d "
-		 "set-points), both cases are safe at %d, only %s at %d, only "
-		 "%s at %d, and neither at %d.", n, c->n_rpm, c->n_axis,
-		 c->count[OW_CMP_BOTH], cpdf_label(r, 0),
-		 c->count[OW_CMP_A_ONLY], cpdf_label(r, 1),
-		 c->count[OW_CMP_B_ONLY], c->count[OW_CMP_NEITHER]);
+	snprintf(text, sizeof text,
+	         "Of the %d grid points (%d speeds × %d "
+	         "set-points), both cases are safe at %d, only %s at %d, only "
+	         "%s at %d, and neither at %d.",
+	         n, c->n_rpm, c->n_axis, c->count[OW_CMP_BOTH],
+	         cpdf_label(r, 0), c->count[OW_CMP_A_ONLY], cpdf_label(r, 1),
+	         c->count[OW_CMP_B_ONLY], c->count[OW_CMP_NEITHER]);
 	cpdf_para(r, text, BODY_PT, 0, 0.0, 5.0);
 	for (k = 0; k < 2; k++) {
 		if (!c->count[k ? OW_CMP_B_ONLY : OW_CMP_A_ONLY])
 			continue;
 		limit_list(c->lost[k], list, sizeof list);
-		snprintf(text, sizeof text, "Where only %s is safe, %s exceeds: "
-			 "%s.", cpdf_label(r, k), cpdf_label(r, 1 - k), list);
+		snprintf(text, sizeof text,
+		         "Where only %s is safe, %s exceeds: "
+		         "%s.",
+		         cpdf_label(r, k), cpdf_label(r, 1 - k), list);
 		cpdf_para(r, text, BODY_PT, 0, 0.0, 5.0);
 	}
 	for (k = 0; k < 2; k++) {
 		limit_list(c->win[k]->fail_count, list, sizeof list);
-		snprintf(text, sizeof text, "Limits that shape %s's window "
-			 "(grid points each excludes): %s.", cpdf_label(r, k),
-			 list);
+		snprintf(text, sizeof text,
+		         "Limits that shape %s's window "
+		         "(grid points each excludes): %s.",
+		         cpdf_label(r, k), list);
 		cpdf_para(r, text, BODY_PT, 0, 0.0, 5.0);
 	}
 }
 
-/* ---- both cases at the centres -------------------------------------------- */
+/* ---- both cases at the centres --------------------------------------------
+ */
 
 /* A difference: "+" before a positive value that does not print as 0. */
 static char *signed_fix(char *buf, size_t n, double v, int dec)
@@ -227,12 +244,12 @@ static char *signed_fix(char *buf, size_t n, double v, int dec)
 
 	cpdf_fix(tmp, sizeof tmp, v, dec);
 	snprintf(buf, n, "%s%s",
-		 v > 0.0 && strspn(tmp, "0.") != strlen(tmp) ? "+" : "", tmp);
+	         v > 0.0 && strspn(tmp, "0.") != strlen(tmp) ? "+" : "", tmp);
 	return buf;
 }
 
 static void figure_row(struct cpdf *r, const struct table *t,
-		       const struct ow_cmp_point *p, int i)
+                       const struct ow_cmp_point *p, int i)
 {
 	const struct ow_compare *c = r->cmp;
 	enum ow_unit_system u = r->o->units;
@@ -243,7 +260,7 @@ static void figure_row(struct cpdf *r, const struct table *t,
 	double x[2];
 
 	snprintf(name, sizeof name, "%s%s%s", ow_compare_figure_text(i),
-		 *unit ? ", " : "", unit);
+	         *unit ? ", " : "", unit);
 	for (k = 0; k < 2; k++) {
 		x[k] = ow_compare_figure_shown(c->study[k], &p->pt[k], i, u);
 		cpdf_fix(v[k], sizeof v[k], x[k], dec);
@@ -272,32 +289,32 @@ static void verdict_cell(const struct ow_verdict *v, char *buf, size_t n)
 	for (c = 0; c < OW_CK_COUNT; c++)
 		if (v->bits & (1u << c))
 			snprintf(buf + strlen(buf), n - strlen(buf), " %s",
-				 ow_check_key((enum ow_check)c));
+			         ow_check_key((enum ow_check)c));
 }
 
 static void centre_table(struct cpdf *r, int at)
 {
 	const struct ow_cmp_point *p = &r->cmp->at[at];
 	char diff[96], title[200], va[160], vb[160];
-	struct table t = {4, {"", cpdf_label(r, 0), cpdf_label(r, 1), diff},
-			  {0.46, 0.18, 0.18, 0.18},
-			  {OW_ALIGN_LEFT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT,
-			   OW_ALIGN_RIGHT}};
+	struct table t = {
+	    4,
+	    {"", cpdf_label(r, 0), cpdf_label(r, 1), diff},
+	    {0.46, 0.18, 0.18, 0.18},
+	    {OW_ALIGN_LEFT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT}};
 	const char *cells[4] = {"verdict", va, vb, ""};
 	int i;
 
 	snprintf(diff, sizeof diff, "%s − %s", cpdf_label(r, 1),
-		 cpdf_label(r, 0));
-	snprintf(title, sizeof title, "At the %s: %s rpm, %s %s",
-		 ow_compare_at_text((enum ow_cmp_at)at),
-		 ow_report_format_bound(va, sizeof va, p->rpm,
-					OW_REPORT_RPM_DECIMALS,
-					OW_ROUND_NEAREST),
-		 ow_report_format_bound(vb, sizeof vb,
-					cpdf_temp(r, p->set_ref_K[0]),
-					OW_REPORT_TEMP_DECIMALS + 1,
-					OW_ROUND_NEAREST),
-		 cpdf_tunit(r));
+	         cpdf_label(r, 0));
+	snprintf(
+	    title, sizeof title, "At the %s: %s rpm, %s %s",
+	    ow_compare_at_text((enum ow_cmp_at)at),
+	    ow_report_format_bound(va, sizeof va, p->rpm,
+	                           OW_REPORT_RPM_DECIMALS, OW_ROUND_NEAREST),
+	    ow_report_format_bound(vb, sizeof vb, cpdf_temp(r, p->set_ref_K[0]),
+	                           OW_REPORT_TEMP_DECIMALS + 1,
+	                           OW_ROUND_NEAREST),
+	    cpdf_tunit(r));
 	cpdf_need(r, 12.0 * SMALL_PT * LINE + 20.0);
 	cpdf_para(r, title, BODY_PT + 1.0, 1, 0.0, 3.0);
 	cpdf_table_head(r, &t);
@@ -316,16 +333,18 @@ static void centres(struct cpdf *r)
 	int at, k;
 
 	cpdf_heading(r, "Both cases at the centre points", 160.0);
-	cpdf_para(r, "Each case solved alone at the point, as a single run "
-		  "there gives it.", BODY_PT, 0, 0.0, 5.0);
+	cpdf_para(r,
+	          "Each case solved alone at the point, as a single run "
+	          "there gives it.",
+	          BODY_PT, 0, 0.0, 5.0);
 	for (at = 0; at < OW_CMP_AT_COUNT; at++) {
 		if (!c->at[at].valid)
 			continue;
 		k = same_as(c, at);
 		if (k >= 0) {
 			snprintf(text, sizeof text, "The %s is the %s.",
-				 ow_compare_at_text((enum ow_cmp_at)at),
-				 ow_compare_at_text((enum ow_cmp_at)k));
+			         ow_compare_at_text((enum ow_cmp_at)at),
+			         ow_compare_at_text((enum ow_cmp_at)k));
 			cpdf_para(r, text, BODY_PT, 0, 0.0, 8.0);
 			continue;
 		}
@@ -333,14 +352,16 @@ static void centres(struct cpdf *r)
 	}
 }
 
-/* ---- inputs --------------------------------------------------------------- */
+/* ---- inputs ---------------------------------------------------------------
+ */
 
 static void input_table(struct cpdf *r, const struct ow_input_diff *e, int n,
-			const struct ow_input_diff *diff, int n_diff)
+                        const struct ow_input_diff *diff, int n_diff)
 {
-	struct table t = {3, {"input field", cpdf_label(r, 0), cpdf_label(r, 1)},
-			  {0.36, 0.32, 0.32},
-			  {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT}};
+	struct table t = {3,
+	                  {"input field", cpdf_label(r, 0), cpdf_label(r, 1)},
+	                  {0.36, 0.32, 0.32},
+	                  {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT}};
 	int i, j;
 
 	cpdf_table_head(r, &t);
@@ -369,22 +390,23 @@ static void inputs(struct cpdf *r)
 		return;
 	}
 	nd = ow_compare_fields(c->study[0], c->study[1], r->o->units, 0, diff,
-			       MAX_FIELDS);
+	                       MAX_FIELDS);
 	na = ow_compare_fields(c->study[0], c->study[1], r->o->units, 1, all,
-			       MAX_FIELDS);
+	                       MAX_FIELDS);
 	cpdf_heading(r, "Input fields that differ", 40.0);
 	if (nd)
 		input_table(r, diff, nd, NULL, 0);
 	else
 		cpdf_para(r, "None: the two studies have the same inputs.",
-			  BODY_PT, 0, 0.0, 6.0);
+		          BODY_PT, 0, 0.0, 6.0);
 	cpdf_new_page(r);
 	cpdf_heading(r, "Both inputs", 40.0);
-	cpdf_para(r, "Every input of both studies as loaded (in the reader's "
-		  "units; lengths along the screw in its diameters D); "
-		  "shaded rows differ. The sources of the values are named "
-		  "in the study files and in each study's own report.",
-		  BODY_PT, 0, 0.0, 5.0);
+	cpdf_para(r,
+	          "Every input of both studies as loaded (in the reader's "
+	          "units; lengths along the screw in its diameters D); "
+	          "shaded rows differ. The sources of the values are named "
+	          "in the study files and in each study's own report.",
+	          BODY_PT, 0, 0.0, 5.0);
 	input_table(r, all, na, diff, nd);
 	free(all);
 	free(diff);
@@ -395,26 +417,30 @@ static void inputs(struct cpdf *r)
 static const struct {
 	const char *lead, *text;
 } cautions[] = {
-	{"Estimates, not measurements.", "Both cases are computed from "
-	 "published engineering models and the inputs listed above; a "
-	 "difference between them is only as good as the difference "
-	 "between their inputs. Where the inputs of a case are uncertain "
-	 "(a worn screw's clearance, a new grade's viscosity), treat its "
-	 "window as uncertain too."},
-	{"Start at the common centre.", "When the line must run either "
-	 "case, start at the centre of the common window, change one "
-	 "setting at a time and watch melt pressure, melt temperature and "
-	 "drive load settle before going on. Stop and review if the line "
-	 "behaves differently from this comparison."},
-	{"The machine's own ratings come first.", "The extruder builder's "
-	 "ratings for drive power, torque, speed, barrel pressure and "
-	 "temperature, and the rating of the rupture disc, govern wherever "
-	 "they are stricter than a limit used here."},
-	{"Hot melt and pressure can injure.", "Melt at these temperatures "
-	 "burns on contact and can spray from the die or adapter when "
-	 "pressure is released. Never open the head while the barrel is hot "
-	 "and the melt may be under pressure. Local safety rules and the "
-	 "approval of a qualified engineer, where required, come first."},
+    {"Estimates, not measurements.",
+     "Both cases are computed from "
+     "published engineering models and the inputs listed above; a "
+     "difference between them is only as good as the difference "
+     "between their inputs. Where the inputs of a case are uncertain "
+     "(a worn screw's clearance, a new grade's viscosity), treat its "
+     "window as uncertain too."},
+    {"Start at the common centre.",
+     "When the line must run either "
+     "case, start at the centre of the common window, change one "
+     "setting at a time and watch melt pressure, melt temperature and "
+     "drive load settle before going on. Stop and review if the line "
+     "behaves differently from this comparison."},
+    {"The machine's own ratings come first.",
+     "The extruder builder's "
+     "ratings for drive power, torque, speed, barrel pressure and "
+     "temperature, and the rating of the rupture disc, govern wherever "
+     "they are stricter than a limit used here."},
+    {"Hot melt and pressure can injure.",
+     "Melt at these temperatures "
+     "burns on contact and can spray from the die or adapter when "
+     "pressure is released. Never open the head while the barrel is hot "
+     "and the melt may be under pressure. Local safety rules and the "
+     "approval of a qualified engineer, where required, come first."},
 };
 
 static void caution_block(struct cpdf *r)

@@ -17,9 +17,9 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define MM_PT (72.0 / 25.4)
-#define MARGIN_X 54.0
-#define MARGIN_TOP 48.0
+#define MM_PT         (72.0 / 25.4)
+#define MARGIN_X      54.0
+#define MARGIN_TOP    48.0
 #define MARGIN_BOTTOM 64.0
 
 const char *cpdf_label(const struct cpdf *r, int k)
@@ -61,7 +61,7 @@ static void check(struct cpdf *r)
 		r->st = ow_canvas_status(r->cv, r->d);
 	if (r->hpdf_error && r->st == OW_OK) {
 		snprintf(msg, sizeof msg, "compare.pdf: libharu error 0x%04X",
-			 (unsigned)r->hpdf_error);
+		         (unsigned)r->hpdf_error);
 		fail(r, OW_EIO, msg);
 	}
 }
@@ -79,7 +79,7 @@ static void open_canvas(struct cpdf *r, int k)
 
 	if (r->st == OW_OK)
 		r->st = ow_canvas_create_pdf(r->pdf, r->pages[k], &r->fonts,
-					     &at, r->pw, r->ph, &r->cv, r->d);
+		                             &at, r->pw, r->ph, &r->cv, r->d);
 }
 
 void cpdf_new_page(struct cpdf *r)
@@ -124,7 +124,7 @@ double cpdf_width_of(struct cpdf *r, const char *s, double size, int bold)
 /* Greedy word wrap of text into lines no wider than width (a single word
  * wider than that keeps its own line); returns the count. */
 static int wrap(struct cpdf *r, const char *text, double width, double size,
-		int bold, char (*lines)[LINE_LEN], int max)
+                int bold, char (*lines)[LINE_LEN], int max)
 {
 	char try[LINE_LEN];
 	const char *p = text;
@@ -138,7 +138,7 @@ static int wrap(struct cpdf *r, const char *text, double width, double size,
 		while (*e && *e != ' ')
 			e++;
 		snprintf(try, sizeof try, "%s%s%.*s", lines[n], len ? " " : "",
-			 (int)(e - p), p);
+		         (int)(e - p), p);
 		if (len && cpdf_width_of(r, try, size, bold) > width) {
 			if (++n == max)
 				break;
@@ -152,12 +152,13 @@ static int wrap(struct cpdf *r, const char *text, double width, double size,
 }
 
 void cpdf_para(struct cpdf *r, const char *text, double size, int bold,
-		 double indent, double after)
+               double indent, double after)
 {
 	char lines[MAX_LINES][LINE_LEN];
 	double h = size * LINE;
 	int n = wrap(r, text, r->x1 - r->x0 - indent, size, bold, lines,
-		     MAX_LINES), i;
+	             MAX_LINES),
+	    i;
 
 	for (i = 0; i < n && r->st == OW_OK; i++) {
 		cpdf_need(r, h);
@@ -166,7 +167,7 @@ void cpdf_para(struct cpdf *r, const char *text, double size, int bold,
 		ow_canvas_set_colour(r->cv, cpdf_ink());
 		ow_canvas_set_font(r->cv, size, bold);
 		ow_canvas_text(r->cv, r->x0 + indent, r->y + 0.8 * size,
-			       lines[i], OW_ALIGN_LEFT, OW_VALIGN_BASELINE, 0);
+		               lines[i], OW_ALIGN_LEFT, OW_VALIGN_BASELINE, 0);
 		r->y += h;
 	}
 	r->y += after;
@@ -182,7 +183,7 @@ void cpdf_heading(struct cpdf *r, const char *text, double follow)
 	ow_canvas_set_colour(r->cv, cpdf_ink());
 	ow_canvas_set_font(r->cv, 12.0, 1);
 	ow_canvas_text(r->cv, r->x0, r->y + 10.0, text, OW_ALIGN_LEFT,
-		       OW_VALIGN_BASELINE, 0);
+	               OW_VALIGN_BASELINE, 0);
 	ow_canvas_set_line_width(r->cv, 0.6);
 	ow_canvas_move_to(r->cv, r->x0, r->y + 14.5);
 	ow_canvas_line_to(r->cv, r->x1, r->y + 14.5);
@@ -203,7 +204,7 @@ static double col_x(const struct cpdf *r, const struct table *t, int c)
 }
 
 static void row_text(struct cpdf *r, const struct table *t, int c, double y,
-		     const char *s)
+                     const char *s)
 {
 	double x = col_x(r, t, c) + 3.0, w = t->frac[c] * (r->x1 - r->x0);
 
@@ -220,8 +221,8 @@ void cpdf_table_head(struct cpdf *r, const struct table *t)
 
 	for (c = 0; c < t->n; c++) {
 		n[c] = wrap(r, t->head[c] ? t->head[c] : "",
-			    t->frac[c] * (r->x1 - r->x0) - 6.0, SMALL_PT, 1,
-			    lines[c], 3);
+		            t->frac[c] * (r->x1 - r->x0) - 6.0, SMALL_PT, 1,
+		            lines[c], 3);
 		most = n[c] > most ? n[c] : most;
 	}
 	h = most * lh + 4.0;
@@ -236,14 +237,14 @@ void cpdf_table_head(struct cpdf *r, const struct table *t)
 	for (c = 0; c < t->n; c++)
 		for (i = 0; i < n[c]; i++)
 			row_text(r, t, c, r->y + 2.0 + (i + 0.8) * lh,
-				 lines[c][i]);
+			         lines[c][i]);
 	r->y += h;
 }
 
 /* One row; cells wrap in their column; shade: a light background; bold:
  * the whole row in bold. The header is repeated after a page break. */
 void cpdf_table_row(struct cpdf *r, const struct table *t,
-		      const char *const *cells, int shade, int bold)
+                    const char *const *cells, int shade, int bold)
 {
 	char lines[MAX_COLS][4][LINE_LEN];
 	int n[MAX_COLS], c, i, most = 1;
@@ -251,8 +252,8 @@ void cpdf_table_row(struct cpdf *r, const struct table *t,
 
 	for (c = 0; c < t->n; c++) {
 		n[c] = wrap(r, cells[c] ? cells[c] : "",
-			    t->frac[c] * (r->x1 - r->x0) - 6.0, SMALL_PT,
-			    bold || c == 0, lines[c], 4);
+		            t->frac[c] * (r->x1 - r->x0) - 6.0, SMALL_PT,
+		            bold || c == 0, lines[c], 4);
 		most = n[c] > most ? n[c] : most;
 	}
 	h = most * lh + 3.0;
@@ -272,7 +273,7 @@ void cpdf_table_row(struct cpdf *r, const struct table *t,
 		ow_canvas_set_font(r->cv, SMALL_PT, bold || c == 0);
 		for (i = 0; i < n[c]; i++)
 			row_text(r, t, c, r->y + 1.5 + (i + 0.8) * lh,
-				 lines[c][i]);
+			         lines[c][i]);
 	}
 	ow_canvas_set_colour(r->cv, ow_rgb(0.8, 0.8, 0.8));
 	ow_canvas_set_line_width(r->cv, 0.4);
@@ -315,7 +316,6 @@ const char *cpdf_tunit(const struct cpdf *r)
 	return ow_display_label(r->o->units, OW_DIM_TEMPERATURE);
 }
 
-
 /* ---- footer, saving ------------------------------------------------------ */
 
 static void footer(struct cpdf *r, int k)
@@ -326,9 +326,10 @@ static void footer(struct cpdf *r, int k)
 	open_canvas(r, k);
 	if (r->st != OW_OK)
 		return;
-	snprintf(left, sizeof left, "Comparison: %s and %s   ·   %s   ·   "
-		 "opwin %s", cpdf_label(r, 0), cpdf_label(r, 1), r->o->date,
-		 OW_VERSION);
+	snprintf(left, sizeof left,
+	         "Comparison: %s and %s   ·   %s   ·   "
+	         "opwin %s",
+	         cpdf_label(r, 0), cpdf_label(r, 1), r->o->date, OW_VERSION);
 	snprintf(right, sizeof right, "page %d of %d", k + 1, r->n_pages);
 	ow_canvas_set_colour(r->cv, ow_rgb(0.55, 0.55, 0.55));
 	ow_canvas_set_line_width(r->cv, 0.5);
@@ -338,10 +339,10 @@ static void footer(struct cpdf *r, int k)
 	ow_canvas_set_colour(r->cv, ow_rgb(0.25, 0.25, 0.25));
 	ow_canvas_set_font(r->cv, 7.5, 0);
 	ow_canvas_text(r->cv, r->x0, y + 11.0, left, OW_ALIGN_LEFT,
-		       OW_VALIGN_BASELINE, 0);
+	               OW_VALIGN_BASELINE, 0);
 	ow_canvas_set_font(r->cv, 8.0, 1);
 	ow_canvas_text(r->cv, r->x1, y + 11.0, right, OW_ALIGN_RIGHT,
-		       OW_VALIGN_BASELINE, 0);
+	               OW_VALIGN_BASELINE, 0);
 	close_canvas(r);
 }
 
@@ -367,8 +368,8 @@ static void save(struct cpdf *r, const char *path)
 		HPDF_ResetError(r->pdf);
 	check(r);
 	if (r->st == OW_OK)
-		r->st = ow_results_write_file(path, (const char *)buf, len,
-					      r->d);
+		r->st =
+		    ow_results_write_file(path, (const char *)buf, len, r->d);
 	free(buf);
 }
 
@@ -411,8 +412,8 @@ static enum ow_status open_doc(struct cpdf *r)
 }
 
 enum ow_status ow_compare_write_pdf(const struct ow_compare *cmp,
-				    const struct ow_compare_draw_options *o,
-				    const char *pdf_path, struct ow_diag *d)
+                                    const struct ow_compare_draw_options *o,
+                                    const char *pdf_path, struct ow_diag *d)
 {
 	struct cpdf r;
 	int k;
@@ -420,9 +421,10 @@ enum ow_status ow_compare_write_pdf(const struct ow_compare *cmp,
 	if (!cmp || !o || !pdf_path)
 		return ow_diag_set(d, OW_EARG, "compare.pdf: NULL argument");
 	if (!valid_date(o->date))
-		return ow_diag_set(d, OW_EARG, "compare.pdf: date \"%s\": "
-				   "expected YYYY-MM-DD",
-				   o->date ? o->date : "");
+		return ow_diag_set(d, OW_EARG,
+		                   "compare.pdf: date \"%s\": "
+		                   "expected YYYY-MM-DD",
+		                   o->date ? o->date : "");
 	memset(&r, 0, sizeof r);
 	r.cmp = cmp;
 	r.o = o;

@@ -13,12 +13,12 @@
 #include "ow_compare.h"
 
 #define MAX_PAGES 32
-#define BODY_PT 9.0  /* body text */
-#define SMALL_PT 8.0 /* tables */
-#define LINE 1.32    /* line height per point of font size */
-#define MAX_LINES 24 /* lines of one paragraph */
-#define LINE_LEN 256
-#define MAX_COLS 6
+#define BODY_PT   9.0  /* body text */
+#define SMALL_PT  8.0  /* tables */
+#define LINE      1.32 /* line height per point of font size */
+#define MAX_LINES 24   /* lines of one paragraph */
+#define LINE_LEN  256
+#define MAX_COLS  6
 
 struct cpdf {
 	const struct ow_compare *cmp;
@@ -27,11 +27,11 @@ struct cpdf {
 	struct ow_canvas_fonts fonts;
 	HPDF_Page pages[MAX_PAGES];
 	int n_pages;
-	struct ow_canvas *cv;   /* the current page's canvas */
-	double pw, ph;          /* page size, pt */
-	double x0, x1, y0, y1;  /* text column and its top and bottom */
-	double y;               /* cursor: top of the next block */
-	enum ow_status st;      /* first failure */
+	struct ow_canvas *cv;  /* the current page's canvas */
+	double pw, ph;         /* page size, pt */
+	double x0, x1, y0, y1; /* text column and its top and bottom */
+	double y;              /* cursor: top of the next block */
+	enum ow_status st;     /* first failure */
 	struct ow_diag *d;
 	HPDF_STATUS hpdf_error; /* first libharu error */
 };
@@ -54,7 +54,7 @@ double cpdf_width_of(struct cpdf *r, const char *s, double size, int bold);
 
 /* A wrapped paragraph at indent from the left edge, after points below. */
 void cpdf_para(struct cpdf *r, const char *text, double size, int bold,
-	       double indent, double after);
+               double indent, double after);
 /* A section heading kept with at least follow points of content. */
 void cpdf_heading(struct cpdf *r, const char *text, double follow);
 
@@ -62,7 +62,7 @@ void cpdf_table_head(struct cpdf *r, const struct table *t);
 /* One row: t->n cells wrapping in their columns (first column bold);
  * shade: a light background; bold: the whole row bold. */
 void cpdf_table_row(struct cpdf *r, const struct table *t,
-		    const char *const *cells, int shade, int bold);
+                    const char *const *cells, int shade, int bold);
 
 /* v with dec decimals, U+2212 minus, "—" for NAN. Returns buf. */
 char *cpdf_fix(char *buf, size_t n, double v, int dec);

@@ -48,11 +48,11 @@ enum ow_cmp_at {
 /* Both cases solved alone (as `opwin point` would) at one point of the
  * shared axes. */
 struct ow_cmp_point {
-	int valid;              /* 0: that window is empty: no point */
-	double rpm;             /* rev/min */
-	double axis;            /* barrel axis value (K or K difference) */
-	double set_ref_K[2];    /* each case's reference zone set-point */
-	struct ow_point pt[2];  /* [OW_CMP_A], [OW_CMP_B] */
+	int valid;             /* 0: that window is empty: no point */
+	double rpm;            /* rev/min */
+	double axis;           /* barrel axis value (K or K difference) */
+	double set_ref_K[2];   /* each case's reference zone set-point */
+	struct ow_point pt[2]; /* [OW_CMP_A], [OW_CMP_B] */
 	struct ow_verdict v[2];
 };
 
@@ -66,12 +66,12 @@ struct ow_compare {
 	 * and melt temperature ranges over the common rectangle. */
 	struct ow_grid *common_grid[2];
 	struct ow_window *common[2];
-	unsigned char *cls;             /* [ia * n_rpm + ir]: ow_cmp_class */
-	int n_rpm, n_axis;              /* lattice size */
-	int count[OW_CMP_CLASSES];      /* lattice points per class */
+	unsigned char *cls;        /* [ia * n_rpm + ir]: ow_cmp_class */
+	int n_rpm, n_axis;         /* lattice size */
+	int count[OW_CMP_CLASSES]; /* lattice points per class */
 	/* Where only A is safe, how many points fail each check in B (and
 	 * the other way round): which limit costs which case its window. */
-	int lost[2][OW_CK_COUNT];       /* [k]: safe only in k, fails in 1-k */
+	int lost[2][OW_CK_COUNT]; /* [k]: safe only in k, fails in 1-k */
 	struct ow_cmp_point at[OW_CMP_AT_COUNT];
 };
 
@@ -83,9 +83,9 @@ struct ow_compare {
  * sweep config c overrides them (--grid). OW_EINPUT with "<A file> and
  * <B file>: <field> differs (A: x, B: y): ..." naming the study field. */
 enum ow_status ow_compare_check_axes(const struct ow_study *a,
-				     const struct ow_study *b,
-				     const struct ow_sweep_config *c,
-				     struct ow_diag *d);
+                                     const struct ow_study *b,
+                                     const struct ow_sweep_config *c,
+                                     struct ow_diag *d);
 
 /* Combine lattices a and b (same size) into *out: bits OR-ed, margins
  * min-ed (fmin: a limit set in one study only keeps that study's margin),
@@ -93,28 +93,29 @@ enum ow_status ow_compare_check_axes(const struct ow_study *a,
  * a, figures from a (take_b 0) or b (take_b 1). Owned by the caller
  * (ow_grid_destroy). OW_EARG when the sizes differ. */
 enum ow_status ow_compare_combine(const struct ow_grid *a,
-				  const struct ow_grid *b, int take_b,
-				  struct ow_grid **out, struct ow_diag *d);
+                                  const struct ow_grid *b, int take_b,
+                                  struct ow_grid **out, struct ow_diag *d);
 
 /* A copy of study s whose limits are those of s and, where s sets none,
  * those of other: the limits the combined lattice is judged by (window
  * edges and boundaries). malloc'd; the caller frees it with free(). */
 struct ow_study *ow_compare_merged_study(const struct ow_study *s,
-					 const struct ow_study *other);
+                                         const struct ow_study *other);
 
-/* Check the axes, sweep both studies with config c (progress is reported
- * per study), combine, extract the three windows, classify every lattice
- * point and solve both cases at the three centres. *out owned by the
- * caller (ow_compare_destroy); a and b must outlive it. */
+/* Check the axes, sweep both studies with config c (its progress callback
+ * sees both sweeps as one count: A's points, then B's), combine, extract the
+ * three windows, classify every lattice point and solve both cases at the three
+ * centres. *out owned by the caller (ow_compare_destroy); a and b must outlive
+ * it. */
 enum ow_status ow_compare_run(const struct ow_study *a,
-			      const struct ow_study *b,
-			      const struct ow_sweep_config *c,
-			      struct ow_compare **out, struct ow_diag *d);
+                              const struct ow_study *b,
+                              const struct ow_sweep_config *c,
+                              struct ow_compare **out, struct ow_diag *d);
 void ow_compare_destroy(struct ow_compare *cmp);
 
 /* Class of lattice point (ir, ia). */
 enum ow_cmp_class ow_compare_class_at(const struct ow_compare *cmp, int ir,
-				      int ia);
+                                      int ia);
 
 /* Key ("common_centre", "a_centre", "b_centre") and description of a
  * comparison point. */
@@ -137,8 +138,8 @@ enum ow_dim ow_compare_figure_dim(int i);
  * difference B - A of two shown values is a temperature difference in K
  * or degF (the offsets cancel). */
 double ow_compare_figure_shown(const struct ow_study *s,
-			       const struct ow_point *pt, int i,
-			       enum ow_unit_system sys);
+                               const struct ow_point *pt, int i,
+                               enum ow_unit_system sys);
 const char *ow_compare_figure_unit(int i, enum ow_unit_system sys);
 int ow_compare_figure_decimals(int i, enum ow_unit_system sys);
 
@@ -155,14 +156,14 @@ struct ow_input_diff {
  * screen pack, limits, numerics) and write each differing field to
  * out[] (at most max); returns how many differ (may exceed max). */
 int ow_compare_inputs(const struct ow_study *a, const struct ow_study *b,
-		      enum ow_unit_system sys, struct ow_input_diff *out,
-		      int max);
+                      enum ow_unit_system sys, struct ow_input_diff *out,
+                      int max);
 
 /* The same walk over every field (all 1: also those that are equal, for
  * echoing both inputs side by side; all 0: ow_compare_inputs). */
 int ow_compare_fields(const struct ow_study *a, const struct ow_study *b,
-		      enum ow_unit_system sys, int all,
-		      struct ow_input_diff *out, int max);
+                      enum ow_unit_system sys, int all,
+                      struct ow_input_diff *out, int max);
 
 /* ---- outputs (compare_out.c) ---- */
 
@@ -174,14 +175,14 @@ int ow_compare_fields(const struct ow_study *a, const struct ow_study *b,
  * one case is safe, the figures of A, B and B-A at the three centres)
  * and "inputs" (the differing input fields, SI display). malloc'd text. */
 enum ow_status ow_compare_json(const struct ow_compare *cmp, char **out,
-			       struct ow_diag *d);
+                               struct ow_diag *d);
 
 /* compare.csv: one row per lattice point solved in both cases: rpm,
  * axis_value, set_C, then each figure of point --json for A and for B
  * side by side (<key>_a,<key>_b), status_a, status_b (names joined by
  * ';', empty when safe). malloc'd text. */
 enum ow_status ow_compare_csv(const struct ow_compare *cmp, char **out,
-			      struct ow_diag *d);
+                              struct ow_diag *d);
 
 /* ---- drawing (compare_draw.c) ---- */
 
@@ -198,7 +199,7 @@ struct ow_compare_draw_options {
  * one more while that would turn the range over; U+2212 minus, U+2013
  * dash. Returns buf. */
 char *ow_compare_format_range(char *buf, size_t n, double lo, double hi,
-			      int decimals);
+                              int decimals);
 
 /* Defaults: SI, labels "A" and "B", 9 pt, no date. */
 void ow_compare_draw_default(struct ow_compare_draw_options *o);
@@ -208,22 +209,22 @@ void ow_compare_draw_default(struct ow_compare_draw_options *o);
  * label), both recommended rectangles thinly, the common rectangle bold,
  * the three centres with distinct markers, and a legend. */
 enum ow_status ow_compare_draw_overlay(struct ow_canvas *cv,
-				       const struct ow_rect *box,
-				       const struct ow_compare *cmp,
-				       const struct ow_compare_draw_options *o,
-				       struct ow_diag *d);
+                                       const struct ow_rect *box,
+                                       const struct ow_compare *cmp,
+                                       const struct ow_compare_draw_options *o,
+                                       struct ow_diag *d);
 
 /* compare.png and compare.svg into the existing folder dir, atomically. */
 enum ow_status ow_compare_write_maps(const struct ow_compare *cmp,
-				     const struct ow_compare_draw_options *o,
-				     const char *dir, struct ow_diag *d);
+                                     const struct ow_compare_draw_options *o,
+                                     const char *dir, struct ow_diag *d);
 
 /* compare.pdf at pdf_path (built in memory, written atomically): title
  * block, both inputs echoed, the input fields that differ, the overlay
  * map, the windows and the comparison table at the centres, cautions.
  * OW_EARG without a date; OW_EIO naming the path or the missing font. */
 enum ow_status ow_compare_write_pdf(const struct ow_compare *cmp,
-				    const struct ow_compare_draw_options *o,
-				    const char *pdf_path, struct ow_diag *d);
+                                    const struct ow_compare_draw_options *o,
+                                    const char *pdf_path, struct ow_diag *d);
 
 #endif

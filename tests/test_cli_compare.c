@@ -13,7 +13,7 @@
 
 #define FAST "tests/data/map-fast.json"
 #define WORN "tests/data/compare-fast-worn.json"
-#define OUT "build/tests/cmp-fast"
+#define OUT  "build/tests/cmp-fast"
 
 static int ran;
 
@@ -55,7 +55,8 @@ static void compare_fast(void)
 	if (ran)
 		return;
 	cli_run("compare " FAST " " WORN " -o " OUT " --quiet --jobs 2 "
-		"--date 2024-01-02 --label-a new --label-b worn", &r);
+	        "--date 2024-01-02 --label-a new --label-b worn",
+	        &r);
 	if (r.code != 0)
 		fprintf(stderr, "%s\n", r.err);
 	assert_int_equal(r.code, 0);
@@ -71,8 +72,10 @@ static int safe_point(const char *study, double rpm, double axis)
 	cJSON *j;
 	int n;
 
-	snprintf(args, sizeof args, "point %s --rpm %.17g --set '%.17g K' "
-		 "--json", study, rpm, axis);
+	snprintf(args, sizeof args,
+	         "point %s --rpm %.17g --set '%.17g K' "
+	         "--json",
+	         study, rpm, axis);
 	cli_run(args, &r);
 	assert_int_equal(r.code, 0);
 	j = cJSON_Parse(r.out);
@@ -135,7 +138,7 @@ static void common_window_is_contained_in_each_case(void **state)
 	csv = cli_slurp(OUT "/compare.csv");
 	assert_non_null(csv);
 	assert_non_null(strstr(csv, "rpm,axis_value,set_C,output_kg_h_a,"
-				    "output_kg_h_b,"));
+	                            "output_kg_h_b,"));
 	for (line = strtok_r(strchr(csv, '\n') + 1, "\n", &save); line;
 	     line = strtok_r(NULL, "\n", &save)) {
 		double rpm = atof(line), ax = atof(strchr(line, ',') + 1);
@@ -156,8 +159,10 @@ static void common_window_is_contained_in_each_case(void **state)
 	assert_int_equal(both, (int)num(d, "safe_both"));
 	assert_int_equal(a_only, (int)num(d, "safe_a_only"));
 	assert_int_equal(b_only, (int)num(d, "safe_b_only"));
-	assert_true(num(c, "safe_fraction") <= num(obj(j, "a"), "safe_fraction"));
-	assert_true(num(c, "safe_fraction") <= num(obj(j, "b"), "safe_fraction"));
+	assert_true(num(c, "safe_fraction") <=
+	            num(obj(j, "a"), "safe_fraction"));
+	assert_true(num(c, "safe_fraction") <=
+	            num(obj(j, "b"), "safe_fraction"));
 	free(csv);
 	cJSON_Delete(j);
 }
@@ -170,7 +175,7 @@ static void common_window_is_contained_in_each_case(void **state)
 static void worn_screw_shows_less_output_and_another_window(void **state)
 {
 	static const char *keys[] = {"rpm_min", "rpm_max", "axis_min",
-				     "axis_max"};
+	                             "axis_max"};
 	cJSON *j;
 	const cJSON *a, *b, *at, *p;
 	size_t k;
@@ -190,11 +195,11 @@ static void worn_screw_shows_less_output_and_another_window(void **state)
 
 		assert_true(qb < qa);
 		assert_rel(num(obj(p, "b_minus_a"), "output_kg_h"), qb - qa,
-			   1e-12);
+		           1e-12);
 	}
 	for (p = obj(j, "inputs")->child; p; p = p->next)
 		if (!strcmp(obj(p, "field")->valuestring,
-			    "screw.wear[0].clearance"))
+		            "screw.wear[0].clearance"))
 			break;
 	assert_non_null(p);
 	assert_string_equal(obj(p, "b")->valuestring, "0.4 mm");
@@ -223,25 +228,28 @@ static void studies_whose_sweeps_differ_are_refused(void **state)
 	(void)state;
 	variant("build/tests/cmp-steps.json", "\"steps\": 11", "\"steps\": 21");
 	cli_run("compare " FAST " build/tests/cmp-steps.json -o "
-		"build/tests/cmp-refused --quiet", &r);
+	        "build/tests/cmp-refused --quiet",
+	        &r);
 	assert_int_equal(r.code, 1);
 	assert_non_null(strstr(r.err, "sweep.rpm.steps"));
 	assert_non_null(strstr(r.err, FAST));
 	assert_non_null(strstr(r.err, "build/tests/cmp-steps.json"));
 	cli_result_free(&r);
 	variant("build/tests/cmp-mode.json",
-		"\"mode\": \"shift\",\n      \"from\": \"-30 K\",\n"
-		"      \"to\": \"30 K\"",
-		"\"mode\": \"zone\", \"zone\": 2, \"from\": \"170 degC\", "
-		"\"to\": \"230 degC\"");
+	        "\"mode\": \"shift\",\n      \"from\": \"-30 K\",\n"
+	        "      \"to\": \"30 K\"",
+	        "\"mode\": \"zone\", \"zone\": 2, \"from\": \"170 degC\", "
+	        "\"to\": \"230 degC\"");
 	cli_run("compare build/tests/cmp-mode.json " FAST " --quiet -o "
-		"build/tests/cmp-refused", &r);
+	        "build/tests/cmp-refused",
+	        &r);
 	assert_int_equal(r.code, 1);
 	assert_non_null(strstr(r.err, "sweep.barrel.mode"));
 	cli_result_free(&r);
 	/* --grid sets one lattice for both: the steps no longer matter */
 	cli_run("compare " FAST " build/tests/cmp-steps.json --grid 6x5 "
-		"--quiet -o build/tests/cmp-grid", &r);
+	        "--quiet -o build/tests/cmp-grid",
+	        &r);
 	assert_int_equal(r.code, 0);
 	cli_result_free(&r);
 	cli_run("compare " FAST " --quiet", &r);
@@ -265,8 +273,9 @@ static void maps_and_pdf_are_written(void **state)
 	assert_true(file_size(OUT "/compare.png") > 1000);
 	assert_true(file_size(OUT "/compare.svg") > 1000);
 	assert_true(file_size(OUT "/compare.pdf") > 1000);
-	assert_int_equal(system("pdftotext -layout " OUT "/compare.pdf "
-				OUT "/compare.txt 2>/dev/null"), 0);
+	assert_int_equal(system("pdftotext -layout " OUT "/compare.pdf " OUT
+	                        "/compare.txt 2>/dev/null"),
+	                 0);
 	{
 		char *txt = cli_slurp(OUT "/compare.txt");
 
@@ -283,11 +292,11 @@ static void maps_and_pdf_are_written(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(common_corners_and_centre_are_safe_for_both),
-		cmocka_unit_test(common_window_is_contained_in_each_case),
-		cmocka_unit_test(worn_screw_shows_less_output_and_another_window),
-		cmocka_unit_test(studies_whose_sweeps_differ_are_refused),
-		cmocka_unit_test(maps_and_pdf_are_written),
+	    cmocka_unit_test(common_corners_and_centre_are_safe_for_both),
+	    cmocka_unit_test(common_window_is_contained_in_each_case),
+	    cmocka_unit_test(worn_screw_shows_less_output_and_another_window),
+	    cmocka_unit_test(studies_whose_sweeps_differ_are_refused),
+	    cmocka_unit_test(maps_and_pdf_are_written),
 	};
 
 	return cmocka_run_group_tests(tests, NULL, NULL);

@@ -42,7 +42,7 @@ static struct ow_study *load(const char *path)
 }
 
 static struct ow_compare *run(const struct ow_study *a,
-			      const struct ow_study *b, int refine)
+                              const struct ow_study *b, int refine)
 {
 	struct ow_sweep_config c;
 	struct ow_compare *cmp = NULL;
@@ -121,7 +121,7 @@ static void combine_refuses_lattices_of_different_size(void **state)
 
 /* The first differing sweep field is named, with both files. */
 static void expect_refused(const struct ow_study *a, const struct ow_study *b,
-			   const struct ow_sweep_config *c, const char *field)
+                           const struct ow_sweep_config *c, const char *field)
 {
 	struct ow_diag d = {{0}};
 
@@ -179,12 +179,13 @@ static void check_common_inside_both(const struct ow_compare *cmp)
 	for (ia = 0; ia < cmp->n_axis; ia++)
 		for (ir = 0; ir < cmp->n_rpm; ir++) {
 			int in = safe(cmp->grid[0], ir, ia) &&
-				 safe(cmp->grid[1], ir, ia);
+			         safe(cmp->grid[1], ir, ia);
 
 			assert_int_equal(safe(cmp->common_grid[0], ir, ia), in);
 			both += in;
 			assert_int_equal(ow_compare_class_at(cmp, ir, ia) ==
-						 OW_CMP_BOTH, in);
+			                     OW_CMP_BOTH,
+			                 in);
 			if (ir >= w->ir0 && ir <= w->ir1 && ia >= w->ia0 &&
 			    ia <= w->ia1)
 				assert_true(in);
@@ -203,7 +204,8 @@ static void common_window_lies_inside_both_safe_sets(void **state)
 	check_common_inside_both(cmp);
 	check_common_inside_both(ref); /* refined: lattices refined apart */
 	assert_int_equal(cmp->count[0] + cmp->count[1] + cmp->count[2] +
-				 cmp->count[3], cmp->n_rpm * cmp->n_axis);
+	                     cmp->count[3],
+	                 cmp->n_rpm * cmp->n_axis);
 	ow_compare_destroy(cmp);
 	ow_compare_destroy(ref);
 	free(a);
@@ -250,7 +252,7 @@ static void worn_screw_gives_less_output_and_another_window(void **state)
 		assert_true(q->pt.output_kg_s < p->pt.output_kg_s);
 	}
 	moved = wa->ir0 != wb->ir0 || wa->ir1 != wb->ir1 ||
-		wa->ia0 != wb->ia0 || wa->ia1 != wb->ia1;
+	        wa->ia0 != wb->ia0 || wa->ia1 != wb->ia1;
 	assert_true(moved || wb->safe_fraction < wa->safe_fraction);
 	/* the reason printed: where only the worn screw is safe, the new
 	 * one breaks its pressure limit (less leakage, more pressure) */
@@ -278,11 +280,13 @@ static void centre_figures_are_those_of_a_single_solve(void **state)
 			struct ow_point pt;
 			double set_K[OW_MAX_ZONES];
 
-			ow_line_apply_axis(&cmp->study[k]->line, p->axis, set_K);
-			assert_int_equal(ow_solver_create(cmp->study[k], &sv,
-							  NULL), OW_OK);
-			assert_int_equal(ow_solver_run(sv, p->rpm, set_K, 0.0,
-						       &pt, NULL), OW_OK);
+			ow_line_apply_axis(&cmp->study[k]->line, p->axis,
+			                   set_K);
+			assert_int_equal(
+			    ow_solver_create(cmp->study[k], &sv, NULL), OW_OK);
+			assert_int_equal(
+			    ow_solver_run(sv, p->rpm, set_K, 0.0, &pt, NULL),
+			    OW_OK);
 			assert_rel(p->pt[k].output_kg_s, pt.output_kg_s, 1e-12);
 			assert_rel(p->pt[k].peak_K, pt.peak_K, 1e-12);
 			assert_int_equal(p->v[k].bits, 0); /* centres safe */
@@ -290,7 +294,7 @@ static void centre_figures_are_those_of_a_single_solve(void **state)
 		}
 	}
 	assert_abs(cmp->at[OW_CMP_AT_COMMON].rpm, cmp->common[0]->centre.rpm,
-		   0.0);
+	           0.0);
 	assert_abs(cmp->at[OW_CMP_AT_B].axis, cmp->win[1]->centre.axis, 0.0);
 	ow_compare_destroy(cmp);
 	free(a);
@@ -317,7 +321,7 @@ static void empty_windows_have_no_centre_points(void **state)
 }
 
 static const struct ow_input_diff *find(const struct ow_input_diff *e, int n,
-					const char *field)
+                                        const char *field)
 {
 	int i;
 
@@ -348,7 +352,7 @@ static void input_differences_name_the_fields_with_units(void **state)
 	n = ow_compare_inputs(a, b, OW_SYS_US, e, 64);
 	/* 0.4 mm = 0.015748 in (NIST SP 811: 1 in = 25.4 mm exactly) */
 	assert_string_equal(find(e, n, "screw.wear[0].clearance")->b,
-			    "0.015748 in");
+	                    "0.015748 in");
 	assert_string_equal(find(e, n, "limits.power")->a, "not set");
 	assert_non_null(find(e, n, "resin.melt_density"));
 	assert_int_equal(ow_compare_inputs(a, b, OW_SYS_SI, e, 2), n);
@@ -359,16 +363,15 @@ static void input_differences_name_the_fields_with_units(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(combined_verdict_is_unsafe_where_either_case_is),
-		cmocka_unit_test(combine_refuses_lattices_of_different_size),
-		cmocka_unit_test(axes_that_differ_are_refused_naming_the_field),
-		cmocka_unit_test(common_window_lies_inside_both_safe_sets),
-		cmocka_unit_test(
-			common_window_is_the_same_for_either_case_figures),
-		cmocka_unit_test(worn_screw_gives_less_output_and_another_window),
-		cmocka_unit_test(centre_figures_are_those_of_a_single_solve),
-		cmocka_unit_test(empty_windows_have_no_centre_points),
-		cmocka_unit_test(input_differences_name_the_fields_with_units),
+	    cmocka_unit_test(combined_verdict_is_unsafe_where_either_case_is),
+	    cmocka_unit_test(combine_refuses_lattices_of_different_size),
+	    cmocka_unit_test(axes_that_differ_are_refused_naming_the_field),
+	    cmocka_unit_test(common_window_lies_inside_both_safe_sets),
+	    cmocka_unit_test(common_window_is_the_same_for_either_case_figures),
+	    cmocka_unit_test(worn_screw_gives_less_output_and_another_window),
+	    cmocka_unit_test(centre_figures_are_those_of_a_single_solve),
+	    cmocka_unit_test(empty_windows_have_no_centre_points),
+	    cmocka_unit_test(input_differences_name_the_fields_with_units),
 	};
 
 	return cmocka_run_group_tests(tests, setup, teardown);
