@@ -18,6 +18,12 @@
 #define G_RTOL 2e-5   /* relative throughput tolerance */
 #define P_ATOL 1e3    /* Pa: pressure mismatch accepted ... */
 #define P_RTOL 1e-4   /* ... or this share of the die's need */
+/* Cold start at this share of the metering drag flow: the matched outputs
+ * of the demo and every fixture study lie at 0.9-1.03 of it over 20-120
+ * rpm (a barrier screw down to 0.6), so the march count drops from about
+ * 6 to 4 per point against a start at one half. */
+#define G_START 0.95
+#define G_PROBE 1.05  /* second trial: a 5 % step gives the first secant */
 
 enum ow_status ow_solver_create(const struct ow_study *s,
 				struct ow_solver **out, struct ow_diag *d)
@@ -122,7 +128,7 @@ static int bracket(struct ow_solver *sv, double g0, struct eval *lo,
 	*best = a;
 	if (done(&a))
 		return 1;
-	evaluate(sv, a.f > 0.0 ? g0 * 1.1 : g0 / 1.1, &b, n);
+	evaluate(sv, a.f > 0.0 ? g0 * G_PROBE : g0 / G_PROBE, &b, n);
 	while (b.st == OW_OK && !done(&b) && (a.f > 0.0) == (b.f > 0.0) &&
 	       *n < MAX_MARCHES / 2) {
 		double g = b.g - b.f * (b.g - a.g) / (b.f - a.f);
@@ -254,7 +260,7 @@ enum ow_status ow_solver_run(struct ow_solver *sv, double rpm,
 	out->rpm = rpm;
 	memcpy(out->set_K, sv->set_K, sizeof out->set_K);
 	sv->record = 1; /* every march records: the last one is kept */
-	rc = bracket(sv, warm_kg_s > 0.0 ? warm_kg_s : 0.5 * drag_scale(sv),
+	rc = bracket(sv, warm_kg_s > 0.0 ? warm_kg_s : G_START * drag_scale(sv),
 		     &lo, &hi, &best, &n);
 	ok = rc == 1 || (rc == 0 && refine(sv, &lo, &hi, &best, &n));
 	if (!ok) {
