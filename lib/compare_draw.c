@@ -603,20 +603,54 @@ static enum ow_status draw_body(const struct ow_plot *p,
 	return OW_OK;
 }
 
-/* Below the legend: how many grid points each case alone keeps, and the
- * limits the other case exceeds there (the reason for the difference). */
-static void notes(struct ow_canvas *cv, double x, double y, double w,
+/* Where only case k is safe: its share and the limits the other case
+ * exceeds there (the reason for the difference). Returns the next y. */
+static double only_notes(struct ow_canvas *cv, double x, double y,
+                         const struct ow_compare *cmp,
+                         const struct ow_compare_draw_options *o, double f,
+                         int k)
+{
+	int only = cmp->count[k ? OW_CMP_B_ONLY : OW_CMP_A_ONLY], c;
+	char line[160];
+
+	if (!only)
+		return y;
+	ow_canvas_set_font(cv, f, 1);
+	ow_canvas_set_colour(cv, ink(k));
+	snprintf(line, sizeof line, "Safe only in %s: %.0f %%", label_of(o, k),
+	         100.0 * only / (cmp->n_rpm * cmp->n_axis));
+	ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+	y += 1.4 * f;
+	ow_canvas_set_font(cv, f, 0);
+	ow_canvas_set_colour(cv, ow_rgb(0.12, 0.12, 0.12));
+	snprintf(line, sizeof line, "there %s exceeds:", label_of(o, 1 - k));
+	ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+	y += 1.3 * f;
+	for (c = 0; c < OW_CK_COUNT; c++) {
+		if (!cmp->lost[k][c])
+			continue;
+		snprintf(line, sizeof line, "  %s (%d points)",
+		         ow_check_text((enum ow_check)c), cmp->lost[k][c]);
+		ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+		y += 1.3 * f;
+	}
+	return y + 0.6 * f;
+}
+
+/* Below the legend: the share safe in both, empty windows, and what each
+ * case alone keeps and why. */
+static void notes(struct ow_canvas *cv, double x, double y,
                   const struct ow_compare *cmp,
                   const struct ow_compare_draw_options *o, double f)
 {
 	char line[160];
-	int k, c, n = cmp->n_rpm * cmp->n_axis;
+	int k;
 
 	ow_canvas_save(cv);
 	ow_canvas_set_colour(cv, ow_rgb(0.12, 0.12, 0.12));
 	ow_canvas_set_font(cv, f, 0);
 	snprintf(line, sizeof line, "Safe in both: %.0f %% of the map",
-	         100.0 * cmp->count[OW_CMP_BOTH] / n);
+	         100.0 * cmp->count[OW_CMP_BOTH] / (cmp->n_rpm * cmp->n_axis));
 	ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
 	y += 1.4 * f;
 	for (k = 0; k < 2; k++)
@@ -634,36 +668,8 @@ static void notes(struct ow_canvas *cv, double x, double y, double w,
 		y += 1.4 * f;
 	}
 	y += 0.5 * f;
-	for (k = 0; k < 2; k++) {
-		int only = cmp->count[k ? OW_CMP_B_ONLY : OW_CMP_A_ONLY];
-
-		if (!only)
-			continue;
-		ow_canvas_set_font(cv, f, 1);
-		ow_canvas_set_colour(cv, ink(k));
-		snprintf(line, sizeof line, "Safe only in %s: %.0f %%",
-		         label_of(o, k), 100.0 * only / n);
-		ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
-		y += 1.4 * f;
-		ow_canvas_set_font(cv, f, 0);
-		ow_canvas_set_colour(cv, ow_rgb(0.12, 0.12, 0.12));
-		snprintf(line, sizeof line,
-		         "there %s exceeds:", label_of(o, 1 - k));
-		ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
-		y += 1.3 * f;
-		for (c = 0; c < OW_CK_COUNT; c++) {
-			if (!cmp->lost[k][c])
-				continue;
-			snprintf(line, sizeof line, "  %s (%d points)",
-			         ow_check_text((enum ow_check)c),
-			         cmp->lost[k][c]);
-			ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT,
-			               OW_VALIGN_TOP, 0);
-			y += 1.3 * f;
-		}
-		y += 0.6 * f;
-	}
-	(void)w;
+	for (k = 0; k < 2; k++)
+		y = only_notes(cv, x, y, cmp, o, f, k);
 	ow_canvas_restore(cv);
 }
 
@@ -699,7 +705,7 @@ enum ow_status ow_compare_draw_overlay(struct ow_canvas *cv,
 		ow_plot_axes(&ly->p, &ly->x, &ly->y);
 		ow_plot_legend(cv, lx, ly->p.area.y, ly->e, ly->n, 0.9 * f);
 		ow_plot_legend_size(cv, ly->e, ly->n, 0.9 * f, &lw, &lh);
-		notes(cv, lx + 0.3 * f, ly->p.area.y + lh + 1.2 * f, lw, cmp, o,
+		notes(cv, lx + 0.3 * f, ly->p.area.y + lh + 1.2 * f, cmp, o,
 		      0.9 * f);
 		st = ow_canvas_status(cv, d);
 	}
