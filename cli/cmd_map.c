@@ -184,13 +184,12 @@ static int write_outputs(const struct ow_study *s, const struct ow_grid *g,
 	int rc, n = 0;
 	enum ow_status st = OW_OK;
 
-	rc = write_text(o->dir, "grid.csv", text,
-			ow_results_grid_csv(s, g, &text, &d), &d);
-	text = NULL;
-	if (!rc)
-		rc = write_text(o->dir, "window.json", text,
-				ow_results_window_json(s, g, w, &text, &d),
-				&d);
+	st = ow_results_grid_csv(s, g, &text, &d);
+	rc = write_text(o->dir, "grid.csv", text, st, &d);
+	if (!rc) {
+		st = ow_results_window_json(s, g, w, &text, &d);
+		rc = write_text(o->dir, "window.json", text, st, &d);
+	}
 	if (rc)
 		return rc;
 	if (!w->empty) /* the centre point, solved alone, with its profile */

@@ -19,6 +19,10 @@ echo "== one operating point: 60 rpm, the study's own set-points"
 echo "== the operating window"
 "$opwin" map "$here/study-si.json" -o "$out/window" --refine 1
 
+echo "== the demo screw new and worn, on one grid"
+"$opwin" compare "$here/study-si.json" "$here/compare-study-worn.json" \
+	-o "$out/compare" --grid 21x21 --label-a new --label-b worn
+
 echo "== the demo resin refitted from (invented) lab data"
 "$opwin" fit "$here/lab/hdpe-pipe-lab.csv" -o "$out/fitted-viscosity.json" \
 	--plot "$out/fit.png"

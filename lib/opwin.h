@@ -13,5 +13,16 @@
 #include "ow_config.h"
 #include "ow_advise.h"
 #include "ow_results.h"
+#include "ow_solver.h"
+#include "ow_classify.h"
+#include "ow_sweep.h"
+#include "ow_window.h"
+#include "ow_fit.h"
+#include "ow_canvas.h"
+#include "ow_plot.h"
+#include "ow_maps.h"
+#include "ow_report.h"
+#include "ow_mapdir.h"
+#include "ow_compare.h"
 
 #endif
