@@ -42,7 +42,7 @@ enum ow_status ow_melt_create(int depth_nodes, int bands,
 	ws->cell_mem = calloc(12 * nc, sizeof(double));
 	ws->cell_band = calloc(nc, sizeof(int));
 	ws->y = calloc(8 * nn, sizeof(double));
-	ws->t = calloc(12 * nb, sizeof(double));
+	ws->t = calloc(13 * nb, sizeof(double));
 	ws->seg_lo = calloc(4 * nb, sizeof(double));
 	ws->seg_band = calloc(2 * nb, sizeof(int));
 	if (!ws->cell_mem || !ws->cell_band || !ws->y || !ws->t ||
@@ -66,6 +66,14 @@ enum ow_status ow_melt_create(int depth_nodes, int bands,
 	ws->gr = ws->t + 5 * nb;
 	ws->tri = ws->t + 6 * nb;   /* 2 nb */
 	ws->legs = ws->t + 8 * nb;  /* 4 nb */
+	ws->level = ws->t + 12 * nb;
+	for (size_t k = 0; k < nb; k++) {
+		/* stream-function levels of the band edges, s_k = cos^2(pi
+		 * (k + 1) / (2K)), the outermost at the walls (0) */
+		double c = cos(OW_MELT_PI * (double)(k + 1) / (2.0 * (double)nb));
+
+		ws->level[k] = k + 1 == nb ? 0.0 : c * c;
+	}
 	ws->seg_hi = ws->seg_lo + 2 * nb;
 	ws->hcache = -1.0;
 	*out = ws;
@@ -255,7 +263,8 @@ static void bookkeeping(const struct ow_melt_ws *ws,
 	o->max_shear_1_s = 0.0;
 	for (int j = 0; j < ws->nn; j++) {
 		double yh = (double)j / (double)ws->nc;
-		double tau = hypot(p[0] + p[1] * yh, p[2] + p[3] * yh);
+		double tz = p[0] + p[1] * yh, tx = p[2] + p[3] * yh;
+		double tau = sqrt(tz * tz + tx * tx); /* no overflow at Pa */
 
 		if (j > 0)
 			o->max_shear_1_s = fmax(o->max_shear_1_s,

@@ -483,7 +483,7 @@ static void fill_profile(struct ow_melt_ws *ws, const struct melt_station *st)
 			phi += ph[j], k++;
 		phi /= (double)k;
 		ws->y[j] = yh * H;
-		ws->gd[j] = phi * hypot(tz, tx);
+		ws->gd[j] = phi * sqrt(tz * tz + tx * tx);
 		ws->dis[j] = phi * (tz * tz + tx * tx);
 		ws->eta[j] = 1.0 / phi;
 	}

@@ -107,15 +107,17 @@ static void find_centre(struct ow_melt_ws *ws)
 /* Solve psi(y)/psi* = s for y in [ya, yb] (inside one cell) where the left
  * side runs from fa to fb (bracketing s): Newton on the cell's exact cubic
  * psi = psi_c + H (u_c t + phi H (tau_c t^2/2 + beta t^3/6)), t = y/H - y_c
- * (slope u_x/psi*), falling back to bisection when a step leaves the
- * bracket. A Newton step dt leaves an error of about |f''/(2 f')| dt^2, so
- * the last one is taken without evaluating again. */
+ * (slope H u_x), falling back to bisection when a step leaves the bracket.
+ * A Newton step dt leaves an error of about |F''/(2 F')| dt^2, so the last
+ * one is taken without evaluating again. */
 static double level_in(const struct ow_melt_ws *ws, double s, double ya,
 		       double yb, double fa, double fb)
 {
-	double hh = 1.0 / (double)ws->nc, H = ws->H, up = fb > fa ? 1.0 : -1.0;
+	double hh = 1.0 / (double)ws->nc, H = ws->H;
+	/* F = psi - s psi* increases with t where up > 0 */
+	double up = (fb > fa) == (ws->psistar > 0.0) ? 1.0 : -1.0;
 	int c = (int)floor(0.5 * (ya + yb) / H / hh);
-	double yc, phi, tx, b3, u0, k, ta, tb, t;
+	double yc, a1, a2, a3, b2, F0, ta, tb, t;
 
 	fa -= s;
 	fb -= s;
@@ -125,31 +127,29 @@ static double level_in(const struct ow_melt_ws *ws, double s, double ya,
 		return yb;
 	c = c < 0 ? 0 : (c > ws->nc - 1 ? ws->nc - 1 : c);
 	yc = (double)c * hh;
-	phi = ws->cur.phi[c];
-	tx = ws->p[2] + ws->p[3] * yc;
-	b3 = ws->p[3];
-	u0 = ws->ux[c];
-	k = H / ws->psistar;
+	/* F(t) = F0 + a1 t + a2 t^2 + a3 t^3 */
+	F0 = ws->psi[c] - s * ws->psistar;
+	a1 = H * ws->ux[c];
+	b2 = ws->cur.phi[c] * H * H;
+	a2 = b2 * (ws->p[2] + ws->p[3] * yc) / 2.0;
+	a3 = b2 * ws->p[3] / 6.0;
 	ta = ya / H - yc;
 	tb = yb / H - yc;
 	t = ta - fa * (tb - ta) / (fb - fa);
 	for (int it = 0; it < 60; it++) {
-		double ux = u0 + phi * H * (tx * t + b3 * t * t / 2.0);
-		double f = (ws->psi[c] +
-			    H * (u0 * t + phi * H * (tx * t * t / 2.0 +
-						     b3 * t * t * t / 6.0))) /
-				   ws->psistar - s;
-		double d1 = k * ux, d2 = k * phi * H * (tx + b3 * t), tn;
+		double F = F0 + t * (a1 + t * (a2 + t * a3));
+		double d1 = a1 + t * (2.0 * a2 + 3.0 * a3 * t);
+		double d2 = 2.0 * a2 + 6.0 * a3 * t, tn;
 
-		if (f == 0.0)
+		if (F == 0.0)
 			return (yc + t) * H;
-		if (f * up > 0.0) /* past the root */
+		if (F * up > 0.0) /* past the root */
 			tb = t;
 		else
 			ta = t;
-		tn = d1 != 0.0 ? t - f / d1 : 0.5 * (ta + tb);
-		if (tn > ta && tn < tb && d1 != 0.0 &&
-		    fabs(d2 / d1) * (tn - t) * (tn - t) < 2.0 * LEVEL_TOL)
+		tn = d1 != 0.0 ? t - F / d1 : 0.5 * (ta + tb);
+		if (tn > ta && tn < tb &&
+		    fabs(d2) * (tn - t) * (tn - t) < 2.0 * LEVEL_TOL * fabs(d1))
 			return (yc + tn) * H;
 		if (fabs(tn - t) < LEVEL_TOL)
 			return (yc + tn) * H;
@@ -188,7 +188,7 @@ double ow_melt_level_depth(const struct ow_melt_ws *ws, double s, int upper)
 
 /* ---- band layout ------------------------------------------------------ */
 
-/* Levels s_k = cos^2(pi k / (2K)): legs of even thickness both where psi is
+/* Levels s_k = cos^2(pi k / (2K)) (ws->level): legs of even thickness both where psi is
  * quadratic (at y* and at a no-slip root) and finer at the barrel, where
  * most heat crosses. */
 static void layout_circulating(struct ow_melt_ws *ws)
@@ -198,8 +198,7 @@ static void layout_circulating(struct ow_melt_ws *ws)
 	double hi_prev = lo_prev;
 
 	for (int k = 0; k < K; k++) {
-		double c = cos(PI * (double)(k + 1) / (2.0 * (double)K));
-		double s = k == K - 1 ? 0.0 : c * c;
+		double s = ws->level[k];
 		double *lg = ws->legs + 4 * k;
 
 		lg[0] = ow_melt_level_depth(ws, s, 0);

@@ -54,6 +54,7 @@ struct ow_melt_ws {
 	double *gb, *gr; /* conductance to barrel / root, W/(m^2 K) */
 	double *legs;    /* 4 per band: lo0, hi0, lo1, hi1 (m) */
 	double *tri;     /* 3 per band: tridiagonal work */
+	double *level;   /* psi/psi* at the outer edge of each band */
 	/* segments in depth order (2 nb at most) */
 	double *seg_lo, *seg_hi;
 	int *seg_band;
