@@ -12,7 +12,9 @@ static void cells_at(struct melt_cells *cs, double *mem, size_t nc)
 	cs->phi = mem + nc;
 	cs->lu = mem + 2 * nc;
 	cs->ltau = mem + 3 * nc;
-	cs->nloc = mem + 4 * nc;
+	cs->tau2 = mem + 4 * nc;
+	cs->nloc = mem + 5 * nc;
+	cs->h2 = mem + 6 * nc;
 }
 
 enum ow_status ow_melt_create(int depth_nodes, int bands,
@@ -39,7 +41,7 @@ enum ow_status ow_melt_create(int depth_nodes, int bands,
 	ws->nn = depth_nodes;
 	ws->nc = depth_nodes - 1;
 	ws->nb = bands;
-	ws->cell_mem = calloc(12 * nc, sizeof(double));
+	ws->cell_mem = calloc(16 * nc, sizeof(double));
 	ws->cell_band = calloc(nc, sizeof(int));
 	ws->y = calloc(8 * nn, sizeof(double));
 	ws->t = calloc(13 * nb, sizeof(double));
@@ -49,9 +51,9 @@ enum ow_status ow_melt_create(int depth_nodes, int bands,
 	    !ws->seg_lo || !ws->seg_band)
 		goto fail;
 	cells_at(&ws->cur, ws->cell_mem, nc);
-	cells_at(&ws->trial, ws->cell_mem + 5 * nc, nc);
-	ws->tc = ws->cell_mem + 10 * nc;
-	ws->lat = ws->cell_mem + 11 * nc;
+	cells_at(&ws->trial, ws->cell_mem + 7 * nc, nc);
+	ws->tc = ws->cell_mem + 14 * nc;
+	ws->lat = ws->cell_mem + 15 * nc;
 	ws->uz = ws->y + nn;
 	ws->ux = ws->y + 2 * nn;
 	ws->gd = ws->y + 3 * nn;

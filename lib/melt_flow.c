@@ -288,14 +288,38 @@ static int solve_p(const struct ow_melt_ws *ws, const struct melt_station *st,
 
 #define MAX_CELL_NEWTON 100
 #define CELL_TOL 1e-13 /* error in u left by the last Newton step */
+#define CELL_SKIP_TOL 1e-14 /* error in u of a prediction taken as is */
 #define CELL_MAX_STEP 20.0
+#define SERIES_MAX 1e-3 /* |x| below which ln(1+x), e^-x go by series */
+
+/* ln(1 + x) and e^-x for |x| <= SERIES_MAX: five terms leave < 1e-17. */
+static double log1p_small(double x)
+{
+	return x * (1.0 - x * (0.5 - x * (1.0 / 3.0 - x * (0.25 - x / 5.0))));
+}
+
+static double expm_small(double x)
+{
+	return 1.0 - x * (1.0 - x * (0.5 - x * (1.0 / 6.0 -
+						  x * (1.0 / 24.0 - x / 120.0))));
+}
+
+/* h2 = d n / du = d2 ln eta_ref / d(ln gdot)^2 from the slope s = k b sig:
+ * b s (1 - sig) for the softplus forms, 0 for a power law. */
+static double cell_curvature(const struct ow_visc_log *lv, double s)
+{
+	if (lv->model == OW_VISC_POWER_LAW || lv->k == 0.0)
+		return 0.0;
+	return lv->b * s * (1.0 - s / (lv->k * lv->b));
+}
 
 /* Newton on h(u) = u + ln eta_ref(u) - lt from *u; on return *u is the
- * root and *n the slope there. The error left by a step du is about
- * curv du^2 / (2 n) (curv bounds |h''|), so the last step is accepted
- * without evaluating again; not across the kink of the rate clamp. */
+ * root, *n the slope there and *h2 its derivative. The error left by a
+ * step du is about curv du^2 / (2 n) (curv bounds |h2|), so the last step
+ * is accepted without evaluating again; not across the kink of the rate
+ * clamp. */
 static int cell_solve(const struct ow_visc_log *lv, double lt, double *u,
-		      double *n)
+		      double *n, double *h2)
 {
 	double x = *u;
 
@@ -311,6 +335,7 @@ static int cell_solve(const struct ow_visc_log *lv, double lt, double *u,
 		    (xn < lv->ln_gmin) == (x < lv->ln_gmin)) {
 			*u = xn;
 			*n = nl;
+			*h2 = cell_curvature(lv, s);
 			return 0;
 		}
 		x = xn;
@@ -318,8 +343,35 @@ static int cell_solve(const struct ow_visc_log *lv, double lt, double *u,
 	return -1;
 }
 
+/* One cell at a new stress, from its solution in f: with D the change of
+ * ln|tau| and e = D/n, the root moves by d = e - (h2/2n) e^2 to second
+ * order, leaving about (h3/6 + h2^2/(2n)) |e|^3 / n (h3 bounds the third
+ * derivative, 0.0963 |k b^3|); below CELL_SKIP_TOL that is the answer,
+ * else Newton polishes it. */
+static int cell_move(const struct ow_visc_log *lv, const struct melt_cells *f,
+		     int c, double lt, double *u, double *n, double *h2)
+{
+	double n0 = f->nloc[c], e = (lt - f->ltau[c]) / n0;
+	double d = e - f->h2[c] / (2.0 * n0) * e * e;
+	double h3 = 0.0963 * fabs(lv->k * lv->b * lv->b * lv->b);
+	double err = (h3 / 6.0 + f->h2[c] * f->h2[c] / (2.0 * n0)) *
+		     fabs(e * e * e) / n0;
+
+	*u = f->lu[c] + d;
+	if (!isfinite(*u)) {
+		*u = lt;
+	} else if (err <= CELL_SKIP_TOL &&
+		   (*u < lv->ln_gmin) == (f->lu[c] < lv->ln_gmin)) {
+		*n = n0 + f->h2[c] * d;
+		*h2 = f->h2[c];
+		return 0;
+	}
+	return cell_solve(lv, lt, u, n, h2);
+}
+
 /* Viscosities of all cells for stresses p, started from the solution in
- * from, into to (to may be from). -1 for a viscosity not finite. */
+ * from, into to (to may be from). ln|tau| and exp(-ln eta) go by series
+ * where they change little. -1 for a viscosity not finite. */
 static int cell_viscosities(const struct ow_melt_ws *ws,
 			    const struct melt_station *st, const double p[4],
 			    const struct melt_cells *from, struct melt_cells *to)
@@ -330,28 +382,34 @@ static int cell_viscosities(const struct ow_melt_ws *ws,
 	for (int c = 0; c < ws->nc; c++) {
 		double m = ((double)c + 0.5) * hh;
 		double tz = p[0] + p[1] * m, tx = p[2] + p[3] * m;
-		double tau2 = tz * tz + tx * tx, lt, u, n, L;
+		double tau2 = tz * tz + tx * tx, r = tau2 / from->tau2[c] - 1.0;
+		double lt, u, n, h2, L, dL;
 
 		if (tau2 > 0.0) {
-			lt = 0.5 * log(tau2);
-			u = from->lu[c] + (lt - from->ltau[c]) / from->nloc[c];
-			if (!isfinite(u))
-				u = lt;
-			if (cell_solve(lv, lt, &u, &n) != 0)
+			lt = fabs(r) <= SERIES_MAX
+				     ? from->ltau[c] + 0.5 * log1p_small(r)
+				     : 0.5 * log(tau2);
+			if (cell_move(lv, from, c, lt, &u, &n, &h2) != 0)
 				return -1;
 		} else { /* no stress: the rate clamp's viscosity */
 			u = lv->ln_gmin;
 			lt = u + ow_viscosity_log_ref(lv, u, NULL);
 			n = 1.0;
+			h2 = 0.0;
 		}
 		L = ws->lat[c] + lt - u;
 		if (!isfinite(L))
 			return -1;
+		dL = L - from->lnv[c];
+		to->phi[c] = fabs(dL) <= SERIES_MAX
+				     ? from->phi[c] * expm_small(dL)
+				     : exp(-L);
 		to->lu[c] = u;
 		to->ltau[c] = lt;
+		to->tau2[c] = tau2;
 		to->nloc[c] = n > 0.02 ? n : 0.02;
+		to->h2[c] = h2;
 		to->lnv[c] = L;
-		to->phi[c] = exp(-L);
 	}
 	return 0;
 }
@@ -454,7 +512,9 @@ static int cold_start(struct ow_melt_ws *ws, const struct melt_station *st)
 		cs->phi[c] = exp(-cs->lnv[c]);
 		cs->lu[c] = u;
 		cs->ltau[c] = u + f; /* the stress this rate belongs to */
+		cs->tau2[c] = exp(2.0 * cs->ltau[c]);
 		cs->nloc[c] = 1.0 + s > 0.02 ? 1.0 + s : 0.02;
+		cs->h2[c] = cell_curvature(&st->vlog, s);
 	}
 	return 0;
 }

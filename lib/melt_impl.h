@@ -33,7 +33,9 @@ struct melt_cells {
 	double *phi;  /* fluidity exp(-lnv), 1/(Pa s) */
 	double *lu;   /* ln of the reduced shear rate aT gdot, ln(1/s) */
 	double *ltau; /* ln |tau| the cell was solved for, ln Pa */
+	double *tau2; /* tau^2 the cell was solved for, Pa^2 */
 	double *nloc; /* local power-law index 1 + d ln eta / d ln gdot */
+	double *h2;   /* d nloc / d lu, for the next prediction */
 };
 
 struct ow_melt_ws {
