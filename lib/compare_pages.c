@@ -240,7 +240,7 @@ static void why(struct cpdf *r)
 /* A difference: "+" before a positive value that does not print as 0. */
 static char *signed_fix(char *buf, size_t n, double v, int dec)
 {
-	char tmp[48];
+	char tmp[40]; /* leaves room for the sign in any 48-byte buf */
 
 	cpdf_fix(tmp, sizeof tmp, v, dec);
 	snprintf(buf, n, "%s%s",
