@@ -519,6 +519,15 @@ static int cold_start(struct ow_melt_ws *ws, const struct melt_station *st)
 	return 0;
 }
 
+/* Cold start followed by the stresses for those viscosities and the
+ * viscosities for those stresses. -1 for a viscosity not finite. */
+static int start_cold(struct ow_melt_ws *ws, const struct melt_station *st)
+{
+	if (cold_start(ws, st) != 0 || solve_p(ws, st, ws->cur.phi, ws->p) != 0)
+		return -1;
+	return cell_viscosities(ws, st, ws->p, &ws->cur, &ws->cur);
+}
+
 /* Node profiles from the converged cells. */
 static void fill_profile(struct ow_melt_ws *ws, const struct melt_station *st)
 {
@@ -554,12 +563,33 @@ static double max_abs4(const double C[4])
 	return fmax(fmax(fabs(C[0]), fabs(C[1])), fmax(fabs(C[2]), fabs(C[3])));
 }
 
+/* Newton in p from ws->p and ws->cur (the viscosities for those stresses)
+ * until the conditions hold to TOL_NEWTON; -1 (residual in *res) when a
+ * step finds no descent or MAX_NEWTON steps do not do. */
+static int newton(struct ow_melt_ws *ws, const struct melt_station *st,
+		  int *iterations, double *res)
+{
+	double C[4], dp[4], merit;
+	int it;
+
+	merit = conditions(ws, st, ws->cur.phi, ws->p, C);
+	for (it = 0; max_abs4(C) > TOL_NEWTON; it++) {
+		if (it == MAX_NEWTON || newton_step(ws, st, ws->p, C, dp) ||
+		    line_search(ws, st, ws->p, dp, C, &merit)) {
+			*res = max_abs4(C);
+			return -1;
+		}
+	}
+	*iterations = it;
+	return 0;
+}
+
 enum ow_status ow_melt_solve_velocity(struct ow_melt_ws *ws,
 				      const struct melt_station *st,
 				      int *iterations, struct ow_diag *d)
 {
-	double C[4], dp[4], merit;
-	int it;
+	double res = 0.0;
+	int rc;
 
 	*iterations = 0;
 	for (int c = 0; c < ws->nc; c++) {
@@ -580,23 +610,23 @@ enum ow_status ow_melt_solve_velocity(struct ow_melt_ws *ws,
 		fill_profile(ws, st);
 		return OW_OK;
 	}
-	if (!ws->warm && (cold_start(ws, st) != 0 ||
-			  solve_p(ws, st, ws->cur.phi, ws->p) != 0 ||
-			  cell_viscosities(ws, st, ws->p, &ws->cur,
-					   &ws->cur) != 0))
+	if (!ws->warm && start_cold(ws, st) != 0)
 		goto bad_visc;
-	merit = conditions(ws, st, ws->cur.phi, ws->p, C);
-	for (it = 0; max_abs4(C) > TOL_NEWTON; it++) {
-		if (it == MAX_NEWTON || newton_step(ws, st, ws->p, C, dp) ||
-		    line_search(ws, st, ws->p, dp, C, &merit)) {
-			ws->warm = 0;
-			return ow_diag_set(d, OW_ENOCONV,
-					   "melt: velocity profile did not "
-					   "converge (H = %g m, residual %g)",
-					   st->H, max_abs4(C));
-		}
+	if (ws->warm) /* the stresses the cells were solved for */
+		memcpy(ws->p, ws->pcells, sizeof ws->p);
+	rc = newton(ws, st, iterations, &res);
+	if (rc != 0 && ws->warm) { /* the last station misled: start afresh */
+		if (start_cold(ws, st) != 0)
+			goto bad_visc;
+		rc = newton(ws, st, iterations, &res);
 	}
-	*iterations = it;
+	if (rc != 0) {
+		ws->warm = 0;
+		return ow_diag_set(d, OW_ENOCONV,
+				   "melt: velocity profile did not converge "
+				   "(H = %g m, residual %g)", st->H, res);
+	}
+	memcpy(ws->pcells, ws->p, sizeof ws->p);
 	if (solve_p(ws, st, ws->cur.phi, ws->p) != 0) /* conditions exactly */
 		goto bad_visc;
 	ws->warm = 1;

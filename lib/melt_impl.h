@@ -63,6 +63,7 @@ struct ow_melt_ws {
 	int nseg;
 	/* solution of the last station */
 	double p[4];     /* a_z, beta_z, a_x, beta_x: tau = a + beta y/H, Pa */
+	double pcells[4]; /* the last Newton iterate, which cur belongs to */
 	double H, fp;
 	double ystar, psistar;
 	int circ;        /* band layout: 1 streamline pairs, 0 layers */
