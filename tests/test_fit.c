@@ -634,9 +634,10 @@ static void replace(char *text, const char *from, const char *to)
 	memcpy(p, to, lt);
 }
 
-/* Issue 7 acceptance: a fitted resin file loads in `opwin check`. The demo
- * resin gets the viscosity fitted to the demo lab data, then the demo study
- * pointed at that resin must pass the check. */
+/* Issue 7 acceptance: a fitted resin file loads in `opwin check` and
+ * `opwin point`. The demo resin gets the viscosity fitted to the demo lab
+ * data, then the demo study pointed at that resin must pass the check and
+ * solve a point. */
 static void cli_fitted_resin_passes_opwin_check(void **state)
 {
 	struct fixture *f = *state;
@@ -645,6 +646,8 @@ static void cli_fitted_resin_passes_opwin_check(void **state)
 				  "--into", resin, "--plot", png,
 				  "--quiet", NULL};
 	const char *check_args[] = {"check", study, NULL};
+	const char *point_args[] = {"point", study, "--rpm", "60", "--json",
+				    NULL};
 
 	if (!getenv("OPWIN"))
 		skip();
@@ -664,6 +667,7 @@ static void cli_fitted_resin_passes_opwin_check(void **state)
 	write_text(study, text);
 	free(text);
 	assert_int_equal(run_opwin(check_args), 0);
+	assert_int_equal(run_opwin(point_args), 0);
 	assert_int_equal(remove(resin), 0);
 	assert_int_equal(remove(study), 0);
 	assert_int_equal(remove(png), 0);
