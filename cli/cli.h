@@ -4,6 +4,9 @@
 #ifndef OW_CLI_H
 #define OW_CLI_H
 
+#include <stddef.h>
+#include <time.h>
+
 #include "opwin.h"
 #include "ow_report.h"
 
@@ -69,6 +72,27 @@ int cli_common_option(const char *cmd, struct cli_common *c, int id,
  * ow_units_destroy(*u), free(*study). */
 int cli_load_study(const char *cmd, const char *path, struct ow_units **u,
 		   struct ow_study **study);
+
+/* --grid NxM: 0, or -1 unless both are 2..1000. */
+int cli_parse_grid(const char *s, int *n, int *m);
+
+/* A YYYY-MM-DD date with a plausible month and day? */
+int cli_valid_date(const char *s);
+
+/* Today as YYYY-MM-DD (UTC), or the day of SOURCE_DATE_EPOCH when set so
+ * that reports can be reproduced byte for byte. */
+void cli_today(char *buf, size_t n);
+
+/* Make the output folder dir (one level) or say why not: CLI_OUTPUT. */
+int cli_make_dir(const char *cmd, const char *dir);
+
+/* A progress bar on stderr for the sweep's callback. */
+struct cli_progress {
+	const char *name;
+	struct timespec t0;
+};
+void cli_progress_start(struct cli_progress *p, const char *name);
+void cli_progress_show(void *ctx, int done, int total);
 
 /* A number in the display system (rpm; degC or degF; K or degF
  * differences), or a text with its unit. */

@@ -55,71 +55,6 @@ static void help(void)
 	       "failed, 4 output not written\n");
 }
 
-static void show_progress(void *ctx, int done, int total)
-{
-	const char *name = ctx;
-	int width = 30, fill = total ? (int)((long)width * done / total) : 0;
-	char bar[32];
-
-	memset(bar, '#', (size_t)fill);
-	memset(bar + fill, '.', (size_t)(width - fill));
-	bar[width] = '\0';
-	fprintf(stderr, "\r%s [%s] %d/%d points ", name, bar, done, total);
-	if (done >= total)
-		fprintf(stderr, "\n");
-}
-
-static int parse_grid(const char *s, int *n, int *m)
-{
-	char *end;
-	long a = strtol(s, &end, 10), b;
-
-	if (*end != 'x' && *end != 'X')
-		return -1;
-	b = strtol(end + 1, &end, 10);
-	if (*end || a < 2 || b < 2 || a > 1000 || b > 1000)
-		return -1;
-	*n = (int)a;
-	*m = (int)b;
-	return 0;
-}
-
-static int valid_date(const char *s)
-{
-	int y, m, d;
-	char tail;
-
-	return strlen(s) == 10 &&
-	       sscanf(s, "%4d-%2d-%2d%c", &y, &m, &d, &tail) == 3 && m >= 1 &&
-	       m <= 12 && d >= 1 && d <= 31;
-}
-
-/* Today, or the day of SOURCE_DATE_EPOCH when set (reproducible builds). */
-static void today(char *buf, size_t n)
-{
-	const char *e = getenv("SOURCE_DATE_EPOCH");
-	time_t t = e && *e ? (time_t)strtoll(e, NULL, 10) : time(NULL);
-	struct tm tm;
-
-	gmtime_r(&t, &tm);
-	strftime(buf, n, "%Y-%m-%d", &tm);
-}
-
-static int make_dir(const char *dir)
-{
-	if (mkdir(dir, 0777) == 0 || errno == EEXIST) {
-		struct stat st;
-
-		if (stat(dir, &st) == 0 && S_ISDIR(st.st_mode))
-			return 0;
-	}
-	fprintf(stderr,
-	        "opwin compare: %s: cannot create the output folder: "
-	        "%s\n",
-	        dir, strerror(errno));
-	return CLI_OUTPUT;
-}
-
 /* ---- the printed summary ---- */
 
 #define SHOW(dim, si)                                                          \
@@ -371,22 +306,24 @@ static int run(const struct ow_study *a, const struct ow_study *b,
 	struct ow_sweep_config cfg;
 	struct ow_compare *cmp = NULL;
 	struct ow_diag d = {{0}};
+	struct cli_progress pr;
 	enum ow_status st;
 	int rc;
 
 	ow_sweep_default(&cfg);
+	cli_progress_start(&pr, "A, then B");
 	cfg.jobs = o->c.jobs;
 	cfg.refine = o->refine;
 	cfg.rpm_steps = o->rpm_steps;
 	cfg.axis_steps = o->axis_steps;
 	if (!o->c.quiet && isatty(STDERR_FILENO)) {
-		cfg.progress = show_progress;
-		cfg.progress_ctx = (void *)"A, then B";
+		cfg.progress = cli_progress_show;
+		cfg.progress_ctx = &pr;
 	}
 	st = ow_compare_run(a, b, &cfg, &cmp, &d);
 	if (st != OW_OK)
 		return cli_fail("compare", st, &d);
-	rc = make_dir(o->dir);
+	rc = cli_make_dir("compare", o->dir);
 	if (!rc)
 		rc = write_outputs(cmp, o);
 	if (!rc && !o->c.quiet) {
@@ -435,7 +372,7 @@ static int parse(int argc, char **argv, struct cmp_opts *o)
 			o->label[1] = optarg;
 			break;
 		case 'g':
-			if (parse_grid(optarg, &o->rpm_steps, &o->axis_steps))
+			if (cli_parse_grid(optarg, &o->rpm_steps, &o->axis_steps))
 				return cli_usage_error("compare",
 				                       "--grid takes "
 				                       "NxM, 2..1000 each");
@@ -448,7 +385,7 @@ static int parse(int argc, char **argv, struct cmp_opts *o)
 			o->refine = (int)k;
 			break;
 		case 'D':
-			if (!valid_date(optarg))
+			if (!cli_valid_date(optarg))
 				return cli_usage_error("compare",
 				                       "--date takes "
 				                       "YYYY-MM-DD");
@@ -478,7 +415,7 @@ int cmd_compare(int argc, char **argv)
 	if (rc >= 0)
 		return rc;
 	if (!o.date) {
-		today(date, sizeof date);
+		cli_today(date, sizeof date);
 		o.date = date;
 	}
 	rc = CLI_OK;

@@ -48,64 +48,6 @@ static void help(void)
 	       "output could not be written\n");
 }
 
-/* Progress on stderr when it is a terminal: done, rate, time left. */
-struct progress {
-	struct timespec t0;
-};
-
-static double since(const struct timespec *t0)
-{
-	struct timespec t;
-
-	clock_gettime(CLOCK_MONOTONIC, &t);
-	return (double)(t.tv_sec - t0->tv_sec) +
-	       1e-9 * (double)(t.tv_nsec - t0->tv_nsec);
-}
-
-static void show_progress(void *ctx, int done, int total)
-{
-	struct progress *p = ctx;
-	double t = since(&p->t0), rate = t > 0.0 ? done / t : 0.0;
-	int width = 30, fill = total ? (int)((long)width * done / total) : 0;
-	char bar[32];
-
-	memset(bar, '#', (size_t)fill);
-	memset(bar + fill, '.', (size_t)(width - fill));
-	bar[width] = '\0';
-	fprintf(stderr, "\r[%s] %d/%d points, %.0f/s, %.0f s left ", bar, done,
-		total, rate, rate > 0.0 ? (total - done) / rate : 0.0);
-	if (done >= total)
-		fprintf(stderr, "\n");
-}
-
-static int parse_grid(const char *s, int *n, int *m)
-{
-	char *end;
-	long a = strtol(s, &end, 10), b;
-
-	if (*end != 'x' && *end != 'X')
-		return -1;
-	b = strtol(end + 1, &end, 10);
-	if (*end || a < 2 || b < 2 || a > 1000 || b > 1000)
-		return -1;
-	*n = (int)a;
-	*m = (int)b;
-	return 0;
-}
-
-static int make_dir(const char *dir)
-{
-	if (mkdir(dir, 0777) == 0 || errno == EEXIST) {
-		struct stat st;
-
-		if (stat(dir, &st) == 0 && S_ISDIR(st.st_mode))
-			return 0;
-	}
-	fprintf(stderr, "opwin map: %s: cannot create the output folder: %s\n",
-		dir, strerror(errno));
-	return CLI_OUTPUT;
-}
-
 static int write_text(const char *dir, const char *name, char *text,
 		      enum ow_status st, struct ow_diag *d)
 {
@@ -214,7 +156,7 @@ static int write_outputs(const struct ow_study *s, const struct ow_grid *g,
 static int sweep(const struct ow_study *s, struct map_opts *o)
 {
 	struct ow_sweep_config cfg;
-	struct progress pr;
+	struct cli_progress pr;
 	struct ow_grid *g = NULL;
 	struct ow_window *w = NULL;
 	struct ow_diag d = {{0}};
@@ -226,9 +168,9 @@ static int sweep(const struct ow_study *s, struct map_opts *o)
 	cfg.refine = o->refine;
 	cfg.rpm_steps = o->rpm_steps;
 	cfg.axis_steps = o->axis_steps;
-	clock_gettime(CLOCK_MONOTONIC, &pr.t0);
+	cli_progress_start(&pr, "map");
 	if (!o->c.quiet && isatty(STDERR_FILENO)) {
-		cfg.progress = show_progress;
+		cfg.progress = cli_progress_show;
 		cfg.progress_ctx = &pr;
 	}
 	st = ow_sweep_run(s, &cfg, &g, &d);
@@ -276,7 +218,7 @@ int cmd_map(int argc, char **argv)
 		if (id == 'o') {
 			o.dir = optarg;
 		} else if (id == 'g') {
-			if (parse_grid(optarg, &o.rpm_steps, &o.axis_steps))
+			if (cli_parse_grid(optarg, &o.rpm_steps, &o.axis_steps))
 				return cli_usage_error("map", "--grid takes NxM, "
 							      "2..1000 each");
 		} else if (id == 'r') {
@@ -298,7 +240,7 @@ int cmd_map(int argc, char **argv)
 		return rc;
 	rc = cli_render_current("map", u, &o.r, o.c.units);
 	if (!rc)
-		rc = make_dir(o.dir);
+		rc = cli_make_dir("map", o.dir);
 	if (!rc)
 		rc = sweep(s, &o);
 	free(s);

@@ -2,9 +2,12 @@
  * the subcommands. */
 #include "cli.h"
 
+#include <errno.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <sys/stat.h>
+#include <time.h>
 
 int cli_exit_code(enum ow_status st)
 {
@@ -92,4 +95,83 @@ int cli_load_study(const char *cmd, const char *path, struct ow_units **u,
 		return cli_fail(cmd, st, &d);
 	}
 	return CLI_OK;
+}
+
+int cli_parse_grid(const char *s, int *n, int *m)
+{
+	char *end;
+	long a = strtol(s, &end, 10), b;
+
+	if (end == s || (*end != 'x' && *end != 'X'))
+		return -1;
+	b = strtol(end + 1, &end, 10);
+	if (*end || a < 2 || b < 2 || a > 1000 || b > 1000)
+		return -1;
+	*n = (int)a;
+	*m = (int)b;
+	return 0;
+}
+
+int cli_valid_date(const char *s)
+{
+	int y, m, d, n = 0;
+
+	return strlen(s) == 10 &&
+	       sscanf(s, "%4d-%2d-%2d%n", &y, &m, &d, &n) == 3 && n == 10 &&
+	       m >= 1 && m <= 12 && d >= 1 && d <= 31;
+}
+
+void cli_today(char *buf, size_t n)
+{
+	const char *e = getenv("SOURCE_DATE_EPOCH");
+	time_t t = e && *e ? (time_t)strtoll(e, NULL, 10) : time(NULL);
+	struct tm tm;
+
+	gmtime_r(&t, &tm);
+	strftime(buf, n, "%Y-%m-%d", &tm);
+}
+
+int cli_make_dir(const char *cmd, const char *dir)
+{
+	struct stat st;
+
+	if ((mkdir(dir, 0777) == 0 || errno == EEXIST) &&
+	    stat(dir, &st) == 0 && S_ISDIR(st.st_mode))
+		return CLI_OK;
+	fprintf(stderr, "opwin %s: %s: cannot create the output folder: %s\n",
+		cmd, dir, errno == EEXIST ? "a file has that name"
+					  : strerror(errno));
+	return CLI_OUTPUT;
+}
+
+static double seconds_since(const struct timespec *t0)
+{
+	struct timespec t;
+
+	clock_gettime(CLOCK_MONOTONIC, &t);
+	return (double)(t.tv_sec - t0->tv_sec) +
+	       1e-9 * (double)(t.tv_nsec - t0->tv_nsec);
+}
+
+void cli_progress_start(struct cli_progress *p, const char *name)
+{
+	p->name = name;
+	clock_gettime(CLOCK_MONOTONIC, &p->t0);
+}
+
+void cli_progress_show(void *ctx, int done, int total)
+{
+	const struct cli_progress *p = ctx;
+	double t = seconds_since(&p->t0), rate = t > 0.0 ? done / t : 0.0;
+	int width = 30, fill = total ? (int)((long)width * done / total) : 0;
+	char bar[32];
+
+	memset(bar, '#', (size_t)fill);
+	memset(bar + fill, '.', (size_t)(width - fill));
+	bar[width] = '\0';
+	fprintf(stderr, "\r%s [%s] %d/%d points, %.0f/s, %.0f s left ",
+		p->name, bar, done, total, rate,
+		rate > 0.0 ? (total - done) / rate : 0.0);
+	if (done >= total)
+		fprintf(stderr, "\n");
 }

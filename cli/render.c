@@ -6,7 +6,6 @@
 
 #include <stdio.h>
 #include <string.h>
-#include <time.h>
 
 #include "ow_maps.h"
 
@@ -25,21 +24,10 @@ enum ow_status cli_read_value(const struct ow_units *u, const char *text,
 
 void cli_render_init(struct cli_render *r)
 {
-	time_t now = time(NULL);
-
 	memset(r, 0, sizeof *r);
 	ow_report_default(&r->rep);
-	strftime(r->today, sizeof r->today, "%Y-%m-%d", localtime(&now));
+	cli_today(r->today, sizeof r->today);
 	r->rep.date = r->today;
-}
-
-static int valid_date(const char *s)
-{
-	int y, m, d, n = 0;
-
-	return strlen(s) == 10 &&
-	       sscanf(s, "%4d-%2d-%2d%n", &y, &m, &d, &n) == 3 && n == 10 &&
-	       m >= 1 && m <= 12 && d >= 1 && d <= 31;
 }
 
 int cli_render_option(const char *cmd, struct cli_render *r, int id,
@@ -60,7 +48,7 @@ int cli_render_option(const char *cmd, struct cli_render *r, int id,
 		r->rep.approved_by = arg;
 		return 0;
 	case 'D':
-		if (!valid_date(arg))
+		if (!cli_valid_date(arg))
 			return cli_usage_error(cmd, "--date takes YYYY-MM-DD");
 		r->rep.date = arg;
 		return 0;

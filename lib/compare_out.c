@@ -2,6 +2,7 @@
  * units their keys name (DESIGN.md's output contract), whatever system
  * people read. Each window reuses the window.json writer of one study. */
 #include "ow_compare.h"
+#include "text_impl.h"
 
 #include "ow_results.h"
 
@@ -317,76 +318,25 @@ enum ow_status ow_compare_json(const struct ow_compare *cmp, char **out,
 
 /* ---- compare.csv ---- */
 
-struct text {
-	char *buf;
-	size_t len, cap;
-	int oom;
-};
-
-static void text_add(struct text *t, const char *s)
-{
-	size_t n = strlen(s);
-
-	if (t->oom)
-		return;
-	if (t->len + n + 1 > t->cap) {
-		size_t cap = t->cap ? 2 * t->cap : 8192;
-		char *nb;
-
-		while (cap < t->len + n + 1)
-			cap *= 2;
-		nb = realloc(t->buf, cap);
-		if (!nb) {
-			t->oom = 1;
-			return;
-		}
-		t->buf = nb;
-		t->cap = cap;
-	}
-	memcpy(t->buf + t->len, s, n + 1);
-	t->len += n;
-}
-
-static void text_num(struct text *t, double x)
-{
-	char b[40];
-
-	text_add(t, ",");
-	text_add(t, ow_fmt_double(b, sizeof b, x, 0));
-}
-
-static void text_status(struct text *t, const struct ow_verdict *v)
-{
-	const char *names[OW_CK_COUNT];
-	int n = ow_results_status_names(v, names, OW_CK_COUNT), k;
-
-	text_add(t, ",");
-	for (k = 0; k < n; k++) {
-		text_add(t, k ? ";" : "");
-		text_add(t, names[k]);
-	}
-}
-
-static void csv_head(struct text *t)
+static void csv_head(struct ow_text *t)
 {
 	int f, k;
 
-	text_add(t, "rpm,axis_value,set_C");
+	ow_text_add(t, "rpm,axis_value,set_C");
 	for (f = 0; f < ow_results_n_figures(); f++)
 		for (k = 0; k < 2; k++) {
-			text_add(t, ",");
-			text_add(t, ow_results_figure_key(f));
-			text_add(t, k ? "_b" : "_a");
+			ow_text_add(t, ",");
+			ow_text_add(t, ow_results_figure_key(f));
+			ow_text_add(t, k ? "_b" : "_a");
 		}
-	text_add(t, ",status_a,status_b\n");
+	ow_text_add(t, ",status_a,status_b\n");
 }
 
 enum ow_status ow_compare_csv(const struct ow_compare *cmp, char **out,
                               struct ow_diag *d)
 {
-	struct text t = {0};
+	struct ow_text t = {0};
 	int i, f, k, n = cmp->n_rpm * cmp->n_axis;
-	char b[40];
 
 	csv_head(&t);
 	for (i = 0; i < n; i++) {
@@ -395,22 +345,18 @@ enum ow_status ow_compare_csv(const struct ow_compare *cmp, char **out,
 
 		if (p[0]->solved != 1 || p[1]->solved != 1)
 			continue;
-		text_add(&t, ow_fmt_double(b, sizeof b, p[0]->rpm, 0));
-		text_num(&t, p[0]->axis);
-		text_num(&t, C_OF_K(p[0]->set_ref_K));
+		ow_text_num(&t, p[0]->rpm, 0);
+		ow_text_num(&t, p[0]->axis, 1);
+		ow_text_num(&t, C_OF_K(p[0]->set_ref_K), 1);
 		for (f = 0; f < ow_results_n_figures(); f++)
 			for (k = 0; k < 2; k++)
-				text_num(&t, ow_results_figure(cmp->study[k],
-				                               &p[k]->pt, f));
-		text_status(&t, &p[0]->v);
-		text_status(&t, &p[1]->v);
-		text_add(&t, "\n");
+				ow_text_num(&t,
+				            ow_results_figure(cmp->study[k],
+				                              &p[k]->pt, f),
+				            1);
+		ow_text_status(&t, &p[0]->v);
+		ow_text_status(&t, &p[1]->v);
+		ow_text_add(&t, "\n");
 	}
-	if (t.oom || !t.buf) {
-		free(t.buf);
-		*out = NULL;
-		return ow_diag_set(d, OW_ENOMEM, "out of memory");
-	}
-	*out = t.buf;
-	return OW_OK;
+	return ow_text_done(&t, out, d);
 }

@@ -1,6 +1,7 @@
 /* results.c - machine-readable outputs (JSON via cJSON, CSV) and atomic file
  * writing. Units are those the keys name, never display units. */
 #include "ow_results.h"
+#include "text_impl.h"
 
 #include <cjson/cJSON.h>
 #include <errno.h>
@@ -328,83 +329,30 @@ enum ow_status ow_results_point_json(const struct ow_study *s,
 	return OW_OK;
 }
 
-/* ---- growing text buffer for CSV --------------------------------------- */
-
-struct text {
-	char *buf;
-	size_t len, cap;
-	int oom;
-};
-
-static void text_add(struct text *t, const char *str)
-{
-	size_t n = strlen(str);
-
-	if (t->oom)
-		return;
-	if (t->len + n + 1 > t->cap) {
-		size_t cap = t->cap ? 2 * t->cap : 4096;
-		char *nb;
-
-		while (cap < t->len + n + 1)
-			cap *= 2;
-		nb = realloc(t->buf, cap);
-		if (!nb) {
-			t->oom = 1;
-			return;
-		}
-		t->buf = nb;
-		t->cap = cap;
-	}
-	memcpy(t->buf + t->len, str, n + 1);
-	t->len += n;
-}
-
-static void text_num(struct text *t, double x, int sep)
-{
-	char b[40];
-
-	if (sep)
-		text_add(t, ",");
-	text_add(t, ow_fmt_double(b, sizeof b, x, 0));
-}
-
-static enum ow_status text_done(struct text *t, char **out,
-				struct ow_diag *d)
-{
-	if (t->oom || !t->buf) {
-		free(t->buf);
-		*out = NULL;
-		return ow_diag_set(d, OW_ENOMEM, "out of memory");
-	}
-	*out = t->buf;
-	return OW_OK;
-}
-
 enum ow_status ow_results_profile_csv(const struct ow_study *s,
 				      const struct ow_profile_row *rows,
 				      int n, char **out, struct ow_diag *d)
 {
-	struct text t = {0};
+	struct ow_text t = {0};
 	int i;
 
-	text_add(&t, "axial_D,pressure_MPa,bulk_temp_C,peak_temp_C,sbr,"
+	ow_text_add(&t, "axial_D,pressure_MPa,bulk_temp_C,peak_temp_C,sbr,"
 		     "unmelt_fraction,depth_mm,barrel_C,shear_max_1_s\n");
 	for (i = 0; i < n; i++) {
 		const struct ow_profile_row *r = &rows[i];
 
-		text_num(&t, per_D(s, r->axial_m), 0);
-		text_num(&t, r->pressure_Pa * 1e-6, 1);
-		text_num(&t, C_OF_K(r->bulk_K), 1);
-		text_num(&t, C_OF_K(r->peak_K), 1);
-		text_num(&t, r->sbr, 1);
-		text_num(&t, r->unmelt_frac, 1);
-		text_num(&t, r->depth_m * 1e3, 1);
-		text_num(&t, C_OF_K(r->barrel_K), 1);
-		text_num(&t, r->shear_max_1_s, 1);
-		text_add(&t, "\n");
+		ow_text_num(&t, per_D(s, r->axial_m), 0);
+		ow_text_num(&t, r->pressure_Pa * 1e-6, 1);
+		ow_text_num(&t, C_OF_K(r->bulk_K), 1);
+		ow_text_num(&t, C_OF_K(r->peak_K), 1);
+		ow_text_num(&t, r->sbr, 1);
+		ow_text_num(&t, r->unmelt_frac, 1);
+		ow_text_num(&t, r->depth_m * 1e3, 1);
+		ow_text_num(&t, C_OF_K(r->barrel_K), 1);
+		ow_text_num(&t, r->shear_max_1_s, 1);
+		ow_text_add(&t, "\n");
 	}
-	return text_done(&t, out, d);
+	return ow_text_done(&t, out, d);
 }
 
 /* ---- map outputs --------------------------------------------------------- */
@@ -413,35 +361,29 @@ enum ow_status ow_results_grid_csv(const struct ow_study *s,
 				   const struct ow_grid *g, char **out,
 				   struct ow_diag *d)
 {
-	const char *names[OW_CK_COUNT];
-	struct text t = {0};
-	int i, k, n, f, nf = ow_results_n_figures();
+	struct ow_text t = {0};
+	int i, f, nf = ow_results_n_figures();
 
-	text_add(&t, "rpm,axis_value,set_C");
+	ow_text_add(&t, "rpm,axis_value,set_C");
 	for (f = 0; f < nf; f++) {
-		text_add(&t, ",");
-		text_add(&t, fig_keys[f]);
+		ow_text_add(&t, ",");
+		ow_text_add(&t, fig_keys[f]);
 	}
-	text_add(&t, ",status\n");
+	ow_text_add(&t, ",status\n");
 	for (i = 0; i < g->n_rpm * g->n_axis; i++) {
 		const struct ow_grid_point *p = &g->pts[i];
 
 		if (p->solved != 1)
 			continue;
-		text_num(&t, p->rpm, 0);
-		text_num(&t, p->axis, 1);
-		text_num(&t, C_OF_K(p->set_ref_K), 1);
+		ow_text_num(&t, p->rpm, 0);
+		ow_text_num(&t, p->axis, 1);
+		ow_text_num(&t, C_OF_K(p->set_ref_K), 1);
 		for (f = 0; f < nf; f++)
-			text_num(&t, fig(s, &p->pt, f), 1);
-		text_add(&t, ",");
-		n = ow_results_status_names(&p->v, names, OW_CK_COUNT);
-		for (k = 0; k < n; k++) {
-			text_add(&t, k ? ";" : "");
-			text_add(&t, names[k]);
-		}
-		text_add(&t, "\n");
+			ow_text_num(&t, fig(s, &p->pt, f), 1);
+		ow_text_status(&t, &p->v);
+		ow_text_add(&t, "\n");
 	}
-	return text_done(&t, out, d);
+	return ow_text_done(&t, out, d);
 }
 
 static const char *axis_mode_name(enum ow_axis_mode m)
