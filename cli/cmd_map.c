@@ -76,13 +76,20 @@ static void print_empty(const struct ow_window *w)
 		       ow_check_text(order[i]), w->fail_count[order[i]]);
 }
 
-/* "lo - hi unit" in the display system. */
+/* "lo - hi unit" in the display system; bounds (inward = 1) rounded
+ * towards the inside of the range as the report prints them, so a bound
+ * written down stays safe; expected ranges to the nearest. */
 static void range(const struct map_opts *o, enum ow_dim dim, double lo,
-		  double hi)
+		  double hi, int decimals, int inward)
 {
-	printf("%.1f - %.1f %s", ow_display_value(o->c.units, dim, lo),
-	       ow_display_value(o->c.units, dim, hi),
-	       ow_display_label(o->c.units, dim));
+	char a[32], b[32];
+
+	ow_report_format_bound(a, sizeof a, ow_display_value(o->c.units, dim, lo),
+			       decimals, inward ? OW_ROUND_UP : OW_ROUND_NEAREST);
+	ow_report_format_bound(b, sizeof b, ow_display_value(o->c.units, dim, hi),
+			       decimals,
+			       inward ? OW_ROUND_DOWN : OW_ROUND_NEAREST);
+	printf("%s - %s %s", a, b, ow_display_label(o->c.units, dim));
 }
 
 static void print_window(const struct ow_study *s, const struct ow_grid *g,
@@ -96,20 +103,24 @@ static void print_window(const struct ow_study *s, const struct ow_grid *g,
 		print_empty(w);
 		return;
 	}
-	printf("Recommended window\n  screw speed       %.1f - %.1f rpm\n",
-	       w->rpm_min, w->rpm_max);
+	printf("Recommended window (bounds rounded inwards)\n"
+	       "  screw speed       ");
+	range(o, OW_DIM_ROT_SPEED, w->rpm_min, w->rpm_max,
+	      OW_REPORT_RPM_DECIMALS, 1);
+	printf("\n");
 	for (z = 0; z < s->line.n_zones; z++) {
 		printf("  zone %-2d set-point ", z + 1);
-		range(o, OW_DIM_TEMPERATURE, w->zone_min_K[z], w->zone_max_K[z]);
+		range(o, OW_DIM_TEMPERATURE, w->zone_min_K[z], w->zone_max_K[z],
+		      OW_REPORT_TEMP_DECIMALS, 1);
 		printf("%s\n", z == ow_line_reference_zone(&s->line)
 				       ? "  (axis reference)" : "");
 	}
 	printf("  centre point      %.1f rpm at %.1f %s\n", w->centre.rpm,
 	       SHOW(OW_DIM_TEMPERATURE, w->centre_set_K));
 	printf("  expected output   ");
-	range(o, OW_DIM_MASS_FLOW, w->output_min_kg_s, w->output_max_kg_s);
+	range(o, OW_DIM_MASS_FLOW, w->output_min_kg_s, w->output_max_kg_s, 1, 0);
 	printf("\n  melt temperature  ");
-	range(o, OW_DIM_TEMPERATURE, w->melt_min_K, w->melt_max_K);
+	range(o, OW_DIM_TEMPERATURE, w->melt_min_K, w->melt_max_K, 0, 0);
 	printf(" bulk at discharge, hottest peak %.1f %s\n",
 	       SHOW(OW_DIM_TEMPERATURE, w->peak_max_K));
 	printf("  safe share of the map %.0f %%, %d points solved\n",
