@@ -1,414 +1,528 @@
-/* compare_pdf.c - the comparison PDF (libharu, A4, DejaVu Sans embedded
- * with the UTF-8 encoder, compressed): a title block naming both studies,
- * the three windows side by side, the overlay map, why the windows
- * differ, both cases at the centres, the input fields that differ, both
- * inputs echoed, and cautions. Every page is one full-page canvas, so
- * text, tables and the map go through the same drawing layer; every page
- * carries "page N of M", the date and the program version. */
-#include "compare_pdf_impl.h"
+/* compare_pdf.c - the comparison PDF (A4, laid out with the report's
+ * document layer, report_impl.h): a title block naming both studies, the
+ * three windows side by side, the overlay map, where and why the windows
+ * differ, both cases at the centre points, the input fields that differ,
+ * both inputs side by side, and cautions. Every page carries "page N of
+ * M", the date and the program version. */
+#include "report_impl.h"
 
 #include "opwin.h"
+#include "ow_compare.h"
 #include "ow_maps.h"
-#include "ow_results.h"
+#include "ow_report.h"
 
-#include <hpdf.h>
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 
-#define MM_PT         (72.0 / 25.4)
-#define MARGIN_X      54.0
-#define MARGIN_TOP    48.0
-#define MARGIN_BOTTOM 64.0
+#define MAX_FIELDS 400
 
-const char *cpdf_label(const struct cpdf *r, int k)
+/* One comparison being laid out: the document and what it shows. */
+struct cpdf {
+	struct rpt doc;
+	const struct ow_compare *cmp;
+	const struct ow_compare_draw_options *o;
+};
+
+/* Short name of case k ("A" unless given). */
+static const char *label(const struct cpdf *r, int k)
 {
 	const char *l = r->o->label[k];
 
 	return l && *l ? l : (k ? "B" : "A");
 }
 
-struct ow_rgba cpdf_ink(void)
+/* A wrapped paragraph in the text colour, after points below it. */
+static void para(struct cpdf *r, const char *text, double size, int bold,
+                 double after)
 {
-	return ow_rgb(0.08, 0.08, 0.10);
+	struct rpt_style st = {size, bold, rpt_ink(), 0.0};
+
+	rpt_para(&r->doc, text, &st, after);
 }
 
-/* ---- document, pages, cursor ------------------------------------------ */
-
-static void fail(struct cpdf *r, enum ow_status st, const char *what)
+/* One line as written (rpt_para would fold its runs of spaces), space
+ * after it: after points. */
+static void line_as_is(struct cpdf *r, const char *text, double after)
 {
-	if (r->st == OW_OK) {
-		r->st = st;
-		ow_diag_set(r->d, st, "%s", what);
-	}
-}
-
-static void on_error(HPDF_STATUS e, HPDF_STATUS detail, void *user)
-{
-	struct cpdf *r = user;
-
-	(void)detail;
-	if (!r->hpdf_error)
-		r->hpdf_error = e;
-}
-
-static void check(struct cpdf *r)
-{
-	char msg[96];
-
-	if (r->cv && r->st == OW_OK)
-		r->st = ow_canvas_status(r->cv, r->d);
-	if (r->hpdf_error && r->st == OW_OK) {
-		snprintf(msg, sizeof msg, "compare.pdf: libharu error 0x%04X",
-		         (unsigned)r->hpdf_error);
-		fail(r, OW_EIO, msg);
-	}
-}
-
-static void close_canvas(struct cpdf *r)
-{
-	check(r);
-	ow_canvas_destroy(r->cv);
-	r->cv = NULL;
-}
-
-static void open_canvas(struct cpdf *r, int k)
-{
-	struct ow_canvas_place at = {0.0, 0.0, 1.0};
-
-	if (r->st == OW_OK)
-		r->st = ow_canvas_create_pdf(r->pdf, r->pages[k], &r->fonts,
-		                             &at, r->pw, r->ph, &r->cv, r->d);
-}
-
-void cpdf_new_page(struct cpdf *r)
-{
-	HPDF_Page p;
-
-	close_canvas(r);
-	if (r->st != OW_OK)
+	rpt_need(&r->doc, RPT_BODY_PT * RPT_LINE);
+	if (r->doc.st != OW_OK)
 		return;
-	if (r->n_pages == MAX_PAGES) {
-		fail(r, OW_ECOMPUTE, "compare.pdf: too many pages");
-		return;
-	}
-	p = HPDF_AddPage(r->pdf);
-	if (!p || HPDF_Page_SetWidth(p, (HPDF_REAL)r->pw) != HPDF_OK ||
-	    HPDF_Page_SetHeight(p, (HPDF_REAL)r->ph) != HPDF_OK) {
-		check(r);
-		return;
-	}
-	r->pages[r->n_pages++] = p;
-	open_canvas(r, r->n_pages - 1);
-	r->y = r->y0;
+	ow_canvas_set_colour(r->doc.cv, rpt_ink());
+	ow_canvas_set_font(r->doc.cv, RPT_BODY_PT, 0);
+	ow_canvas_text(r->doc.cv, r->doc.x0, r->doc.y + RPT_BODY_PT, text,
+	               OW_ALIGN_LEFT, OW_VALIGN_BASELINE, 0.0);
+	r->doc.y += RPT_BODY_PT * RPT_LINE + after;
 }
 
-/* Room for h points below the cursor, or a new page. */
-void cpdf_need(struct cpdf *r, double h)
+/* ---- title block ----------------------------------------------------------
+ */
+
+static void title_block(struct cpdf *r)
 {
-	if (r->st == OW_OK && r->y + h > r->y1)
-		cpdf_new_page(r);
-}
-
-/* ---- text --------------------------------------------------------------- */
-
-double cpdf_width_of(struct cpdf *r, const char *s, double size, int bold)
-{
-	if (!r->cv)
-		return 0.0;
-	ow_canvas_set_font(r->cv, size, bold);
-	return ow_canvas_text_width(r->cv, s);
-}
-
-/* Greedy word wrap of text into lines no wider than width (a single word
- * wider than that keeps its own line); returns the count. */
-static int wrap(struct cpdf *r, const char *text, double width, double size,
-                int bold, char (*lines)[LINE_LEN], int max)
-{
-	char try[LINE_LEN];
-	const char *p = text;
-	int n = 0;
-
-	lines[0][0] = '\0';
-	while (*p && n < max) {
-		const char *e = p;
-		size_t len = strlen(lines[n]);
-
-		while (*e && *e != ' ')
-			e++;
-		snprintf(try, sizeof try, "%s%s%.*s", lines[n], len ? " " : "",
-		         (int)(e - p), p);
-		if (len && cpdf_width_of(r, try, size, bold) > width) {
-			if (++n == max)
-				break;
-			snprintf(lines[n], LINE_LEN, "%.*s", (int)(e - p), p);
-		} else {
-			snprintf(lines[n], LINE_LEN, "%s", try);
-		}
-		p = *e ? e + 1 : e;
-	}
-	return n < max ? n + 1 : max;
-}
-
-void cpdf_para(struct cpdf *r, const char *text, double size, int bold,
-               double indent, double after)
-{
-	char lines[MAX_LINES][LINE_LEN];
-	double h = size * LINE;
-	int n = wrap(r, text, r->x1 - r->x0 - indent, size, bold, lines,
-	             MAX_LINES),
-	    i;
-
-	for (i = 0; i < n && r->st == OW_OK; i++) {
-		cpdf_need(r, h);
-		if (r->st != OW_OK)
-			return;
-		ow_canvas_set_colour(r->cv, cpdf_ink());
-		ow_canvas_set_font(r->cv, size, bold);
-		ow_canvas_text(r->cv, r->x0 + indent, r->y + 0.8 * size,
-		               lines[i], OW_ALIGN_LEFT, OW_VALIGN_BASELINE, 0);
-		r->y += h;
-	}
-	r->y += after;
-}
-
-/* A heading kept with at least follow points of what comes after it. */
-void cpdf_heading(struct cpdf *r, const char *text, double follow)
-{
-	cpdf_need(r, 30.0 + follow);
-	if (r->st != OW_OK)
-		return;
-	r->y += 8.0;
-	ow_canvas_set_colour(r->cv, cpdf_ink());
-	ow_canvas_set_font(r->cv, 12.0, 1);
-	ow_canvas_text(r->cv, r->x0, r->y + 10.0, text, OW_ALIGN_LEFT,
-	               OW_VALIGN_BASELINE, 0);
-	ow_canvas_set_line_width(r->cv, 0.6);
-	ow_canvas_move_to(r->cv, r->x0, r->y + 14.5);
-	ow_canvas_line_to(r->cv, r->x1, r->y + 14.5);
-	ow_canvas_stroke(r->cv);
-	r->y += 21.0;
-}
-
-/* ---- tables ------------------------------------------------------------ */
-
-static double col_x(const struct cpdf *r, const struct table *t, int c)
-{
-	double x = r->x0;
+	const struct ow_compare *c = r->cmp;
+	struct rpt_table t = {3,
+	                      {"", "", ""},
+	                      {0.16, 0.42, 0.42},
+	                      {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT},
+	                      RPT_SMALL_PT,
+	                      1};
+	char head[2][96], line[400], axis[96];
+	const char *cells[3];
 	int k;
 
-	for (k = 0; k < c; k++)
-		x += t->frac[k] * (r->x1 - r->x0);
-	return x;
-}
-
-static void row_text(struct cpdf *r, const struct table *t, int c, double y,
-                     const char *s)
-{
-	double x = col_x(r, t, c) + 3.0, w = t->frac[c] * (r->x1 - r->x0);
-
-	if (t->align[c] == OW_ALIGN_RIGHT)
-		x += w - 6.0;
-	ow_canvas_text(r->cv, x, y, s, t->align[c], OW_VALIGN_BASELINE, 0);
-}
-
-void cpdf_table_head(struct cpdf *r, const struct table *t)
-{
-	char lines[MAX_COLS][3][LINE_LEN];
-	double lh = SMALL_PT * LINE, h;
-	int n[MAX_COLS], c, i, most = 1;
-
-	for (c = 0; c < t->n; c++) {
-		n[c] = wrap(r, t->head[c] ? t->head[c] : "",
-		            t->frac[c] * (r->x1 - r->x0) - 6.0, SMALL_PT, 1,
-		            lines[c], 3);
-		most = n[c] > most ? n[c] : most;
+	para(r, "Operating windows compared", 18.0, 1, 4.0);
+	snprintf(line, sizeof line,
+	         "%s and %s, swept on one grid of screw "
+	         "speed and %s",
+	         label(r, 0), label(r, 1),
+	         ow_maps_axis_label(c->study[0], axis, sizeof axis));
+	para(r, line, 10.0, 0, 8.0);
+	for (k = 0; k < 2; k++) {
+		if (strcmp(label(r, k), k ? "B" : "A"))
+			snprintf(head[k], sizeof head[k], "%s  (case %s)",
+			         label(r, k), k ? "B" : "A");
+		else
+			snprintf(head[k], sizeof head[k], "case %s",
+			         k ? "B" : "A");
+		t.head[k + 1] = head[k];
 	}
-	h = most * lh + 4.0;
-	cpdf_need(r, h + 2.0 * lh + 6.0);
-	if (r->st != OW_OK)
+	rpt_table_head(&r->doc, &t);
+	cells[0] = "study";
+	cells[1] = c->study[0]->title;
+	cells[2] = c->study[1]->title;
+	rpt_table_row(&r->doc, &t, cells, 0);
+	cells[0] = "file";
+	cells[1] = c->study[0]->path;
+	cells[2] = c->study[1]->path;
+	rpt_table_row(&r->doc, &t, cells, 0);
+	cells[0] = "screw";
+	cells[1] = c->study[0]->screw.name;
+	cells[2] = c->study[1]->screw.name;
+	rpt_table_row(&r->doc, &t, cells, 0);
+	cells[0] = "resin";
+	cells[1] = c->study[0]->resin.name;
+	cells[2] = c->study[1]->resin.name;
+	rpt_table_row(&r->doc, &t, cells, 0);
+	snprintf(line, sizeof line,
+	         "Date %s      Revision ________      "
+	         "Prepared by ______________      Approved by ______________",
+	         r->o->date);
+	r->doc.y += 6.0;
+	line_as_is(r, line, 4.0);
+}
+
+/* ---- the windows ------------------------------------------------------------
+ */
+
+static void range(char *buf, size_t n, double lo, double hi, int dec)
+{
+	char a[32], b[32];
+
+	snprintf(buf, n, "%s – %s", rpt_fix(a, sizeof a, lo, dec),
+	         rpt_fix(b, sizeof b, hi, dec));
+}
+
+static void output_range(const struct cpdf *r, const struct ow_window *w,
+                         char *buf, size_t n)
+{
+	enum ow_unit_system u = r->o->units;
+
+	range(buf, n, ow_display_value(u, OW_DIM_MASS_FLOW, w->output_min_kg_s),
+	      ow_display_value(u, OW_DIM_MASS_FLOW, w->output_max_kg_s), 1);
+}
+
+static void window_row(struct cpdf *r, const struct rpt_table *t,
+                       const char *name, const struct ow_window *w,
+                       const char *output)
+{
+	char rpm[64], set[64], ctr[96], safe[32], a[32], b[32];
+	const char *cells[6] = {name, rpm, set, ctr, output, safe};
+
+	snprintf(safe, sizeof safe, "%.0f %%", 100.0 * w->safe_fraction);
+	if (w->empty) {
+		const char *none[6] = {name, "no safe point", "", "", "", safe};
+
+		rpt_table_row(&r->doc, t, none, 0);
 		return;
-	ow_canvas_rect(r->cv, r->x0, r->y, r->x1 - r->x0, h);
-	ow_canvas_set_colour(r->cv, ow_rgb(0.86, 0.88, 0.91));
-	ow_canvas_fill(r->cv);
-	ow_canvas_set_colour(r->cv, cpdf_ink());
-	ow_canvas_set_font(r->cv, SMALL_PT, 1);
-	for (c = 0; c < t->n; c++)
-		for (i = 0; i < n[c]; i++)
-			row_text(r, t, c, r->y + 2.0 + (i + 0.8) * lh,
-			         lines[c][i]);
-	r->y += h;
+	}
+	ow_compare_format_range(rpm, sizeof rpm, w->rpm_min, w->rpm_max,
+	                        OW_REPORT_RPM_DECIMALS);
+	ow_compare_format_range(
+	    set, sizeof set,
+	    rpt_shown(&r->doc, OW_DIM_TEMPERATURE, w->set_min_K),
+	    rpt_shown(&r->doc, OW_DIM_TEMPERATURE, w->set_max_K),
+	    OW_REPORT_TEMP_DECIMALS);
+	snprintf(ctr, sizeof ctr, "%s rpm, %s %s",
+	         ow_report_format_bound(a, sizeof a, w->centre.rpm,
+	                                OW_REPORT_RPM_DECIMALS,
+	                                OW_ROUND_NEAREST),
+	         ow_report_format_bound(
+	             b, sizeof b,
+	             rpt_shown(&r->doc, OW_DIM_TEMPERATURE, w->centre_set_K),
+	             OW_REPORT_TEMP_DECIMALS + 1, OW_ROUND_NEAREST),
+	         rpt_unit(&r->doc, OW_DIM_TEMPERATURE));
+	rpt_table_row(&r->doc, t, cells, !strcmp(name, "common"));
 }
 
-/* One row; cells wrap in their column; shade: a light background; bold:
- * the whole row in bold. The header is repeated after a page break. */
-void cpdf_table_row(struct cpdf *r, const struct table *t,
-                    const char *const *cells, int shade, int bold)
+static void windows(struct cpdf *r)
 {
-	char lines[MAX_COLS][4][LINE_LEN];
-	int n[MAX_COLS], c, i, most = 1;
-	double lh = SMALL_PT * LINE, h;
+	const struct ow_compare *c = r->cmp;
+	char h2[96], h4[64], out[3][64], both[160], axis[64];
+	struct rpt_table t = {
+	    6,
+	    {"", "screw speed, rpm", h2, "centre", h4, "safe share of the map"},
+	    {0.13, 0.15, 0.19, 0.18, 0.20, 0.15},
+	    {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT,
+	     OW_ALIGN_LEFT, OW_ALIGN_LEFT},
+	    RPT_SMALL_PT,
+	    1};
+	int k;
 
-	for (c = 0; c < t->n; c++) {
-		n[c] = wrap(r, cells[c] ? cells[c] : "",
-		            t->frac[c] * (r->x1 - r->x0) - 6.0, SMALL_PT,
-		            bold || c == 0, lines[c], 4);
-		most = n[c] > most ? n[c] : most;
+	snprintf(h2, sizeof h2, "%s, %s",
+	         ow_maps_axis_label(c->study[0], axis, sizeof axis),
+	         rpt_unit(&r->doc, OW_DIM_TEMPERATURE));
+	snprintf(h4, sizeof h4, "throughput, %s",
+	         ow_display_label(r->o->units, OW_DIM_MASS_FLOW));
+	rpt_heading(&r->doc, "Recommended windows", 80.0);
+	rpt_table_head(&r->doc, &t);
+	for (k = 0; k < 2; k++) {
+		output_range(r, c->win[k], out[k], sizeof out[k]);
+		window_row(r, &t, label(r, k), c->win[k], out[k]);
 	}
-	h = most * lh + 3.0;
-	if (r->st == OW_OK && r->y + h > r->y1) {
-		cpdf_new_page(r);
-		cpdf_table_head(r, t);
-	}
-	if (r->st != OW_OK)
+	output_range(r, c->common[0], out[0], sizeof out[0]);
+	output_range(r, c->common[1], out[1], sizeof out[1]);
+	snprintf(both, sizeof both, "%s: %s; %s: %s", label(r, 0), out[0],
+	         label(r, 1), out[1]);
+	window_row(r, &t, "common", c->common[0], both);
+	r->doc.y += 4.0;
+	para(r,
+	     "Each window is the largest rectangle of grid points at "
+	     "which every limit of that study is met. The common window "
+	     "is the largest rectangle of points safe in both cases, and "
+	     "its centre the point of it farthest from any point unsafe "
+	     "in either: the setting to start from when the line must "
+	     "run either case.",
+	     RPT_BODY_PT, 0, 4.0);
+}
+
+/* The overlay map at full column width. */
+static void overlay(struct cpdf *r)
+{
+	double s = (r->doc.x1 - r->doc.x0) / OW_MAPS_WIDTH_PT;
+	struct ow_canvas_place at;
+	struct ow_rect box = {0.0, 0.0, OW_MAPS_WIDTH_PT, OW_MAPS_HEIGHT_PT};
+	struct ow_canvas *cv = NULL;
+
+	rpt_need(&r->doc, s * OW_MAPS_HEIGHT_PT + 8.0);
+	if (r->doc.st != OW_OK)
 		return;
-	if (shade) {
-		ow_canvas_rect(r->cv, r->x0, r->y, r->x1 - r->x0, h);
-		ow_canvas_set_colour(r->cv, ow_rgb(1.0, 0.95, 0.84));
-		ow_canvas_fill(r->cv);
-	}
-	ow_canvas_set_colour(r->cv, cpdf_ink());
-	for (c = 0; c < t->n; c++) {
-		ow_canvas_set_font(r->cv, SMALL_PT, bold || c == 0);
-		for (i = 0; i < n[c]; i++)
-			row_text(r, t, c, r->y + 1.5 + (i + 0.8) * lh,
-			         lines[c][i]);
-	}
-	ow_canvas_set_colour(r->cv, ow_rgb(0.8, 0.8, 0.8));
-	ow_canvas_set_line_width(r->cv, 0.4);
-	ow_canvas_move_to(r->cv, r->x0, r->y + h);
-	ow_canvas_line_to(r->cv, r->x1, r->y + h);
-	ow_canvas_stroke(r->cv);
-	r->y += h;
+	at = (struct ow_canvas_place){r->doc.x0, r->doc.y + 4.0, s};
+	r->doc.st = ow_canvas_create_pdf(
+	    r->doc.pdf, r->doc.pages[r->doc.n_pages - 1], &r->doc.fonts, &at,
+	    box.w, box.h, &cv, r->doc.d);
+	if (r->doc.st == OW_OK)
+		r->doc.st =
+		    ow_compare_draw_overlay(cv, &box, r->cmp, r->o, r->doc.d);
+	if (r->doc.st == OW_OK)
+		r->doc.st = ow_canvas_status(cv, r->doc.d);
+	ow_canvas_destroy(cv);
+	r->doc.y += s * OW_MAPS_HEIGHT_PT + 8.0;
 }
 
-/* ---- numbers ------------------------------------------------------------ */
+/* ---- why they differ ---------------------------------------------------- */
 
-#define MINUS "\xE2\x88\x92" /* U+2212 */
-
-/* v with dec decimals, U+2212 for a minus sign, "-0" as "0". */
-char *cpdf_fix(char *buf, size_t n, double v, int dec)
+/* "pressure on the screw (16 points), ..." for counts[]; "none". */
+static void limit_list(const int *counts, char *buf, size_t n)
 {
-	char tmp[64];
+	enum ow_check order[OW_CK_COUNT];
+	struct ow_window tmp;
+	int c, m;
 
-	if (!isfinite(v)) {
-		snprintf(buf, n, "—");
-		return buf;
+	memset(&tmp, 0, sizeof tmp);
+	for (c = 0; c < OW_CK_COUNT; c++)
+		tmp.fail_count[c] = counts[c];
+	m = ow_window_binding(&tmp, order);
+	snprintf(buf, n, "%s", m ? "" : "none");
+	for (c = 0; c < m; c++)
+		snprintf(buf + strlen(buf), n - strlen(buf), "%s%s (%d points)",
+		         c ? ", " : "", ow_check_text(order[c]),
+		         counts[order[c]]);
+}
+
+static void why(struct cpdf *r)
+{
+	const struct ow_compare *c = r->cmp;
+	int n = c->n_rpm * c->n_axis, k;
+	char text[640], list[400];
+
+	rpt_heading(&r->doc, "Where and why the windows differ", 60.0);
+	snprintf(text, sizeof text,
+	         "Of the %d grid points (%d speeds × %d "
+	         "set-points), both cases are safe at %d, only %s at %d, only "
+	         "%s at %d, and neither at %d.",
+	         n, c->n_rpm, c->n_axis, c->count[OW_CMP_BOTH], label(r, 0),
+	         c->count[OW_CMP_A_ONLY], label(r, 1), c->count[OW_CMP_B_ONLY],
+	         c->count[OW_CMP_NEITHER]);
+	para(r, text, RPT_BODY_PT, 0, 5.0);
+	for (k = 0; k < 2; k++) {
+		if (!c->count[k ? OW_CMP_B_ONLY : OW_CMP_A_ONLY])
+			continue;
+		limit_list(c->lost[k], list, sizeof list);
+		snprintf(text, sizeof text,
+		         "Where only %s is safe, %s exceeds: "
+		         "%s.",
+		         label(r, k), label(r, 1 - k), list);
+		para(r, text, RPT_BODY_PT, 0, 5.0);
 	}
-	snprintf(tmp, sizeof tmp, "%.*f", dec, v);
-	if (tmp[0] == '-' && strspn(tmp + 1, "0.") == strlen(tmp + 1))
-		snprintf(buf, n, "%s", tmp + 1);
-	else if (tmp[0] == '-')
-		snprintf(buf, n, MINUS "%s", tmp + 1);
-	else
-		snprintf(buf, n, "%s", tmp);
+	for (k = 0; k < 2; k++) {
+		limit_list(c->win[k]->fail_count, list, sizeof list);
+		snprintf(text, sizeof text,
+		         "Limits that shape %s's window "
+		         "(grid points each excludes): %s.",
+		         label(r, k), list);
+		para(r, text, RPT_BODY_PT, 0, 5.0);
+	}
+}
+
+/* ---- both cases at the centres --------------------------------------------
+ */
+
+/* A difference: "+" before a positive value that does not print as 0. */
+static char *signed_fix(char *buf, size_t n, double v, int dec)
+{
+	char tmp[40]; /* leaves room for the sign in any 48-byte buf */
+
+	rpt_fix(tmp, sizeof tmp, v, dec);
+	snprintf(buf, n, "%s%s",
+	         v > 0.0 && strspn(tmp, "0.") != strlen(tmp) ? "+" : "", tmp);
 	return buf;
 }
 
-double cpdf_temp(const struct cpdf *r, double K)
+static void figure_row(struct cpdf *r, const struct rpt_table *t,
+                       const struct ow_cmp_point *p, int i)
 {
-	return ow_display_value(r->o->units, OW_DIM_TEMPERATURE, K);
+	const struct ow_compare *c = r->cmp;
+	enum ow_unit_system u = r->o->units;
+	const char *unit = ow_compare_figure_unit(i, u);
+	int dec = ow_compare_figure_decimals(i, u), k;
+	char name[96], v[3][48];
+	const char *cells[4] = {name, v[0], v[1], v[2]};
+	double x[2];
+
+	snprintf(name, sizeof name, "%s%s%s", ow_compare_figure_text(i),
+	         *unit ? ", " : "", unit);
+	for (k = 0; k < 2; k++) {
+		x[k] = ow_compare_figure_shown(c->study[k], &p->pt[k], i, u);
+		rpt_fix(v[k], sizeof v[k], x[k], dec);
+	}
+	signed_fix(v[2], sizeof v[2], x[1] - x[0], dec);
+	rpt_table_row(&r->doc, t, cells, 0);
 }
 
-const char *cpdf_tunit(const struct cpdf *r)
+/* Which earlier point (index) is the same as at, or -1. */
+static int same_as(const struct ow_compare *c, int at)
 {
-	return ow_display_label(r->o->units, OW_DIM_TEMPERATURE);
+	int k;
+
+	for (k = 0; k < at; k++)
+		if (c->at[k].valid && c->at[k].rpm == c->at[at].rpm &&
+		    c->at[k].axis == c->at[at].axis)
+			return k;
+	return -1;
 }
 
-/* ---- footer, saving ------------------------------------------------------ */
-
-static void footer(struct cpdf *r, int k)
+static void verdict_cell(const struct ow_verdict *v, char *buf, size_t n)
 {
-	char left[320], right[48];
-	double y = r->ph - MARGIN_BOTTOM + 22.0;
+	int c;
 
-	open_canvas(r, k);
-	if (r->st != OW_OK)
-		return;
-	snprintf(left, sizeof left,
-	         "Comparison: %s and %s   ·   %s   ·   "
-	         "opwin %s",
-	         cpdf_label(r, 0), cpdf_label(r, 1), r->o->date, OW_VERSION);
-	snprintf(right, sizeof right, "page %d of %d", k + 1, r->n_pages);
-	ow_canvas_set_colour(r->cv, ow_rgb(0.55, 0.55, 0.55));
-	ow_canvas_set_line_width(r->cv, 0.5);
-	ow_canvas_move_to(r->cv, r->x0, y);
-	ow_canvas_line_to(r->cv, r->x1, y);
-	ow_canvas_stroke(r->cv);
-	ow_canvas_set_colour(r->cv, ow_rgb(0.25, 0.25, 0.25));
-	ow_canvas_set_font(r->cv, 7.5, 0);
-	ow_canvas_text(r->cv, r->x0, y + 11.0, left, OW_ALIGN_LEFT,
-	               OW_VALIGN_BASELINE, 0);
-	ow_canvas_set_font(r->cv, 8.0, 1);
-	ow_canvas_text(r->cv, r->x1, y + 11.0, right, OW_ALIGN_RIGHT,
-	               OW_VALIGN_BASELINE, 0);
-	close_canvas(r);
+	snprintf(buf, n, "%s", v->bits ? "UNSAFE:" : "safe");
+	for (c = 0; c < OW_CK_COUNT; c++)
+		if (v->bits & (1u << c))
+			snprintf(buf + strlen(buf), n - strlen(buf), " %s",
+			         ow_check_key((enum ow_check)c));
 }
 
-static void save(struct cpdf *r, const char *path)
+static void centre_table(struct cpdf *r, int at)
 {
-	HPDF_UINT32 len;
-	HPDF_BYTE *buf;
+	const struct ow_cmp_point *p = &r->cmp->at[at];
+	char diff[96], title[200], va[160], vb[160];
+	struct rpt_table t = {
+	    4,
+	    {"", label(r, 0), label(r, 1), diff},
+	    {0.46, 0.18, 0.18, 0.18},
+	    {OW_ALIGN_LEFT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT},
+	    RPT_SMALL_PT,
+	    1};
+	const char *cells[4] = {"verdict", va, vb, ""};
+	int i;
 
-	if (r->st != OW_OK)
-		return;
-	if (HPDF_SaveToStream(r->pdf) != HPDF_OK) {
-		check(r);
+	snprintf(diff, sizeof diff, "%s − %s", label(r, 1), label(r, 0));
+	snprintf(title, sizeof title, "At the %s: %s rpm, %s %s",
+	         ow_compare_at_text((enum ow_cmp_at)at),
+	         ow_report_format_bound(va, sizeof va, p->rpm,
+	                                OW_REPORT_RPM_DECIMALS,
+	                                OW_ROUND_NEAREST),
+	         ow_report_format_bound(
+	             vb, sizeof vb,
+	             rpt_shown(&r->doc, OW_DIM_TEMPERATURE, p->set_ref_K[0]),
+	             OW_REPORT_TEMP_DECIMALS + 1, OW_ROUND_NEAREST),
+	         rpt_unit(&r->doc, OW_DIM_TEMPERATURE));
+	rpt_need(&r->doc, 12.0 * RPT_SMALL_PT * RPT_LINE + 20.0);
+	para(r, title, RPT_BODY_PT + 1.0, 1, 3.0);
+	rpt_table_head(&r->doc, &t);
+	for (i = 0; i < ow_compare_n_figures(); i++)
+		figure_row(r, &t, p, i);
+	verdict_cell(&p->v[0], va, sizeof va);
+	verdict_cell(&p->v[1], vb, sizeof vb);
+	rpt_table_row(&r->doc, &t, cells, 0);
+	r->doc.y += 8.0;
+}
+
+static void centres(struct cpdf *r)
+{
+	const struct ow_compare *c = r->cmp;
+	char text[200];
+	int at, k;
+
+	rpt_heading(&r->doc, "Both cases at the centre points", 160.0);
+	para(r,
+	     "Each case solved alone at the point, as a single run "
+	     "there gives it.",
+	     RPT_BODY_PT, 0, 5.0);
+	for (at = 0; at < OW_CMP_AT_COUNT; at++) {
+		if (!c->at[at].valid)
+			continue;
+		k = same_as(c, at);
+		if (k >= 0) {
+			snprintf(text, sizeof text, "The %s is the %s.",
+			         ow_compare_at_text((enum ow_cmp_at)at),
+			         ow_compare_at_text((enum ow_cmp_at)k));
+			para(r, text, RPT_BODY_PT, 0, 8.0);
+			continue;
+		}
+		centre_table(r, at);
+	}
+}
+
+/* ---- inputs ---------------------------------------------------------------
+ */
+
+static void input_table(struct cpdf *r, const struct ow_input_diff *e, int n,
+                        const struct ow_input_diff *diff, int n_diff)
+{
+	struct rpt_table t = {3,
+	                      {"input field", label(r, 0), label(r, 1)},
+	                      {0.38, 0.31, 0.31},
+	                      {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT},
+	                      RPT_SMALL_PT,
+	                      1};
+	int i, j;
+
+	rpt_table_head(&r->doc, &t);
+	for (i = 0; i < n && i < MAX_FIELDS; i++) {
+		const char *cells[3] = {e[i].field, e[i].a, e[i].b};
+		int differs = 0;
+
+		for (j = 0; diff && j < n_diff && !differs; j++)
+			differs = !strcmp(diff[j].field, e[i].field);
+		rpt_table_row(&r->doc, &t, cells, differs);
+	}
+	r->doc.y += 6.0;
+}
+
+static void inputs(struct cpdf *r)
+{
+	const struct ow_compare *c = r->cmp;
+	struct ow_input_diff *all = malloc(sizeof *all * MAX_FIELDS);
+	struct ow_input_diff *diff = malloc(sizeof *diff * MAX_FIELDS);
+	int na, nd;
+
+	if (!all || !diff) {
+		free(all);
+		free(diff);
+		rpt_fail(&r->doc, OW_ENOMEM, "out of memory");
 		return;
 	}
-	len = HPDF_GetStreamSize(r->pdf);
-	buf = malloc(len ? len : 1);
-	if (!buf) {
-		fail(r, OW_ENOMEM, "out of memory");
-		return;
-	}
-	if (HPDF_ReadFromStream(r->pdf, buf, &len) != HPDF_OK &&
-	    !r->hpdf_error) /* the end of the stream is reported as an error */
-		HPDF_ResetError(r->pdf);
-	check(r);
-	if (r->st == OW_OK)
-		r->st =
-		    ow_results_write_file(path, (const char *)buf, len, r->d);
-	free(buf);
+	nd = ow_compare_fields(c->study[0], c->study[1], r->o->units, 0, diff,
+	                       MAX_FIELDS);
+	na = ow_compare_fields(c->study[0], c->study[1], r->o->units, 1, all,
+	                       MAX_FIELDS);
+	rpt_heading(&r->doc, "Input fields that differ", 40.0);
+	if (nd)
+		input_table(r, diff, nd, NULL, 0);
+	else
+		para(r, "None: the two studies have the same inputs.",
+		     RPT_BODY_PT, 0, 6.0);
+	rpt_new_page(&r->doc);
+	rpt_heading(&r->doc, "Both inputs", 40.0);
+	para(r,
+	     "Every input of both studies as loaded (in the reader's "
+	     "units; lengths along the screw in its diameters D); "
+	     "shaded rows differ. The sources of the values are named "
+	     "in the study files and in each study's own report.",
+	     RPT_BODY_PT, 0, 5.0);
+	input_table(r, all, na, diff, nd);
+	free(all);
+	free(diff);
 }
 
-static int valid_date(const char *s)
-{
-	int y, m, dd;
-	char tail;
+/* ---- cautions ----------------------------------------------------------- */
 
-	return s && strlen(s) == 10 &&
-	       sscanf(s, "%4d-%2d-%2d%c", &y, &m, &dd, &tail) == 3 && m >= 1 &&
-	       m <= 12 && dd >= 1 && dd <= 31;
+static const struct {
+	const char *lead, *text;
+} cautions[] = {
+    {"Estimates, not measurements.",
+     "Both cases are computed from "
+     "published engineering models and the inputs listed above; a "
+     "difference between them is only as good as the difference "
+     "between their inputs. Where the inputs of a case are uncertain "
+     "(a worn screw's clearance, a new grade's viscosity), treat its "
+     "window as uncertain too."},
+    {"Start at the common centre.",
+     "When the line must run either "
+     "case, start at the centre of the common window, change one "
+     "setting at a time and watch melt pressure, melt temperature and "
+     "drive load settle before going on. Stop and review if the line "
+     "behaves differently from this comparison."},
+    {"The machine's own ratings come first.",
+     "The extruder builder's "
+     "ratings for drive power, torque, speed, barrel pressure and "
+     "temperature, and the rating of the rupture disc, govern wherever "
+     "they are stricter than a limit used here."},
+    {"Hot melt and pressure can injure.",
+     "Melt at these temperatures "
+     "burns on contact and can spray from the die or adapter when "
+     "pressure is released. Never open the head while the barrel is hot "
+     "and the melt may be under pressure. Local safety rules and the "
+     "approval of a qualified engineer, where required, come first."},
+};
+
+static void caution_block(struct cpdf *r)
+{
+	char text[640];
+	size_t k;
+
+	rpt_heading(&r->doc, "Cautions", 60.0);
+	for (k = 0; k < sizeof cautions / sizeof cautions[0]; k++) {
+		para(r, cautions[k].lead, RPT_BODY_PT, 1, 1.0);
+		snprintf(text, sizeof text, "%s", cautions[k].text);
+		para(r, text, RPT_BODY_PT, 0, 6.0);
+	}
 }
 
-static enum ow_status open_doc(struct cpdf *r)
+static void pages(struct cpdf *r)
 {
-	HPDF_Date date;
-
-	r->pdf = HPDF_New(on_error, r);
-	if (!r->pdf) {
-		fail(r, OW_ENOMEM, "out of memory");
-		return r->st;
-	}
-	HPDF_SetCompressionMode(r->pdf, HPDF_COMP_ALL);
-	r->st = ow_canvas_pdf_fonts(r->pdf, &r->fonts, r->d);
-	memset(&date, 0, sizeof date);
-	date.year = atoi(r->o->date);
-	date.month = atoi(r->o->date + 5);
-	date.day = atoi(r->o->date + 8);
-	date.ind = 'Z';
-	HPDF_SetInfoAttr(r->pdf, HPDF_INFO_CREATOR, "opwin " OW_VERSION);
-	HPDF_SetInfoDateAttr(r->pdf, HPDF_INFO_CREATION_DATE, date);
-	r->pw = 210.0 * MM_PT; /* ISO 216 A4 */
-	r->ph = 297.0 * MM_PT;
-	r->x0 = MARGIN_X;
-	r->x1 = r->pw - MARGIN_X;
-	r->y0 = MARGIN_TOP;
-	r->y1 = r->ph - MARGIN_BOTTOM;
-	check(r);
-	return r->st;
+	rpt_new_page(&r->doc);
+	title_block(r);
+	windows(r);
+	overlay(r);
+	rpt_new_page(&r->doc);
+	why(r);
+	centres(r);
+	inputs(r);
+	caution_block(r);
 }
 
 enum ow_status ow_compare_write_pdf(const struct ow_compare *cmp,
@@ -416,11 +530,11 @@ enum ow_status ow_compare_write_pdf(const struct ow_compare *cmp,
                                     const char *pdf_path, struct ow_diag *d)
 {
 	struct cpdf r;
-	int k;
+	enum ow_status st;
 
 	if (!cmp || !o || !pdf_path)
 		return ow_diag_set(d, OW_EARG, "compare.pdf: NULL argument");
-	if (!valid_date(o->date))
+	if (!rpt_valid_date(o->date))
 		return ow_diag_set(d, OW_EARG,
 		                   "compare.pdf: date \"%s\": "
 		                   "expected YYYY-MM-DD",
@@ -428,18 +542,22 @@ enum ow_status ow_compare_write_pdf(const struct ow_compare *cmp,
 	memset(&r, 0, sizeof r);
 	r.cmp = cmp;
 	r.o = o;
-	r.d = d;
-	if (open_doc(&r) == OW_OK) {
-		cpdf_pages(&r);
-		close_canvas(&r);
+	r.doc.sys = o->units;
+	r.doc.d = d;
+	snprintf(r.doc.foot_title, sizeof r.doc.foot_title,
+	         "Comparison: %s and %s   ·   %s   ·   "
+	         "opwin %s",
+	         label(&r, 0), label(&r, 1), o->date, OW_VERSION);
+	if (rpt_open(&r.doc, "compare.pdf", OW_PAPER_A4, o->date) == OW_OK) {
+		/* a blue-grey header; shaded rows (the differences) in
+		 * amber; tight rows, so both inputs take few pages */
+		r.doc.head_fill = ow_rgb(0.86, 0.88, 0.91);
+		r.doc.shade_fill = ow_rgb(1.0, 0.95, 0.84);
+		r.doc.row_pad = 1.5;
+		pages(&r);
 	}
-	for (k = 0; k < r.n_pages && r.st == OW_OK; k++)
-		footer(&r, k);
-	if (r.st != OW_OK)
-		ow_diag_set(d, r.st, "%s: not written", pdf_path);
-	save(&r, pdf_path);
-	ow_canvas_destroy(r.cv);
-	if (r.pdf)
-		HPDF_Free(r.pdf);
-	return r.st;
+	st = rpt_close(&r.doc, pdf_path);
+	if (st != OW_OK)
+		ow_diag_set(d, st, "%s: not written", pdf_path);
+	return st;
 }

@@ -1,8 +1,9 @@
-/* report.c - the PDF report: document set-up (libharu, compressed, DejaVu
- * Sans embedded with the UTF-8 encoder), pages, footers with "page N of
- * M" and the inputs' CRC-32, and writing the file atomically. The pages'
- * content is in report_front.c, report_pages.c, report_inputs.c and
- * report_basis.c. */
+/* report.c - the PDF documents (the report and the comparison): set-up
+ * (libharu, compressed, DejaVu Sans embedded with the UTF-8 encoder),
+ * pages, footers with "page N of M", and writing the file atomically;
+ * and the report itself, whose footer carries the inputs' CRC-32. The
+ * report's content is in report_front.c, report_pages.c, report_inputs.c
+ * and report_basis.c. */
 #include "report_impl.h"
 
 #include <ctype.h>
@@ -52,7 +53,7 @@ enum ow_status rpt_fail(struct rpt *r, enum ow_status st, const char *what)
 {
 	if (r->st == OW_OK) {
 		r->st = st;
-		ow_diag_set(r->d, st, "%s", what);
+		ow_diag_set(r->d, st, "%s: %s", r->name, what);
 	}
 	return r->st;
 }
@@ -112,7 +113,7 @@ void rpt_new_page(struct rpt *r)
 	if (r->st != OW_OK)
 		return;
 	if (r->n_pages == RPT_MAX_PAGES) {
-		rpt_fail(r, OW_ECOMPUTE, "report: too many pages");
+		rpt_fail(r, OW_ECOMPUTE, "too many pages");
 		return;
 	}
 	p = HPDF_AddPage(r->pdf);
@@ -155,22 +156,18 @@ static void fit_text(struct rpt *r, const char *utf8, double width, double size,
 }
 
 /* The footer of page k of n: a rule, the title and "page k of n", then
- * the date, the inputs' CRC-32 and the program version. */
+ * the second line. */
 static void footer(struct rpt *r, int k, int n)
 {
-	char title[320], line[160], page[40];
+	char title[320], page[40];
 	double y = r->ph - MARGIN_BOTTOM + 22.0, w = r->x1 - r->x0;
 
 	open_canvas(r, k);
 	if (r->st != OW_OK)
 		return;
 	snprintf(page, sizeof page, "page %d of %d", k + 1, n);
-	fit_text(r, r->s->title, w - rpt_text_width(r, page, 7.5, 0) - 24.0,
+	fit_text(r, r->foot_title, w - rpt_text_width(r, page, 7.5, 0) - 24.0,
 	         7.5, title, sizeof title);
-	snprintf(line, sizeof line,
-	         "%s   ·   inputs CRC-32 %08lX   ·   "
-	         "opwin %s",
-	         r->o->date, r->s->input_crc, OW_VERSION);
 	ow_canvas_set_colour(r->cv, rpt_grey(0.55));
 	ow_canvas_set_line_width(r->cv, 0.5);
 	ow_canvas_move_to(r->cv, r->x0, y);
@@ -180,15 +177,16 @@ static void footer(struct rpt *r, int k, int n)
 	ow_canvas_set_font(r->cv, 7.5, 0);
 	ow_canvas_text(r->cv, r->x0, y + 11.0, title, OW_ALIGN_LEFT,
 	               OW_VALIGN_BASELINE, 0.0);
-	ow_canvas_text(r->cv, r->x0, y + 21.0, line, OW_ALIGN_LEFT,
-	               OW_VALIGN_BASELINE, 0.0);
+	if (*r->foot_line)
+		ow_canvas_text(r->cv, r->x0, y + 21.0, r->foot_line,
+		               OW_ALIGN_LEFT, OW_VALIGN_BASELINE, 0.0);
 	ow_canvas_set_font(r->cv, 8.0, 1);
 	ow_canvas_text(r->cv, r->x1, y + 11.0, page, OW_ALIGN_RIGHT,
 	               OW_VALIGN_BASELINE, 0.0);
 	close_canvas(r);
 }
 
-static int valid_date(const char *s)
+int rpt_valid_date(const char *s)
 {
 	int k;
 
@@ -201,32 +199,37 @@ static int valid_date(const char *s)
 	return k >= 1 && k <= 12 && atoi(s + 8) >= 1 && atoi(s + 8) <= 31;
 }
 
-/* Title, creator and the given date in the document information. */
-static void doc_info(struct rpt *r)
+/* Creator and the given date in the document information. */
+static void doc_info(struct rpt *r, const char *ymd)
 {
 	HPDF_Date date;
 
 	memset(&date, 0, sizeof date);
-	date.year = atoi(r->o->date);
-	date.month = atoi(r->o->date + 5);
-	date.day = atoi(r->o->date + 8);
+	date.year = atoi(ymd);
+	date.month = atoi(ymd + 5);
+	date.day = atoi(ymd + 8);
 	date.ind = 'Z';
 	HPDF_SetInfoAttr(r->pdf, HPDF_INFO_CREATOR, "opwin " OW_VERSION);
 	HPDF_SetInfoDateAttr(r->pdf, HPDF_INFO_CREATION_DATE, date);
 }
 
-static enum ow_status open_doc(struct rpt *r)
+enum ow_status rpt_open(struct rpt *r, const char *name, enum ow_paper paper,
+                        const char *date)
 {
-	int a4 = r->o->paper == OW_PAPER_A4;
+	int a4 = paper == OW_PAPER_A4;
 
+	r->name = name;
+	r->head_fill = rpt_grey(0.90);
+	r->shade_fill = rpt_grey(0.955);
+	r->row_pad = 3.5;
 	r->pdf = HPDF_New(on_hpdf_error, r);
 	if (!r->pdf)
-		return rpt_fail(r, OW_ENOMEM, "report: out of memory");
+		return rpt_fail(r, OW_ENOMEM, "out of memory");
 	HPDF_SetCompressionMode(r->pdf, HPDF_COMP_ALL);
 	r->st = ow_canvas_pdf_fonts(r->pdf, &r->fonts, r->d);
 	if (r->st != OW_OK)
 		return r->st;
-	doc_info(r);
+	doc_info(r, date);
 	r->pw = a4 ? 210.0 * MM_PT : 8.5 * 72.0;
 	r->ph = a4 ? 297.0 * MM_PT : 11.0 * 72.0;
 	r->x0 = MARGIN_X;
@@ -252,7 +255,7 @@ static void save(struct rpt *r, const char *path)
 	len = HPDF_GetStreamSize(r->pdf);
 	buf = malloc(len ? len : 1);
 	if (!buf) {
-		rpt_fail(r, OW_ENOMEM, "report: out of memory");
+		rpt_fail(r, OW_ENOMEM, "out of memory");
 		return;
 	}
 	if (HPDF_ReadFromStream(r->pdf, buf, &len) != HPDF_OK &&
@@ -265,6 +268,22 @@ static void save(struct rpt *r, const char *path)
 	free(buf);
 }
 
+enum ow_status rpt_close(struct rpt *r, const char *path)
+{
+	int k;
+
+	close_canvas(r);
+	for (k = 0; k < r->n_pages && r->st == OW_OK; k++)
+		footer(r, k, r->n_pages);
+	save(r, path);
+	ow_canvas_destroy(r->cv);
+	r->cv = NULL;
+	if (r->pdf)
+		HPDF_Free(r->pdf);
+	r->pdf = NULL;
+	return r->st;
+}
+
 enum ow_status ow_report_write(const struct ow_study *s,
                                const struct ow_grid *g,
                                const struct ow_window *w,
@@ -272,13 +291,12 @@ enum ow_status ow_report_write(const struct ow_study *s,
                                const char *pdf_path, struct ow_diag *d)
 {
 	struct rpt r;
-	int k;
 
 	if (!s || !g || !w || !o || !pdf_path)
 		return ow_diag_set(d, OW_EARG,
 		                   "ow_report_write: NULL "
 		                   "argument");
-	if (!valid_date(o->date))
+	if (!rpt_valid_date(o->date))
 		return ow_diag_set(d, OW_EARG,
 		                   "report date \"%s\": expected "
 		                   "YYYY-MM-DD",
@@ -290,19 +308,17 @@ enum ow_status ow_report_write(const struct ow_study *s,
 	r.o = o;
 	r.sys = o->units;
 	r.d = d;
-	if (open_doc(&r) == OW_OK) {
+	snprintf(r.foot_title, sizeof r.foot_title, "%s", s->title);
+	snprintf(r.foot_line, sizeof r.foot_line,
+	         "%s   ·   inputs CRC-32 %08lX   ·   "
+	         "opwin %s",
+	         o->date, s->input_crc, OW_VERSION);
+	if (rpt_open(&r, "report", o->paper, o->date) == OW_OK) {
 		rpt_front_page(&r);
 		rpt_map_pages(&r);
 		rpt_profile_page(&r);
 		rpt_inputs(&r);
 		rpt_basis(&r);
-		close_canvas(&r);
 	}
-	for (k = 0; k < r.n_pages && r.st == OW_OK; k++)
-		footer(&r, k, r.n_pages);
-	save(&r, pdf_path);
-	ow_canvas_destroy(r.cv);
-	if (r.pdf)
-		HPDF_Free(r.pdf);
-	return r.st;
+	return rpt_close(&r, pdf_path);
 }

@@ -1,8 +1,10 @@
-/* report_impl.h - internals of the PDF report (not public): the state of
- * one document being laid out, a flowing text cursor with page breaks,
+/* report_impl.h - internals of the PDF documents (not public): the state
+ * of one document being laid out, a flowing text cursor with page breaks,
  * wrapped paragraphs, headings, tables, and number formatting in the
  * reader's units. Every page is one full-page ow_canvas, so text, tables
- * and charts go through the same drawing layer.
+ * and charts go through the same drawing layer. The report uses all of
+ * it; the comparison PDF (compare_pdf.c) uses the document layer and
+ * leaves the report's own fields (s, g, w, o) NULL.
  *
  * Every helper returns at once when r->st already holds a failure: a
  * section can be written straight through and checked once. */
@@ -23,6 +25,7 @@
 #define RPT_LINE      1.32 /* line height per point of font size */
 
 struct rpt {
+	/* the report's inputs (NULL in other documents) */
 	const struct ow_study *s;
 	const struct ow_grid *g;
 	const struct ow_window *w;
@@ -40,20 +43,42 @@ struct rpt {
 	enum ow_status st;    /* first failure */
 	struct ow_diag *d;
 	HPDF_STATUS hpdf_error, hpdf_detail; /* first libharu error */
+	const char *name;          /* the document in messages: "report" */
+	char foot_title[320];      /* footer, first line (cut to fit) */
+	char foot_line[200];       /* footer, second line ("": none) */
+	struct ow_rgba head_fill;  /* table header background */
+	struct ow_rgba shade_fill; /* background of a shaded table row */
+	double row_pad;            /* above and below a table row's text, pt */
 };
 
 /* Grey levels and the accent used by the text pages. */
 struct ow_rgba rpt_ink(void);
 struct ow_rgba rpt_grey(double level);
 
-/* ---- pages and the cursor (report.c) ---- */
+/* ---- the document, pages and the cursor (report.c) ---- */
+
+/* Is s a date "YYYY-MM-DD"? */
+int rpt_valid_date(const char *s);
+/* Start the document in r (zeroed, with r->d set): libharu with an error
+ * handler, compressed, DejaVu Sans embedded, creator and date (valid
+ * YYYY-MM-DD) in its information, page size of paper and the margins;
+ * name ("report") begins every message. Grey table fills, 3.5 pt row padding.
+ * Returns r->st. */
+enum ow_status rpt_open(struct rpt *r, const char *name, enum ow_paper paper,
+                        const char *date);
+/* Finish the document: close the last page, a footer on every page (a
+ * rule, r->foot_title and "page N of M", then r->foot_line), write it
+ * atomically to path (nothing on a failure) and free it. Returns the
+ * first failure. */
+enum ow_status rpt_close(struct rpt *r, const char *path);
 
 /* Start a new page (closing the previous page's canvas). */
 void rpt_new_page(struct rpt *r);
 /* Make room for h points below the cursor: a new page when they do not
  * fit. Returns 1 when a page was started. */
 int rpt_need(struct rpt *r, double h);
-/* Record a failure (the first one is kept) and return it. */
+/* Record a failure (the first one is kept; its message is "name: what")
+ * and return it. */
 enum ow_status rpt_fail(struct rpt *r, enum ow_status st, const char *what);
 /* Check the canvas and libharu after drawing a block. */
 void rpt_check(struct rpt *r);

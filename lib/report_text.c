@@ -251,7 +251,7 @@ void rpt_subheading(struct rpt *r, const char *utf8, double min_follow_pt)
 
 /* ---- tables ----------------------------------------------------------- */
 
-#define CELL_PAD 3.5
+#define CELL_PAD 3.5 /* left and right of a cell's text */
 
 struct cell_lines {
 	char buf[2048];
@@ -286,7 +286,7 @@ static void cell_draw(struct rpt *r, const struct rpt_table *t, int c,
 	else
 		x += CELL_PAD;
 	for (k = 0; k < cl->n; k++)
-		ow_canvas_text(r->cv, x, y + CELL_PAD + t->size_pt + k * lh,
+		ow_canvas_text(r->cv, x, y + r->row_pad + t->size_pt + k * lh,
 		               cl->lines[k], t->align[c], OW_VALIGN_BASELINE,
 		               0.0);
 }
@@ -308,17 +308,17 @@ static double row_layout(struct rpt *r, const struct rpt_table *t,
 		             cl[c].buf, sizeof cl[c].buf, cl[c].lines, 40);
 		h = fmax(h, cl[c].n * t->size_pt * RPT_LINE);
 	}
-	return h + 2.0 * CELL_PAD;
+	return h + 2.0 * r->row_pad;
 }
 
 static void row_draw(struct rpt *r, const struct rpt_table *t,
-                     const struct cell_lines *cl, double h, double fill,
-                     int head)
+                     const struct cell_lines *cl, double h,
+                     const struct ow_rgba *fill, int head)
 {
 	int c;
 
-	if (fill > 0.0) {
-		ow_canvas_set_colour(r->cv, rpt_grey(fill));
+	if (fill) {
+		ow_canvas_set_colour(r->cv, *fill);
 		ow_canvas_rect(r->cv, r->x0, r->y, r->x1 - r->x0, h);
 		ow_canvas_fill(r->cv);
 	}
@@ -342,12 +342,12 @@ void rpt_table_head(struct rpt *r, const struct rpt_table *t)
 		return;
 	cl = malloc(sizeof *cl * RPT_MAX_COLS);
 	if (!cl) {
-		rpt_fail(r, OW_ENOMEM, "report: out of memory");
+		rpt_fail(r, OW_ENOMEM, "out of memory");
 		return;
 	}
 	h = row_layout(r, t, t->head, cl, 1);
 	rpt_need(r, h + 2.0 * t->size_pt * RPT_LINE); /* keep with a row */
-	row_draw(r, t, cl, h, 0.90, 1);
+	row_draw(r, t, cl, h, &r->head_fill, 1);
 	free(cl);
 }
 
@@ -361,13 +361,13 @@ void rpt_table_row(struct rpt *r, const struct rpt_table *t,
 		return;
 	cl = malloc(sizeof *cl * RPT_MAX_COLS);
 	if (!cl) {
-		rpt_fail(r, OW_ENOMEM, "report: out of memory");
+		rpt_fail(r, OW_ENOMEM, "out of memory");
 		return;
 	}
 	h = row_layout(r, t, cells, cl, 0);
 	if (rpt_need(r, h))
 		rpt_table_head(r, t); /* the header again on the new page */
-	row_draw(r, t, cl, h, shade ? 0.955 : 0.0, 0);
+	row_draw(r, t, cl, h, shade ? &r->shade_fill : NULL, 0);
 	free(cl);
 }
 
