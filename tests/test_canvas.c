@@ -2,6 +2,7 @@
  * byte-identical output, SVG text, text metrics, hatching, clipping,
  * sticky errors, and the PDF back-end read back with poppler's tools. */
 #include "testutil.h"
+#include "pdfutil.h"
 
 #include <cairo.h>
 #include <hpdf.h>
@@ -377,20 +378,6 @@ static void pdf_error(HPDF_STATUS e, HPDF_STATUS detail, void *user)
 		*(HPDF_STATUS *)user = e;
 }
 
-/* Run cmd and return its standard output (first 8 kB). */
-static char *run(const char *cmd)
-{
-	static char out[8192];
-	FILE *p = popen(cmd, "r");
-	size_t n;
-
-	if (!p)
-		return NULL;
-	n = fread(out, 1, sizeof out - 1, p);
-	out[n] = '\0';
-	return pclose(p) == 0 ? out : NULL;
-}
-
 /* pdffonts: after two header lines, one line per font whose fifth
  * column from the end is "emb" (yes/no). */
 static int all_embedded(const char *out)
@@ -429,9 +416,9 @@ static void canvas_pdf_back_end_draws_readable_embedded_text(void **state)
 	struct ow_canvas *cv = NULL, *img = NULL;
 	struct ow_diag d = {{0}};
 	char path[] = "/tmp/ow_canvas_pdf_XXXXXX", cmd[128];
-	const char *out;
+	char *out;
 	double wp, wi;
-	int fd;
+	int fd, rc;
 
 	(void)state;
 	assert_non_null(doc);
@@ -462,15 +449,17 @@ static void canvas_pdf_back_end_draws_readable_embedded_text(void **state)
 	assert_int_equal(HPDF_SaveToFile(doc, path), HPDF_OK);
 	HPDF_Free(doc);
 	snprintf(cmd, sizeof cmd, "pdftotext %s - 2>/dev/null", path);
-	out = run(cmd);
-	if (out) { /* poppler-utils present (the Makefile's deps install it) */
+	out = ow_test_run(cmd, &rc);
+	if (rc == 0) { /* poppler-utils present (deps installs it) */
 		assert_non_null(strstr(out, "peak melt 240 °C"));
+		free(out);
 		snprintf(cmd, sizeof cmd, "pdffonts %s 2>/dev/null", path);
-		out = run(cmd);
-		assert_non_null(out);
+		out = ow_test_run(cmd, &rc);
+		assert_int_equal(rc, 0);
 		assert_non_null(strstr(out, "DejaVuSans-Bold"));
 		assert_true(all_embedded(out));
 	}
+	free(out);
 	remove(path);
 }
 

@@ -15,32 +15,6 @@
 #define FAST "tests/data/map-fast.json"
 #define WORN "tests/data/compare-fast-worn.json"
 
-static struct ow_units *units;
-
-static int setup(void **state)
-{
-	(void)state;
-	return ow_units_create(&units, NULL) == OW_OK ? 0 : -1;
-}
-
-static int teardown(void **state)
-{
-	(void)state;
-	ow_units_destroy(units);
-	return 0;
-}
-
-static struct ow_study *load(const char *path)
-{
-	struct ow_study *s = calloc(1, sizeof *s);
-	struct ow_diag d = {{0}};
-
-	assert_non_null(s);
-	if (ow_config_load_study(units, path, s, &d) != OW_OK)
-		fail_msg("%s", d.msg);
-	return s;
-}
-
 static struct ow_compare *run(const struct ow_study *a,
                               const struct ow_study *b, int refine)
 {
@@ -133,7 +107,7 @@ static void expect_refused(const struct ow_study *a, const struct ow_study *b,
 
 static void axes_that_differ_are_refused_naming_the_field(void **state)
 {
-	struct ow_study *a = load(FAST), *b = load(WORN);
+	struct ow_study *a = ow_test_study(FAST), *b = ow_test_study(WORN);
 	struct ow_study *c = malloc(sizeof *c);
 	struct ow_sweep_config grid;
 	(void)state;
@@ -197,7 +171,7 @@ static void check_common_inside_both(const struct ow_compare *cmp)
 
 static void common_window_lies_inside_both_safe_sets(void **state)
 {
-	struct ow_study *a = load(FAST), *b = load(WORN);
+	struct ow_study *a = ow_test_study(FAST), *b = ow_test_study(WORN);
 	struct ow_compare *cmp = run(a, b, 0);
 	struct ow_compare *ref = run(a, b, 1);
 	(void)state;
@@ -216,7 +190,7 @@ static void common_window_lies_inside_both_safe_sets(void **state)
  * figures the combined lattice carries; the ranges are each case's. */
 static void common_window_is_the_same_for_either_case_figures(void **state)
 {
-	struct ow_study *a = load(FAST), *b = load(WORN);
+	struct ow_study *a = ow_test_study(FAST), *b = ow_test_study(WORN);
 	struct ow_compare *cmp = run(a, b, 0);
 	const struct ow_window *x = cmp->common[0], *y = cmp->common[1];
 	(void)state;
@@ -239,7 +213,7 @@ static void common_window_is_the_same_for_either_case_figures(void **state)
  * 1998, sec. 4.2, eq. 4.8). */
 static void worn_screw_gives_less_output_and_another_window(void **state)
 {
-	struct ow_study *a = load(FAST), *b = load(WORN);
+	struct ow_study *a = ow_test_study(FAST), *b = ow_test_study(WORN);
 	struct ow_compare *cmp = run(a, b, 0);
 	const struct ow_window *wa = cmp->win[0], *wb = cmp->win[1];
 	int i, n = cmp->n_rpm * cmp->n_axis, moved;
@@ -267,7 +241,7 @@ static void worn_screw_gives_less_output_and_another_window(void **state)
  * point` would give (same solver, same start). */
 static void centre_figures_are_those_of_a_single_solve(void **state)
 {
-	struct ow_study *a = load(FAST), *b = load(WORN);
+	struct ow_study *a = ow_test_study(FAST), *b = ow_test_study(WORN);
 	struct ow_compare *cmp = run(a, b, 0);
 	int at, k;
 	(void)state;
@@ -304,7 +278,7 @@ static void centre_figures_are_those_of_a_single_solve(void **state)
 /* An empty window has no centre: nothing to solve there. */
 static void empty_windows_have_no_centre_points(void **state)
 {
-	struct ow_study *a = load(FAST), *b = load(WORN);
+	struct ow_study *a = ow_test_study(FAST), *b = ow_test_study(WORN);
 	struct ow_compare *cmp;
 	(void)state;
 	b->line.limits.pressure_Pa = 1e3; /* no point builds under 1 kPa */
@@ -333,7 +307,7 @@ static const struct ow_input_diff *find(const struct ow_input_diff *e, int n,
 
 static void input_differences_name_the_fields_with_units(void **state)
 {
-	struct ow_study *a = load(FAST), *b = load(WORN);
+	struct ow_study *a = ow_test_study(FAST), *b = ow_test_study(WORN);
 	struct ow_input_diff e[64];
 	const struct ow_input_diff *w;
 	int n;
@@ -374,5 +348,6 @@ int main(void)
 	    cmocka_unit_test(input_differences_name_the_fields_with_units),
 	};
 
-	return cmocka_run_group_tests(tests, setup, teardown);
+	return cmocka_run_group_tests(tests, ow_test_units_setup,
+	                              ow_test_units_teardown);
 }

@@ -5,6 +5,7 @@
  * holds points the sweep never solved. */
 #include "testutil.h"
 #include "clirun.h"
+#include "testmap.h"
 
 #include <cjson/cJSON.h>
 #include <stdio.h>
@@ -18,13 +19,7 @@
 #include "ow_window.h"
 
 struct fx {
-	struct ow_units *u;
-	struct ow_study *s;
-	struct ow_grid *g;
-	struct ow_window *w;
-	struct ow_profile_row *rows;
-	int n_rows;
-	struct ow_point centre;
+	struct ow_test_map m;
 	char dir[64];
 };
 
@@ -36,49 +31,17 @@ static void rm_dir(const char *dir)
 	assert_int_equal(system(cmd), 0);
 }
 
-/* Profile of the window's centre, copied out of a solver. */
-static void centre_profile(struct fx *f)
-{
-	double set_K[OW_MAX_ZONES];
-	struct ow_solver *sv = NULL;
-	const struct ow_profile_row *r;
-
-	assert_int_equal(ow_solver_create(f->s, &sv, NULL), OW_OK);
-	ow_line_apply_axis(&f->s->line, f->w->centre.axis, set_K);
-	assert_int_equal(
-	    ow_solver_run(sv, f->w->centre.rpm, set_K, 0.0, &f->centre, NULL),
-	    OW_OK);
-	r = ow_solver_profile(sv, &f->n_rows);
-	assert_true(f->n_rows > 10);
-	f->rows = malloc(sizeof *r * (size_t)f->n_rows);
-	assert_non_null(f->rows);
-	memcpy(f->rows, r, sizeof *r * (size_t)f->n_rows);
-	ow_solver_destroy(sv);
-}
-
 static int setup(void **state)
 {
 	struct fx *f = calloc(1, sizeof *f);
-	struct ow_sweep_config c;
 	struct ow_diag d = {{0}};
 
 	assert_non_null(f);
-	f->s = calloc(1, sizeof *f->s);
-	assert_int_equal(ow_units_create(&f->u, &d), OW_OK);
-	assert_int_equal(
-	    ow_config_load_study(f->u, "demo/study-si.json", f->s, &d), OW_OK);
-	ow_sweep_default(&c);
-	c.rpm_steps = 7;
-	c.axis_steps = 6;
-	c.refine = 1;
-	assert_int_equal(ow_sweep_run(f->s, &c, &f->g, &d), OW_OK);
-	assert_int_equal(ow_window_extract(f->s, f->g, &f->w, &d), OW_OK);
-	assert_false(f->w->empty); /* the demo line has a window */
-	centre_profile(f);
+	ow_test_map_make(&f->m, 7, 6, 1);
 	strcpy(f->dir, "/tmp/test_mapdir.XXXXXX");
 	assert_non_null(mkdtemp(f->dir));
-	assert_int_equal(ow_mapdir_save(f->s, f->g, &f->centre, f->rows,
-	                                f->n_rows, f->dir, &d),
+	assert_int_equal(ow_mapdir_save(f->m.s, f->m.g, &f->m.centre, f->m.rows,
+	                                f->m.n_rows, f->dir, &d),
 	                 OW_OK);
 	*state = f;
 	return 0;
@@ -89,11 +52,7 @@ static int teardown(void **state)
 	struct fx *f = *state;
 
 	rm_dir(f->dir);
-	ow_window_destroy(f->w);
-	ow_grid_destroy(f->g);
-	free(f->rows);
-	free(f->s);
-	ow_units_destroy(f->u);
+	ow_test_map_free(&f->m);
 	free(f);
 	return 0;
 }
@@ -108,7 +67,7 @@ static void load(const struct fx *f, struct loaded *L)
 {
 	struct ow_diag d = {{0}};
 	enum ow_status st =
-	    ow_mapdir_load(f->u, f->dir, &L->s, &L->g, &L->c, &d);
+	    ow_mapdir_load(f->m.u, f->dir, &L->s, &L->g, &L->c, &d);
 
 	if (st != OW_OK)
 		fprintf(stderr, "%s\n", d.msg);
@@ -162,13 +121,13 @@ static void mapdir_reload_gives_every_lattice_point_back(void **state)
 	int i, unsolved = 0;
 
 	load(f, &L);
-	assert_int_equal(L.g->n_rpm, f->g->n_rpm);
-	assert_int_equal(L.g->n_axis, f->g->n_axis);
+	assert_int_equal(L.g->n_rpm, f->m.g->n_rpm);
+	assert_int_equal(L.g->n_axis, f->m.g->n_axis);
 	assert_int_equal(L.g->stride, 2);
-	assert_int_equal(L.g->solves, f->g->solves);
-	for (i = 0; i < f->g->n_rpm * f->g->n_axis; i++) {
-		same_point(&L.g->pts[i], &f->g->pts[i], f->s->line.n_zones);
-		unsolved += f->g->pts[i].solved != 1;
+	assert_int_equal(L.g->solves, f->m.g->solves);
+	for (i = 0; i < f->m.g->n_rpm * f->m.g->n_axis; i++) {
+		same_point(&L.g->pts[i], &f->m.g->pts[i], f->m.s->line.n_zones);
+		unsolved += f->m.g->pts[i].solved != 1;
 	}
 	assert_true(unsolved > 0); /* refinement left points unsolved */
 	unload(&L);
@@ -206,27 +165,27 @@ static void mapdir_reload_then_extract_gives_the_same_window(void **state)
 	load(f, &L);
 	assert_int_equal(ow_window_extract(&L.s, L.g, &w, NULL), OW_OK);
 	assert_int_equal(w->empty, 0);
-	assert_int_equal(w->ir0, f->w->ir0);
-	assert_int_equal(w->ir1, f->w->ir1);
-	assert_int_equal(w->ia0, f->w->ia0);
-	assert_int_equal(w->ia1, f->w->ia1);
-	same(w->rpm_min, f->w->rpm_min);
-	same(w->rpm_max, f->w->rpm_max);
-	same(w->set_min_K, f->w->set_min_K);
-	same(w->set_max_K, f->w->set_max_K);
-	same(w->centre.rpm, f->w->centre.rpm);
-	same(w->centre.axis, f->w->centre.axis);
-	same(w->centre_set_K, f->w->centre_set_K);
-	same(w->output_min_kg_s, f->w->output_min_kg_s);
-	same(w->output_max_kg_s, f->w->output_max_kg_s);
-	same(w->melt_max_K, f->w->melt_max_K);
-	same(w->peak_max_K, f->w->peak_max_K);
-	same(w->safe_fraction, f->w->safe_fraction);
-	for (z = 0; z < f->s->line.n_zones; z++) {
-		same(w->zone_min_K[z], f->w->zone_min_K[z]);
-		same(w->zone_max_K[z], f->w->zone_max_K[z]);
+	assert_int_equal(w->ir0, f->m.w->ir0);
+	assert_int_equal(w->ir1, f->m.w->ir1);
+	assert_int_equal(w->ia0, f->m.w->ia0);
+	assert_int_equal(w->ia1, f->m.w->ia1);
+	same(w->rpm_min, f->m.w->rpm_min);
+	same(w->rpm_max, f->m.w->rpm_max);
+	same(w->set_min_K, f->m.w->set_min_K);
+	same(w->set_max_K, f->m.w->set_max_K);
+	same(w->centre.rpm, f->m.w->centre.rpm);
+	same(w->centre.axis, f->m.w->centre.axis);
+	same(w->centre_set_K, f->m.w->centre_set_K);
+	same(w->output_min_kg_s, f->m.w->output_min_kg_s);
+	same(w->output_max_kg_s, f->m.w->output_max_kg_s);
+	same(w->melt_max_K, f->m.w->melt_max_K);
+	same(w->peak_max_K, f->m.w->peak_max_K);
+	same(w->safe_fraction, f->m.w->safe_fraction);
+	for (z = 0; z < f->m.s->line.n_zones; z++) {
+		same(w->zone_min_K[z], f->m.w->zone_min_K[z]);
+		same(w->zone_max_K[z], f->m.w->zone_max_K[z]);
 	}
-	same_boundaries(w, f->w);
+	same_boundaries(w, f->m.w);
 	ow_window_destroy(w);
 	unload(&L);
 }
@@ -238,22 +197,24 @@ static void mapdir_reload_keeps_sources_crc_and_file_names(void **state)
 	int k;
 
 	load(f, &L);
-	assert_int_equal(L.s.input_crc, f->s->input_crc);
+	assert_int_equal(L.s.input_crc, f->m.s->input_crc);
 	assert_string_equal(L.s.path, "demo/study-si.json");
-	assert_string_equal(L.s.screw_path, f->s->screw_path);
-	assert_string_equal(L.s.resin_path, f->s->resin_path);
-	assert_string_equal(L.s.title, f->s->title);
-	assert_string_equal(L.s.screw.name, f->s->screw.name);
-	assert_int_equal(L.s.n_sources, f->s->n_sources);
-	assert_true(f->s->n_sources > 10);
-	for (k = 0; k < f->s->n_sources; k++) {
-		assert_string_equal(L.s.sources[k].key, f->s->sources[k].key);
+	assert_string_equal(L.s.screw_path, f->m.s->screw_path);
+	assert_string_equal(L.s.resin_path, f->m.s->resin_path);
+	assert_string_equal(L.s.title, f->m.s->title);
+	assert_string_equal(L.s.screw.name, f->m.s->screw.name);
+	assert_int_equal(L.s.n_sources, f->m.s->n_sources);
+	assert_true(f->m.s->n_sources > 10);
+	for (k = 0; k < f->m.s->n_sources; k++) {
+		assert_string_equal(L.s.sources[k].key, f->m.s->sources[k].key);
 		assert_string_equal(L.s.sources[k].value,
-		                    f->s->sources[k].value);
-		assert_string_equal(L.s.sources[k].text, f->s->sources[k].text);
+		                    f->m.s->sources[k].value);
+		assert_string_equal(L.s.sources[k].text,
+		                    f->m.s->sources[k].text);
 	}
-	same(L.s.resin.visc.zero_shear_Pa_s, f->s->resin.visc.zero_shear_Pa_s);
-	same(L.s.line.zones[2].set_K, f->s->line.zones[2].set_K);
+	same(L.s.resin.visc.zero_shear_Pa_s,
+	     f->m.s->resin.visc.zero_shear_Pa_s);
+	same(L.s.line.zones[2].set_K, f->m.s->line.zones[2].set_K);
 	unload(&L);
 }
 
@@ -291,27 +252,28 @@ static void mapdir_reload_gives_the_centre_point_and_profile(void **state)
 
 	load(f, &L);
 	assert_true(L.c.valid);
-	same(L.c.pt.rpm, f->centre.rpm);
-	same(L.c.pt.output_kg_s, f->centre.output_kg_s);
-	same(L.c.pt.discharge_bulk_K, f->centre.discharge_bulk_K);
-	same(L.c.pt.peak_K, f->centre.peak_K);
-	same(L.c.pt.plugging_at_m, f->centre.plugging_at_m); /* NAN */
-	assert_int_equal(L.c.pt.flags, f->centre.flags);
-	for (z = 0; z < f->s->line.n_zones; z++)
-		same(L.c.pt.set_K[z], f->centre.set_K[z]);
+	same(L.c.pt.rpm, f->m.centre.rpm);
+	same(L.c.pt.output_kg_s, f->m.centre.output_kg_s);
+	same(L.c.pt.discharge_bulk_K, f->m.centre.discharge_bulk_K);
+	same(L.c.pt.peak_K, f->m.centre.peak_K);
+	same(L.c.pt.plugging_at_m, f->m.centre.plugging_at_m); /* NAN */
+	assert_int_equal(L.c.pt.flags, f->m.centre.flags);
+	for (z = 0; z < f->m.s->line.n_zones; z++)
+		same(L.c.pt.set_K[z], f->m.centre.set_K[z]);
 	rows = L.c.rows;
-	assert_int_equal(L.c.n_rows, f->n_rows);
-	for (i = 0; i < f->n_rows; i++) {
+	assert_int_equal(L.c.n_rows, f->m.n_rows);
+	for (i = 0; i < f->m.n_rows; i++) {
 		/* through mm, MPa and degC with 17 digits: a few ulps */
-		assert_rel(rows[i].axial_m + 1e-9, f->rows[i].axial_m + 1e-9,
+		assert_rel(rows[i].axial_m + 1e-9, f->m.rows[i].axial_m + 1e-9,
 		           1e-12);
-		assert_rel(rows[i].pressure_Pa, f->rows[i].pressure_Pa, 1e-12);
-		assert_rel(rows[i].depth_m, f->rows[i].depth_m, 1e-12);
-		assert_rel(rows[i].sbr + 1.0, f->rows[i].sbr + 1.0, 1e-12);
-		if (isnan(f->rows[i].bulk_K))
+		assert_rel(rows[i].pressure_Pa, f->m.rows[i].pressure_Pa,
+		           1e-12);
+		assert_rel(rows[i].depth_m, f->m.rows[i].depth_m, 1e-12);
+		assert_rel(rows[i].sbr + 1.0, f->m.rows[i].sbr + 1.0, 1e-12);
+		if (isnan(f->m.rows[i].bulk_K))
 			assert_true(isnan(rows[i].bulk_K));
 		else
-			assert_rel(rows[i].bulk_K, f->rows[i].bulk_K, 1e-12);
+			assert_rel(rows[i].bulk_K, f->m.rows[i].bulk_K, 1e-12);
 	}
 	unload(&L);
 }
@@ -323,7 +285,8 @@ static void expect_refusal(const struct fx *f, const char *dir,
 	struct ow_grid *g = (struct ow_grid *)1;
 	struct ow_study *s = calloc(1, sizeof *s);
 
-	assert_int_equal(ow_mapdir_load(f->u, dir, s, &g, NULL, &d), OW_EINPUT);
+	assert_int_equal(ow_mapdir_load(f->m.u, dir, s, &g, NULL, &d),
+	                 OW_EINPUT);
 	assert_null(g);
 	if (!strstr(d.msg, words))
 		fprintf(stderr, "message: %s\n", d.msg);
@@ -390,11 +353,11 @@ static void mapdir_save_refuses_inputs_changed_since_loading(void **state)
 	         dir);
 	assert_int_equal(system(cmd), 0);
 	snprintf(path, sizeof path, "%s/study-si.json", dir);
-	assert_int_equal(ow_config_load_study(f->u, path, s, &d), OW_OK);
+	assert_int_equal(ow_config_load_study(f->m.u, path, s, &d), OW_OK);
 	snprintf(cmd, sizeof cmd,
 	         "sed -i 's/950 kg/951 kg/' '%s/resin-si.json'", dir);
 	assert_int_equal(system(cmd), 0);
-	assert_int_equal(ow_mapdir_save(s, f->g, NULL, NULL, 0, dir, &d),
+	assert_int_equal(ow_mapdir_save(s, f->m.g, NULL, NULL, 0, dir, &d),
 	                 OW_EINPUT);
 	assert_non_null(strstr(d.msg, "changed since they were loaded"));
 	snprintf(path, sizeof path, "%s/lattice.json", dir);

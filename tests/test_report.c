@@ -5,6 +5,8 @@
  * folder. The data are real: the demo line swept on a small grid. */
 #include "testutil.h"
 #include "clirun.h"
+#include "pdfutil.h"
+#include "testmap.h"
 
 #include <cjson/cJSON.h>
 #include <stdio.h>
@@ -20,108 +22,11 @@
 #include "ow_window.h"
 
 struct fx {
-	struct ow_units *u;
-	struct ow_study *s;
-	struct ow_grid *g;
-	struct ow_window *w;
-	struct ow_point centre;
-	struct ow_profile_row *rows;
-	int n_rows;
+	struct ow_test_map m;
 	char dir[64];
 	char pdf[96]; /* the A4 SI report with a current point */
 	char *text;   /* its pdftotext, whitespace runs made one space */
 };
-
-/* Output of a shell command (malloc'd); its exit status in *rc. */
-static char *run(const char *cmd, int *rc)
-{
-	FILE *p = popen(cmd, "r");
-	size_t n = 0, cap = 1 << 16;
-	char *buf = malloc(cap);
-	size_t got;
-
-	assert_non_null(p);
-	assert_non_null(buf);
-	while ((got = fread(buf + n, 1, cap - 1 - n, p)) > 0) {
-		n += got;
-		if (n + 1 == cap) {
-			cap *= 2;
-			buf = realloc(buf, cap);
-			assert_non_null(buf);
-		}
-	}
-	buf[n] = '\0';
-	*rc = pclose(p);
-	return buf;
-}
-
-/* Whitespace runs (newlines from table cells) -> one space. */
-static void squeeze(char *s)
-{
-	char *o = s;
-	int space = 0;
-
-	for (; *s; s++) {
-		if (*s == ' ' || *s == '\n' || *s == '\t' || *s == '\f') {
-			space = 1;
-			continue;
-		}
-		if (space && o != s)
-			*o++ = ' ';
-		space = 0;
-		*o++ = *s;
-	}
-	*o = '\0';
-}
-
-static char *pdf_text(const char *pdf)
-{
-	char cmd[256], *t;
-	int rc;
-
-	snprintf(cmd, sizeof cmd, "pdftotext -q '%s' - 2>/dev/null", pdf);
-	t = run(cmd, &rc);
-	assert_int_equal(rc, 0);
-	squeeze(t);
-	return t;
-}
-
-static int pdf_pages(const char *pdf, char *size, size_t n)
-{
-	char cmd[256], *out, *p;
-	int rc, pages = -1;
-
-	snprintf(cmd, sizeof cmd, "pdfinfo '%s' 2>/dev/null", pdf);
-	out = run(cmd, &rc);
-	assert_int_equal(rc, 0);
-	p = strstr(out, "Pages:");
-	assert_non_null(p);
-	pages = atoi(p + 6);
-	p = strstr(out, "Page size:");
-	assert_non_null(p);
-	snprintf(size, n, "%.*s", (int)strcspn(p + 10, "\n"), p + 10);
-	squeeze(size);
-	free(out);
-	return pages;
-}
-
-static void centre_profile(struct fx *f)
-{
-	double set_K[OW_MAX_ZONES];
-	struct ow_solver *sv = NULL;
-	const struct ow_profile_row *r;
-
-	assert_int_equal(ow_solver_create(f->s, &sv, NULL), OW_OK);
-	ow_line_apply_axis(&f->s->line, f->w->centre.axis, set_K);
-	assert_int_equal(
-	    ow_solver_run(sv, f->w->centre.rpm, set_K, 0.0, &f->centre, NULL),
-	    OW_OK);
-	r = ow_solver_profile(sv, &f->n_rows);
-	f->rows = malloc(sizeof *r * (size_t)f->n_rows);
-	assert_non_null(f->rows);
-	memcpy(f->rows, r, sizeof *r * (size_t)f->n_rows);
-	ow_solver_destroy(sv);
-}
 
 static void options(const struct fx *f, struct ow_report_options *o)
 {
@@ -129,16 +34,17 @@ static void options(const struct fx *f, struct ow_report_options *o)
 	o->date = "2026-03-14";
 	o->revision = "C-7";
 	o->prepared_by = "A. Engineer";
-	o->centre_point = &f->centre;
-	o->profile = f->rows;
-	o->n_profile = f->n_rows;
+	o->centre_point = &f->m.centre;
+	o->profile = f->m.rows;
+	o->n_profile = f->m.n_rows;
 }
 
 static void write_report(const struct fx *f, const struct ow_report_options *o,
                          const char *path)
 {
 	struct ow_diag d = {{0}};
-	enum ow_status st = ow_report_write(f->s, f->g, f->w, o, path, &d);
+	enum ow_status st =
+	    ow_report_write(f->m.s, f->m.g, f->m.w, o, path, &d);
 
 	if (st != OW_OK)
 		fprintf(stderr, "%s\n", d.msg);
@@ -149,30 +55,18 @@ static int setup(void **state)
 {
 	struct fx *f = calloc(1, sizeof *f);
 	struct ow_report_options o;
-	struct ow_sweep_config c;
-	struct ow_diag d = {{0}};
 
 	assert_non_null(f);
-	f->s = calloc(1, sizeof *f->s);
-	assert_int_equal(ow_units_create(&f->u, &d), OW_OK);
-	assert_int_equal(
-	    ow_config_load_study(f->u, "demo/study-si.json", f->s, &d), OW_OK);
-	ow_sweep_default(&c);
-	c.rpm_steps = 9;
-	c.axis_steps = 7;
-	assert_int_equal(ow_sweep_run(f->s, &c, &f->g, &d), OW_OK);
-	assert_int_equal(ow_window_extract(f->s, f->g, &f->w, &d), OW_OK);
-	assert_false(f->w->empty); /* the demo line has a window */
-	centre_profile(f);
+	ow_test_map_make(&f->m, 9, 7, 0);
 	strcpy(f->dir, "/tmp/test_report.XXXXXX");
 	assert_non_null(mkdtemp(f->dir));
 	snprintf(f->pdf, sizeof f->pdf, "%s/report.pdf", f->dir);
 	options(f, &o);
 	o.has_current = 1;
-	o.current_rpm = f->w->centre.rpm;
-	o.current_set_K = f->w->centre_set_K;
+	o.current_rpm = f->m.w->centre.rpm;
+	o.current_set_K = f->m.w->centre_set_K;
 	write_report(f, &o, f->pdf);
-	f->text = pdf_text(f->pdf);
+	f->text = ow_test_pdf_text(f->pdf);
 	*state = f;
 	return 0;
 }
@@ -185,11 +79,7 @@ static int teardown(void **state)
 	snprintf(cmd, sizeof cmd, "rm -rf '%s'", f->dir);
 	assert_int_equal(system(cmd), 0);
 	free(f->text);
-	free(f->rows);
-	ow_window_destroy(f->w);
-	ow_grid_destroy(f->g);
-	free(f->s);
-	ow_units_destroy(f->u);
+	ow_test_map_free(&f->m);
 	free(f);
 	return 0;
 }
@@ -205,7 +95,7 @@ static void report_numbers_every_page_of_the_whole(void **state)
 {
 	const struct fx *f = *state;
 	char size[64], want[64];
-	int pages = pdf_pages(f->pdf, size, sizeof size), k;
+	int pages = ow_test_pdf_pages(f->pdf, size, sizeof size), k;
 
 	/* page 1, three pages of maps, profiles, inputs, model basis */
 	assert_true(pages >= 7);
@@ -224,7 +114,7 @@ static void report_footer_traces_to_the_input_files(void **state)
 	int n = 0;
 
 	snprintf(want, sizeof want, "2026-03-14 · inputs CRC-32 %08lX",
-	         f->s->input_crc);
+	         f->m.s->input_crc);
 	while ((p = strstr(p, want)) != NULL) {
 		n++;
 		p++;
@@ -239,7 +129,7 @@ static void report_embeds_every_font(void **state)
 	int rc, fonts = 0;
 
 	snprintf(cmd, sizeof cmd, "pdffonts '%s' 2>/dev/null", f->pdf);
-	out = run(cmd, &rc);
+	out = ow_test_run(cmd, &rc);
 	assert_int_equal(rc, 0);
 	/* pdffonts: name, type, encoding, then the "emb" column yes/no */
 	for (line = strtok(out, "\n"); line; line = strtok(NULL, "\n")) {
@@ -247,7 +137,7 @@ static void report_embeds_every_font(void **state)
 		    !strstr(line, "Type 3"))
 			continue;
 		fonts++;
-		squeeze(line);
+		ow_test_squeeze(line);
 		assert_non_null(strstr(line, "DejaVuSans"));
 		assert_non_null(strstr(line, "Identity-H yes"));
 	}
@@ -269,11 +159,11 @@ static void report_prints_the_window_bounds_of_window_json(void **state)
 {
 	const struct fx *f = *state;
 	char *json = NULL, lo[32], hi[32], row[200], zn[24];
-	int ref = ow_line_reference_zone(&f->s->line);
+	int ref = ow_line_reference_zone(&f->m.s->line);
 	cJSON *w;
 
-	assert_int_equal(ow_results_window_json(f->s, f->g, f->w, &json, NULL),
-	                 OW_OK);
+	assert_int_equal(
+	    ow_results_window_json(f->m.s, f->m.g, f->m.w, &json, NULL), OW_OK);
 	w = cJSON_Parse(json);
 	assert_non_null(w);
 	/* printed inwards: screw speed to 0.1 rpm, set-points to 1 degC */
@@ -322,7 +212,7 @@ static void report_carries_title_block_cautions_and_basis(void **state)
 {
 	const struct fx *f = *state;
 
-	contains(f->text, f->s->screw.name);
+	contains(f->text, f->m.s->screw.name);
 	contains(f->text, "C-7");
 	contains(f->text, "A. Engineer");
 	contains(f->text, "Current operating point");
@@ -353,7 +243,7 @@ static void report_comes_in_a4_and_letter(void **state)
 	struct ow_report_options o;
 	char path[128], size[64];
 
-	pdf_pages(f->pdf, size, sizeof size);
+	ow_test_pdf_pages(f->pdf, size, sizeof size);
 	/* ISO 216: 210 x 297 mm = 595.276 x 841.89 pt */
 	assert_non_null(strstr(size, "595.276 x 841.89 pts (A4)"));
 	options(f, &o);
@@ -361,7 +251,7 @@ static void report_comes_in_a4_and_letter(void **state)
 	o.units = OW_SYS_US;
 	snprintf(path, sizeof path, "%s/letter.pdf", f->dir);
 	write_report(f, &o, path);
-	pdf_pages(path, size, sizeof size);
+	ow_test_pdf_pages(path, size, sizeof size);
 	/* ANSI letter: 8.5 x 11 in = 612 x 792 pt */
 	assert_non_null(strstr(size, "612 x 792 pts (letter)"));
 }
@@ -390,7 +280,7 @@ static void report_leaves_nothing_when_the_folder_is_missing(void **state)
 
 	options(f, &o);
 	snprintf(path, sizeof path, "%s/missing/report.pdf", f->dir);
-	assert_int_equal(ow_report_write(f->s, f->g, f->w, &o, path, &d),
+	assert_int_equal(ow_report_write(f->m.s, f->m.g, f->m.w, &o, path, &d),
 	                 OW_EIO);
 	assert_non_null(strstr(d.msg, path));
 	snprintf(path, sizeof path, "%s/missing", f->dir);
@@ -406,8 +296,8 @@ static void report_refuses_a_malformed_date(void **state)
 	options(f, &o);
 	o.date = "14/03/2026";
 	snprintf(path, sizeof path, "%s/dated.pdf", f->dir);
-	assert_int_equal(ow_report_write(f->s, f->g, f->w, &o, path, NULL),
-	                 OW_EARG);
+	assert_int_equal(
+	    ow_report_write(f->m.s, f->m.g, f->m.w, &o, path, NULL), OW_EARG);
 	assert_int_equal(access(path, F_OK), -1);
 }
 
@@ -417,17 +307,17 @@ static void report_says_plainly_when_no_point_is_safe(void **state)
 {
 	const struct fx *f = *state;
 	struct ow_study *s = malloc(sizeof *s);
-	struct ow_grid g = *f->g;
+	struct ow_grid g = *f->m.g;
 	struct ow_window *w = NULL;
 	struct ow_report_options o;
 	char path[128], *text;
 	int i;
 
-	*s = *f->s;
+	*s = *f->m.s;
 	s->line.limits.peak_temp_K = 300.15; /* 27 degC: nothing passes */
 	g.pts = malloc(sizeof *g.pts * (size_t)(g.n_rpm * g.n_axis));
 	for (i = 0; i < g.n_rpm * g.n_axis; i++) {
-		g.pts[i] = f->g->pts[i];
+		g.pts[i] = f->m.g->pts[i];
 		ow_classify(&g.pts[i].pt, &s->line.limits,
 		            ow_screw_length(&s->screw), &g.pts[i].v);
 	}
@@ -437,7 +327,7 @@ static void report_says_plainly_when_no_point_is_safe(void **state)
 	o.date = "2026-03-14";
 	snprintf(path, sizeof path, "%s/empty.pdf", f->dir);
 	assert_int_equal(ow_report_write(s, &g, w, &o, path, NULL), OW_OK);
-	text = pdf_text(path);
+	text = ow_test_pdf_text(path);
 	contains(text, "No safe operating point exists in the swept range.");
 	/* the binding limit first, with every point failing it */
 	snprintf(path, sizeof path, "peak melt temperature ≤ 27 °C %d 100 %%",
@@ -458,9 +348,9 @@ static void make_map_folder(const struct fx *f, char *dir, size_t n)
 
 	snprintf(dir, n, "%s/map", f->dir);
 	assert_int_equal(mkdir(dir, 0777), 0);
-	assert_int_equal(
-	    ow_mapdir_save(f->s, f->g, &f->centre, f->rows, f->n_rows, dir, &d),
-	    OW_OK);
+	assert_int_equal(ow_mapdir_save(f->m.s, f->m.g, &f->m.centre, f->m.rows,
+	                                f->m.n_rows, dir, &d),
+	                 OW_OK);
 }
 
 static void cli_report_redraws_a_saved_map_folder(void **state)
@@ -481,9 +371,9 @@ static void cli_report_redraws_a_saved_map_folder(void **state)
 	assert_int_equal(r.code, 0);
 	cli_result_free(&r);
 	snprintf(path, sizeof path, "%s/report.pdf", dir);
-	assert_true(pdf_pages(path, size, sizeof size) >= 7);
+	assert_true(ow_test_pdf_pages(path, size, sizeof size) >= 7);
 	assert_non_null(strstr(size, "(letter)"));
-	text = pdf_text(path);
+	text = ow_test_pdf_text(path);
 	contains(text, "Q. Lead");
 	contains(text, "°F"); /* --units us */
 	contains(text, "Current operating point: 60 rpm with the map-axis "

@@ -10,32 +10,6 @@
 #include "ow_solver.h"
 #include "ow_units.h"
 
-static struct ow_units *units;
-
-static int setup(void **state)
-{
-	(void)state;
-	return ow_units_create(&units, NULL) == OW_OK ? 0 : -1;
-}
-
-static int teardown(void **state)
-{
-	(void)state;
-	ow_units_destroy(units);
-	return 0;
-}
-
-static struct ow_study *load(const char *path)
-{
-	struct ow_study *s = calloc(1, sizeof *s);
-	struct ow_diag d = {{0}};
-
-	assert_non_null(s);
-	if (ow_config_load_study(units, path, s, &d) != OW_OK)
-		fail_msg("%s", d.msg);
-	return s;
-}
-
 static struct ow_point solve(const struct ow_study *s, double rpm,
 			     const double *set_K)
 {
@@ -59,7 +33,7 @@ static struct ow_point solve(const struct ow_study *s, double rpm,
  * because the melt is Newtonian and its viscosity temperature-free. */
 static void match_reproduces_newtonian_rod_die_operating_point(void **st)
 {
-	struct ow_study *s = load("tests/data/newtonian-rod.json");
+	struct ow_study *s = ow_test_study("tests/data/newtonian-rod.json");
 	struct ow_point pt = solve(s, 60.0, NULL);
 	(void)st;
 	assert_rel(pt.discharge_pressure_Pa, 1.8615e7, 2e-4);
@@ -79,7 +53,7 @@ static void energy_closes_on_demo_and_melt_fed_line(void **st)
 	size_t i, k;
 	(void)st;
 	for (i = 0; i < 3; i++) {
-		struct ow_study *s = load(studies[i]);
+		struct ow_study *s = ow_test_study(studies[i]);
 
 		for (k = 0; k < 2; k++) {
 			struct ow_point pt = solve(s, rpm[k], NULL);
@@ -96,7 +70,7 @@ static void energy_closes_on_demo_and_melt_fed_line(void **st)
  * resolution is converged). */
 static void default_resolution_is_converged_on_demo(void **st)
 {
-	struct ow_study *s = load("demo/study-si.json");
+	struct ow_study *s = ow_test_study("demo/study-si.json");
 	double rpm[] = {30.0, 70.0, 120.0};
 	size_t k;
 	(void)st;
@@ -120,7 +94,7 @@ static void default_resolution_is_converged_on_demo(void **st)
  * rise with screw speed. */
 static void output_and_peak_rise_with_speed(void **st)
 {
-	struct ow_study *s = load("fixtures/studies/hdpe-sf.json");
+	struct ow_study *s = ow_test_study("fixtures/studies/hdpe-sf.json");
 	struct ow_point prev = solve(s, 30.0, NULL), pt;
 	double rpm;
 	(void)st;
@@ -139,8 +113,8 @@ static void output_and_peak_rise_with_speed(void **st)
  * falls). */
 static void deeper_metering_gives_more_output_and_cooler_melt(void **st)
 {
-	struct ow_study *a = load("fixtures/studies/hdpe-sf.json");
-	struct ow_study *b = load("fixtures/studies/hdpe-deep.json");
+	struct ow_study *a = ow_test_study("fixtures/studies/hdpe-sf.json");
+	struct ow_study *b = ow_test_study("fixtures/studies/hdpe-deep.json");
 	struct ow_point pa = solve(a, 80.0, NULL), pb = solve(b, 80.0, NULL);
 	(void)st;
 	assert_true(pb.output_kg_s > pa.output_kg_s);
@@ -154,8 +128,8 @@ static void deeper_metering_gives_more_output_and_cooler_melt(void **st)
  * flights, sheared hard in the clearance). */
 static void worn_screw_gives_less_output_and_hotter_melt(void **st)
 {
-	struct ow_study *a = load("fixtures/studies/hdpe-sf.json");
-	struct ow_study *b = load("fixtures/studies/hdpe-worn.json");
+	struct ow_study *a = ow_test_study("fixtures/studies/hdpe-sf.json");
+	struct ow_study *b = ow_test_study("fixtures/studies/hdpe-worn.json");
 	struct ow_point pa = solve(a, 80.0, NULL), pb = solve(b, 80.0, NULL);
 	(void)st;
 	assert_true(pb.output_kg_s < pa.output_kg_s);
@@ -173,8 +147,8 @@ static void worn_screw_gives_less_output_and_hotter_melt(void **st)
  * same rate is not. */
 static void abrupt_compression_plugs_and_gradual_does_not(void **st)
 {
-	struct ow_study *a = load("fixtures/studies/hdpe-abrupt.json");
-	struct ow_study *b = load("fixtures/studies/hdpe-sf.json");
+	struct ow_study *a = ow_test_study("fixtures/studies/hdpe-abrupt.json");
+	struct ow_study *b = ow_test_study("fixtures/studies/hdpe-sf.json");
 	double set[OW_MAX_ZONES];
 	struct ow_point pa, pb;
 	int i;
@@ -196,7 +170,7 @@ static void abrupt_compression_plugs_and_gradual_does_not(void **st)
  * figures (no hidden state in the workspace). */
 static void solver_is_repeatable_and_warm_start_agrees(void **st)
 {
-	struct ow_study *s = load("demo/study-si.json");
+	struct ow_study *s = ow_test_study("demo/study-si.json");
 	struct ow_solver *sv = NULL;
 	struct ow_point a, b, c;
 	(void)st;
@@ -215,7 +189,7 @@ static void solver_is_repeatable_and_warm_start_agrees(void **st)
  * returned with its flags and figures, never a crash. */
 static void cold_barrel_returns_a_flagged_point(void **st)
 {
-	struct ow_study *s = load("demo/study-si.json");
+	struct ow_study *s = ow_test_study("demo/study-si.json");
 	struct ow_solver *sv = NULL;
 	struct ow_point pt;
 	double set[OW_MAX_ZONES];
@@ -243,5 +217,6 @@ int main(void)
 		cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
 		cmocka_unit_test(cold_barrel_returns_a_flagged_point),
 	};
-	return cmocka_run_group_tests(tests, setup, teardown);
+	return cmocka_run_group_tests(tests, ow_test_units_setup,
+	                              ow_test_units_teardown);
 }

@@ -2,9 +2,14 @@
 #include "testutil.h"
 
 #include <stdio.h>
+#include <stdlib.h>
 #include <string.h>
 
+#include "ow_config.h"
 #include "ow_screw.h"
+#include "ow_units.h"
+
+static struct ow_units *units;
 
 void ow_test_assert_rel(double a, double b, double tol, const char *expr,
 			const char *file, int line)
@@ -42,4 +47,29 @@ void ow_test_square_pitch_screw(struct ow_screw *s, double depth_m)
 	s->sections[0].length_m = 24 * 0.0635;
 	s->sections[0].depth_m = depth_m;
 	ow_screw_prepare(s, NULL);
+}
+
+int ow_test_units_setup(void **state)
+{
+	(void)state;
+	return ow_units_create(&units, NULL) == OW_OK ? 0 : -1;
+}
+
+int ow_test_units_teardown(void **state)
+{
+	(void)state;
+	ow_units_destroy(units);
+	units = NULL;
+	return 0;
+}
+
+struct ow_study *ow_test_study(const char *path)
+{
+	struct ow_study *s = calloc(1, sizeof *s);
+	struct ow_diag d = {{0}};
+
+	assert_non_null(s);
+	if (ow_config_load_study(units, path, s, &d) != OW_OK)
+		fail_msg("%s", d.msg);
+	return s;
 }

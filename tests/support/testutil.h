@@ -30,4 +30,14 @@ void ow_test_assert_abs(double a, double b, double tol, const char *expr,
 struct ow_screw;
 void ow_test_square_pitch_screw(struct ow_screw *s, double depth_m);
 
+/* A UDUNITS-2 system for the whole test program, as cmocka group
+ * setup and teardown; ow_test_study reads with it. */
+int ow_test_units_setup(void **state);
+int ow_test_units_teardown(void **state);
+
+/* The study file at path in a new calloc'd study (free() it); the test
+ * fails with the loader's message when it does not load. */
+struct ow_study;
+struct ow_study *ow_test_study(const char *path);
+
 #endif
