@@ -11,26 +11,10 @@
 
 static cJSON *check_json(const char *study)
 {
-	struct cli_result r;
 	char args[512];
-	cJSON *j;
 
 	snprintf(args, sizeof args, "check --json %s", study);
-	cli_run(args, &r);
-	if (r.code != 0)
-		fprintf(stderr, "%s\n", r.err);
-	assert_int_equal(r.code, 0);
-	j = cJSON_Parse(r.out);
-	assert_non_null(j);
-	cli_result_free(&r);
-	return j;
-}
-
-static double num(const cJSON *o, const char *key)
-{
-	const cJSON *v = cJSON_GetObjectItemCaseSensitive(o, key);
-	assert_true(cJSON_IsNumber(v));
-	return v->valuedouble;
+	return cli_run_json(args);
 }
 
 /* Same numbers in both trees, to rel 1e-9. */
@@ -69,17 +53,17 @@ static void check_json_has_contract_keys(void **state)
 	const cJSON *secs = cJSON_GetObjectItem(j, "sections");
 	const cJSON *s0;
 	(void)state;
-	assert_abs(num(j, "length_D"), 30.0, 1e-9);
-	assert_abs(num(j, "helix_angle_deg"), 17.6568, 1e-4);
-	assert_true(num(j, "compression_ratio") > 2.5);
+	assert_abs(cli_json_num(j, "length_D"), 30.0, 1e-9);
+	assert_abs(cli_json_num(j, "helix_angle_deg"), 17.6568, 1e-4);
+	assert_true(cli_json_num(j, "compression_ratio") > 2.5);
 	assert_true(cJSON_IsArray(secs));
 	s0 = cJSON_GetArrayItem(secs, 0);
 	assert_string_equal(cJSON_GetObjectItem(s0, "type")->valuestring,
 			    "feed");
-	assert_abs(num(s0, "start_D"), 0.0, 1e-12);
-	assert_true(num(s0, "depth_start_mm") > 0.0);
-	(void)num(s0, "end_D");
-	(void)num(s0, "depth_end_mm");
+	assert_abs(cli_json_num(s0, "start_D"), 0.0, 1e-12);
+	assert_true(cli_json_num(s0, "depth_start_mm") > 0.0);
+	(void)cli_json_num(s0, "end_D");
+	(void)cli_json_num(s0, "depth_end_mm");
 	assert_true(cJSON_IsArray(cJSON_GetObjectItem(j, "warnings")));
 	cJSON_Delete(j);
 }

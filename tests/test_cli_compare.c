@@ -17,27 +17,6 @@
 
 static int ran;
 
-static cJSON *read_json(const char *path)
-{
-	char *text = cli_slurp(path);
-	cJSON *j;
-
-	assert_non_null(text);
-	j = cJSON_Parse(text);
-	free(text);
-	assert_non_null(j);
-	return j;
-}
-
-static double num(const cJSON *o, const char *key)
-{
-	const cJSON *v = cJSON_GetObjectItemCaseSensitive(o, key);
-
-	if (!cJSON_IsNumber(v))
-		fail_msg("key %s is not a number", key);
-	return v->valuedouble;
-}
-
 static const cJSON *obj(const cJSON *o, const char *key)
 {
 	const cJSON *v = cJSON_GetObjectItemCaseSensitive(o, key);
@@ -100,19 +79,20 @@ static void common_corners_and_centre_are_safe_for_both(void **state)
 	double r0, r1, a0, a1;
 	(void)state;
 	compare_fast();
-	j = read_json(OUT "/compare.json");
+	j = cli_read_json(OUT "/compare.json");
 	c = obj(j, "common");
-	r0 = num(c, "rpm_min");
-	r1 = num(c, "rpm_max");
-	a0 = num(c, "axis_min");
-	a1 = num(c, "axis_max");
+	r0 = cli_json_num(c, "rpm_min");
+	r1 = cli_json_num(c, "rpm_max");
+	a0 = cli_json_num(c, "axis_min");
+	a1 = cli_json_num(c, "axis_max");
 	assert_true(r1 > r0 && a1 > a0);
 	assert_true(safe_in_both(r0, a0));
 	assert_true(safe_in_both(r0, a1));
 	assert_true(safe_in_both(r1, a0));
 	assert_true(safe_in_both(r1, a1));
 	ctr = obj(c, "centre");
-	assert_true(safe_in_both(num(ctr, "rpm"), num(ctr, "axis_value")));
+	assert_true(safe_in_both(cli_json_num(ctr, "rpm"),
+	                         cli_json_num(ctr, "axis_value")));
 	cJSON_Delete(j);
 }
 
@@ -128,13 +108,13 @@ static void common_window_is_contained_in_each_case(void **state)
 	int rows = 0, both = 0, a_only = 0, b_only = 0;
 	(void)state;
 	compare_fast();
-	j = read_json(OUT "/compare.json");
+	j = cli_read_json(OUT "/compare.json");
 	c = obj(j, "common");
 	d = obj(j, "differences");
-	r0 = num(c, "rpm_min");
-	r1 = num(c, "rpm_max");
-	a0 = num(c, "axis_min");
-	a1 = num(c, "axis_max");
+	r0 = cli_json_num(c, "rpm_min");
+	r1 = cli_json_num(c, "rpm_max");
+	a0 = cli_json_num(c, "axis_min");
+	a1 = cli_json_num(c, "axis_max");
 	csv = cli_slurp(OUT "/compare.csv");
 	assert_non_null(csv);
 	assert_non_null(strstr(csv, "rpm,axis_value,set_C,output_kg_h_a,"
@@ -155,14 +135,15 @@ static void common_window_is_contained_in_each_case(void **state)
 		if (rpm >= r0 && rpm <= r1 && ax >= a0 && ax <= a1)
 			assert_true(safe_a && safe_b);
 	}
-	assert_int_equal(rows, (int)num(d, "lattice_points")); /* no refine */
-	assert_int_equal(both, (int)num(d, "safe_both"));
-	assert_int_equal(a_only, (int)num(d, "safe_a_only"));
-	assert_int_equal(b_only, (int)num(d, "safe_b_only"));
-	assert_true(num(c, "safe_fraction") <=
-	            num(obj(j, "a"), "safe_fraction"));
-	assert_true(num(c, "safe_fraction") <=
-	            num(obj(j, "b"), "safe_fraction"));
+	assert_int_equal(
+	    rows, (int)cli_json_num(d, "lattice_points")); /* no refine */
+	assert_int_equal(both, (int)cli_json_num(d, "safe_both"));
+	assert_int_equal(a_only, (int)cli_json_num(d, "safe_a_only"));
+	assert_int_equal(b_only, (int)cli_json_num(d, "safe_b_only"));
+	assert_true(cli_json_num(c, "safe_fraction") <=
+	            cli_json_num(obj(j, "a"), "safe_fraction"));
+	assert_true(cli_json_num(c, "safe_fraction") <=
+	            cli_json_num(obj(j, "b"), "safe_fraction"));
 	free(csv);
 	cJSON_Delete(j);
 }
@@ -182,20 +163,21 @@ static void worn_screw_shows_less_output_and_another_window(void **state)
 	int moved = 0;
 	(void)state;
 	compare_fast();
-	j = read_json(OUT "/compare.json");
+	j = cli_read_json(OUT "/compare.json");
 	a = obj(j, "a");
 	b = obj(j, "b");
 	for (k = 0; k < sizeof keys / sizeof keys[0]; k++)
-		moved |= num(a, keys[k]) != num(b, keys[k]);
-	assert_true(moved || num(b, "safe_fraction") < num(a, "safe_fraction"));
+		moved |= cli_json_num(a, keys[k]) != cli_json_num(b, keys[k]);
+	assert_true(moved || cli_json_num(b, "safe_fraction") <
+	                         cli_json_num(a, "safe_fraction"));
 	at = obj(obj(j, "differences"), "at");
 	for (p = at->child; p; p = p->next) {
-		double qa = num(obj(p, "a"), "output_kg_h");
-		double qb = num(obj(p, "b"), "output_kg_h");
+		double qa = cli_json_num(obj(p, "a"), "output_kg_h");
+		double qb = cli_json_num(obj(p, "b"), "output_kg_h");
 
 		assert_true(qb < qa);
-		assert_rel(num(obj(p, "b_minus_a"), "output_kg_h"), qb - qa,
-		           1e-12);
+		assert_rel(cli_json_num(obj(p, "b_minus_a"), "output_kg_h"),
+		           qb - qa, 1e-12);
 	}
 	for (p = obj(j, "inputs")->child; p; p = p->next)
 		if (!strcmp(obj(p, "field")->valuestring,

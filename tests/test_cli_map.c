@@ -11,42 +11,6 @@
 
 #define FAST "tests/data/map-fast.json"
 
-static cJSON *run_json(const char *args)
-{
-	struct cli_result r;
-	cJSON *j;
-
-	cli_run(args, &r);
-	if (r.code != 0)
-		fprintf(stderr, "opwin %s: %s\n", args, r.err);
-	assert_int_equal(r.code, 0);
-	j = cJSON_Parse(r.out);
-	assert_non_null(j);
-	cli_result_free(&r);
-	return j;
-}
-
-static double num(const cJSON *o, const char *key)
-{
-	const cJSON *v = cJSON_GetObjectItemCaseSensitive(o, key);
-
-	if (!cJSON_IsNumber(v))
-		fail_msg("key %s is not a number", key);
-	return v->valuedouble;
-}
-
-static cJSON *read_json(const char *path)
-{
-	char *text = cli_slurp(path);
-	cJSON *j;
-
-	assert_non_null(text);
-	j = cJSON_Parse(text);
-	free(text);
-	assert_non_null(j);
-	return j;
-}
-
 static void map(const char *study, const char *dir, const char *extra)
 {
 	struct cli_result r;
@@ -69,21 +33,24 @@ static void point_json_and_profile_follow_the_contract(void **state)
 		"discharge_bulk_temp_C", "peak_temp_C", "unmelt_fraction",
 		"max_sbr", "power_kW", "torque_Nm", "sec_kWh_kg",
 		"barrel_heat_kW"};
-	cJSON *j = run_json("point demo/study-si.json --rpm 50 --json "
+	cJSON *j = cli_run_json("point demo/study-si.json --rpm 50 --json "
 			    "--profile build/tests/profile.csv");
 	char *csv = cli_slurp("build/tests/profile.csv");
 	size_t i;
 	(void)state;
 	for (i = 0; i < sizeof keys / sizeof keys[0]; i++)
-		(void)num(j, keys[i]);
-	(void)num(j, "melt_complete_D");
+		(void)cli_json_num(j, keys[i]);
+	(void)cli_json_num(j, "melt_complete_D");
 	assert_true(cJSON_IsArray(cJSON_GetObjectItem(j, "status")));
 	/* drive power from torque: P = 2 pi N T (MODEL B9 identity) */
-	assert_rel(num(j, "power_kW") * 1e3,
-		   2.0 * OW_PI * 50.0 / 60.0 * num(j, "torque_Nm"), 1e-9);
+	assert_rel(cli_json_num(j, "power_kW") * 1e3,
+		   2.0 * OW_PI * 50.0 / 60.0 * cli_json_num(j, "torque_Nm"),
+		   1e-9);
 	/* specific energy = power / output: kWh/kg = kW / (kg/h) */
-	assert_rel(num(j, "sec_kWh_kg"),
-		   num(j, "power_kW") / num(j, "output_kg_h"), 1e-9);
+	assert_rel(cli_json_num(j, "sec_kWh_kg"),
+		   cli_json_num(j, "power_kW") /
+		       cli_json_num(j, "output_kg_h"),
+		   1e-9);
 	assert_non_null(csv);
 	assert_non_null(strstr(csv, "axial_D,pressure_MPa,bulk_temp_C,"
 				    "peak_temp_C,sbr,unmelt_fraction"));
@@ -95,13 +62,16 @@ static void point_json_and_profile_follow_the_contract(void **state)
  * converts: +18 degF as a shift is +10 K (NIST SP 811). */
 static void point_set_reads_units(void **state)
 {
-	cJSON *a = run_json("point " FAST " --rpm 60 --set 10 --json");
-	cJSON *b = run_json("point " FAST " --rpm 60 --set '18 degF' --json");
-	cJSON *c = run_json("point " FAST " --rpm 60 --set 18 --units us "
-			    "--json");
+	cJSON *a = cli_run_json("point " FAST " --rpm 60 --set 10 --json");
+	cJSON *b = cli_run_json("point " FAST " --rpm 60 --set '18 degF' "
+				"--json");
+	cJSON *c = cli_run_json("point " FAST " --rpm 60 --set 18 --units us "
+				"--json");
 	(void)state;
-	assert_rel(num(a, "output_kg_h"), num(b, "output_kg_h"), 1e-9);
-	assert_rel(num(a, "peak_temp_C"), num(c, "peak_temp_C"), 1e-9);
+	assert_rel(cli_json_num(a, "output_kg_h"),
+		   cli_json_num(b, "output_kg_h"), 1e-9);
+	assert_rel(cli_json_num(a, "peak_temp_C"),
+		   cli_json_num(c, "peak_temp_C"), 1e-9);
 	cJSON_Delete(a);
 	cJSON_Delete(b);
 	cJSON_Delete(c);
@@ -115,7 +85,7 @@ static int safe_point(double rpm, double axis)
 
 	snprintf(args, sizeof args, "point %s --rpm %.17g --set '%.17g K' "
 		 "--json", FAST, rpm, axis);
-	j = run_json(args);
+	j = cli_run_json(args);
 	st = cJSON_GetObjectItem(j, "status");
 	n = cJSON_GetArraySize(st);
 	cJSON_Delete(j);
@@ -131,16 +101,17 @@ static void window_corners_and_centre_are_safe(void **state)
 	double r0, r1, a0, a1;
 	(void)state;
 	map(FAST, "build/tests/map-a", "--grid 21x21");
-	w = read_json("build/tests/map-a/window.json");
-	r0 = num(w, "rpm_min");
-	r1 = num(w, "rpm_max");
-	a0 = num(w, "axis_min");
-	a1 = num(w, "axis_max");
+	w = cli_read_json("build/tests/map-a/window.json");
+	r0 = cli_json_num(w, "rpm_min");
+	r1 = cli_json_num(w, "rpm_max");
+	a0 = cli_json_num(w, "axis_min");
+	a1 = cli_json_num(w, "axis_max");
 	c = cJSON_GetObjectItem(w, "centre");
 	assert_true(r1 > r0 && a1 > a0);
 	assert_true(safe_point(r0, a0) && safe_point(r0, a1));
 	assert_true(safe_point(r1, a0) && safe_point(r1, a1));
-	assert_true(safe_point(num(c, "rpm"), num(c, "axis_value")));
+	assert_true(safe_point(cli_json_num(c, "rpm"),
+			       cli_json_num(c, "axis_value")));
 	grid = cli_slurp("build/tests/map-a/grid.csv");
 	for (line = strtok(strchr(grid, '\n') + 1, "\n"); line;
 	     line = strtok(NULL, "\n")) {
@@ -230,9 +201,9 @@ static void refinement_matches_fine_grid_with_fewer_solves(void **state)
 	(void)state;
 	map(FAST, "build/tests/map-r2", "--grid 21x21 --refine 2");
 	map(FAST, "build/tests/map-81", "--grid 81x81");
-	ref = read_json("build/tests/map-r2/window.json");
-	fine = read_json("build/tests/map-81/window.json");
-	assert_true(num(ref, "solves") <= 0.4 * 81 * 81);
+	ref = cli_read_json("build/tests/map-r2/window.json");
+	fine = cli_read_json("build/tests/map-81/window.json");
+	assert_true(cli_json_num(ref, "solves") <= 0.4 * 81 * 81);
 	for (k = 0; k < sizeof limits / sizeof limits[0]; k++) {
 		const cJSON *lr = lines_of(ref, limits[k]);
 		const cJSON *lf = lines_of(fine, limits[k]);
@@ -274,7 +245,7 @@ static void impossible_limits_give_an_empty_window(void **state)
 	assert_non_null(strstr(r.out, "No safe operating point"));
 	assert_non_null(strstr(r.out, "peak_temp"));
 	cli_result_free(&r);
-	w = read_json("build/tests/map-empty/window.json");
+	w = cli_read_json("build/tests/map-empty/window.json");
 	assert_true(cJSON_IsTrue(cJSON_GetObjectItem(w, "empty")));
 	assert_true(cJSON_IsNull(cJSON_GetObjectItem(w, "rpm_min")));
 	assert_true(cJSON_IsNull(cJSON_GetObjectItem(w, "set_max_C")));

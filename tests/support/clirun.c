@@ -1,5 +1,6 @@
 /* clirun.c - run the opwin binary for end-to-end tests. */
 #include "clirun.h"
+#include "testutil.h"
 
 #include <stdio.h>
 #include <stdlib.h>
@@ -72,4 +73,40 @@ void cli_result_free(struct cli_result *r)
 	free(r->out);
 	free(r->err);
 	r->out = r->err = NULL;
+}
+
+cJSON *cli_run_json(const char *args)
+{
+	struct cli_result r;
+	cJSON *j;
+
+	cli_run(args, &r);
+	if (r.code != 0)
+		fprintf(stderr, "opwin %s: %s\n", args, r.err);
+	assert_int_equal(r.code, 0);
+	j = cJSON_Parse(r.out);
+	assert_non_null(j);
+	cli_result_free(&r);
+	return j;
+}
+
+cJSON *cli_read_json(const char *path)
+{
+	char *text = cli_slurp(path);
+	cJSON *j;
+
+	assert_non_null(text);
+	j = cJSON_Parse(text);
+	free(text);
+	assert_non_null(j);
+	return j;
+}
+
+double cli_json_num(const cJSON *o, const char *key)
+{
+	const cJSON *v = cJSON_GetObjectItemCaseSensitive(o, key);
+
+	if (!cJSON_IsNumber(v))
+		fail_msg("key %s is not a number", key);
+	return v->valuedouble;
 }

@@ -3,6 +3,7 @@
 #ifndef OW_CLIRUN_H
 #define OW_CLIRUN_H
 
+#include <cjson/cJSON.h>
 #include <stddef.h>
 
 struct cli_result {
@@ -20,5 +21,15 @@ const char *cli_binary(void);
 
 /* Read a whole file (malloc'd) or NULL. */
 char *cli_slurp(const char *path);
+
+/* `opwin <args>`, which must exit 0, its standard output parsed as JSON
+ * (cJSON_Delete it); otherwise the test fails, after printing opwin's
+ * standard error. */
+cJSON *cli_run_json(const char *args);
+/* The JSON file at path, parsed (cJSON_Delete it); the test fails when it
+ * cannot be read or parsed. */
+cJSON *cli_read_json(const char *path);
+/* The number under key in object o; the test fails when it is not one. */
+double cli_json_num(const cJSON *o, const char *key);
 
 #endif
