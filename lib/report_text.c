@@ -333,18 +333,27 @@ static void row_draw(struct rpt *r, const struct rpt_table *t,
 	ow_canvas_stroke(r->cv);
 }
 
+/* Room for the wrapped cells of one row; NULL after a failure. */
+static struct cell_lines *cells_new(struct rpt *r)
+{
+	struct cell_lines *cl;
+
+	if (r->st != OW_OK)
+		return NULL;
+	cl = malloc(sizeof *cl * RPT_MAX_COLS);
+	if (!cl)
+		rpt_fail(r, OW_ENOMEM, "out of memory");
+	return cl;
+}
+
 void rpt_table_head(struct rpt *r, const struct rpt_table *t)
 {
 	struct cell_lines *cl;
 	double h;
 
-	if (r->st != OW_OK)
+	cl = cells_new(r);
+	if (!cl)
 		return;
-	cl = malloc(sizeof *cl * RPT_MAX_COLS);
-	if (!cl) {
-		rpt_fail(r, OW_ENOMEM, "out of memory");
-		return;
-	}
 	h = row_layout(r, t, t->head, cl, 1);
 	rpt_need(r, h + 2.0 * t->size_pt * RPT_LINE); /* keep with a row */
 	row_draw(r, t, cl, h, &r->head_fill, 1);
@@ -357,13 +366,9 @@ void rpt_table_row(struct rpt *r, const struct rpt_table *t,
 	struct cell_lines *cl;
 	double h;
 
-	if (r->st != OW_OK)
+	cl = cells_new(r);
+	if (!cl)
 		return;
-	cl = malloc(sizeof *cl * RPT_MAX_COLS);
-	if (!cl) {
-		rpt_fail(r, OW_ENOMEM, "out of memory");
-		return;
-	}
 	h = row_layout(r, t, cells, cl, 0);
 	if (rpt_need(r, h))
 		rpt_table_head(r, t); /* the header again on the new page */
