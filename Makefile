@@ -56,8 +56,10 @@ deps:
 	    --no-install-recommends $(APT_PKGS) >/dev/null || exit 1; \
 	fi
 
+# Rebuilt whole, so members of deleted sources never linger.
 $(LIBA): $(LIB_OBJ)
 	@mkdir -p $(dir $@)
+	@rm -f $@
 	$(AR) rcs $@ $^
 
 $(OPWIN): $(CLI_OBJ) $(LIBA)
