@@ -32,6 +32,20 @@ static const char *lab(const struct cli_common *c, enum ow_dim dim)
 	return ow_display_label(c->units, dim);
 }
 
+/* Free channel volume of the first turn: cm3, or in3 (1 in = 25.4 mm,
+ * NIST SP 811). */
+static double turn_volume(const struct ow_screw *s, const struct cli_common *c)
+{
+	double v = ow_screw_free_area(s, 0.0) * s->lead_m;
+
+	return c->units == OW_SYS_US ? v / (0.0254 * 0.0254 * 0.0254) : v * 1e6;
+}
+
+static const char *vol_label(const struct cli_common *c)
+{
+	return c->units == OW_SYS_US ? "in³" : "cm³";
+}
+
 static void print_screw(const struct ow_screw *s, const struct cli_common *c)
 {
 	double D = s->diameter_m;
@@ -48,10 +62,9 @@ static void print_screw(const struct ow_screw *s, const struct cli_common *c)
 	       lab(c, OW_DIM_LENGTH));
 	printf("  compression ratio %.3f (depth), %.3f (cross-section)\n",
 	       ow_screw_compression_depth(s), ow_screw_compression_area(s));
-	printf("  flight clearance %.*f %s (new), feed turn volume %.1f cm3\n",
-	       dp + 1, disp(c, OW_DIM_LENGTH, s->clearance_m),
-	       lab(c, OW_DIM_LENGTH),
-	       ow_screw_free_area(s, 0.0) * s->lead_m * 1e6);
+	printf("  flight clearance %.*f %s (new), channel volume of the first "
+	       "turn %.1f %s\n", dp + 1, disp(c, OW_DIM_LENGTH, s->clearance_m),
+	       lab(c, OW_DIM_LENGTH), turn_volume(s, c), vol_label(c));
 	printf("\n  %-2s %-9s %7s %7s %9s %9s %9s\n", "#", "section",
 	       "from D", "to D", "depth in", "depth out", "clearance");
 	for (i = 0; i < s->n_sections; i++) {
