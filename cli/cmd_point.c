@@ -85,6 +85,11 @@ static void print_note(const struct ow_study *s, const struct ow_point *pt,
 	printf("drive     %.2f %s, torque %.0f N·m, specific energy %.3f "
 	       "kWh/kg\n", SHOW(OW_DIM_POWER, pt->power_W), pt->torque_Nm,
 	       pt->sec_J_kg / 3.6e6);
+	if (isfinite(pt->feed_capacity_kg_s))
+		printf("feed      capacity %.1f %s (Darnell-Mol, no pressure "
+		       "loss): %.0f %% used\n",
+		       SHOW(OW_DIM_MASS_FLOW, pt->feed_capacity_kg_s),
+		       100.0 * pt->output_kg_s / pt->feed_capacity_kg_s);
 	printf("barrel    %+.2f %s net into the resin (negative: cooling)\n",
 	       SHOW(OW_DIM_POWER, pt->barrel_heat_W));
 	print_limit_lines(v);

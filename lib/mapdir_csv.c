@@ -161,6 +161,7 @@ static const struct {
     FIELD(barrel_heat_W),
     FIELD(residence_s),
     FIELD(energy_residual),
+    FIELD(feed_capacity_kg_s),
 };
 #undef FIELD
 #define N_FIELDS ((int)(sizeof fields / sizeof fields[0]))

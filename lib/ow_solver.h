@@ -44,6 +44,8 @@ struct ow_point {
 	double barrel_heat_W;         /* net heat barrel -> resin */
 	double zone_heat_W[OW_MAX_ZONES];
 	double residence_s;           /* mean residence time hopper -> tip */
+	double feed_capacity_kg_s;    /* feed section's Darnell-Mol rate at
+					 no pressure loss (NAN: melt-fed) */
 	double energy_residual;       /* (in - out) / drive power, - */
 	int n_iter;                   /* marches done by the match */
 	unsigned flags;

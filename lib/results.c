@@ -220,6 +220,7 @@ static double fig(const struct ow_study *s, const struct ow_point *p, int i)
 	case 15: return per_D(s, p->max_pressure_at_m);
 	case 16: return per_D(s, p->peak_at_m);
 	case 17: return p->energy_residual;
+	case 18: return p->feed_capacity_kg_s * 3600.0;
 	default: return NAN;
 	}
 }
@@ -230,6 +231,7 @@ static const char *const fig_keys[] = {
 	"unmelt_fraction", "melt_complete_D", "max_sbr", "power_kW",
 	"torque_Nm", "sec_kWh_kg", "barrel_heat_kW", "residence_s",
 	"melt_start_D", "max_pressure_D", "peak_temp_D", "energy_residual",
+	"feed_capacity_kg_h",
 };
 
 int ow_results_n_figures(void)

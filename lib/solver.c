@@ -213,6 +213,7 @@ static void figures(const struct ow_solver *sv, const struct eval *e,
 	pt->barrel_heat_W = e->m.barrel_W;
 	memcpy(pt->zone_heat_W, e->m.zone_W, sizeof pt->zone_heat_W);
 	pt->residence_s = g > 0.0 ? e->m.hold_kg / g : NAN;
+	pt->feed_capacity_kg_s = e->m.feed_cap_kg_s;
 	pt->flags |= e->m.flags;
 	/* energy book: drive + barrel + root = G (h_out - h_feed) + sum Q dP */
 	h_out = (1.0 - e->m.unmelt) *

@@ -25,6 +25,7 @@ struct march {
 	double flow_work_W;   /* sum of Q dP over the screw */
 	double zone_W[OW_MAX_ZONES];
 	double hold_kg;       /* resin held in the channel (residence) */
+	double feed_cap_kg_s; /* feed section capacity (NAN: melt-fed) */
 	unsigned flags;
 };
 

@@ -175,7 +175,10 @@ static enum ow_status check_feed(struct ctx *c)
 	struct ow_solids so;
 	enum ow_status st = ow_solids_prepare(&in, &so, &c->sv->diag);
 
-	if (st == OW_OK && c->g > ow_solids_max_flow(&so))
+	if (st != OW_OK)
+		return st;
+	c->m->feed_cap_kg_s = ow_solids_max_flow(&so) * c->p;
+	if (c->g * c->p > c->m->feed_cap_kg_s)
 		c->m->flags |= OW_FLAG_FEED_LIMITED;
 	return st;
 }
@@ -471,6 +474,7 @@ static void init_ctx(struct ctx *c, struct ow_solver *sv, double g,
 	c->melt_from = 0.0;
 	memset(m, 0, sizeof *m);
 	m->melt_start_m = m->melt_done_m = m->plug_at_m = NAN;
+	m->feed_cap_kg_s = NAN;
 	m->max_Pa = c->P;
 	m->peak_K = -INFINITY;
 	if (c->ln->feed_temp_K > c->mat->melt_temp_K) { /* melt-fed */
