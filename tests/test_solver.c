@@ -185,6 +185,32 @@ static void solver_is_repeatable_and_warm_start_agrees(void **st)
 	free(s);
 }
 
+/* Feed capacity of every point is the Darnell-Mol rate at no pressure
+ * loss: for D = 63.5 mm square pitch, e = 6.35 mm, H = 9.4 mm, 60 rpm,
+ * bulk density 500 kg/m3, f_b = 0.45, f_s = 0.25 it is 110.1 kg/h
+ * (Darnell & Mol, SPE J. 12 (1956) 20, in the Tadmor-Klein form;
+ * recomputed), and a rate above it is flagged feed_limited. */
+static void feed_capacity_follows_darnell_mol(void **st)
+{
+	struct ow_study *s = ow_test_study("fixtures/studies/hdpe-sf.json");
+	struct ow_point pt;
+	(void)st;
+	s->screw.sections[0].depth_m = 0.0094;
+	assert_int_equal(ow_screw_prepare(&s->screw, NULL), OW_OK);
+	s->resin.bulk_density_kg_m3 = 500.0;
+	s->resin.friction_barrel = 0.45;
+	s->resin.friction_screw = 0.25;
+	pt = solve(s, 60.0, NULL);
+	assert_abs(pt.feed_capacity_kg_s * 3600.0, 110.1, 0.05);
+	assert_false(pt.flags & OW_FLAG_FEED_LIMITED);
+	s->resin.friction_barrel = 0.30; /* f_b = f_s = 0.30: 33.5 kg/h */
+	s->resin.friction_screw = 0.30;
+	pt = solve(s, 60.0, NULL);
+	assert_abs(pt.feed_capacity_kg_s * 3600.0, 33.5, 0.05);
+	assert_true(pt.flags & OW_FLAG_FEED_LIMITED);
+	free(s);
+}
+
 /* A barrel far below the melting point never melts the feed: the point is
  * returned with its flags and figures, never a crash. */
 static void cold_barrel_returns_a_flagged_point(void **st)
@@ -216,6 +242,7 @@ int main(void)
 		cmocka_unit_test(abrupt_compression_plugs_and_gradual_does_not),
 		cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
 		cmocka_unit_test(cold_barrel_returns_a_flagged_point),
+		cmocka_unit_test(feed_capacity_follows_darnell_mol),
 	};
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
 	                              ow_test_units_teardown);
