@@ -1,261 +1,44 @@
-/* fitplot.c - the rheology fit as a PNG: data points and the fitted curve
- * per temperature on log-log axes (cairo, DejaVu Sans through FreeType so
- * the picture does not depend on the machine's font configuration). Small
- * and self-contained; a general plot module may take its place. */
+/* fitplot.c - the rheology fit as a PNG: lab data as markers and the
+ * fitted curve per temperature on log-log axes, over the band of shear
+ * rates screws and dies see, with a legend per temperature. Drawn with
+ * the plot module (lib/ow_plot.h) on an image canvas. */
 #include "ow_fit.h"
 
-#include <cairo-ft.h>
-#include <cairo.h>
-#include <ft2build.h>
-#include FT_FREETYPE_H
 #include <math.h>
 #include <stdio.h>
-#include <stdlib.h>
 #include <string.h>
 
-#include "ow_results.h"
+#include "ow_canvas.h"
+#include "ow_plot.h"
 
-#ifndef OW_FONT_PATH
-#define OW_FONT_PATH "/usr/share/fonts/truetype/dejavu/DejaVuSans.ttf"
-#endif
-
-#define OW_PI 3.14159265358979323846
-#define IMG_W 1000
-#define IMG_H 700
+/* 1000 x 700 pixels: 666.7 x 466.7 points at 1.5 pixels per point. */
+#define IMG_SCALE   1.5
+#define IMG_W_PT    (1000.0 / IMG_SCALE)
+#define IMG_H_PT    (700.0 / IMG_SCALE)
+#define FONT_PT     10.0
+#define TITLE_H_PT  44.0
+#define MARK_PT     7.0
 #define CURVE_STEPS 240
+#define N_MARKS     5
 
-/* Plot area in pixels and its log10 data ranges. */
-struct frame {
-	double x, y, w, h;
-	double lx0, lx1, ly0, ly1;
-};
-
-/* Colour-blind-safe qualitative palette (Okabe & Ito, Color Universal
- * Design, 2008), most distinct first. */
-static const double palette[][3] = {
-	{0.000, 0.447, 0.698}, {0.835, 0.369, 0.000}, {0.000, 0.620, 0.451},
-	{0.800, 0.475, 0.655}, {0.902, 0.624, 0.000}, {0.337, 0.706, 0.914},
-	{0.000, 0.000, 0.000}, {0.941, 0.894, 0.259}};
-#define N_COLOURS (sizeof palette / sizeof palette[0])
-
-struct ftfont {
-	FT_Library lib;
-	FT_Face face;
-};
-
-static const cairo_user_data_key_t font_key; /* its address is the key */
-
-static void ftfont_free(void *p)
+/* Marker shapes cycle with the temperature so groups differ in greyscale
+ * too; colours from ow_plot_series_style (Okabe & Ito 2008). */
+static enum ow_marker mark_of(int k)
 {
-	struct ftfont *f = p;
+	static const enum ow_marker m[N_MARKS] = {
+	    OW_MARK_CIRCLE, OW_MARK_SQUARE, OW_MARK_TRIANGLE, OW_MARK_DIAMOND,
+	    OW_MARK_CROSS};
 
-	FT_Done_Face(f->face);
-	FT_Done_FreeType(f->lib);
-	free(f);
+	return m[k % N_MARKS];
 }
 
-/* DejaVu Sans as a cairo font face that owns its FreeType face. */
-static cairo_font_face_t *load_font(struct ow_diag *d)
+static struct ow_line_style style_of(int k)
 {
-	struct ftfont *f = calloc(1, sizeof *f);
-	cairo_font_face_t *ff;
+	struct ow_line_style s = ow_plot_series_style(k);
 
-	if (!f || FT_Init_FreeType(&f->lib) != 0) {
-		free(f);
-		ow_diag_set(d, OW_EIO, "FreeType could not be started");
-		return NULL;
-	}
-	if (FT_New_Face(f->lib, OW_FONT_PATH, 0, &f->face) != 0) {
-		FT_Done_FreeType(f->lib);
-		free(f);
-		ow_diag_set(d, OW_EIO, "font %s is missing (Debian package "
-			    "fonts-dejavu-core)", OW_FONT_PATH);
-		return NULL;
-	}
-	ff = cairo_ft_font_face_create_for_ft_face(f->face, 0);
-	if (cairo_font_face_set_user_data(ff, &font_key, f, ftfont_free) !=
-	    CAIRO_STATUS_SUCCESS) {
-		cairo_font_face_destroy(ff);
-		ftfont_free(f);
-		ow_diag_set(d, OW_EIO, "font could not be loaded");
-		return NULL;
-	}
-	return ff;
-}
-
-static void set_font(cairo_t *cr, cairo_font_face_t *ff)
-{
-	cairo_font_options_t *o = cairo_font_options_create();
-
-	cairo_font_options_set_hint_style(o, CAIRO_HINT_STYLE_NONE);
-	cairo_font_options_set_hint_metrics(o, CAIRO_HINT_METRICS_OFF);
-	cairo_font_options_set_antialias(o, CAIRO_ANTIALIAS_GRAY);
-	cairo_set_font_options(cr, o);
-	cairo_font_options_destroy(o);
-	cairo_set_font_face(cr, ff);
-}
-
-/* Text with its anchor at (x, y): ax, ay in 0..1 (0.5 = centred). */
-static void text_at(cairo_t *cr, double x, double y, double ax, double ay,
-		    double size, double angle, const char *s)
-{
-	cairo_text_extents_t e;
-
-	cairo_save(cr);
-	cairo_set_font_size(cr, size);
-	cairo_text_extents(cr, s, &e);
-	cairo_translate(cr, x, y);
-	cairo_rotate(cr, angle);
-	cairo_move_to(cr, -ax * e.x_advance, ay * size * 0.72);
-	cairo_show_text(cr, s);
-	cairo_restore(cr);
-}
-
-static double px(const struct frame *f, double v)
-{
-	return f->x + (log10(v) - f->lx0) / (f->lx1 - f->lx0) * f->w;
-}
-
-static double py(const struct frame *f, double v)
-{
-	return f->y + f->h - (log10(v) - f->ly0) / (f->ly1 - f->ly0) * f->h;
-}
-
-/* "0.001" .. "100000" as plain numbers, else 10 with a superscript. */
-static void decade_label(int k, char *buf, size_t len)
-{
-	static const char *sup[] = {"⁰", "¹", "²", "³", "⁴",
-				    "⁵", "⁶", "⁷", "⁸", "⁹"};
-	int a = abs(k);
-
-	if (k >= -3 && k <= 5) {
-		snprintf(buf, len, "%g", pow(10.0, k));
-		return;
-	}
-	snprintf(buf, len, "10%s%s%s", k < 0 ? "⁻" : "",
-		 a >= 10 ? sup[a / 10 % 10] : "", sup[a % 10]);
-}
-
-static void grid_and_ticks(cairo_t *cr, const struct frame *f, int xaxis)
-{
-	double lo = xaxis ? f->lx0 : f->ly0, hi = xaxis ? f->lx1 : f->ly1;
-	int k, m;
-	char buf[32];
-
-	for (k = (int)floor(lo); k <= (int)ceil(hi); k++)
-		for (m = 1; m <= 9; m++) {
-			double v = m * pow(10.0, k), l = log10(v);
-
-			if (l < lo - 1e-9 || l > hi + 1e-9)
-				continue;
-			cairo_set_source_rgb(cr, m == 1 ? 0.80 : 0.92,
-					     m == 1 ? 0.80 : 0.92,
-					     m == 1 ? 0.80 : 0.92);
-			if (xaxis) {
-				cairo_move_to(cr, px(f, v), f->y);
-				cairo_line_to(cr, px(f, v), f->y + f->h);
-			} else {
-				cairo_move_to(cr, f->x, py(f, v));
-				cairo_line_to(cr, f->x + f->w, py(f, v));
-			}
-			cairo_stroke(cr);
-			if (m != 1)
-				continue;
-			decade_label(k, buf, sizeof buf);
-			cairo_set_source_rgb(cr, 0.1, 0.1, 0.1);
-			if (xaxis)
-				text_at(cr, px(f, v), f->y + f->h + 20, 0.5,
-					0.5, 15, 0, buf);
-			else
-				text_at(cr, f->x - 10, py(f, v), 1.0, 0.5, 15,
-					0, buf);
-		}
-}
-
-/* The band of shear rates screw channels and dies see, roughly 10..1000 1/s
- * (common practice), lightly shaded so gaps in the data show. */
-static void rate_band(cairo_t *cr, const struct frame *f)
-{
-	double x0 = fmax(px(f, 10.0), f->x), x1 = fmin(px(f, 1000.0), f->x + f->w);
-
-	if (x1 <= x0)
-		return;
-	cairo_set_source_rgb(cr, 0.985, 0.965, 0.90);
-	cairo_rectangle(cr, x0, f->y, x1 - x0, f->h);
-	cairo_fill(cr);
-	cairo_set_source_rgb(cr, 0.55, 0.50, 0.40);
-	text_at(cr, 0.5 * (x0 + x1), f->y + 14, 0.5, 0.5, 12, 0,
-		"typical channel and die shear rates");
-}
-
-static void axes(cairo_t *cr, const struct frame *f, int cox_merz)
-{
-	rate_band(cr, f);
-	cairo_set_line_width(cr, 1.0);
-	grid_and_ticks(cr, f, 1);
-	grid_and_ticks(cr, f, 0);
-	cairo_set_source_rgb(cr, 0.2, 0.2, 0.2);
-	cairo_rectangle(cr, f->x, f->y, f->w, f->h);
-	cairo_stroke(cr);
-	text_at(cr, f->x + f->w / 2, f->y + f->h + 52, 0.5, 0.5, 16, 0,
-		cox_merz ? "shear rate, or angular frequency (Cox–Merz) (1/s)"
-			 : "shear rate (1/s)");
-	text_at(cr, f->x - 72, f->y + f->h / 2, 0.5, 0.5, 16, -OW_PI / 2,
-		cox_merz ? "viscosity, or complex viscosity (Pa·s)"
-			 : "viscosity (Pa·s)");
-}
-
-/* Marker shapes cycle with the temperature: circle, square, triangle,
- * diamond, inverted triangle. */
-static void marker(cairo_t *cr, double x, double y, int shape)
-{
-	double r = 5.0;
-
-	switch (shape % 5) {
-	case 0:
-		cairo_new_sub_path(cr);
-		cairo_arc(cr, x, y, r, 0, 2 * OW_PI);
-		break;
-	case 1:
-		cairo_rectangle(cr, x - r, y - r, 2 * r, 2 * r);
-		break;
-	case 2:
-	case 4:
-		r *= shape % 5 == 2 ? 1.2 : -1.2;
-		cairo_move_to(cr, x, y - r);
-		cairo_line_to(cr, x + 0.87 * r, y + 0.5 * r);
-		cairo_line_to(cr, x - 0.87 * r, y + 0.5 * r);
-		cairo_close_path(cr);
-		break;
-	default:
-		r *= 1.3;
-		cairo_move_to(cr, x, y - r);
-		cairo_line_to(cr, x + r, y);
-		cairo_line_to(cr, x, y + r);
-		cairo_line_to(cr, x - r, y);
-		cairo_close_path(cr);
-	}
-	cairo_fill(cr);
-}
-
-static void curve(cairo_t *cr, const struct frame *f,
-		  const struct ow_viscosity *v, double T)
-{
-	int i;
-
-	cairo_set_line_width(cr, 2.0);
-	for (i = 0; i <= CURVE_STEPS; i++) {
-		double l = f->lx0 + (f->lx1 - f->lx0) * i / CURVE_STEPS;
-		double eta = ow_viscosity_eval(v, pow(10.0, l), T);
-
-		if (!isfinite(eta) || eta <= 0)
-			continue;
-		if (i == 0)
-			cairo_move_to(cr, px(f, pow(10.0, l)), py(f, eta));
-		else
-			cairo_line_to(cr, px(f, pow(10.0, l)), py(f, eta));
-	}
-	cairo_stroke(cr);
+	s.dash = OW_DASH_SOLID;
+	s.marker = OW_MARK_NONE; /* the data carry the markers */
+	return s;
 }
 
 /* The temperature group of a point: the nearest fitted temperature. */
@@ -270,10 +53,11 @@ static int group_of(const struct ow_fit_result *fit, double T)
 	return best;
 }
 
-/* Decade-aligned ranges around the data; the curves may extend the
- * viscosity range by at most one decade either way. */
+/* Decade-aligned ranges (log10) around the data; the curves may extend
+ * the viscosity range by at most one decade either way. */
 static void ranges(const struct ow_fit_data *data,
-		   const struct ow_fit_result *fit, struct frame *f)
+                   const struct ow_fit_result *fit, double *lx0, double *lx1,
+                   double *ly0, double *ly1)
 {
 	double x0 = INFINITY, x1 = 1e-300, y0 = INFINITY, y1 = 1e-300, c0, c1;
 	size_t i;
@@ -285,185 +69,237 @@ static void ranges(const struct ow_fit_data *data,
 		y0 = fmin(y0, data->points[i].viscosity_Pa_s);
 		y1 = fmax(y1, data->points[i].viscosity_Pa_s);
 	}
-	f->lx0 = floor(log10(x0) - 0.15);
-	f->lx1 = ceil(log10(x1) + 0.15);
+	*lx0 = floor(log10(x0) - 0.15);
+	*lx1 = ceil(log10(x1) + 0.15);
 	c0 = y0;
 	c1 = y1;
 	for (k = 0; k < fit->n_temps; k++)
 		for (e = 0; e < 2; e++) {
 			double eta = ow_viscosity_eval(
-				&fit->visc, pow(10.0, e ? f->lx1 : f->lx0),
-				fit->temps[k].temp_K);
+			    &fit->visc, pow(10.0, e ? *lx1 : *lx0),
+			    fit->temps[k].temp_K);
 
 			if (isfinite(eta) && eta > 0) {
 				c0 = fmin(c0, fmax(eta, y0 / 10));
 				c1 = fmax(c1, fmin(eta, y1 * 10));
 			}
 		}
-	f->ly0 = floor(log10(c0) - 0.05);
-	f->ly1 = ceil(log10(c1) + 0.05);
+	*ly0 = floor(log10(c0) - 0.05);
+	*ly1 = ceil(log10(c1) + 0.05);
 }
 
 static void temp_label(enum ow_unit_system sys, double T, char *buf,
-		       size_t len)
+                       size_t len)
 {
 	double t = ow_display_value(sys, OW_DIM_TEMPERATURE, T);
 	int whole = fabs(t - round(t)) < 0.05;
 
 	snprintf(buf, len, "%.*f %s", whole ? 0 : 1, t,
-		 ow_display_label(sys, OW_DIM_TEMPERATURE));
+	         ow_display_label(sys, OW_DIM_TEMPERATURE));
 }
 
-static void legend(cairo_t *cr, const struct frame *f,
-		   const struct ow_fit_result *fit, enum ow_unit_system sys)
+/* The band of shear rates screw channels and dies see, roughly 10..1000
+ * 1/s (common practice), lightly shaded so gaps in the data show. */
+static void rate_band(const struct ow_plot *p)
 {
-	double x = f->x + f->w + 24, y = f->y + 14;
-	char buf[64];
+	static const char *label = "typical channel and die shear rates";
+	struct ow_pt2 r[4] = {{10.0, p->y0}, {1000.0, p->y0},
+	                      {1000.0, p->y1}, {10.0, p->y1}};
+	int count = 4;
+	double X0 = ow_plot_px(p, fmax(10.0, p->x0));
+	double X1 = ow_plot_px(p, fmin(1000.0, p->x1));
+
+	if (X1 <= X0)
+		return;
+	ow_plot_region(p, r, &count, 1, ow_rgb(0.985, 0.965, 0.90), NULL);
+	ow_canvas_save(p->cv);
+	ow_canvas_set_font(p->cv, 0.8 * FONT_PT, 0);
+	if (ow_canvas_text_width(p->cv, label) < X1 - X0) {
+		ow_canvas_set_colour(p->cv, ow_rgb(0.50, 0.45, 0.35));
+		ow_canvas_text(p->cv, 0.5 * (X0 + X1), p->area.y + 0.5 * FONT_PT,
+		               label, OW_ALIGN_CENTRE, OW_VALIGN_TOP, 0);
+	}
+	ow_canvas_restore(p->cv);
+}
+
+/* The fitted curve at temperature k, CURVE_STEPS log-spaced rates. */
+static void curve(const struct ow_plot *p, const struct ow_fit_result *fit,
+                  int k)
+{
+	struct ow_pt2 pts[CURVE_STEPS + 1];
+	struct ow_line_style s = style_of(k);
+	double l0 = log10(p->x0), l1 = log10(p->x1);
+	int i;
+
+	for (i = 0; i <= CURVE_STEPS; i++) {
+		double rate = pow(10.0, l0 + (l1 - l0) * (double)i /
+		                                CURVE_STEPS);
+		double eta = ow_viscosity_eval(&fit->visc, rate,
+		                               fit->temps[k].temp_K);
+
+		pts[i].x = rate;
+		pts[i].y = isfinite(eta) && eta > 0 ? eta : NAN;
+	}
+	ow_plot_polyline(p, pts, CURVE_STEPS + 1, &s);
+}
+
+static void series(const struct ow_plot *p, const struct ow_fit_data *data,
+                   const struct ow_fit_result *fit)
+{
+	size_t i;
 	int k;
 
-	cairo_set_source_rgb(cr, 0.1, 0.1, 0.1);
-	text_at(cr, x, y, 0, 0.5, 15, 0, "temperature");
-	for (k = 0; k < fit->n_temps; k++) {
-		const double *c = palette[(size_t)k % N_COLOURS];
+	for (k = 0; k < fit->n_temps; k++)
+		curve(p, fit, k);
+	ow_plot_clip(p);
+	for (i = 0; i < data->n; i++) {
+		const struct ow_fit_point *pt = &data->points[i];
+		int g = group_of(fit, pt->temp_K);
+		struct ow_rgba c = style_of(g).colour;
 
-		y += 28;
-		cairo_set_source_rgb(cr, c[0], c[1], c[2]);
-		cairo_set_line_width(cr, 2.0);
-		cairo_move_to(cr, x, y);
-		cairo_line_to(cr, x + 36, y);
-		cairo_stroke(cr);
-		marker(cr, x + 18, y, k);
-		temp_label(sys, fit->temps[k].temp_K, buf, sizeof buf);
-		cairo_set_source_rgb(cr, 0.1, 0.1, 0.1);
-		text_at(cr, x + 46, y, 0, 0.5, 15, 0, buf);
+		ow_plot_marker(p, pt->shear_rate_1_s, pt->viscosity_Pa_s,
+		               mark_of(g), MARK_PT, c, c);
 	}
-	cairo_set_source_rgb(cr, 0.35, 0.35, 0.35);
-	text_at(cr, x, y + 40, 0, 0.5, 13, 0, "markers: lab data");
-	text_at(cr, x, y + 60, 0, 0.5, 13, 0, "lines: fitted model");
+	ow_canvas_restore(p->cv);
 }
 
-static void titles(cairo_t *cr, const struct ow_fit_data *data,
-		   const struct ow_fit_result *fit, enum ow_unit_system sys)
+static void titles(struct ow_canvas *cv, double x,
+                   const struct ow_fit_data *data,
+                   const struct ow_fit_result *fit, enum ow_unit_system sys)
 {
 	const char *base = strrchr(data->source, '/');
 	char buf[400], t[64];
 
 	base = base ? base + 1 : data->source;
 	snprintf(buf, sizeof buf, "Viscosity fit to %s: %s model, %s shift",
-		 base, ow_fit_model_name(fit->visc.model),
-		 fit->visc.shift == OW_SHIFT_WLF ? "WLF" : "Arrhenius");
-	cairo_set_source_rgb(cr, 0.05, 0.05, 0.05);
-	text_at(cr, 100, 28, 0, 0.5, 19, 0, buf);
+	         base, ow_fit_model_name(fit->visc.model),
+	         fit->visc.shift == OW_SHIFT_WLF ? "WLF" : "Arrhenius");
+	ow_canvas_set_colour(cv, ow_rgb(0.05, 0.05, 0.05));
+	ow_canvas_set_font(cv, 1.25 * FONT_PT, 0);
+	ow_canvas_text(cv, x, 20.0, buf, OW_ALIGN_LEFT, OW_VALIGN_BASELINE, 0);
 	temp_label(sys, fit->visc.ref_temp_K, t, sizeof t);
-	snprintf(buf, sizeof buf, "RMS error %.4f in log10 viscosity (about "
-		 "%.1f %%), %zu points; reference temperature %s",
-		 fit->rms_log10, 100.0 * (pow(10.0, fit->rms_log10) - 1.0),
-		 fit->n_points, t);
-	cairo_set_source_rgb(cr, 0.3, 0.3, 0.3);
-	text_at(cr, 100, 54, 0, 0.5, 14, 0, buf);
+	snprintf(buf, sizeof buf,
+	         "RMS error %.4f in log10 viscosity (about %.1f %%), %zu "
+	         "points; reference temperature %s",
+	         fit->rms_log10, 100.0 * (pow(10.0, fit->rms_log10) - 1.0),
+	         fit->n_points, t);
+	ow_canvas_set_colour(cv, ow_rgb(0.3, 0.3, 0.3));
+	ow_canvas_set_font(cv, 0.92 * FONT_PT, 0);
+	ow_canvas_text(cv, x, 37.0, buf, OW_ALIGN_LEFT, OW_VALIGN_BASELINE, 0);
 }
 
-static void series(cairo_t *cr, const struct frame *f,
-		   const struct ow_fit_data *data,
-		   const struct ow_fit_result *fit)
+/* Legend entries, one per temperature (line and marker as drawn). */
+static int legend_entries(const struct ow_fit_result *fit,
+                          enum ow_unit_system sys,
+                          struct ow_legend_entry *e, char (*lab)[32], int max)
 {
-	size_t i;
-	int k;
+	int k, n = fit->n_temps < max ? fit->n_temps : max;
 
-	cairo_save(cr);
-	cairo_rectangle(cr, f->x, f->y, f->w, f->h);
-	cairo_clip(cr);
-	for (k = 0; k < fit->n_temps; k++) {
-		const double *c = palette[(size_t)k % N_COLOURS];
-
-		cairo_set_source_rgb(cr, c[0], c[1], c[2]);
-		curve(cr, f, &fit->visc, fit->temps[k].temp_K);
+	for (k = 0; k < n; k++) {
+		temp_label(sys, fit->temps[k].temp_K, lab[k], sizeof lab[k]);
+		memset(&e[k], 0, sizeof e[k]);
+		e[k].label = lab[k];
+		e[k].line = style_of(k);
+		e[k].marker = mark_of(k);
+		e[k].fill = e[k].line.colour; /* filled, like the data */
 	}
-	for (i = 0; i < data->n; i++) {
-		const struct ow_fit_point *p = &data->points[i];
-		int g = group_of(fit, p->temp_K);
-		const double *c = palette[(size_t)g % N_COLOURS];
-
-		cairo_set_source_rgb(cr, c[0], c[1], c[2]);
-		marker(cr, px(f, p->shear_rate_1_s), py(f, p->viscosity_Pa_s),
-		       g);
-	}
-	cairo_restore(cr);
+	return n;
 }
 
-/* PNG bytes gathered in memory, written to the file in one atomic step. */
-struct png_buf {
-	unsigned char *b;
-	size_t len, cap;
-};
-
-static cairo_status_t png_write(void *closure, const unsigned char *data,
-				unsigned int length)
+/* Heading, legend and the key to markers and lines, from (x, y). */
+static void legend(struct ow_canvas *cv, double x, double y,
+                   const struct ow_legend_entry *e, int n)
 {
-	struct png_buf *p = closure;
+	double w, h;
 
-	if (p->len + length > p->cap) {
-		size_t cap = 2 * (p->len + length);
-		unsigned char *nb = realloc(p->b, cap);
-
-		if (!nb)
-			return CAIRO_STATUS_NO_MEMORY;
-		p->b = nb;
-		p->cap = cap;
-	}
-	memcpy(p->b + p->len, data, length);
-	p->len += length;
-	return CAIRO_STATUS_SUCCESS;
+	ow_canvas_set_colour(cv, ow_rgb(0.1, 0.1, 0.1));
+	ow_canvas_set_font(cv, FONT_PT, 0);
+	ow_canvas_text(cv, x, y, "temperature", OW_ALIGN_LEFT, OW_VALIGN_TOP,
+	               0);
+	y += 1.5 * FONT_PT;
+	ow_plot_legend(cv, x, y, e, n, FONT_PT);
+	ow_plot_legend_size(cv, e, n, FONT_PT, &w, &h);
+	y += h + 1.6 * FONT_PT;
+	ow_canvas_set_colour(cv, ow_rgb(0.35, 0.35, 0.35));
+	ow_canvas_set_font(cv, 0.87 * FONT_PT, 0);
+	ow_canvas_text(cv, x, y, "markers: lab data", OW_ALIGN_LEFT,
+	               OW_VALIGN_TOP, 0);
+	ow_canvas_text(cv, x, y + 1.35 * FONT_PT, "lines: fitted model",
+	               OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
 }
 
-static void draw(cairo_t *cr, const struct ow_fit_data *data,
-		 const struct ow_fit_result *fit, enum ow_unit_system sys)
+/* Width the legend column needs. */
+static double legend_width(struct ow_canvas *cv,
+                           const struct ow_legend_entry *e, int n)
 {
-	struct frame f = {100, 80, IMG_W - 100 - 200, IMG_H - 80 - 90,
-			  0, 0, 0, 0};
+	double w, h;
 
-	ranges(data, fit, &f);
-	cairo_set_source_rgb(cr, 1, 1, 1);
-	cairo_paint(cr);
-	titles(cr, data, fit, sys);
-	axes(cr, &f, data->cox_merz);
-	series(cr, &f, data, fit);
-	legend(cr, &f, fit, sys);
+	ow_plot_legend_size(cv, e, n, FONT_PT, &w, &h);
+	ow_canvas_set_font(cv, FONT_PT, 0);
+	w = fmax(w, ow_canvas_text_width(cv, "temperature"));
+	ow_canvas_set_font(cv, 0.87 * FONT_PT, 0);
+	return fmax(w, ow_canvas_text_width(cv, "lines: fitted model"));
+}
+
+static enum ow_status draw(struct ow_canvas *cv,
+                           const struct ow_fit_data *data,
+                           const struct ow_fit_result *fit,
+                           enum ow_unit_system sys)
+{
+	struct ow_legend_entry e[16];
+	char lab[16][32];
+	struct ow_rect box = {8.0, TITLE_H_PT, IMG_W_PT - 16.0,
+	                      IMG_H_PT - TITLE_H_PT - 6.0};
+	struct ow_plot_axis x = {0, 0, NULL, 1, 0}, y = {0, 0, NULL, 1, 0};
+	struct ow_plot p;
+	double lx0, lx1, ly0, ly1, lw;
+	int n = legend_entries(fit, sys, e, lab, 16);
+
+	ranges(data, fit, &lx0, &lx1, &ly0, &ly1);
+	x.min = pow(10.0, lx0), x.max = pow(10.0, lx1);
+	y.min = pow(10.0, ly0), y.max = pow(10.0, ly1);
+	x.title = data->cox_merz
+	              ? "shear rate, or angular frequency (Cox–Merz) (1/s)"
+	              : "shear rate (1/s)";
+	y.title = data->cox_merz ? "viscosity, or complex viscosity (Pa·s)"
+	                         : "viscosity (Pa·s)";
+	lw = legend_width(cv, e, n);
+	if (ow_plot_init_log(&p, cv, &box, &x, &y, FONT_PT, lw + FONT_PT,
+	                     OW_PLOT_LOG_X | OW_PLOT_LOG_Y) != OW_OK)
+		return OW_EARG;
+	ow_canvas_set_colour(cv, ow_rgb(1, 1, 1));
+	ow_canvas_rect(cv, 0, 0, IMG_W_PT, IMG_H_PT);
+	ow_canvas_fill(cv);
+	rate_band(&p);
+	ow_plot_grid(&p);
+	series(&p, data, fit);
+	ow_plot_axes(&p, &x, &y);
+	titles(cv, p.area.x, data, fit, sys);
+	legend(cv, p.area.x + p.area.w + 1.4 * FONT_PT, p.area.y, e, n);
+	return OW_OK;
 }
 
 enum ow_status ow_fit_plot_png(const struct ow_fit_data *data,
-			       const struct ow_fit_result *fit,
-			       enum ow_unit_system sys, const char *path,
-			       struct ow_diag *d)
+                               const struct ow_fit_result *fit,
+                               enum ow_unit_system sys, const char *path,
+                               struct ow_diag *d)
 {
-	cairo_font_face_t *ff = load_font(d);
-	cairo_surface_t *s = NULL;
-	cairo_t *cr = NULL;
-	struct png_buf png = {NULL, 0, 0};
-	enum ow_status st = OW_EIO;
+	struct ow_canvas *cv = NULL;
+	enum ow_status st;
 
-	if (!ff)
-		return OW_EIO;
-	if (data->n == 0 || fit->n_temps == 0) {
-		st = ow_diag_set(d, OW_EARG, "nothing to plot");
+	if (data->n == 0 || fit->n_temps == 0)
+		return ow_diag_set(d, OW_EARG, "nothing to plot");
+	st = ow_canvas_create_image(OW_CANVAS_PNG, IMG_W_PT, IMG_H_PT,
+	                            IMG_SCALE, &cv, d);
+	if (st != OW_OK)
+		goto fail;
+	if (draw(cv, data, fit, sys) != OW_OK) {
+		st = ow_diag_set(d, OW_EARG,
+		                 "%s: the data span no range to plot", path);
 		goto fail;
 	}
-	s = cairo_image_surface_create(CAIRO_FORMAT_RGB24, IMG_W, IMG_H);
-	cr = cairo_create(s);
-	set_font(cr, ff);
-	draw(cr, data, fit, sys);
-	if (cairo_status(cr) != CAIRO_STATUS_SUCCESS ||
-	    cairo_surface_write_to_png_stream(s, png_write, &png) !=
-		    CAIRO_STATUS_SUCCESS) {
-		ow_diag_set(d, OW_EIO, "%s: the plot could not be drawn: %s",
-			    path, cairo_status_to_string(cairo_status(cr)));
-		goto fail;
-	}
-	st = ow_results_write_file(path, (const char *)png.b, png.len, d);
+	st = ow_canvas_write_file(cv, path, d);
 fail:
-	cairo_destroy(cr);
-	cairo_surface_destroy(s);
-	cairo_font_face_destroy(ff);
-	free(png.b);
+	ow_canvas_destroy(cv);
 	return st;
 }

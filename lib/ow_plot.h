@@ -16,6 +16,7 @@
 
 #define OW_PLOT_MAX_TICKS  24
 #define OW_PLOT_MAX_LEVELS 32
+#define OW_PLOT_MAX_MINOR  (8 * (OW_PLOT_MAX_TICKS + 1))
 
 /* A rectangle in canvas points (top-left origin, y down). */
 struct ow_rect {
@@ -49,6 +50,31 @@ enum ow_status ow_plot_nice_ticks(double lo, double hi, int max_ticks,
  * Returns buf. */
 char *ow_plot_format(char *buf, size_t n, double v, int decimals);
 
+/* Ticks of a base-10 logarithmic axis over [lo, hi]: a value v sits at
+ * log10(v), so each decade 10^k .. 10^(k+1) takes the same length and
+ * m x 10^k lies log10(m) of a decade above 10^k. */
+struct ow_log_ticks {
+	int n_major;                      /* decades 10^k inside [lo, hi] */
+	double major[OW_PLOT_MAX_TICKS];
+	int n_minor;                      /* m x 10^k, m = 2..9, inside */
+	double minor[OW_PLOT_MAX_MINOR];
+	int plain; /* 1: every decade label written as a plain decimal */
+};
+
+/* Decade and minor ticks over [lo, hi] (0 < lo < hi), widened first to
+ * whole decades when nice (3..4700 -> 1..10000). Minor ticks only while
+ * the range spans at most 12 decades. plain when all decades lie within
+ * 0.001..10000. OW_EARG for a non-finite, non-positive or empty range,
+ * or more decades than OW_PLOT_MAX_TICKS. */
+enum ow_status ow_plot_log_ticks(double lo, double hi, int nice,
+                                 struct ow_log_ticks *t);
+
+/* The label of tick v on a log axis: a decade 10^k as a plain decimal
+ * ("0.01", "10", "1000") when plain or 0.01 <= v <= 1000, else as "1e4",
+ * "1e−5" (U+2212 minus); other values (m x 10^k) as plain decimals.
+ * Returns buf. */
+char *ow_plot_format_log(char *buf, size_t n, double v, int plain);
+
 /* --- colour maps ----------------------------------------------------- */
 
 enum ow_cmap {
@@ -69,7 +95,7 @@ struct ow_plot_axis {
 	const char *title; /* with its unit: "screw speed (rpm)"; NULL: none */
 	int nice;          /* 1: widen min..max to whole tick steps */
 	int max_ticks;     /* 0: about one tick per 5 font sizes across,
-	                      3.2 font sizes up */
+	                      3.2 font sizes up (log: labelled decades) */
 };
 
 struct ow_plot {
@@ -81,6 +107,9 @@ struct ow_plot {
 	struct ow_rgba ink;     /* axes and text colour */
 	int hide_x_labels;      /* 1: ticks without numbers on x (a panel
 	                           above another sharing its x axis) */
+	int xlog, ylog;         /* 1: that axis is base-10 logarithmic; xt,
+	                           yt then hold its labelled ticks */
+	struct ow_log_ticks xl, yl; /* all decade and minor ticks (log) */
 };
 
 /* Lay out a plot in box (the whole chart, labels included): margins for
@@ -94,7 +123,24 @@ enum ow_status ow_plot_init(struct ow_plot *p, struct ow_canvas *cv,
                             const struct ow_plot_axis *y, double font_pt,
                             double right_pt);
 
-/* Data -> canvas coordinates. */
+/* Axes of ow_plot_init_log that are base-10 logarithmic (a flag kept
+ * out of struct ow_plot_axis so its brace-initialised users stay
+ * complete). */
+enum { OW_PLOT_LOG_X = 1, OW_PLOT_LOG_Y = 2 };
+
+/* ow_plot_init with the axes named in log_axes (OW_PLOT_LOG_X |
+ * OW_PLOT_LOG_Y, 0: both linear, as ow_plot_init) on base-10 logarithmic
+ * scales: ranges must be > 0, nice widens to whole decades, ticks from
+ * ow_plot_log_ticks, labels from ow_plot_format_log, and max_ticks caps
+ * the labelled decades (every n-th labelled when there are more). */
+enum ow_status ow_plot_init_log(struct ow_plot *p, struct ow_canvas *cv,
+                                const struct ow_rect *box,
+                                const struct ow_plot_axis *x,
+                                const struct ow_plot_axis *y, double font_pt,
+                                double right_pt, int log_axes);
+
+/* Data -> canvas coordinates (through log10 on a log axis, where a
+ * value <= 0 gives NAN). */
 double ow_plot_px(const struct ow_plot *p, double x);
 double ow_plot_py(const struct ow_plot *p, double y);
 
@@ -252,7 +298,8 @@ struct ow_legend_entry {
 	const char *label;
 	int swatch;
 	struct ow_line_style line;
-	struct ow_rgba fill;
+	struct ow_rgba fill;          /* the swatch; on a line sample the
+	                                 marker's fill (alpha 0: white) */
 	const struct ow_hatch *hatch; /* NULL: none */
 	enum ow_marker marker;        /* an extra marker in the sample */
 };

@@ -93,6 +93,91 @@ char *ow_plot_format(char *buf, size_t n, double v, int decimals)
 	return buf;
 }
 
+/* --- logarithmic axes ------------------------------------------------ */
+
+/* 10^k, as exact as doubles allow (1/1000 rounds once, pow may not). */
+static double decade(int k)
+{
+	return k >= 0 ? pow(10.0, (double)k) : 1.0 / pow(10.0, (double)-k);
+}
+
+/* The exponent k of the decade 10^k .. 10^(k+1) holding v > 0 (a value a
+ * hair under 10^k, from rounding, counts as 10^k). */
+static int decade_of(double v)
+{
+	return (int)floor(log10(v) + 1e-9);
+}
+
+static int inside(double v, double l0, double l1)
+{
+	double l = log10(v);
+
+	return l >= l0 - 1e-9 && l <= l1 + 1e-9;
+}
+
+/* Base-10 logarithmic scale: v is placed at log10(v), so the decades
+ * 10^k are equally spaced and m x 10^k (m = 2..9) lies log10(m) of a
+ * decade above 10^k (the base-10 logarithmic scale as in Cleveland,
+ * "The Elements of Graphing Data", 1985, on logarithms in graphs). */
+enum ow_status ow_plot_log_ticks(double lo, double hi, int nice,
+                                 struct ow_log_ticks *t)
+{
+	double l0, l1;
+	int k, m, k0, k1;
+
+	if (!t || !isfinite(lo) || !isfinite(hi) || !(lo > 0.0) || !(hi > lo))
+		return OW_EARG;
+	l0 = log10(lo);
+	l1 = log10(hi);
+	if (l1 - l0 > (double)OW_PLOT_MAX_TICKS)
+		return OW_EARG;
+	if (nice) {
+		l0 = floor(l0 + 1e-9);
+		l1 = ceil(l1 - 1e-9);
+	}
+	k0 = (int)ceil(l0 - 1e-9);
+	k1 = (int)floor(l1 + 1e-9);
+	if (k1 - k0 + 1 > OW_PLOT_MAX_TICKS)
+		return OW_EARG;
+	memset(t, 0, sizeof *t);
+	t->plain = 1;
+	for (k = k0; k <= k1; k++) {
+		t->major[t->n_major++] = decade(k);
+		if (k < -3 || k > 4)
+			t->plain = 0;
+	}
+	if (l1 - l0 > 12.0)
+		return OW_OK; /* minor ticks would run together */
+	for (k = (int)floor(l0 + 1e-9); k <= k1; k++)
+		for (m = 2; m <= 9; m++) {
+			double v = (double)m * decade(k);
+
+			if (inside(v, l0, l1) && t->n_minor < OW_PLOT_MAX_MINOR)
+				t->minor[t->n_minor++] = v;
+		}
+	return OW_OK;
+}
+
+char *ow_plot_format_log(char *buf, size_t n, double v, int plain)
+{
+	int k;
+
+	if (!isfinite(v) || !(v > 0.0)) {
+		snprintf(buf, n, "–");
+		return buf;
+	}
+	k = decade_of(v);
+	if (fabs(v / decade(k) - 1.0) < 1e-6 && !plain && (k < -2 || k > 3)) {
+		if (k < 0)
+			snprintf(buf, n, "1e\xe2\x88\x92%d", -k);
+		else
+			snprintf(buf, n, "1e%d", k);
+		return buf;
+	}
+	/* a decimal with the digits of m x 10^k: 0.02 has two */
+	return ow_plot_format(buf, n, v, k < 0 ? -k : 0);
+}
+
 /* --- colour maps ------------------------------------------------------ */
 
 /* Every 16th entry (0, 16, ..., 240) and the last (255) of the published
@@ -179,19 +264,87 @@ static enum ow_status axis_ticks(const struct ow_plot_axis *a, double len,
 	return OW_OK;
 }
 
-static double widest_label(struct ow_canvas *cv, const struct ow_ticks *t,
-                           double font_pt)
+/* The labelled ticks of a log axis: the decades (every n-th when there
+ * are more than max), or 1, 2, 5 x 10^k when fewer than two decades lie
+ * inside the range. */
+static void log_labels(const struct ow_log_ticks *l, double lo, double hi,
+                       int max, struct ow_ticks *t)
 {
+	static const int mant[3] = {1, 2, 5};
+	double l0 = log10(lo), l1 = log10(hi);
+	int i, k, every;
+
+	memset(t, 0, sizeof *t);
+	t->step = 10.0; /* a ratio on a log axis */
+	if (l->n_major >= 2) {
+		every = (l->n_major + max - 1) / max;
+		for (i = 0; i < l->n_major; i += every)
+			t->v[t->n++] = l->major[i];
+		return;
+	}
+	for (k = decade_of(lo); k <= decade_of(hi); k++)
+		for (i = 0; i < 3; i++) {
+			double v = (double)mant[i] * decade(k);
+
+			if (inside(v, l0, l1) && t->n < OW_PLOT_MAX_TICKS)
+				t->v[t->n++] = v;
+		}
+}
+
+static enum ow_status log_axis(const struct ow_plot_axis *a, double len,
+                               double per, struct ow_log_ticks *l,
+                               struct ow_ticks *t, double *lo, double *hi)
+{
+	int max = a->max_ticks > 0 ? a->max_ticks : auto_ticks(len, per);
+
+	if (ow_plot_log_ticks(a->min, a->max, a->nice, l) != OW_OK)
+		return OW_EARG;
+	*lo = a->nice ? l->major[0] : a->min;
+	*hi = a->nice ? l->major[l->n_major - 1] : a->max;
+	log_labels(l, *lo, *hi, max < 2 ? 2 : max, t);
+	return OW_OK;
+}
+
+/* Tick label of v on the x (xaxis 1) or y axis of p. */
+static char *tick_text(const struct ow_plot *p, int xaxis, double v,
+                       char *buf, size_t n)
+{
+	const struct ow_ticks *t = xaxis ? &p->xt : &p->yt;
+
+	if (xaxis ? p->xlog : p->ylog)
+		return ow_plot_format_log(buf, n,
+		                          v, xaxis ? p->xl.plain : p->yl.plain);
+	return ow_plot_format(buf, n, v, t->decimals);
+}
+
+static double widest_label(const struct ow_plot *p, int xaxis)
+{
+	const struct ow_ticks *t = xaxis ? &p->xt : &p->yt;
 	char buf[64];
 	double w = 0.0;
 	int i;
 
-	ow_canvas_set_font(cv, font_pt, 0);
+	ow_canvas_set_font(p->cv, p->font_pt, 0);
 	for (i = 0; i < t->n; i++)
 		w = fmax(w, ow_canvas_text_width(
-		                cv, ow_plot_format(buf, sizeof buf, t->v[i],
-		                                   t->decimals)));
+		                p->cv, tick_text(p, xaxis, t->v[i], buf,
+		                                 sizeof buf)));
 	return w;
+}
+
+static enum ow_status any_axis(struct ow_plot *p, int xaxis, int log,
+                               const struct ow_plot_axis *a, double len,
+                               double per)
+{
+	if (xaxis) {
+		p->xlog = log;
+		return log ? log_axis(a, len, per, &p->xl, &p->xt, &p->x0,
+		                         &p->x1)
+		              : axis_ticks(a, len, per, &p->xt, &p->x0, &p->x1);
+	}
+	p->ylog = log;
+	return log ? log_axis(a, len, per, &p->yl, &p->yt, &p->y0, &p->y1)
+	              : axis_ticks(a, len, per, &p->yt, &p->y0, &p->y1);
 }
 
 enum ow_status ow_plot_init(struct ow_plot *p, struct ow_canvas *cv,
@@ -199,6 +352,15 @@ enum ow_status ow_plot_init(struct ow_plot *p, struct ow_canvas *cv,
                             const struct ow_plot_axis *x,
                             const struct ow_plot_axis *y, double font_pt,
                             double right_pt)
+{
+	return ow_plot_init_log(p, cv, box, x, y, font_pt, right_pt, 0);
+}
+
+enum ow_status ow_plot_init_log(struct ow_plot *p, struct ow_canvas *cv,
+                                const struct ow_rect *box,
+                                const struct ow_plot_axis *x,
+                                const struct ow_plot_axis *y, double font_pt,
+                                double right_pt, int log_axes)
 {
 	double top, bottom, left, right, h, w;
 
@@ -213,14 +375,14 @@ enum ow_status ow_plot_init(struct ow_plot *p, struct ow_canvas *cv,
 	bottom = TICK_LEN + 3.2 * font_pt + (x->title ? 0.0 : -1.6 * font_pt);
 	h = box->h - top - bottom;
 	if (h < 3.0 * font_pt ||
-	    axis_ticks(y, h, 3.2 * font_pt, &p->yt, &p->y0, &p->y1) != OW_OK)
+	    any_axis(p, 0, (log_axes & OW_PLOT_LOG_Y) != 0, y, h, 3.2 * font_pt) != OW_OK)
 		return OW_EARG;
-	left = TICK_LEN + 0.5 * font_pt + widest_label(cv, &p->yt, font_pt) +
+	left = TICK_LEN + 0.5 * font_pt + widest_label(p, 0) +
 	       (y->title ? 1.9 * font_pt : 0.3 * font_pt);
 	right = right_pt + 1.6 * font_pt;
 	w = box->w - left - right;
 	if (w < 4.0 * font_pt ||
-	    axis_ticks(x, w, 5.0 * font_pt, &p->xt, &p->x0, &p->x1) != OW_OK)
+	    any_axis(p, 1, (log_axes & OW_PLOT_LOG_X) != 0, x, w, 5.0 * font_pt) != OW_OK)
 		return OW_EARG;
 	p->area.x = box->x + left;
 	p->area.y = box->y + top;
@@ -229,15 +391,32 @@ enum ow_status ow_plot_init(struct ow_plot *p, struct ow_canvas *cv,
 	return OW_OK;
 }
 
+/* Where v lies between a (0) and b (1): linearly, or on a base-10
+ * logarithmic scale (log10 v - log10 a) / (log10 b - log10 a). */
+static double axis_frac(int log, double v, double a, double b)
+{
+	if (!log)
+		return (v - a) / (b - a);
+	if (!(v > 0.0))
+		return NAN;
+	return (log10(v) - log10(a)) / (log10(b) - log10(a));
+}
+
 double ow_plot_px(const struct ow_plot *p, double x)
 {
-	return p->area.x + (x - p->x0) / (p->x1 - p->x0) * p->area.w;
+	return p->area.x + axis_frac(p->xlog, x, p->x0, p->x1) * p->area.w;
 }
 
 double ow_plot_py(const struct ow_plot *p, double y)
 {
 	return p->area.y + p->area.h -
-	       (y - p->y0) / (p->y1 - p->y0) * p->area.h;
+	       axis_frac(p->ylog, y, p->y0, p->y1) * p->area.h;
+}
+
+/* 1 when data point (x, y) has a place on the canvas. */
+static int mappable(const struct ow_plot *p, double x, double y)
+{
+	return isfinite(ow_plot_px(p, x)) && isfinite(ow_plot_py(p, y));
 }
 
 void ow_plot_clip(const struct ow_plot *p)
@@ -246,28 +425,70 @@ void ow_plot_clip(const struct ow_plot *p)
 	ow_canvas_clip_rect(p->cv, p->area.x, p->area.y, p->area.w, p->area.h);
 }
 
+static void grid_lines(const struct ow_plot *p, int xaxis, const double *v,
+                       int n)
+{
+	int i;
+
+	for (i = 0; i < n; i++) {
+		if (xaxis) {
+			double X = ow_plot_px(p, v[i]);
+
+			ow_canvas_move_to(p->cv, X, p->area.y);
+			ow_canvas_line_to(p->cv, X, p->area.y + p->area.h);
+		} else {
+			double Y = ow_plot_py(p, v[i]);
+
+			ow_canvas_move_to(p->cv, p->area.x, Y);
+			ow_canvas_line_to(p->cv, p->area.x + p->area.w, Y);
+		}
+	}
+}
+
 void ow_plot_grid(const struct ow_plot *p)
 {
 	struct ow_canvas *cv = p->cv;
-	int i;
 
 	ow_canvas_save(cv);
+	if (p->xlog || p->ylog) { /* fainter lines at the minor ticks */
+		ow_canvas_set_colour(cv, ow_rgb(0.93, 0.93, 0.93));
+		ow_canvas_set_line_width(cv, 0.4);
+		if (p->xlog)
+			grid_lines(p, 1, p->xl.minor, p->xl.n_minor);
+		if (p->ylog)
+			grid_lines(p, 0, p->yl.minor, p->yl.n_minor);
+		ow_canvas_stroke(cv);
+	}
 	ow_canvas_set_colour(cv, ow_rgb(0.86, 0.86, 0.86));
 	ow_canvas_set_line_width(cv, 0.5);
-	for (i = 0; i < p->xt.n; i++) {
-		double X = ow_plot_px(p, p->xt.v[i]);
-
-		ow_canvas_move_to(cv, X, p->area.y);
-		ow_canvas_line_to(cv, X, p->area.y + p->area.h);
-	}
-	for (i = 0; i < p->yt.n; i++) {
-		double Y = ow_plot_py(p, p->yt.v[i]);
-
-		ow_canvas_move_to(cv, p->area.x, Y);
-		ow_canvas_line_to(cv, p->area.x + p->area.w, Y);
-	}
+	if (p->xlog)
+		grid_lines(p, 1, p->xl.major, p->xl.n_major);
+	else
+		grid_lines(p, 1, p->xt.v, p->xt.n);
+	if (p->ylog)
+		grid_lines(p, 0, p->yl.major, p->yl.n_major);
+	else
+		grid_lines(p, 0, p->yt.v, p->yt.n);
 	ow_canvas_stroke(cv);
 	ow_canvas_restore(cv);
+}
+
+/* Tick marks without labels at v[0..n) of length len outwards. */
+static void tick_marks(const struct ow_plot *p, int xaxis, const double *v,
+                       int n, double len)
+{
+	double bx = p->area.x, by = p->area.y + p->area.h;
+	int i;
+
+	for (i = 0; i < n; i++) {
+		if (xaxis) {
+			ow_canvas_move_to(p->cv, ow_plot_px(p, v[i]), by);
+			ow_canvas_line_to(p->cv, ow_plot_px(p, v[i]), by + len);
+		} else {
+			ow_canvas_move_to(p->cv, bx, ow_plot_py(p, v[i]));
+			ow_canvas_line_to(p->cv, bx - len, ow_plot_py(p, v[i]));
+		}
+	}
 }
 
 static void tick_labels(const struct ow_plot *p, int xaxis)
@@ -275,11 +496,16 @@ static void tick_labels(const struct ow_plot *p, int xaxis)
 	struct ow_canvas *cv = p->cv;
 	const struct ow_ticks *t = xaxis ? &p->xt : &p->yt;
 	double bx = p->area.x, by = p->area.y + p->area.h;
+	const struct ow_log_ticks *l = xaxis ? &p->xl : &p->yl;
 	char buf[64];
 	int i;
 
+	if (xaxis ? p->xlog : p->ylog) { /* every decade, then the minors */
+		tick_marks(p, xaxis, l->major, l->n_major, TICK_LEN);
+		tick_marks(p, xaxis, l->minor, l->n_minor, 0.55 * TICK_LEN);
+	}
 	for (i = 0; i < t->n; i++) {
-		ow_plot_format(buf, sizeof buf, t->v[i], t->decimals);
+		tick_text(p, xaxis, t->v[i], buf, sizeof buf);
 		if (xaxis) {
 			double X = ow_plot_px(p, t->v[i]);
 
@@ -321,7 +547,7 @@ void ow_plot_axes(const struct ow_plot *p, const struct ow_plot_axis *x,
 		               p->area.y + p->area.h + TICK_LEN + 1.7 * f,
 		               x->title, OW_ALIGN_CENTRE, OW_VALIGN_TOP, 0);
 	if (y && y->title) {
-		double lw = widest_label(cv, &p->yt, f);
+		double lw = widest_label(p, 0);
 
 		ow_canvas_text(cv, p->area.x - TICK_LEN - 0.6 * f - lw,
 		               p->area.y + 0.5 * p->area.h, y->title,
@@ -460,7 +686,7 @@ void ow_plot_marker(const struct ow_plot *p, double x, double y,
                     enum ow_marker m, double size_pt, struct ow_rgba fill,
                     struct ow_rgba edge)
 {
-	if (!isfinite(x) || !isfinite(y))
+	if (!isfinite(x) || !isfinite(y) || !mappable(p, x, y))
 		return;
 	marker_at(p->cv, ow_plot_px(p, x), ow_plot_py(p, y), m, size_pt, fill,
 	          edge);
@@ -477,7 +703,7 @@ static void line_markers(const struct ow_plot *p, const struct ow_pt2 *pts,
 	for (i = 0; i < n; i++) {
 		double X, Y;
 
-		if (!isfinite(pts[i].x) || !isfinite(pts[i].y)) {
+		if (!mappable(p, pts[i].x, pts[i].y)) {
 			have = 0;
 			continue;
 		}
@@ -510,7 +736,7 @@ void ow_plot_polyline(const struct ow_plot *p, const struct ow_pt2 *pts, int n,
 	ow_canvas_set_line_width(cv, s->width_pt);
 	ow_plot_set_dash(cv, s->dash, s->width_pt);
 	for (i = 0; i < n; i++) {
-		if (!isfinite(pts[i].x) || !isfinite(pts[i].y)) {
+		if (!mappable(p, pts[i].x, pts[i].y)) {
 			pen = 0;
 			continue;
 		}
@@ -543,6 +769,8 @@ void ow_plot_region(const struct ow_plot *p, const struct ow_pt2 *pts,
 			double X = ow_plot_px(p, pts[k].x);
 			double Y = ow_plot_py(p, pts[k].y);
 
+			if (!isfinite(X) || !isfinite(Y))
+				continue; /* <= 0 on a log axis */
 			if (i == 0)
 				ow_canvas_move_to(cv, X, Y);
 			else
@@ -623,9 +851,13 @@ static void legend_sample(struct ow_canvas *cv, double x, double y,
 	{
 		enum ow_marker m =
 		    e->marker != OW_MARK_NONE ? e->marker : e->line.marker;
+		struct ow_rgba fill = !e->swatch && e->fill.a > 0.0
+		                          ? e->fill
+		                          : ow_rgb(1, 1, 1);
+
 		marker_at(cv, x + 0.5 * sw, y, m,
-		          fmax(7.0, 2.2 + 2.8 * e->line.width_pt),
-		          ow_rgb(1, 1, 1), e->line.colour);
+		          fmax(7.0, 2.2 + 2.8 * e->line.width_pt), fill,
+		          e->line.colour);
 	}
 }
 

@@ -364,6 +364,120 @@ static void plot_frame_maps_the_ranges_onto_the_data_area(void **state)
 	ow_canvas_destroy(cv);
 }
 
+/* A base-10 logarithmic scale puts v at log10(v): the decades 10^k are
+ * equally spaced and m x 10^k (m = 2..9) lies log10(m) of a decade above
+ * 10^k (Cleveland, "The Elements of Graphing Data", 1985, on logarithms
+ * in graphs). Expected ticks over 1..1e4 written out by hand. */
+static void plot_log_ticks_over_1_to_1e4_are_decades_and_2_to_9(void **state)
+{
+	static const double dec[] = {1, 10, 100, 1000, 10000};
+	struct ow_log_ticks t;
+	int k, m, i = 0;
+
+	(void)state;
+	assert_int_equal(ow_plot_log_ticks(1.0, 1e4, 0, &t), OW_OK);
+	assert_int_equal(t.n_major, 5);
+	for (k = 0; k < 5; k++)
+		assert_abs(t.major[k], dec[k], 1e-12 * dec[k]);
+	assert_int_equal(t.n_minor, 4 * 8);
+	for (k = 0; k < 4; k++)
+		for (m = 2; m <= 9; m++, i++)
+			assert_abs(t.minor[i], m * dec[k], 1e-12 * dec[k]);
+	assert_int_equal(t.plain, 1); /* 1 .. 10000 all fit as decimals */
+	/* nice widens 3..4700 to whole decades: the same ticks */
+	assert_int_equal(ow_plot_log_ticks(3.0, 4700.0, 1, &t), OW_OK);
+	assert_int_equal(t.n_major, 5);
+	assert_abs(t.major[0], 1.0, 1e-12);
+	assert_abs(t.major[4], 1e4, 1e-8);
+	assert_int_equal(t.n_minor, 32);
+	/* not nice: only the ticks inside 3..4700 */
+	assert_int_equal(ow_plot_log_ticks(3.0, 4700.0, 0, &t), OW_OK);
+	assert_int_equal(t.n_major, 3);
+	assert_abs(t.major[0], 10.0, 1e-12);
+	assert_abs(t.minor[0], 3.0, 1e-12);
+	assert_abs(t.minor[t.n_minor - 1], 4000.0, 1e-9);
+	assert_int_equal(t.n_minor, 7 + 8 + 8 + 3);
+	/* a log scale has no place for zero, negatives or an empty range */
+	assert_int_equal(ow_plot_log_ticks(0.0, 10.0, 1, &t), OW_EARG);
+	assert_int_equal(ow_plot_log_ticks(-1.0, 10.0, 1, &t), OW_EARG);
+	assert_int_equal(ow_plot_log_ticks(10.0, 10.0, 1, &t), OW_EARG);
+	assert_int_equal(ow_plot_log_ticks(1.0, NAN, 1, &t), OW_EARG);
+	assert_int_equal(ow_plot_log_ticks(1e-30, 1e30, 1, &t), OW_EARG);
+}
+
+static void plot_log_labels_are_decimals_or_1eK_as_the_range_needs(void **state)
+{
+	char buf[32];
+	struct ow_log_ticks t;
+
+	(void)state;
+	assert_string_equal(ow_plot_format_log(buf, sizeof buf, 10000, 1),
+	                    "10000");
+	assert_string_equal(ow_plot_format_log(buf, sizeof buf, 1e4, 0), "1e4");
+	assert_string_equal(ow_plot_format_log(buf, sizeof buf, 1000, 0),
+	                    "1000");
+	assert_string_equal(ow_plot_format_log(buf, sizeof buf, 1, 0), "1");
+	assert_string_equal(ow_plot_format_log(buf, sizeof buf, 0.01, 0),
+	                    "0.01");
+	assert_string_equal(ow_plot_format_log(buf, sizeof buf, 1e-5, 0),
+	                    "1e\xe2\x88\x92"
+	                    "5");
+	assert_string_equal(ow_plot_format_log(buf, sizeof buf, 20, 0), "20");
+	assert_string_equal(ow_plot_format_log(buf, sizeof buf, 0.02, 1),
+	                    "0.02");
+	/* 1..1e5 is too wide for plain decimals everywhere */
+	assert_int_equal(ow_plot_log_ticks(1.0, 1e5, 0, &t), OW_OK);
+	assert_int_equal(t.plain, 0);
+}
+
+/* Mapping on log-log axes: ow_plot_px(v) = x + w (log10 v - log10 x0) /
+ * (log10 x1 - log10 x0), the definition of a logarithmic scale. */
+static void plot_log_axes_map_values_through_log10(void **state)
+{
+	struct ow_canvas *cv = NULL;
+	struct ow_rect box = {0, 0, 500, 360};
+	struct ow_plot_axis x = {1.3, 9000, "shear rate (1/s)", 1, 0};
+	struct ow_plot_axis y = {20, 7e4, "viscosity (Pa·s)", 1, 0};
+	struct ow_plot p;
+	unsigned char *b = NULL;
+	size_t n = 0;
+	char *svg;
+
+	(void)state;
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_SVG, 500, 360, 1.0, &cv, NULL),
+	    OW_OK);
+	assert_int_equal(ow_plot_init_log(&p, cv, &box, &x, &y, 9.0, 0.0,
+	                                  OW_PLOT_LOG_X | OW_PLOT_LOG_Y),
+	                 OW_OK);
+	assert_abs(p.x0, 1.0, 1e-12); /* nice: whole decades */
+	assert_abs(p.x1, 1e4, 1e-8);
+	assert_abs(p.y0, 10.0, 1e-12);
+	assert_abs(p.y1, 1e5, 1e-7);
+	assert_abs(ow_plot_px(&p, 1.0), p.area.x, 1e-9);
+	assert_abs(ow_plot_px(&p, 100.0), p.area.x + 0.5 * p.area.w, 1e-9);
+	assert_abs(ow_plot_px(&p, 1e4), p.area.x + p.area.w, 1e-9);
+	/* log10 2 = 0.30103 of one decade of four */
+	assert_abs(ow_plot_px(&p, 2.0),
+	           p.area.x + 0.30103 / 4.0 * p.area.w, 1e-4);
+	/* 1000 Pa·s is two decades of four above 10 */
+	assert_abs(ow_plot_py(&p, 1000.0), p.area.y + 0.5 * p.area.h, 1e-9);
+	assert_abs(ow_plot_py(&p, 5000.0),
+	           p.area.y + p.area.h * (1.0 - (log10(5000.0) - 1.0) / 4.0),
+	           1e-9);
+	assert_true(isnan(ow_plot_px(&p, 0.0))); /* no place for zero */
+	assert_int_equal(p.xt.n, 5);             /* labelled decades */
+	ow_plot_grid(&p);
+	ow_plot_axes(&p, &x, &y);
+	assert_int_equal(ow_canvas_encode(cv, &b, &n, NULL), OW_OK);
+	svg = realloc(b, n + 1);
+	svg[n] = '\0';
+	assert_non_null(strstr(svg, ">10000</text>"));
+	assert_non_null(strstr(svg, ">1e5</text>"));
+	free(svg);
+	ow_canvas_destroy(cv);
+}
+
 static double ramp(double x, double y)
 {
 	(void)y;
@@ -551,6 +665,11 @@ int main(void)
 	    cmocka_unit_test(plot_contour_leaves_out_cells_with_missing_values),
 	    cmocka_unit_test(plot_contour_levels_span_the_field),
 	    cmocka_unit_test(plot_frame_maps_the_ranges_onto_the_data_area),
+	    cmocka_unit_test(
+	        plot_log_ticks_over_1_to_1e4_are_decades_and_2_to_9),
+	    cmocka_unit_test(
+	        plot_log_labels_are_decimals_or_1eK_as_the_range_needs),
+	    cmocka_unit_test(plot_log_axes_map_values_through_log10),
 	    cmocka_unit_test(plot_filled_contours_have_no_seams),
 	    cmocka_unit_test(plot_field_region_is_tinted_and_hatched),
 	    cmocka_unit_test(plot_isolines_are_labelled_with_their_levels),
