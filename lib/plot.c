@@ -264,15 +264,33 @@ static enum ow_status axis_ticks(const struct ow_plot_axis *a, double len,
 	return OW_OK;
 }
 
+/* Ticks m x 10^k inside [lo, hi] for the mantissas mant[0..nm). */
+static void mantissa_ticks(double lo, double hi, const int *mant, int nm,
+                           struct ow_ticks *t)
+{
+	double l0 = log10(lo), l1 = log10(hi);
+	int i, k;
+
+	t->n = 0;
+	for (k = decade_of(lo); k <= decade_of(hi); k++)
+		for (i = 0; i < nm; i++) {
+			double v = (double)mant[i] * decade(k);
+
+			if (inside(v, l0, l1) && t->n < OW_PLOT_MAX_TICKS)
+				t->v[t->n++] = v;
+		}
+}
+
 /* The labelled ticks of a log axis: the decades (every n-th when there
  * are more than max), or 1, 2, 5 x 10^k when fewer than two decades lie
- * inside the range. */
+ * inside the range, or every m x 10^k when even those are fewer than
+ * two. */
 static void log_labels(const struct ow_log_ticks *l, double lo, double hi,
                        int max, struct ow_ticks *t)
 {
 	static const int mant[3] = {1, 2, 5};
-	double l0 = log10(lo), l1 = log10(hi);
-	int i, k, every;
+	static const int all[9] = {1, 2, 3, 4, 5, 6, 7, 8, 9};
+	int i, every;
 
 	memset(t, 0, sizeof *t);
 	t->step = 10.0; /* a ratio on a log axis */
@@ -282,13 +300,9 @@ static void log_labels(const struct ow_log_ticks *l, double lo, double hi,
 			t->v[t->n++] = l->major[i];
 		return;
 	}
-	for (k = decade_of(lo); k <= decade_of(hi); k++)
-		for (i = 0; i < 3; i++) {
-			double v = (double)mant[i] * decade(k);
-
-			if (inside(v, l0, l1) && t->n < OW_PLOT_MAX_TICKS)
-				t->v[t->n++] = v;
-		}
+	mantissa_ticks(lo, hi, mant, 3, t);
+	if (t->n < 2)
+		mantissa_ticks(lo, hi, all, 9, t);
 }
 
 static enum ow_status log_axis(const struct ow_plot_axis *a, double len,

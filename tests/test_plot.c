@@ -467,6 +467,25 @@ static void plot_log_axes_map_values_through_log10(void **state)
 	           1e-9);
 	assert_true(isnan(ow_plot_px(&p, 0.0))); /* no place for zero */
 	assert_int_equal(p.xt.n, 5);             /* labelled decades */
+	{ /* inside one decade the 2..9 x 10^k ticks carry the labels */
+		struct ow_plot q;
+		struct ow_plot_axis nx = {230, 780, NULL, 0, 0};
+		struct ow_plot_axis ny = {3.1, 42, NULL, 0, 0};
+
+		assert_int_equal(ow_plot_init_log(&q, cv, &box, &nx, &ny, 9.0,
+		                                  0.0, OW_PLOT_LOG_X |
+		                                           OW_PLOT_LOG_Y),
+		                 OW_OK);
+		assert_int_equal(q.xt.n, 5); /* 300, 400, ..., 700 */
+		assert_abs(q.xt.v[0], 300.0, 1e-9);
+		assert_abs(q.xt.v[4], 700.0, 1e-9);
+		assert_int_equal(q.yt.n, 3); /* 5, 10, 20 */
+		assert_abs(q.yt.v[1], 10.0, 1e-12);
+		assert_abs(ow_plot_px(&q, 400.0),
+		           q.area.x + q.area.w * log10(400.0 / 230.0) /
+		                          log10(780.0 / 230.0),
+		           1e-9);
+	}
 	ow_plot_grid(&p);
 	ow_plot_axes(&p, &x, &y);
 	assert_int_equal(ow_canvas_encode(cv, &b, &n, NULL), OW_OK);
