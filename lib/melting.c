@@ -85,6 +85,15 @@ enum ow_status ow_melting_validate(const struct ow_melting_in *in,
 	return OW_OK;
 }
 
+/* Quantities fixed by *in alone: shared by every film of one step. */
+struct film_base {
+	const struct ow_melting_in *in;
+	double vj, vbx;   /* barrel speed relative to the bed; cross-channel */
+	double heat;      /* C_s (T_m - T_s) + lambda, J/kg */
+	double ln_vj;     /* log path only: ln V_j */
+	double ln_den;    /* log path only: ln(V_bx rho_m heat) */
+};
+
 /* Quantities of one film evaluation that do not depend on mu. */
 struct film_ctx {
 	const struct ow_melting_in *in;
@@ -93,7 +102,36 @@ struct film_ctx {
 	double tf;        /* film mean temperature (T_b + T_m)/2 */
 	double heat;      /* C_s (T_m - T_s) + lambda, J/kg */
 	double x;         /* bed width for the shear rate (floored) */
+	/* log path only (in->visc_log set) */
+	double ln_at;     /* ln aT at tf: one shift per film, not per pass */
+	double ln_gv;     /* ln(aT V_j): ln of the shifted rate is ln_gv - u */
+	double cond;      /* 2 k (T_b - T_m) */
+	double ln_c;      /* ln(X / (V_bx rho_m heat)) */
 };
+
+static double slip_speed(const struct ow_melting_in *in)
+{
+	double vb = in->barrel_speed_m_s, vs = in->bed_speed_m_s;
+
+	return sqrt(vb * vb + vs * vs - 2.0 * vb * vs * cos(in->helix_rad));
+}
+
+static void film_base_init(const struct ow_melting_in *in,
+			   struct film_base *b)
+{
+	const struct ow_material *m = in->mat;
+
+	b->in = in;
+	b->vj = slip_speed(in);
+	b->vbx = in->barrel_speed_m_s * sin(in->helix_rad);
+	b->heat = m->solid_cp_J_kgK * (m->melt_temp_K - in->solid_temp_K) +
+		  m->fusion_J_kg;
+	b->ln_vj = b->ln_den = 0.0;
+	if (in->visc_log && in->film_visc_Pa_s <= 0.0) {
+		b->ln_vj = log(b->vj);
+		b->ln_den = log(b->vbx * m->melt_density_kg_m3 * b->heat);
+	}
+}
 
 /* delta^2 = [2 k (T_b - T_m) + mu V_j^2] X / (V_bx rho_m [C_s (T_m - T_s)
  * + lambda]) (Tadmor & Klein 1970, ch. 9); returns ln(delta) for the
@@ -107,6 +145,33 @@ static double film_map(const struct film_ctx *c, double u, double *mu)
 	return 0.5 * log((2.0 * m->melt_k_W_mK * c->dt +
 			  *mu * c->vj * c->vj) * c->x /
 			 (c->vbx * m->melt_density_kg_m3 * c->heat));
+}
+
+/* The same map in log space: ln mu = ln aT + ln eta_ref(ln aT + ln V_j - u)
+ * (time-temperature superposition, Dealy & Wissbrun 1990, ch. 2), so one
+ * pass costs one exp and one log1p inside the model, the exp of ln mu and
+ * one log. *dg gets the map's slope d(film_map)/du = (mu V_j^2 / (2 s))
+ * (-d ln eta / d ln gdot), s = 2 k dT + mu V_j^2, for Newton's method. */
+static double film_map_log(const struct film_ctx *c, double u, double *mu,
+			   double *dg)
+{
+	double slope, q, s;
+
+	*mu = exp(c->ln_at + ow_viscosity_log_ref(c->in->visc_log,
+						  c->ln_gv - u, &slope));
+	q = *mu * c->vj * c->vj;
+	s = c->cond + q;
+	*dg = -0.5 * slope * q / s;
+	return 0.5 * (log(s) + c->ln_c);
+}
+
+static enum ow_status film_noconv(const struct film_ctx *c, double mu,
+				  struct ow_diag *d)
+{
+	return ow_diag_set(d, OW_ENOCONV, "melting: film thickness and "
+			   "viscosity did not converge (T_b = %g K, X = %g m, "
+			   "mu = %g Pa s)", c->tf * 2.0 - c->in->mat->melt_temp_K,
+			   c->x, mu);
 }
 
 /* Film viscosity from the resin's model at gdot = V_j/delta and the film
@@ -133,17 +198,30 @@ static enum ow_status film_visc(const struct film_ctx *c, double *mu,
 			u2 = u1 + f1; /* fall back to the plain fixed point */
 		u0 = u1, f0 = f1, u1 = u2;
 	}
-	return ow_diag_set(d, OW_ENOCONV, "melting: film thickness and "
-			   "viscosity did not converge (T_b = %g K, X = %g m, "
-			   "mu = %g Pa s)", c->tf * 2.0 - c->in->mat->melt_temp_K,
-			   c->x, *mu);
+	return film_noconv(c, *mu, d);
 }
 
-static double slip_speed(const struct ow_melting_in *in)
+/* The same fixed point by Newton's method on F(u) = film_map(u) - u with
+ * the exact slope F' = dg - 1 (Press et al., Numerical Recipes, 3rd ed.
+ * 2007, section 9.4); |F'| >= (1+n)/2 keeps the steps tame. *u holds the
+ * start (a neighbouring film's ln delta) and gets the converged value; the
+ * stop rule is film_visc's, so both paths give the same film to round-off. */
+static enum ow_status film_visc_log(const struct film_ctx *c, double *u,
+				    double *mu, struct ow_diag *d)
 {
-	double vb = in->barrel_speed_m_s, vs = in->bed_speed_m_s;
+	double f, dg;
+	int it;
 
-	return sqrt(vb * vb + vs * vs - 2.0 * vb * vs * cos(in->helix_rad));
+	for (it = 0; it < FILM_MAXIT; it++) {
+		f = film_map_log(c, *u, mu, &dg) - *u;
+		if (!isfinite(f) || !positive(*mu))
+			break;
+		if (fabs(f) < FILM_TOL)
+			return OW_OK;
+		/* a slope beyond the model's range: plain fixed point */
+		*u += 1.0 - dg > 0.25 ? f / (1.0 - dg) : f;
+	}
+	return film_noconv(c, *mu, d);
 }
 
 /* Phi = V_bx rho_m delta_hat / 2 with delta = delta_hat sqrt(X), i.e.
@@ -173,25 +251,32 @@ static void film_fill(const struct film_ctx *c, double mu, double x,
 	f->bed_heat_W_m = xd * (k * c->dt + mu * vj2 / 2.0);
 }
 
-enum ow_status ow_melting_film(const struct ow_melting_in *in,
-			       double barrel_temp_K, double bed_width_m,
-			       struct ow_melting_film *f, struct ow_diag *d)
+/* Start of the log-path iteration when no neighbouring film is known: the
+ * plain path's first guess, delta = 0.1 mm. */
+#define FILM_U0 (-9.210340371976184) /* ln 1e-4 */
+
+/* ow_melting_film without the validation, for inputs already checked; *u
+ * (log path only, may be NULL) is the start of the iteration and gets the
+ * converged ln delta. */
+static enum ow_status film_at(const struct film_base *fb,
+			      double barrel_temp_K, double bed_width_m,
+			      double *u, struct ow_melting_film *f,
+			      struct ow_diag *d)
 {
+	const struct ow_melting_in *in = fb->in;
 	const struct ow_material *m = in->mat;
 	struct film_ctx c;
-	enum ow_status st = ow_melting_validate(in, d);
-	double mu = in->film_visc_Pa_s;
+	double mu = in->film_visc_Pa_s, u0 = u ? *u : FILM_U0;
+	enum ow_status st;
 
-	if (st != OW_OK)
-		return st;
 	memset(f, 0, sizeof *f);
+	memset(&c, 0, sizeof c);
 	c.in = in;
-	c.vj = slip_speed(in);
-	c.vbx = in->barrel_speed_m_s * sin(in->helix_rad);
+	c.vj = fb->vj;
+	c.vbx = fb->vbx;
 	c.dt = barrel_temp_K - m->melt_temp_K;
 	c.tf = 0.5 * (barrel_temp_K + m->melt_temp_K);
-	c.heat = m->solid_cp_J_kgK * (m->melt_temp_K - in->solid_temp_K) +
-		 m->fusion_J_kg;
+	c.heat = fb->heat;
 	c.x = bed_width_m > BED_MIN_M ? bed_width_m : BED_MIN_M;
 	f->slip_speed_m_s = c.vj;
 	f->peak_temp_K = m->melt_temp_K;
@@ -201,13 +286,38 @@ enum ow_status ow_melting_film(const struct ow_melting_in *in,
 				   "the width >= 0", barrel_temp_K, bed_width_m);
 	if (c.dt <= 0.0)
 		return OW_OK; /* no conduction-fed film: the bed does not melt */
-	if (mu <= 0.0) {
+	if (mu <= 0.0 && in->visc_log) {
+		c.ln_at = ow_viscosity_log_shift(&m->visc, c.tf);
+		c.ln_gv = c.ln_at + fb->ln_vj;
+		c.cond = 2.0 * m->melt_k_W_mK * c.dt;
+		c.ln_c = log(c.x) - fb->ln_den;
+		if (!isfinite(u0))
+			u0 = FILM_U0;
+		st = film_visc_log(&c, &u0, &mu, d);
+		if (st != OW_OK)
+			return st;
+		if (u)
+			*u = u0;
+	} else if (mu <= 0.0) {
 		st = film_visc(&c, &mu, d);
 		if (st != OW_OK)
 			return st;
 	}
 	film_fill(&c, mu, bed_width_m, f);
 	return OW_OK;
+}
+
+enum ow_status ow_melting_film(const struct ow_melting_in *in,
+			       double barrel_temp_K, double bed_width_m,
+			       struct ow_melting_film *f, struct ow_diag *d)
+{
+	struct film_base fb;
+	enum ow_status st = ow_melting_validate(in, d);
+
+	if (st != OW_OK)
+		return st;
+	film_base_init(in, &fb);
+	return film_at(&fb, barrel_temp_K, bed_width_m, NULL, f, d);
 }
 
 /* Peak of T(xi) = T_m + dT xi + B xi (1 - xi), B = mu V^2/(2k) (Bird,
@@ -233,6 +343,8 @@ struct step_ctx {
 	double flux;     /* rho_s V_sz, kg/(m^2 s) */
 	struct ow_diag *d;
 	enum ow_status st; /* first failure inside a right-hand side */
+	struct film_base fb;
+	double u;          /* ln delta of the last film: the next one's start */
 };
 
 static double lerp(double ya, double yb, double t, double dz)
@@ -255,7 +367,7 @@ static double bed_rhs(struct step_ctx *c, double t, double s,
 
 	if (!f)
 		f = &tmp;
-	st = ow_melting_film(c->in, tb, s * s, f, c->d);
+	st = film_at(&c->fb, tb, s * s, &c->u, f, c->d);
 	if (st != OW_OK && c->st == OW_OK)
 		c->st = st;
 	return -f->phi / (2.0 * h * c->flux) - dh * s / (2.0 * h);
@@ -350,7 +462,7 @@ enum ow_status ow_melting_step(const struct ow_melting_in *in,
 			       struct ow_melting_step_out *o,
 			       struct ow_diag *d)
 {
-	struct step_ctx c = {in, a, b, dz_m, 0.0, d, OW_OK};
+	struct step_ctx c = {in, a, b, dz_m, 0.0, d, OW_OK, {0}, FILM_U0};
 	struct ow_melting_film f0;
 	double s0, k1, se, fe, te = dz_m, x0 = bed_width_m, xe;
 	enum ow_status st = ow_melting_validate(in, d);
@@ -362,6 +474,7 @@ enum ow_status ow_melting_step(const struct ow_melting_in *in,
 	memset(o, 0, sizeof *o);
 	o->melted_at_m = -1.0;
 	c.flux = in->mat->solid_density_kg_m3 * in->bed_speed_m_s;
+	film_base_init(in, &c.fb);
 	if (x0 > a->width_m * (1.0 + PLUG_TOL))
 		o->plugged = 1;
 	if (x0 > a->width_m)

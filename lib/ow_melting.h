@@ -39,6 +39,11 @@ struct ow_melting_in {
 	double solid_temp_K;     /* T_s, bed core temperature (<= T_m) */
 	double film_visc_Pa_s;   /* > 0: fixed film viscosity; 0: the resin's
 				    model at gdot = V_j/delta, T = (T_b+T_m)/2 */
+	const struct ow_visc_log *visc_log; /* optional: mat->visc in log form
+				    (ow_viscosity_log_init), filled once by the
+				    caller; the film iteration then works in
+				    ln mu (same film to round-off, fewer
+				    pow calls). NULL: ow_viscosity_eval */
 };
 
 /* Local geometry and wall at one end of a step. */

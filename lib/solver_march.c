@@ -29,6 +29,8 @@ struct ctx {
 	int p;             /* flights */
 	double vb, vbz, vbx, phi, width, sinphi;
 	struct march *m;
+	struct ow_visc_log vlog;     /* the resin's viscosity in log form */
+	struct ow_melting_in melt_in; /* all but the bed speed, set once */
 	/* state */
 	enum phase ph;
 	double P;          /* pressure, Pa */
@@ -266,8 +268,7 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 				   double dz)
 {
 	const struct ow_material *mt = c->mat;
-	struct ow_melting_in in = {mt, c->vb, c->phi, c->vsz,
-				   c->ln->feed_temp_K, 0.0};
+	struct ow_melting_in *in = &c->melt_in;
 	struct ow_melting_station a, b;
 	struct ow_melting_step_out o;
 	struct ow_melt_out mo;
@@ -278,14 +279,14 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 	channel_split(c, x, &sa);
 	channel_split(c, x + dx, &sb);
 	fit_bed(c, &sa);
-	in.bed_speed_m_s = c->vsz;
+	in->bed_speed_m_s = c->vsz;
 	a = (struct ow_melting_station){sa.bed_h, sa.bed_w,
 					ow_solver_barrel(c->sv, x)};
 	b = (struct ow_melting_station){sb.bed_h, sb.bed_w,
 					ow_solver_barrel(c->sv, x + dx)};
 	if (sb.barrier && sb.bed_w < c->X)
 		b.width_m = c->X; /* the barrier reshapes the bed, not plugs */
-	st = ow_melting_step(&in, &a, &b, dz, c->X, &o, &c->sv->diag);
+	st = ow_melting_step(in, &a, &b, dz, c->X, &o, &c->sv->diag);
 	if (st != OW_OK)
 		return st;
 	mix_into_pool(c, melt_before, o.melted_kg_s, mt->melt_temp_K);
@@ -467,6 +468,13 @@ static void init_ctx(struct ctx *c, struct ow_solver *sv, double g,
 	c->vbx = c->vb * c->sinphi;
 	c->width = ow_screw_width(sc, sc->diameter_m);
 	c->m = m;
+	ow_viscosity_log_init(&c->mat->visc, &c->vlog);
+	c->melt_in.mat = c->mat;
+	c->melt_in.barrel_speed_m_s = c->vb;
+	c->melt_in.helix_rad = c->phi;
+	c->melt_in.solid_temp_K = c->ln->feed_temp_K;
+	c->melt_in.film_visc_Pa_s = 0.0; /* the resin's model */
+	c->melt_in.visc_log = &c->vlog;
 	c->P = c->ln->numerics.feed_pressure_Pa;
 	c->film_peak_K = NAN;
 	/* Melting starts where the barrel is above the melting point; the

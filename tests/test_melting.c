@@ -527,6 +527,82 @@ static void march_agrees_with_gsl_rk8pd_for_variable_properties(void **st)
 	assert_true(checked >= 5);
 }
 
+/* The log-space film iteration (ln eta from ow_viscosity_log_ref, Newton
+ * on ln delta) solves the same fixed point as the direct one (secant on
+ * ow_viscosity_eval): film, Phi and peak agree to round-off for the three
+ * viscosity forms and both shifts (illustrative parameter sets, not real
+ * grades), across bed widths down to a vanishing bed and barrel
+ * temperatures from just above T_m. A whole march agrees as well. */
+static void check_log_film(struct ow_melting_in *in,
+			   const struct ow_visc_log *lv)
+{
+	static const double tb_c[] = {111.0, 150.0, 200.0, 260.0};
+	static const double xw[] = {1.0, 0.5, 1e-2, 1e-6, 0.0};
+	struct ow_melting_film a, b;
+	size_t i, j;
+
+	for (i = 0; i < sizeof tb_c / sizeof tb_c[0]; i++)
+		for (j = 0; j < sizeof xw / sizeof xw[0]; j++) {
+			double x = xw[j] * width();
+
+			in->visc_log = NULL;
+			assert_int_equal(ow_melting_film(in, C2K(tb_c[i]), x,
+							 &a, NULL), OW_OK);
+			in->visc_log = lv;
+			assert_int_equal(ow_melting_film(in, C2K(tb_c[i]), x,
+							 &b, NULL), OW_OK);
+			assert_rel(b.visc_Pa_s, a.visc_Pa_s, 1e-10);
+			assert_rel(b.film_m, a.film_m, 1e-10);
+			assert_rel(b.phi, a.phi, 1e-10);
+			assert_rel(b.melt_rate_kg_sm, a.melt_rate_kg_sm,
+				   1e-10);
+			assert_abs(b.peak_temp_K, a.peak_temp_K, 1e-9);
+			assert_rel(b.dissipation_W_m + 1.0,
+				   a.dissipation_W_m + 1.0, 1e-10);
+		}
+}
+
+static void log_viscosity_path_gives_the_same_film(void **state)
+{
+	struct ow_material m = ldpe();
+	struct ow_melting_in in = example_in(&m);
+	struct ow_visc_log lv;
+	struct course c = {taper_length(8.0), tb_wave, w_const};
+	double gone_a, gone_b, sbr_a, sbr_b;
+	int plug_a, plug_b;
+
+	(void)state;
+	in.film_visc_Pa_s = 0.0;
+	m.visc.ref_temp_K = C2K(200.0);
+	m.visc.index = 0.35;
+	m.visc.model = OW_VISC_CARREAU_YASUDA;
+	m.visc.zero_shear_Pa_s = 5000.0;
+	m.visc.time_constant_s = 0.5;
+	m.visc.a = 2.0;
+	m.visc.shift = OW_SHIFT_ARRHENIUS;
+	m.visc.activation_J_mol = 40e3;
+	ow_viscosity_log_init(&m.visc, &lv);
+	check_log_film(&in, &lv);
+	in.visc_log = NULL;
+	sbr_a = march(&in, &c, 0.01, 300, &gone_a, &plug_a);
+	in.visc_log = &lv;
+	sbr_b = march(&in, &c, 0.01, 300, &gone_b, &plug_b);
+	assert_abs(sbr_b, sbr_a, 1e-10);
+	assert_abs(gone_b, gone_a, 1e-9);
+	assert_int_equal(plug_b, plug_a);
+	m.visc.model = OW_VISC_CROSS;
+	m.visc.critical_stress_Pa = 3e4;
+	m.visc.shift = OW_SHIFT_WLF;
+	m.visc.wlf_c1 = 4.0;
+	m.visc.wlf_c2_K = 200.0;
+	ow_viscosity_log_init(&m.visc, &lv);
+	check_log_film(&in, &lv);
+	m.visc.model = OW_VISC_POWER_LAW;
+	m.visc.consistency_Pa_sn = 8000.0;
+	ow_viscosity_log_init(&m.visc, &lv);
+	check_log_film(&in, &lv);
+}
+
 static void bad_steps_are_rejected(void **state)
 {
 	struct ow_material m = ldpe();
@@ -566,6 +642,7 @@ int main(void)
 		cmocka_unit_test(model_film_viscosity_is_self_consistent),
 		cmocka_unit_test(
 			march_agrees_with_gsl_rk8pd_for_variable_properties),
+		cmocka_unit_test(log_viscosity_path_gives_the_same_film),
 		cmocka_unit_test(bad_steps_are_rejected),
 	};
 
