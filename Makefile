@@ -124,4 +124,4 @@ install: all
 	install -m 644 lib/ow_*.h lib/opwin.h $(DESTDIR)$(PREFIX)/include/opwin
 
 -include $(LIB_OBJ:.o=.d) $(CLI_OBJ:.o=.d) $(SUP_OBJ:.o=.d) \
-         $(TESTS:=.d)
+         $(TESTS:=.d) $(BUILD)/tests/bench/bench.d
