@@ -23,19 +23,7 @@
  * round numbers chosen for the checks. */
 static struct ow_material power_law(double m, double n)
 {
-	struct ow_material r;
-
-	memset(&r, 0, sizeof r);
-	r.melt_density_kg_m3 = 760.0;
-	r.melt_cp_J_kgK = 2500.0;
-	r.melt_k_W_mK = 0.2;
-	r.visc.model = OW_VISC_POWER_LAW;
-	r.visc.consistency_Pa_sn = m;
-	r.visc.index = n;
-	r.visc.ref_temp_K = T200;
-	r.visc.shift = OW_SHIFT_ARRHENIUS;
-	r.visc.activation_J_mol = 0.0;
-	return r;
+	return ow_test_power_law_melt(m, n, 760.0);
 }
 
 /* A shear-thinning, temperature-sensitive resin (Carreau-Yasuda with an

@@ -6,6 +6,7 @@
 #include <string.h>
 
 #include "ow_config.h"
+#include "ow_material.h"
 #include "ow_screw.h"
 #include "ow_units.h"
 
@@ -72,4 +73,21 @@ struct ow_study *ow_test_study(const char *path)
 	if (ow_config_load_study(units, path, s, &d) != OW_OK)
 		fail_msg("%s", d.msg);
 	return s;
+}
+
+struct ow_material ow_test_power_law_melt(double m, double n, double rho)
+{
+	struct ow_material r;
+
+	memset(&r, 0, sizeof r);
+	r.melt_density_kg_m3 = rho;
+	r.melt_cp_J_kgK = 2500.0;
+	r.melt_k_W_mK = 0.2;
+	r.visc.model = OW_VISC_POWER_LAW;
+	r.visc.consistency_Pa_sn = m;
+	r.visc.index = n;
+	r.visc.ref_temp_K = 473.15;
+	r.visc.shift = OW_SHIFT_ARRHENIUS;
+	r.visc.activation_J_mol = 0.0;
+	return r;
 }

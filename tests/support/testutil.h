@@ -40,4 +40,10 @@ int ow_test_units_teardown(void **state);
 struct ow_study;
 struct ow_study *ow_test_study(const char *path);
 
+/* A melt-only test resin: power law m (Pa s^n), index n at 200 degC with
+ * no temperature dependence (Arrhenius, zero activation energy), melt
+ * density rho, cp 2500 J/(kg K), k 0.2 W/(m K). */
+struct ow_material;
+struct ow_material ow_test_power_law_melt(double m, double n, double rho);
+
 #endif
