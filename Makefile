@@ -29,7 +29,7 @@ TESTS    := $(TEST_SRC:tests/%.c=$(BUILD)/tests/%)
 LIBA     := $(if $(filter build,$(BUILD)),lib/libopwin.a,$(BUILD)/libopwin.a)
 OPWIN    := $(BUILD)/opwin
 
-# Debian packages (shared/LIBRARIES.md, verified on a fresh Debian 12).
+# Debian packages (verified on a fresh Debian 12).
 APT_PKGS := build-essential pkg-config libcjson-dev libudunits2-dev \
             libcairo2-dev libhpdf-dev libcmocka-dev libgsl-dev \
             fonts-dejavu-core poppler-utils valgrind

@@ -10,7 +10,7 @@
 #include "opwin.h"
 #include "ow_report.h"
 
-/* Exit codes (DESIGN.md). */
+/* Exit codes (README: 0 ok, 1 inputs, 2 usage, 3 compute, 4 output). */
 enum {
 	CLI_OK = 0,
 	CLI_INPUT = 1,   /* inputs rejected */

@@ -1,5 +1,5 @@
 /* compare_out.c - compare.json and compare.csv: machine-readable, in the
- * units their keys name (DESIGN.md's output contract), whatever system
+ * units their keys name (the output contract in the README), whatever system
  * people read. Each window reuses the window.json writer of one study. */
 #include "ow_compare.h"
 #include "text_impl.h"

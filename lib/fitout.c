@@ -1,5 +1,5 @@
 /* fitout.c - a fitted viscosity model as the `viscosity` block of a resin
- * file (DESIGN.md "A resin"), written alone or merged into a resin file. */
+ * file (README "Input files", resin), written alone or merged into a resin file. */
 #include "ow_fit.h"
 
 #include <cjson/cJSON.h>

@@ -1,5 +1,5 @@
 /* ow_results.h - machine-readable outputs: JSON and CSV texts in the units
- * their keys name (the output contract of DESIGN.md), whatever display unit
+ * their keys name (the output contract in the README), whatever display unit
  * system people read. Numbers are printed locale-independently with enough
  * digits to round-trip. Returned strings are malloc'd: the caller frees them
  * with free(). */

@@ -25,7 +25,7 @@ static void map(const char *study, const char *dir, const char *extra)
 	cli_result_free(&r);
 }
 
-/* DESIGN.md output contract of `point --json` and `--profile`. */
+/* The output contract of `point --json` and `--profile` (README). */
 static void point_json_and_profile_follow_the_contract(void **state)
 {
 	static const char *keys[] = {
@@ -42,7 +42,8 @@ static void point_json_and_profile_follow_the_contract(void **state)
 		(void)cli_json_num(j, keys[i]);
 	(void)cli_json_num(j, "melt_complete_D");
 	assert_true(cJSON_IsArray(cJSON_GetObjectItem(j, "status")));
-	/* drive power from torque: P = 2 pi N T (MODEL B9 identity) */
+	/* drive power from torque: P = 2 pi N T (rotational power, any
+	 * mechanics text) */
 	assert_rel(cli_json_num(j, "power_kW") * 1e3,
 		   2.0 * OW_PI * 50.0 / 60.0 * cli_json_num(j, "torque_Nm"),
 		   1e-9);

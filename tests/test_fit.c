@@ -673,7 +673,7 @@ static void cli_fitted_resin_passes_opwin_check(void **state)
 	assert_int_equal(remove(png), 0);
 }
 
-/* Exit codes (DESIGN.md): 1 data rejected, 2 usage, 4 output not
+/* Exit codes (README): 1 data rejected, 2 usage, 4 output not
  * written. */
 static void cli_fit_exit_codes(void **state)
 {

@@ -506,8 +506,8 @@ static double ramp(double x, double y)
 /* Filled contours drawn as stacked regions {z >= level}, each one path,
  * show no seams where cells meet: every pixel well inside a band has
  * exactly that band's colour, also on the cell edges x = 0.2, 0.33, 0.5
- * crossing the band 0..0.5 (the approach of shared/LIBRARIES.md's cairo
- * note: triangles merged under the non-zero rule). */
+ * crossing the band 0..0.5 (cells split in triangles, merged under the
+ * non-zero fill rule). */
 static void plot_filled_contours_have_no_seams(void **state)
 {
 	struct ow_canvas *cv = NULL;
