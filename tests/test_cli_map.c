@@ -59,6 +59,36 @@ static void point_json_and_profile_follow_the_contract(void **state)
 	cJSON_Delete(j);
 }
 
+/* People read their own units: the note of `point --units us` gives lb/h,
+ * psi and degF, and its output equals the SI run's converted with NIST SP
+ * 811 factors (1 lb = 0.45359237 kg). --json stays SI whatever --units. */
+static void point_note_speaks_the_chosen_units(void **state)
+{
+	struct cli_result si, us;
+	cJSON *a = cli_run_json("point " FAST " --rpm 60 --json");
+	cJSON *b = cli_run_json("point " FAST " --rpm 60 --json --units us");
+	double kg_h, lb_h;
+	(void)state;
+	cli_run("point " FAST " --rpm 60", &si);
+	cli_run("point " FAST " --rpm 60 --units us", &us);
+	assert_int_equal(si.code, 0);
+	assert_int_equal(us.code, 0);
+	assert_non_null(strstr(si.out, "kg/h"));
+	assert_non_null(strstr(si.out, "MPa"));
+	assert_non_null(strstr(us.out, "lb/h"));
+	assert_non_null(strstr(us.out, "psi"));
+	assert_non_null(strstr(us.out, "°F"));
+	kg_h = atof(strstr(si.out, "output") + 6);
+	lb_h = atof(strstr(us.out, "output") + 6);
+	assert_rel(lb_h * 0.45359237, kg_h, 2e-3); /* printed to 0.01 */
+	assert_rel(cli_json_num(a, "output_kg_h"), cli_json_num(b, "output_kg_h"),
+		   1e-12);
+	cli_result_free(&si);
+	cli_result_free(&us);
+	cJSON_Delete(a);
+	cJSON_Delete(b);
+}
+
 /* --set without a unit is read in the display system; with one it
  * converts: +18 degF as a shift is +10 K (NIST SP 811). */
 static void point_set_reads_units(void **state)
@@ -272,6 +302,7 @@ int main(void)
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(point_json_and_profile_follow_the_contract),
 		cmocka_unit_test(point_set_reads_units),
+		cmocka_unit_test(point_note_speaks_the_chosen_units),
 		cmocka_unit_test(window_corners_and_centre_are_safe),
 		cmocka_unit_test(grid_is_identical_for_any_thread_count),
 		cmocka_unit_test(refinement_matches_fine_grid_with_fewer_solves),
