@@ -273,7 +273,7 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 	struct ow_melting_step_out o;
 	struct ow_melt_out mo;
 	struct split sa, sb;
-	double melt_before = c->g - c->solid_flow, q, room, scale;
+	double melt_before = c->g - c->solid_flow, q, room, scale, pool_w;
 	enum ow_status st;
 
 	channel_split(c, x, &sa);
@@ -294,16 +294,16 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 	room = sb.barrier ? sb.melt_w : sb.bed_w - o.bed_width_m;
 	q = pool_flux(c, room, c->g - c->solid_flow, sb.bed_h);
 	scale = sb.barrier ? 1.0 : room / sb.bed_w;
+	pool_w = sb.barrier ? sb.melt_w : sb.bed_w; /* channel carrying melt */
 	st = step_pool(c, x + 0.5 * dx, dz, sb.melt_h,
-		       sb.barrier ? sb.melt_w : sb.bed_w,
-		       q * (sb.barrier ? sb.melt_w : sb.bed_w), scale, &mo);
+		       pool_w, q * pool_w, scale, &mo);
 	if (st != OW_OK)
 		return st;
 	/* film: dissipation + pressure work on the bed; heat from barrel */
 	c->m->power_W += (o.dissipation_W + c->solid_flow /
 			  mt->solid_density_kg_m3 * mo.dpdz_Pa_m * dz) * c->p;
 	c->m->flow_work_W += (c->solid_flow / mt->solid_density_kg_m3 +
-			      q * (sb.barrier ? sb.melt_w : sb.bed_w) * scale) *
+			      q * pool_w * scale) *
 			     mo.dpdz_Pa_m * dz * c->p;
 	book_barrel(c, x, o.barrel_heat_W * c->p);
 	c->P += mo.dpdz_Pa_m * dz;
