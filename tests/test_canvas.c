@@ -2,6 +2,7 @@
  * byte-identical output, SVG text, text metrics, hatching, clipping,
  * sticky errors, and the PDF back-end read back with poppler's tools. */
 #include "testutil.h"
+#include "pngutil.h"
 #include "pdfutil.h"
 
 #include <cairo.h>
@@ -168,33 +169,6 @@ static void canvas_text_width_scales_with_size_and_weight(void **state)
 	ow_canvas_destroy(cv);
 }
 
-/* Decode PNG bytes into a cairo image surface. */
-struct reader {
-	const unsigned char *b;
-	size_t n, at;
-};
-
-static cairo_status_t read_fn(void *c, unsigned char *data, unsigned len)
-{
-	struct reader *r = c;
-
-	if (r->at + len > r->n)
-		return CAIRO_STATUS_READ_ERROR;
-	memcpy(data, r->b + r->at, len);
-	r->at += len;
-	return CAIRO_STATUS_SUCCESS;
-}
-
-static cairo_surface_t *decode(const unsigned char *b, size_t n)
-{
-	struct reader r = {b, n, 0};
-	cairo_surface_t *s =
-	    cairo_image_surface_create_from_png_stream(read_fn, &r);
-
-	assert_int_equal(cairo_surface_status(s), CAIRO_STATUS_SUCCESS);
-	return s;
-}
-
 /* Grey level 0..255 and alpha of pixel (x, y). */
 static int grey_at(cairo_surface_t *s, int x, int y, int *alpha)
 {
@@ -230,7 +204,7 @@ static void canvas_hatch_draws_lines_only_inside_the_path(void **state)
 	    OW_OK);
 	hatch_scene(cv);
 	assert_int_equal(ow_canvas_encode(cv, &b, &n, NULL), OW_OK);
-	s = decode(b, n);
+	s = ow_test_png_decode(b, n);
 	for (y = 0; y < 100; y++)
 		for (x = 0; x < 100; x++) {
 			int g = grey_at(s, x, y, &a);
@@ -273,7 +247,7 @@ static void canvas_clip_keeps_paint_inside_and_restore_lifts_it(void **state)
 	ow_canvas_rect(cv, 0, 30, 40, 10);
 	ow_canvas_fill(cv);
 	assert_int_equal(ow_canvas_encode(cv, &b, &n, NULL), OW_OK);
-	s = decode(b, n);
+	s = ow_test_png_decode(b, n);
 	grey_at(s, 10, 10, &a);
 	assert_int_equal(a, 255); /* inside the clip: painted */
 	grey_at(s, 30, 10, &a);

@@ -2,6 +2,7 @@
  * published tables, contours of analytic fields, seamless filled
  * contours, the plot frame and hatched regions. */
 #include "testutil.h"
+#include "pngutil.h"
 
 #include <cairo.h>
 #include <stdlib.h>
@@ -294,35 +295,16 @@ static void plot_contour_levels_span_the_field(void **state)
 
 /* --- drawing ---------------------------------------------------------- */
 
-struct reader {
-	const unsigned char *b;
-	size_t n, at;
-};
-
-static cairo_status_t read_fn(void *c, unsigned char *data, unsigned len)
-{
-	struct reader *r = c;
-
-	if (r->at + len > r->n)
-		return CAIRO_STATUS_READ_ERROR;
-	memcpy(data, r->b + r->at, len);
-	r->at += len;
-	return CAIRO_STATUS_SUCCESS;
-}
-
 /* Encode cv as PNG and decode it into an image surface. */
 static cairo_surface_t *pixels(struct ow_canvas *cv)
 {
 	unsigned char *b = NULL;
 	size_t n = 0;
-	struct reader r;
 	cairo_surface_t *s;
 
 	assert_int_equal(ow_canvas_encode(cv, &b, &n, NULL), OW_OK);
-	r.b = b, r.n = n, r.at = 0;
-	s = cairo_image_surface_create_from_png_stream(read_fn, &r);
+	s = ow_test_png_decode(b, n);
 	free(b);
-	assert_int_equal(cairo_surface_status(s), CAIRO_STATUS_SUCCESS);
 	return s;
 }
 
