@@ -95,6 +95,25 @@ static enum ow_status parse_barrier(const struct ow_jin *j, const cJSON *o,
 	return st;
 }
 
+/* A mixer's barrier lands: a whole number 2..64, plain or as
+ * {"value", "source"} like every value. */
+static enum ow_status parse_lands(const struct ow_jin *j, const cJSON *o,
+				  const char *path, struct ow_section *s)
+{
+	char p[OW_JPATH_LEN];
+	double n = 0.0;
+	enum ow_status st = ow_jin_qty(j, o, path, "lands", OW_DIM_NONE, 0, &n);
+
+	if (st != OW_OK || !ow_jin_get(o, "lands"))
+		return st;
+	if (!(n == floor(n) && n >= 2.0 && n <= 64.0))
+		return ow_jin_fail(j, ow_jin_key(p, path, "lands"),
+				   "expected a whole number of barrier lands "
+				   "2..64, got %g", n);
+	s->lands = (int)n;
+	return OW_OK;
+}
+
 static enum ow_status parse_section(const struct ow_jin *j, const cJSON *o,
 				    const char *path, struct ow_section *s)
 {
@@ -118,9 +137,8 @@ static enum ow_status parse_section(const struct ow_jin *j, const cJSON *o,
 	if (s->type == OW_SEC_MIXER) {
 		st = ow_jin_qty(j, o, path, "gap", OW_DIM_LENGTH, req,
 				&s->gap_m);
-		if (st == OW_OK) /* optional: 0 keeps the solver's default */
-			st = ow_jin_int(j, o, path, "lands", 2, 64, 0,
-					&s->lands);
+		if (st == OW_OK) /* optional: 0 takes the screw's default */
+			st = parse_lands(j, o, path, s);
 		return st;
 	}
 	return ow_jin_qty(j, o, path, "depth", OW_DIM_LENGTH, req,

@@ -78,6 +78,7 @@ static cJSON *section_json(const struct ow_screw *s, int i)
 	if (sec->type == OW_SEC_MIXER) {
 		ok = ok && put_num(o, "depth_start_mm", sec->gap_m * 1e3);
 		ok = ok && put_num(o, "depth_end_mm", sec->gap_m * 1e3);
+		ok = ok && put_num(o, "lands", sec->lands);
 	} else {
 		ok = ok && put_num(o, "depth_start_mm",
 				   sec->depth_start_m * 1e3);

@@ -342,45 +342,48 @@ static enum ow_status step_melt(struct ctx *c, double x, double dx, double dz)
 	return OW_OK;
 }
 
-/* A mixing section as a fluted barrier mixer: the melt crosses barrier
- * lands of width e_m (the screw's flight width) through the section's gap g
- * over a total land length n L (n lands along the section), dragged across
- * by the barrel. Per land area, plane Couette-Poiseuille flow (Tadmor &
- * Gogos 2006, ch. 6): flux q = V_b g/2 - g^3 dp/(12 mu e_m), so
- *   dp = 12 mu e_m (Q/(n L) - V_b g / 2) / g^3,
- * dissipation mu V_b^2/g + g^3 (dp/e_m)^2/(12 mu) per unit land area; all of
- * it heats the melt (short element: no barrel conduction). Over one step the
- * share dx/L of the section applies. */
+/* A mixing section as a fluted barrier mixer: the melt crosses the
+ * section's barrier lands (axial, as long as the section, as wide as the
+ * screw's flight land) through its gap, dragged across by the barrel; the
+ * land flow, pressure change and shear heating are those of
+ * ow_melt_mixer_land. The heat of the lands goes into the melt, which
+ * exchanges heat with the barrel as in any section (ow_melt_mixer_step).
+ * Over one step the share dx/L of the section applies. */
 static enum ow_status step_mixer(struct ctx *c, const struct ow_section *sec,
-				 double x, double dx)
+				 double x, double dx, double dz)
 {
 	const struct ow_material *mt = c->mat;
-	double g = sec->gap_m, e = c->sc->flight_width_m;
-	double lands = sec->lands > 0 ? sec->lands : 8.0;
-	double len = lands * dx; /* land length in this step */
+	double e = c->sc->flight_width_m, share = dx / sec->length_m;
 	double q = c->g * c->p / mt->melt_density_kg_m3; /* whole screw */
-	double tb = ow_melt_bulk(c->sv->melt), mu, dp, diss, dT;
+	double mu = ow_viscosity_eval(&mt->visc, c->vb / sec->gap_m,
+				      ow_melt_bulk(c->sv->melt));
+	struct ow_mixer_land land;
+	struct ow_melt_cond mc;
+	struct ow_melt_out mo;
+	enum ow_status st;
 
 	if (e <= 0.0)
 		e = 0.1 * c->sc->diameter_m; /* land about 0.1 D: common
 						practice */
-	mu = ow_viscosity_eval(&mt->visc, c->vb / g, tb);
-	if (!isfinite(mu) || mu <= 0.0)
+	ow_melt_mixer_land(q, sec->lands, sec->length_m, sec->gap_m, e, c->vb,
+			   mu, &land);
+	if (!isfinite(land.heat_W))
 		return ow_diag_set(&c->sv->diag, OW_ECOMPUTE,
 				   "mixer at %.3f m: viscosity not finite", x);
-	/* pressure drop over the share of the section in this step */
-	dp = 12.0 * mu * e * (q / (lands * sec->length_m) - 0.5 * c->vb * g) /
-	     (g * g * g) * (dx / sec->length_m);
-	diss = (mu * c->vb * c->vb / g +
-		g * g * g * pow(dp / (dx / sec->length_m) / e, 2) /
-			(12.0 * mu)) * e * len;
-	dT = diss / (c->g * c->p * mt->melt_cp_J_kgK);
-	ow_melt_heat(c->sv->melt, dT);
-	c->m->power_W += diss - q * dp;
-	c->m->flow_work_W -= q * dp;
-	c->P -= dp;
-	if (c->vb / g > c->shear)
-		c->shear = c->vb / g;
+	melt_cond(c, x + 0.5 * dx, sec->depth_m, c->width, c->g /
+		  mt->melt_density_kg_m3, &mc);
+	st = ow_melt_mixer_step(c->sv->melt, &mc, dz,
+				land.heat_W * share / (c->p * dz), &mo,
+				&c->sv->diag);
+	if (st != OW_OK)
+		return st;
+	c->m->power_W += land.power_W * share;
+	c->m->flow_work_W += q * land.dp_Pa * share;
+	c->m->root_W += mo.root_heat_W_m * dz * c->p;
+	book_barrel(c, x, mo.barrel_heat_W_m * dz * c->p);
+	c->P += land.dp_Pa * share;
+	if (land.shear_1_s > c->shear)
+		c->shear = land.shear_1_s;
 	return OW_OK;
 }
 
@@ -443,7 +446,7 @@ static enum ow_status one_step(struct ctx *c, double x, double dx)
 	if (c->ph == PH_SOLIDS)
 		return step_solids(c, x, dz);
 	if (sec->type == OW_SEC_MIXER && c->ph == PH_MELT)
-		return step_mixer(c, sec, x, dx);
+		return step_mixer(c, sec, x, dx, dz);
 	if (c->ph == PH_MELTING)
 		return step_melting(c, x, dx, dz);
 	return step_melt(c, x, dx, dz);

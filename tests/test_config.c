@@ -10,6 +10,7 @@
 #include <sys/stat.h>
 #include <unistd.h>
 
+#include "ow_advise.h"
 #include "ow_config.h"
 
 #define DATA "tests/data/"
@@ -118,6 +119,31 @@ static void full_study_loads_screw_in_si(void **state)
 	assert_rel(s->wear[0].from_m, 12 * 0.0635, 1e-12);
 	assert_rel(s->wear[0].to_m, 24 * 0.0635, 1e-12);
 	assert_rel(s->wear[0].clearance_m, 0.5e-3, 1e-12);
+}
+
+/* A mixer without its lands takes one barrier land per 25 mm of barrel
+ * circumference (common practice: 8 on 63.5 mm) and check says so. */
+static void mixer_without_lands_takes_the_stated_default(void **state)
+{
+	struct fixture *f = *state;
+	struct ow_warning w[OW_MAX_WARNINGS];
+	const struct ow_section *mx;
+	int n, k, found = 0;
+
+	load_ok(f, DATA "study-full.json", f->a);
+	mx = &f->a->screw.sections[3];
+	assert_int_equal(mx->type, OW_SEC_MIXER);
+	assert_int_equal(mx->lands, 6);
+	assert_true(mx->lands_given);
+	f->a->screw.sections[3].lands = 0;
+	assert_int_equal(ow_screw_prepare(&f->a->screw, NULL), OW_OK);
+	assert_int_equal(mx->lands, 8);
+	assert_false(mx->lands_given);
+	assert_int_equal(ow_screw_default_lands(0.1143), 14); /* 4.5 in */
+	n = ow_advise_screw(&f->a->screw, w, OW_MAX_WARNINGS);
+	for (k = 0; k < n; k++)
+		found |= !strcmp(w[k].code, "mixer_lands");
+	assert_true(found);
 }
 
 static void full_study_loads_resin_in_si(void **state)
@@ -682,6 +708,7 @@ int main(void)
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(full_study_loads_screw_in_si),
 		cmocka_unit_test(full_study_loads_resin_in_si),
+		cmocka_unit_test(mixer_without_lands_takes_the_stated_default),
 		cmocka_unit_test(full_study_loads_line_in_si),
 		cmocka_unit_test(full_study_loads_limits_sweep_and_numerics),
 		cmocka_unit_test(value_source_objects_record_their_sources),
