@@ -423,7 +423,8 @@ static void maps_figure_maps_carry_colour_bar_titles_with_units(void **state)
 	    ">peak melt temperature (°C)</text>",
 	    ">unmelted fraction at discharge (%)</text>",
 	    ">highest pressure (MPa)</text>", ">throughput (kg/h)</text>",
-	    ">specific energy (kWh/kg)</text>"};
+	    ">specific energy (kWh/kg)</text>",
+	    ">highest zone load (% of its heating or cooling power)</text>"};
 	struct fix *f = *state;
 	int k;
 

@@ -7,6 +7,7 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "ow_classify.h"
 #include "ow_config.h"
 #include "ow_solver.h"
 #include "ow_units.h"
@@ -124,15 +125,27 @@ static void deeper_metering_gives_more_output_and_cooler_melt(void **st)
 	free(b);
 }
 
+/* Every zone of s holds its set-point whatever heat it takes (unlimited
+ * heating and cooling power). */
+static void hold_every_zone(struct ow_study *s)
+{
+	for (int i = 0; i < s->line.n_zones; i++)
+		s->line.zones[i].heating_W = s->line.zones[i].cooling_W = NAN;
+}
+
 /* A worn screw (larger flight clearance) gives less output and a hotter
- * melt at the same speed (common practice: leakage flow back over the
- * flights, sheared hard in the clearance). */
+ * melt at the same speed and barrel temperatures (common practice:
+ * leakage flow back over the flights, sheared hard in the clearance). */
 static void worn_screw_gives_less_output_and_hotter_melt(void **st)
 {
 	struct ow_study *a = ow_test_study("fixtures/studies/hdpe-sf.json");
 	struct ow_study *b = ow_test_study("fixtures/studies/hdpe-worn.json");
-	struct ow_point pa = solve(a, 80.0, NULL), pb = solve(b, 80.0, NULL);
+	struct ow_point pa, pb;
 	(void)st;
+	hold_every_zone(a);
+	hold_every_zone(b);
+	pa = solve(a, 80.0, NULL);
+	pb = solve(b, 80.0, NULL);
 	assert_true(pb.output_kg_s < pa.output_kg_s);
 	assert_true(pb.discharge_bulk_K > pa.discharge_bulk_K);
 	assert_true(pb.peak_K > pa.peak_K);
@@ -267,6 +280,52 @@ static void mixer_pressure_follows_the_land_flow_closed_form(void **st)
 	free(s);
 }
 
+/* A barrel zone is a controlled wall with finite heating and cooling
+ * power. On the demo line at 100 rpm the last zones need more cooling than
+ * they have: each such zone gives the resin exactly minus its cooling
+ * power, its control point floats above the set-point, the point says so
+ * and fails zone_control; the energy book still closes (first law,
+ * Tadmor & Gogos 2006 ch. 9). With unlimited power every zone holds its
+ * set-point, gives what it needs, and the melt leaves cooler. */
+static void zone_out_of_cooling_floats_to_the_heat_it_can_remove(void **st)
+{
+	struct ow_study *s = ow_test_study("demo/study-si.json");
+	struct ow_point pt = solve(s, 100.0, NULL), held;
+	struct ow_verdict v;
+	int i, floating = 0;
+	(void)st;
+	for (i = 0; i < s->line.n_zones; i++) {
+		const struct ow_zone *z = &s->line.zones[i];
+
+		if (!(pt.zone_floating & (1u << i))) {
+			assert_rel(pt.zone_control_K[i], pt.set_K[i], 1e-12);
+			assert_abs(pt.zone_heat_W[i], pt.zone_demand_W[i], 1e-6);
+			continue;
+		}
+		floating++;
+		assert_true(pt.zone_demand_W[i] < -z->cooling_W);
+		assert_abs(pt.zone_heat_W[i], -z->cooling_W,
+			   2e-3 * z->cooling_W + 1.0);
+		assert_true(pt.zone_control_K[i] > pt.set_K[i] + 1.0);
+	}
+	assert_true(floating >= 1);
+	assert_true(pt.flags & OW_FLAG_ZONE_FLOAT);
+	assert_true(pt.zone_load > 1.0);
+	assert_abs(pt.energy_residual, 0.0, 1e-6);
+	ow_classify(&pt, &s->line.limits, ow_screw_length(&s->screw), &v);
+	assert_true(v.bits & (1u << OW_CK_ZONE_CONTROL));
+	assert_true(v.margin[OW_CK_ZONE_CONTROL] < 0.0);
+	s->line.limits.zone_load = NAN; /* switched off: not classified */
+	ow_classify(&pt, &s->line.limits, ow_screw_length(&s->screw), &v);
+	assert_false(v.bits & (1u << OW_CK_ZONE_CONTROL));
+	hold_every_zone(s);
+	held = solve(s, 100.0, NULL);
+	assert_int_equal(held.zone_floating, 0);
+	assert_true(held.barrel_heat_W < pt.barrel_heat_W);
+	assert_true(held.discharge_bulk_K < pt.discharge_bulk_K - 5.0);
+	free(s);
+}
+
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
@@ -282,6 +341,8 @@ int main(void)
 		cmocka_unit_test(feed_capacity_follows_darnell_mol),
 		cmocka_unit_test(
 			mixer_pressure_follows_the_land_flow_closed_form),
+		cmocka_unit_test(
+			zone_out_of_cooling_floats_to_the_heat_it_can_remove),
 	};
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
 	                              ow_test_units_teardown);
