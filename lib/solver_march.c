@@ -14,8 +14,6 @@
 #include <string.h>
 
 #define OW_PI 3.14159265358979323846
-#define POOL_MIN_FRAC 1e-3 /* pool narrower than this share of W: use the
-			      limit of its flow per width */
 
 enum phase { PH_SOLIDS, PH_MELTING, PH_MELT };
 
@@ -211,23 +209,25 @@ static void fit_bed(struct ctx *c, const struct split *sp)
 		 (c->mat->solid_density_kg_m3 * sp->bed_h * sp->bed_w);
 }
 
-/* Melt pool (or barrier melt channel) over one step, with flow q_m3_s
- * carried at the channel's own width; scale is the share of the channel the
- * pool occupies (energy terms scale with it). */
+/* Melt channel, melt pool or barrier melt channel over one step: flow
+ * q_m3_s carried in a channel of its own depth and width, one side wall of
+ * which may slide down-channel at side_m_s (the solid bed beside a pool). */
 static enum ow_status step_pool(struct ctx *c, double x, double dz,
 				double depth, double width, double q,
-				double scale, struct ow_melt_out *o)
+				double side_m_s, struct ow_melt_out *o)
 {
 	struct ow_melt_cond mc;
 	enum ow_status st;
 
 	melt_cond(c, x, depth, width, q, &mc);
+	if (side_m_s > 0.0)
+		mc.vbz_m_s += ow_melt_side_drag_speed(depth, width, side_m_s);
 	st = ow_melt_step(c->sv->melt, &mc, dz, o, &c->sv->diag);
 	if (st != OW_OK)
 		return st;
-	c->m->power_W += o->power_W_m * dz * scale * c->p;
-	c->m->root_W += o->root_heat_W_m * dz * scale * c->p;
-	book_barrel(c, x, o->barrel_heat_W_m * dz * scale * c->p);
+	c->m->power_W += o->power_W_m * dz * c->p;
+	c->m->root_W += o->root_heat_W_m * dz * c->p;
+	book_barrel(c, x, o->barrel_heat_W_m * dz * c->p);
 	if (o->q_floor_used)
 		c->m->flags |= OW_FLAG_BACKFLOW;
 	if (o->max_shear_1_s > c->shear)
@@ -235,18 +235,26 @@ static enum ow_status step_pool(struct ctx *c, double x, double dz,
 	return OW_OK;
 }
 
-/* Melt flow of the pool per unit width, m^2/s: the melted mass spread over
- * the pool's width, or (pool still a sliver) its limit, the bed's own volume
- * flux per width at melt density. */
-static double pool_flux(const struct ctx *c, double room, double melt_kg_s,
-			double bed_h)
+/* The melt of one melting step: in a barrier section the melt channel
+ * carries it; otherwise the pool beside the bed, a channel of its own width
+ * W - X whose side wall, the bed, slides at V_sz (Tadmor & Klein 1970,
+ * ch. 9, convey the pool at width W - X). A pool narrower than it is deep
+ * is not yet a channel of its own: the bed filling the channel carries the
+ * pressure as the plug did (no build-up) and the pool melt stays at the
+ * melting point it entered with; an engineering choice, not from a source.
+ * *mo is zero then. */
+static enum ow_status step_melt_of_bed(struct ctx *c, double x, double dz,
+				       const struct split *sb, double bed_w,
+				       double q, struct ow_melt_out *mo)
 {
-	const struct ow_material *mt = c->mat;
+	double room = sb->bed_w - bed_w;
 
-	if (room > POOL_MIN_FRAC * c->width)
-		return melt_kg_s / mt->melt_density_kg_m3 / room;
-	return c->vsz * bed_h * mt->solid_density_kg_m3 /
-	       mt->melt_density_kg_m3;
+	if (sb->barrier)
+		return step_pool(c, x, dz, sb->melt_h, sb->melt_w, q, 0.0, mo);
+	memset(mo, 0, sizeof *mo);
+	if (room < sb->bed_h)
+		return OW_OK;
+	return step_pool(c, x, dz, sb->bed_h, room, q, c->vsz, mo);
 }
 
 /* Mix melt of mass dm_kg_s entering at temp_K into the pool of mass flow
@@ -273,7 +281,7 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 	struct ow_melting_step_out o;
 	struct ow_melt_out mo;
 	struct split sa, sb;
-	double melt_before = c->g - c->solid_flow, q, room, scale, pool_w;
+	double melt_before = c->g - c->solid_flow, q;
 	enum ow_status st;
 
 	channel_split(c, x, &sa);
@@ -291,19 +299,15 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 		return st;
 	mix_into_pool(c, melt_before, o.melted_kg_s, mt->melt_temp_K);
 	c->solid_flow = o.solid_flow_kg_s;
-	room = sb.barrier ? sb.melt_w : sb.bed_w - o.bed_width_m;
-	q = pool_flux(c, room, c->g - c->solid_flow, sb.bed_h);
-	scale = sb.barrier ? 1.0 : room / sb.bed_w;
-	pool_w = sb.barrier ? sb.melt_w : sb.bed_w; /* channel carrying melt */
-	st = step_pool(c, x + 0.5 * dx, dz, sb.melt_h,
-		       pool_w, q * pool_w, scale, &mo);
+	q = (c->g - c->solid_flow) / mt->melt_density_kg_m3;
+	st = step_melt_of_bed(c, x + 0.5 * dx, dz, &sb, o.bed_width_m, q,
+			      &mo);
 	if (st != OW_OK)
 		return st;
 	/* film: dissipation + pressure work on the bed; heat from barrel */
 	c->m->power_W += (o.dissipation_W + c->solid_flow /
 			  mt->solid_density_kg_m3 * mo.dpdz_Pa_m * dz) * c->p;
-	c->m->flow_work_W += (c->solid_flow / mt->solid_density_kg_m3 +
-			      q * pool_w * scale) *
+	c->m->flow_work_W += (c->solid_flow / mt->solid_density_kg_m3 + q) *
 			     mo.dpdz_Pa_m * dz * c->p;
 	book_barrel(c, x, o.barrel_heat_W * c->p);
 	c->P += mo.dpdz_Pa_m * dz;
@@ -333,7 +337,7 @@ static enum ow_status step_melt(struct ctx *c, double x, double dx, double dz)
 	double q = c->g / c->mat->melt_density_kg_m3;
 	enum ow_status st = step_pool(c, x + 0.5 * dx, dz,
 				      ow_screw_depth(c->sc, x + 0.5 * dx),
-				      c->width, q, 1.0, &mo);
+				      c->width, q, 0.0, &mo);
 
 	if (st != OW_OK)
 		return st;

@@ -7,6 +7,7 @@
 #include <string.h>
 
 #include "ow_config.h"
+#include "ow_melt.h"
 #include "ow_solver.h"
 #include "ow_units.h"
 
@@ -139,6 +140,104 @@ static void worn_screw_gives_less_output_and_hotter_melt(void **st)
 	free(b);
 }
 
+/* Solve s at rpm with its own set-points and copy the profile into *rows
+ * (malloc'd, the caller frees it). */
+static struct ow_point solve_profile(const struct ow_study *s, double rpm,
+				     struct ow_profile_row **rows, int *n)
+{
+	struct ow_solver *sv = NULL;
+	struct ow_point pt;
+	const struct ow_profile_row *r;
+
+	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, rpm, NULL, 0.0, &pt, NULL), OW_OK);
+	assert_false(pt.flags & OW_FLAG_NOT_CONVERGED);
+	r = ow_solver_profile(sv, n);
+	*rows = malloc(sizeof **rows * (size_t)*n);
+	assert_non_null(*rows);
+	memcpy(*rows, r, sizeof **rows * (size_t)*n);
+	ow_solver_destroy(sv);
+	return pt;
+}
+
+/* The melt pool beside the bed is a channel of its own width w = W - X,
+ * one side wall of which (the bed) slides at V_sz; for a Newtonian melt
+ * with no clearance its pressure gradient is the closed form
+ *   Q = [F_d(H/w) V_bz + F_d(w/H) V_sz] w H/2 - F_p(H/w) w H^3 G/(12 mu)
+ * (Tadmor & Klein 1970, ch. 9, pool of width W - X; Rowell & Finlayson
+ * 1922 shape factors, the side wall's by exchanging width and depth), with
+ * Q = G_m (1 - unmelt)/rho_m. Checked on every step of the constant-depth
+ * feed section where the pool is at least as wide as deep. */
+static void melt_pool_conveys_at_its_own_width(void **st)
+{
+	struct ow_study *s =
+		ow_test_study("tests/data/newtonian-plasticating.json");
+	const struct ow_screw *sc = &s->screw;
+	struct ow_profile_row *r;
+	int n, i, checked = 0;
+	double rpm = 40.0, H = 9.525e-3, mu = 1000.0;
+	double phi = ow_screw_helix(sc, sc->diameter_m);
+	double W = ow_screw_width(sc, sc->diameter_m);
+	double vbz = OW_PI * sc->diameter_m * rpm / 60.0 * cos(phi);
+	struct ow_point pt = solve_profile(s, rpm, &r, &n);
+	double vsz = pt.output_kg_s / (950.0 * H * W);
+	(void)st;
+	for (i = 1; i < n; i++) {
+		double w = W * (1.0 - r[i].sbr), h = H / w, q, g, dpdz;
+
+		if (r[i].axial_m > 10.0 * 0.0635 || r[i].sbr <= 0.0 ||
+		    r[i - 1].sbr >= 1.0 || w < H)
+			continue;
+		q = pt.output_kg_s * (1.0 - r[i].unmelt_frac) / 760.0;
+		g = 12.0 * mu *
+		    ((ow_melt_shape_fd(h) * vbz + ow_melt_shape_fd(1.0 / h) *
+		      vsz) * w * H / 2.0 - q) /
+		    (ow_melt_shape_fp(h) * w * H * H * H);
+		dpdz = (r[i].pressure_Pa - r[i - 1].pressure_Pa) /
+		       (r[i].axial_m - r[i - 1].axial_m) * sin(phi);
+		assert_rel(dpdz, g, 1e-6);
+		checked++;
+	}
+	assert_true(checked >= 20);
+	free(r);
+	free(s);
+}
+
+/* Metering-controlled screw: once the bed is gone the pressure peaks where
+ * the tapering channel's drag flow equals the throughput, F_d(H* / W) V_bz W
+ * H* / 2 = Q (Newtonian, no clearance: the gradient changes sign there;
+ * Tadmor & Klein 1970, ch. 7), and falls along the shallower metering
+ * section. The maximum lies within one station of the taper's depth H*. */
+static void pressure_peaks_where_taper_drag_equals_throughput(void **st)
+{
+	struct ow_study *s =
+		ow_test_study("tests/data/newtonian-plasticating.json");
+	const struct ow_screw *sc = &s->screw;
+	struct ow_profile_row *r;
+	int n, it;
+	double rpm = 40.0, D = sc->diameter_m, lo = 3.175e-3, hi = 9.525e-3;
+	double phi = ow_screw_helix(sc, D), W = ow_screw_width(sc, D);
+	double vbz = OW_PI * D * rpm / 60.0 * cos(phi), q, xs;
+	struct ow_point pt = solve_profile(s, rpm, &r, &n);
+	(void)st;
+	q = pt.output_kg_s / 760.0;
+	for (it = 0; it < 100; it++) { /* drag flow rises with depth */
+		double mid = 0.5 * (lo + hi);
+
+		if (ow_melt_shape_fd(mid / W) * vbz * W * mid / 2.0 < q)
+			lo = mid;
+		else
+			hi = mid;
+	}
+	xs = 10.0 * D + 6.0 * D * (9.525e-3 - lo) / (9.525e-3 - 3.175e-3);
+	assert_true(xs > 10.0 * D && xs < 16.0 * D);
+	assert_true(pt.melt_complete_m < xs - D); /* all melt by then */
+	assert_abs(pt.max_pressure_at_m, xs, D / 6.0);
+	assert_true(pt.discharge_pressure_Pa < 0.5 * pt.max_pressure_Pa);
+	free(r);
+	free(s);
+}
+
 /* With a cool feed barrel (below the melting point up to 12 D) the bed
  * starts melting at 12 D at full width. The abrupt screw compresses the
  * channel over 0.75 D there, faster than the bed can melt (Tadmor's
@@ -239,6 +338,8 @@ int main(void)
 		cmocka_unit_test(output_and_peak_rise_with_speed),
 		cmocka_unit_test(deeper_metering_gives_more_output_and_cooler_melt),
 		cmocka_unit_test(worn_screw_gives_less_output_and_hotter_melt),
+		cmocka_unit_test(melt_pool_conveys_at_its_own_width),
+		cmocka_unit_test(pressure_peaks_where_taper_drag_equals_throughput),
 		cmocka_unit_test(abrupt_compression_plugs_and_gradual_does_not),
 		cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
 		cmocka_unit_test(cold_barrel_returns_a_flagged_point),
