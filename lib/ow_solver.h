@@ -19,6 +19,9 @@
 #define OW_FLAG_BACKFLOW 0x08u      /* a band's down-channel flow floored */
 #define OW_FLAG_NO_MELTING 0x10u    /* barrel never above the melting point
 				       and no melting by dissipation */
+#define OW_FLAG_PARTIAL_FILL 0x20u  /* absolute pressure below zero somewhere:
+				       the channel cannot run full there
+				       (starved, partly filled) */
 
 /* Figures of one operating point, SI. */
 struct ow_point {

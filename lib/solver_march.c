@@ -70,8 +70,13 @@ static void book_barrel(struct ctx *c, double x, double w)
 	c->m->zone_W[zone_of(c->ln, x)] += w;
 }
 
+/* A pressure below zero cannot exist in melt: the channel cannot run full
+ * there (starved or partly filled), so the full-channel model no longer
+ * holds and the point is flagged. */
 static void note_pressure(struct ctx *c, double x)
 {
+	if (c->P < 0.0)
+		c->m->flags |= OW_FLAG_PARTIAL_FILL;
 	if (c->P > c->m->max_Pa) {
 		c->m->max_Pa = c->P;
 		c->m->max_at_m = x;
@@ -209,20 +214,36 @@ static void fit_bed(struct ctx *c, const struct split *sp)
 		 (c->mat->solid_density_kg_m3 * sp->bed_h * sp->bed_w);
 }
 
-/* Melt channel, melt pool or barrier melt channel over one step: flow
- * q_m3_s carried in a channel of its own depth and width, one side wall of
- * which may slide down-channel at side_m_s (the solid bed beside a pool). */
-static enum ow_status step_pool(struct ctx *c, double x, double dz,
-				double depth, double width, double q,
-				double side_m_s, struct ow_melt_out *o)
+/* A channel carrying melt: its depth and width, and the speed at which one
+ * side wall slides down-channel (the solid bed beside a pool; 0: none). */
+struct chan {
+	double h, w, side;
+};
+
+/* Solve the melt of flow q in channel ch at axial x; the band temperatures
+ * advance over dz (0: the pressure gradient only). */
+static enum ow_status chan_solve(struct ctx *c, double x, double dz,
+				 const struct chan *ch, double q,
+				 struct ow_melt_out *o)
 {
 	struct ow_melt_cond mc;
-	enum ow_status st;
 
-	melt_cond(c, x, depth, width, q, &mc);
-	if (side_m_s > 0.0)
-		mc.vbz_m_s += ow_melt_side_drag_speed(depth, width, side_m_s);
-	st = ow_melt_step(c->sv->melt, &mc, dz, o, &c->sv->diag);
+	melt_cond(c, x, ch->h, ch->w, q, &mc);
+	if (ch->side > 0.0)
+		mc.vbz_m_s += ow_melt_side_drag_speed(ch->h, ch->w, ch->side);
+	return ow_melt_step(c->sv->melt, &mc, dz, o, &c->sv->diag);
+}
+
+/* Melt channel, melt pool or one of a barrier's channels over one step:
+ * flow q_m3_s carried in channel ch. The bands advance over share dz, the
+ * share of the melt this channel carries; power and heat are booked over dz
+ * (share 1: the whole melt). */
+static enum ow_status step_pool(struct ctx *c, double x, double dz,
+				const struct chan *ch, double q, double share,
+				struct ow_melt_out *o)
+{
+	enum ow_status st = chan_solve(c, x, share * dz, ch, q, o);
+
 	if (st != OW_OK)
 		return st;
 	c->m->power_W += o->power_W_m * dz * c->p;
@@ -235,11 +256,109 @@ static enum ow_status step_pool(struct ctx *c, double x, double dz,
 	return OW_OK;
 }
 
-/* The melt of one melting step: in a barrier section the melt channel
- * carries it; otherwise the pool beside the bed, a channel of its own width
- * W - X whose side wall, the bed, slides at V_sz (Tadmor & Klein 1970,
- * ch. 9, convey the pool at width W - X). A pool narrower than it is deep
- * is not yet a channel of its own: the bed filling the channel carries the
+/* Pressure gradient mismatch of a barrier's two channels when the solids
+ * channel carries q1 of the melt flow q: G_1(q1) - G_2(q - q1), falling as
+ * q1 rises. Temperatures untouched. */
+static enum ow_status split_gap(struct ctx *c, double x,
+				const struct chan ch[2], double q, double q1,
+				double *gap)
+{
+	struct ow_melt_out o1, o2;
+	enum ow_status st = chan_solve(c, x, 0.0, &ch[0], q1, &o1);
+
+	if (st == OW_OK)
+		st = chan_solve(c, x, 0.0, &ch[1], q - q1, &o2);
+	*gap = o1.dpdz_Pa_m - o2.dpdz_Pa_m;
+	return st;
+}
+
+#define SPLIT_TOL 1e-6  /* gradient mismatch relative to the larger one */
+#define SPLIT_MAXIT 60
+
+/* The share of the melt flow q the solids channel carries when both
+ * channels of a barrier section, side by side under the barrel, run at one
+ * pressure gradient: parallel conduits split the flow by their drag and
+ * pressure-flow conductances (Tadmor & Klein 1970, ch. 7, applied to each
+ * channel). Illinois regula falsi (Dowell & Jarratt, BIT 11 (1971) 168) on
+ * q1 in [0, q]; a channel whose gradient cannot be matched even with all
+ * or none of the flow gets all or none of it. */
+static enum ow_status split_flow(struct ctx *c, double x,
+				 const struct chan ch[2], double q,
+				 double *q1)
+{
+	double lo = 0.0, hi = q, flo, fhi, f, g1, g2;
+	int it, side = 0;
+	enum ow_status st = split_gap(c, x, ch, q, lo, &flo);
+
+	if (st == OW_OK)
+		st = split_gap(c, x, ch, q, hi, &fhi);
+	*q1 = flo <= 0.0 ? 0.0 : q;
+	if (st != OW_OK || flo <= 0.0 || fhi >= 0.0)
+		return st;
+	for (it = 0; it < SPLIT_MAXIT; it++) {
+		*q1 = (lo * fhi - hi * flo) / (fhi - flo);
+		st = split_gap(c, x, ch, q, *q1, &f);
+		if (st != OW_OK)
+			return st;
+		g1 = fabs(flo), g2 = fabs(fhi);
+		if (fabs(f) <= SPLIT_TOL * fmax(g1, g2) || f == 0.0)
+			break;
+		if (f > 0.0) {
+			lo = *q1, flo = f;
+			if (side == 1)
+				fhi *= 0.5;
+			side = 1;
+		} else {
+			hi = *q1, fhi = f;
+			if (side == -1)
+				flo *= 0.5;
+			side = -1;
+		}
+	}
+	return OW_OK;
+}
+
+/* Melt flow q over one step of a barrier section. The solids channel holds
+ * the bed and, beside it, a pool (the whole channel once the bed is gone);
+ * the melt channel beyond the barrier flight. Both carry melt at one
+ * pressure gradient (split_flow); the bands advance in each channel over
+ * its share of the step, so the band state is the flow-weighted mix of the
+ * two. *mo gets the flow-weighted gradient (the flow work of both) and the
+ * larger shear rate. A pool beside the bed narrower than it is deep
+ * carries none. */
+static enum ow_status step_barrier(struct ctx *c, double x, double dz,
+				   const struct split *sb, double bed_w,
+				   double q, struct ow_melt_out *mo)
+{
+	struct chan ch[2] = {{sb->bed_h, sb->bed_w - bed_w,
+			      bed_w > 0.0 ? c->vsz : 0.0},
+			     {sb->melt_h, sb->melt_w, 0.0}};
+	struct ow_melt_out o;
+	double q1 = 0.0, qs[2], g = 0.0;
+	enum ow_status st = OW_OK;
+	int k;
+
+	if (!(bed_w > 0.0 && ch[0].w < ch[0].h))
+		st = split_flow(c, x, ch, q, &q1);
+	qs[0] = q1;
+	qs[1] = q - q1;
+	memset(mo, 0, sizeof *mo);
+	for (k = 0; k < 2 && st == OW_OK; k++) {
+		if (!(qs[k] > 0.0))
+			continue;
+		st = step_pool(c, x, dz, &ch[k], qs[k], qs[k] / q, &o);
+		g += o.dpdz_Pa_m * qs[k] / q;
+		mo->max_shear_1_s = fmax(mo->max_shear_1_s, o.max_shear_1_s);
+	}
+	mo->dpdz_Pa_m = g;
+	return st;
+}
+
+/* The melt of one melting step: in a barrier section see step_barrier;
+ * otherwise the pool beside the bed, a channel of its own width W - X
+ * whose side wall, the bed, slides at V_sz (Tadmor & Klein 1970, ch. 9,
+ * convey the pool at width W - X). A pool narrower than it is deep is not
+ * yet a channel of its own: the bed filling the channel carries the
  * pressure as the plug did (no build-up) and the pool melt stays at the
  * melting point it entered with; an engineering choice, not from a source.
  * *mo is zero then. */
@@ -247,14 +366,14 @@ static enum ow_status step_melt_of_bed(struct ctx *c, double x, double dz,
 				       const struct split *sb, double bed_w,
 				       double q, struct ow_melt_out *mo)
 {
-	double room = sb->bed_w - bed_w;
+	struct chan pool = {sb->bed_h, sb->bed_w - bed_w, c->vsz};
 
 	if (sb->barrier)
-		return step_pool(c, x, dz, sb->melt_h, sb->melt_w, q, 0.0, mo);
+		return step_barrier(c, x, dz, sb, bed_w, q, mo);
 	memset(mo, 0, sizeof *mo);
-	if (room < sb->bed_h)
+	if (pool.w < pool.h)
 		return OW_OK;
-	return step_pool(c, x, dz, sb->bed_h, room, q, c->vsz, mo);
+	return step_pool(c, x, dz, &pool, q, 1.0, mo);
 }
 
 /* Mix melt of mass dm_kg_s entering at temp_K into the pool of mass flow
@@ -330,15 +449,19 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 	return OW_OK;
 }
 
-/* Melt conveying over one step of a conveying section. */
+/* Melt conveying over one step of a conveying section; in a barrier
+ * section both channels carry the melt (step_barrier). */
 static enum ow_status step_melt(struct ctx *c, double x, double dx, double dz)
 {
 	struct ow_melt_out mo;
-	double q = c->g / c->mat->melt_density_kg_m3;
-	enum ow_status st = step_pool(c, x + 0.5 * dx, dz,
-				      ow_screw_depth(c->sc, x + 0.5 * dx),
-				      c->width, q, 0.0, &mo);
+	struct split sp;
+	double q = c->g / c->mat->melt_density_kg_m3, xm = x + 0.5 * dx;
+	struct chan ch = {ow_screw_depth(c->sc, xm), c->width, 0.0};
+	enum ow_status st;
 
+	channel_split(c, xm, &sp);
+	st = sp.barrier ? step_barrier(c, xm, dz, &sp, 0.0, q, &mo)
+			: step_pool(c, xm, dz, &ch, q, 1.0, &mo);
 	if (st != OW_OK)
 		return st;
 	c->m->flow_work_W += q * mo.dpdz_Pa_m * dz * c->p;
@@ -402,7 +525,7 @@ static void record(struct ctx *c, int i, double x)
 	r->axial_m = x;
 	r->depth_m = ow_screw_depth(c->sc, x);
 	r->barrel_K = ow_solver_barrel(c->sv, x);
-	r->pressure_Pa = c->P;
+	r->pressure_Pa = c->P < 0.0 ? NAN : c->P; /* no pressure below 0 */
 	r->bulk_K = c->ph == PH_SOLIDS ? NAN : bulk;
 	r->peak_K = peak;
 	r->sbr = c->ph == PH_MELTING ? c->X / c->width

@@ -6,6 +6,7 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "ow_classify.h"
 #include "ow_config.h"
 #include "ow_melt.h"
 #include "ow_solver.h"
@@ -238,6 +239,104 @@ static void pressure_peaks_where_taper_drag_equals_throughput(void **st)
 	free(s);
 }
 
+/* Drag capacity A = F_d V_bz W H/2 and pressure conductance B = F_p W H^3
+ * / (12 mu) of a Newtonian channel (Tadmor & Klein 1970, ch. 7). */
+static void channel_ab(double vbz, double w, double h, double mu, double *a,
+		       double *b)
+{
+	*a = ow_melt_shape_fd(h / w) * vbz * w * h / 2.0;
+	*b = ow_melt_shape_fp(h / w) * w * h * h * h / (12.0 * mu);
+}
+
+/* In a barrier section the solids and melt channels, side by side under
+ * the barrel, carry the melt at one pressure gradient: Q = A_1 + A_2 -
+ * (B_1 + B_2) G, each channel with the Newtonian drag and pressure flow of
+ * its own width and depth (Tadmor & Klein 1970, ch. 7). Checked on every
+ * step of the barrier section of a melt-fed Newtonian screw. */
+static void barrier_channels_share_one_gradient(void **st)
+{
+	struct ow_study *s = ow_test_study("tests/data/newtonian-barrier.json");
+	const struct ow_screw *sc = &s->screw;
+	struct ow_profile_row *r;
+	int n, i, checked = 0;
+	double rpm = 40.0, D = sc->diameter_m, mu = 1000.0;
+	double phi = ow_screw_helix(sc, D), W = ow_screw_width(sc, D);
+	double vbz = OW_PI * D * rpm / 60.0 * cos(phi), q;
+	struct ow_point pt = solve_profile(s, rpm, &r, &n);
+	(void)st;
+	q = pt.output_kg_s / 760.0;
+	for (i = 1; i < n; i++) {
+		double xm = 0.5 * (r[i].axial_m + r[i - 1].axial_m);
+		double f = (xm - 4.0 * D) / (12.0 * D), a1, b1, a2, b2, g;
+		double share = 0.1 + 0.75 * f, dpdz;
+
+		if (f <= 0.0 || f >= 1.0)
+			continue;
+		channel_ab(vbz, W * (1.0 - share), 7.0e-3 - 5.5e-3 * f, mu,
+			   &a1, &b1);
+		channel_ab(vbz, W * share, 2.0e-3 + 2.0e-3 * f, mu, &a2, &b2);
+		g = (a1 + a2 - q) / (b1 + b2);
+		assert_true(a1 - b1 * g > 0.0 && a2 - b2 * g > 0.0);
+		dpdz = (r[i].pressure_Pa - r[i - 1].pressure_Pa) /
+		       (r[i].axial_m - r[i - 1].axial_m) * sin(phi);
+		assert_rel(dpdz, g, 1e-5);
+		checked++;
+	}
+	assert_true(checked >= 70);
+	free(r);
+	free(s);
+}
+
+/* A shallow first section fed with melt cannot carry the throughput the
+ * deep section after it draws (drag flow V_bz W H/2 too small, Tadmor &
+ * Klein 1970, ch. 7): the computed pressure falls below zero there, which
+ * melt cannot hold. The point is flagged partial_fill, classified unsafe
+ * with that reason, and the profile prints no such pressure. */
+static void negative_pressure_flags_a_partly_filled_channel(void **st)
+{
+	struct ow_study *s = ow_test_study("tests/data/newtonian-barrier.json");
+	struct ow_profile_row *r;
+	struct ow_verdict v;
+	int n, i, empty = 0;
+	struct ow_point pt;
+	(void)st;
+	s->screw.sections[0].depth_m = 1.5e-3; /* shallow feed */
+	assert_int_equal(ow_screw_prepare(&s->screw, NULL), OW_OK);
+	pt = solve_profile(s, 40.0, &r, &n);
+	assert_true(pt.flags & OW_FLAG_PARTIAL_FILL);
+	ow_classify(&pt, &s->line.limits, ow_screw_length(&s->screw), &v);
+	assert_true(v.bits & (1u << OW_CK_PARTIAL_FILL));
+	for (i = 0; i < n; i++) {
+		assert_false(r[i].pressure_Pa < 0.0);
+		empty += isnan(r[i].pressure_Pa);
+	}
+	assert_true(empty > 0);
+	free(r);
+	free(s);
+}
+
+/* The barrier fixture against the single-flight screw of the same line
+ * (same zones, die and feed depth): a barrier screw delivers about the
+ * same output at a given speed (common practice), with no pressure below
+ * zero anywhere. */
+static void barrier_screw_keeps_pace_with_single_flight(void **st)
+{
+	struct ow_study *a = ow_test_study("fixtures/studies/hdpe-barrier.json");
+	struct ow_study *b = ow_test_study("fixtures/studies/hdpe-sf.json");
+	double rpm[] = {40.0, 80.0};
+	int k;
+	(void)st;
+	for (k = 0; k < 2; k++) {
+		struct ow_point pa = solve(a, rpm[k], NULL);
+		struct ow_point pb = solve(b, rpm[k], NULL);
+
+		assert_false(pa.flags & OW_FLAG_PARTIAL_FILL);
+		assert_rel(pa.output_kg_s, pb.output_kg_s, 0.15);
+	}
+	free(a);
+	free(b);
+}
+
 /* With a cool feed barrel (below the melting point up to 12 D) the bed
  * starts melting at 12 D at full width. The abrupt screw compresses the
  * channel over 0.75 D there, faster than the bed can melt (Tadmor's
@@ -340,6 +439,9 @@ int main(void)
 		cmocka_unit_test(worn_screw_gives_less_output_and_hotter_melt),
 		cmocka_unit_test(melt_pool_conveys_at_its_own_width),
 		cmocka_unit_test(pressure_peaks_where_taper_drag_equals_throughput),
+		cmocka_unit_test(barrier_channels_share_one_gradient),
+		cmocka_unit_test(negative_pressure_flags_a_partly_filled_channel),
+		cmocka_unit_test(barrier_screw_keeps_pace_with_single_flight),
 		cmocka_unit_test(abrupt_compression_plugs_and_gradual_does_not),
 		cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
 		cmocka_unit_test(cold_barrel_returns_a_flagged_point),
