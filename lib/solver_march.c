@@ -386,6 +386,32 @@ static void mix_into_pool(struct ctx *c, double before, double dm,
 	ow_melt_mix(c->sv->melt, dm / (before + dm), temp_K);
 }
 
+/* Plugging as the trade reads it, where the channel holding the bed gets
+ * shallower: the solid bed ratio there, and Tadmor's plugging number, the
+ * bed's width demand over its melting. With s = X/W, A = -dH/dz and
+ * psi_t = Phi / (rho_s V_sz sqrt(W)), the bed mass balance gives
+ * d sqrt(s)/dz = (A sqrt(s) - psi_t) / (2H) (Tadmor & Klein 1970, ch. 9),
+ * so the bed widens as it is squeezed when A sqrt(s) / psi_t > 1; for a
+ * bed filling the channel that is Tadmor's criterion psi_t <= A. */
+static void note_compression(struct ctx *c, const struct split *sa,
+			     const struct split *sb, double dz,
+			     const struct ow_melting_step_out *o, double x)
+{
+	double taper = (sa->bed_h - sb->bed_h) / dz, psi, r;
+
+	if (!(taper > 0.0) || !(o->bed_width_m > 0.0))
+		return;
+	if (o->sbr > c->m->max_sbr) {
+		c->m->max_sbr = o->sbr;
+		c->m->max_sbr_at_m = x;
+	}
+	psi = ow_melting_psi_taper(o->film.phi, c->mat->solid_density_kg_m3,
+				   c->vsz, sb->bed_w);
+	r = taper * sqrt(o->sbr) / psi;
+	if (psi > 0.0 && r > c->m->plug_ratio)
+		c->m->plug_ratio = r;
+}
+
 /* Melting over one step (Tadmor 1966): the bed melts into the pool (or the
  * barrier's melt channel), which conveys the melt and sets the pressure
  * gradient. The film's shear work beyond its dissipation is taken as
@@ -437,10 +463,7 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 		if (isnan(c->m->plug_at_m))
 			c->m->plug_at_m = x + dx;
 	}
-	if (o.sbr > c->m->max_sbr) {
-		c->m->max_sbr = o.sbr;
-		c->m->max_sbr_at_m = x + dx;
-	}
+	note_compression(c, &sa, &sb, dz, &o, x + dx);
 	if (o.melted_at_m >= 0.0) {
 		c->ph = PH_MELT;
 		c->solid_flow = 0.0;
@@ -609,6 +632,7 @@ static void init_ctx(struct ctx *c, struct ow_solver *sv, double g,
 	c->melt_from = 0.0;
 	memset(m, 0, sizeof *m);
 	m->melt_start_m = m->melt_done_m = m->plug_at_m = NAN;
+	m->max_sbr_at_m = NAN;
 	m->feed_cap_kg_s = NAN;
 	m->max_Pa = c->P;
 	m->peak_K = -INFINITY;

@@ -337,6 +337,31 @@ static void barrier_screw_keeps_pace_with_single_flight(void **st)
 	free(b);
 }
 
+/* Plugging as the trade reads it: the solid bed ratio where the channel
+ * gets shallower, and Tadmor's plugging number A sqrt(X/W) / psi_t there
+ * (>= 1: the channel compresses faster than the bed melts, Tadmor & Klein
+ * 1970 ch. 9). The abrupt fixture's 0.75 D transition, reached by a bed
+ * still unmelted, squeezes faster than it melts; the gradual 8 D taper of
+ * the single-flight fixture does not. Both readings lie in the transition. */
+static void plugging_is_read_in_the_transition(void **st)
+{
+	struct ow_study *a = ow_test_study("fixtures/studies/hdpe-abrupt.json");
+	struct ow_study *b = ow_test_study("fixtures/studies/hdpe-sf.json");
+	double D = a->screw.diameter_m;
+	struct ow_point pa = solve(a, 80.0, NULL), pb = solve(b, 80.0, NULL);
+	(void)st;
+	assert_true(pa.max_sbr > 0.0 && pa.max_sbr < 1.0);
+	assert_true(pa.max_sbr_at_m > 12.0 * D &&
+		    pa.max_sbr_at_m <= 12.75 * D + D / 6.0); /* one station */
+	assert_true(pa.plug_ratio >= 1.0);
+	assert_true(pb.max_sbr > 0.0 && pb.max_sbr < 1.0);
+	assert_true(pb.max_sbr_at_m > 6.0 * D &&
+		    pb.max_sbr_at_m <= 14.0 * D + D / 6.0);
+	assert_true(pb.plug_ratio > 0.0 && pb.plug_ratio < 1.0);
+	free(a);
+	free(b);
+}
+
 /* With a cool feed barrel (below the melting point up to 12 D) the bed
  * starts melting at 12 D at full width. The abrupt screw compresses the
  * channel over 0.75 D there, faster than the bed can melt (Tadmor's
@@ -358,8 +383,10 @@ static void abrupt_compression_plugs_and_gradual_does_not(void **st)
 	pb = solve(b, 60.0, set);
 	assert_true(pa.flags & OW_FLAG_PLUGGING);
 	assert_abs(pa.max_sbr, 1.0, 1e-9);
+	assert_true(pa.plug_ratio >= 1.0); /* psi_t <= A */
 	assert_false(pb.flags & OW_FLAG_PLUGGING);
 	assert_true(pb.max_sbr < 1.0);
+	assert_true(pb.plug_ratio < 1.0);
 	free(a);
 	free(b);
 }
@@ -442,6 +469,7 @@ int main(void)
 		cmocka_unit_test(barrier_channels_share_one_gradient),
 		cmocka_unit_test(negative_pressure_flags_a_partly_filled_channel),
 		cmocka_unit_test(barrier_screw_keeps_pace_with_single_flight),
+		cmocka_unit_test(plugging_is_read_in_the_transition),
 		cmocka_unit_test(abrupt_compression_plugs_and_gradual_does_not),
 		cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
 		cmocka_unit_test(cold_barrel_returns_a_flagged_point),
