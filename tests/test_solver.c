@@ -362,6 +362,34 @@ static void plugging_is_read_in_the_transition(void **st)
 	free(b);
 }
 
+/* The delay zone (Kacir & Tadmor, Polym. Eng. Sci. 12 (1972) 387): the
+ * melt film must grow to the flight clearance before a pool forms, which
+ * takes a contact time; a faster screw moves the plug further in that
+ * time (longer delay in diameters), a hotter first zone or a warmer feed
+ * shortens it. Melting then starts after the hopper, not at it. */
+static void delay_zone_follows_speed_wall_and_feed(void **st)
+{
+	struct ow_study *s = ow_test_study("demo/study-si.json");
+	double set[OW_MAX_ZONES], d[3], base;
+	double rpm[] = {40.0, 80.0, 120.0};
+	int i, k;
+	(void)st;
+	for (k = 0; k < 3; k++) {
+		d[k] = solve(s, rpm[k], NULL).melt_start_m;
+		assert_true(d[k] > 0.0);
+		if (k > 0)
+			assert_true(d[k] > d[k - 1]);
+	}
+	base = d[1];
+	for (i = 0; i < s->line.n_zones; i++)
+		set[i] = s->line.zones[i].set_K;
+	set[0] += 20.0;
+	assert_true(solve(s, 80.0, set).melt_start_m < base);
+	s->line.feed_temp_K += 35.0;
+	assert_true(solve(s, 80.0, NULL).melt_start_m < base);
+	free(s);
+}
+
 /* With a cool feed barrel (below the melting point up to 12 D) the bed
  * starts melting at 12 D at full width. The abrupt screw compresses the
  * channel over 0.75 D there, faster than the bed can melt (Tadmor's
@@ -470,6 +498,7 @@ int main(void)
 		cmocka_unit_test(negative_pressure_flags_a_partly_filled_channel),
 		cmocka_unit_test(barrier_screw_keeps_pace_with_single_flight),
 		cmocka_unit_test(plugging_is_read_in_the_transition),
+		cmocka_unit_test(delay_zone_follows_speed_wall_and_feed),
 		cmocka_unit_test(abrupt_compression_plugs_and_gradual_does_not),
 		cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
 		cmocka_unit_test(cold_barrel_returns_a_flagged_point),
