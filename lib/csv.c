@@ -1,5 +1,6 @@
 /* csv.c - numeric comma-separated tables with a header line. */
 #include "ow_csv.h"
+#include "ow_io.h"
 
 #include <errno.h>
 #include <math.h>
@@ -7,7 +8,7 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define CSV_MAX_BYTES (64L * 1024 * 1024) /* a lab table is far smaller */
+#define CSV_MAX_BYTES ((size_t)64 * 1024 * 1024) /* a lab table is far smaller */
 #define CSV_MAX_COLS 64
 
 /* One line of the text: [start, end) without its line break. */
@@ -243,39 +244,15 @@ fail:
 enum ow_status ow_csv_read(const char *path, struct ow_csv **out,
 			   struct ow_diag *d)
 {
-	FILE *f = fopen(path, "rb");
 	char *buf = NULL;
-	long size;
-	enum ow_status st = OW_EINPUT;
+	size_t len = 0;
+	enum ow_status st;
 
 	*out = NULL;
-	if (!f)
-		return ow_diag_set(d, OW_EINPUT, "%s: cannot be read: %s",
-				   path, strerror(errno));
-	if (fseek(f, 0, SEEK_END) != 0 || (size = ftell(f)) < 0 ||
-	    fseek(f, 0, SEEK_SET) != 0) {
-		ow_diag_set(d, OW_EINPUT, "%s: cannot be read: %s", path,
-			    strerror(errno));
-		goto fail;
-	}
-	if (size > CSV_MAX_BYTES) {
-		ow_diag_set(d, OW_EINPUT, "%s: %ld bytes is too large for a "
-			    "data table", path, size);
-		goto fail;
-	}
-	buf = malloc((size_t)size + 1);
-	if (!buf) {
-		st = ow_diag_set(d, OW_ENOMEM, "%s: out of memory", path);
-		goto fail;
-	}
-	if (fread(buf, 1, (size_t)size, f) != (size_t)size) {
-		ow_diag_set(d, OW_EINPUT, "%s: cannot be read", path);
-		goto fail;
-	}
-	st = ow_csv_parse(buf, (size_t)size, path, out, d);
-fail:
+	st = ow_io_read_file(path, CSV_MAX_BYTES, &buf, &len, d);
+	if (st == OW_OK)
+		st = ow_csv_parse(buf, len, path, out, d);
 	free(buf);
-	fclose(f);
 	return st;
 }
 

@@ -9,9 +9,10 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "ow_io.h"
 #include "ow_results.h"
 
-#define MAX_RESIN_BYTES (16L * 1024 * 1024)
+#define MAX_RESIN_BYTES ((size_t)16 * 1024 * 1024)
 
 /* Six significant digits: far finer than any fit's standard error, and
  * readable in a file people edit. */
@@ -134,7 +135,7 @@ enum ow_status ow_fit_write_block(const struct ow_viscosity *v,
 	enum ow_status st = ow_fit_block_text(v, notes, &text, d);
 
 	if (st == OW_OK)
-		st = ow_results_write_file(path, text, strlen(text), d);
+		st = ow_io_write_file(path, text, strlen(text), d);
 	free(text);
 	return st;
 }
@@ -142,27 +143,7 @@ enum ow_status ow_fit_write_block(const struct ow_viscosity *v,
 /* The whole file as a NUL-terminated string, or an input rejection. */
 static enum ow_status slurp(const char *path, char **out, struct ow_diag *d)
 {
-	FILE *f = fopen(path, "rb");
-	long size = -1;
-	char *buf = NULL;
-
-	*out = NULL;
-	if (!f)
-		return ow_diag_set(d, OW_EINPUT, "%s: cannot be read: %s",
-				   path, strerror(errno));
-	if (fseek(f, 0, SEEK_END) == 0)
-		size = ftell(f);
-	if (size >= 0 && size <= MAX_RESIN_BYTES && fseek(f, 0, SEEK_SET) == 0)
-		buf = malloc((size_t)size + 1);
-	if (buf && fread(buf, 1, (size_t)size, f) == (size_t)size) {
-		buf[size] = '\0';
-		*out = buf;
-	} else {
-		free(buf);
-	}
-	fclose(f);
-	return *out ? OW_OK
-		    : ow_diag_set(d, OW_EINPUT, "%s: cannot be read", path);
+	return ow_io_read_file(path, MAX_RESIN_BYTES, out, NULL, d);
 }
 
 /* Line of byte offset pos, for the parse error message. */
@@ -221,7 +202,7 @@ enum ow_status ow_fit_merge_into(const struct ow_viscosity *v,
 	}
 	st = print_json(root, &out, d);
 	if (st == OW_OK)
-		st = ow_results_write_file(path, out, strlen(out), d);
+		st = ow_io_write_file(path, out, strlen(out), d);
 fail:
 	cJSON_Delete(root);
 	free(text);

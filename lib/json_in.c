@@ -1,6 +1,7 @@
 /* json_in.c - one JSON input file: reading, parsing with line:column
  * messages, strict key sets and typed getters (see json_in.h). */
 #include "json_in.h"
+#include "ow_io.h"
 
 #include <errno.h>
 #include <math.h>
@@ -35,63 +36,9 @@ const char *ow_jin_index(char *out, const char *parent, int i)
 	return out;
 }
 
-/* Bitwise CRC-32 of ISO 3309 / IEEE 802.3 (reflected polynomial
- * 0xEDB88320, initial value and final xor 0xFFFFFFFF); check value
- * CRC("123456789") = 0xCBF43926 (Williams, "A painless guide to CRC error
- * detection algorithms", 1993, ch. 17). Inverting on entry and exit makes
- * the function continuable: crc(a || b) = crc32(crc32(0, a), b). */
 unsigned long ow_jin_crc32(unsigned long crc, const void *p, size_t n)
 {
-	const unsigned char *b = p;
-	int k;
-
-	crc = ~crc & 0xFFFFFFFFUL;
-	while (n--) {
-		crc ^= *b++;
-		for (k = 0; k < 8; k++) /* mask is all ones when bit 0 is set */
-			crc = (crc >> 1) ^ (0xEDB88320UL & (0UL - (crc & 1UL)));
-	}
-	return ~crc & 0xFFFFFFFFUL;
-}
-
-/* Whole file into a NUL-terminated buffer; 0 or an errno value. */
-static int slurp(const char *path, char **buf, size_t *len)
-{
-	FILE *f = fopen(path, "rb");
-	size_t cap = 4096, n = 0, got;
-	char *b, *nb;
-	int err = 0;
-
-	if (!f)
-		return errno ? errno : ENOENT;
-	if (!(b = malloc(cap))) {
-		err = ENOMEM;
-		goto fail;
-	}
-	while ((got = fread(b + n, 1, cap - 1 - n, f)) > 0) {
-		n += got;
-		if (n + 1 < cap)
-			continue;
-		if (cap > MAX_FILE_BYTES || !(nb = realloc(b, 2 * cap))) {
-			err = cap > MAX_FILE_BYTES ? EFBIG : ENOMEM;
-			goto fail;
-		}
-		b = nb;
-		cap *= 2;
-	}
-	if (ferror(f)) {
-		err = errno ? errno : EIO;
-		goto fail;
-	}
-	fclose(f);
-	b[n] = '\0';
-	*buf = b;
-	*len = n;
-	return 0;
-fail:
-	fclose(f);
-	free(b);
-	return err;
+	return ow_io_crc32(crc, p, n);
 }
 
 static enum ow_status open_error(const struct ow_jin *j, const char *who,
@@ -141,7 +88,7 @@ enum ow_status ow_jin_load(const struct ow_jin *j, const char *who,
 	const char *end = NULL;
 	char *buf = NULL;
 	size_t len = 0, bom;
-	int err = slurp(j->file, &buf, &len);
+	int err = ow_io_slurp(j->file, MAX_FILE_BYTES, &buf, &len);
 
 	*root = NULL;
 	if (err)
