@@ -438,8 +438,7 @@ int ow_io_dir_remove(const char *dir, int (*keep)(const char *name, void *ctx),
 
 		if (!strcmp(e->d_name, ".") || !strcmp(e->d_name, ".."))
 			continue;
-		if (fstatat(dfd, e->d_name, &st, AT_SYMLINK_NOFOLLOW) != 0 ||
-		    S_ISDIR(st.st_mode)) {
+		if (fstatat(dfd, e->d_name, &st, AT_SYMLINK_NOFOLLOW) != 0) {
 			stayed = 1;
 			continue;
 		}
@@ -450,7 +449,7 @@ int ow_io_dir_remove(const char *dir, int (*keep)(const char *name, void *ctx),
 				stayed = 1;
 			continue;
 		}
-		if (unlinkat(dfd, e->d_name, 0) != 0)
+		if (S_ISDIR(st.st_mode) || unlinkat(dfd, e->d_name, 0) != 0)
 			stayed = 1;
 	}
 	closedir(dp);
@@ -459,6 +458,20 @@ int ow_io_dir_remove(const char *dir, int (*keep)(const char *name, void *ctx),
 	if (stayed || rmdir(dir) != 0)
 		return -1;
 	return 0;
+}
+
+int ow_io_dir_count(const char *dir)
+{
+	DIR *dp = opendir(dir);
+	struct dirent *e;
+	int n = 0;
+
+	if (!dp)
+		return -1;
+	while ((e = readdir(dp)) != NULL)
+		n += strcmp(e->d_name, ".") && strcmp(e->d_name, "..");
+	closedir(dp);
+	return n;
 }
 
 static int by_name(const void *a, const void *b)

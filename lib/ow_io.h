@@ -93,13 +93,17 @@ enum ow_status ow_io_dir_begin(const char *dir, char *tmp, size_t n,
 enum ow_status ow_io_dir_commit(const char *tmp, const char *dir, int *old,
 				struct ow_diag *d);
 
-/* Remove folder dir: each entry for which keep() (may be NULL) returns 0 is
- * deleted; an entry keep() wants is renamed into folder dest (may be NULL:
- * kept where it is). dir itself is removed when it ends up empty. Returns
- * 0 when dir is gone, -1 when something stayed. Never follows links and
- * never descends into sub-folders (they stay). */
+/* Remove folder dir: each entry keep() (may be NULL) wants is renamed into
+ * folder dest (never over an entry of dest; NULL dest: it stays), every
+ * other file is deleted. Sub-folders keep() does not want stay (never
+ * descended into), links are deleted, never followed. dir itself is
+ * removed when it ends up empty. Returns 0 when dir is gone, -1 when
+ * something stayed. */
 int ow_io_dir_remove(const char *dir, int (*keep)(const char *name, void *ctx),
 		     void *ctx, const char *dest);
+
+/* Entries of folder dir besides "." and "..", -1 when it cannot be read. */
+int ow_io_dir_count(const char *dir);
 
 /* The names of the regular files in dir, sorted, joined by '\n' (a
  * malloc'd string: the caller frees); names starting with '.' are left
