@@ -349,15 +349,22 @@ static enum ow_status parse_viscosity(const struct ow_jin *j,
 	return st == OW_OK ? parse_shift(j, vo, p, v) : st;
 }
 
+static const char *const resin_keys[] = {
+	"notes", "name", "solid_density", "bulk_density",
+	"melt_density", "solid_heat_capacity", "melt_heat_capacity",
+	"solid_conductivity", "melt_conductivity", "melting_point",
+	"heat_of_fusion", "friction_barrel", "friction_screw",
+	"viscosity", NULL};
+
+const char *const *ow_config_resin_keys(void)
+{
+	return resin_keys;
+}
+
 static enum ow_status parse_resin(const struct ow_jin *j, const cJSON *o,
 				  const char *path, void *out)
 {
-	static const char *const keys[] = {
-		"notes", "name", "solid_density", "bulk_density",
-		"melt_density", "solid_heat_capacity", "melt_heat_capacity",
-		"solid_conductivity", "melt_conductivity", "melting_point",
-		"heat_of_fusion", "friction_barrel", "friction_screw",
-		"viscosity", NULL};
+	const char *const *keys = resin_keys;
 	struct ow_material *m = out;
 	const struct qty_field f[] = {
 		{"solid_density", OW_DIM_DENSITY, &m->solid_density_kg_m3},
