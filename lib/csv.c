@@ -106,6 +106,13 @@ static enum ow_status read_header(struct ow_csv *c, struct span line,
 					   "%s: line %d, column %d: empty "
 					   "column name in the header",
 					   c->name, lineno, i + 1);
+		if (ow_io_utf8_check(cells[i].start,
+				     (size_t)(cells[i].end - cells[i].start)) !=
+		    (size_t)(cells[i].end - cells[i].start))
+			return ow_diag_set(d, OW_EINPUT,
+					   "%s: line %d, column %d: the column "
+					   "name is not UTF-8 text", c->name,
+					   lineno, i + 1);
 		c->cols[i] = dup_span(cells[i]);
 		if (!c->cols[i])
 			return ow_diag_set(d, OW_ENOMEM, "%s: out of memory",
@@ -249,6 +256,10 @@ enum ow_status ow_csv_read(const char *path, struct ow_csv **out,
 	enum ow_status st;
 
 	*out = NULL;
+	len = strlen(path);
+	if (ow_io_utf8_check(path, len) != len) /* it is copied into outputs */
+		return ow_diag_set(d, OW_EINPUT, "%s: the file name is not "
+				   "UTF-8 text: rename the file", path);
 	st = ow_io_read_file(path, CSV_MAX_BYTES, &buf, &len, d);
 	if (st == OW_OK)
 		st = ow_csv_parse(buf, len, path, out, d);

@@ -517,6 +517,48 @@ done:
 	return text;
 }
 
+/* ---- text ------------------------------------------------------------- */
+
+/* Well-formed UTF-8 byte sequences, RFC 3629 (2003), section 4 (the
+ * "UTF8-octets" grammar): the second byte's range depends on the first. */
+size_t ow_io_utf8_check(const void *p, size_t n)
+{
+	const unsigned char *s = p;
+	size_t i = 0, k, len;
+
+	while (i < n) {
+		unsigned char c = s[i], lo = 0x80, hi = 0xBF;
+
+		if (c < 0x80) {
+			i++;
+			continue;
+		}
+		if (c >= 0xC2 && c <= 0xDF)
+			len = 2;
+		else if (c >= 0xE0 && c <= 0xEF)
+			len = 3;
+		else if (c >= 0xF0 && c <= 0xF4)
+			len = 4;
+		else
+			return i;
+		if (c == 0xE0)
+			lo = 0xA0; /* overlong */
+		else if (c == 0xED)
+			hi = 0x9F; /* surrogates */
+		else if (c == 0xF0)
+			lo = 0x90; /* overlong */
+		else if (c == 0xF4)
+			hi = 0x8F; /* above U+10FFFF */
+		if (i + len > n || s[i + 1] < lo || s[i + 1] > hi)
+			return i;
+		for (k = 2; k < len; k++)
+			if (s[i + k] < 0x80 || s[i + k] > 0xBF)
+				return i;
+		i += len;
+	}
+	return n;
+}
+
 /* ---- checksums -------------------------------------------------------- */
 
 /* Bitwise CRC-32 of ISO 3309 / IEEE 802.3 (reflected polynomial

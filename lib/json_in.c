@@ -82,15 +82,51 @@ static enum ow_status syntax_error(const struct ow_jin *j, const char *buf,
 			   "end of file)", near, k ? "\"" : "");
 }
 
+/* Every key and string under node is UTF-8 text (JSON texts are UTF-8,
+ * RFC 8259 section 8.1; a stray byte would reach study.json and the PDF). */
+static enum ow_status utf8_tree(const struct ow_jin *j, const cJSON *node,
+				const char *path)
+{
+	char p[OW_JPATH_LEN];
+	const cJSON *c;
+	size_t n, bad;
+	int i = 0;
+
+	for (c = node->child; c; c = c->next, i++) {
+		const char *at = c->string ? ow_jin_key(p, path, c->string)
+					   : ow_jin_index(p, path, i);
+
+		if (c->string && (n = strlen(c->string),
+				  ow_io_utf8_check(c->string, n) != n))
+			return ow_jin_fail(j, path[0] ? path : "(top level)",
+					   "a key is not UTF-8 text");
+		if (cJSON_IsString(c) &&
+		    (n = strlen(c->valuestring),
+		     (bad = ow_io_utf8_check(c->valuestring, n)) != n))
+			return ow_jin_fail(j, at, "not UTF-8 text (byte 0x%02X "
+					   "at byte %zu of the string)",
+					   (unsigned char)c->valuestring[bad],
+					   bad + 1);
+		if (utf8_tree(j, c, at) != OW_OK)
+			return OW_EINPUT;
+	}
+	return OW_OK;
+}
+
 enum ow_status ow_jin_load(const struct ow_jin *j, const char *who,
 			   const char *key, unsigned long *crc, cJSON **root)
 {
 	const char *end = NULL;
 	char *buf = NULL;
 	size_t len = 0, bom;
-	int err = ow_io_slurp(j->file, MAX_FILE_BYTES, &buf, &len);
+	int err;
 
 	*root = NULL;
+	len = strlen(j->file);
+	if (ow_io_utf8_check(j->file, len) != len) /* it is copied into outputs */
+		return ow_diag_set(j->d, OW_EINPUT, "%s: the file name is not "
+				   "UTF-8 text: rename the file", j->file);
+	err = ow_io_slurp(j->file, MAX_FILE_BYTES, &buf, &len);
 	if (err)
 		return open_error(j, who, key, err);
 	*crc = ow_jin_crc32(*crc, buf, len);
@@ -113,6 +149,11 @@ enum ow_status ow_jin_load(const struct ow_jin *j, const char *who,
 		return st;
 	}
 	free(buf);
+	if (utf8_tree(j, *root, "") != OW_OK) {
+		cJSON_Delete(*root);
+		*root = NULL;
+		return OW_EINPUT;
+	}
 	if (!cJSON_IsObject(*root)) {
 		cJSON_Delete(*root);
 		*root = NULL;

@@ -110,6 +110,13 @@ int ow_io_dir_count(const char *dir);
  * out. NULL when dir cannot be read. */
 char *ow_io_dir_list(const char *dir);
 
+/* ---- text ------------------------------------------------------------- */
+
+/* Offset of the first byte of p[0..n) that is not well-formed UTF-8
+ * (RFC 3629: no overlong forms, no surrogates, nothing above U+10FFFF),
+ * or n when all of it is. */
+size_t ow_io_utf8_check(const void *p, size_t n);
+
 /* ---- checksums -------------------------------------------------------- */
 
 /* CRC-32 of ISO 3309 / IEEE 802.3 continued over n bytes: start with 0. */
