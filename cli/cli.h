@@ -77,7 +77,7 @@ int cli_load_study(const char *cmd, const char *path, struct ow_units **u,
 /* --grid NxM: 0, or -1 unless both are 2..1000. */
 int cli_parse_grid(const char *s, int *n, int *m);
 
-/* A YYYY-MM-DD date with a plausible month and day? */
+/* A YYYY-MM-DD date that exists in the Gregorian calendar (year 1..9999)? */
 int cli_valid_date(const char *s);
 
 /* Today as YYYY-MM-DD (UTC), or the day of SOURCE_DATE_EPOCH when set so

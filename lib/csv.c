@@ -9,7 +9,8 @@
 #include <string.h>
 
 #define CSV_MAX_BYTES ((size_t)64 * 1024 * 1024) /* a lab table is far smaller */
-#define CSV_MAX_COLS 64
+#define CSV_MAX_COLS 1024 /* a guard against a runaway line, not a limit */
+#define CSV_MAX_CELL 256  /* bytes: a number written out in full is shorter */
 
 /* One line of the text: [start, end) without its line break. */
 struct span {
@@ -101,6 +102,12 @@ static enum ow_status read_header(struct ow_csv *c, struct span line,
 	c->n_cols = n;
 	c->header_line = lineno;
 	for (i = 0; i < n; i++) {
+		if (memchr(cells[i].start, '\0',
+			   (size_t)(cells[i].end - cells[i].start)))
+			return ow_diag_set(d, OW_EINPUT,
+					   "%s: line %d, column %d: a NUL byte "
+					   "in the column name", c->name,
+					   lineno, i + 1);
 		if (cells[i].start == cells[i].end)
 			return ow_diag_set(d, OW_EINPUT,
 					   "%s: line %d, column %d: empty "
@@ -126,7 +133,7 @@ static enum ow_status read_number(const struct ow_csv *c, struct span s,
 				  int lineno, int col, double *x,
 				  struct ow_diag *d)
 {
-	char buf[64], *end;
+	char buf[CSV_MAX_CELL + 1], *end;
 	size_t len = (size_t)(s.end - s.start);
 
 	if (len == 0)
@@ -134,8 +141,17 @@ static enum ow_status read_number(const struct ow_csv *c, struct span s,
 				   "%s: line %d, column %d (%s): empty cell: "
 				   "expected a number", c->name, lineno,
 				   col + 1, c->cols[col]);
-	if (len >= sizeof buf)
-		len = sizeof buf - 1;
+	if (memchr(s.start, '\0', len))
+		return ow_diag_set(d, OW_EINPUT,
+				   "%s: line %d, column %d (%s): a NUL byte in "
+				   "the cell: expected a number", c->name,
+				   lineno, col + 1, c->cols[col]);
+	if (len > CSV_MAX_CELL) /* never cut: a cut number is another one */
+		return ow_diag_set(d, OW_EINPUT,
+				   "%s: line %d, column %d (%s): a cell of %zu "
+				   "bytes: a number is at most %d", c->name,
+				   lineno, col + 1, c->cols[col], len,
+				   CSV_MAX_CELL);
 	memcpy(buf, s.start, len);
 	buf[len] = '\0';
 	errno = 0;

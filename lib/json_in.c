@@ -46,8 +46,7 @@ static enum ow_status open_error(const struct ow_jin *j, const char *who,
 {
 	char eb[128];
 
-	if (strerror_r(err, eb, sizeof eb))
-		snprintf(eb, sizeof eb, "error %d", err);
+	ow_io_strerror(err, eb, sizeof eb);
 	if (who)
 		return ow_diag_set(j->d, OW_EINPUT,
 				   "%s: %s: cannot open \"%s\": %s", who, key,
