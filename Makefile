@@ -69,6 +69,9 @@ $(BUILD)/%.o: %.c
 	@mkdir -p $(dir $@)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -c -o $@ $<
 
+# Tests write under their own build folder.
+$(BUILD)/tests/%.o: CPPFLAGS += -DOW_TEST_OUT='"$(BUILD)/tests"'
+
 $(BUILD)/tests/%: $(BUILD)/tests/%.o $(SUP_OBJ) $(LIBA)
 	$(CC) $(LDFLAGS) -o $@ $< $(SUP_OBJ) $(LIBA) $(LDLIBS) $(TEST_LIBS)
 
