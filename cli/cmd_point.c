@@ -133,7 +133,7 @@ static int write_profile(const struct ow_study *s, const struct ow_solver *sv,
 	rows = ow_solver_profile(sv, &n);
 	st = ow_results_profile_csv(s, rows, n, &csv, &d);
 	if (st == OW_OK)
-		st = ow_results_write_file(path, csv, strlen(csv), &d);
+		st = ow_io_write_file(path, csv, strlen(csv), &d);
 	free(csv);
 	return st == OW_OK ? CLI_OK : cli_fail("point", st, &d);
 }

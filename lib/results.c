@@ -2,6 +2,7 @@
  * writing. Units are those the keys name, never display units. */
 #include "ow_results.h"
 #include "text_impl.h"
+#include "ow_io.h"
 
 #include <cjson/cJSON.h>
 #include <errno.h>
@@ -9,7 +10,6 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
-#include <unistd.h>
 
 #define OW_PI 3.14159265358979323846
 
@@ -27,35 +27,7 @@ char *ow_fmt_double(char *buf, size_t n, double x, int json)
 enum ow_status ow_results_write_file(const char *path, const char *text,
 				     size_t len, struct ow_diag *d)
 {
-	size_t plen = strlen(path) + 32;
-	char *tmp = malloc(plen);
-	FILE *f = NULL;
-	enum ow_status st = OW_OK;
-
-	if (!tmp)
-		return ow_diag_set(d, OW_ENOMEM, "out of memory");
-	snprintf(tmp, plen, "%s.tmp%ld", path, (long)getpid());
-	f = fopen(tmp, "wb");
-	if (!f) {
-		st = ow_diag_set(d, OW_EIO, "%s: cannot write: %s", path,
-				 strerror(errno));
-		goto fail;
-	}
-	if (fwrite(text, 1, len, f) != len || fflush(f) != 0) {
-		st = ow_diag_set(d, OW_EIO, "%s: write failed: %s", path,
-				 strerror(errno));
-		fclose(f);
-		remove(tmp);
-		goto fail;
-	}
-	if (fclose(f) != 0 || rename(tmp, path) != 0) {
-		st = ow_diag_set(d, OW_EIO, "%s: cannot complete: %s", path,
-				 strerror(errno));
-		remove(tmp);
-	}
-fail:
-	free(tmp);
-	return st;
+	return ow_io_write_file(path, text, len, d);
 }
 
 static int put_num(cJSON *o, const char *key, double v)

@@ -579,7 +579,7 @@ static const char *power_mark(const char *unit, size_t *mark_len)
 		if (p[0] == '*' && p[1] == '*')
 			return p;
 		*mark_len = 0; /* ⁿ is the exponent itself */
-		if (memcmp(p, "ⁿ", strlen("ⁿ")) == 0)
+		if (strncmp(p, "ⁿ", strlen("ⁿ")) == 0) /* stops at the NUL */
 			return p;
 	}
 	return NULL;
@@ -617,6 +617,31 @@ static size_t product_sign_before(const char *base, size_t end)
 	if (end >= 3 && memcmp(base + end - 3, "⋅", 3) == 0)
 		return 3;
 	return 0;
+}
+
+int ow_units_consistency_power(const char *text, double *power)
+{
+	char buf[TEXT_MAX], e[TEXT_MAX];
+	const char *mark;
+	size_t len, mark_len;
+
+	if (!text || !trim_copy(text, buf, sizeof buf))
+		return 0;
+	mark = power_mark(buf, &mark_len);
+	if (!mark) { /* "<pressure> s": the first power */
+		*power = 1.0;
+		return number_len(buf) > 0;
+	}
+	if (mark_len == 0 || !valid_power(mark + mark_len) ||
+	    !trim_copy(mark + mark_len, e, sizeof e))
+		return 0;
+	len = strlen(e);
+	if (len >= 2 && (e[0] == '(' || e[0] == '{')) { /* "(0.41)" */
+		memmove(e, e + 1, len - 2);
+		e[len - 2] = '\0';
+	}
+	len = number_len(e);
+	return len > 0 && e[len] == '\0' && number_value(e, len, power);
 }
 
 /* Power-law consistency "<pressure unit> s^<n>" -> Pa s^n. The unit of
