@@ -36,6 +36,7 @@ static const struct group *group_of(int c)
 	switch (c) {
 	case OW_CK_PEAK_TEMP:
 	case OW_CK_MIN_MELT_TEMP:
+	case OW_CK_ZONE_CONTROL: /* barrel temperature control */
 		return &groups[0];
 	case OW_CK_UNMELT:
 	case OW_CK_MAX_SBR:

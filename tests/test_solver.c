@@ -3,6 +3,7 @@
  * every extrusion engineer expects. */
 #include "testutil.h"
 
+#include <math.h>
 #include <stdlib.h>
 #include <string.h>
 
@@ -125,15 +126,27 @@ static void deeper_metering_gives_more_output_and_cooler_melt(void **st)
 	free(b);
 }
 
+/* Every zone of s holds its set-point whatever heat it takes (unlimited
+ * heating and cooling power). */
+static void hold_every_zone(struct ow_study *s)
+{
+	for (int i = 0; i < s->line.n_zones; i++)
+		s->line.zones[i].heating_W = s->line.zones[i].cooling_W = NAN;
+}
+
 /* A worn screw (larger flight clearance) gives less output and a hotter
- * melt at the same speed (common practice: leakage flow back over the
- * flights, sheared hard in the clearance). */
+ * melt at the same speed and barrel temperatures (common practice:
+ * leakage flow back over the flights, sheared hard in the clearance). */
 static void worn_screw_gives_less_output_and_hotter_melt(void **st)
 {
 	struct ow_study *a = ow_test_study("fixtures/studies/hdpe-sf.json");
 	struct ow_study *b = ow_test_study("fixtures/studies/hdpe-worn.json");
-	struct ow_point pa = solve(a, 80.0, NULL), pb = solve(b, 80.0, NULL);
+	struct ow_point pa, pb;
 	(void)st;
+	hold_every_zone(a);
+	hold_every_zone(b);
+	pa = solve(a, 80.0, NULL);
+	pb = solve(b, 80.0, NULL);
 	assert_true(pb.output_kg_s < pa.output_kg_s);
 	assert_true(pb.discharge_bulk_K > pa.discharge_bulk_K);
 	assert_true(pb.peak_K > pa.peak_K);
@@ -483,6 +496,88 @@ static void cold_barrel_returns_a_flagged_point(void **st)
 	free(s);
 }
 
+/* The fluted mixer's pressure change against the closed form of its land
+ * flow: per unit land length q = Q/(n L) = V_b g/2 - g^3 dP/(12 mu e), so
+ * dP = 12 mu e (V_b g/2 - Q/(n L))/g^3 over the section (plane
+ * Couette-Poiseuille flow over a barrier land, Tadmor & Gogos 2006 ch. 10,
+ * Rauwendaal, Polymer Extrusion; Newtonian melt of 1000 Pa s without
+ * temperature shift, 8 lands of 2 D, gap 1 mm, land 6.35 mm, 60 rpm on
+ * 63.5 mm; inputs chosen for the check). The energy book still closes. */
+static void mixer_pressure_follows_the_land_flow_closed_form(void **st)
+{
+	struct ow_study *s = ow_test_study("tests/data/newtonian-mixer.json");
+	struct ow_solver *sv = NULL;
+	struct ow_point pt;
+	const struct ow_profile_row *r;
+	double D = 0.0635, vb = OW_PI * D, q, want, p_in = NAN, p_out = NAN;
+	int n, i;
+	(void)st;
+	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, 60.0, NULL, 0.0, &pt, NULL), OW_OK);
+	assert_false(pt.flags & OW_FLAG_NOT_CONVERGED);
+	r = ow_solver_profile(sv, &n);
+	for (i = 0; i < n; i++) {
+		if (fabs(r[i].axial_m - 8.0 * D) < 1e-9)
+			p_in = r[i].pressure_Pa;
+		if (fabs(r[i].axial_m - 10.0 * D) < 1e-9)
+			p_out = r[i].pressure_Pa;
+	}
+	q = pt.output_kg_s / 760.0;
+	want = 12.0 * 1000.0 * 6.35e-3 *
+	       (vb * 1e-3 / 2.0 - q / (8.0 * 2.0 * D)) / 1e-9;
+	assert_rel(p_out - p_in, want, 1e-6);
+	assert_true(want > 1e6); /* the lands pump: drag beats the flow */
+	assert_abs(pt.energy_residual, 0.0, 1e-6);
+	ow_solver_destroy(sv);
+	free(s);
+}
+
+/* A barrel zone is a controlled wall with finite heating and cooling
+ * power. On the demo line at 100 rpm the last zones need more cooling than
+ * they have: each such zone gives the resin exactly minus its cooling
+ * power, its control point floats above the set-point, the point says so
+ * and fails zone_control; the energy book still closes (first law,
+ * Tadmor & Gogos 2006 ch. 9). With unlimited power every zone holds its
+ * set-point, gives what it needs, and the melt leaves cooler. */
+static void zone_out_of_cooling_floats_to_the_heat_it_can_remove(void **st)
+{
+	struct ow_study *s = ow_test_study("demo/study-si.json");
+	struct ow_point pt = solve(s, 100.0, NULL), held;
+	struct ow_verdict v;
+	int i, floating = 0;
+	(void)st;
+	for (i = 0; i < s->line.n_zones; i++) {
+		const struct ow_zone *z = &s->line.zones[i];
+
+		if (!(pt.zone_floating & (1u << i))) {
+			assert_rel(pt.zone_control_K[i], pt.set_K[i], 1e-12);
+			assert_abs(pt.zone_heat_W[i], pt.zone_demand_W[i], 1e-6);
+			continue;
+		}
+		floating++;
+		assert_true(pt.zone_demand_W[i] < -z->cooling_W);
+		assert_abs(pt.zone_heat_W[i], -z->cooling_W,
+			   2e-3 * z->cooling_W + 1.0);
+		assert_true(pt.zone_control_K[i] > pt.set_K[i] + 1.0);
+	}
+	assert_true(floating >= 1);
+	assert_true(pt.flags & OW_FLAG_ZONE_FLOAT);
+	assert_true(pt.zone_load > 1.0);
+	assert_abs(pt.energy_residual, 0.0, 1e-6);
+	ow_classify(&pt, &s->line.limits, ow_screw_length(&s->screw), &v);
+	assert_true(v.bits & (1u << OW_CK_ZONE_CONTROL));
+	assert_true(v.margin[OW_CK_ZONE_CONTROL] < 0.0);
+	s->line.limits.zone_load = NAN; /* switched off: not classified */
+	ow_classify(&pt, &s->line.limits, ow_screw_length(&s->screw), &v);
+	assert_false(v.bits & (1u << OW_CK_ZONE_CONTROL));
+	hold_every_zone(s);
+	held = solve(s, 100.0, NULL);
+	assert_int_equal(held.zone_floating, 0);
+	assert_true(held.barrel_heat_W < pt.barrel_heat_W);
+	assert_true(held.discharge_bulk_K < pt.discharge_bulk_K - 5.0);
+	free(s);
+}
+
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
@@ -503,6 +598,10 @@ int main(void)
 		cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
 		cmocka_unit_test(cold_barrel_returns_a_flagged_point),
 		cmocka_unit_test(feed_capacity_follows_darnell_mol),
+		cmocka_unit_test(
+			mixer_pressure_follows_the_land_flow_closed_form),
+		cmocka_unit_test(
+			zone_out_of_cooling_floats_to_the_heat_it_can_remove),
 	};
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
 	                              ow_test_units_teardown);
