@@ -117,6 +117,14 @@ static void print_note(const struct ow_study *s, const struct ow_point *pt,
 	printf("barrel    %+.2f %s net into the resin (negative: cooling)\n",
 	       SHOW(OW_DIM_POWER, pt->barrel_heat_W));
 	print_zones(s, pt, o);
+	printf("energy    drive %.3f + barrel %+.3f + root %+.3f = enthalpy "
+	       "rise %.3f + flow work %.3f %s\n",
+	       ow_display_value(o->c.units, OW_DIM_POWER, pt->power_W),
+	       ow_display_value(o->c.units, OW_DIM_POWER, pt->barrel_heat_W),
+	       ow_display_value(o->c.units, OW_DIM_POWER, pt->root_heat_W),
+	       ow_display_value(o->c.units, OW_DIM_POWER,
+				pt->enthalpy_rise_W),
+	       SHOW(OW_DIM_POWER, pt->flow_work_W));
 	print_limit_lines(v);
 	if (pt->flags & OW_FLAG_NOT_CONVERGED)
 		printf("note      the screw-die match did not converge: "

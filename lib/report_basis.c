@@ -32,6 +32,13 @@ static const char *const methods[] = {
     "Dealy & Wissbrun (1990), Melt Rheology and its Role in Plastics "
     "Processing: the viscosity models of the resin and their shift with "
     "temperature.",
+    "Rauwendaal, Polymer Extrusion, and Tadmor & Gogos (2006): the flow "
+    "of melt over the barrier lands of a fluted mixer, drag across the "
+    "land against the pressure it builds.",
+    "Each barrel zone as a controlled wall: its control point at the "
+    "set-point behind a heat-transfer coefficient to the bore, within the "
+    "zone's heating and cooling power; a zone that needs more floats to "
+    "the temperature at which its power is enough.",
 };
 
 static const char *const left_out[] = {
@@ -47,6 +54,8 @@ static const char *const left_out[] = {
     "venting",
     "surging and every transient: start-up, changes of settings, "
     "purging",
+    "heat lost from the barrel to the room, and conduction along the "
+    "barrel between zones",
 };
 
 /* Our own words; each caution is a paragraph with a bold lead. */
