@@ -229,40 +229,54 @@ static int is_mine(const char *name, void *ctx)
 	return strcmp(name, "mine.txt") == 0;
 }
 
+/* Write text into dir/name, or check that dir/name holds want. */
+static void put_in(const char *dir, const char *name, const char *text)
+{
+	char file[300];
+
+	snprintf(file, sizeof file, "%s/%s", dir, name);
+	put(file, text);
+}
+
+static void holds_in(const char *dir, const char *name, const char *want)
+{
+	char file[300];
+
+	snprintf(file, sizeof file, "%s/%s", dir, name);
+	holds(file, want);
+}
+
+/* A new folder with a.csv holding text, put in place of dir; *old says
+ * whether a previous folder was there (then now at tmp). */
+static void new_folder(const char *dir, char *tmp, size_t n,
+		       const char *text, int *old)
+{
+	assert_int_equal(ow_io_dir_begin(dir, tmp, n, NULL), OW_OK);
+	put_in(tmp, "a.csv", text);
+	assert_int_equal(ow_io_dir_commit(tmp, dir, old, NULL), OW_OK);
+}
+
 static void a_folder_is_put_in_place_whole(void **state)
 {
 	struct fx *f = *state;
-	char dir[160], tmp[200], file[240];
+	char dir[160], tmp[200];
 	int old = 1;
 
 	snprintf(dir, sizeof dir, "%s/out", f->dir);
 	assert_int_equal(ow_io_dir_check(dir, NULL), OW_OK);
 	assert_int_equal(dotfiles(f->dir), 0); /* the check leaves nothing */
-	/* no folder yet: renamed into place */
-	assert_int_equal(ow_io_dir_begin(dir, tmp, sizeof tmp, NULL), OW_OK);
-	snprintf(file, sizeof file, "%s/a.csv", tmp);
-	put(file, "first");
-	assert_int_equal(ow_io_dir_commit(tmp, dir, &old, NULL), OW_OK);
-	assert_int_equal(old, 0);
-	snprintf(file, sizeof file, "%s/a.csv", dir);
-	holds(file, "first");
-	/* a folder there: exchanged, the previous one is at tmp */
-	snprintf(file, sizeof file, "%s/mine.txt", dir);
-	put(file, "keep");
-	assert_int_equal(ow_io_dir_begin(dir, tmp, sizeof tmp, NULL), OW_OK);
-	snprintf(file, sizeof file, "%s/a.csv", tmp);
-	put(file, "second");
-	assert_int_equal(ow_io_dir_commit(tmp, dir, &old, NULL), OW_OK);
-	assert_int_equal(old, 1);
-	snprintf(file, sizeof file, "%s/a.csv", dir);
-	holds(file, "second");
-	snprintf(file, sizeof file, "%s/a.csv", tmp);
-	holds(file, "first");
+	new_folder(dir, tmp, sizeof tmp, "first", &old);
+	assert_int_equal(old, 0); /* no folder yet: renamed into place */
+	holds_in(dir, "a.csv", "first");
+	put_in(dir, "mine.txt", "keep");
+	new_folder(dir, tmp, sizeof tmp, "second", &old);
+	assert_int_equal(old, 1); /* exchanged: the previous one is at tmp */
+	holds_in(dir, "a.csv", "second");
+	holds_in(tmp, "a.csv", "first");
 	/* the previous folder goes; what the keeper wants moves on */
 	assert_int_equal(ow_io_dir_remove(tmp, is_mine, NULL, dir), 0);
 	assert_int_equal(access(tmp, F_OK), -1);
-	snprintf(file, sizeof file, "%s/mine.txt", dir);
-	holds(file, "keep");
+	holds_in(dir, "mine.txt", "keep");
 	assert_int_equal(ow_io_dir_count(dir), 2);
 	assert_int_equal(dotfiles(f->dir), 0);
 }
