@@ -98,6 +98,7 @@ static const struct {
     FIELD(melt_complete_m),
     FIELD(max_sbr),
     FIELD(max_sbr_at_m),
+    FIELD(plug_ratio),
     FIELD(plugging_at_m),
     FIELD(power_W),
     FIELD(torque_Nm),
@@ -106,6 +107,7 @@ static const struct {
     FIELD(residence_s),
     FIELD(energy_residual),
     FIELD(feed_capacity_kg_s),
+    FIELD(zone_load),
 };
 #undef FIELD
 #define N_FIELDS ((int)(sizeof fields / sizeof fields[0]))
@@ -143,6 +145,10 @@ static void points_header(struct ow_buf *t, int n_zones)
 		md_addf(t, ",set_K_%d", k + 1);
 	for (k = 0; k < n_zones; k++)
 		md_addf(t, ",zone_heat_W_%d", k + 1);
+	for (k = 0; k < n_zones; k++)
+		md_addf(t, ",zone_demand_W_%d", k + 1);
+	for (k = 0; k < n_zones; k++)
+		md_addf(t, ",zone_control_K_%d", k + 1);
 	md_add(t, "\n");
 }
 
@@ -169,6 +175,14 @@ static void point_row(struct ow_buf *t, const struct ow_grid *g, int i,
 	for (k = 0; k < n_zones; k++) {
 		md_add(t, ",");
 		md_num(t, p->pt.zone_heat_W[k]);
+	}
+	for (k = 0; k < n_zones; k++) {
+		md_add(t, ",");
+		md_num(t, p->pt.zone_demand_W[k]);
+	}
+	for (k = 0; k < n_zones; k++) {
+		md_add(t, ",");
+		md_num(t, p->pt.zone_control_K[k]);
 	}
 	md_add(t, "\n");
 }
@@ -281,6 +295,15 @@ static enum ow_status point_read(char **c, const char *file, int line,
 	for (k = 0; k < n_zones; k++)
 		if (!md_parse_num(c[at++], &p->pt.zone_heat_W[k]))
 			goto num;
+	for (k = 0; k < n_zones; k++)
+		if (!md_parse_num(c[at++], &p->pt.zone_demand_W[k]))
+			goto num;
+	for (k = 0; k < n_zones; k++) {
+		if (!md_parse_num(c[at++], &p->pt.zone_control_K[k]))
+			goto num;
+		if (p->pt.zone_control_K[k] != p->pt.set_K[k])
+			p->pt.zone_floating |= 1u << k;
+	}
 	return OW_OK;
 num:
 	return ow_diag_set(d, OW_EINPUT,
@@ -293,7 +316,7 @@ enum ow_status md_points_read(char *text, const char *file, int n_zones,
                               struct ow_grid *g, int *n_solved,
                               struct ow_diag *d)
 {
-	int n_cols = 5 + OW_CK_LIMITS + N_FIELDS + 2 * n_zones, line = 0;
+	int n_cols = 5 + OW_CK_LIMITS + N_FIELDS + 4 * n_zones, line = 0;
 	struct ow_buf want = {0};
 	char *cur = text, *l, **cells = NULL;
 	enum ow_status st = OW_OK;

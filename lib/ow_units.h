@@ -29,6 +29,7 @@ enum ow_dim {
 	OW_DIM_TORQUE,        /* N m */
 	OW_DIM_SHEAR_RATE,    /* 1/s */
 	OW_DIM_CONSISTENCY,   /* Pa s^n: "<pressure unit> s^n" or "Pa s^0.4" */
+	OW_DIM_HEAT_TRANSFER, /* W/(m2 K), a heat-transfer coefficient */
 	OW_DIM_COUNT
 };
 

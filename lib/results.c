@@ -50,6 +50,7 @@ static cJSON *section_json(const struct ow_screw *s, int i)
 	if (sec->type == OW_SEC_MIXER) {
 		ok = ok && put_num(o, "depth_start_mm", sec->gap_m * 1e3);
 		ok = ok && put_num(o, "depth_end_mm", sec->gap_m * 1e3);
+		ok = ok && put_num(o, "lands", sec->lands);
 	} else {
 		ok = ok && put_num(o, "depth_start_mm",
 				   sec->depth_start_m * 1e3);
@@ -193,6 +194,8 @@ static double fig(const struct ow_study *s, const struct ow_point *p, int i)
 	case 16: return per_D(s, p->peak_at_m);
 	case 17: return p->energy_residual;
 	case 18: return p->feed_capacity_kg_s * 3600.0;
+	case 19: return p->plug_ratio;
+	case 20: return p->zone_load;
 	default: return NAN;
 	}
 }
@@ -203,7 +206,7 @@ static const char *const fig_keys[] = {
 	"unmelt_fraction", "melt_complete_D", "max_sbr", "power_kW",
 	"torque_Nm", "sec_kWh_kg", "barrel_heat_kW", "residence_s",
 	"melt_start_D", "max_pressure_D", "peak_temp_D", "energy_residual",
-	"feed_capacity_kg_h",
+	"feed_capacity_kg_h", "plug_ratio", "zone_load",
 };
 
 int ow_results_n_figures(void)
@@ -257,6 +260,33 @@ static int add_zones(cJSON *o, const struct ow_study *s,
 		ok = ok && put_num(z, "to_D", per_D(s, s->line.zones[i].to_m));
 		ok = ok && put_num(z, "set_C", C_OF_K(pt->set_K[i]));
 		ok = ok && put_num(z, "heat_kW", pt->zone_heat_W[i] * 1e-3);
+		ok = ok && put_num(z, "demand_kW",
+				   pt->zone_demand_W[i] * 1e-3);
+		ok = ok && put_num(z, "heating_kW",
+				   s->line.zones[i].heating_W * 1e-3);
+		ok = ok && put_num(z, "cooling_kW",
+				   s->line.zones[i].cooling_W * 1e-3);
+		ok = ok && put_num(z, "control_C",
+				   C_OF_K(pt->zone_control_K[i]));
+		ok = ok && cJSON_AddBoolToObject(
+				   z, "holds_set",
+				   !(pt->zone_floating & (1u << i))) != NULL;
+	}
+	return ok;
+}
+
+/* "zone N cannot hold set-point" for every zone that floats. */
+static int add_zone_notes(cJSON *notes, const struct ow_study *s,
+			  const struct ow_point *pt)
+{
+	char t[64];
+	int i, ok = notes != NULL;
+
+	for (i = 0; ok && i < s->line.n_zones; i++) {
+		if (!(pt->zone_floating & (1u << i)))
+			continue;
+		snprintf(t, sizeof t, "zone %d cannot hold set-point", i + 1);
+		ok = cJSON_AddItemToArray(notes, cJSON_CreateString(t));
 	}
 	return ok;
 }
@@ -292,6 +322,7 @@ enum ow_status ow_results_point_json(const struct ow_study *s,
 					      OW_FLAG_NO_MELTING),
 				 names, 8);
 	ok = ok && add_names(root, "notes", names, n);
+	ok = ok && add_zone_notes(cJSON_GetObjectItem(root, "notes"), s, pt);
 	ok = ok && put_num(root, "iterations", pt->n_iter);
 	ok = ok && add_zones(root, s, pt);
 	ok = ok && add_margins(root, v);
@@ -343,6 +374,12 @@ enum ow_status ow_results_grid_csv(const struct ow_study *s,
 		ow_text_add(&t, ",");
 		ow_text_add(&t, fig_keys[f]);
 	}
+	for (f = 0; f < s->line.n_zones; f++) {
+		char h[40];
+
+		snprintf(h, sizeof h, ",zone_%d_demand_kW", f + 1);
+		ow_text_add(&t, h);
+	}
 	ow_text_add(&t, ",status\n");
 	for (i = 0; i < g->n_rpm * g->n_axis; i++) {
 		const struct ow_grid_point *p = &g->pts[i];
@@ -354,6 +391,8 @@ enum ow_status ow_results_grid_csv(const struct ow_study *s,
 		ow_text_num(&t, C_OF_K(p->set_ref_K), 1);
 		for (f = 0; f < nf; f++)
 			ow_text_num(&t, fig(s, &p->pt, f), 1);
+		for (f = 0; f < s->line.n_zones; f++)
+			ow_text_num(&t, p->pt.zone_demand_W[f] * 1e-3, 1);
 		ow_text_status(&t, &p->v);
 		ow_text_add(&t, "\n");
 	}

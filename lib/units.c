@@ -79,6 +79,7 @@ static const char *const si_text[OW_DIM_COUNT] = {
 	[OW_DIM_TORQUE] = "N m", /* same dimension as J: both accepted */
 	[OW_DIM_SHEAR_RATE] = "1/s",
 	[OW_DIM_CONSISTENCY] = "Pa",
+	[OW_DIM_HEAT_TRANSFER] = "W/(m2 K)",
 };
 
 static const char *const expect_text[OW_DIM_COUNT] = {
@@ -108,6 +109,9 @@ static const char *const expect_text[OW_DIM_COUNT] = {
 	[OW_DIM_SHEAR_RATE] = "a shear rate such as \"100 1/s\"",
 	[OW_DIM_CONSISTENCY] = "a power-law consistency such as "
 			       "\"20000 Pa s^0.41\" or \"20 kPa s^n\"",
+	[OW_DIM_HEAT_TRANSFER] = "a heat-transfer coefficient such as "
+				 "\"2000 W/(m2 K)\" or "
+				 "\"350 BTU/(h ft2 degF)\"",
 };
 
 struct alias {
@@ -819,6 +823,7 @@ static const struct shown_unit shown_units[2][OW_DIM_COUNT] = {
 		[OW_DIM_TORQUE] = {1.0, 0.0, 0.0, "N·m"},
 		[OW_DIM_SHEAR_RATE] = {1.0, 0.0, 0.0, "1/s"},
 		[OW_DIM_CONSISTENCY] = {1.0, 0.0, 0.0, "Pa·sⁿ"},
+		[OW_DIM_HEAT_TRANSFER] = {1.0, 0.0, 0.0, "W/(m²·K)"},
 	},
 	[OW_SYS_US] = {
 		[OW_DIM_NONE] = {1.0, 0.0, 0.0, ""},
@@ -843,6 +848,9 @@ static const struct shown_unit shown_units[2][OW_DIM_COUNT] = {
 		[OW_DIM_TORQUE] = {LBF_N * FT_M, 0.0, 0.0, "lbf·ft"},
 		[OW_DIM_SHEAR_RATE] = {1.0, 0.0, 0.0, "1/s"},
 		[OW_DIM_CONSISTENCY] = {1.0, 0.0, 0.0, "Pa·sⁿ"},
+		[OW_DIM_HEAT_TRANSFER] = {BTU_J / (3600.0 * FT_M * FT_M *
+						   DEGF_K), 0.0, 0.0,
+					  "BTU/(h·ft²·°F)"},
 	},
 };
 
