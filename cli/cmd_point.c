@@ -97,13 +97,15 @@ static void print_note(const struct ow_study *s, const struct ow_point *pt,
 	       SHOW(OW_DIM_TEMPERATURE, pt->discharge_peak_K),
 	       SHOW(OW_DIM_TEMPERATURE, pt->peak_K), pt->peak_at_m / D);
 	if (isfinite(pt->melt_complete_m))
-		printf("melting   from %.1f D, complete at %.1f D; max solid bed "
-		       "ratio %.2f\n", pt->melt_start_m / D,
-		       pt->melt_complete_m / D, pt->max_sbr);
+		printf("melting   from %.2f D, complete at %.1f D; solid bed "
+		       "ratio in the transition %.2f, plugging number %.2f\n",
+		       pt->melt_start_m / D, pt->melt_complete_m / D,
+		       pt->max_sbr, pt->plug_ratio);
 	else
 		printf("melting   NOT complete: %.2f %% of the mass leaves "
-		       "unmelted; max solid bed ratio %.2f\n",
-		       100.0 * pt->unmelt_frac, pt->max_sbr);
+		       "unmelted; solid bed ratio in the transition %.2f, "
+		       "plugging number %.2f\n", 100.0 * pt->unmelt_frac,
+		       pt->max_sbr, pt->plug_ratio);
 	printf("drive     %.2f %s, torque %.0f N·m, specific energy %.3f "
 	       "kWh/kg\n", SHOW(OW_DIM_POWER, pt->power_W), pt->torque_Nm,
 	       pt->sec_J_kg / 3.6e6);
@@ -141,7 +143,7 @@ static int write_profile(const struct ow_study *s, const struct ow_solver *sv,
 	rows = ow_solver_profile(sv, &n);
 	st = ow_results_profile_csv(s, rows, n, &csv, &d);
 	if (st == OW_OK)
-		st = ow_results_write_file(path, csv, strlen(csv), &d);
+		st = ow_io_write_file(path, csv, strlen(csv), &d);
 	free(csv);
 	return st == OW_OK ? CLI_OK : cli_fail("point", st, &d);
 }

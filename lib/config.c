@@ -324,6 +324,32 @@ static enum ow_status parse_shift(const struct ow_jin *j, const cJSON *o,
 	return st;
 }
 
+/* A power-law consistency is in Pa s^n: a power of s written in its unit
+ * must be the index, else the unit says another model than the one fitted
+ * ("8000 Pa s^7" with n = 0.45). Tolerance: the index written to three
+ * decimals. */
+static enum ow_status check_consistency_power(const struct ow_jin *j,
+					      const cJSON *vo, const char *path,
+					      const struct ow_viscosity *v)
+{
+	const cJSON *c = ow_jin_get(vo, "consistency");
+	char p[OW_JPATH_LEN];
+	double power;
+
+	if (cJSON_IsObject(c))
+		c = ow_jin_get(c, "value");
+	if (ow_viscosity_validate(v, "", NULL) != OW_OK) /* said later */
+		return OW_OK;
+	if (!cJSON_IsString(c) ||
+	    !ow_units_consistency_power(c->valuestring, &power) ||
+	    fabs(power - v->index) <= 5e-4)
+		return OW_OK;
+	return ow_jin_fail(j, ow_jin_key(p, path, "consistency"),
+			   "\"%s\": the power of s (%g) is not the index "
+			   "(%g); write Pa s^n or Pa s^%g",
+			   c->valuestring, power, v->index, v->index);
+}
+
 static enum ow_status parse_viscosity(const struct ow_jin *j,
 				      const cJSON *o, const char *path,
 				      struct ow_viscosity *v)
@@ -364,18 +390,29 @@ static enum ow_status parse_viscosity(const struct ow_jin *j,
 			st = ow_jin_qty(j, vo, p, f[i].key, f[i].dim,
 					OW_JIN_REQUIRED, f[i].out);
 	}
-	return st == OW_OK ? parse_shift(j, vo, p, v) : st;
+	if (st == OW_OK)
+		st = parse_shift(j, vo, p, v);
+	if (st == OW_OK && v->model == OW_VISC_POWER_LAW)
+		st = check_consistency_power(j, vo, p, v);
+	return st;
+}
+
+static const char *const resin_keys[] = {
+	"notes", "name", "solid_density", "bulk_density",
+	"melt_density", "solid_heat_capacity", "melt_heat_capacity",
+	"solid_conductivity", "melt_conductivity", "melting_point",
+	"heat_of_fusion", "friction_barrel", "friction_screw",
+	"viscosity", NULL};
+
+const char *const *ow_config_resin_keys(void)
+{
+	return resin_keys;
 }
 
 static enum ow_status parse_resin(const struct ow_jin *j, const cJSON *o,
 				  const char *path, void *out)
 {
-	static const char *const keys[] = {
-		"notes", "name", "solid_density", "bulk_density",
-		"melt_density", "solid_heat_capacity", "melt_heat_capacity",
-		"solid_conductivity", "melt_conductivity", "melting_point",
-		"heat_of_fusion", "friction_barrel", "friction_screw",
-		"viscosity", NULL};
+	const char *const *keys = resin_keys;
 	struct ow_material *m = out;
 	const struct qty_field f[] = {
 		{"solid_density", OW_DIM_DENSITY, &m->solid_density_kg_m3},

@@ -122,6 +122,12 @@ static enum ow_status check_zones(const struct ow_line *l, double len,
 					   "beyond the previous zone's end "
 					   "(%g mm)", i, l->zones[i].to_m * 1e3,
 					   prev * 1e3);
+		if (l->zones[i].to_m > len + 1e-6) /* "30 D" on a 24 D screw */
+			return ow_diag_set(d, OW_EINPUT,
+					   "barrel.zones[%d].to: %g mm lies past "
+					   "the end of the screw (%g mm); the "
+					   "last zone ends at the screw's end",
+					   i, l->zones[i].to_m * 1e3, len * 1e3);
 		if (bad_temp(l->zones[i].set_K))
 			return ow_diag_set(d, OW_EINPUT,
 					   "barrel.zones[%d].set: %g degC must "

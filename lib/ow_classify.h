@@ -23,6 +23,8 @@
 	X(OW_CK_ZONE_CONTROL, "zone_control", "zone cannot hold set-point") \
 	X(OW_CK_PLUGGING, "plugging", "solid bed plugging")              \
 	X(OW_CK_FEED, "feed_limited", "feed-limited (starved)")          \
+	X(OW_CK_PARTIAL_FILL, "partial_fill", "channel partly filled "   \
+						"(pressure below zero)")         \
 	X(OW_CK_NOCONV, "not_converged", "solution did not converge")
 
 enum ow_check {

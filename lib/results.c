@@ -2,6 +2,7 @@
  * writing. Units are those the keys name, never display units. */
 #include "ow_results.h"
 #include "text_impl.h"
+#include "ow_io.h"
 
 #include <cjson/cJSON.h>
 #include <errno.h>
@@ -9,7 +10,6 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
-#include <unistd.h>
 
 #define OW_PI 3.14159265358979323846
 
@@ -27,35 +27,7 @@ char *ow_fmt_double(char *buf, size_t n, double x, int json)
 enum ow_status ow_results_write_file(const char *path, const char *text,
 				     size_t len, struct ow_diag *d)
 {
-	size_t plen = strlen(path) + 32;
-	char *tmp = malloc(plen);
-	FILE *f = NULL;
-	enum ow_status st = OW_OK;
-
-	if (!tmp)
-		return ow_diag_set(d, OW_ENOMEM, "out of memory");
-	snprintf(tmp, plen, "%s.tmp%ld", path, (long)getpid());
-	f = fopen(tmp, "wb");
-	if (!f) {
-		st = ow_diag_set(d, OW_EIO, "%s: cannot write: %s", path,
-				 strerror(errno));
-		goto fail;
-	}
-	if (fwrite(text, 1, len, f) != len || fflush(f) != 0) {
-		st = ow_diag_set(d, OW_EIO, "%s: write failed: %s", path,
-				 strerror(errno));
-		fclose(f);
-		remove(tmp);
-		goto fail;
-	}
-	if (fclose(f) != 0 || rename(tmp, path) != 0) {
-		st = ow_diag_set(d, OW_EIO, "%s: cannot complete: %s", path,
-				 strerror(errno));
-		remove(tmp);
-	}
-fail:
-	free(tmp);
-	return st;
+	return ow_io_write_file(path, text, len, d);
 }
 
 static int put_num(cJSON *o, const char *key, double v)
@@ -222,10 +194,11 @@ static double fig(const struct ow_study *s, const struct ow_point *p, int i)
 	case 16: return per_D(s, p->peak_at_m);
 	case 17: return p->energy_residual;
 	case 18: return p->feed_capacity_kg_s * 3600.0;
-	case 19: return p->zone_load;
-	case 20: return p->root_heat_W * 1e-3;
-	case 21: return p->enthalpy_rise_W * 1e-3;
-	case 22: return p->flow_work_W * 1e-3;
+	case 19: return p->plug_ratio;
+	case 20: return p->zone_load;
+	case 21: return p->root_heat_W * 1e-3;
+	case 22: return p->enthalpy_rise_W * 1e-3;
+	case 23: return p->flow_work_W * 1e-3;
 	default: return NAN;
 	}
 }
@@ -236,7 +209,7 @@ static const char *const fig_keys[] = {
 	"unmelt_fraction", "melt_complete_D", "max_sbr", "power_kW",
 	"torque_Nm", "sec_kWh_kg", "barrel_heat_kW", "residence_s",
 	"melt_start_D", "max_pressure_D", "peak_temp_D", "energy_residual",
-	"feed_capacity_kg_h", "zone_load", "root_heat_kW",
+	"feed_capacity_kg_h", "plug_ratio", "zone_load", "root_heat_kW",
 	"enthalpy_rise_kW", "flow_work_kW",
 };
 
