@@ -219,7 +219,12 @@ char *rpt_limit_text(struct rpt *r, enum ow_check c, char *buf, size_t n)
 	} else {
 		rpt_qty(r, q, sizeof q, dims[c], v, 4);
 	}
-	snprintf(buf, n, "%s %s %s", ow_check_text(c), at_least ? "≥" : "≤", q);
+	if (c == OW_CK_ZONE_CONTROL) /* the limit is on the zone load */
+		snprintf(buf, n, "zone load ≤ %s of a zone's heating or "
+		         "cooling power", q);
+	else
+		snprintf(buf, n, "%s %s %s", ow_check_text(c),
+		         at_least ? "≥" : "≤", q);
 	return buf;
 }
 

@@ -251,6 +251,9 @@ static void figures(const struct ow_solver *sv, const struct eval *e,
 		(ow_material_enthalpy(mt, e->m.bulk_K, tf) -
 		 ow_material_enthalpy(mt, tf, tf)); /* solids leave at tf */
 	in = e->m.power_W + e->m.barrel_W + e->m.root_W;
+	pt->root_heat_W = e->m.root_W;
+	pt->enthalpy_rise_W = g * h_out;
+	pt->flow_work_W = e->m.flow_work_W;
 	pt->energy_residual = (in - g * h_out - e->m.flow_work_W) /
 			      (fabs(e->m.power_W) > 0.0 ? e->m.power_W : 1.0);
 }

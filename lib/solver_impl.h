@@ -4,6 +4,7 @@
 #ifndef OW_SOLVER_IMPL_H
 #define OW_SOLVER_IMPL_H
 
+#include "ow_delay.h"
 #include "ow_melt.h"
 #include "ow_melting.h"
 #include "ow_solids.h"
