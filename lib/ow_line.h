@@ -72,13 +72,15 @@ struct ow_line {
 	double root_temp_K;
 	struct ow_die die;
 	double screen_pressure_Pa; /* constant screen-pack/adapter drop */
+	double die_factor;         /* multiplies the die's pressure need
+				      (calibration; 1 = the ideal die) */
 	struct ow_limits limits;
 	struct ow_axes axes;
 	struct ow_numerics numerics;
 };
 
 /* Defaults: no limits set (all NAN), adiabatic root, 25 degC feed, numerics
- * at their proven defaults, 0.01 MPa feed pressure. */
+ * at their proven defaults, 0.01 MPa feed pressure, die factor 1. */
 void ow_line_default(struct ow_line *l);
 
 /* Barrel set-point at axial position x_m (the zone that holds x). */
