@@ -21,7 +21,8 @@
 #include "ow_status.h"
 #include "ow_units.h"
 
-struct ow_study; /* ow_config.h */
+struct ow_study;  /* ow_config.h */
+struct ow_canvas; /* ow_canvas.h */
 
 /* The factors, in table order. */
 enum ow_calib_factor_id {
@@ -207,11 +208,20 @@ enum ow_status ow_calib_study_text(const struct ow_study *s,
 				   const char *out_path, char **text,
 				   struct ow_diag *d);
 
-/* Measured against modelled per quantity (one panel each, the 1:1 line
- * and the +-2 sd band) into path, PNG or SVG by its extension, in unit
- * system sys. OW_EIO when it cannot be written. */
+/* Modelled against measured per quantity (one panel each, up to three to
+ * a row; the 1:1 line; each reading's +-2 sd bar, labelled by its line)
+ * into path, PNG or SVG by its extension, in unit system sys, under
+ * title. OW_EIO when it cannot be written. */
 enum ow_status ow_calib_plot(const struct ow_calib_resid *e, int n,
 			     enum ow_unit_system sys, const char *title,
 			     const char *path, struct ow_diag *d);
+
+/* The same drawing on canvas cv in a w_pt x h_pt area from its top-left
+ * corner (title NULL: none), and the number of panel rows it takes (1 or
+ * 2), for a page that places it. */
+void ow_calib_draw(struct ow_canvas *cv, double w_pt, double h_pt,
+		   const struct ow_calib_resid *e, int n,
+		   enum ow_unit_system sys, const char *title);
+int ow_calib_plot_rows(const struct ow_calib_resid *e, int n);
 
 #endif
