@@ -84,7 +84,9 @@ static void panel(struct ow_canvas *cv, const struct ow_rect *box,
 {
 	char xt[80], yt[80];
 	const char *unit = ow_display_label(sys, ow_calib_qty_dim(q));
-	struct ow_plot_axis x = {0, 0, xt, 1, 0}, y = {0, 0, yt, 1, 0};
+	/* the same tick count on both axes: the same nice range, so the
+	 * 1:1 line runs corner to corner */
+	struct ow_plot_axis x = {0, 0, xt, 1, 5}, y = {0, 0, yt, 1, 5};
 	struct ow_line_style one = {ow_rgb(0.45, 0.45, 0.45), 0.8,
 				    OW_DASH_DASHED, OW_MARK_NONE};
 	struct ow_rgba c = ow_plot_series_style(0).colour;
@@ -132,7 +134,8 @@ int ow_calib_plot_rows(const struct ow_calib_resid *e, int n)
 	return m <= 3 ? 1 : 2;
 }
 
-void ow_calib_draw(struct ow_canvas *cv, double w_pt, double h_pt,
+void ow_calib_draw(struct ow_canvas *cv, double x_pt, double y_pt,
+		   double w_pt, double h_pt,
 		   const struct ow_calib_resid *e, int n,
 		   enum ow_unit_system sys, const char *title)
 {
@@ -147,11 +150,11 @@ void ow_calib_draw(struct ow_canvas *cv, double w_pt, double h_pt,
 	if (title) {
 		ow_canvas_set_colour(cv, ow_rgb(0.05, 0.05, 0.05));
 		ow_canvas_set_font(cv, 1.2 * FONT_PT, 0);
-		ow_canvas_text(cv, 8.0, 18.0, title, OW_ALIGN_LEFT,
+		ow_canvas_text(cv, x_pt + 8.0, y_pt + 18.0, title, OW_ALIGN_LEFT,
 			       OW_VALIGN_BASELINE, 0);
 		ow_canvas_set_colour(cv, ow_rgb(0.3, 0.3, 0.3));
 		ow_canvas_set_font(cv, 0.9 * FONT_PT, 0);
-		ow_canvas_text(cv, 8.0, 32.0,
+		ow_canvas_text(cv, x_pt + 8.0, y_pt + 32.0,
 			       "dots: modelled against measured, labelled by "
 			       "the line of the readings file; bars: ±2 "
 			       "standard deviations of the reading; dashed: "
@@ -159,9 +162,9 @@ void ow_calib_draw(struct ow_canvas *cv, double w_pt, double h_pt,
 			       OW_VALIGN_BASELINE, 0);
 	}
 	for (k = 0; k < m; k++) {
-		struct ow_rect box = {(k % cols) * pw + 4.0,
-				      top + (k / cols) * ph + 4.0, pw - 12.0,
-				      ph - 8.0};
+		struct ow_rect box = {x_pt + (k % cols) * pw + 4.0,
+				      y_pt + top + (k / cols) * ph + 4.0,
+				      pw - 12.0, ph - 8.0};
 
 		panel(cv, &box, e, n, (enum ow_calib_qty)qs[k], sys);
 	}
@@ -187,7 +190,7 @@ enum ow_status ow_calib_plot(const struct ow_calib_resid *e, int n,
 	ow_canvas_set_colour(cv, ow_rgb(1, 1, 1));
 	ow_canvas_rect(cv, 0, 0, IMG_W_PT, h);
 	ow_canvas_fill(cv);
-	ow_calib_draw(cv, IMG_W_PT, h, e, n, sys, title);
+	ow_calib_draw(cv, 0.0, 0.0, IMG_W_PT, h, e, n, sys, title);
 	st = ow_canvas_write_file(cv, path, d);
 	ow_canvas_destroy(cv);
 	return st;
