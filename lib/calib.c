@@ -587,8 +587,8 @@ static enum ow_status fit(struct job *j, struct ow_calib_result *out,
 		return OW_OK;
 	st = errors(j, x, out, d);
 	if (st == OW_OK)
-		st = check_bounds(j, x, d);
-	return st == OW_OK ? check_consistent(j, out, d) : st;
+		st = check_consistent(j, out, d);
+	return st == OW_OK ? check_bounds(j, x, d) : st;
 }
 
 enum ow_status ow_calib_run(const struct ow_study *s,

@@ -9,9 +9,15 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include <unistd.h>
+
+#include "clirun.h"
 #include "ow_calib.h"
 #include "ow_config.h"
 #include "ow_solver.h"
+
+#define FAST "tests/data/map-fast.json"
+#define HDPE "fixtures/studies/hdpe-sf.json"
 
 static struct ow_units *ow_test_units; /* the readings' units */
 
@@ -137,10 +143,6 @@ static void recover(const char *study, const double *truth, unsigned mask,
 						 s->line.n_zones, &r, &d),
 			 OW_OK);
 	st = ow_calib_run(s, r, &o, res, &d);
-	if (getenv("CALIB_DEBUG")) {
-		printf("%s iters %d values %g %g %g chi2 %g start %g\n", text, res->iterations, res->value[0], res->value[1], res->value[2], res->chi2, res->chi2_start);
-		for (k = 0; k < res->n_resid; k++) printf("  line %d %s %g %g %g\n", res->resid[k].line, ow_calib_qty_name(res->resid[k].qty), res->resid[k].measured, res->resid[k].modelled, res->resid[k].sd);
-	}
 	if (st != OW_OK)
 		fail_msg("%s: %s", study, d.msg);
 	for (k = 0; k < OW_CF_COUNT; k++) {
@@ -186,12 +188,308 @@ static void recovers_viscosity_and_die_on_barrier(void **state)
 		1u << OW_CF_VISCOSITY, 13);
 }
 
+/* Fit with free_mask to readings text on study path; returns the status
+ * and the message in d. */
+static enum ow_status fit_text(const char *path, const char *text,
+			       unsigned free_mask, struct ow_calib_result *res,
+			       struct ow_diag *d)
+{
+	struct ow_study *s = ow_test_study(path);
+	struct ow_readings *r = NULL;
+	struct ow_calib_options o;
+	enum ow_status st;
+
+	ow_calib_options_from(&s->calib, &o);
+	o.free_mask = free_mask;
+	st = ow_calib_readings_parse(ow_test_units, text, strlen(text),
+				     "line.csv", s->line.n_zones, &r, d);
+	if (st == OW_OK)
+		st = ow_calib_run(s, r, &o, res, d);
+	free(r);
+	free(s);
+	return st;
+}
+
+static void expect_refusal(const char *path, const char *text,
+			   unsigned free_mask, const char *says)
+{
+	struct ow_calib_result *res = malloc(sizeof *res);
+	struct ow_diag d = {{0}};
+
+	assert_int_equal(fit_text(path, text, free_mask, res, &d), OW_EINPUT);
+	if (!strstr(d.msg, says))
+		fail_msg("expected \"%s\" in: %s", says, d.msg);
+	free(res);
+}
+
+/* With no factor free the fit changes nothing: every factor stays 1 and
+ * the modelled values are the plain solver's at the study's set-points. */
+static void no_free_factor_changes_nothing(void **state)
+{
+	const char *text = "screw_speed_rpm,output_kg/h\n60,40\n";
+	struct ow_calib_result *res = malloc(sizeof *res);
+	struct ow_study *s = ow_test_study(HDPE);
+	struct ow_solver *sv = NULL;
+	struct ow_diag d = {{0}};
+	struct ow_point pt;
+	int k;
+
+	(void)state;
+	assert_int_equal(fit_text(HDPE, text, 0, res, &d), OW_OK);
+	assert_int_equal(res->n_free, 0);
+	for (k = 0; k < OW_CF_COUNT; k++)
+		assert_true(res->value[k] == 1.0);
+	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, 60, NULL, 0, &pt, NULL), OW_OK);
+	assert_rel(res->resid[0].modelled, pt.output_kg_s, 1e-4);
+	ow_solver_destroy(sv);
+	free(s);
+	free(res);
+}
+
+/* One measured value cannot fix two factors. */
+static void fewer_values_than_factors_are_refused(void **state)
+{
+	(void)state;
+	expect_refusal(HDPE, "screw_speed_rpm,output_kg/h\n60,40\n",
+		       (1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE),
+		       "cannot determine 2 free factors");
+}
+
+/* The plug is taken as melt-controlled, so output and pressure do not
+ * depend on the pellet friction: readings of them cannot fix it. */
+static void a_factor_no_reading_moves_is_refused(void **state)
+{
+	(void)state;
+	expect_refusal(FAST,
+		       "screw_speed_rpm,output_kg/h,head_pressure_MPa\n"
+		       "40,30,8\n80,60,10\n",
+		       1u << OW_CF_FRICTION, "do not determine friction");
+}
+
+/* Output alone cannot fix the viscosity of a power-law melt fed into a
+ * short metering screw: pressure flow in the screw and flow through the
+ * die both scale as (dp / m)^(1/n), so scaling m everywhere leaves the
+ * matched output where it was (Tadmor & Gogos 2006, ch. 9, screw and die
+ * characteristics) but for the small change in viscous heating. */
+static void output_alone_cannot_fix_the_viscosity(void **state)
+{
+	(void)state;
+	expect_refusal(FAST,
+		       "screw_speed_rpm,output_kg/h\n40,30\n60,45\n80,60\n",
+		       (1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE),
+		       "do not determine viscosity_scale");
+}
+
+/* The same setting logged twice with outputs 40 % apart. */
+static void contradictory_readings_are_refused(void **state)
+{
+	(void)state;
+	expect_refusal(FAST,
+		       "screw_speed_rpm,output_kg/h,head_pressure_MPa\n"
+		       "60,30,9\n60,42,9\n60,30,9.2\n",
+		       (1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE),
+		       "contradict");
+}
+
+/* A melt colder than the feed and every set-point names its line. */
+static void an_unreachable_reading_is_named(void **state)
+{
+	(void)state;
+	expect_refusal(HDPE,
+		       "screw_speed_rpm,melt_temp_degC,notes\n"
+		       "60,225,ok\n80,20,thermocouple off\n",
+		       1u << OW_CF_VISCOSITY, "line.csv: line 3: melt");
+}
+
+/* Units in the header as everywhere else; notes kept; an empty cell is
+ * a value not read; zones beyond the study's and unknown columns are
+ * rejected with their column. 1 psi = 6894.757 Pa, 1 lb = 0.45359237 kg
+ * (NIST SP 811, 2008, appendix B). */
+static void readings_are_read_in_their_units(void **state)
+{
+	const char *text =
+		"screw_speed_rpm,zone5_degF,output_lb/h,head_pressure_psi,"
+		"notes\n60,392,100,1000,first shift\n80,,,1200,\n";
+	struct ow_readings *r = NULL;
+	struct ow_diag d = {{0}};
+
+	(void)state;
+	assert_int_equal(ow_calib_readings_parse(ow_test_units, text,
+						 strlen(text), "r.csv", 5, &r,
+						 &d), OW_OK);
+	assert_int_equal((int)r->n, 2);
+	assert_rel(r->r[0].set_K[4], 473.15, 1e-9);
+	assert_true(r->r[0].set_given[4] && !r->r[1].set_given[4]);
+	assert_false(r->r[0].set_given[0]);
+	assert_rel(r->r[0].value[OW_CQ_OUTPUT], 100 * 0.45359237 / 3600,
+		   1e-9);
+	assert_rel(r->r[1].value[OW_CQ_PRESSURE], 1200 * 6894.757, 1e-6);
+	assert_true(isnan(r->r[1].value[OW_CQ_OUTPUT]));
+	assert_string_equal(r->r[0].notes, "first shift");
+	assert_int_equal(r->r[1].line, 3);
+	free(r);
+	assert_int_equal(ow_calib_readings_parse(ow_test_units, text,
+						 strlen(text), "r.csv", 4, &r,
+						 &d), OW_EINPUT);
+	assert_non_null(strstr(d.msg, "column 2 (zone5_degF)"));
+	text = "screw_speed_rpm,output_kg/h,speed_m/s\n60,40,1\n";
+	memset(&d, 0, sizeof d); /* a diag keeps its first message */
+	assert_int_equal(ow_calib_readings_parse(ow_test_units, text,
+						 strlen(text), "r.csv", 4, &r,
+						 &d), OW_EINPUT);
+	assert_non_null(strstr(d.msg, "column 3 (speed_m/s): unknown column"));
+}
+
+/* Write text to dir/name; the path into out. */
+static void put(const char *dir, const char *name, const char *text,
+		char *out, size_t n)
+{
+	FILE *f;
+
+	snprintf(out, n, "%s/%s", dir, name);
+	f = fopen(out, "w");
+	assert_non_null(f);
+	fputs(text, f);
+	fclose(f);
+}
+
+/* The study with a hand-written calibration block of the given values. */
+static char *hand_study(double visc, double die)
+{
+	cJSON *doc = cli_read_json(FAST), *b = cJSON_CreateObject();
+	char *text;
+
+	cJSON_AddNumberToObject(b, "viscosity_scale", visc);
+	cJSON_AddNumberToObject(b, "die_factor", die);
+	cJSON_AddItemToObject(doc, "calibration", b);
+	text = cJSON_Print(doc);
+	cJSON_Delete(doc);
+	return text;
+}
+
+static double factor_of(const cJSON *study, const char *name)
+{
+	const cJSON *c = cJSON_GetObjectItem(study, "calibration");
+
+	return cli_json_num(cJSON_GetObjectItem(c, name), "value");
+}
+
+/* `opwin calibrate` writes the factors into the study and nothing else:
+ * a map of the calibrated study equals a map of the study with the same
+ * factors typed into its calibration block by hand. */
+static void map_of_calibrated_study_equals_hand_edited(void **state)
+{
+	const double truth[OW_CF_COUNT] = {1.3, 1.0, 0.7};
+	struct ow_study *s = ow_test_study(FAST);
+	char dir[] = "/tmp/opwin-test-calib-XXXXXX", csv[96], cal[96],
+	     hand[96], args[512], *text, *a, *b;
+	struct cli_result r;
+	cJSON *doc;
+
+	(void)state;
+	assert_non_null(mkdtemp(dir));
+	text = make_readings(s, truth, six, 6, 3, 0.01, 11);
+	put(dir, "line.csv", text, csv, sizeof csv);
+	free(text);
+	snprintf(cal, sizeof cal, "%s/cal.json", dir);
+	snprintf(args, sizeof args, "calibrate %s %s --free "
+		 "viscosity_scale,die_factor -o %s --plot %s/res.svg", FAST,
+		 csv, cal, dir);
+	cli_run(args, &r);
+	if (r.code != 0)
+		fail_msg("calibrate: %s", r.err);
+	assert_non_null(strstr(r.out, "viscosity_scale"));
+	cli_result_free(&r);
+	doc = cli_read_json(cal);
+	text = hand_study(factor_of(doc, "viscosity_scale"),
+			  factor_of(doc, "die_factor"));
+	cJSON_Delete(doc);
+	put(dir, "hand.json", text, hand, sizeof hand);
+	free(text);
+	snprintf(args, sizeof args, "map %s -o %s/m1 --grid 5x4 --quiet && "
+		 "%s map %s -o %s/m2 --grid 5x4 --quiet", cal, dir,
+		 cli_binary(), hand, dir);
+	cli_run(args, &r);
+	assert_int_equal(r.code, 0);
+	cli_result_free(&r);
+	snprintf(args, sizeof args, "%s/m1/grid.csv", dir);
+	a = cli_slurp(args);
+	snprintf(args, sizeof args, "%s/m2/grid.csv", dir);
+	b = cli_slurp(args);
+	assert_non_null(a);
+	assert_non_null(b);
+	assert_string_equal(a, b);
+	free(a);
+	free(b);
+	snprintf(args, sizeof args, "rm -rf %s", dir);
+	assert_int_equal(system(args), 0);
+	free(s);
+}
+
+/* All factors off: exit 0, the message says nothing changed and no file
+ * is written. */
+static void calibrate_with_nothing_free_says_so(void **state)
+{
+	char dir[] = "/tmp/opwin-test-calib-XXXXXX", csv[96], args[400];
+	struct cli_result r;
+
+	(void)state;
+	assert_non_null(mkdtemp(dir));
+	put(dir, "line.csv", "screw_speed_rpm,output_kg/h\n60,40\n", csv,
+	    sizeof csv);
+	snprintf(args, sizeof args, "calibrate %s %s -o %s/out.json", FAST,
+		 csv, dir);
+	cli_run(args, &r);
+	assert_int_equal(r.code, 0);
+	assert_non_null(strstr(r.out, "nothing to fit, the model is "
+				      "unchanged"));
+	assert_non_null(strstr(r.out, "not written: nothing changed"));
+	cli_result_free(&r);
+	snprintf(args, sizeof args, "%s/out.json", dir);
+	assert_int_equal(access(args, F_OK), -1);
+	snprintf(args, sizeof args, "rm -rf %s", dir);
+	assert_int_equal(system(args), 0);
+}
+
+/* A factor outside its bounds in the calibration block is an input error
+ * naming its JSON path. */
+static void calibration_block_is_checked(void **state)
+{
+	char dir[] = "/tmp/opwin-test-calib-XXXXXX", path[96], args[300];
+	char *text = hand_study(9.0, 1.0);
+	struct cli_result r;
+
+	(void)state;
+	assert_non_null(mkdtemp(dir));
+	put(dir, "bad.json", text, path, sizeof path);
+	free(text);
+	snprintf(args, sizeof args, "check %s", path);
+	cli_run(args, &r);
+	assert_int_equal(r.code, 1);
+	assert_non_null(strstr(r.err, "calibration.viscosity_scale: 9: "
+				      "expected a factor in 0.2..5"));
+	cli_result_free(&r);
+	snprintf(args, sizeof args, "rm -rf %s", dir);
+	assert_int_equal(system(args), 0);
+}
+
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(recovers_viscosity_and_die_on_melt_fed),
 		cmocka_unit_test(recovers_viscosity_and_die_on_plasticating),
 		cmocka_unit_test(recovers_viscosity_and_die_on_barrier),
+		cmocka_unit_test(no_free_factor_changes_nothing),
+		cmocka_unit_test(fewer_values_than_factors_are_refused),
+		cmocka_unit_test(a_factor_no_reading_moves_is_refused),
+		cmocka_unit_test(output_alone_cannot_fix_the_viscosity),
+		cmocka_unit_test(contradictory_readings_are_refused),
+		cmocka_unit_test(an_unreachable_reading_is_named),
+		cmocka_unit_test(readings_are_read_in_their_units),
+		cmocka_unit_test(map_of_calibrated_study_equals_hand_edited),
+		cmocka_unit_test(calibrate_with_nothing_free_says_so),
+		cmocka_unit_test(calibration_block_is_checked),
 	};
 
 	return cmocka_run_group_tests(tests, setup, teardown);
