@@ -165,7 +165,9 @@ void rpt_calib_page(struct rpt *r)
 	rpt_para(r,
 		 "The study multiplies these model inputs by factors, so that "
 		 "the model reproduces what the line showed. Every figure in "
-		 "this report is computed with them.",
+		 "this report is computed with them, and the inputs listed "
+		 "at the end show the resin's viscosity and friction with "
+		 "the factors applied.",
 		 &st, 6.0);
 	factor_table(r);
 	if (!c->has_fit) {
