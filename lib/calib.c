@@ -41,6 +41,9 @@ struct job {
 	struct ow_point *pts;   /* one per reading, the last solve */
 	double *warm;           /* last output per reading, kg/s */
 	int threads, solves;
+	int strict;             /* 1: a failed solve stops the fit (at the
+				   study's own factors); 0: a trial point
+				   the solver rejects costs PENALTY */
 	enum ow_status st;      /* first hard failure of an evaluation */
 	struct ow_diag diag;
 };
@@ -113,7 +116,7 @@ static void solve_all(struct job *j)
 				j->pts[i].flags |= OW_FLAG_NOT_CONVERGED;
 		}
 #pragma omp critical
-		if (st != OW_OK && j->st == OW_OK) {
+		if (st != OW_OK && j->strict && j->st == OW_OK) {
 			j->st = st;
 			j->diag = dd;
 		}
@@ -277,7 +280,9 @@ static enum ow_status check_solvable(struct job *j, double *r,
 
 	for (k = 0; k < j->p; k++)
 		x[k] = log(j->fixed[j->ids[k]]);
+	j->strict = 1;
 	residuals(j, x, r);
+	j->strict = 0;
 	if (j->st != OW_OK)
 		return ow_diag_set(d, j->st, "%s", j->diag.msg);
 	for (i = 0; i < j->r->n; i++)
