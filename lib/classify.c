@@ -120,6 +120,8 @@ void ow_classify(const struct ow_point *pt, const struct ow_limits *lim,
 		v->bits |= 1u << OW_CK_PLUGGING;
 	if (pt->flags & OW_FLAG_FEED_LIMITED)
 		v->bits |= 1u << OW_CK_FEED;
+	if (pt->flags & OW_FLAG_PARTIAL_FILL)
+		v->bits |= 1u << OW_CK_PARTIAL_FILL;
 	if (pt->flags & OW_FLAG_NOT_CONVERGED)
 		v->bits |= 1u << OW_CK_NOCONV;
 }

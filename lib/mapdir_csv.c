@@ -154,6 +154,7 @@ static const struct {
     FIELD(melt_complete_m),
     FIELD(max_sbr),
     FIELD(max_sbr_at_m),
+    FIELD(plug_ratio),
     FIELD(plugging_at_m),
     FIELD(power_W),
     FIELD(torque_Nm),

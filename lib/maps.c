@@ -120,6 +120,8 @@ char *maps_limit_text(const struct ow_study *s, int check,
 		return snprintf(buf, n, "plugging"), buf;
 	if (check == OW_CK_FEED)
 		return snprintf(buf, n, "feed-limited"), buf;
+	if (check == OW_CK_PARTIAL_FILL)
+		return snprintf(buf, n, "partly filled"), buf;
 	if (check == OW_CK_NOCONV || check < 0 || check >= OW_CK_LIMITS)
 		return snprintf(buf, n, "no solution"), buf;
 	v = ow_check_limit(&s->line.limits, (enum ow_check)check);

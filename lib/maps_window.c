@@ -42,6 +42,7 @@ static const struct group *group_of(int c)
 	case OW_CK_PLUGGING:
 		return &groups[1];
 	case OW_CK_PRESSURE:
+	case OW_CK_PARTIAL_FILL:
 		return &groups[2];
 	case OW_CK_POWER:
 	case OW_CK_TORQUE:

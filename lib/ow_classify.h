@@ -22,6 +22,8 @@
 	X(OW_CK_MAX_SBR, "max_sbr", "solid bed ratio")                   \
 	X(OW_CK_PLUGGING, "plugging", "solid bed plugging")              \
 	X(OW_CK_FEED, "feed_limited", "feed-limited (starved)")          \
+	X(OW_CK_PARTIAL_FILL, "partial_fill", "channel partly filled "   \
+						"(pressure below zero)")         \
 	X(OW_CK_NOCONV, "not_converged", "solution did not converge")
 
 enum ow_check {

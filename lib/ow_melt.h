@@ -34,6 +34,14 @@
 double ow_melt_shape_fd(double h_over_w);
 double ow_melt_shape_fp(double h_over_w);
 
+/* Barrel speed that drags as much as a side wall of the channel (depth H,
+ * width W) sliding down-channel at wall_speed, e.g. the solid bed beside
+ * the melt pool: V_s F_d(W/H)/F_d(H/W) (Rowell & Finlayson's drag solution
+ * with width and depth exchanged; exact for a Newtonian melt, whose drag
+ * flows add). m/s; NAN for a non-positive depth or width. */
+double ow_melt_side_drag_speed(double depth_m, double width_m,
+			       double wall_speed_m_s);
+
 /* ---- power-law drag + pressure flow (exact) ---------------------------- */
 
 /* Combined drag and pressure flow of a power-law fluid (tau = m gdot^n)

@@ -19,6 +19,9 @@
 #define OW_FLAG_BACKFLOW 0x08u      /* a band's down-channel flow floored */
 #define OW_FLAG_NO_MELTING 0x10u    /* barrel never above the melting point
 				       and no melting by dissipation */
+#define OW_FLAG_PARTIAL_FILL 0x20u  /* absolute pressure below zero somewhere:
+				       the channel cannot run full there
+				       (starved, partly filled) */
 
 /* Figures of one operating point, SI. */
 struct ow_point {
@@ -35,8 +38,15 @@ struct ow_point {
 	double unmelt_frac;           /* solid mass fraction at the tip */
 	double melt_start_m;          /* NAN when melting never starts */
 	double melt_complete_m;       /* NAN when solids reach the tip */
-	double max_sbr;               /* solid bed ratio X/W, max */
-	double max_sbr_at_m;
+	double max_sbr;               /* solid bed ratio X/W, max where the
+					 bed's channel gets shallower (the
+					 transition); 0 if the bed is gone
+					 before */
+	double max_sbr_at_m;          /* NAN when max_sbr is 0 */
+	double plug_ratio;            /* Tadmor's plugging number there, max:
+					 A sqrt(X/W) rho_s V_sz sqrt(W) / Phi;
+					 >= 1: the bed widens as it is
+					 squeezed */
 	double plugging_at_m;         /* NAN unless plugging */
 	double power_W;               /* screw drive power (shaft) */
 	double torque_Nm;

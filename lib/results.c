@@ -221,6 +221,7 @@ static double fig(const struct ow_study *s, const struct ow_point *p, int i)
 	case 16: return per_D(s, p->peak_at_m);
 	case 17: return p->energy_residual;
 	case 18: return p->feed_capacity_kg_s * 3600.0;
+	case 19: return p->plug_ratio;
 	default: return NAN;
 	}
 }
@@ -231,7 +232,7 @@ static const char *const fig_keys[] = {
 	"unmelt_fraction", "melt_complete_D", "max_sbr", "power_kW",
 	"torque_Nm", "sec_kWh_kg", "barrel_heat_kW", "residence_s",
 	"melt_start_D", "max_pressure_D", "peak_temp_D", "energy_residual",
-	"feed_capacity_kg_h",
+	"feed_capacity_kg_h", "plug_ratio",
 };
 
 int ow_results_n_figures(void)

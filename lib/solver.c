@@ -207,6 +207,7 @@ static void figures(const struct ow_solver *sv, const struct eval *e,
 	pt->melt_complete_m = e->m.melt_done_m;
 	pt->max_sbr = e->m.max_sbr;
 	pt->max_sbr_at_m = e->m.max_sbr_at_m;
+	pt->plug_ratio = e->m.plug_ratio;
 	pt->plugging_at_m = e->m.plug_at_m;
 	pt->power_W = e->m.power_W;
 	pt->torque_Nm = e->m.power_W / (2.0 * OW_PI * sv->rev_s);

@@ -18,7 +18,9 @@ struct march {
 	double peak_K, peak_at_m;
 	double unmelt;        /* solid mass fraction at the tip */
 	double melt_start_m, melt_done_m;
-	double max_sbr, max_sbr_at_m, plug_at_m;
+	double max_sbr, max_sbr_at_m, plug_at_m; /* max_sbr where the bed's
+					channel gets shallower (0: none) */
+	double plug_ratio;    /* Tadmor's plugging number, max there */
 	double power_W;       /* drive power */
 	double barrel_W;      /* heat barrel -> resin */
 	double root_W;        /* heat root -> resin */

@@ -14,8 +14,6 @@
 #include <string.h>
 
 #define OW_PI 3.14159265358979323846
-#define POOL_MIN_FRAC 1e-3 /* pool narrower than this share of W: use the
-			      limit of its flow per width */
 
 enum phase { PH_SOLIDS, PH_MELTING, PH_MELT };
 
@@ -72,8 +70,13 @@ static void book_barrel(struct ctx *c, double x, double w)
 	c->m->zone_W[zone_of(c->ln, x)] += w;
 }
 
+/* A pressure below zero cannot exist in melt: the channel cannot run full
+ * there (starved or partly filled), so the full-channel model no longer
+ * holds and the point is flagged. */
 static void note_pressure(struct ctx *c, double x)
 {
+	if (c->P < 0.0)
+		c->m->flags |= OW_FLAG_PARTIAL_FILL;
 	if (c->P > c->m->max_Pa) {
 		c->m->max_Pa = c->P;
 		c->m->max_at_m = x;
@@ -211,23 +214,41 @@ static void fit_bed(struct ctx *c, const struct split *sp)
 		 (c->mat->solid_density_kg_m3 * sp->bed_h * sp->bed_w);
 }
 
-/* Melt pool (or barrier melt channel) over one step, with flow q_m3_s
- * carried at the channel's own width; scale is the share of the channel the
- * pool occupies (energy terms scale with it). */
-static enum ow_status step_pool(struct ctx *c, double x, double dz,
-				double depth, double width, double q,
-				double scale, struct ow_melt_out *o)
+/* A channel carrying melt: its depth and width, and the speed at which one
+ * side wall slides down-channel (the solid bed beside a pool; 0: none). */
+struct chan {
+	double h, w, side;
+};
+
+/* Solve the melt of flow q in channel ch at axial x; the band temperatures
+ * advance over dz (0: the pressure gradient only). */
+static enum ow_status chan_solve(struct ctx *c, double x, double dz,
+				 const struct chan *ch, double q,
+				 struct ow_melt_out *o)
 {
 	struct ow_melt_cond mc;
-	enum ow_status st;
 
-	melt_cond(c, x, depth, width, q, &mc);
-	st = ow_melt_step(c->sv->melt, &mc, dz, o, &c->sv->diag);
+	melt_cond(c, x, ch->h, ch->w, q, &mc);
+	if (ch->side > 0.0)
+		mc.vbz_m_s += ow_melt_side_drag_speed(ch->h, ch->w, ch->side);
+	return ow_melt_step(c->sv->melt, &mc, dz, o, &c->sv->diag);
+}
+
+/* Melt channel, melt pool or one of a barrier's channels over one step:
+ * flow q_m3_s carried in channel ch. The bands advance over share dz, the
+ * share of the melt this channel carries; power and heat are booked over dz
+ * (share 1: the whole melt). */
+static enum ow_status step_pool(struct ctx *c, double x, double dz,
+				const struct chan *ch, double q, double share,
+				struct ow_melt_out *o)
+{
+	enum ow_status st = chan_solve(c, x, share * dz, ch, q, o);
+
 	if (st != OW_OK)
 		return st;
-	c->m->power_W += o->power_W_m * dz * scale * c->p;
-	c->m->root_W += o->root_heat_W_m * dz * scale * c->p;
-	book_barrel(c, x, o->barrel_heat_W_m * dz * scale * c->p);
+	c->m->power_W += o->power_W_m * dz * c->p;
+	c->m->root_W += o->root_heat_W_m * dz * c->p;
+	book_barrel(c, x, o->barrel_heat_W_m * dz * c->p);
 	if (o->q_floor_used)
 		c->m->flags |= OW_FLAG_BACKFLOW;
 	if (o->max_shear_1_s > c->shear)
@@ -235,18 +256,124 @@ static enum ow_status step_pool(struct ctx *c, double x, double dz,
 	return OW_OK;
 }
 
-/* Melt flow of the pool per unit width, m^2/s: the melted mass spread over
- * the pool's width, or (pool still a sliver) its limit, the bed's own volume
- * flux per width at melt density. */
-static double pool_flux(const struct ctx *c, double room, double melt_kg_s,
-			double bed_h)
+/* Pressure gradient mismatch of a barrier's two channels when the solids
+ * channel carries q1 of the melt flow q: G_1(q1) - G_2(q - q1), falling as
+ * q1 rises. Temperatures untouched. */
+static enum ow_status split_gap(struct ctx *c, double x,
+				const struct chan ch[2], double q, double q1,
+				double *gap)
 {
-	const struct ow_material *mt = c->mat;
+	struct ow_melt_out o1, o2;
+	enum ow_status st = chan_solve(c, x, 0.0, &ch[0], q1, &o1);
 
-	if (room > POOL_MIN_FRAC * c->width)
-		return melt_kg_s / mt->melt_density_kg_m3 / room;
-	return c->vsz * bed_h * mt->solid_density_kg_m3 /
-	       mt->melt_density_kg_m3;
+	if (st == OW_OK)
+		st = chan_solve(c, x, 0.0, &ch[1], q - q1, &o2);
+	*gap = o1.dpdz_Pa_m - o2.dpdz_Pa_m;
+	return st;
+}
+
+#define SPLIT_TOL 1e-6  /* gradient mismatch relative to the larger one */
+#define SPLIT_MAXIT 60
+
+/* The share of the melt flow q the solids channel carries when both
+ * channels of a barrier section, side by side under the barrel, run at one
+ * pressure gradient: parallel conduits split the flow by their drag and
+ * pressure-flow conductances (Tadmor & Klein 1970, ch. 7, applied to each
+ * channel). Illinois regula falsi (Dowell & Jarratt, BIT 11 (1971) 168) on
+ * q1 in [0, q]; a channel whose gradient cannot be matched even with all
+ * or none of the flow gets all or none of it. */
+static enum ow_status split_flow(struct ctx *c, double x,
+				 const struct chan ch[2], double q,
+				 double *q1)
+{
+	double lo = 0.0, hi = q, flo, fhi, f, g1, g2;
+	int it, side = 0;
+	enum ow_status st = split_gap(c, x, ch, q, lo, &flo);
+
+	if (st == OW_OK)
+		st = split_gap(c, x, ch, q, hi, &fhi);
+	*q1 = flo <= 0.0 ? 0.0 : q;
+	if (st != OW_OK || flo <= 0.0 || fhi >= 0.0)
+		return st;
+	for (it = 0; it < SPLIT_MAXIT; it++) {
+		*q1 = (lo * fhi - hi * flo) / (fhi - flo);
+		st = split_gap(c, x, ch, q, *q1, &f);
+		if (st != OW_OK)
+			return st;
+		g1 = fabs(flo), g2 = fabs(fhi);
+		if (fabs(f) <= SPLIT_TOL * fmax(g1, g2) || f == 0.0)
+			break;
+		if (f > 0.0) {
+			lo = *q1, flo = f;
+			if (side == 1)
+				fhi *= 0.5;
+			side = 1;
+		} else {
+			hi = *q1, fhi = f;
+			if (side == -1)
+				flo *= 0.5;
+			side = -1;
+		}
+	}
+	return OW_OK;
+}
+
+/* Melt flow q over one step of a barrier section. The solids channel holds
+ * the bed and, beside it, a pool (the whole channel once the bed is gone);
+ * the melt channel beyond the barrier flight. Both carry melt at one
+ * pressure gradient (split_flow); the bands advance in each channel over
+ * its share of the step, so the band state is the flow-weighted mix of the
+ * two. *mo gets the flow-weighted gradient (the flow work of both) and the
+ * larger shear rate. A pool beside the bed narrower than it is deep
+ * carries none. */
+static enum ow_status step_barrier(struct ctx *c, double x, double dz,
+				   const struct split *sb, double bed_w,
+				   double q, struct ow_melt_out *mo)
+{
+	struct chan ch[2] = {{sb->bed_h, sb->bed_w - bed_w,
+			      bed_w > 0.0 ? c->vsz : 0.0},
+			     {sb->melt_h, sb->melt_w, 0.0}};
+	struct ow_melt_out o;
+	double q1 = 0.0, qs[2], g = 0.0;
+	enum ow_status st = OW_OK;
+	int k;
+
+	if (!(bed_w > 0.0 && ch[0].w < ch[0].h))
+		st = split_flow(c, x, ch, q, &q1);
+	qs[0] = q1;
+	qs[1] = q - q1;
+	memset(mo, 0, sizeof *mo);
+	for (k = 0; k < 2 && st == OW_OK; k++) {
+		if (!(qs[k] > 0.0))
+			continue;
+		st = step_pool(c, x, dz, &ch[k], qs[k], qs[k] / q, &o);
+		g += o.dpdz_Pa_m * qs[k] / q;
+		mo->max_shear_1_s = fmax(mo->max_shear_1_s, o.max_shear_1_s);
+	}
+	mo->dpdz_Pa_m = g;
+	return st;
+}
+
+/* The melt of one melting step: in a barrier section see step_barrier;
+ * otherwise the pool beside the bed, a channel of its own width W - X
+ * whose side wall, the bed, slides at V_sz (Tadmor & Klein 1970, ch. 9,
+ * convey the pool at width W - X). A pool narrower than it is deep is not
+ * yet a channel of its own: the bed filling the channel carries the
+ * pressure as the plug did (no build-up) and the pool melt stays at the
+ * melting point it entered with; an engineering choice, not from a source.
+ * *mo is zero then. */
+static enum ow_status step_melt_of_bed(struct ctx *c, double x, double dz,
+				       const struct split *sb, double bed_w,
+				       double q, struct ow_melt_out *mo)
+{
+	struct chan pool = {sb->bed_h, sb->bed_w - bed_w, c->vsz};
+
+	if (sb->barrier)
+		return step_barrier(c, x, dz, sb, bed_w, q, mo);
+	memset(mo, 0, sizeof *mo);
+	if (pool.w < pool.h)
+		return OW_OK;
+	return step_pool(c, x, dz, &pool, q, 1.0, mo);
 }
 
 /* Mix melt of mass dm_kg_s entering at temp_K into the pool of mass flow
@@ -257,6 +384,32 @@ static void mix_into_pool(struct ctx *c, double before, double dm,
 	if (dm <= 0.0 || before + dm <= 0.0)
 		return;
 	ow_melt_mix(c->sv->melt, dm / (before + dm), temp_K);
+}
+
+/* Plugging as the trade reads it, where the channel holding the bed gets
+ * shallower: the solid bed ratio there, and Tadmor's plugging number, the
+ * bed's width demand over its melting. With s = X/W, A = -dH/dz and
+ * psi_t = Phi / (rho_s V_sz sqrt(W)), the bed mass balance gives
+ * d sqrt(s)/dz = (A sqrt(s) - psi_t) / (2H) (Tadmor & Klein 1970, ch. 9),
+ * so the bed widens as it is squeezed when A sqrt(s) / psi_t > 1; for a
+ * bed filling the channel that is Tadmor's criterion psi_t <= A. */
+static void note_compression(struct ctx *c, const struct split *sa,
+			     const struct split *sb, double dz,
+			     const struct ow_melting_step_out *o, double x)
+{
+	double taper = (sa->bed_h - sb->bed_h) / dz, psi, r;
+
+	if (!(taper > 0.0) || !(o->bed_width_m > 0.0))
+		return;
+	if (o->sbr > c->m->max_sbr) {
+		c->m->max_sbr = o->sbr;
+		c->m->max_sbr_at_m = x;
+	}
+	psi = ow_melting_psi_taper(o->film.phi, c->mat->solid_density_kg_m3,
+				   c->vsz, sb->bed_w);
+	r = taper * sqrt(o->sbr) / psi;
+	if (psi > 0.0 && r > c->m->plug_ratio)
+		c->m->plug_ratio = r;
 }
 
 /* Melting over one step (Tadmor 1966): the bed melts into the pool (or the
@@ -273,7 +426,7 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 	struct ow_melting_step_out o;
 	struct ow_melt_out mo;
 	struct split sa, sb;
-	double melt_before = c->g - c->solid_flow, q, room, scale, pool_w;
+	double melt_before = c->g - c->solid_flow, q;
 	enum ow_status st;
 
 	channel_split(c, x, &sa);
@@ -291,19 +444,15 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 		return st;
 	mix_into_pool(c, melt_before, o.melted_kg_s, mt->melt_temp_K);
 	c->solid_flow = o.solid_flow_kg_s;
-	room = sb.barrier ? sb.melt_w : sb.bed_w - o.bed_width_m;
-	q = pool_flux(c, room, c->g - c->solid_flow, sb.bed_h);
-	scale = sb.barrier ? 1.0 : room / sb.bed_w;
-	pool_w = sb.barrier ? sb.melt_w : sb.bed_w; /* channel carrying melt */
-	st = step_pool(c, x + 0.5 * dx, dz, sb.melt_h,
-		       pool_w, q * pool_w, scale, &mo);
+	q = (c->g - c->solid_flow) / mt->melt_density_kg_m3;
+	st = step_melt_of_bed(c, x + 0.5 * dx, dz, &sb, o.bed_width_m, q,
+			      &mo);
 	if (st != OW_OK)
 		return st;
 	/* film: dissipation + pressure work on the bed; heat from barrel */
 	c->m->power_W += (o.dissipation_W + c->solid_flow /
 			  mt->solid_density_kg_m3 * mo.dpdz_Pa_m * dz) * c->p;
-	c->m->flow_work_W += (c->solid_flow / mt->solid_density_kg_m3 +
-			      q * pool_w * scale) *
+	c->m->flow_work_W += (c->solid_flow / mt->solid_density_kg_m3 + q) *
 			     mo.dpdz_Pa_m * dz * c->p;
 	book_barrel(c, x, o.barrel_heat_W * c->p);
 	c->P += mo.dpdz_Pa_m * dz;
@@ -314,10 +463,7 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 		if (isnan(c->m->plug_at_m))
 			c->m->plug_at_m = x + dx;
 	}
-	if (o.sbr > c->m->max_sbr) {
-		c->m->max_sbr = o.sbr;
-		c->m->max_sbr_at_m = x + dx;
-	}
+	note_compression(c, &sa, &sb, dz, &o, x + dx);
 	if (o.melted_at_m >= 0.0) {
 		c->ph = PH_MELT;
 		c->solid_flow = 0.0;
@@ -326,15 +472,19 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 	return OW_OK;
 }
 
-/* Melt conveying over one step of a conveying section. */
+/* Melt conveying over one step of a conveying section; in a barrier
+ * section both channels carry the melt (step_barrier). */
 static enum ow_status step_melt(struct ctx *c, double x, double dx, double dz)
 {
 	struct ow_melt_out mo;
-	double q = c->g / c->mat->melt_density_kg_m3;
-	enum ow_status st = step_pool(c, x + 0.5 * dx, dz,
-				      ow_screw_depth(c->sc, x + 0.5 * dx),
-				      c->width, q, 1.0, &mo);
+	struct split sp;
+	double q = c->g / c->mat->melt_density_kg_m3, xm = x + 0.5 * dx;
+	struct chan ch = {ow_screw_depth(c->sc, xm), c->width, 0.0};
+	enum ow_status st;
 
+	channel_split(c, xm, &sp);
+	st = sp.barrier ? step_barrier(c, xm, dz, &sp, 0.0, q, &mo)
+			: step_pool(c, xm, dz, &ch, q, 1.0, &mo);
 	if (st != OW_OK)
 		return st;
 	c->m->flow_work_W += q * mo.dpdz_Pa_m * dz * c->p;
@@ -398,7 +548,7 @@ static void record(struct ctx *c, int i, double x)
 	r->axial_m = x;
 	r->depth_m = ow_screw_depth(c->sc, x);
 	r->barrel_K = ow_solver_barrel(c->sv, x);
-	r->pressure_Pa = c->P;
+	r->pressure_Pa = c->P < 0.0 ? NAN : c->P; /* no pressure below 0 */
 	r->bulk_K = c->ph == PH_SOLIDS ? NAN : bulk;
 	r->peak_K = peak;
 	r->sbr = c->ph == PH_MELTING ? c->X / c->width
@@ -482,6 +632,7 @@ static void init_ctx(struct ctx *c, struct ow_solver *sv, double g,
 	c->melt_from = 0.0;
 	memset(m, 0, sizeof *m);
 	m->melt_start_m = m->melt_done_m = m->plug_at_m = NAN;
+	m->max_sbr_at_m = NAN;
 	m->feed_cap_kg_s = NAN;
 	m->max_Pa = c->P;
 	m->peak_K = -INFINITY;
