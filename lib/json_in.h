@@ -3,8 +3,9 @@
  * quantities with units, integers, strings and choices, strict key sets,
  * and the sources that {"value", "source"} objects carry.
  *
- * Not a public header: only config.c and config_calib.c include it. Everything here is
- * re-entrant; the state of one file lives in struct ow_jin. */
+ * Not a public header: only config.c and config_calib.c include it.
+ * Everything here is re-entrant; the state of one file lives in struct
+ * ow_jin. */
 #ifndef OW_JSON_IN_H
 #define OW_JSON_IN_H
 
