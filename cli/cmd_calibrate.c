@@ -292,6 +292,11 @@ static int run(const struct cal_args *a)
 	if (st == OW_OK)
 		st = ow_calib_run(s, rd, &o, r, &d);
 	if (st != OW_OK) {
+		if (r->n_resid > 0 && !a->c.quiet) { /* what was refused */
+			printf("refused; the readings against the model at "
+			       "the factors reached:\n");
+			print_residuals(r, a->c.units);
+		}
 		rc = cli_fail("calibrate", st, &d);
 		goto done;
 	}
