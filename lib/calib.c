@@ -40,6 +40,9 @@ struct job {
 	struct entry e[OW_CALIB_MAX_RESID];
 	struct ow_point *pts;   /* one per reading, the last solve */
 	double *warm;           /* last output per reading, kg/s */
+	int have;               /* cx, cr hold the last residuals asked */
+	double cx[OW_CF_COUNT]; /* ... for these unknowns */
+	double *cr;             /* n residuals */
 	int threads, solves;
 	int strict;             /* 1: a failed solve stops the fit (at the
 				   study's own factors); 0: a trial point
@@ -165,37 +168,65 @@ static void residuals(struct job *j, const double *x, double *r)
 	}
 }
 
+/* The residuals at x, remembered: the solver asks for the point it has
+ * just evaluated again (start, Jacobian), and a repeat costs no solve. */
+static void residuals_kept(struct job *j, const double *x, double *r)
+{
+	size_t bytes = (size_t)j->p * sizeof *x;
+
+	if (j->have && !memcmp(x, j->cx, bytes)) {
+		memcpy(r, j->cr, j->n * sizeof *r);
+		return;
+	}
+	residuals(j, x, r);
+	memcpy(j->cx, x, bytes);
+	memcpy(j->cr, r, j->n * sizeof *r);
+	j->have = 1;
+}
+
 static int gsl_f(const gsl_vector *x, void *params, gsl_vector *f)
 {
 	struct job *j = params;
 
-	residuals(j, gsl_vector_const_ptr(x, 0), gsl_vector_ptr(f, 0));
+	residuals_kept(j, gsl_vector_const_ptr(x, 0), gsl_vector_ptr(f, 0));
 	return j->st == OW_OK ? GSL_SUCCESS : GSL_EFAILED;
 }
 
-/* Central differences in ln f, step FD_STEP: the point solves converge to
- * a relative 2e-5 in output, far below what the step moves. */
-static int gsl_df(const gsl_vector *x, void *params, gsl_matrix *J)
+/* dr/d ln f by differences of step FD_STEP: central (error O(h^2)) when
+ * central, else forward from the remembered residuals at x (O(h), 1 %
+ * here: enough to steer the iteration). The point solves converge to a
+ * relative 2e-5 in output, far below what the step moves. */
+static int jacobian(struct job *j, const double *x, gsl_matrix *J,
+		    int central)
 {
-	struct job *j = params;
 	double xs[OW_CF_COUNT], *rp = malloc(2 * j->n * sizeof *rp);
 	size_t e;
 	int k;
 
 	if (!rp)
 		return GSL_ENOMEM;
+	if (!central)
+		residuals_kept(j, x, rp + j->n);
 	for (k = 0; k < j->p; k++) {
-		memcpy(xs, gsl_vector_const_ptr(x, 0), (size_t)j->p * sizeof *xs);
+		memcpy(xs, x, (size_t)j->p * sizeof *xs);
 		xs[k] += FD_STEP;
 		residuals(j, xs, rp);
-		xs[k] -= 2 * FD_STEP;
-		residuals(j, xs, rp + j->n);
+		if (central) {
+			xs[k] -= 2 * FD_STEP;
+			residuals(j, xs, rp + j->n);
+		}
 		for (e = 0; e < j->n; e++)
 			gsl_matrix_set(J, e, (size_t)k,
-				       (rp[e] - rp[j->n + e]) / (2 * FD_STEP));
+				       (rp[e] - rp[j->n + e]) /
+					       ((central ? 2 : 1) * FD_STEP));
 	}
 	free(rp);
 	return j->st == OW_OK ? GSL_SUCCESS : GSL_EFAILED;
+}
+
+static int gsl_df(const gsl_vector *x, void *params, gsl_matrix *J)
+{
+	return jacobian(params, gsl_vector_const_ptr(x, 0), J, 0);
 }
 
 static double sd_of(const struct ow_calib_options *o, enum ow_calib_qty q,
@@ -281,7 +312,7 @@ static enum ow_status check_solvable(struct job *j, double *r,
 	for (k = 0; k < j->p; k++)
 		x[k] = log(j->fixed[j->ids[k]]);
 	j->strict = 1;
-	residuals(j, x, r);
+	residuals_kept(j, x, r);
 	j->strict = 0;
 	if (j->st != OW_OK)
 		return ow_diag_set(d, j->st, "%s", j->diag.msg);
@@ -390,8 +421,6 @@ static enum ow_status errors(struct job *j, const double *x,
 {
 	gsl_matrix *J = gsl_matrix_alloc(j->n, (size_t)j->p);
 	gsl_matrix *cov = gsl_matrix_alloc((size_t)j->p, (size_t)j->p);
-	gsl_vector_const_view xv = gsl_vector_const_view_array(x,
-							       (size_t)j->p);
 	double sd[OW_CF_COUNT];
 	enum ow_status st = OW_ENOMEM;
 	int k, l;
@@ -400,7 +429,7 @@ static enum ow_status errors(struct job *j, const double *x,
 		ow_diag_set(d, st, "out of memory");
 		goto fail;
 	}
-	if (gsl_df(&xv.vector, j, J) != GSL_SUCCESS) {
+	if (jacobian(j, x, J, 1) != GSL_SUCCESS) {
 		st = ow_diag_set(d, j->st ? j->st : OW_ENOMEM, "%s",
 				 j->diag.msg[0] ? j->diag.msg : "out of memory");
 		goto fail;
@@ -534,7 +563,8 @@ static enum ow_status job_init(struct job *j, const struct ow_study *s,
 	j->work = malloc(sizeof *j->work);
 	j->pts = calloc(r->n ? r->n : 1, sizeof *j->pts);
 	j->warm = calloc(r->n ? r->n : 1, sizeof *j->warm);
-	if (!j->base || !j->work || !j->pts || !j->warm)
+	j->cr = calloc(OW_CALIB_MAX_RESID, sizeof *j->cr);
+	if (!j->base || !j->work || !j->pts || !j->warm || !j->cr)
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	memcpy(j->base, s, sizeof *s);
 	for (k = 0; k < OW_CF_COUNT; k++) {
@@ -554,6 +584,7 @@ static void job_free(struct job *j)
 	free(j->work);
 	free(j->pts);
 	free(j->warm);
+	free(j->cr);
 }
 
 static enum ow_status fit(struct job *j, struct ow_calib_result *out,
