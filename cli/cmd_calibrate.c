@@ -45,6 +45,8 @@ static void help(void)
 	       "                 friction         both pellet friction "
 	       "coefficients\n"
 	       "                 die_factor       the pressure the die needs\n"
+	       "                 heat_transfer    the barrel zones' wall "
+	       "heat-transfer coefficients\n"
 	       "  --sd Q=V       a reading's uncertainty, relative ('2%%') or "
 	       "with its unit\n"
 	       "                 ('0.5 MPa', '3 K'); Q: output, head_pressure, "
@@ -196,7 +198,8 @@ static int parse_free(const char *cmd, const char *list, unsigned *mask)
 		if (k < 0)
 			return cli_usage_error(cmd, "--free takes "
 					       "viscosity_scale, friction, "
-					       "die_factor (comma-separated)");
+					       "die_factor, heat_transfer "
+					       "(comma-separated)");
 		*mask |= 1u << k;
 	}
 	return 0;

@@ -16,7 +16,7 @@
 #include "ow_solver.h"
 
 #define MAX_ITER 60
-#define FD_STEP 0.01       /* central-difference step in ln f */
+#define FD_STEP 0.01       /* difference step in ln f (1 %) */
 #define PENALTY 1e3        /* residual (sd) of a reading that failed */
 #define FLAT_SD 1e-3       /* |dr/d ln f| below this: no reading moves f */
 #define COLLINEAR 0.999    /* |correlation| at which two factors merge */

@@ -34,6 +34,13 @@ static void apply_die(struct ow_study *s, double f)
 	s->line.die_factor *= f;
 }
 
+/* The zones' wall coefficients between control point and bore, through
+ * the line's one multiplier on all of them. */
+static void apply_heat(struct ow_study *s, double f)
+{
+	s->line.heat_transfer_factor *= f;
+}
+
 static const struct ow_calib_factor table[OW_CF_COUNT] = {
 	{"viscosity_scale",
 	 "multiplies the resin's melt viscosity at every shear rate and "
@@ -43,6 +50,9 @@ static const struct ow_calib_factor table[OW_CF_COUNT] = {
 	 0.25, 4.0, apply_friction},
 	{"die_factor", "multiplies the pressure the die needs", 0.2, 5.0,
 	 apply_die},
+	{"heat_transfer",
+	 "multiplies every barrel zone's heat-transfer coefficient between "
+	 "its set-point and the bore", 0.1, 10.0, apply_heat},
 };
 
 const struct ow_calib_factor *ow_calib_factor(int k)

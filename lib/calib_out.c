@@ -13,8 +13,10 @@
 #include <stdlib.h>
 #include <string.h>
 
-#include "mapdir_impl.h"
 #include "ow_config.h"
+#include "ow_io.h"
+
+#define MAX_STUDY_BYTES ((size_t)4 << 20) /* as the loader's guard */
 
 /* The folder of path ("." when it has none) into out. */
 static void folder_of(const char *path, char *out, size_t n)
@@ -191,14 +193,13 @@ enum ow_status ow_calib_study_text(const struct ow_study *s,
 {
 	char dir[PATH_MAX], *buf = NULL;
 	size_t len = 0, bom;
-	int err = md_slurp(s->path, &buf, &len);
 	cJSON *doc = NULL, *b;
-	enum ow_status st;
+	enum ow_status st = ow_io_read_file(s->path, MAX_STUDY_BYTES, &buf,
+					    &len, d);
 
 	*text = NULL;
-	if (err)
-		return ow_diag_set(d, OW_EINPUT, "%s: cannot read it again: %s",
-				   s->path, strerror(err));
+	if (st != OW_OK)
+		return st;
 	bom = len >= 3 && !memcmp(buf, "\xEF\xBB\xBF", 3) ? 3 : 0;
 	doc = cJSON_ParseWithLength(buf + bom, len - bom);
 	free(buf);

@@ -66,8 +66,8 @@ static enum ow_status parse_free(const struct ow_jin *j, const cJSON *o,
 		if (k < 0)
 			return ow_jin_fail(j, ow_jin_index(q, p, i),
 					   "expected a factor name: "
-					   "viscosity_scale, friction or "
-					   "die_factor");
+					   "viscosity_scale, friction, "
+					   "die_factor or heat_transfer");
 		c->free_mask |= 1u << k;
 	}
 	return st;
@@ -257,8 +257,8 @@ enum ow_status ow_config_calibration(const struct ow_jin *j, const cJSON *o,
 				     struct ow_study *s)
 {
 	static const char *const keys[] = {
-		"notes", "viscosity_scale", "friction", "die_factor", "free",
-		"uncertainty", "fit", NULL};
+		"notes", "viscosity_scale", "friction", "die_factor",
+		"heat_transfer", "free", "uncertainty", "fit", NULL};
 	struct ow_calibration *c = &s->calib;
 	const cJSON *b = ow_jin_get(o, "calibration"), *v, *n;
 	char p[OW_JPATH_LEN];

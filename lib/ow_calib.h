@@ -29,6 +29,7 @@ enum ow_calib_factor_id {
 	OW_CF_VISCOSITY, /* viscosity_scale: the resin's melt viscosity */
 	OW_CF_FRICTION,  /* friction: both pellet friction coefficients */
 	OW_CF_DIE,       /* die_factor: the die's pressure requirement */
+	OW_CF_HEAT,      /* heat_transfer: the barrel wall coefficients */
 	OW_CF_COUNT
 };
 

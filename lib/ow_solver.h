@@ -22,6 +22,8 @@
 #define OW_FLAG_PARTIAL_FILL 0x20u  /* absolute pressure below zero somewhere:
 				       the channel cannot run full there
 				       (starved, partly filled) */
+#define OW_FLAG_ZONE_FLOAT 0x40u    /* a zone cannot hold its set-point and
+				       runs at the temperature it can hold */
 
 /* Figures of one operating point, SI. */
 struct ow_point {
@@ -52,10 +54,29 @@ struct ow_point {
 	double torque_Nm;
 	double sec_J_kg;              /* drive power / throughput */
 	double barrel_heat_W;         /* net heat barrel -> resin */
-	double zone_heat_W[OW_MAX_ZONES];
+	double zone_heat_W[OW_MAX_ZONES]; /* heat each zone gives the resin */
+	double zone_demand_W[OW_MAX_ZONES]; /* heat each zone must give to
+					       hold its set-point (< 0:
+					       cooling) */
+	double zone_control_K[OW_MAX_ZONES]; /* control-point temperature the
+						zone runs at (the set-point
+						unless it floats) */
+	double zone_load;             /* max over zones of demand / the
+					 heating (or cooling) power, - */
+	unsigned zone_floating;       /* bit i: zone i cannot hold its
+					 set-point */
 	double residence_s;           /* mean residence time hopper -> tip */
 	double feed_capacity_kg_s;    /* feed section's Darnell-Mol rate at
 					 no pressure loss (NAN: melt-fed) */
+	/* energy book: power + barrel + root = enthalpy rise + flow work */
+	double root_heat_W;           /* heat screw root -> resin */
+	double enthalpy_rise_W;       /* G (h(T_bulk) - h(T_feed)), solids
+					 leaving at the feed temperature;
+					 h: sensible + latent */
+	double flow_work_W;           /* sum of Q dP along the screw (~ G
+					 (P_tip - P_feed)/rho_melt): the
+					 pressure energy the melt takes to
+					 the die */
 	double energy_residual;       /* (in - out) / drive power, - */
 	int n_iter;                   /* marches done by the match */
 	unsigned flags;

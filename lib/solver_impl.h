@@ -4,6 +4,7 @@
 #ifndef OW_SOLVER_IMPL_H
 #define OW_SOLVER_IMPL_H
 
+#include "ow_delay.h"
 #include "ow_melt.h"
 #include "ow_melting.h"
 #include "ow_solids.h"
@@ -26,6 +27,9 @@ struct march {
 	double root_W;        /* heat root -> resin */
 	double flow_work_W;   /* sum of Q dP over the screw */
 	double zone_W[OW_MAX_ZONES];
+	double zone_demand_W[OW_MAX_ZONES]; /* at the set-point */
+	double ctrl_K[OW_MAX_ZONES];  /* control points as run */
+	unsigned zone_floating;       /* bit per zone */
 	double hold_kg;       /* resin held in the channel (residence) */
 	double feed_cap_kg_s; /* feed section capacity (NAN: melt-fed) */
 	unsigned flags;
@@ -36,6 +40,10 @@ struct ow_solver {
 	struct ow_melt_ws *melt;
 	double rev_s;                 /* screw speed of the current run */
 	double set_K[OW_MAX_ZONES];   /* zone set-points of the current run */
+	double ctrl_K[OW_MAX_ZONES];  /* control points of the current march
+					 (the set-points unless a zone
+					 floats) */
+	struct ow_melt_ws *melt_save; /* melt state at a zone's start */
 	int n_steps;                  /* axial steps hopper -> tip */
 	double dx_m;                  /* axial step */
 	struct ow_profile_row *rows;  /* n_steps + 1 rows */
@@ -49,7 +57,8 @@ struct ow_solver {
 enum ow_status ow_solver_march(struct ow_solver *sv, double g_kg_s,
 			       struct march *m);
 
-/* Barrel temperature at axial position x of the current run. */
+/* Barrel control-point temperature at axial position x of the current
+ * march. */
 double ow_solver_barrel(const struct ow_solver *sv, double x_m);
 
 #endif
