@@ -4,6 +4,7 @@
 #include "cli.h"
 #include "ow_mapdir.h"
 #include "ow_maps.h"
+#include "spread.h"
 
 #include <errno.h>
 #include <getopt.h>
@@ -20,6 +21,7 @@ struct map_opts {
 	const char *dir;
 	int rpm_steps, axis_steps, refine;
 	struct cli_render r;
+	struct cli_spread sp;
 };
 
 static void help(void)
@@ -29,7 +31,9 @@ static void help(void)
 	       "                [--paper a4|letter] [--revision R] "
 	       "[--prepared-by NAME]\n"
 	       "                [--approved-by NAME] [--date YYYY-MM-DD] "
-	       "[--current RPM,SET]\n\n"
+	       "[--current RPM,SET]\n"
+	       "                [--spread SPEC] [--samples N] [--seed S] "
+	       "[--level P]\n\n"
 	       "Sweeps screw speed x barrel set-point, classifies every point "
 	       "against the\nstudy's limits, extracts the recommended window "
 	       "and writes grid.csv,\nwindow.json, the maps and report.pdf "
@@ -45,6 +49,7 @@ static void help(void)
 	       "  --quiet       no progress bar, no summary\n"
 	       "  --units si|us units of the maps, report and summary\n"
 	       CLI_RENDER_HELP
+	       CLI_SPREAD_HELP
 	       "exit codes: 0 ok (also for an empty window), 1 inputs "
 	       "rejected, 2 usage,\n            3 computation failed, 4 "
 	       "output could not be written\n");
@@ -140,9 +145,13 @@ static int write_outputs(const struct ow_study *s, const struct ow_grid *g,
 	enum ow_status st = OW_OK;
 
 	st = ow_results_grid_csv(s, g, &text, &d);
+	if (st == OW_OK)
+		st = cli_spread_grid(s, g, &o->sp, &text, &d);
 	rc = write_text(o->dir, "grid.csv", text, st, &d);
 	if (!rc) {
 		st = ow_results_window_json(s, g, w, &text, &d);
+		if (st == OW_OK)
+			st = cli_spread_window(s, &o->sp, &text, &d);
 		rc = write_text(o->dir, "window.json", text, st, &d);
 	}
 	if (rc)
@@ -210,13 +219,17 @@ static int sweep(const struct ow_study *s, struct map_opts *o)
 		rc = cli_fail("map", st, &d);
 		goto done;
 	}
-	rc = write_folder(s, g, w, o);
+	rc = cli_spread_run(s, g, o->c.jobs, o->c.quiet, &o->sp);
+	if (!rc)
+		rc = write_folder(s, g, w, o);
 	if (!rc && !o->c.quiet) {
 		print_window(s, g, w, o);
+		cli_spread_print(s, w, &o->sp, o->c.units);
 		printf("written to %s/ (grid.csv, window.json, maps, "
 		       "report.pdf)\n", o->dir);
 	}
 done:
+	cli_spread_free(&o->sp);
 	ow_window_destroy(w);
 	ow_grid_destroy(g);
 	return rc;
@@ -230,6 +243,7 @@ int cmd_map(int argc, char **argv)
 		{"output", required_argument, NULL, 'o'},
 		{"grid", required_argument, NULL, 'g'},
 		{"refine", required_argument, NULL, 'r'},
+		CLI_SPREAD_LONGOPTS,
 		{NULL, 0, NULL, 0},
 	};
 	struct map_opts o = {.c = {OW_SYS_SI, 0, 0}, .dir = "opwin-map"};
@@ -239,6 +253,7 @@ int cmd_map(int argc, char **argv)
 	int id, rc;
 
 	cli_render_init(&o.r);
+	cli_spread_init(&o.sp);
 	optind = 1;
 	while ((id = getopt_long(argc, argv, "ho:q", opts, NULL)) != -1) {
 		if (id == 'h' || id == 'V') {
@@ -258,6 +273,9 @@ int cmd_map(int argc, char **argv)
 				return cli_usage_error("map",
 						       "--refine takes 0..4");
 			o.refine = (int)k;
+		} else if ((rc = cli_spread_option(&o.sp, id, optarg)) >= 0) {
+			if (rc)
+				return rc;
 		} else if ((rc = cli_render_option("map", &o.r, id, optarg))) {
 			if (rc > 0 || (rc = cli_common_option("map", &o.c, id,
 							      optarg)))
@@ -268,7 +286,9 @@ int cmd_map(int argc, char **argv)
 		return cli_usage_error("map", "expects one STUDY.json");
 	if ((rc = cli_load_study("map", argv[optind], &u, &s)))
 		return rc;
-	rc = cli_render_current("map", u, &o.r, o.c.units);
+	rc = cli_spread_load(u, &o.sp, s);
+	if (!rc)
+		rc = cli_render_current("map", u, &o.r, o.c.units);
 	if (!rc)
 		rc = cli_outdir_check("map", o.dir);
 	if (!rc)

@@ -932,7 +932,7 @@ static enum ow_status parse_study(const struct ow_jin *j, const cJSON *o,
 	static const char *const keys[] = {
 		"notes", "title", "screw", "resin", "feed", "barrel", "die",
 		"screen_pack", "limits", "sweep", "numerics", "calibration",
-		NULL};
+		"spread", NULL};
 	struct ow_diag tmp = {{0}};
 	enum ow_status st = ow_jin_keys(j, o, "", keys);
 
@@ -956,6 +956,8 @@ static enum ow_status parse_study(const struct ow_jin *j, const cJSON *o,
 		st = check_resin(&s->resin, s->path, "calibration applied: "
 				 "resin.", j->d);
 	}
+	if (st == OW_OK)
+		st = ow_config_spread(j, o, s);
 	return st;
 }
 

@@ -1,0 +1,32 @@
+/* ow_spread_out.h - writing a spread run: grid.csv with safe_share and
+ * worst_margin_<limit> columns, window.json with robust_window and the
+ * spread record. Both take the nominal text as ow_results wrote it and
+ * return a new text the caller frees. */
+#ifndef OW_SPREAD_OUT_H
+#define OW_SPREAD_OUT_H
+
+#include "ow_spread.h"
+#include "ow_sweep.h"
+#include "ow_window.h"
+
+/* csv: grid.csv of grid g (ow_results_grid_csv); each row gets the share
+ * of safe samples at its point and the lowest margin over the samples per
+ * set limit (empty where the point was decided without sampling). */
+enum ow_status ow_spread_grid_csv(const struct ow_study *s,
+				  const struct ow_grid *g,
+				  const struct ow_spread_result *r,
+				  const char *csv, char **out,
+				  struct ow_diag *d);
+
+/* json: window.json of the nominal window; adds `robust_window` (the
+ * window w of the robust grid with the keys of the nominal one, and its
+ * level) and `spread` (samples, seed, level, design, solves,
+ * solves_saved, inputs, sensitivity). */
+enum ow_status ow_spread_window_json(const struct ow_study *s,
+				     const struct ow_grid *robust,
+				     const struct ow_window *w,
+				     const struct ow_spread_result *r,
+				     const char *json, char **out,
+				     struct ow_diag *d);
+
+#endif
