@@ -24,6 +24,7 @@ struct worker {
 	double *u;            /* samples x inputs */
 	double *m;            /* samples x limits */
 	double *mmin;         /* samples: smallest margin */
+	int solves;           /* solves this thread did */
 };
 
 struct srun {
@@ -88,6 +89,7 @@ static void solve_moved(const struct srun *x, struct worker *w,
 		return;
 	}
 	move_study(x, w, vals);
+	w->solves++;
 	ow_line_apply_axis(&w->s->line, gp->axis, set_K);
 	if (ow_solver_run(w->sv, gp->rpm, set_K, warm_of(gp), &pt, &d) != OW_OK)
 		pt.flags |= OW_FLAG_NOT_CONVERGED; /* never stop a sweep */
@@ -165,7 +167,8 @@ static void measure_bound(struct srun *x, struct worker *ws)
 			b = delta[p][k] > b ? delta[p][k] : b;
 		x->r->bound[k] = BOUND_SAFETY * b;
 	}
-	x->r->probe_solves = np * 2 * x->d;
+	for (p = 0; p < x->c->jobs; p++)
+		x->r->probe_solves += ws[p].solves;
 }
 
 /* 1: every sample safe, 0: every sample unsafe, -1: sample the point.
@@ -447,16 +450,19 @@ static enum ow_status setup(struct srun *x, const struct ow_study *s,
 	return OW_OK;
 }
 
-static void count(struct srun *x)
+/* Solves done (probes included), and samples not solved: at decided
+ * points and where a sample is the nominal study. */
+static void count(struct srun *x, const struct worker *ws)
 {
-	int i, total = x->g->n_rpm * x->g->n_axis, sampled = 0, solved = 0;
+	int i, total = x->g->n_rpm * x->g->n_axis, solved = 0;
 
-	for (i = 0; i < total; i++) {
+	x->r->solves = 0;
+	for (i = 0; i < x->c->jobs; i++)
+		x->r->solves += ws[i].solves;
+	for (i = 0; i < total; i++)
 		solved += x->g->pts[i].solved == 1;
-		sampled += x->r->pts[i].sampled;
-	}
-	x->r->solves = x->r->probe_solves + sampled * x->n;
-	x->r->solves_saved = (solved - sampled) * x->n;
+	x->r->solves_saved =
+		solved * x->n - (x->r->solves - x->r->probe_solves);
 }
 
 enum ow_status ow_spread_run(const struct ow_study *s, const struct ow_grid *g,
@@ -482,7 +488,7 @@ enum ow_status ow_spread_run(const struct ow_study *s, const struct ow_grid *g,
 	point_pass(&x, ws);
 	fill_unsolved(g, x.r);
 	rank_inputs(&x);
-	count(&x);
+	count(&x, ws);
 	if (c->progress)
 		c->progress(c->progress_ctx, x.planned, x.planned);
 	*out = x.r;
