@@ -165,6 +165,11 @@ static int write_outputs(const struct ow_study *s, const struct ow_grid *g,
 		free(rows);
 		return cli_fail("map", st, &d);
 	}
+	rc = cli_spread_files(s, g, w, &o->sp, o->c.units, o->dir);
+	if (rc) {
+		free(rows);
+		return rc;
+	}
 	o->r.rep.centre_point = w->empty ? NULL : &centre;
 	o->r.rep.profile = rows;
 	o->r.rep.n_profile = n;

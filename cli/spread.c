@@ -223,3 +223,19 @@ void cli_spread_print(const struct ow_study *s, const struct ow_window *nom,
 	printf("  %d sample solves, %d saved where every sample agrees\n",
 	       sp->r->solves, sp->r->solves_saved);
 }
+
+int cli_spread_files(const struct ow_study *s, const struct ow_grid *g,
+		     const struct ow_window *w, const struct cli_spread *sp,
+		     enum ow_unit_system units, const char *dir)
+{
+	struct ow_maps_options mo;
+	struct ow_diag d = {{0}};
+	enum ow_status st;
+
+	if (!sp->r)
+		return CLI_OK;
+	ow_maps_default(&mo);
+	mo.units = units;
+	st = ow_maps_write_share(s, g, w, sp->w, sp->r, &mo, dir, &d);
+	return st == OW_OK ? CLI_OK : cli_fail("map", st, &d);
+}

@@ -66,6 +66,12 @@ enum ow_status cli_spread_window(const struct ow_study *s,
 				 const struct cli_spread *sp, char **text,
 				 struct ow_diag *d);
 
+/* map-safe-share.png/.svg into dir (nothing without a spread run); w the
+ * nominal window. Exit code. */
+int cli_spread_files(const struct ow_study *s, const struct ow_grid *g,
+		     const struct ow_window *w, const struct cli_spread *sp,
+		     enum ow_unit_system units, const char *dir);
+
 /* Summary lines (nothing without a spread run). */
 void cli_spread_print(const struct ow_study *s, const struct ow_window *nominal,
 		      const struct cli_spread *sp, enum ow_unit_system units);
