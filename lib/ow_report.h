@@ -49,6 +49,11 @@ struct ow_report_options {
 	const struct ow_point *centre_point;
 	const struct ow_profile_row *profile;
 	int n_profile;
+	/* a map run across a spread of inputs (ow_spread.h): its result and
+	 * the robust window, for the page on them; NULL: no such page.
+	 * Borrowed. */
+	const struct ow_spread_result *spread;
+	const struct ow_window *robust;
 };
 
 /* Defaults: A4, SI, no date, blank revision and names, no current point,
