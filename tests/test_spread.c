@@ -253,6 +253,43 @@ static void bad_spread_block_names_file_and_path(void **st)
 	free(s);
 }
 
+/* A calibrated factor with a standard error varies as a normal multiplier
+ * of sd std_error / value about 1; an explicit range on the same input
+ * replaces it. The truncated normal's median is its mean and its ends
+ * are +-3 sd (Johnson, Kotz & Balakrishnan 1994, ch. 13). */
+static void calibrated_factors_vary_within_their_standard_errors(void **st)
+{
+	struct ow_calibration c;
+	struct ow_spread sp;
+	double lo, hi;
+	(void)st;
+	ow_calib_default(&c);
+	c.present = 1;
+	c.value[OW_CF_VISCOSITY] = 1.25;
+	c.std_error[OW_CF_VISCOSITY] = 0.05;
+	c.value[OW_CF_DIE] = 0.8;
+	c.std_error[OW_CF_DIE] = 0.04;
+	ow_spread_default(&sp);
+	ow_spread_add_calib(&sp, &c);
+	assert_int_equal(sp.n, 2);
+	assert_string_equal(sp.in[0].name, "calibration.viscosity_scale");
+	assert_true(sp.in[0].normal);
+	assert_abs(sp.in[0].hi, 0.04, 1e-15);
+	assert_abs(ow_spread_value(&sp.in[1], 0.5), 1.0, 1e-12);
+	ow_spread_extent(&sp.in[1], &lo, &hi);
+	assert_abs(lo, 1.0 - 3 * 0.05, 1e-12);
+	assert_abs(hi, 1.0 + 3 * 0.05, 1e-12);
+	assert_abs(ow_spread_value(&sp.in[1], 1e-12), lo, 1e-9);
+
+	ow_spread_default(&sp); /* an explicit viscosity range first */
+	sp.n = 1;
+	sp.in[0].kind = OW_SK_VISCOSITY;
+	sp.in[0].factor = OW_CF_VISCOSITY;
+	ow_spread_add_calib(&sp, &c);
+	assert_int_equal(sp.n, 2);
+	assert_string_equal(sp.in[1].name, "calibration.die_factor");
+}
+
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
@@ -261,6 +298,8 @@ int main(void)
 		cmocka_unit_test(robust_window_shrinks_as_the_spread_widens),
 		cmocka_unit_test(same_seed_gives_the_same_files_for_any_jobs),
 		cmocka_unit_test(bad_spread_block_names_file_and_path),
+		cmocka_unit_test(
+			calibrated_factors_vary_within_their_standard_errors),
 	};
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
 				      ow_test_units_teardown);
