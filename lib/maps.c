@@ -19,6 +19,18 @@ void ow_maps_default(struct ow_maps_options *o)
 	o->svg = 1;
 }
 
+void maps_colour_bar(const struct ow_plot *p, const struct ow_ticks *lv,
+                     enum ow_cmap map, const char *title, double font_pt)
+{
+	struct ow_rect bar;
+
+	bar.x = p->area.x + p->area.w + 1.4 * font_pt;
+	bar.y = p->area.y - 2.0 * font_pt;
+	bar.w = 7.0 * font_pt;
+	bar.h = p->area.h + 5.4 * font_pt + 4.0;
+	ow_plot_colour_bar(p->cv, &bar, lv, map, title, font_pt);
+}
+
 double maps_font(const struct ow_maps_options *o)
 {
 	return o && o->font_pt > 0.0 ? o->font_pt : 9.0;

@@ -358,7 +358,7 @@ ow_maps_draw_figure(struct ow_canvas *cv, const struct ow_rect *box,
 	struct ow_plot_axis x, y;
 	struct ow_plot p;
 	struct ow_ticks lv;
-	struct ow_rect inner, bar;
+	struct ow_rect inner;
 	char ytitle[128], btitle[128], sub[256], title[400];
 	double fs;
 	enum ow_status st;
@@ -403,11 +403,7 @@ ow_maps_draw_figure(struct ow_canvas *cv, const struct ow_rect *box,
 	if (st != OW_OK)
 		return st;
 	ow_plot_axes(&p, &x, &y);
-	bar.x = p.area.x + p.area.w + 1.4 * fs;
-	bar.y = p.area.y - 2.0 * fs;
-	bar.w = 7.0 * fs;
-	bar.h = p.area.h + 5.4 * fs + 4.0;
-	ow_plot_colour_bar(cv, &bar, &lv, OW_CMAP_VIRIDIS,
-	                   bar_title(f, o->units, btitle, sizeof btitle), fs);
+	maps_colour_bar(&p, &lv, OW_CMAP_VIRIDIS,
+	                bar_title(f, o->units, btitle, sizeof btitle), fs);
 	return ow_canvas_status(cv, d);
 }

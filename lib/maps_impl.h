@@ -91,4 +91,8 @@ void maps_axes(const struct ow_study *s, const struct ow_grid *g,
 
 double maps_font(const struct ow_maps_options *o);
 
+/* The colour bar of a filled-contour map, right of p's data area. */
+void maps_colour_bar(const struct ow_plot *p, const struct ow_ticks *lv,
+                     enum ow_cmap map, const char *title, double font_pt);
+
 #endif

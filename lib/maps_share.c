@@ -78,7 +78,7 @@ enum ow_status ow_maps_draw_share(struct ow_canvas *cv,
 	struct ow_plot_axis x, y;
 	struct ow_plot p;
 	struct ow_ticks fill, iso;
-	struct ow_rect inner, bar;
+	struct ow_rect inner;
 	char ytitle[128], sub[256], title[400];
 	double fs = maps_font(o);
 	enum ow_status st = maps_field_create(s, g, o->units, &mf, d);
@@ -105,12 +105,7 @@ enum ow_status ow_maps_draw_share(struct ow_canvas *cv,
 	if (st != OW_OK)
 		return st;
 	ow_plot_axes(&p, &x, &y);
-	bar.x = p.area.x + p.area.w + 1.4 * fs;
-	bar.y = p.area.y - 2.0 * fs;
-	bar.w = 7.0 * fs;
-	bar.h = p.area.h + 5.4 * fs + 4.0;
-	ow_plot_colour_bar(cv, &bar, &fill, OW_CMAP_CIVIDIS,
-			   "safe samples (%)", fs);
+	maps_colour_bar(&p, &fill, OW_CMAP_CIVIDIS, "safe samples (%)", fs);
 	return ow_canvas_status(cv, d);
 }
 
