@@ -298,6 +298,13 @@ static void a_folder_check_names_what_is_in_the_way(void **state)
 	assert_int_equal(symlink(f->dir, in(f, "ln")), 0);
 	assert_int_equal(ow_io_dir_check(f->path, &d), OW_EIO);
 	assert_non_null(strstr(d.msg, "symbolic link"));
+	/* renamed into place, a folder needs a name of its own */
+	ow_diag_clear(&d);
+	assert_int_equal(ow_io_dir_check(".", &d), OW_EIO);
+	assert_non_null(strstr(d.msg, "name the folder itself"));
+	assert_int_equal(ow_io_dir_check("/", NULL), OW_EIO);
+	snprintf(path, sizeof path, "%s/new//", f->dir); /* as typed */
+	assert_int_equal(ow_io_dir_check(path, NULL), OW_OK);
 }
 
 int main(void)
