@@ -144,8 +144,19 @@ const char *ow_io_strerror(int err, char *buf, size_t n)
 		snprintf(buf, n, "is not a regular file");
 	else if (err == EFBIG)
 		snprintf(buf, n, "too large");
-	else if (strerror_r(err, buf, n) != 0)
-		snprintf(buf, n, "error %d", err);
+	else {
+#if defined(__GLIBC__)
+		/* _GNU_SOURCE (above) selects the GNU strerror_r: it returns
+		 * the text, which may be a static string, not buf */
+		const char *m = strerror_r(err, buf, n);
+
+		if (m != buf)
+			snprintf(buf, n, "%s", m);
+#else
+		if (strerror_r(err, buf, n) != 0)
+			snprintf(buf, n, "error %d", err);
+#endif
+	}
 	return buf;
 }
 

@@ -158,7 +158,9 @@ static void reader_refuses_folders_fifos_and_large_files(void **state)
 	assert_int_equal(ow_io_slurp(in(f, "a.txt"), 4, &text, NULL), EFBIG);
 	assert_int_equal(ow_io_read_file(in(f, "none"), 4, &text, NULL, &d),
 			 OW_EINPUT);
+	/* the system's reason, as strerror gives it */
 	assert_non_null(strstr(d.msg, "none: cannot be read"));
+	assert_non_null(strstr(d.msg, strerror(ENOENT)));
 }
 
 static void writer_replaces_a_file_keeping_its_mode(void **state)
