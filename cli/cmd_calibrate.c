@@ -263,7 +263,7 @@ static int write_outputs(const struct cal_args *a, const struct ow_study *s,
 					 &d);
 		if (st == OW_OK)
 			st = ow_io_write_file(a->out, text, strlen(text),
-						   &d);
+					      &d);
 		if (st == OW_OK && !a->c.quiet)
 			printf("calibrated study: %s\n", a->out);
 	}
