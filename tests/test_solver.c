@@ -612,6 +612,38 @@ static void zone_out_of_cooling_floats_to_the_heat_it_can_remove(void **st)
 	free(s);
 }
 
+/* The study's heat_transfer_factor multiplies every zone's wall
+ * coefficient: a factor of 1000 makes the walls ideal to within a small
+ * share of the barrel heat (resistances in series, Bird, Stewart &
+ * Lightfoot 2002 section 10.6), and a weaker wall lets less heat through,
+ * so the melt the barrel cools leaves hotter (at 40 rpm every zone of the
+ * demo holds its set-point). */
+static void heat_transfer_factor_scales_the_wall(void **st)
+{
+	struct ow_study *s = ow_test_study("demo/study-si.json");
+	struct ow_point base, stiff, ideal, weak;
+	int i;
+	(void)st;
+	base = solve(s, 40.0, NULL);
+	assert_int_equal(base.zone_floating, 0);
+	s->line.heat_transfer_factor = 1000.0;
+	stiff = solve(s, 40.0, NULL);
+	s->line.heat_transfer_factor = 1.0;
+	for (i = 0; i < s->line.n_zones; i++)
+		s->line.zones[i].wall_h_W_m2K = NAN;
+	ideal = solve(s, 40.0, NULL);
+	assert_rel(stiff.barrel_heat_W, ideal.barrel_heat_W, 0.01);
+	assert_abs(stiff.discharge_bulk_K, ideal.discharge_bulk_K, 0.1);
+	free(s);
+	s = ow_test_study("demo/study-si.json");
+	s->line.heat_transfer_factor = 0.25;
+	weak = solve(s, 40.0, NULL);
+	assert_true(base.barrel_heat_W < 0.0);
+	assert_true(weak.barrel_heat_W > base.barrel_heat_W);
+	assert_true(weak.discharge_bulk_K > base.discharge_bulk_K);
+	free(s);
+}
+
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
@@ -637,6 +669,7 @@ int main(void)
 			mixer_pressure_follows_the_land_flow_closed_form),
 		cmocka_unit_test(
 			zone_out_of_cooling_floats_to_the_heat_it_can_remove),
+		cmocka_unit_test(heat_transfer_factor_scales_the_wall),
 	};
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
 	                              ow_test_units_teardown);
