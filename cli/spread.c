@@ -192,6 +192,19 @@ enum ow_status cli_spread_window(const struct ow_study *s,
 	return st;
 }
 
+/* "lo - hi unit", rounded inwards as the nominal window's bounds are. */
+static void bounds(enum ow_unit_system units, enum ow_dim dim, double lo,
+		   double hi, int decimals)
+{
+	char a[32], b[32];
+
+	ow_report_format_bound(a, sizeof a, ow_display_value(units, dim, lo),
+			       decimals, OW_ROUND_UP);
+	ow_report_format_bound(b, sizeof b, ow_display_value(units, dim, hi),
+			       decimals, OW_ROUND_DOWN);
+	printf("%s - %s %s", a, b, ow_display_label(units, dim));
+}
+
 void cli_spread_print(const struct ow_study *s, const struct ow_window *nom,
 		      const struct cli_spread *sp, enum ow_unit_system units)
 {
@@ -200,18 +213,21 @@ void cli_spread_print(const struct ow_study *s, const struct ow_window *nom,
 
 	if (!sp->r)
 		return;
-	printf("Across the spread (%d inputs, %d samples a point, seed %lu):"
-	       "\n", s->spread.n, sp->r->samples, sp->r->seed);
-	if (w->empty)
-		printf("  robust window (%.0f %% of samples safe): empty\n",
-		       100.0 * sp->r->level);
-	else
-		printf("  robust window (%.0f %% of samples safe): %.1f - %.1f "
-		       "rpm, set-point %.1f - %.1f %s\n",
-		       100.0 * sp->r->level, w->rpm_min, w->rpm_max,
-		       ow_display_value(units, OW_DIM_TEMPERATURE, w->set_min_K),
-		       ow_display_value(units, OW_DIM_TEMPERATURE, w->set_max_K),
-		       ow_display_label(units, OW_DIM_TEMPERATURE));
+	printf("Across the spread (%d input%s, %d samples a point, seed %lu):"
+	       "\n", s->spread.n, s->spread.n == 1 ? "" : "s",
+	       sp->r->samples, sp->r->seed);
+	printf("  robust window (%.0f %% of samples safe)", 100.0 * sp->r->level);
+	if (w->empty) {
+		printf(": empty\n");
+	} else {
+		printf("\n    screw speed       ");
+		bounds(units, OW_DIM_ROT_SPEED, w->rpm_min, w->rpm_max,
+		       OW_REPORT_RPM_DECIMALS);
+		printf("\n    axis set-point    ");
+		bounds(units, OW_DIM_TEMPERATURE, w->set_min_K, w->set_max_K,
+		       OW_REPORT_TEMP_DECIMALS);
+		printf("\n");
+	}
 	printf("  robust share of the map %.0f %% (nominal %.0f %%)\n",
 	       100.0 * w->safe_fraction, 100.0 * nom->safe_fraction);
 	for (i = 0; i < sp->r->n_rank && i < 4; i++)
