@@ -125,6 +125,11 @@ int cli_spread_load(const struct ow_units *u, struct cli_spread *sp,
 	char *json;
 	enum ow_status st;
 
+	if (!sp->spec && !s->spread.present &&
+	    (sp->cfg.samples > 0 || sp->cfg.seed >= 0 || sp->cfg.level > 0))
+		return cli_usage_error("map", "--samples, --seed and --level "
+				       "need a spread (the study's spread "
+				       "block or --spread)");
 	if (!sp->spec)
 		return CLI_OK;
 	json = sp->spec[0] == '{' ? strdup(sp->spec) : short_json(sp->spec);
