@@ -217,6 +217,71 @@ static void same_seed_gives_the_same_files_for_any_jobs(void **st)
 	}
 }
 
+/* The output contract (README, "The window across a spread of inputs"):
+ * robust_window carries every key of the nominal window's bounds, the
+ * spread record its seed and counts, grid.csv a safe_share in 0..1 on
+ * every row, and the share map is written. */
+static void spread_outputs_follow_the_contract(void **st)
+{
+	static const char *const keys[] = {
+		"empty", "rpm_min", "rpm_max", "set_min_C", "set_max_C",
+		"axis_min", "axis_max", "centre", "output_kg_h_min",
+		"output_kg_h_max", "safe_fraction", "zones", "binding",
+		"boundaries"};
+	char path[256], *csv, *line;
+	const char *c0;
+	cJSON *w, *rw, *sp;
+	size_t k;
+	int col = -1, i, rows = 0;
+	(void)st;
+	snprintf(path, sizeof path, "%s/spread-1/window.json", OW_TEST_OUT);
+	w = cli_read_json(path);
+	assert_non_null(w);
+	rw = cJSON_GetObjectItem(w, "robust_window");
+	sp = cJSON_GetObjectItem(w, "spread");
+	assert_non_null(rw);
+	assert_non_null(sp);
+	for (k = 0; k < sizeof keys / sizeof *keys; k++) {
+		if (!cJSON_GetObjectItem(rw, keys[k]))
+			fail_msg("robust_window lacks %s", keys[k]);
+		assert_non_null(cJSON_GetObjectItem(w, keys[k]));
+	}
+	assert_abs(cli_json_num(sp, "seed"), 5, 0);
+	assert_abs(cli_json_num(sp, "samples"), 6, 0);
+	assert_true(cli_json_num(sp, "solves") > 0);
+	cJSON_Delete(w);
+	snprintf(path, sizeof path, "%s/spread-1/grid.csv", OW_TEST_OUT);
+	csv = cli_slurp(path);
+	assert_non_null(csv);
+	line = strchr(csv, '\n');
+	assert_non_null(line);
+	*line = '\0';
+	for (i = 0, c0 = csv; c0; i++, c0 = strchr(c0, ',') ? strchr(c0, ',') + 1
+							: NULL)
+		if (!strncmp(c0, "safe_share", 10) &&
+		    (c0[10] == ',' || c0[10] == '\0'))
+			col = i;
+	assert_true(col >= 0);
+	for (; line && line[1];
+	     line = strchr(line + 1, '\n')) {
+		const char *c = line + 1;
+		double v;
+
+		for (i = 0; i < col; i++)
+			c = strchr(c, ',') + 1;
+		v = strtod(c, NULL);
+		assert_true(v >= 0.0 && v <= 1.0);
+		rows++;
+	}
+	assert_int_equal(rows, 15); /* 5 x 3 grid */
+	free(csv);
+	snprintf(path, sizeof path, "%s/spread-1/map-safe-share.png",
+		 OW_TEST_OUT);
+	csv = cli_slurp(path);
+	assert_non_null(csv);
+	free(csv);
+}
+
 /* A bad spread block is rejected naming the source and the JSON path. */
 static void bad_spread_block_names_file_and_path(void **st)
 {
@@ -297,6 +362,7 @@ int main(void)
 			newtonian_share_matches_the_closed_form_probability),
 		cmocka_unit_test(robust_window_shrinks_as_the_spread_widens),
 		cmocka_unit_test(same_seed_gives_the_same_files_for_any_jobs),
+		cmocka_unit_test(spread_outputs_follow_the_contract),
 		cmocka_unit_test(bad_spread_block_names_file_and_path),
 		cmocka_unit_test(
 			calibrated_factors_vary_within_their_standard_errors),
