@@ -19,6 +19,22 @@ void ow_maps_default(struct ow_maps_options *o)
 	o->svg = 1;
 }
 
+enum ow_status maps_frame(struct ow_canvas *cv, const struct ow_rect *box,
+                          const struct ow_study *s, const struct ow_grid *g,
+                          enum ow_unit_system u, const char *title,
+                          const char *sub, double font_pt, struct ow_plot *p,
+                          struct ow_plot_axis *x, struct ow_plot_axis *y,
+                          char *ytitle, size_t n)
+{
+	struct ow_rect inner = *box;
+
+	maps_paper(cv, box, title, sub, font_pt);
+	inner.y += 3.4 * font_pt;
+	inner.h -= 3.4 * font_pt;
+	maps_axes(s, g, u, x, y, ytitle, n);
+	return ow_plot_init(p, cv, &inner, x, y, font_pt, 7.5 * font_pt);
+}
+
 void maps_colour_bar(const struct ow_plot *p, const struct ow_ticks *lv,
                      enum ow_cmap map, const char *title, double font_pt)
 {

@@ -358,7 +358,6 @@ ow_maps_draw_figure(struct ow_canvas *cv, const struct ow_rect *box,
 	struct ow_plot_axis x, y;
 	struct ow_plot p;
 	struct ow_ticks lv;
-	struct ow_rect inner;
 	char ytitle[128], btitle[128], sub[256], title[400];
 	double fs;
 	enum ow_status st;
@@ -387,12 +386,8 @@ ow_maps_draw_figure(struct ow_canvas *cv, const struct ow_rect *box,
 	subtitle_of(f, s, sub, sizeof sub);
 	snprintf(title, sizeof title, "%s — %s", ow_maps_figure_title(f),
 	         s->title);
-	maps_paper(cv, box, title, sub, fs);
-	inner = *box;
-	inner.y += 3.4 * fs;
-	inner.h -= 3.4 * fs;
-	maps_axes(s, g, o->units, &x, &y, ytitle, sizeof ytitle);
-	if (ow_plot_init(&p, cv, &inner, &x, &y, fs, 7.5 * fs) != OW_OK) {
+	if (maps_frame(cv, box, s, g, o->units, title, sub, fs, &p, &x, &y,
+	               ytitle, sizeof ytitle) != OW_OK) {
 		maps_field_free(&mf);
 		return ow_diag_set(d, OW_EARG, "figure map: box too small");
 	}

@@ -91,6 +91,16 @@ void maps_axes(const struct ow_study *s, const struct ow_grid *g,
 
 double maps_font(const struct ow_maps_options *o);
 
+/* Paper, title and subtitle of a filled-contour map in box, and its plot
+ * frame below them (x rpm, y the reference set-point; the y title into
+ * ytitle). OW_EARG when the box is too small. */
+enum ow_status maps_frame(struct ow_canvas *cv, const struct ow_rect *box,
+                          const struct ow_study *s, const struct ow_grid *g,
+                          enum ow_unit_system u, const char *title,
+                          const char *sub, double font_pt, struct ow_plot *p,
+                          struct ow_plot_axis *x, struct ow_plot_axis *y,
+                          char *ytitle, size_t n);
+
 /* The colour bar of a filled-contour map, right of p's data area. */
 void maps_colour_bar(const struct ow_plot *p, const struct ow_ticks *lv,
                      enum ow_cmap map, const char *title, double font_pt);

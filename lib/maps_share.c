@@ -78,7 +78,6 @@ enum ow_status ow_maps_draw_share(struct ow_canvas *cv,
 	struct ow_plot_axis x, y;
 	struct ow_plot p;
 	struct ow_ticks fill, iso;
-	struct ow_rect inner;
 	char ytitle[128], sub[256], title[400];
 	double fs = maps_font(o);
 	enum ow_status st = maps_field_create(s, g, o->units, &mf, d);
@@ -91,12 +90,8 @@ enum ow_status ow_maps_draw_share(struct ow_canvas *cv,
 	snprintf(sub, sizeof sub, "%d samples a point, seed %lu. Lines: 50, "
 		 "90, 99 %%. Thin box: nominal window; bold: robust (%.0f %%).",
 		 r->samples, r->seed, 100.0 * r->level);
-	maps_paper(cv, box, title, sub, fs);
-	inner = *box;
-	inner.y += 3.4 * fs;
-	inner.h -= 3.4 * fs;
-	maps_axes(s, g, o->units, &x, &y, ytitle, sizeof ytitle);
-	if (ow_plot_init(&p, cv, &inner, &x, &y, fs, 7.5 * fs) != OW_OK) {
+	if (maps_frame(cv, box, s, g, o->units, title, sub, fs, &p, &x, &y,
+		       ytitle, sizeof ytitle) != OW_OK) {
 		maps_field_free(&mf);
 		return ow_diag_set(d, OW_EARG, "share map: box too small");
 	}
