@@ -253,9 +253,9 @@ static int write_replace(const char *path, const void *data, size_t len,
 		free(tmp);
 		return err;
 	}
-	/* the file just made: regular, one link, ours */
-	if (fstat(fd, &st) != 0 || !S_ISREG(st.st_mode) || st.st_nlink != 1 ||
-	    st.st_uid != geteuid())
+	/* the file just made: regular and empty (owner and link count are
+	 * left alone: network and foreign file systems report their own) */
+	if (fstat(fd, &st) != 0 || !S_ISREG(st.st_mode) || st.st_size != 0)
 		err = EPERM;
 	if (!err && fchmod(fd, mode) != 0)
 		err = errno;
@@ -300,7 +300,7 @@ enum ow_status ow_io_write_file(const char *path, const void *data,
 		if (!S_ISREG(lst.st_mode))
 			return ow_diag_set(d, OW_EIO, "%s: is not a regular "
 					   "file: not replaced", path);
-		mode = lst.st_mode & 07777;
+		mode = lst.st_mode & 0777; /* never set-id bits */
 	} else if (errno != ENOENT) {
 		err = errno;
 		goto done;
@@ -344,7 +344,7 @@ static char *parent_of(const char *dir)
 enum ow_status ow_io_dir_check(const char *dir, struct ow_diag *d)
 {
 	char eb[128];
-	char *parent = parent_of(dir), *tmp = NULL;
+	char *parent = parent_of(dir);
 	struct stat st;
 	enum ow_status s = OW_OK;
 
@@ -363,16 +363,12 @@ enum ow_status ow_io_dir_check(const char *dir, struct ow_diag *d)
 				"is not a folder", dir, parent);
 		goto done;
 	}
-	tmp = sibling(dir, "XXXXXX");
-	if (!tmp || !mkdtemp(tmp)) {
+	/* with the effective ids, as creating would; EROFS on a read-only
+	 * file system. Nothing is made, so a signal leaves nothing behind. */
+	if (faccessat(AT_FDCWD, parent, W_OK | X_OK, AT_EACCESS) != 0)
 		s = ow_diag_set(d, OW_EIO, "%s: cannot create the folder: %s",
-				dir, tmp ? ow_io_strerror(errno, eb, sizeof eb)
-					 : "out of memory");
-		goto done;
-	}
-	rmdir(tmp);
+				dir, ow_io_strerror(errno, eb, sizeof eb));
 done:
-	free(tmp);
 	free(parent);
 	return s;
 }

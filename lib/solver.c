@@ -291,8 +291,11 @@ enum ow_status ow_solver_run(struct ow_solver *sv, double rpm,
 	memset(out, 0, sizeof *out);
 	ow_diag_clear(&sv->diag);
 	sv->rev_s = rpm / 60.0;
-	for (i = 0; i < l->n_zones; i++)
+	for (i = 0; i < l->n_zones; i++) {
 		sv->set_K[i] = set_K ? set_K[i] : l->zones[i].set_K;
+		sv->zone_slope[i] = 0.0; /* learnt afresh: a point depends
+					    on nothing solved before it */
+	}
 	out->rpm = rpm;
 	memcpy(out->set_K, sv->set_K, sizeof out->set_K);
 	sv->record = 1; /* every march records: the last one is kept */

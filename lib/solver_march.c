@@ -76,10 +76,14 @@ static void book_barrel(struct ctx *c, double x, double w)
 
 /* A pressure below zero cannot exist in melt: the channel cannot run full
  * there (starved or partly filled), so the full-channel model no longer
- * holds and the point is flagged. */
+ * holds and the point is flagged, once the bed is gone. Beside a solid bed
+ * a melt pool that needs such a pressure runs partly filled while the bed
+ * carries the load (the plug's own pressure is not modelled): the normal
+ * start of melting, most of all where it begins in a taper, not a starved
+ * channel. */
 static void note_pressure(struct ctx *c, double x)
 {
-	if (c->P < 0.0)
+	if (c->P < 0.0 && c->ph == PH_MELT)
 		c->m->flags |= OW_FLAG_PARTIAL_FILL;
 	if (c->P > c->m->max_Pa) {
 		c->m->max_Pa = c->P;
@@ -815,7 +819,11 @@ static enum ow_status run_zone(struct ctx *c, int z, int from, int to)
 	target = zone_target(zn, q0);
 	if (st != OW_OK || target == q0 || !isfinite(target))
 		goto done;
-	t1 = t0 + (target > q0 ? 10.0 : -10.0);
+	if (sv->zone_slope[z] > 0.0) /* a neighbouring march's slope */
+		t1 = t0 + fmin(fmax((target - q0) / sv->zone_slope[z],
+				    -ZONE_STEP_K), ZONE_STEP_K);
+	else
+		t1 = t0 + (target > q0 ? 10.0 : -10.0);
 	for (it = 0; it < ZONE_MAXIT; it++) {
 		double t2;
 
@@ -827,8 +835,17 @@ static enum ow_status run_zone(struct ctx *c, int z, int from, int to)
 		if (st != OW_OK || fabs(q1 - target) <=
 		    fmax(ZONE_TOL_W, ZONE_RTOL * fabs(target)))
 			break;
-		if (fabs(q1 - q0) < 1e-9 * (fabs(q0) + 1.0))
-			break; /* the zone's heat does not follow its wall */
+		if (fabs(q1 - q0) < 1e-9 * (fabs(q0) + 1.0)) {
+			/* the zone's heat does not follow its wall (friction
+			 * on the solid plug only): no temperature it can
+			 * hold; report it at its set-point, flagged */
+			restore(c, &s0);
+			c->zone = z;
+			sv->ctrl_K[z] = sv->set_K[z];
+			st = march_steps(c, from, to);
+			break;
+		}
+		sv->zone_slope[z] = (q1 - q0) / (t1 - t0);
 		t2 = t1 - (q1 - target) * (t1 - t0) / (q1 - q0);
 		t2 = fmin(fmax(t2, t1 - ZONE_STEP_K), t1 + ZONE_STEP_K);
 		t0 = t1;

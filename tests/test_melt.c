@@ -757,6 +757,41 @@ static void failures_return_a_status(void **state)
 
 /* ---- fluted mixer and barrel wall -------------------------------------- */
 
+/* Plane Couette-Poiseuille flow across a 1 mm gap under a wall at V with
+ * pressure gradient G = dP/e (mu = 500 Pa s): u(y) = V y/g - G y (g - y)
+ * /(2 mu) (Bird, Stewart & Lightfoot 2002, ch. 2, parallel plates, one
+ * moving); its flow rate and dissipation mu u'^2 integrated by GSL QAGS. */
+struct land_gap {
+	double V, G, g, mu;
+	int heat;
+};
+
+static double land_integrand(double y, void *p)
+{
+	const struct land_gap *l = p;
+	double du = l->V / l->g - l->G * (l->g - 2.0 * y) / (2.0 * l->mu);
+
+	if (l->heat)
+		return l->mu * du * du;
+	return l->V * y / l->g - l->G * y * (l->g - y) / (2.0 * l->mu);
+}
+
+static void land_agrees_with_gsl_over_the_gap(const struct ow_mixer_land *o,
+					      double Q, double nL, double V)
+{
+	gsl_integration_workspace *w = gsl_integration_workspace_alloc(100);
+	struct land_gap l = {V, o->dp_Pa / 6.35e-3, 1e-3, 500.0, 0};
+	gsl_function f = {land_integrand, &l};
+	double q, heat, err;
+
+	gsl_integration_qags(&f, 0.0, 1e-3, 0.0, 1e-12, 100, w, &q, &err);
+	l.heat = 1;
+	gsl_integration_qags(&f, 0.0, 1e-3, 0.0, 1e-12, 100, w, &heat, &err);
+	gsl_integration_workspace_free(w);
+	assert_rel(q * nL, Q, 1e-9);
+	assert_rel(heat * 6.35e-3 * nL, o->heat_W, 1e-9);
+}
+
 /* Barrier-land flow of a fluted mixer, 8 lands of 0.127 m, gap 1 mm, land
  * 6.35 mm, barrel at 0.26599 m/s (80 rpm on 63.5 mm), mu = 500 Pa s
  * (inputs chosen for the check). Per unit land length the gap is plane
@@ -778,7 +813,8 @@ static void mixer_land_follows_couette_poiseuille_land_flow(void **state)
 	assert_rel(o.power_W, o.heat_W, 1e-12);
 	assert_rel(o.shear_1_s, V / 1e-3, 1e-12);
 	/* barrel at rest: plane slit flow Q = nL g^3 dP/(12 mu e) backward
-	 * (BSL section 2.2), all of the pressure work dissipated */
+	 * (BSL ch. 2, flow between parallel plates), all of the pressure
+	 * work dissipated */
 	ow_melt_mixer_land(2e-5, 8.0, 0.127, 1e-3, 6.35e-3, 0.0, 500.0, &o);
 	assert_rel(o.dp_Pa, -7.5e5, 1e-12);
 	assert_rel(o.heat_W, 15.0, 1e-12);
@@ -788,6 +824,7 @@ static void mixer_land_follows_couette_poiseuille_land_flow(void **state)
 	assert_rel(o.dp_Pa, 4.242074791e6, 1e-9);
 	assert_rel(o.heat_W, 708.09637808, 1e-9);
 	assert_rel(o.power_W, 801.42202348, 1e-9);
+	land_agrees_with_gsl_over_the_gap(&o, 2.2e-5, nL, V);
 	ow_melt_mixer_land(2.2e-5, 8.0, 0.127, 0.0, 6.35e-3, V, 500.0, &o);
 	assert_true(isnan(o.dp_Pa) && isnan(o.heat_W));
 }

@@ -412,6 +412,31 @@ static void delay_zone_follows_speed_wall_and_feed(void **st)
 	free(s);
 }
 
+/* A first zone at 140 degC, below the polystyrene's flow temperature
+ * (150 degC), holds melting back until the transition: the bed reaches it
+ * nearly whole (common practice: a cold feed zone starves melting), so
+ * the solid bed ratio there fires the study's max_sbr limit (0.95).
+ * Beside that bed the melt pool runs partly filled (the bed carries the
+ * load): not a starved channel, so no partial_fill. */
+static void bed_reaching_the_transition_whole_fires_max_sbr(void **st)
+{
+	struct ow_study *s = ow_test_study("fixtures/studies/ps-rod.json");
+	double set[OW_MAX_ZONES];
+	struct ow_verdict v;
+	struct ow_point pt;
+	int i;
+	(void)st;
+	for (i = 0; i < s->line.n_zones; i++)
+		set[i] = s->line.zones[i].set_K;
+	set[0] = 413.15; /* 140 degC */
+	pt = solve(s, 60.0, set);
+	ow_classify(&pt, &s->line.limits, ow_screw_length(&s->screw), &v);
+	assert_true(pt.max_sbr > 0.95);
+	assert_true(v.bits & (1u << OW_CK_MAX_SBR));
+	assert_false(pt.flags & OW_FLAG_PARTIAL_FILL);
+	free(s);
+}
+
 /* With a cool feed barrel (below the melting point up to 12 D) the bed
  * starts melting at 12 D at full width. The abrupt screw compresses the
  * channel over 0.75 D there, faster than the bed can melt (Tadmor's
@@ -587,6 +612,38 @@ static void zone_out_of_cooling_floats_to_the_heat_it_can_remove(void **st)
 	free(s);
 }
 
+/* The study's heat_transfer_factor multiplies every zone's wall
+ * coefficient: a factor of 1000 makes the walls ideal to within a small
+ * share of the barrel heat (resistances in series, Bird, Stewart &
+ * Lightfoot 2002 section 10.6), and a weaker wall lets less heat through,
+ * so the melt the barrel cools leaves hotter (at 40 rpm every zone of the
+ * demo holds its set-point). */
+static void heat_transfer_factor_scales_the_wall(void **st)
+{
+	struct ow_study *s = ow_test_study("demo/study-si.json");
+	struct ow_point base, stiff, ideal, weak;
+	int i;
+	(void)st;
+	base = solve(s, 40.0, NULL);
+	assert_int_equal(base.zone_floating, 0);
+	s->line.heat_transfer_factor = 1000.0;
+	stiff = solve(s, 40.0, NULL);
+	s->line.heat_transfer_factor = 1.0;
+	for (i = 0; i < s->line.n_zones; i++)
+		s->line.zones[i].wall_h_W_m2K = NAN;
+	ideal = solve(s, 40.0, NULL);
+	assert_rel(stiff.barrel_heat_W, ideal.barrel_heat_W, 0.01);
+	assert_abs(stiff.discharge_bulk_K, ideal.discharge_bulk_K, 0.1);
+	free(s);
+	s = ow_test_study("demo/study-si.json");
+	s->line.heat_transfer_factor = 0.25;
+	weak = solve(s, 40.0, NULL);
+	assert_true(base.barrel_heat_W < 0.0);
+	assert_true(weak.barrel_heat_W > base.barrel_heat_W);
+	assert_true(weak.discharge_bulk_K > base.discharge_bulk_K);
+	free(s);
+}
+
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
@@ -603,6 +660,7 @@ int main(void)
 		cmocka_unit_test(barrier_screw_keeps_pace_with_single_flight),
 		cmocka_unit_test(plugging_is_read_in_the_transition),
 		cmocka_unit_test(delay_zone_follows_speed_wall_and_feed),
+		cmocka_unit_test(bed_reaching_the_transition_whole_fires_max_sbr),
 		cmocka_unit_test(abrupt_compression_plugs_and_gradual_does_not),
 		cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
 		cmocka_unit_test(cold_barrel_returns_a_flagged_point),
@@ -611,6 +669,7 @@ int main(void)
 			mixer_pressure_follows_the_land_flow_closed_form),
 		cmocka_unit_test(
 			zone_out_of_cooling_floats_to_the_heat_it_can_remove),
+		cmocka_unit_test(heat_transfer_factor_scales_the_wall),
 	};
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
 	                              ow_test_units_teardown);
