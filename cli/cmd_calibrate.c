@@ -262,8 +262,8 @@ static int write_outputs(const struct cal_args *a, const struct ow_study *s,
 		st = ow_calib_study_text(s, o, r, a->readings, a->out, &text,
 					 &d);
 		if (st == OW_OK)
-			st = ow_results_write_file(a->out, text, strlen(text),
-						   &d);
+			st = ow_io_write_file(a->out, text, strlen(text),
+					      &d);
 		if (st == OW_OK && !a->c.quiet)
 			printf("calibrated study: %s\n", a->out);
 	}
