@@ -51,6 +51,17 @@ static void bench_point(const struct ow_study *s)
 	ow_solver_destroy(sv);
 }
 
+static double marches_per_point(const struct ow_grid *g)
+{
+	long n = 0;
+	int k;
+
+	for (k = 0; k < g->n_rpm * g->n_axis; k++)
+		if (g->pts[k].solved == 1)
+			n += g->pts[k].pt.n_iter;
+	return g->solves > 0 ? (double)n / g->solves : 0.0;
+}
+
 static double bench_map(const struct ow_study *s, int jobs, int steps)
 {
 	struct ow_sweep_config c;
@@ -63,8 +74,9 @@ static double bench_map(const struct ow_study *s, int jobs, int steps)
 	if (ow_sweep_run(s, &c, &g, NULL) != OW_OK)
 		return 0.0;
 	dt = now() - t0;
-	printf("demo map %dx%d, %d thread(s): %.2f s, %.0f points/s\n", steps,
-	       steps, jobs, dt, g->solves / dt);
+	printf("demo map %dx%d, %d thread(s): %.2f s, %.0f points/s, "
+	       "%.2f marches per point\n", steps, steps, jobs, dt,
+	       g->solves / dt, marches_per_point(g));
 	ow_grid_destroy(g);
 	return dt;
 }
