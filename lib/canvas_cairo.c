@@ -293,42 +293,45 @@ static size_t chunk(unsigned char *out, const char *type, size_t len)
 
 static int all_opaque(const unsigned char *px, int w, int h, int stride)
 {
+	uint32_t and = 0xffffffffu;
 	int x, y;
 
-	for (y = 0; y < h; y++)
-		for (x = 0; x < w; x++) {
-			uint32_t p;
+	for (y = 0; y < h; y++) {
+		const uint32_t *r = (const uint32_t *)(px + (size_t)y * stride);
 
-			memcpy(&p, px + (size_t)y * stride + 4 * (size_t)x, 4);
-			if (p >> 24 != 0xff)
-				return 0;
-		}
-	return 1;
+		for (x = 0; x < w; x++)
+			and &= r[x];
+	}
+	return and >> 24 == 0xff;
 }
 
-/* Scan line y as filter byte + RGB(A) bytes into row. */
+/* Scan line y (cairo's native-endian ARGB32, premultiplied) as RGB or
+ * RGBA bytes, without the filter byte, into row. */
 static void scan_line(const unsigned char *px, int stride, int w, int y,
 		      int channels, unsigned char *row)
 {
-	int x;
+	const uint32_t *r = (const uint32_t *)(px + (size_t)y * stride);
+	int x, k;
 
-	row[0] = 0;
-	for (x = 0; x < w; x++) {
-		unsigned char *o = row + 1 + channels * x;
-		uint32_t p;
-		unsigned a, c[3], k;
+	if (channels == 3) {
+		for (x = 0; x < w; x++, row += 3) {
+			row[0] = (unsigned char)(r[x] >> 16);
+			row[1] = (unsigned char)(r[x] >> 8);
+			row[2] = (unsigned char)r[x];
+		}
+		return;
+	}
+	for (x = 0; x < w; x++, row += 4) {
+		unsigned a = r[x] >> 24;
 
-		memcpy(&p, px + (size_t)y * stride + 4 * (size_t)x, 4);
-		a = p >> 24;
-		c[0] = (p >> 16) & 0xff;
-		c[1] = (p >> 8) & 0xff;
-		c[2] = p & 0xff;
-		for (k = 0; k < 3; k++)
-			o[k] = (unsigned char)(a == 0xff || a == 0
-					       ? (a ? c[k] : 0)
-					       : (c[k] * 255 + a / 2) / a);
-		if (channels == 4)
-			o[3] = (unsigned char)a;
+		for (k = 0; k < 3; k++) {
+			unsigned c = (r[x] >> (16 - 8 * k)) & 0xff;
+
+			row[k] = (unsigned char)(a == 0 ? 0
+					 : a == 0xff ? c
+						     : (c * 255 + a / 2) / a);
+		}
+		row[3] = (unsigned char)a;
 	}
 }
 
@@ -337,8 +340,8 @@ static void scan_line(const unsigned char *px, int stride, int w, int y,
 static unsigned char *filtered(const unsigned char *px, int stride, int w,
 			       int h, int channels, size_t *len)
 {
-	size_t rl = 1 + (size_t)channels * (size_t)w, i;
-	unsigned char *f = malloc(rl * (size_t)h), *prev = malloc(rl),
+	size_t rl = (size_t)channels * (size_t)w, i;
+	unsigned char *f = malloc((rl + 1) * (size_t)h), *prev = calloc(1, rl),
 		      *cur = malloc(rl), *t;
 	int y;
 
@@ -347,19 +350,18 @@ static unsigned char *filtered(const unsigned char *px, int stride, int w,
 		f = NULL;
 		goto done;
 	}
-	memset(prev, 0, rl);
 	for (y = 0; y < h; y++) {
-		unsigned char *o = f + rl * (size_t)y;
+		unsigned char *o = f + (rl + 1) * (size_t)y;
 
 		scan_line(px, stride, w, y, channels, cur);
 		o[0] = PNG_FILTER_UP;
-		for (i = 1; i < rl; i++)
-			o[i] = (unsigned char)(cur[i] - prev[i]);
+		for (i = 0; i < rl; i++)
+			o[i + 1] = (unsigned char)(cur[i] - prev[i]);
 		t = prev;
 		prev = cur;
 		cur = t;
 	}
-	*len = rl * (size_t)h;
+	*len = (rl + 1) * (size_t)h;
 done:
 	free(prev);
 	free(cur);
