@@ -34,8 +34,8 @@ static void point_json_and_profile_follow_the_contract(void **state)
 		"max_sbr", "power_kW", "torque_Nm", "sec_kWh_kg",
 		"barrel_heat_kW"};
 	cJSON *j = cli_run_json("point demo/study-si.json --rpm 50 --json "
-			    "--profile build/tests/profile.csv");
-	char *csv = cli_slurp("build/tests/profile.csv");
+			    "--profile " OW_TEST_OUT "/profile.csv");
+	char *csv = cli_slurp(OW_TEST_OUT "/profile.csv");
 	size_t i;
 	(void)state;
 	for (i = 0; i < sizeof keys / sizeof keys[0]; i++)
@@ -131,8 +131,8 @@ static void window_corners_and_centre_are_safe(void **state)
 	char *grid, *line;
 	double r0, r1, a0, a1;
 	(void)state;
-	map(FAST, "build/tests/map-a", "--grid 21x21");
-	w = cli_read_json("build/tests/map-a/window.json");
+	map(FAST, OW_TEST_OUT "/map-a", "--grid 21x21");
+	w = cli_read_json(OW_TEST_OUT "/map-a/window.json");
 	r0 = cli_json_num(w, "rpm_min");
 	r1 = cli_json_num(w, "rpm_max");
 	a0 = cli_json_num(w, "axis_min");
@@ -143,7 +143,7 @@ static void window_corners_and_centre_are_safe(void **state)
 	assert_true(safe_point(r1, a0) && safe_point(r1, a1));
 	assert_true(safe_point(cli_json_num(c, "rpm"),
 			       cli_json_num(c, "axis_value")));
-	grid = cli_slurp("build/tests/map-a/grid.csv");
+	grid = cli_slurp(OW_TEST_OUT "/map-a/grid.csv");
 	for (line = strtok(strchr(grid, '\n') + 1, "\n"); line;
 	     line = strtok(NULL, "\n")) {
 		double rpm = atof(line), ax = atof(strchr(line, ',') + 1);
@@ -161,10 +161,10 @@ static void grid_is_identical_for_any_thread_count(void **state)
 {
 	char *a, *b;
 	(void)state;
-	map(FAST, "build/tests/map-j1", "--grid 15x13 --refine 1 --jobs 1");
-	map(FAST, "build/tests/map-j2", "--grid 15x13 --refine 1 --jobs 2");
-	a = cli_slurp("build/tests/map-j1/grid.csv");
-	b = cli_slurp("build/tests/map-j2/grid.csv");
+	map(FAST, OW_TEST_OUT "/map-j1", "--grid 15x13 --refine 1 --jobs 1");
+	map(FAST, OW_TEST_OUT "/map-j2", "--grid 15x13 --refine 1 --jobs 2");
+	a = cli_slurp(OW_TEST_OUT "/map-j1/grid.csv");
+	b = cli_slurp(OW_TEST_OUT "/map-j2/grid.csv");
 	assert_non_null(a);
 	assert_non_null(b);
 	assert_string_equal(a, b);
@@ -230,10 +230,10 @@ static void refinement_matches_fine_grid_with_fewer_solves(void **state)
 	cJSON *fine, *ref;
 	size_t k;
 	(void)state;
-	map(FAST, "build/tests/map-r2", "--grid 21x21 --refine 2");
-	map(FAST, "build/tests/map-81", "--grid 81x81");
-	ref = cli_read_json("build/tests/map-r2/window.json");
-	fine = cli_read_json("build/tests/map-81/window.json");
+	map(FAST, OW_TEST_OUT "/map-r2", "--grid 21x21 --refine 2");
+	map(FAST, OW_TEST_OUT "/map-81", "--grid 81x81");
+	ref = cli_read_json(OW_TEST_OUT "/map-r2/window.json");
+	fine = cli_read_json(OW_TEST_OUT "/map-81/window.json");
 	assert_true(cli_json_num(ref, "solves") <= 0.4 * 81 * 81);
 	for (k = 0; k < sizeof limits / sizeof limits[0]; k++) {
 		const cJSON *lr = lines_of(ref, limits[k]);
@@ -257,7 +257,7 @@ static void refinement_matches_fine_grid_with_fewer_solves(void **state)
  * limits named, null bounds in window.json. */
 static void impossible_limits_give_an_empty_window(void **state)
 {
-	FILE *f = fopen("build/tests/empty.json", "w");
+	FILE *f = fopen(OW_TEST_OUT "/empty.json", "w");
 	char *text = cli_slurp(FAST), *p;
 	struct cli_result r;
 	cJSON *w;
@@ -270,13 +270,13 @@ static void impossible_limits_give_an_empty_window(void **state)
 	fclose(f);
 	free(text);
 	/* the study file's relative paths: none (embedded) */
-	cli_run("map build/tests/empty.json -o build/tests/map-empty "
+	cli_run("map " OW_TEST_OUT "/empty.json -o " OW_TEST_OUT "/map-empty "
 		"--grid 5x5", &r);
 	assert_int_equal(r.code, 0);
 	assert_non_null(strstr(r.out, "No safe operating point"));
 	assert_non_null(strstr(r.out, "peak_temp"));
 	cli_result_free(&r);
-	w = cli_read_json("build/tests/map-empty/window.json");
+	w = cli_read_json(OW_TEST_OUT "/map-empty/window.json");
 	assert_true(cJSON_IsTrue(cJSON_GetObjectItem(w, "empty")));
 	assert_true(cJSON_IsNull(cJSON_GetObjectItem(w, "rpm_min")));
 	assert_true(cJSON_IsNull(cJSON_GetObjectItem(w, "set_max_C")));
@@ -287,20 +287,76 @@ static void impossible_limits_give_an_empty_window(void **state)
 static void unwritable_output_exits_four(void **state)
 {
 	struct cli_result r;
-	FILE *f = fopen("build/tests/not-a-dir", "w");
+	FILE *f = fopen(OW_TEST_OUT "/not-a-dir", "w");
 	(void)state;
 	fputs("x", f);
 	fclose(f);
-	cli_run("map " FAST " -o build/tests/not-a-dir --grid 3x3 --quiet",
+	cli_run("map " FAST " -o " OW_TEST_OUT "/not-a-dir --grid 3x3 --quiet",
 		&r);
 	assert_int_equal(r.code, 4);
 	cli_result_free(&r);
+}
+
+/* A reader closes the energy balance from the printed figures alone:
+ * drive power + barrel heat + root heat = throughput x enthalpy rise +
+ * flow work, to 0.1 % of the drive power (first law for the open system
+ * hopper -> tip, Tadmor & Gogos 2006 ch. 9). The enthalpy rise is the
+ * reader's own: G [c_s (T_m - T_feed) + lambda + c_m (T - T_m)] with the
+ * demo resin's data (2.3 and 2.7 kJ/(kg K), 130 degC, 200 kJ/kg, feed at
+ * 25 degC); the zones' heats add up to the barrel's. On the melt-fed
+ * Newtonian line the flow work is Q (P_tip - P_feed) exactly
+ * (incompressible melt). */
+static void energy_balance_closes_from_the_printed_figures(void **state)
+{
+	double rpm[] = {30.0, 80.0, 120.0};
+	size_t i;
+	(void)state;
+	for (i = 0; i < 3; i++) {
+		char args[128];
+		cJSON *j, *zones, *z;
+		double g, t, h, in, out, sum = 0.0;
+
+		snprintf(args, sizeof args,
+			 "point demo/study-si.json --rpm %g --set 10 --json",
+			 rpm[i]);
+		j = cli_run_json(args);
+		assert_abs(cli_json_num(j, "unmelt_fraction"), 0.0, 0.0);
+		g = cli_json_num(j, "output_kg_h") / 3600.0;
+		t = cli_json_num(j, "discharge_bulk_temp_C");
+		h = 2300.0 * (130.0 - 25.0) + 200e3 + 2700.0 * (t - 130.0);
+		assert_rel(cli_json_num(j, "enthalpy_rise_kW"), g * h * 1e-3,
+			   1e-9);
+		in = cli_json_num(j, "power_kW") +
+		     cli_json_num(j, "barrel_heat_kW") +
+		     cli_json_num(j, "root_heat_kW");
+		out = g * h * 1e-3 + cli_json_num(j, "flow_work_kW");
+		assert_abs(in - out, 0.0, 1e-3 * cli_json_num(j, "power_kW"));
+		zones = cJSON_GetObjectItem(j, "zones");
+		cJSON_ArrayForEach(z, zones)
+			sum += cli_json_num(z, "heat_kW");
+		assert_rel(sum, cli_json_num(j, "barrel_heat_kW"), 1e-9);
+		cJSON_Delete(j);
+	}
+	{
+		cJSON *j = cli_run_json("point tests/data/newtonian-rod.json "
+					"--rpm 60 --json");
+
+		assert_rel(cli_json_num(j, "flow_work_kW") * 1e3,
+			   cli_json_num(j, "output_kg_h") / 3600.0 / 760.0 *
+				   (cli_json_num(j, "discharge_pressure_MPa") *
+					    1e6 -
+				    1.0),
+			   1e-6);
+		cJSON_Delete(j);
+	}
 }
 
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(point_json_and_profile_follow_the_contract),
+		cmocka_unit_test(
+			energy_balance_closes_from_the_printed_figures),
 		cmocka_unit_test(point_set_reads_units),
 		cmocka_unit_test(point_note_speaks_the_chosen_units),
 		cmocka_unit_test(window_corners_and_centre_are_safe),
