@@ -19,7 +19,7 @@
 #define OW_PI 3.14159265358979323846
 #define MAX_MARCHES 60
 #define G_RTOL 2e-5   /* relative throughput tolerance (bracket width) */
-#define G_STEP_TOL 1e-5 /* ... and of the Newton step f/k left to take */
+#define G_STEP_TOL 2e-5 /* ... and of the Newton step f/k left to take */
 #define P_ATOL 1e3    /* Pa: pressure mismatch accepted ... */
 #define P_RTOL 1e-4   /* ... or this share of the die's need */
 /* Cold start at this share of the metering drag flow: the matched outputs

@@ -463,24 +463,26 @@ static void solver_is_repeatable_and_warm_start_agrees(void **st)
 
 /* A start predicted from the two speeds before (continuation along a
  * sweep row, with the nearer point's match slope) reaches the cold
- * start's answer within the match tolerance, in fewer marches. */
+ * start's answer within the match tolerance, in fewer marches (at speeds
+ * where every zone holds its set-point: a floating zone's control point
+ * is itself iterated, to a looser tolerance). */
 static void start_from_neighbouring_speeds_agrees_with_cold(void **st)
 {
 	struct ow_study *s = ow_test_study("demo/study-si.json");
 	struct ow_solver *sv = NULL;
-	struct ow_point p65, p675, cold, warm;
-	const struct ow_point *prev[2] = {&p675, &p65};
+	struct ow_point p40, p425, cold, warm;
+	const struct ow_point *prev[2] = {&p425, &p40};
 	struct ow_solver_start s0;
 	(void)st;
 	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
-	assert_int_equal(ow_solver_run(sv, 65.0, NULL, 0.0, &p65, NULL), OW_OK);
-	assert_int_equal(ow_solver_run(sv, 67.5, NULL, 0.0, &p675, NULL),
+	assert_int_equal(ow_solver_run(sv, 40.0, NULL, 0.0, &p40, NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, 42.5, NULL, 0.0, &p425, NULL),
 			 OW_OK);
-	assert_int_equal(ow_solver_run(sv, 70.0, NULL, 0.0, &cold, NULL),
+	assert_int_equal(ow_solver_run(sv, 45.0, NULL, 0.0, &cold, NULL),
 			 OW_OK);
-	assert_true(p675.match_slope < 0.0);
-	ow_sweep_predict(prev, 2, 70.0, &s0);
-	assert_int_equal(ow_solver_run_from(sv, 70.0, NULL, &s0, &warm, NULL),
+	assert_true(p425.match_slope < 0.0);
+	ow_sweep_predict(prev, 2, 45.0, &s0);
+	assert_int_equal(ow_solver_run_from(sv, 45.0, NULL, &s0, &warm, NULL),
 			 OW_OK);
 	assert_false(warm.flags & OW_FLAG_NOT_CONVERGED);
 	assert_rel(warm.output_kg_s, cold.output_kg_s, 3e-5);
