@@ -110,6 +110,7 @@ static const struct exact_unit exact_units[] = {
 	{"N m", OW_DIM_TORQUE, 1.0, 0.0},
 	{"kN m", OW_DIM_TORQUE, 1e3, 0.0},
 	{"1/s", OW_DIM_SHEAR_RATE, 1.0, 0.0},
+	{"W/(m2 K)", OW_DIM_HEAT_TRANSFER, 1.0, 0.0},
 };
 
 /* x in unit (dimension dim) -> *si when the unit is one of exact_units. */

@@ -393,6 +393,7 @@ static void common_units_agree_with_udunits_and_nist(void **state)
 	    {"30 kW", "30 kilowatt", OW_DIM_POWER},
 	    {"4.8 kN m", "4.8 kilonewton m", OW_DIM_TORQUE},
 	    {"0.5 %", "0.5 percent", OW_DIM_NONE},
+	    {"2000 W/(m2 K)", "2000 W/m^2/K", OW_DIM_HEAT_TRANSFER},
 	};
 	size_t i;
 
