@@ -50,7 +50,9 @@ int cli_outdir_begin(const char *cmd, struct cli_outdir *o, const char *dir)
 		if (o->saved[k].sa_handler == SIG_IGN) /* e.g. under nohup */
 			sigaction(caught[k], &o->saved[k], NULL);
 	}
-	st = ow_io_dir_begin(dir, o->tmp, sizeof o->tmp, &d);
+	st = ow_io_dir_check(dir, &d); /* again: things change while solving */
+	if (st == OW_OK)
+		st = ow_io_dir_begin(dir, o->tmp, sizeof o->tmp, &d);
 	if (st != OW_OK) {
 		o->tmp[0] = '\0';
 		return cli_fail(cmd, st, &d);

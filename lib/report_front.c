@@ -50,6 +50,7 @@ static void banner(struct rpt *r)
 	         "measurements. Read the cautions at the end of this report "
 	         "before setting the line.",
 	         &note, 6.0);
+	rpt_calib_note(r);
 }
 
 /* One labelled cell of the title block: a small label, then the value

@@ -5,7 +5,6 @@
 #include "ow_io.h"
 
 #include <cjson/cJSON.h>
-#include <errno.h>
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>

@@ -113,7 +113,8 @@ static void evaluate(struct ow_solver *sv, double g, struct eval *e,
 	if (e->st == OW_OK)
 		e->st = ow_die_pressure(&s->line.die, &s->resin, g,
 					e->m.bulk_K, &dp, &sv->diag);
-	e->need = dp + s->line.screen_pressure_Pa;
+	/* die_factor: a calibrated die that needs more or less than ideal */
+	e->need = dp * s->line.die_factor + s->line.screen_pressure_Pa;
 	e->f = e->st == OW_OK ? e->m.tip_Pa - e->need : NAN;
 	mt->g[0] = mt->g[1];
 	mt->f[0] = mt->f[1];

@@ -76,10 +76,14 @@ static void book_barrel(struct ctx *c, double x, double w)
 
 /* A pressure below zero cannot exist in melt: the channel cannot run full
  * there (starved or partly filled), so the full-channel model no longer
- * holds and the point is flagged. */
+ * holds and the point is flagged, once the bed is gone. Beside a solid bed
+ * a melt pool that needs such a pressure runs partly filled while the bed
+ * carries the load (the plug's own pressure is not modelled): the normal
+ * start of melting, most of all where it begins in a taper, not a starved
+ * channel. */
 static void note_pressure(struct ctx *c, double x)
 {
-	if (c->P < 0.0)
+	if (c->P < 0.0 && c->ph == PH_MELT)
 		c->m->flags |= OW_FLAG_PARTIAL_FILL;
 	if (c->P > c->m->max_Pa) {
 		c->m->max_Pa = c->P;

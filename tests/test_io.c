@@ -158,7 +158,9 @@ static void reader_refuses_folders_fifos_and_large_files(void **state)
 	assert_int_equal(ow_io_slurp(in(f, "a.txt"), 4, &text, NULL), EFBIG);
 	assert_int_equal(ow_io_read_file(in(f, "none"), 4, &text, NULL, &d),
 			 OW_EINPUT);
+	/* the system's reason, as strerror gives it */
 	assert_non_null(strstr(d.msg, "none: cannot be read"));
+	assert_non_null(strstr(d.msg, strerror(ENOENT)));
 }
 
 static void writer_replaces_a_file_keeping_its_mode(void **state)
@@ -298,6 +300,13 @@ static void a_folder_check_names_what_is_in_the_way(void **state)
 	assert_int_equal(symlink(f->dir, in(f, "ln")), 0);
 	assert_int_equal(ow_io_dir_check(f->path, &d), OW_EIO);
 	assert_non_null(strstr(d.msg, "symbolic link"));
+	/* renamed into place, a folder needs a name of its own */
+	ow_diag_clear(&d);
+	assert_int_equal(ow_io_dir_check(".", &d), OW_EIO);
+	assert_non_null(strstr(d.msg, "name the folder itself"));
+	assert_int_equal(ow_io_dir_check("/", NULL), OW_EIO);
+	snprintf(path, sizeof path, "%s/new//", f->dir); /* as typed */
+	assert_int_equal(ow_io_dir_check(path, NULL), OW_OK);
 }
 
 int main(void)

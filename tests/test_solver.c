@@ -413,6 +413,31 @@ static void delay_zone_follows_speed_wall_and_feed(void **st)
 	free(s);
 }
 
+/* A first zone at 140 degC, below the polystyrene's flow temperature
+ * (150 degC), holds melting back until the transition: the bed reaches it
+ * nearly whole (common practice: a cold feed zone starves melting), so
+ * the solid bed ratio there fires the study's max_sbr limit (0.95).
+ * Beside that bed the melt pool runs partly filled (the bed carries the
+ * load): not a starved channel, so no partial_fill. */
+static void bed_reaching_the_transition_whole_fires_max_sbr(void **st)
+{
+	struct ow_study *s = ow_test_study("fixtures/studies/ps-rod.json");
+	double set[OW_MAX_ZONES];
+	struct ow_verdict v;
+	struct ow_point pt;
+	int i;
+	(void)st;
+	for (i = 0; i < s->line.n_zones; i++)
+		set[i] = s->line.zones[i].set_K;
+	set[0] = 413.15; /* 140 degC */
+	pt = solve(s, 60.0, set);
+	ow_classify(&pt, &s->line.limits, ow_screw_length(&s->screw), &v);
+	assert_true(pt.max_sbr > 0.95);
+	assert_true(v.bits & (1u << OW_CK_MAX_SBR));
+	assert_false(pt.flags & OW_FLAG_PARTIAL_FILL);
+	free(s);
+}
+
 /* With a cool feed barrel (below the melting point up to 12 D) the bed
  * starts melting at 12 D at full width. The abrupt screw compresses the
  * channel over 0.75 D there, faster than the bed can melt (Tadmor's
@@ -696,6 +721,7 @@ int main(void)
 		cmocka_unit_test(barrier_screw_keeps_pace_with_single_flight),
 		cmocka_unit_test(plugging_is_read_in_the_transition),
 		cmocka_unit_test(delay_zone_follows_speed_wall_and_feed),
+		cmocka_unit_test(bed_reaching_the_transition_whole_fires_max_sbr),
 		cmocka_unit_test(abrupt_compression_plugs_and_gradual_does_not),
 		cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
 		cmocka_unit_test(start_from_neighbouring_speeds_agrees_with_cold),

@@ -5,8 +5,9 @@
  *   - the 41x41 map's sweep on 1 and 2 threads, marches per point;
  *   - the whole `opwin map` command (solve, draw, write) on 1 and 2
  *     threads, run as the built program;
+ *   - the calibration of the demo's 6 readings with 2 free factors;
  *   - the scale line: the sweep at 11x11 .. 81x81 on 2 threads, each in a
- *     child process of its own so that its peak memory is its own.
+ *     process of its own so that its peak memory is its own.
  * Each target is printed with the measured figure, the target and their
  * ratio. Wall times depend on the machine and its load; the
  * instruction counts of `valgrind --tool=callgrind` do not. */
@@ -158,12 +159,43 @@ static void bench_scale(const char *self, const char *study, int steps)
 		waitpid(pid, &status, 0);
 }
 
+/* The demo calibration: 6 readings, viscosity_scale and die_factor. */
+static void bench_calib(const struct ow_units *u, const struct ow_study *s,
+			const char *readings)
+{
+	struct ow_calib_result *r = malloc(sizeof *r);
+	struct ow_readings *rd = NULL;
+	struct ow_calib_options o;
+	struct ow_diag d = {{0}};
+	double t0;
+
+	if (!r || ow_calib_readings_read(u, readings, s->line.n_zones, &rd,
+					 &d) != OW_OK) {
+		fprintf(stderr, "bench: %s\n", d.msg);
+		free(r);
+		return;
+	}
+	ow_calib_options_from(&s->calib, &o);
+	o.free_mask = (1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE);
+	t0 = now();
+	if (ow_calib_run(s, rd, &o, r, &d) == OW_OK)
+		printf("calibration, %zu readings and 2 factors: %.2f s, %d "
+		       "iterations, %d point solves (target: seconds)\n",
+		       rd->n, now() - t0, r->iterations, r->solves);
+	else
+		fprintf(stderr, "bench: %s\n", d.msg);
+	free(rd);
+	free(r);
+}
+
 int main(int argc, char **argv)
 {
 	int scaled = argc == 4 && strcmp(argv[1], "--scale") == 0;
 	const char *path = scaled ? argv[3]
 				  : argc > 1 ? argv[1] : "demo/study-si.json";
-	const char *opwin = argc > 2 ? argv[2] : "build/opwin";
+	const char *readings = argc > 2 ? argv[2]
+					: "demo/line/line3-readings.csv";
+	const char *opwin = argc > 3 ? argv[3] : "build/opwin";
 	struct ow_units *u = NULL;
 	struct ow_study *s = calloc(1, sizeof *s);
 	struct ow_diag d = {{0}};
@@ -194,6 +226,7 @@ int main(int argc, char **argv)
 	c2 = bench_command(opwin, path, 2);
 	printf("opwin map 41x41 (solve, draw, write): 1 thread %.2f s, "
 	       "2 threads %.2f s\n", c1, c2);
+	bench_calib(u, s, readings);
 	printf("targets (measured, target, ratio measured/target):\n");
 	target("point solve, cold (median)", 1e3 * cold, 2.0, "ms", 0);
 	target("point solve, warm (median)", 1e3 * warm, 1.0, "ms", 0);
