@@ -175,6 +175,7 @@ static int write_outputs(const struct ow_study *s, const struct ow_grid *g,
 	o->r.rep.n_profile = n;
 	o->r.rep.spread = o->sp.r;
 	o->r.rep.robust = o->sp.w;
+	o->r.jobs = o->c.jobs;
 	rc = cli_render("map", s, g, w, &o->r, o->dir);
 	o->r.rep.centre_point = NULL;
 	o->r.rep.profile = NULL;
