@@ -9,6 +9,7 @@
 #include <string.h>
 
 #include "ow_mapdir.h"
+#include "spread.h"
 
 static void help(void)
 {
@@ -61,7 +62,7 @@ static int parse(int argc, char **argv, struct cli_common *c,
  * and its manifest always matches. */
 static int render_folder(const struct ow_study *s, const struct ow_grid *g,
 			 const struct ow_window *w, const struct cli_render *r,
-			 const char *dir)
+			 const struct cli_spread *sp, const char *dir)
 {
 	struct cli_outdir od;
 	struct ow_diag d = {{0}};
@@ -70,8 +71,11 @@ static int render_folder(const struct ow_study *s, const struct ow_grid *g,
 
 	if (!rc) {
 		st = ow_mapdir_copy_data(dir, od.tmp, &d);
-		rc = st == OW_OK ? cli_render("report", s, g, w, r, od.tmp)
+		rc = st == OW_OK ? cli_spread_files(s, g, w, sp, r->rep.units,
+						    od.tmp)
 				 : cli_fail("report", st, &d);
+		if (!rc)
+			rc = cli_render("report", s, g, w, r, od.tmp);
 	}
 	return cli_outdir_finish("report", &od, rc);
 }
@@ -83,11 +87,14 @@ static int redraw(const struct ow_units *u, const char *dir,
 	struct ow_grid *g = NULL;
 	struct ow_window *w = NULL;
 	struct ow_mapdir_centre centre;
+	struct cli_spread sp;
 	struct ow_diag d = {{0}};
 	enum ow_status st = s ? OW_OK : OW_ENOMEM;
 	int rc;
 
 	memset(&centre, 0, sizeof centre);
+	cli_spread_init(&sp);
+	sp.save = 0; /* spread.json is copied with the folder's data */
 	if (st == OW_OK)
 		st = ow_mapdir_verify(dir, &d);
 	if (st == OW_OK)
@@ -103,7 +110,14 @@ static int redraw(const struct ow_units *u, const char *dir,
 			 : cli_render_current("report", u, r, c->units);
 	r->jobs = c->jobs;
 	if (!rc)
-		rc = render_folder(s, g, w, r, dir);
+		rc = cli_spread_reload(s, g, dir, &sp);
+	r->rep.spread = sp.r;
+	r->rep.robust = sp.w;
+	if (!rc)
+		rc = render_folder(s, g, w, r, &sp, dir);
+	r->rep.spread = NULL;
+	r->rep.robust = NULL;
+	cli_spread_free(&sp);
 	if (!rc && !c->quiet)
 		printf("written to %s/ (maps, report.pdf)\n", dir);
 	ow_window_destroy(w);

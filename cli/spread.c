@@ -13,6 +13,8 @@ void cli_spread_init(struct cli_spread *sp)
 {
 	memset(sp, 0, sizeof *sp);
 	ow_spread_config_default(&sp->cfg);
+	sp->cmd = "map";
+	sp->save = 1;
 }
 
 void cli_spread_free(struct cli_spread *sp)
@@ -258,5 +260,37 @@ int cli_spread_files(const struct ow_study *s, const struct ow_grid *g,
 	ow_maps_default(&mo);
 	mo.units = units;
 	st = ow_maps_write_share(s, g, w, sp->w, sp->r, &mo, dir, &d);
-	return st == OW_OK ? CLI_OK : cli_fail("map", st, &d);
+	if (st == OW_OK && sp->save) {
+		char path[OW_PATH_LEN + 16], *text = NULL;
+
+		snprintf(path, sizeof path, "%s/spread.json", dir);
+		st = ow_spread_save_json(s, sp->r, &text, &d);
+		if (st == OW_OK)
+			st = ow_io_write_file(path, text, strlen(text), &d);
+		free(text);
+	}
+	return st == OW_OK ? CLI_OK : cli_fail(sp->cmd, st, &d);
+}
+
+int cli_spread_reload(struct ow_study *s, const struct ow_grid *g,
+		      const char *dir, struct cli_spread *sp)
+{
+	char path[OW_PATH_LEN + 16], *text = NULL;
+	struct ow_diag d = {{0}};
+	size_t len;
+	enum ow_status st;
+
+	sp->cmd = "report";
+	snprintf(path, sizeof path, "%s/spread.json", dir);
+	if (access(path, F_OK) != 0)
+		return CLI_OK; /* a map without a spread */
+	st = ow_io_read_file(path, (size_t)1 << 30, &text, &len, &d);
+	if (st == OW_OK)
+		st = ow_spread_load_json(text, path, g, &s->spread, &sp->r, &d);
+	free(text);
+	if (st == OW_OK)
+		st = ow_spread_robust_grid(g, sp->r, &sp->robust, &d);
+	if (st == OW_OK)
+		st = ow_window_extract(s, sp->robust, &sp->w, &d);
+	return st == OW_OK ? CLI_OK : cli_fail("report", st, &d);
 }

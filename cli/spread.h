@@ -38,6 +38,8 @@ struct cli_spread {
 	struct ow_spread_result *r;   /* after the run */
 	struct ow_grid *robust;
 	struct ow_window *w;
+	const char *cmd;              /* "map" or "report", for messages */
+	int save;                     /* write spread.json beside the maps */
 };
 
 void cli_spread_init(struct cli_spread *sp);
@@ -66,11 +68,17 @@ enum ow_status cli_spread_window(const struct ow_study *s,
 				 const struct cli_spread *sp, char **text,
 				 struct ow_diag *d);
 
-/* map-safe-share.png/.svg into dir (nothing without a spread run); w the
- * nominal window. Exit code. */
+/* map-safe-share.png/.svg into dir, and spread.json when sp->save
+ * (nothing without a spread run); w the nominal window. Exit code. */
 int cli_spread_files(const struct ow_study *s, const struct ow_grid *g,
 		     const struct ow_window *w, const struct cli_spread *sp,
 		     enum ow_unit_system units, const char *dir);
+
+/* `opwin report DIR`: the spread of map folder dir (its spread.json, when
+ * there is one) into s->spread and sp, with the robust grid and window.
+ * Exit code. */
+int cli_spread_reload(struct ow_study *s, const struct ow_grid *g,
+		      const char *dir, struct cli_spread *sp);
 
 /* Summary lines (nothing without a spread run). */
 void cli_spread_print(const struct ow_study *s, const struct ow_window *nominal,

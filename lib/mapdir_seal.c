@@ -23,7 +23,8 @@ static int is_output_name(const char *name)
 	static const char *const fixed[] = {
 		MANIFEST,      "grid.csv",    "window.json", "report.pdf",
 		"study.json",  "lattice.json", "lattice.csv", "profile.csv",
-		"window.png",  "window.svg",  "profile.png", "profile.svg"};
+		"window.png",  "window.svg",  "profile.png", "profile.svg",
+		"spread.json"};
 	size_t i, n = strlen(name);
 
 	for (i = 0; i < sizeof fixed / sizeof fixed[0]; i++)

@@ -31,6 +31,22 @@ enum ow_status ow_spread_window_json(const struct ow_study *s,
 				     const char *json, char **out,
 				     struct ow_diag *d);
 
+/* spread.json of a map folder: the spread's inputs and the result per
+ * lattice point, so `opwin report DIR` can draw the robust window and the
+ * share map again. The caller frees *out. */
+enum ow_status ow_spread_save_json(const struct ow_study *s,
+				   const struct ow_spread_result *r,
+				   char **out, struct ow_diag *d);
+
+/* Read spread.json text (name for messages) back for grid g: the inputs
+ * into *sp, the result into *out (ow_spread_result_destroy). OW_EINPUT
+ * when it is not the record of a lattice of g's size. */
+enum ow_status ow_spread_load_json(const char *text, const char *name,
+				   const struct ow_grid *g,
+				   struct ow_spread *sp,
+				   struct ow_spread_result **out,
+				   struct ow_diag *d);
+
 /* The map of the share of safe samples (bands in per cent, contour lines
  * at 50, 90 and 99 %, the nominal window w thin and the robust window rw
  * bold) into box of cv; g the nominal grid. */

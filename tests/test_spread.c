@@ -282,6 +282,33 @@ static void spread_outputs_follow_the_contract(void **st)
 	free(csv);
 }
 
+/* `opwin report DIR` draws a spread map folder again from its
+ * spread.json: the share map comes back, the data files stay as they
+ * were. */
+static void report_redraws_the_spread_from_the_folder(void **st)
+{
+	char args[256], path[256], *before, *after, *png;
+	struct cli_result r;
+	(void)st;
+	snprintf(path, sizeof path, "%s/spread-2/window.json", OW_TEST_OUT);
+	before = cli_slurp(path);
+	snprintf(args, sizeof args, "report %s/spread-2 --quiet", OW_TEST_OUT);
+	cli_run(args, &r);
+	assert_int_equal(r.code, 0);
+	cli_result_free(&r);
+	after = cli_slurp(path);
+	assert_non_null(before);
+	assert_non_null(after);
+	assert_string_equal(before, after);
+	snprintf(path, sizeof path, "%s/spread-2/map-safe-share.png",
+		 OW_TEST_OUT);
+	png = cli_slurp(path);
+	assert_non_null(png);
+	free(png);
+	free(before);
+	free(after);
+}
+
 /* A bad spread block is rejected naming the source and the JSON path. */
 static void bad_spread_block_names_file_and_path(void **st)
 {
@@ -363,6 +390,7 @@ int main(void)
 		cmocka_unit_test(robust_window_shrinks_as_the_spread_widens),
 		cmocka_unit_test(same_seed_gives_the_same_files_for_any_jobs),
 		cmocka_unit_test(spread_outputs_follow_the_contract),
+		cmocka_unit_test(report_redraws_the_spread_from_the_folder),
 		cmocka_unit_test(bad_spread_block_names_file_and_path),
 		cmocka_unit_test(
 			calibrated_factors_vary_within_their_standard_errors),
