@@ -47,7 +47,7 @@ static void print_limit_lines(const struct ow_verdict *v)
 	printf("verdict   UNSAFE:");
 	for (i = 0; i < OW_CK_COUNT; i++)
 		if (v->bits & (1u << i))
-			printf(" %s;", ow_check_text((enum ow_check)i));
+			printf(" %s;", ow_check_failure((enum ow_check)i));
 	printf("\n");
 }
 

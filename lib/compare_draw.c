@@ -623,14 +623,14 @@ static double only_notes(struct ow_canvas *cv, double x, double y,
 	y += 1.4 * f;
 	ow_canvas_set_font(cv, f, 0);
 	ow_canvas_set_colour(cv, ow_rgb(0.12, 0.12, 0.12));
-	snprintf(line, sizeof line, "there %s exceeds:", label_of(o, 1 - k));
+	snprintf(line, sizeof line, "there %s fails:", label_of(o, 1 - k));
 	ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
 	y += 1.3 * f;
 	for (c = 0; c < OW_CK_COUNT; c++) {
 		if (!cmp->lost[k][c])
 			continue;
 		snprintf(line, sizeof line, "  %s (%d points)",
-		         ow_check_text((enum ow_check)c), cmp->lost[k][c]);
+		         ow_check_failure((enum ow_check)c), cmp->lost[k][c]);
 		ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
 		y += 1.3 * f;
 	}

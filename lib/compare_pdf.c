@@ -247,7 +247,7 @@ static void limit_list(const int *counts, char *buf, size_t n)
 	snprintf(buf, n, "%s", m ? "" : "none");
 	for (c = 0; c < m; c++)
 		snprintf(buf + strlen(buf), n - strlen(buf), "%s%s (%d points)",
-		         c ? ", " : "", ow_check_text(order[c]),
+		         c ? ", " : "", ow_check_failure(order[c]),
 		         counts[order[c]]);
 }
 

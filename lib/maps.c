@@ -311,6 +311,34 @@ void maps_draw_rectangle(const struct ow_plot *p, const struct ow_study *s,
 	ow_canvas_set_line_width(p->cv, width_pt);
 	ow_canvas_rect(p->cv, x0, y1, x1 - x0, y0 - y1);
 	ow_canvas_stroke(p->cv);
+	maps_mark_sweep_edges(p, w, x0, x1, y0, y1, width_pt);
+	ow_canvas_restore(p->cv);
+}
+
+/* Sides of the rectangle on the sweep's edge (no limit there): white gaps
+ * cut into the black line, so they read dashed in colour and grey. */
+void maps_mark_sweep_edges(const struct ow_plot *p, const struct ow_window *w,
+                           double x0, double x1, double y0, double y1,
+                           double width_pt)
+{
+	static const double dash[2] = {4.0, 4.0};
+	const double side[OW_WB_COUNT][4] = {{x0, y0, x0, y1},
+	                                     {x1, y0, x1, y1},
+	                                     {x0, y0, x1, y0},
+	                                     {x0, y1, x1, y1}};
+	int k;
+
+	ow_canvas_save(p->cv);
+	ow_canvas_set_colour(p->cv, ow_rgb(1, 1, 1));
+	ow_canvas_set_line_width(p->cv, 0.7 * width_pt);
+	ow_canvas_set_dash(p->cv, dash, 2);
+	for (k = 0; k < OW_WB_COUNT; k++) {
+		if (w->bound[k].check != OW_WINDOW_SWEEP_EDGE)
+			continue;
+		ow_canvas_move_to(p->cv, side[k][0], side[k][1]);
+		ow_canvas_line_to(p->cv, side[k][2], side[k][3]);
+		ow_canvas_stroke(p->cv);
+	}
 	ow_canvas_restore(p->cv);
 }
 

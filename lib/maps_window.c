@@ -235,16 +235,20 @@ static void label_boundary(const struct ow_plot *p, const struct ow_study *s,
 }
 
 /* "recommended 40–90 rpm, 190–215 °C" inside the rectangle's top-left
- * corner if it fits there, else just above or below it. */
+ * corner if it fits there, else just above or below it; a second line
+ * when a side lies on the sweep's edge. */
 static void label_rectangle(const struct ow_plot *p, const struct ow_window *w,
                             enum ow_unit_system u, struct maps_labels *taken)
 {
+	static const char note[] = "dashed side: edge of the sweep, not a "
+	                           "limit: widen the sweep";
 	char a[32], b[32], c[32], e[32], text[160];
 	double f = p->font_pt, x0 = ow_plot_px(p, w->rpm_min);
 	double x1 = ow_plot_px(p, w->rpm_max);
 	double yt = ow_plot_py(p, maps_temp(u, w->set_max_K));
 	double yb = ow_plot_py(p, maps_temp(u, w->set_min_K));
-	double tw, h = 1.35 * f, bx, by;
+	int lines = w->at_sweep_edge ? 2 : 1;
+	double tw, h = 1.35 * f * lines, bx, by;
 
 	snprintf(text, sizeof text, "recommended %s–%s rpm, %s–%s %s",
 	         maps_num(a, sizeof a, w->rpm_min),
@@ -254,6 +258,10 @@ static void label_rectangle(const struct ow_plot *p, const struct ow_window *w,
 	         ow_display_label(u, OW_DIM_TEMPERATURE));
 	ow_canvas_set_font(p->cv, f, 1);
 	tw = ow_canvas_text_width(p->cv, text) + 0.6 * f;
+	if (lines == 2) {
+		ow_canvas_set_font(p->cv, 0.85 * f, 0);
+		tw = fmax(tw, ow_canvas_text_width(p->cv, note) + 0.6 * f);
+	}
 	bx = fmin(x0 + 3.0, p->area.x + p->area.w - tw);
 	by = yt + 3.0;
 	if (tw > x1 - x0 - 6.0 || h > yb - yt - 6.0) {
@@ -266,8 +274,14 @@ static void label_rectangle(const struct ow_plot *p, const struct ow_window *w,
 	ow_canvas_set_colour(p->cv, ow_rgba_with_alpha(ow_rgb(1, 1, 1), 0.9));
 	ow_canvas_fill(p->cv);
 	ow_canvas_set_colour(p->cv, ow_rgb(0, 0, 0));
-	ow_canvas_text(p->cv, bx + 0.3 * f, by + 0.5 * h, text, OW_ALIGN_LEFT,
+	ow_canvas_set_font(p->cv, f, 1);
+	ow_canvas_text(p->cv, bx + 0.3 * f, by + 0.675 * f, text, OW_ALIGN_LEFT,
 	               OW_VALIGN_MIDDLE, 0);
+	if (lines == 2) {
+		ow_canvas_set_font(p->cv, 0.85 * f, 0);
+		ow_canvas_text(p->cv, bx + 0.3 * f, by + 2.025 * f, note,
+		               OW_ALIGN_LEFT, OW_VALIGN_MIDDLE, 0);
+	}
 	ow_canvas_restore(p->cv);
 	maps_labels_take(taken, bx, by, bx + tw, by + h);
 }
@@ -310,7 +324,13 @@ static int legend_entries(const struct ow_study *s, const struct ow_window *w,
 		e[n].label = "recommended window";
 		e[n].line.colour = ow_rgb(0, 0, 0);
 		e[n++].line.width_pt = 2.2;
-		e[n].label = "robust centre";
+		if (w->at_sweep_edge) {
+			e[n].label = "side on the sweep's edge: no limit";
+			e[n].line.colour = ow_rgb(0, 0, 0);
+			e[n].line.dash = OW_DASH_DASHED;
+			e[n++].line.width_pt = 2.2;
+		}
+		e[n].label = "centre point";
 		e[n].marker = OW_MARK_DIAMOND;
 		e[n++].line.colour = ow_rgb(0, 0, 0);
 	}

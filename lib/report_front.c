@@ -204,7 +204,6 @@ char *rpt_limit_text(struct rpt *r, enum ow_check c, char *buf, size_t n)
 	    OW_DIM_TEMPERATURE, OW_DIM_NONE,      OW_DIM_PRESSURE,
 	    OW_DIM_POWER,       OW_DIM_TORQUE,    OW_DIM_TEMPERATURE,
 	    OW_DIM_MASS_FLOW,   OW_DIM_MASS_FLOW, OW_DIM_NONE};
-	int at_least = c == OW_CK_MIN_MELT_TEMP || c == OW_CK_MIN_OUTPUT;
 	double v = ow_check_limit(&r->s->line.limits, c);
 	char q[64];
 
@@ -218,7 +217,7 @@ char *rpt_limit_text(struct rpt *r, enum ow_check c, char *buf, size_t n)
 	} else {
 		rpt_qty(r, q, sizeof q, dims[c], v, 4);
 	}
-	snprintf(buf, n, "%s %s %s", ow_check_text(c), at_least ? "≥" : "≤", q);
+	snprintf(buf, n, "%s %s %s", ow_check_text(c), ow_check_relation(c), q);
 	return buf;
 }
 
@@ -271,6 +270,67 @@ static const char *axis_words(const struct rpt *r, char *buf, size_t n)
 	return buf;
 }
 
+/* One row of the bounds table: which bound, its value as the window table
+ * prints it, what sets it and how finely it is located. */
+static void setter_row(struct rpt *r, const struct rpt_table *t,
+                       const char *what, const char *value,
+                       enum ow_window_side side)
+{
+	const struct ow_window_bound *b = &r->w->bound[side];
+	int rpm = side == OW_WB_RPM_MIN || side == OW_WB_RPM_MAX;
+	char why[300], lim[160], res[48];
+	const char *cells[4] = {what, value, why, res};
+
+	ow_window_setter_text(b->check, why, sizeof why);
+	if (b->check >= 0 && b->check < OW_CK_LIMITS) {
+		rpt_limit_text(r, (enum ow_check)b->check, lim, sizeof lim);
+		snprintf(why + strlen(why), sizeof why - strlen(why), " (%s)",
+		         lim);
+	}
+	if (b->check == OW_WINDOW_SWEEP_EDGE)
+		snprintf(res, sizeof res, "—");
+	else if (rpm)
+		snprintf(res, sizeof res, "%g rpm", b->resolution);
+	else
+		rpt_qty(r, res, sizeof res, OW_DIM_TEMP_DIFF, b->resolution, 2);
+	rpt_table_row(r, t, cells, b->check == OW_WINDOW_SWEEP_EDGE);
+}
+
+/* What sets each bound (shaded: the sweep's edge, not a limit) and, when
+ * the window touches the sweep's edge, the note saying so. */
+static void setters_table(struct rpt *r, const char (*v)[32],
+                          const char (*z)[32])
+{
+	struct rpt_table t = {4,
+	                      {"Bound", "Value", "Set by", "Located within"},
+	                      {0.27, 0.11, 0.46, 0.16},
+	                      {OW_ALIGN_LEFT, OW_ALIGN_RIGHT, OW_ALIGN_LEFT,
+	                       OW_ALIGN_RIGHT},
+	                      8.0,
+	                      0};
+	struct rpt_style st = rpt_body();
+	char a[160], b[160];
+	const char *T = rpt_unit(r, OW_DIM_TEMPERATURE);
+
+	r->y -= 2.0;
+	rpt_table_head(r, &t);
+	snprintf(a, sizeof a, "%s rpm", v[0]);
+	snprintf(b, sizeof b, "%s rpm", v[1]);
+	setter_row(r, &t, "Screw speed, lowest", a, OW_WB_RPM_MIN);
+	setter_row(r, &t, "Screw speed, highest", b, OW_WB_RPM_MAX);
+	snprintf(a, sizeof a, "%s %s", z[0], T);
+	snprintf(b, sizeof b, "%s %s", z[1], T);
+	setter_row(r, &t, "Map-axis set-point, lowest", a, OW_WB_SET_MIN);
+	setter_row(r, &t, "Map-axis set-point, highest", b, OW_WB_SET_MAX);
+	rpt_table_end(r);
+	if (!r->w->at_sweep_edge)
+		return;
+	st.bold = 1;
+	st.colour = ow_rgb(0.55, 0.05, 0.05);
+	st.size_pt = 8.0;
+	rpt_para(r, OW_WINDOW_SWEEP_EDGE_NOTE, &st, 2.0);
+}
+
 static void window_table(struct rpt *r)
 {
 	struct rpt_table t = {5,
@@ -282,7 +342,7 @@ static void window_table(struct rpt *r)
 	                      8.5,
 	                      0};
 	struct rpt_style st = rpt_body();
-	char v[3][32], text[700], ax[300];
+	char v[3][32], z[3][32], text[1100], ax[300];
 
 	rpt_heading(r, "Recommended operating window", 120.0);
 	r->y -= 4.0;
@@ -295,12 +355,18 @@ static void window_table(struct rpt *r)
 	t.first_bold = 0;
 	result_rows(r, &t);
 	rpt_table_end(r);
+	rpt_range(r, OW_DIM_TEMPERATURE, r->w->set_min_K, r->w->set_max_K,
+	          r->w->centre_set_K, OW_REPORT_TEMP_DECIMALS, z);
+	setters_table(r, (const char(*)[32])v, (const char(*)[32])z);
 	snprintf(text, sizeof text,
-	         "Every mapped point inside this window "
-	         "passes every limit (%.0f %% of the swept points do); the "
-	         "bounds are rounded towards its inside. Start at the centre "
-	         "point: of all points in the window it lies farthest from "
-	         "any point that fails. %s",
+	         "Every setting inside this window "
+	         "passes every limit (%.0f %% of the swept points do). Each "
+	         "bound is placed where the limit that sets it is crossed, "
+	         "found between the solved points, and rounded towards the "
+	         "inside to a whole rpm and a whole degree of the map-axis "
+	         "zone, so it does not depend on the grid of the map. Start "
+	         "at the centre point: of the whole-step settings in the "
+	         "window it lies farthest from the window's edge. %s",
 	         100.0 * r->w->safe_fraction, axis_words(r, ax, sizeof ax));
 	st.size_pt = 7.5;
 	rpt_para(r, text, &st, 2.0);
@@ -394,7 +460,7 @@ static void verdict_words(const struct ow_grid_point *p, char *buf, size_t n)
 	for (c = 0; c < OW_CK_COUNT; c++)
 		if (p->v.bits >> c & 1u) {
 			strncat(buf, k++ ? ", " : "", n - strlen(buf) - 1);
-			strncat(buf, ow_check_text((enum ow_check)c),
+			strncat(buf, ow_check_failure((enum ow_check)c),
 			        n - strlen(buf) - 1);
 		}
 }

@@ -477,6 +477,58 @@ static int add_binding(cJSON *o, const struct ow_window *w)
 	return ok;
 }
 
+/* One bound: its value, what sets it (a check key or "sweep_edge") and in
+ * words, and how finely it is located (0 at the sweep's edge). */
+static int add_setter(cJSON *o, const char *key, const char *unit,
+		      const char *res_unit, double value,
+		      const struct ow_window_bound *b)
+{
+	cJSON *e = cJSON_AddObjectToObject(o, key);
+	char why[160], k[32];
+	int ok = e != NULL;
+
+	snprintf(k, sizeof k, "value_%s", unit);
+	ok = ok && put_num(e, k, value);
+	ok = ok && cJSON_AddStringToObject(e, "set_by",
+					   ow_window_setter_key(b->check));
+	ok = ok && cJSON_AddStringToObject(
+			   e, "reason",
+			   ow_window_setter_text(b->check, why, sizeof why));
+	ok = ok && cJSON_AddBoolToObject(e, "is_limit",
+					 b->check != OW_WINDOW_SWEEP_EDGE);
+	snprintf(k, sizeof k, "resolution_%s", res_unit);
+	ok = ok && put_num(e, k, b->resolution);
+	return ok;
+}
+
+/* "bounds": what sets each bound; "at_sweep_edge" and its note. */
+static int add_setters(cJSON *r, const struct ow_window *w)
+{
+	cJSON *o;
+	int ok;
+
+	if (w->empty)
+		return cJSON_AddNullToObject(r, "bounds") &&
+		       cJSON_AddBoolToObject(r, "at_sweep_edge", 0);
+	o = cJSON_AddObjectToObject(r, "bounds");
+	ok = o != NULL;
+	ok = ok && add_setter(o, "rpm_min", "rpm", "rpm", w->rpm_min,
+			      &w->bound[OW_WB_RPM_MIN]);
+	ok = ok && add_setter(o, "rpm_max", "rpm", "rpm", w->rpm_max,
+			      &w->bound[OW_WB_RPM_MAX]);
+	ok = ok && add_setter(o, "set_min_C", "C", "K", C_OF_K(w->set_min_K),
+			      &w->bound[OW_WB_SET_MIN]);
+	ok = ok && add_setter(o, "set_max_C", "C", "K", C_OF_K(w->set_max_K),
+			      &w->bound[OW_WB_SET_MAX]);
+	ok = ok && put_num(o, "rpm_step_rpm", w->rpm_step);
+	ok = ok && put_num(o, "set_step_K", w->temp_step_K);
+	ok = ok && cJSON_AddBoolToObject(r, "at_sweep_edge", w->at_sweep_edge);
+	if (ok && w->at_sweep_edge)
+		ok = cJSON_AddStringToObject(r, "sweep_edge_note",
+					     OW_WINDOW_SWEEP_EDGE_NOTE) != NULL;
+	return ok;
+}
+
 static int add_bounds(cJSON *r, const struct ow_window *w)
 {
 	int e = w->empty, ok = 1;
@@ -504,7 +556,7 @@ static int add_bounds(cJSON *r, const struct ow_window *w)
 	ok = ok && put_num(r, "melt_temp_C_min", e ? NAN : C_OF_K(w->melt_min_K));
 	ok = ok && put_num(r, "melt_temp_C_max", e ? NAN : C_OF_K(w->melt_max_K));
 	ok = ok && put_num(r, "peak_temp_C_max", e ? NAN : C_OF_K(w->peak_max_K));
-	return ok;
+	return ok && add_setters(r, w);
 }
 
 enum ow_status ow_results_window_json(const struct ow_study *s,

@@ -330,7 +330,7 @@ static void report_says_plainly_when_no_point_is_safe(void **state)
 	text = ow_test_pdf_text(path);
 	contains(text, "No safe operating point exists in the swept range.");
 	/* the binding limit first, with every point failing it */
-	snprintf(path, sizeof path, "peak melt temperature ≤ 27 °C %d 100 %%",
+	snprintf(path, sizeof path, "peak melt temperature at most 27 °C %d 100 %%",
 	         g.n_rpm * g.n_axis);
 	contains(text, path);
 	contains(text, "Hot melt and pressure can injure.");
