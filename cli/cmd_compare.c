@@ -180,8 +180,12 @@ static void print_point(const struct ow_compare *cmp, enum ow_cmp_at at,
 		       ow_compare_at_text((enum ow_cmp_at)k));
 		return;
 	}
-	printf("\nAt the %s: %.1f rpm, %.1f %s\n  ", ow_compare_at_text(at),
+	printf("\nAt the %s: %.1f rpm, %.1f %s", ow_compare_at_text(at),
 	       p->rpm, SHOW(OW_DIM_TEMPERATURE, p->set_ref_K[0]));
+	if (cmp->by_shift)
+		printf(" (%s at %.1f %s)", o->label[1],
+		       SHOW(OW_DIM_TEMPERATURE, p->set_ref_K[1]));
+	printf("\n  ");
 	snprintf(diff, sizeof diff, "%s − %s", o->label[1], o->label[0]);
 	cell("", 40);
 	cell(o->label[0], -12);
@@ -231,6 +235,15 @@ static void print_summary(const struct ow_compare *cmp,
 	print_window(o->label[0], cmp->win[0], o);
 	print_window(o->label[1], cmp->win[1], o);
 	print_window("common", cmp->common[0], o);
+	{
+		char how[320];
+
+		printf("Barrel set-points: %s%s\n",
+		       ow_compare_alignment(cmp, o->c.units, how, sizeof how),
+		       cmp->by_shift ? "; the common window and the points "
+		                       "below give A's set-points"
+		                     : "");
+	}
 	printf("\nGrid points: safe in both %d, only in %s %d, only in %s %d, "
 	       "in neither %d\n",
 	       cmp->count[OW_CMP_BOTH], o->label[0], cmp->count[OW_CMP_A_ONLY],

@@ -306,6 +306,15 @@ enum ow_status ow_compare_json(const struct ow_compare *cmp, char **out,
 		ok = cJSON_AddItemToObject(r, case_key[k],
 		                           case_window(cmp, k, d));
 	ok = ok && cJSON_AddItemToObject(r, "common", common_window(cmp, d));
+	ok = ok && cJSON_AddBoolToObject(r, "aligned_on_shift", cmp->by_shift);
+	{
+		char how[320];
+
+		ok = ok && cJSON_AddStringToObject(
+		               r, "alignment",
+		               ow_compare_alignment(cmp, OW_SYS_SI, how,
+		                                    sizeof how));
+	}
 	ok = ok && cJSON_AddItemToObject(r, "differences", differences(cmp));
 	ok = ok && cJSON_AddItemToObject(r, "inputs", inputs(cmp));
 	if (ok)

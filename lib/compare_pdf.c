@@ -198,13 +198,25 @@ static void windows(struct cpdf *r)
 	window_row(r, &t, "common", c->common[0], both);
 	r->doc.y += 4.0;
 	para(r,
-	     "Each window is the largest rectangle of grid points at "
-	     "which every limit of that study is met. The common window "
-	     "is the largest rectangle of points safe in both cases, and "
-	     "its centre the point of it farthest from any point unsafe "
-	     "in either: the setting to start from when the line must "
-	     "run either case.",
+	     "Each window is the largest rectangle in which every limit of "
+	     "that study is met, its bounds placed where a limit is crossed "
+	     "between the solved points and rounded inwards to whole rpm and "
+	     "whole degrees, as in the single report. The common window is "
+	     "the largest rectangle safe in both cases, and its centre the "
+	     "setting of it farthest from the edge of either window: the "
+	     "setting to start from when the line must run either case.",
 	     RPT_BODY_PT, 0, 4.0);
+	{
+		char how[320], text[400];
+
+		snprintf(text, sizeof text, "Barrel set-points: %s.%s",
+		         ow_compare_alignment(c, r->o->units, how, sizeof how),
+		         c->by_shift ? " The map's vertical axis is that shift; "
+		                       "the common window's set-points are "
+		                       "case A's."
+		                     : "");
+		para(r, text, RPT_BODY_PT, 0, 4.0);
+	}
 }
 
 /* The overlay map at full column width. */
@@ -369,6 +381,11 @@ static void centre_table(struct cpdf *r, int at)
 	             rpt_shown(&r->doc, OW_DIM_TEMPERATURE, p->set_ref_K[0]),
 	             OW_REPORT_TEMP_DECIMALS + 1, OW_ROUND_NEAREST),
 	         rpt_unit(&r->doc, OW_DIM_TEMPERATURE));
+	if (r->cmp->by_shift)
+		snprintf(title + strlen(title), sizeof title - strlen(title),
+		         " (%s at %.0f %s)", label(r, 1),
+		         rpt_shown(&r->doc, OW_DIM_TEMPERATURE, p->set_ref_K[1]),
+		         rpt_unit(&r->doc, OW_DIM_TEMPERATURE));
 	rpt_need(&r->doc, 12.0 * RPT_SMALL_PT * RPT_LINE + 20.0);
 	para(r, title, RPT_BODY_PT + 1.0, 1, 3.0);
 	rpt_table_head(&r->doc, &t);

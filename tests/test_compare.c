@@ -130,8 +130,10 @@ static void axes_that_differ_are_refused_naming_the_field(void **state)
 	c->line.axes.axis_from = -20.0;
 	expect_refused(a, c, NULL, "sweep.barrel.from");
 	*c = *b;
-	c->line.zones[1].set_K += 10.0; /* a shift moves each own last zone */
-	expect_refused(a, c, NULL, "barrel.zones[1].set");
+	/* two resins at their own set-points: a shift moves each study's
+	 * own zones, so the two are aligned on the shift, not refused */
+	c->line.zones[1].set_K += 10.0;
+	assert_int_equal(ow_compare_check_axes(a, c, NULL, NULL), OW_OK);
 	free(a);
 	free(b);
 	free(c);
