@@ -279,7 +279,7 @@ int cmd_map(int argc, char **argv)
 		return cli_usage_error("map", "expects one STUDY.json");
 	if ((rc = cli_load_study("map", argv[optind], &u, &s)))
 		return rc;
-	rc = cli_render_current("map", u, &o.r, o.c.units);
+	rc = cli_render_current("map", u, &o.r, o.c.units, s->own_units);
 	if (!rc)
 		rc = cli_make_dir("map", o.dir);
 	if (!rc)

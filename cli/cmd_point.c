@@ -26,8 +26,10 @@ static void help(void)
 	       "mode: a\n"
 	       "                   temperature (set, zone) or a difference "
 	       "(shift);\n"
-	       "                   without a unit: degC / K (degF with "
-	       "--units us);\n"
+	       "                   with a unit (\"10 K\", \"440 degF\") or "
+	       "bare in the\n"
+	       "                   study's own units (how it was read goes "
+	       "to stderr);\n"
 	       "                   omitted: the study's own set-points\n"
 	       "  --profile FILE   write the axial profile (CSV)\n"
 	       "  --json           print the figures as JSON (SI keys)\n"
@@ -152,15 +154,18 @@ static int solve(const struct ow_units *u, const struct ow_study *s,
 	enum ow_status st;
 	int rc;
 
-	st = cli_read_value(u, o->rpm, OW_DIM_ROT_SPEED, o->c.units, &rpm, &d);
+	enum ow_dim dim = s->line.axes.mode == OW_AXIS_SHIFT
+				  ? OW_DIM_TEMP_DIFF
+				  : OW_DIM_TEMPERATURE;
+
+	st = cli_read_value(u, o->rpm, OW_DIM_ROT_SPEED, s->own_units, &rpm,
+			    &d);
 	if (st == OW_OK && o->set)
-		st = cli_read_value(u, o->set,
-				s->line.axes.mode == OW_AXIS_SHIFT
-					? OW_DIM_TEMP_DIFF
-					: OW_DIM_TEMPERATURE,
-				o->c.units, &v, &d);
+		st = cli_read_value(u, o->set, dim, s->own_units, &v, &d);
 	if (st != OW_OK)
 		return cli_usage_error("point", d.msg);
+	if (o->set)
+		cli_note_value("point", "--set", o->set, dim, s->own_units, v);
 	if (o->set)
 		ow_line_apply_axis(&s->line, v, set_K);
 	st = ow_solver_create(s, &sv, &d);

@@ -75,7 +75,8 @@ static int redraw(const struct ow_units *u, const char *dir,
 		r->rep.n_profile = centre.n_rows;
 	}
 	rc = st != OW_OK ? cli_fail("report", st, &d)
-			 : cli_render_current("report", u, r, c->units);
+			 : cli_render_current("report", u, r, c->units,
+					      s->own_units);
 	if (!rc)
 		rc = cli_render("report", s, g, w, r, dir);
 	if (!rc && !c->quiet)

@@ -391,24 +391,30 @@ static void point_label(const struct ow_plot *p, double bx, double by, double w,
 	ow_canvas_restore(p->cv);
 }
 
-/* A marked point with a label beside it: at the first of four corners
- * that lies inside the plot and clear of other labels; failing that, the
- * first inside the plot; failing that, pushed inside. */
+/* A marked point with a label beside it: at the first of eight places
+ * (the four corners, then the same a line further out) that lies inside
+ * the plot and clear of other labels and markers; failing that, the first
+ * inside the plot; failing that, pushed inside. The marker is taken too,
+ * so a later label does not cover it. */
 static void mark_point(const struct ow_plot *p, double x, double y,
                        enum ow_marker m, const char *text,
                        struct maps_labels *taken)
 {
-	static const double off[4][2] = {{1, -1}, {1, 1}, {-1, -1}, {-1, 1}};
+	static const double off[8][3] = {{1, -1, 0}, {1, 1, 0}, {-1, -1, 0},
+	                                 {-1, 1, 0}, {1, -1, 1}, {1, 1, 1},
+	                                 {-1, -1, 1}, {-1, 1, 1}};
 	double X = ow_plot_px(p, x), Y = ow_plot_py(p, y), f = p->font_pt;
-	double w, h = 1.3 * f, bx[4], by[4];
+	double w, h = 1.3 * f, bx[8], by[8];
 	int k, pick = -1, inside = -1;
 
 	ow_plot_marker(p, x, y, m, 9.0, ow_rgb(1, 1, 1), ow_rgb(0, 0, 0));
 	ow_canvas_set_font(p->cv, 0.95 * f, 1);
 	w = ow_canvas_text_width(p->cv, text) + 0.6 * f;
-	for (k = 0; k < 4 && pick < 0; k++) {
+	for (k = 0; k < 8 && pick < 0; k++) {
+		double far = off[k][2] * 1.2 * h;
+
 		bx[k] = off[k][0] > 0 ? X + 6.0 : X - 6.0 - w;
-		by[k] = off[k][1] < 0 ? Y - 6.0 - h : Y + 6.0;
+		by[k] = off[k][1] < 0 ? Y - 6.0 - h - far : Y + 6.0 + far;
 		if (bx[k] < p->area.x || bx[k] + w > p->area.x + p->area.w ||
 		    by[k] < p->area.y || by[k] + h > p->area.y + p->area.h)
 			continue;
@@ -426,6 +432,7 @@ static void mark_point(const struct ow_plot *p, double x, double y,
 	}
 	point_label(p, bx[pick], by[pick], w, h, text);
 	maps_labels_take(taken, bx[pick], by[pick], bx[pick] + w, by[pick] + h);
+	maps_labels_take(taken, X - 5.0, Y - 5.0, X + 5.0, Y + 5.0);
 }
 
 static void point_text(char *buf, size_t n, const char *what, double rpm,
@@ -458,12 +465,19 @@ void maps_draw_points(const struct ow_plot *p, const struct ow_study *s,
 	if (o->has_current && isfinite(o->current_rpm) &&
 	    isfinite(o->current_set_K)) {
 		double y = maps_temp(o->units, o->current_set_K);
+		double x = o->current_rpm;
+		double x0 = fmin(p->x0, p->x1), x1 = fmax(p->x0, p->x1);
+		double y0 = fmin(p->y0, p->y1), y1 = fmax(p->y0, p->y1);
+		int off = x < x0 || x > x1 || y < y0 || y > y1;
 
-		point_text(buf, sizeof buf, "current", o->current_rpm, y,
-		           o->units);
+		point_text(buf, sizeof buf, "current", x, y, o->units);
 		if (brief)
 			snprintf(buf, sizeof buf, "current");
-		mark_point(p, o->current_rpm, y, OW_MARK_TRIANGLE, buf, taken);
+		if (off) /* drawn on the frame, said so: nothing known there */
+			strncat(buf, " (outside the map)",
+			        sizeof buf - strlen(buf) - 1);
+		mark_point(p, fmin(x1, fmax(x0, x)), fmin(y1, fmax(y0, y)),
+		           OW_MARK_TRIANGLE, buf, taken);
 	}
 }
 

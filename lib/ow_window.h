@@ -109,6 +109,16 @@ enum ow_status ow_window_extract(const struct ow_study *s,
 				 struct ow_window **out, struct ow_diag *d);
 void ow_window_destroy(struct ow_window *w);
 
+/* The verdict at a setting that need not be a grid point: rpm and the
+ * reference zone's set-point set_K. *inside 0 when it lies outside the
+ * swept range (then nothing is known there and *bits is 0); else *bits
+ * holds the checks failing there, by their margins interpolated between
+ * solved points as the window's bounds are. */
+enum ow_status ow_window_verdict_at(const struct ow_study *s,
+				    const struct ow_grid *g, double rpm,
+				    double set_K, int *inside,
+				    unsigned *bits, struct ow_diag *d);
+
 /* Checks ordered by how many points they exclude (most first); returns
  * how many exclude any. */
 int ow_window_binding(const struct ow_window *w, enum ow_check *order);

@@ -422,43 +422,39 @@ static void no_window(struct rpt *r)
 
 /* ---- the current operating point ---------------------------------------- */
 
-/* The lattice point nearest (rpm, set) in units of the sweep ranges. */
-static const struct ow_grid_point *nearest(const struct rpt *r, double rpm,
-                                           double set_K)
+/* The verdict at the current point from the margins interpolated between
+ * solved points (never a neighbour's), or that it lies off the map. */
+static void verdict_words(struct rpt *r, double rpm, double set_K, char *buf,
+                          size_t n)
 {
 	const struct ow_grid *g = r->g;
 	const struct ow_grid_point *a = &g->pts[0];
 	const struct ow_grid_point *b = &g->pts[g->n_rpm * g->n_axis - 1];
-	double sr = fabs(b->rpm - a->rpm),
-	       ss = fabs(b->set_ref_K - a->set_ref_K);
-	double best = INFINITY;
-	const struct ow_grid_point *near = NULL;
-	int i;
+	char x[3][32];
+	unsigned bits = 0;
+	int inside = 0, c, k = 0;
 
-	for (i = 0; i < g->n_rpm * g->n_axis; i++) {
-		const struct ow_grid_point *p = &g->pts[i];
-		double dx = (p->rpm - rpm) / (sr > 0 ? sr : 1.0);
-		double dy = (p->set_ref_K - set_K) / (ss > 0 ? ss : 1.0);
-
-		if (dx * dx + dy * dy < best) {
-			best = dx * dx + dy * dy;
-			near = p;
-		}
-	}
-	return near;
-}
-
-static void verdict_words(const struct ow_grid_point *p, char *buf, size_t n)
-{
-	int c, k = 0;
-
-	if (!p->v.bits) {
-		snprintf(buf, n, "the nearest mapped point passes every limit");
+	if (ow_window_verdict_at(r->s, g, rpm, set_K, &inside, &bits, r->d) !=
+	    OW_OK)
+		r->st = OW_ENOMEM;
+	if (!inside) {
+		rpt_range(r, OW_DIM_TEMPERATURE, a->set_ref_K, b->set_ref_K,
+		          a->set_ref_K, OW_REPORT_TEMP_DECIMALS, x);
+		snprintf(buf, n,
+		         "it lies outside the swept range (%.0f–%.0f rpm, "
+		         "%s–%s %s), where the map says nothing: widen the "
+		         "sweep to judge it",
+		         a->rpm, b->rpm, x[0], x[1],
+		         rpt_unit(r, OW_DIM_TEMPERATURE));
 		return;
 	}
-	snprintf(buf, n, "the nearest mapped point fails: ");
+	if (!bits) {
+		snprintf(buf, n, "it passes every limit there");
+		return;
+	}
+	snprintf(buf, n, "there it fails: ");
 	for (c = 0; c < OW_CK_COUNT; c++)
-		if (p->v.bits >> c & 1u) {
+		if (bits >> c & 1u) {
 			strncat(buf, k++ ? ", " : "", n - strlen(buf) - 1);
 			strncat(buf, ow_check_failure((enum ow_check)c),
 			        n - strlen(buf) - 1);
@@ -479,7 +475,7 @@ static void current_point(struct rpt *r)
 	         o->current_rpm <= w->rpm_max + 1e-9 &&
 	         o->current_set_K >= w->set_min_K - 1e-9 &&
 	         o->current_set_K <= w->set_max_K + 1e-9;
-	verdict_words(nearest(r, o->current_rpm, o->current_set_K), verdict,
+	verdict_words(r, o->current_rpm, o->current_set_K, verdict,
 	              sizeof verdict);
 	rpt_exact(rpm, sizeof rpm, o->current_rpm);
 	rpt_exact(set, sizeof set,

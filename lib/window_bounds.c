@@ -529,3 +529,56 @@ done:
 	free(f.v);
 	return st;
 }
+
+/* Channel values at (rpm, axis): bilinear in the lattice cell. */
+static void field_at(const struct field *f, double rpm, double axis,
+		     double *out)
+{
+	double x = (rpm - f->r0) / f->dr, y = (axis - f->a0) / f->da;
+	int i = (int)floor(x), j = (int)floor(y), k;
+	double tx, ty;
+
+	i = i < 0 ? 0 : (i > f->nr - 2 ? f->nr - 2 : i);
+	j = j < 0 ? 0 : (j > f->na - 2 ? f->na - 2 : j);
+	tx = x - i;
+	ty = y - j;
+	for (k = 0; k < f->nch; k++) {
+		const double *v = f->v;
+		size_t n = (size_t)f->nch, r = (size_t)f->nr;
+		double b = v[((size_t)j * r + i) * n + k] * (1 - tx) +
+			   v[((size_t)j * r + i + 1) * n + k] * tx;
+		double t = v[((size_t)(j + 1) * r + i) * n + k] * (1 - tx) +
+			   v[((size_t)(j + 1) * r + i + 1) * n + k] * tx;
+
+		out[k] = b * (1 - ty) + t * ty;
+	}
+}
+
+enum ow_status ow_window_verdict_at(const struct ow_study *s,
+				    const struct ow_grid *g, double rpm,
+				    double set_K, int *inside,
+				    unsigned *bits, struct ow_diag *d)
+{
+	struct field f = {0};
+	double axis = set_K - ow_sweep_set_ref(s, 0.0), v[MAX_CH];
+	double r1, a1, tol = 1e-9;
+	int k;
+
+	*bits = 0;
+	if (field_make(s, g, &f)) {
+		free(f.v);
+		return ow_diag_set(d, OW_ENOMEM, "out of memory");
+	}
+	r1 = f.r0 + (f.nr - 1) * f.dr;
+	a1 = f.a0 + (f.na - 1) * f.da;
+	*inside = rpm >= f.r0 - tol && rpm <= r1 + tol &&
+		  axis >= f.a0 - tol && axis <= a1 + tol;
+	if (*inside) {
+		field_at(&f, rpm, axis, v);
+		for (k = 0; k < f.nch; k++)
+			if (v[k] < 0.0)
+				*bits |= 1u << f.ch[k];
+	}
+	free(f.v);
+	return OW_OK;
+}

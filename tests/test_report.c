@@ -363,7 +363,7 @@ static void cli_report_redraws_a_saved_map_folder(void **state)
 	snprintf(args, sizeof args,
 	         "report '%s' --paper letter --units us "
 	         "--date 2026-03-15 --revision D --approved-by 'Q. Lead' "
-	         "--current 60,400",
+	         "--current '60,400 degF'",
 	         dir);
 	cli_run(args, &r);
 	if (r.code)

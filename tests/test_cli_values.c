@@ -1,0 +1,124 @@
+/* test_cli_values.c - end-to-end: the README's commands run as written,
+ * values on the command line are read in the study's own units, and a
+ * current point off the map is said to be off it. */
+#include "testutil.h"
+#include "clirun.h"
+#include "pdfutil.h"
+
+#include <cjson/cJSON.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <unistd.h>
+
+#define FAST "tests/data/map-fast.json" /* 20..140 rpm, 200 degC -30..+30 K */
+
+/* Every `build/opwin ...` line of the README's sh blocks, run in order
+ * from an empty folder that sees build/, demo/ and fixtures/ (so out/ does
+ * not exist before the first command writes into it). The `make` lines are
+ * what runs this test. */
+static void readme_commands_run_as_written(void **state)
+{
+	char *readme = cli_slurp("README.md"), *line, *save = NULL;
+	char cwd[1024], dir[] = "/tmp/opwin-readme-XXXXXX", cmd[4096];
+	int in_sh = 0, n = 0, rc;
+
+	(void)state;
+	assert_non_null(readme);
+	assert_non_null(getcwd(cwd, sizeof cwd));
+	assert_non_null(mkdtemp(dir));
+	snprintf(cmd, sizeof cmd,
+	         "ln -s '%s/build' '%s/demo' '%s/fixtures' '%s/'", cwd, cwd,
+	         cwd, dir);
+	assert_int_equal(system(cmd), 0);
+	for (line = strtok_r(readme, "\n", &save); line;
+	     line = strtok_r(NULL, "\n", &save)) {
+		if (!strncmp(line, "```", 3)) {
+			in_sh = !in_sh && !strcmp(line, "```sh");
+			continue;
+		}
+		if (!in_sh || strncmp(line, "build/opwin ", 12))
+			continue;
+		/* as written; the newline ends a trailing comment */
+		snprintf(cmd, sizeof cmd, "cd '%s' && ( %s\n) >/dev/null 2>&1",
+		         dir, line);
+		rc = system(cmd);
+		if (rc != 0)
+			fprintf(stderr, "README command failed (%d): %s\n", rc,
+			        line);
+		assert_int_equal(rc, 0);
+		n++;
+	}
+	assert_true(n >= 5);
+	snprintf(cmd, sizeof cmd, "rm -rf '%s'", dir);
+	assert_int_equal(system(cmd), 0);
+	free(readme);
+}
+
+/* The demo's two studies describe one line, one in SI, one in US units:
+ * a bare --set is read in each study's own units, so 10 on the SI study
+ * and 18 on the US study are the same shift (10 K = 18 degF, by the
+ * definition of the Fahrenheit degree, NIST SP 811, 2008, B.8), and so is
+ * "10 K" given with its unit, whatever --units says. */
+static void a_bare_set_is_read_in_the_study_units(void **state)
+{
+	cJSON *si = cli_run_json("point demo/study-si.json --rpm 60 --set 10 "
+	                         "--json --units us");
+	cJSON *us = cli_run_json("point demo/study-us.json --rpm 60 --set 18 "
+	                         "--json");
+	cJSON *unit = cli_run_json("point demo/study-us.json --rpm 60 --set "
+	                           "'10 K' --json");
+	struct cli_result r;
+
+	(void)state;
+	assert_rel(cli_json_num(us, "output_kg_h"),
+	           cli_json_num(si, "output_kg_h"), 1e-3);
+	assert_rel(cli_json_num(us, "discharge_bulk_temp_C"),
+	           cli_json_num(si, "discharge_bulk_temp_C"), 1e-3);
+	assert_rel(cli_json_num(unit, "discharge_bulk_temp_C"),
+	           cli_json_num(us, "discharge_bulk_temp_C"), 1e-9);
+	cli_run("point demo/study-us.json --rpm 60 --set 18", &r);
+	assert_int_equal(r.code, 0);
+	assert_non_null(strstr(r.err, "read as 18 °F (10 K)"));
+	assert_non_null(strstr(r.err, "study's own units, US"));
+	cli_result_free(&r);
+	cJSON_Delete(si);
+	cJSON_Delete(us);
+	cJSON_Delete(unit);
+}
+
+/* A current point beyond the swept speeds gets no verdict borrowed from
+ * the nearest mapped point: the report says it is off the map. */
+static void a_current_point_off_the_map_is_said_so(void **state)
+{
+	struct cli_result r;
+	char *text;
+
+	(void)state;
+	cli_run("map " FAST " -o build/tests/values-off --quiet --jobs 2 "
+	        "--grid 6x5 --current 200,200",
+	        &r);
+	assert_int_equal(r.code, 0);
+	cli_result_free(&r);
+	text = ow_test_pdf_text("build/tests/values-off/report.pdf");
+	assert_non_null(strstr(text, "outside the swept range"));
+	assert_null(strstr(text, "passes every limit there"));
+	free(text);
+	cli_run("report build/tests/values-off --current 30,200", &r);
+	assert_int_equal(r.code, 0);
+	cli_result_free(&r);
+	text = ow_test_pdf_text("build/tests/values-off/report.pdf");
+	assert_null(strstr(text, "outside the swept range"));
+	free(text);
+}
+
+int main(void)
+{
+	const struct CMUnitTest tests[] = {
+		cmocka_unit_test(a_bare_set_is_read_in_the_study_units),
+		cmocka_unit_test(a_current_point_off_the_map_is_said_so),
+		cmocka_unit_test(readme_commands_run_as_written),
+	};
+
+	return cmocka_run_group_tests(tests, NULL, NULL);
+}
