@@ -24,8 +24,12 @@
 	X(OW_CK_MIN_OUTPUT, "min_output", "throughput", MIN)             \
 	X(OW_CK_MAX_OUTPUT, "max_output", "throughput", MAX)             \
 	X(OW_CK_MAX_SBR, "max_sbr", "solid bed ratio", MAX)              \
+	X(OW_CK_ZONE_CONTROL, "zone_control",                            \
+	  "power a barrel zone needs to hold its set-point", MAX)        \
 	X(OW_CK_PLUGGING, "plugging", "solid bed plugging", FLAG)        \
 	X(OW_CK_FEED, "feed_limited", "starved feed", FLAG)              \
+	X(OW_CK_PARTIAL_FILL, "partial_fill",                            \
+	  "partial filling of the channel (pressure below zero)", FLAG)  \
 	X(OW_CK_NOCONV, "not_converged", "non-convergence", FLAG)
 
 /* The failure phrase of each kind, appended to the quantity's words. */
@@ -41,7 +45,7 @@ enum ow_check {
 };
 
 /* Number of checks that are limits with margins (the first ones). */
-#define OW_CK_LIMITS (OW_CK_MAX_SBR + 1)
+#define OW_CK_LIMITS (OW_CK_ZONE_CONTROL + 1)
 
 struct ow_verdict {
 	unsigned bits;                /* 1u << check, for each violated */

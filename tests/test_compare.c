@@ -227,8 +227,8 @@ static void worn_screw_gives_less_output_and_another_window(void **state)
 		assert_abs(p->rpm, q->rpm, 0.0);
 		assert_true(q->pt.output_kg_s < p->pt.output_kg_s);
 	}
-	moved = wa->ir0 != wb->ir0 || wa->ir1 != wb->ir1 ||
-	        wa->ia0 != wb->ia0 || wa->ia1 != wb->ia1;
+	moved = wa->rpm_min != wb->rpm_min || wa->rpm_max != wb->rpm_max ||
+	        wa->axis_min != wb->axis_min || wa->axis_max != wb->axis_max;
 	assert_true(moved || wb->safe_fraction < wa->safe_fraction);
 	/* the reason printed: where only the worn screw is safe, the new
 	 * one breaks its pressure limit (less leakage, more pressure) */
