@@ -218,6 +218,7 @@ static cJSON *point_obj(const struct ow_compare *cmp,
 	o = cJSON_CreateObject();
 	ok = o && put_num(o, "rpm", p->rpm);
 	ok = ok && put_num(o, "axis_value", p->axis);
+	ok = ok && put_num(o, "barrel_setting_K", p->axis);
 	for (k = 0; ok && k < 2; k++) {
 		c = cJSON_AddObjectToObject(o, case_key[k]);
 		ok = c && add_figures(c, cmp->study[k], &p->pt[k], &p->v[k],
@@ -338,7 +339,7 @@ static void csv_head(struct ow_text *t)
 			ow_text_add(t, ow_results_figure_key(f));
 			ow_text_add(t, k ? "_b" : "_a");
 		}
-	ow_text_add(t, ",status_a,status_b\n");
+	ow_text_add(t, ",barrel_setting_K,set_b_C,status_a,status_b\n");
 }
 
 enum ow_status ow_compare_csv(const struct ow_compare *cmp, char **out,
@@ -363,6 +364,8 @@ enum ow_status ow_compare_csv(const struct ow_compare *cmp, char **out,
 				            ow_results_figure(cmp->study[k],
 				                              &p[k]->pt, f),
 				            1);
+		ow_text_num(&t, p[0]->axis, 1); /* barrel_setting_K */
+		ow_text_num(&t, C_OF_K(p[1]->set_ref_K), 1); /* set_b_C */
 		ow_text_status(&t, &p[0]->v);
 		ow_text_status(&t, &p[1]->v);
 		ow_text_add(&t, "\n");

@@ -25,8 +25,8 @@ double maps_font(const struct ow_maps_options *o)
 }
 
 static const char *const fig_file[OW_MAP_COUNT] = {
-    "map-peak-temp", "map-unmelt", "map-pressure", "map-output", "map-sec",
-    "map-zone-load"};
+    "map-peak-temp", "map-unmelted-solids", "map-pressure", "map-output",
+    "map-specific-energy", "map-zone-load"};
 static const char *const fig_title[OW_MAP_COUNT] = {
     "Peak melt temperature", "Unmelted solids at discharge",
     "Highest pressure on the screw", "Throughput", "Specific energy (drive)",
@@ -105,13 +105,13 @@ char *maps_limit_text(const struct ow_study *s, int check,
 		enum ow_dim dim;
 	} lim[OW_CK_LIMITS] = {
 	    [OW_CK_PEAK_TEMP] = {"peak melt", OW_DIM_TEMPERATURE},
-	    [OW_CK_UNMELT] = {"unmelt", OW_DIM_NONE},
+	    [OW_CK_UNMELT] = {"unmelted", OW_DIM_NONE},
 	    [OW_CK_PRESSURE] = {"pressure", OW_DIM_PRESSURE},
 	    [OW_CK_POWER] = {"power", OW_DIM_POWER},
 	    [OW_CK_TORQUE] = {"torque", OW_DIM_TORQUE},
-	    [OW_CK_MIN_MELT_TEMP] = {"min. melt", OW_DIM_TEMPERATURE},
-	    [OW_CK_MIN_OUTPUT] = {"min. output", OW_DIM_MASS_FLOW},
-	    [OW_CK_MAX_OUTPUT] = {"max. output", OW_DIM_MASS_FLOW},
+	    [OW_CK_MIN_MELT_TEMP] = {"melt at discharge", OW_DIM_TEMPERATURE},
+	    [OW_CK_MIN_OUTPUT] = {"throughput", OW_DIM_MASS_FLOW},
+	    [OW_CK_MAX_OUTPUT] = {"throughput", OW_DIM_MASS_FLOW},
 	    [OW_CK_MAX_SBR] = {"solid bed ratio", OW_DIM_NONE},
 	    [OW_CK_ZONE_CONTROL] = {"zone load", OW_DIM_NONE},
 	};
@@ -122,7 +122,7 @@ char *maps_limit_text(const struct ow_study *s, int check,
 	if (check == OW_CK_PLUGGING)
 		return snprintf(buf, n, "plugging"), buf;
 	if (check == OW_CK_FEED)
-		return snprintf(buf, n, "feed-limited"), buf;
+		return snprintf(buf, n, "starved feed"), buf;
 	if (check == OW_CK_PARTIAL_FILL)
 		return snprintf(buf, n, "partly filled"), buf;
 	if (check == OW_CK_NOCONV || check < 0 || check >= OW_CK_LIMITS)

@@ -380,7 +380,8 @@ enum ow_status ow_results_grid_csv(const struct ow_study *s,
 		snprintf(h, sizeof h, ",zone_%d_demand_kW", f + 1);
 		ow_text_add(&t, h);
 	}
-	ow_text_add(&t, ",status\n");
+	/* the contract's leading columns stay first and status last */
+	ow_text_add(&t, ",barrel_setting_K,status\n");
 	for (i = 0; i < g->n_rpm * g->n_axis; i++) {
 		const struct ow_grid_point *p = &g->pts[i];
 
@@ -393,6 +394,7 @@ enum ow_status ow_results_grid_csv(const struct ow_study *s,
 			ow_text_num(&t, fig(s, &p->pt, f), 1);
 		for (f = 0; f < s->line.n_zones; f++)
 			ow_text_num(&t, p->pt.zone_demand_W[f] * 1e-3, 1);
+		ow_text_num(&t, p->axis, 1); /* barrel_setting_K */
 		ow_text_status(&t, &p->v);
 		ow_text_add(&t, "\n");
 	}
@@ -551,6 +553,8 @@ static int add_bounds(cJSON *r, const struct ow_window *w)
 	ok = ok && put_num(r, "set_max_C", e ? NAN : C_OF_K(w->set_max_K));
 	ok = ok && put_num(r, "axis_min", e ? NAN : w->axis_min);
 	ok = ok && put_num(r, "axis_max", e ? NAN : w->axis_max);
+	ok = ok && put_num(r, "barrel_setting_min_K", e ? NAN : w->axis_min);
+	ok = ok && put_num(r, "barrel_setting_max_K", e ? NAN : w->axis_max);
 	if (e) {
 		ok = ok && cJSON_AddNullToObject(r, "centre");
 	} else {
@@ -558,7 +562,9 @@ static int add_bounds(cJSON *r, const struct ow_window *w)
 		ok = ok && c && put_num(c, "rpm", w->centre.rpm);
 		ok = ok && put_num(c, "set_C", C_OF_K(w->centre_set_K));
 		ok = ok && put_num(c, "axis_value", w->centre.axis);
-		ok = ok && put_num(c, "clearance", w->centre_clearance);
+		ok = ok && put_num(c, "barrel_setting_K", w->centre.axis);
+		ok = ok && put_num(c, "distance_to_edge_fraction",
+				   w->centre_clearance);
 	}
 	ok = ok && put_num(r, "output_kg_h_min",
 			   e ? NAN : w->output_min_kg_s * 3600.0);
@@ -592,9 +598,11 @@ enum ow_status ow_results_window_json(const struct ow_study *s,
 			   ow_line_reference_zone(&s->line) + 1);
 	ok = ok && put_num(ax, "from", s->line.axes.axis_from);
 	ok = ok && put_num(ax, "to", s->line.axes.axis_to);
+	ok = ok && put_num(ax, "from_K", s->line.axes.axis_from);
+	ok = ok && put_num(ax, "to_K", s->line.axes.axis_to);
 	ok = ok && put_num(r, "solves", g->solves);
-	ok = ok && put_num(r, "lattice_rpm", g->n_rpm);
-	ok = ok && put_num(r, "lattice_axis", g->n_axis);
+	ok = ok && put_num(r, "grid_points_rpm", g->n_rpm);
+	ok = ok && put_num(r, "grid_points_barrel", g->n_axis);
 	ok = ok && add_binding(r, w);
 	ok = ok && add_boundaries(r, s, w);
 	if (ok)

@@ -112,11 +112,67 @@ static void a_current_point_off_the_map_is_said_so(void **state)
 	free(text);
 }
 
+/* Every key of window.json and every column of grid.csv and points-si.csv
+ * is named in the README (zone columns as zone_N_...). */
+static void every_written_key_is_in_the_readme(void **state)
+{
+	char *readme = cli_slurp("README.md"), *text, *h, *tok, *save = NULL;
+	static const char *const csvs[] = {"grid.csv", "points-si.csv"};
+	struct cli_result r;
+	cJSON *w;
+	const cJSON *e, *o;
+	char key[160], path[128];
+	size_t k;
+
+	(void)state;
+	cli_run("map " FAST " -o build/tests/values-keys --quiet --jobs 2 "
+	        "--grid 6x5",
+	        &r);
+	assert_int_equal(r.code, 0);
+	cli_result_free(&r);
+	w = cli_read_json("build/tests/values-keys/window.json");
+	for (e = w->child; e; e = e->next) {
+		snprintf(key, sizeof key, "`%s`", e->string);
+		if (!strstr(readme, key))
+			fail_msg("window.json key %s is not in README", key);
+		o = cJSON_IsArray(e) ? e->child : e;
+		if (cJSON_IsObject(o) && strcmp(e->string, "boundaries"))
+			for (o = o->child; o; o = o->next) {
+				snprintf(key, sizeof key, "`%s`", o->string);
+				if (!strstr(readme, key))
+					fail_msg("window.json %s.%s is not in "
+					         "README", e->string, o->string);
+			}
+	}
+	cJSON_Delete(w);
+	for (k = 0; k < 2; k++) {
+		snprintf(path, sizeof path, "build/tests/values-keys/%s",
+		         csvs[k]);
+		text = cli_slurp(path);
+		assert_non_null(text);
+		h = strtok_r(text, "\n", &save);
+		for (tok = strtok_r(h, ",", &save); tok;
+		     tok = strtok_r(NULL, ",", &save)) {
+			char *digit = strpbrk(tok, "0123456789");
+
+			if (digit) /* zone_2_demand_kW -> zone_N_demand_kW */
+				*digit = 'N';
+			snprintf(key, sizeof key, "`%s`", tok);
+			if (!strstr(readme, key) && strncmp(tok, "margin_", 7))
+				fail_msg("%s column %s is not in README",
+				         csvs[k], key);
+		}
+		free(text);
+	}
+	free(readme);
+}
+
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(a_bare_set_is_read_in_the_study_units),
 		cmocka_unit_test(a_current_point_off_the_map_is_said_so),
+		cmocka_unit_test(every_written_key_is_in_the_readme),
 		cmocka_unit_test(readme_commands_run_as_written),
 	};
 
