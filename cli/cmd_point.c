@@ -106,9 +106,10 @@ static void print_note(const struct ow_study *s, const struct ow_point *pt,
 		printf("melting   NOT complete: %.2f %% of the mass leaves "
 		       "unmelted; max solid bed ratio %.2f\n",
 		       100.0 * pt->unmelt_frac, pt->max_sbr);
-	printf("drive     %.2f %s, torque %.0f N·m, specific energy %.3f "
-	       "kWh/kg\n", SHOW(OW_DIM_POWER, pt->power_W), pt->torque_Nm,
-	       pt->sec_J_kg / 3.6e6);
+	printf("drive     %.2f %s, torque %.0f %s, specific energy %.4f "
+	       "%s\n", SHOW(OW_DIM_POWER, pt->power_W),
+	       SHOW(OW_DIM_TORQUE, pt->torque_Nm),
+	       SHOW(OW_DIM_SPECIFIC_ENERGY, pt->sec_J_kg));
 	if (isfinite(pt->feed_capacity_kg_s))
 		printf("feed      capacity %.1f %s (Darnell-Mol, no pressure "
 		       "loss): %.0f %% used\n",

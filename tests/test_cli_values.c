@@ -167,11 +167,33 @@ static void every_written_key_is_in_the_readme(void **state)
 	free(readme);
 }
 
+/* check shows the die, the limits (one phrasing) and the sweep. */
+static void check_shows_die_limits_and_sweep(void **state)
+{
+	struct cli_result r;
+
+	(void)state;
+	cli_run("check demo/study-si.json", &r);
+	assert_int_equal(r.code, 0);
+	assert_non_null(strstr(r.out, "die     type annulus, outer diameter "
+	                              "40.64 mm"));
+	assert_non_null(strstr(r.out, "limits  peak melt temperature at most "
+	                              "240 °C"));
+	assert_non_null(strstr(r.out, "sweep   screw speed 20 to 120 rpm"));
+	cli_result_free(&r);
+	cli_run("point demo/study-us.json --rpm 50 --units us", &r);
+	assert_int_equal(r.code, 0);
+	assert_non_null(strstr(r.out, "lbf·ft"));
+	assert_non_null(strstr(r.out, "hp·h/lb"));
+	cli_result_free(&r);
+}
+
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(a_bare_set_is_read_in_the_study_units),
 		cmocka_unit_test(a_current_point_off_the_map_is_said_so),
+		cmocka_unit_test(check_shows_die_limits_and_sweep),
 		cmocka_unit_test(every_written_key_is_in_the_readme),
 		cmocka_unit_test(readme_commands_run_as_written),
 	};
