@@ -488,6 +488,48 @@ void maps_draw_points(const struct ow_plot *p, const struct ow_study *s,
 
 /* --- frames ----------------------------------------------------------- */
 
+/* The title on one line when it fits; else on two smaller lines broken
+ * between words (the second shortened only when even that is too long),
+ * so a long study title is not cut. */
+static void title_lines(struct ow_canvas *cv, const struct ow_rect *box,
+                        const char *title, double font_pt)
+{
+	double x = box->x + 0.8 * font_pt, w = box->w - 1.6 * font_pt;
+	char line[320], rest[320];
+	size_t cut = 0, k;
+
+	ow_canvas_set_font(cv, 1.25 * font_pt, 1);
+	if (ow_canvas_text_width(cv, title) <= w) {
+		ow_canvas_text(cv, x, box->y + 0.8 * font_pt, title,
+		               OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+		return;
+	}
+	ow_canvas_set_font(cv, 0.9 * font_pt, 1);
+	snprintf(line, sizeof line, "%s", title);
+	for (k = 1; line[k]; k++) { /* the longest first line that fits */
+		char c = line[k];
+
+		if (c != ' ')
+			continue;
+		line[k] = '\0';
+		if (ow_canvas_text_width(cv, line) <= w)
+			cut = k;
+		line[k] = c;
+	}
+	if (!cut) { /* one long word: shorten it */
+		ow_canvas_text(cv, x, box->y + 0.8 * font_pt,
+		               maps_fit_text(cv, title, w, rest, sizeof rest),
+		               OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+		return;
+	}
+	line[cut] = '\0';
+	ow_canvas_text(cv, x, box->y + 0.45 * font_pt, line, OW_ALIGN_LEFT,
+	               OW_VALIGN_TOP, 0);
+	ow_canvas_text(cv, x, box->y + 1.45 * font_pt,
+	               maps_fit_text(cv, title + cut + 1, w, rest, sizeof rest),
+	               OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+}
+
 void maps_paper(struct ow_canvas *cv, const struct ow_rect *box,
                 const char *title, const char *subtitle, double font_pt)
 {
@@ -498,11 +540,7 @@ void maps_paper(struct ow_canvas *cv, const struct ow_rect *box,
 	ow_canvas_set_colour(cv, ow_rgb(1, 1, 1));
 	ow_canvas_fill(cv);
 	ow_canvas_set_colour(cv, ow_rgb(0.1, 0.1, 0.1));
-	ow_canvas_set_font(cv, 1.25 * font_pt, 1);
-	ow_canvas_text(cv, box->x + 0.8 * font_pt, box->y + 0.8 * font_pt,
-	               maps_fit_text(cv, title ? title : "",
-	                             box->w - 1.6 * font_pt, buf, sizeof buf),
-	               OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+	title_lines(cv, box, title ? title : "", font_pt);
 	if (subtitle) {
 		ow_canvas_set_font(cv, 0.95 * font_pt, 0);
 		ow_canvas_set_colour(cv, ow_rgb(0.3, 0.3, 0.3));

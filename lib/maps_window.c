@@ -57,6 +57,34 @@ static const struct group *group_of(int c)
 	}
 }
 
+/* Each check its own hatch direction and line style, so two limits of one
+ * colour group stay apart on a map, also printed in grey. */
+static double angle_of(int c)
+{
+	static const double deg[OW_CK_COUNT] = {
+	    [OW_CK_PEAK_TEMP] = 45.0,     [OW_CK_UNMELT] = 135.0,
+	    [OW_CK_PRESSURE] = 90.0,      [OW_CK_POWER] = 0.0,
+	    [OW_CK_TORQUE] = 22.5,        [OW_CK_MIN_MELT_TEMP] = 157.5,
+	    [OW_CK_MIN_OUTPUT] = 67.5,    [OW_CK_MAX_OUTPUT] = 112.5,
+	    [OW_CK_MAX_SBR] = 30.0,       [OW_CK_ZONE_CONTROL] = 150.0,
+	    [OW_CK_PLUGGING] = 120.0,     [OW_CK_FEED] = 60.0,
+	    [OW_CK_PARTIAL_FILL] = 75.0,  [OW_CK_NOCONV] = 105.0};
+
+	return c >= 0 && c < OW_CK_COUNT ? deg[c] : group_of(c)->angle_deg;
+}
+
+static enum ow_dash_style dash_of(int c)
+{
+	static const enum ow_dash_style alt[4] = {
+	    OW_DASH_DOTTED, OW_DASH_LONG, OW_DASH_DASH_DOT, OW_DASH_DASHED};
+	const struct group *g = group_of(c);
+	int k, nth = 0;
+
+	for (k = 0; k < c; k++) /* how many earlier checks share its group */
+		nth += group_of(k) == g;
+	return nth == 0 ? g->dash : alt[(nth - 1 + (int)(g - groups)) % 4];
+}
+
 static struct ow_rgba ink_of(int c)
 {
 	const struct group *g = group_of(c);
@@ -68,7 +96,7 @@ static struct ow_hatch hatch_of(int c)
 {
 	struct ow_hatch h;
 
-	h.angle_deg = group_of(c)->angle_deg;
+	h.angle_deg = angle_of(c);
 	h.spacing_pt = 5.0;
 	h.width_pt = 0.6;
 	h.colour = ow_rgba_with_alpha(ink_of(c), 0.75);
@@ -133,7 +161,7 @@ static void boundary_lines(const struct ow_plot *p, const struct ow_study *s,
 		const struct ow_boundary *bd = boundary_of(w, c);
 		struct ow_line_style halo = {ow_rgb(1, 1, 1), 3.4,
 		                             OW_DASH_SOLID, OW_MARK_NONE};
-		struct ow_line_style ln = {ink_of(c), 1.6, group_of(c)->dash,
+		struct ow_line_style ln = {ink_of(c), 1.6, dash_of(c),
 		                           OW_MARK_NONE};
 
 		if (!bd || !shown(s, w, c))
@@ -314,7 +342,7 @@ static int legend_entries(const struct ow_study *s, const struct ow_window *w,
 		e[n].hatch = &h[n];
 		e[n].line.colour = ink_of(c);
 		e[n].line.width_pt = 1.4;
-		e[n].line.dash = group_of(c)->dash;
+		e[n].line.dash = dash_of(c);
 		n++;
 	}
 	e[n].label = "safe: every limit met";
