@@ -59,6 +59,12 @@ static void line_as_is(struct cpdf *r, const char *text, double after)
 /* ---- title block ----------------------------------------------------------
  */
 
+/* A title block entry, or the line to fill it in by hand. */
+static const char *filled(const char *v, const char *blank)
+{
+	return v && *v ? v : blank;
+}
+
 static void title_block(struct cpdf *r)
 {
 	const struct ow_compare *c = r->cmp;
@@ -106,9 +112,11 @@ static void title_block(struct cpdf *r)
 	cells[2] = c->study[1]->resin.name;
 	rpt_table_row(&r->doc, &t, cells, 0);
 	snprintf(line, sizeof line,
-	         "Date %s      Revision ________      "
-	         "Prepared by ______________      Approved by ______________",
-	         r->o->date);
+	         "Date %s      Revision %s      Prepared by %s      "
+	         "Approved by %s",
+	         r->o->date, filled(r->o->revision, "________"),
+	         filled(r->o->prepared_by, "______________"),
+	         filled(r->o->approved_by, "______________"));
 	r->doc.y += 6.0;
 	line_as_is(r, line, 4.0);
 }
@@ -565,7 +573,12 @@ enum ow_status ow_compare_write_pdf(const struct ow_compare *cmp,
 	         "Comparison: %s and %s   ·   %s   ·   "
 	         "opwin %s",
 	         label(&r, 0), label(&r, 1), o->date, OW_VERSION);
-	if (rpt_open(&r.doc, "compare.pdf", OW_PAPER_A4, o->date) == OW_OK) {
+	snprintf(r.doc.foot_line, sizeof r.doc.foot_line,
+	         "inputs CRC-32: %s %08lX, %s %08lX", label(&r, 0),
+	         cmp->study[0]->input_crc, label(&r, 1),
+	         cmp->study[1]->input_crc);
+	if (rpt_open(&r.doc, "compare.pdf", (enum ow_paper)o->paper,
+	             o->date) == OW_OK) {
 		/* a blue-grey header; shaded rows (the differences) in
 		 * amber; tight rows, so both inputs take few pages */
 		r.doc.head_fill = ow_rgb(0.86, 0.88, 0.91);

@@ -204,6 +204,10 @@ struct ow_compare_draw_options {
 	const char *label[2];      /* short case names ("A", "B"); NULL: A/B */
 	double font_pt;            /* 0: 9 pt */
 	const char *date;          /* PDF: "YYYY-MM-DD" (required there) */
+	/* PDF title block, as the single report's: NULL or "" leaves a
+	 * line to fill in by hand */
+	const char *revision, *prepared_by, *approved_by;
+	int paper;                 /* enum ow_paper; 0: A4 */
 };
 
 /* "lo–hi" of a window bound pair (already in display units) as the
