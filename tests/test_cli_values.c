@@ -188,12 +188,37 @@ static void check_shows_die_limits_and_sweep(void **state)
 	cli_result_free(&r);
 }
 
+/* The report's text layer reads back whole: no complaint from poppler
+ * about the fonts' ToUnicode maps, and a non-ASCII unit ("°C") found. */
+static void report_text_can_be_searched(void **state)
+{
+	struct cli_result r;
+	char *text;
+	int rc;
+
+	(void)state;
+	cli_run("map " FAST " -o build/tests/values-pdf --quiet --jobs 2 "
+	        "--grid 6x5",
+	        &r);
+	assert_int_equal(r.code, 0);
+	cli_result_free(&r);
+	text = ow_test_run("pdftotext build/tests/values-pdf/report.pdf - "
+	                   "2>&1",
+	                   &rc);
+	assert_int_equal(rc, 0);
+	assert_null(strstr(text, "Invalid"));
+	assert_null(strstr(text, "Syntax"));
+	assert_non_null(strstr(text, "°C"));
+	free(text);
+}
+
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(a_bare_set_is_read_in_the_study_units),
 		cmocka_unit_test(a_current_point_off_the_map_is_said_so),
 		cmocka_unit_test(check_shows_die_limits_and_sweep),
+		cmocka_unit_test(report_text_can_be_searched),
 		cmocka_unit_test(every_written_key_is_in_the_readme),
 		cmocka_unit_test(readme_commands_run_as_written),
 	};
