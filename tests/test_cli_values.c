@@ -110,6 +110,16 @@ static void a_current_point_off_the_map_is_said_so(void **state)
 	text = ow_test_pdf_text("build/tests/values-off/report.pdf");
 	assert_null(strstr(text, "outside the swept range"));
 	free(text);
+	/* the report drawn by map is kept, not overwritten */
+	{
+		int rc;
+
+		text = ow_test_run("ls build/tests/values-off | grep -c "
+		                   "'^report-previous-.*\\.pdf$'",
+		                   &rc);
+		assert_true(atoi(text) >= 1);
+		free(text);
+	}
 }
 
 /* Every key of window.json and every column of grid.csv and points-si.csv
