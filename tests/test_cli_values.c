@@ -13,6 +13,23 @@
 
 #define FAST "tests/data/map-fast.json" /* 20..140 rpm, 200 degC -30..+30 K */
 
+/* `opwin map FAST` on a small grid into build/tests/<dir>, which must
+ * succeed; extra options appended. */
+static void small_map(const char *dir, const char *extra)
+{
+	struct cli_result r;
+	char args[256];
+
+	snprintf(args, sizeof args,
+	         "map " FAST " -o build/tests/%s --quiet --jobs 2 --grid 6x5 %s",
+	         dir, extra);
+	cli_run(args, &r);
+	if (r.code != 0)
+		fprintf(stderr, "%s\n", r.err);
+	assert_int_equal(r.code, 0);
+	cli_result_free(&r);
+}
+
 /* Every `build/opwin ...` line of the README's sh blocks, run in order
  * from an empty folder that sees build/, demo/ and fixtures/ (so out/ does
  * not exist before the first command writes into it). The `make` lines are
@@ -95,11 +112,7 @@ static void a_current_point_off_the_map_is_said_so(void **state)
 	char *text;
 
 	(void)state;
-	cli_run("map " FAST " -o build/tests/values-off --quiet --jobs 2 "
-	        "--grid 6x5 --current 200,200",
-	        &r);
-	assert_int_equal(r.code, 0);
-	cli_result_free(&r);
+	small_map("values-off", "--current 200,200");
 	text = ow_test_pdf_text("build/tests/values-off/report.pdf");
 	assert_non_null(strstr(text, "outside the swept range"));
 	assert_null(strstr(text, "passes every limit there"));
@@ -128,18 +141,13 @@ static void every_written_key_is_in_the_readme(void **state)
 {
 	char *readme = cli_slurp("README.md"), *text, *h, *tok, *save = NULL;
 	static const char *const csvs[] = {"grid.csv", "points-si.csv"};
-	struct cli_result r;
 	cJSON *w;
 	const cJSON *e, *o;
 	char key[160], path[128];
 	size_t k;
 
 	(void)state;
-	cli_run("map " FAST " -o build/tests/values-keys --quiet --jobs 2 "
-	        "--grid 6x5",
-	        &r);
-	assert_int_equal(r.code, 0);
-	cli_result_free(&r);
+	small_map("values-keys", "");
 	w = cli_read_json("build/tests/values-keys/window.json");
 	for (e = w->child; e; e = e->next) {
 		snprintf(key, sizeof key, "`%s`", e->string);
@@ -202,16 +210,11 @@ static void check_shows_die_limits_and_sweep(void **state)
  * about the fonts' ToUnicode maps, and a non-ASCII unit ("°C") found. */
 static void report_text_can_be_searched(void **state)
 {
-	struct cli_result r;
 	char *text;
 	int rc;
 
 	(void)state;
-	cli_run("map " FAST " -o build/tests/values-pdf --quiet --jobs 2 "
-	        "--grid 6x5",
-	        &r);
-	assert_int_equal(r.code, 0);
-	cli_result_free(&r);
+	small_map("values-pdf", "");
 	text = ow_test_run("pdftotext build/tests/values-pdf/report.pdf - "
 	                   "2>&1",
 	                   &rc);
