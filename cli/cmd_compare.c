@@ -131,8 +131,9 @@ static void print_limits(const char *lead, const int *counts)
 	printf("%s", lead);
 	for (c = 0; c < OW_CK_COUNT; c++)
 		if (counts[c]) {
-			printf("%s %s (%d points)", any ? ";" : "",
-			       ow_check_text((enum ow_check)c), counts[c]);
+			printf("%s %s (%s): %d points", any ? ";" : "",
+			       ow_check_text((enum ow_check)c),
+			       ow_check_key((enum ow_check)c), counts[c]);
 			any = 1;
 		}
 	printf("%s\n", any ? "" : " none");

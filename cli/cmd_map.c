@@ -74,8 +74,8 @@ static void print_empty(const struct ow_window *w)
 	printf("No safe operating point in the swept range.\n"
 	       "Limits that exclude the most points:\n");
 	for (i = 0; i < n && i < 4; i++)
-		printf("  %s (%d points)\n", ow_check_failure(order[i]),
-		       w->fail_count[order[i]]);
+		printf("  %s (%s): %d points\n", ow_check_failure(order[i]),
+		       ow_check_key(order[i]), w->fail_count[order[i]]);
 }
 
 /* "lo - hi unit" in the display system; bounds (inward = 1) rounded

@@ -11,6 +11,7 @@
 #ifndef OW_CONFIG_H
 #define OW_CONFIG_H
 
+#include "ow_calib.h"
 #include "ow_line.h"
 #include "ow_material.h"
 #include "ow_screw.h"
@@ -43,6 +44,9 @@ struct ow_study {
 	enum ow_unit_system own_units; /* what the study is written in (its
 					  first zone's set-point): bare
 					  numbers on the command line */
+	struct ow_calibration calib; /* the calibration block; its factors
+					are applied to screw, resin and
+					line above */
 };
 
 /* Load a study file and the files it names into *out (fully validated:

@@ -57,8 +57,14 @@ static void readme_commands_run_as_written(void **state)
 		if (!in_sh || strncmp(line, "build/opwin ", 12))
 			continue;
 		/* as written; the newline ends a trailing comment */
-		snprintf(cmd, sizeof cmd, "cd '%s' && ( %s\n) >/dev/null 2>&1",
-		         dir, line);
+		snprintf(cmd, sizeof cmd, "cd '%s' && ( %s", dir, line);
+		while (line[strlen(line) - 1] == '\\' &&
+		       (line = strtok_r(NULL, "\n", &save)) != NULL) {
+			strncat(cmd, "\n", sizeof cmd - strlen(cmd) - 1);
+			strncat(cmd, line, sizeof cmd - strlen(cmd) - 1);
+		}
+		strncat(cmd, "\n) >/dev/null 2>&1", sizeof cmd - strlen(cmd) - 1);
+		line = cmd + strlen(dir) + 9; /* for the message */
 		rc = system(cmd);
 		if (rc != 0)
 			fprintf(stderr, "README command failed (%d): %s\n", rc,
