@@ -507,12 +507,15 @@ static void window_map(struct rpt *r)
 
 	if (r->st != OW_OK)
 		return;
-	if (r->y1 - r->y - 4.0 < fmin(MAP_MIN_H, h))
+	if (r->y1 - r->y - 4.0 < fmin(MAP_MIN_H, h)) {
+		/* a page of its own: the map fills it, not a third of it */
 		rpt_new_page(r);
+		h = fmax(h, fmin(r->y1 - r->y - 4.0, 1.15 * w));
+	}
 	h = fmin(h, r->y1 - r->y - 4.0);
 	box.x = r->x0;
 	box.y = r->y + 4.0;
-	box.w = fmin(w, h * MAP_ASPECT * 1.08);
+	box.w = fmin(w, fmax(h, w / MAP_ASPECT) * MAP_ASPECT * 1.08);
 	box.x += (w - box.w) / 2.0;
 	box.h = h;
 	rpt_map_options(r, &mo);
