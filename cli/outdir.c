@@ -27,8 +27,10 @@ static void note_signal(int sig)
 int cli_outdir_check(const char *cmd, const char *dir)
 {
 	struct ow_diag d = {{0}};
-	enum ow_status st = ow_mapdir_check_target(dir, &d);
+	enum ow_status st;
 
+	cli_make_parents(dir); /* -o out/demo with no out/ yet */
+	st = ow_mapdir_check_target(dir, &d);
 	return st == OW_OK ? CLI_OK : cli_fail(cmd, st, &d);
 }
 
