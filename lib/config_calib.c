@@ -10,6 +10,23 @@
 
 #include "json_in.h"
 
+/* o.key as an object whose keys are among allowed (its JSON path into p);
+ * *out NULL when absent. */
+static enum ow_status sub_object(const struct ow_jin *j, const cJSON *o,
+				 const char *path, const char *key,
+				 const char *const *allowed, const cJSON **out,
+				 char *p)
+{
+	enum ow_status st;
+
+	*out = ow_jin_get(o, key);
+	ow_jin_key(p, path, key);
+	if (!*out)
+		return OW_OK;
+	st = ow_jin_object(j, *out, p);
+	return st == OW_OK ? ow_jin_keys(j, *out, p, allowed) : st;
+}
+
 /* A factor: a bare number (or "125 %"), or {"value", "std_error",
  * "source"}; it must lie inside the factor's bounds. */
 static enum ow_status parse_factor(const struct ow_jin *j, const cJSON *v,
@@ -83,19 +100,13 @@ static enum ow_status parse_uncertainty(const struct ow_jin *j,
 	static const char *const keys[] = {"output", "head_pressure",
 					   "melt_temp", "drive_power",
 					   "torque", NULL};
-	const cJSON *u = ow_jin_get(o, "uncertainty"), *v;
+	const cJSON *u, *v;
 	char p[OW_JPATH_LEN], q[OW_JPATH_LEN];
-	enum ow_status st;
+	enum ow_status st = sub_object(j, o, path, "uncertainty", keys, &u, p);
 	enum ow_dim dim;
 	int k, rel;
 
-	if (!u)
-		return OW_OK;
-	ow_jin_key(p, path, "uncertainty");
-	st = ow_jin_object(j, u, p);
-	if (st == OW_OK)
-		st = ow_jin_keys(j, u, p, keys);
-	for (k = 0; st == OW_OK && k < OW_CQ_COUNT; k++) {
+	for (k = 0; st == OW_OK && u && k < OW_CQ_COUNT; k++) {
 		v = ow_jin_get(u, keys[k]);
 		if (!v)
 			continue;
@@ -184,17 +195,13 @@ static enum ow_status parse_fit(const struct ow_jin *j, const cJSON *o,
 	static const char *const keys[] = {"readings", "chi2", "dof",
 					   "factors", "correlation",
 					   "residuals", NULL};
-	const cJSON *f = ow_jin_get(o, "fit"), *a, *e;
+	const cJSON *f, *a, *e;
 	char p[OW_JPATH_LEN], q[OW_JPATH_LEN], r[OW_JPATH_LEN];
-	enum ow_status st;
+	enum ow_status st = sub_object(j, o, path, "fit", keys, &f, p);
 	int i = 0, k;
 
-	if (!f)
-		return OW_OK;
-	ow_jin_key(p, path, "fit");
-	st = ow_jin_object(j, f, p);
-	if (st == OW_OK)
-		st = ow_jin_keys(j, f, p, keys);
+	if (st != OW_OK || !f)
+		return st;
 	if (st == OW_OK)
 		st = ow_jin_str(j, f, p, "readings", OW_JIN_REQUIRED,
 				c->fit_readings, sizeof c->fit_readings);
@@ -260,18 +267,16 @@ enum ow_status ow_config_calibration(const struct ow_jin *j, const cJSON *o,
 		"notes", "viscosity_scale", "friction", "die_factor",
 		"heat_transfer", "free", "uncertainty", "fit", NULL};
 	struct ow_calibration *c = &s->calib;
-	const cJSON *b = ow_jin_get(o, "calibration"), *v, *n;
-	char p[OW_JPATH_LEN];
+	const cJSON *b, *v, *n;
+	char p[OW_JPATH_LEN], bp[OW_JPATH_LEN];
 	enum ow_status st;
 	int k;
 
 	ow_calib_default(c);
-	if (!b)
-		return OW_OK;
+	st = sub_object(j, o, "", "calibration", keys, &b, bp);
+	if (st != OW_OK || !b)
+		return st;
 	c->present = 1;
-	st = ow_jin_object(j, b, "calibration");
-	if (st == OW_OK)
-		st = ow_jin_keys(j, b, "calibration", keys);
 	n = ow_jin_get(b, "notes");
 	if (st == OW_OK && n && !cJSON_IsString(n))
 		st = ow_jin_fail(j, "calibration.notes", "expected a string");

@@ -74,17 +74,17 @@ static void fit_words(struct rpt *r)
 {
 	const struct ow_calibration *c = &r->s->calib;
 	struct rpt_style st = rpt_body();
-	char text[900], corr[300] = "";
+	char text[900], corr[300] = "", rho[32];
 	size_t used = 0;
 	int k, l;
 
 	for (k = 0; k < c->n_fit; k++)
 		for (l = k + 1; l < c->n_fit && used < sizeof corr; l++)
 			used += (size_t)snprintf(corr + used, sizeof corr - used,
-				" The fitted %s and %s are correlated at %.2f%s",
+				" The fitted %s and %s are correlated at %s%s",
 				ow_calib_factor(c->fit_ids[k])->name,
 				ow_calib_factor(c->fit_ids[l])->name,
-				c->corr[k][l],
+				rpt_fix(rho, sizeof rho, c->corr[k][l], 2),
 				fabs(c->corr[k][l]) > 0.9
 					? ": the readings fix mainly their "
 					  "combination."
