@@ -145,7 +145,8 @@ int cli_spread_load(const struct ow_units *u, struct cli_spread *sp,
 }
 
 int cli_spread_run(const struct ow_study *s, const struct ow_grid *g,
-		   int jobs, int quiet, struct cli_spread *sp)
+		   const struct ow_window *nominal, int jobs, int quiet,
+		   struct cli_spread *sp)
 {
 	struct cli_progress pr;
 	struct ow_diag d = {{0}};
@@ -164,6 +165,8 @@ int cli_spread_run(const struct ow_study *s, const struct ow_grid *g,
 		st = ow_spread_robust_grid(g, sp->r, &sp->robust, &d);
 	if (st == OW_OK)
 		st = ow_window_extract(s, sp->robust, &sp->w, &d);
+	if (st == OW_OK)
+		ow_spread_clip_window(sp->w, nominal);
 	return st == OW_OK ? CLI_OK : cli_fail("map", st, &d);
 }
 
@@ -273,7 +276,8 @@ int cli_spread_files(const struct ow_study *s, const struct ow_grid *g,
 }
 
 int cli_spread_reload(struct ow_study *s, const struct ow_grid *g,
-		      const char *dir, struct cli_spread *sp)
+		      const struct ow_window *nominal, const char *dir,
+		      struct cli_spread *sp)
 {
 	char path[OW_PATH_LEN + 16], *text = NULL;
 	struct ow_diag d = {{0}};
@@ -292,5 +296,7 @@ int cli_spread_reload(struct ow_study *s, const struct ow_grid *g,
 		st = ow_spread_robust_grid(g, sp->r, &sp->robust, &d);
 	if (st == OW_OK)
 		st = ow_window_extract(s, sp->robust, &sp->w, &d);
+	if (st == OW_OK)
+		ow_spread_clip_window(sp->w, nominal);
 	return st == OW_OK ? CLI_OK : cli_fail("report", st, &d);
 }

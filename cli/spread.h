@@ -53,10 +53,12 @@ int cli_spread_option(struct cli_spread *sp, int id, const char *arg);
 int cli_spread_load(const struct ow_units *u, struct cli_spread *sp,
 		    struct ow_study *s);
 
-/* When s has a spread: sample grid g, build the robust grid and window.
+/* When s has a spread: sample grid g, build the robust grid and window
+ * (clipped to the nominal window).
  * Exit code (0 also when there is no spread). */
 int cli_spread_run(const struct ow_study *s, const struct ow_grid *g,
-		   int jobs, int quiet, struct cli_spread *sp);
+		   const struct ow_window *nominal, int jobs, int quiet,
+		   struct cli_spread *sp);
 
 /* Replace *text (grid.csv / window.json of the nominal run) with the
  * spread's version; no change without a spread run. */
@@ -78,7 +80,8 @@ int cli_spread_files(const struct ow_study *s, const struct ow_grid *g,
  * there is one) into s->spread and sp, with the robust grid and window.
  * Exit code. */
 int cli_spread_reload(struct ow_study *s, const struct ow_grid *g,
-		      const char *dir, struct cli_spread *sp);
+		      const struct ow_window *nominal, const char *dir,
+		      struct cli_spread *sp);
 
 /* Summary lines (nothing without a spread run). */
 void cli_spread_print(const struct ow_study *s, const struct ow_window *nominal,

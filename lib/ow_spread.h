@@ -165,4 +165,13 @@ enum ow_status ow_spread_robust_grid(const struct ow_grid *g,
 				     const struct ow_spread_result *r,
 				     struct ow_grid **out, struct ow_diag *d);
 
+/* Clip robust window rw to nominal window w (struct ow_window, passed as
+ * the window module's type through ow_window.h): the largest rectangle of
+ * the robust safe set may trade speed for set-point against the nominal
+ * one; the part of it inside the nominal rectangle is still robust-safe.
+ * Bounds, axis range, zone ranges and centre are clipped; empty when they
+ * do not overlap. */
+struct ow_window;
+void ow_spread_clip_window(struct ow_window *rw, const struct ow_window *w);
+
 #endif

@@ -12,6 +12,7 @@
 
 #include "ow_config.h"
 #include "ow_sweep.h"
+#include "ow_window.h"
 
 _Static_assert(OW_SPREAD_LIMITS == OW_CK_LIMITS, "limits with margins");
 
@@ -543,4 +544,43 @@ enum ow_status ow_spread_robust_grid(const struct ow_grid *g,
 	}
 	*out = h;
 	return OW_OK;
+}
+
+static void clip(double *lo, double *hi, double a, double b)
+{
+	*lo = *lo > a ? *lo : a;
+	*hi = *hi < b ? *hi : b;
+}
+
+static double inside(double v, double lo, double hi)
+{
+	return v < lo ? lo : (v > hi ? hi : v);
+}
+
+void ow_spread_clip_window(struct ow_window *rw, const struct ow_window *w)
+{
+	double shift;
+	int z;
+
+	if (rw->empty)
+		return;
+	if (w->empty) {
+		rw->empty = 1;
+		return;
+	}
+	shift = rw->set_min_K - rw->axis_min; /* set-point = axis + shift */
+	clip(&rw->rpm_min, &rw->rpm_max, w->rpm_min, w->rpm_max);
+	clip(&rw->set_min_K, &rw->set_max_K, w->set_min_K, w->set_max_K);
+	clip(&rw->axis_min, &rw->axis_max, w->axis_min, w->axis_max);
+	for (z = 0; z < OW_MAX_ZONES; z++)
+		clip(&rw->zone_min_K[z], &rw->zone_max_K[z], w->zone_min_K[z],
+		     w->zone_max_K[z]);
+	if (!(rw->rpm_min <= rw->rpm_max && rw->set_min_K <= rw->set_max_K)) {
+		rw->empty = 1;
+		return;
+	}
+	rw->centre.rpm = inside(rw->centre.rpm, rw->rpm_min, rw->rpm_max);
+	rw->centre_set_K = inside(rw->centre_set_K, rw->set_min_K,
+				  rw->set_max_K);
+	rw->centre.axis = rw->centre_set_K - shift;
 }
