@@ -165,7 +165,8 @@ static int segment(const struct field *f, double a, int ir, struct iv *out)
 	int k;
 
 	out->lo = x0;
-	out->hi = x0 + f->dr;
+	out->hi = f->r0 + (ir + 1) * f->dr; /* the next segment's x0 to the
+					       bit, so the two join */
 	out->lo_ch = out->hi_ch = END_NONE;
 	for (k = 0; k < f->nch; k++) {
 		double v0 = row_value(f, a, ir, k);
