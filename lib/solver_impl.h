@@ -57,6 +57,9 @@ struct ow_solver {
 	double last2_ctrl_K[OW_MAX_ZONES]; /* the same, one march earlier */
 	double last2_g[OW_MAX_ZONES];
 	int last2_side[OW_MAX_ZONES];
+	double zone_slope_m;          /* the last zone slope learnt in this
+					 run per metre of zone, W/(K m): a
+					 first step for a zone yet to float */
 	int n_steps;                  /* axial steps hopper -> tip */
 	double dx_m;                  /* axial step */
 	struct ow_profile_row *rows;  /* n_steps + 1 rows */

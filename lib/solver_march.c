@@ -914,6 +914,7 @@ static int zone_from_last(struct ctx *c, const struct snap *s0, int z,
 				     : sv->ctrl_K[z] <= set))
 		return 0;
 	sv->zone_slope[z] = k;
+	sv->zone_slope_m = k / ((to - from) * sv->dx_m);
 	c->m->zone_demand_W[z] = target + k * (set - sv->ctrl_K[z]);
 	return 1;
 }
@@ -949,6 +950,8 @@ static enum ow_status run_zone(struct ctx *c, int z, int from, int to)
 	sv->last_side[z] = 0;
 	if (st != OW_OK || target == q0 || !isfinite(target))
 		goto done;
+	if (!(k > 0.0)) /* the zones are alike per length of barrel */
+		k = sv->zone_slope_m * (to - from) * sv->dx_m;
 	rc = zone_secant(c, &s0, z, from, to, target, t0, q0,
 			 zone_first_step(t0, q0, target, k), &k, &st);
 	if (rc == 0) {
@@ -958,6 +961,7 @@ static enum ow_status run_zone(struct ctx *c, int z, int from, int to)
 		st = zone_try(c, &s0, z, from, to, t0, &q0);
 	} else if (rc == 1) {
 		sv->zone_slope[z] = k;
+		sv->zone_slope_m = k / ((to - from) * sv->dx_m);
 		sv->last_side[z] = target > 0.0 ? 1 : -1;
 	}
 	c->m->zone_floating |= 1u << z;
