@@ -57,6 +57,8 @@ struct ow_solver {
 	double last2_ctrl_K[OW_MAX_ZONES]; /* the same, one march earlier */
 	double last2_g[OW_MAX_ZONES];
 	int last2_side[OW_MAX_ZONES];
+	double last_k[OW_MAX_ZONES];  /* zone slopes after the last march */
+	double last2_k[OW_MAX_ZONES]; /* ... and after the one before */
 	double zone_slope_m;          /* the last zone slope learnt in this
 					 run per metre of zone, W/(K m): a
 					 first step for a zone yet to float */

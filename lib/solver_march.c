@@ -898,10 +898,16 @@ static int zone_from_last(struct ctx *c, const struct snap *s0, int z,
 		return 0;
 	/* the control point is smooth in G: predict it linearly from the
 	 * last two marches when they floated this zone too */
-	if (sv->last2_side[z] == sv->last_side[z] && dg != 0.0)
+	if (sv->last2_side[z] == sv->last_side[z] && dg != 0.0) {
+		double dk = (sv->last_k[z] - sv->last2_k[z]) / dg *
+			    (c->g - sv->last_g[z]);
+
 		t0 += fmin(fmax((sv->last_ctrl_K[z] - sv->last2_ctrl_K[z]) /
 				dg * (c->g - sv->last_g[z]), -ZONE_STEP_K),
 			   ZONE_STEP_K);
+		if (sv->last2_k[z] > 0.0) /* the slope likewise */
+			k = fmin(fmax(k + dk, 0.5 * k), 2.0 * k);
+	}
 	*st = zone_try(c, s0, z, from, to, t0, &q0);
 	if (*st != OW_OK)
 		return 0;
@@ -970,6 +976,8 @@ done:
 	sv->last2_side[z] = side0;
 	sv->last2_ctrl_K[z] = sv->last_ctrl_K[z];
 	sv->last2_g[z] = sv->last_g[z];
+	sv->last2_k[z] = sv->last_k[z];
+	sv->last_k[z] = sv->zone_slope[z];
 	sv->last_ctrl_K[z] = sv->ctrl_K[z];
 	sv->last_g[z] = c->g;
 	c->m->ctrl_K[z] = sv->ctrl_K[z];
