@@ -4,6 +4,7 @@
 #include "cli.h"
 #include "ow_mapdir.h"
 #include "ow_maps.h"
+#include "spread.h"
 
 #include <errno.h>
 #include <getopt.h>
@@ -20,6 +21,7 @@ struct map_opts {
 	const char *dir;
 	int rpm_steps, axis_steps, refine;
 	struct cli_render r;
+	struct cli_spread sp;
 };
 
 static void help(void)
@@ -29,7 +31,9 @@ static void help(void)
 	       "                [--paper a4|letter] [--revision R] "
 	       "[--prepared-by NAME]\n"
 	       "                [--approved-by NAME] [--date YYYY-MM-DD] "
-	       "[--current RPM,SET]\n\n"
+	       "[--current RPM,SET]\n"
+	       "                [--spread SPEC] [--samples N] [--seed S] "
+	       "[--level P]\n\n"
 	       "Sweeps screw speed x barrel set-point, classifies every point "
 	       "against the\nstudy's limits, extracts the recommended window "
 	       "and writes grid.csv,\nwindow.json, the maps and report.pdf "
@@ -45,6 +49,7 @@ static void help(void)
 	       "  --quiet       no progress bar, no summary\n"
 	       "  --units si|us units of the maps, report and summary\n"
 	       CLI_RENDER_HELP
+	       CLI_SPREAD_HELP
 	       "exit codes: 0 ok (also for an empty window), 1 inputs "
 	       "rejected, 2 usage,\n            3 computation failed, 4 "
 	       "output could not be written\n");
@@ -74,8 +79,8 @@ static void print_empty(const struct ow_window *w)
 	printf("No safe operating point in the swept range.\n"
 	       "Limits that exclude the most points:\n");
 	for (i = 0; i < n && i < 4; i++)
-		printf("  %-14s %s (%d points)\n", ow_check_key(order[i]),
-		       ow_check_text(order[i]), w->fail_count[order[i]]);
+		printf("  %s (%s): %d points\n", ow_check_failure(order[i]),
+		       ow_check_key(order[i]), w->fail_count[order[i]]);
 }
 
 /* "lo - hi unit" in the display system; bounds (inward = 1) rounded
@@ -94,30 +99,58 @@ static void range(const struct map_opts *o, enum ow_dim dim, double lo,
 	printf("%s - %s %s", a, b, ow_display_label(o->c.units, dim));
 }
 
+/* What sets one bound and how finely it is located, under its range. */
+static void print_setter(const struct map_opts *o, const struct ow_window *w,
+			 enum ow_window_side side, const char *end)
+{
+	const struct ow_window_bound *b = &w->bound[side];
+	int rpm = side == OW_WB_RPM_MIN || side == OW_WB_RPM_MAX;
+	char why[160];
+
+	ow_window_setter_text(b->check, why, sizeof why);
+	printf("      %s bound: %s", end, why);
+	if (b->check != OW_WINDOW_SWEEP_EDGE) {
+		if (rpm)
+			printf(" (located within %g rpm)", b->resolution);
+		else
+			printf(" (located within %g %s)",
+			       ow_display_value(o->c.units, OW_DIM_TEMP_DIFF,
+						b->resolution),
+			       ow_display_label(o->c.units, OW_DIM_TEMP_DIFF));
+	}
+	printf("\n");
+}
+
 static void print_window(const struct ow_study *s, const struct ow_grid *g,
 			 const struct ow_window *w,
 			 const struct map_opts *o)
 {
-	int z;
+	int z, ref = ow_line_reference_zone(&s->line);
 
 	printf("%s\n", s->title);
 	if (w->empty) {
 		print_empty(w);
 		return;
 	}
-	printf("Recommended window (bounds rounded inwards)\n"
+	printf("Recommended window (bounds on whole rpm and whole degrees, "
+	       "rounded inwards)\n"
 	       "  screw speed       ");
 	range(o, OW_DIM_ROT_SPEED, w->rpm_min, w->rpm_max,
 	      OW_REPORT_RPM_DECIMALS, 1);
 	printf("\n");
+	print_setter(o, w, OW_WB_RPM_MIN, "lower");
+	print_setter(o, w, OW_WB_RPM_MAX, "upper");
 	for (z = 0; z < s->line.n_zones; z++) {
 		printf("  zone %-2d set-point ", z + 1);
 		range(o, OW_DIM_TEMPERATURE, w->zone_min_K[z], w->zone_max_K[z],
 		      OW_REPORT_TEMP_DECIMALS, 1);
-		printf("%s\n", z == ow_line_reference_zone(&s->line)
-				       ? "  (axis reference)" : "");
+		printf("%s\n", z == ref ? "  (the map's set-point axis)" : "");
+		if (z == ref) {
+			print_setter(o, w, OW_WB_SET_MIN, "lower");
+			print_setter(o, w, OW_WB_SET_MAX, "upper");
+		}
 	}
-	printf("  centre point      %.1f rpm at %.1f %s\n", w->centre.rpm,
+	printf("  centre point      %.0f rpm at %.1f %s\n", w->centre.rpm,
 	       SHOW(OW_DIM_TEMPERATURE, w->centre_set_K));
 	printf("  expected output   ");
 	range(o, OW_DIM_MASS_FLOW, w->output_min_kg_s, w->output_max_kg_s, 1, 0);
@@ -127,6 +160,8 @@ static void print_window(const struct ow_study *s, const struct ow_grid *g,
 	       SHOW(OW_DIM_TEMPERATURE, w->peak_max_K));
 	printf("  safe share of the map %.0f %%, %d points solved\n",
 	       100.0 * w->safe_fraction, g->solves);
+	if (w->at_sweep_edge)
+		printf("NOTE: %s\n", OW_WINDOW_SWEEP_EDGE_NOTE);
 }
 
 static int write_outputs(const struct ow_study *s, const struct ow_grid *g,
@@ -140,9 +175,13 @@ static int write_outputs(const struct ow_study *s, const struct ow_grid *g,
 	enum ow_status st = OW_OK;
 
 	st = ow_results_grid_csv(s, g, &text, &d);
+	if (st == OW_OK)
+		st = cli_spread_grid(s, g, &o->sp, &text, &d);
 	rc = write_text(o->dir, "grid.csv", text, st, &d);
 	if (!rc) {
 		st = ow_results_window_json(s, g, w, &text, &d);
+		if (st == OW_OK)
+			st = cli_spread_window(s, &o->sp, &text, &d);
 		rc = write_text(o->dir, "window.json", text, st, &d);
 	}
 	if (rc)
@@ -156,9 +195,16 @@ static int write_outputs(const struct ow_study *s, const struct ow_grid *g,
 		free(rows);
 		return cli_fail("map", st, &d);
 	}
+	rc = cli_spread_files(s, g, w, &o->sp, o->c.units, o->dir);
+	if (rc) {
+		free(rows);
+		return rc;
+	}
 	o->r.rep.centre_point = w->empty ? NULL : &centre;
 	o->r.rep.profile = rows;
 	o->r.rep.n_profile = n;
+	o->r.rep.spread = o->sp.r;
+	o->r.rep.robust = o->sp.w;
 	o->r.jobs = o->c.jobs;
 	rc = cli_render("map", s, g, w, &o->r, o->dir);
 	o->r.rep.centre_point = NULL;
@@ -211,13 +257,17 @@ static int sweep(const struct ow_study *s, struct map_opts *o)
 		rc = cli_fail("map", st, &d);
 		goto done;
 	}
-	rc = write_folder(s, g, w, o);
+	rc = cli_spread_run(s, g, w, o->c.jobs, o->c.quiet, &o->sp);
+	if (!rc)
+		rc = write_folder(s, g, w, o);
 	if (!rc && !o->c.quiet) {
 		print_window(s, g, w, o);
+		cli_spread_print(s, w, &o->sp, o->c.units);
 		printf("written to %s/ (grid.csv, window.json, maps, "
 		       "report.pdf)\n", o->dir);
 	}
 done:
+	cli_spread_free(&o->sp);
 	ow_window_destroy(w);
 	ow_grid_destroy(g);
 	return rc;
@@ -231,6 +281,7 @@ int cmd_map(int argc, char **argv)
 		{"output", required_argument, NULL, 'o'},
 		{"grid", required_argument, NULL, 'g'},
 		{"refine", required_argument, NULL, 'r'},
+		CLI_SPREAD_LONGOPTS,
 		{NULL, 0, NULL, 0},
 	};
 	struct map_opts o = {.c = {OW_SYS_SI, 0, 0}, .dir = "opwin-map"};
@@ -240,6 +291,7 @@ int cmd_map(int argc, char **argv)
 	int id, rc;
 
 	cli_render_init(&o.r);
+	cli_spread_init(&o.sp);
 	optind = 1;
 	while ((id = getopt_long(argc, argv, "ho:q", opts, NULL)) != -1) {
 		if (id == 'h' || id == 'V') {
@@ -259,6 +311,9 @@ int cmd_map(int argc, char **argv)
 				return cli_usage_error("map",
 						       "--refine takes 0..4");
 			o.refine = (int)k;
+		} else if ((rc = cli_spread_option(&o.sp, id, optarg)) >= 0) {
+			if (rc)
+				return rc;
 		} else if ((rc = cli_render_option("map", &o.r, id, optarg))) {
 			if (rc > 0 || (rc = cli_common_option("map", &o.c, id,
 							      optarg)))
@@ -269,7 +324,10 @@ int cmd_map(int argc, char **argv)
 		return cli_usage_error("map", "expects one STUDY.json");
 	if ((rc = cli_load_study("map", argv[optind], &u, &s)))
 		return rc;
-	rc = cli_render_current("map", u, &o.r, o.c.units);
+	rc = cli_spread_load(u, &o.sp, s);
+	if (!rc)
+		rc = cli_render_current("map", u, &o.r, o.c.units,
+					s->own_units);
 	if (!rc)
 		rc = cli_outdir_check("map", o.dir);
 	if (!rc)

@@ -7,8 +7,11 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <sys/stat.h>
+#include <time.h>
 
 #include "ow_mapdir.h"
+#include "spread.h"
 
 static void help(void)
 {
@@ -56,12 +59,50 @@ static int parse(int argc, char **argv, struct cli_common *c,
 	return CLI_OK;
 }
 
+/* The previous report.pdf of dir (another revision, perhaps already
+ * signed) is kept in the new folder as report-previous-<its time>.pdf
+ * rather than lost; says so on stderr. */
+static int keep_previous_report(const char *dir, const char *tmp)
+{
+	char from[OW_PATH_LEN + 32], to[OW_PATH_LEN + 96], stamp[32];
+	struct stat sb;
+	struct tm tm;
+	FILE *in, *out;
+	char buf[65536];
+	size_t n;
+	int ok = 1;
+
+	snprintf(from, sizeof from, "%s/report.pdf", dir);
+	if (stat(from, &sb) != 0 || !S_ISREG(sb.st_mode))
+		return CLI_OK;
+	gmtime_r(&sb.st_mtime, &tm);
+	strftime(stamp, sizeof stamp, "%Y-%m-%d-%H%M%S", &tm);
+	snprintf(to, sizeof to, "%s/report-previous-%s.pdf", tmp, stamp);
+	in = fopen(from, "rb");
+	out = in ? fopen(to, "wbx") : NULL;
+	while (in && out && ok && (n = fread(buf, 1, sizeof buf, in)) > 0)
+		ok = fwrite(buf, 1, n, out) == n;
+	ok = ok && in && out && !ferror(in);
+	if (in)
+		fclose(in);
+	if (out && fclose(out) != 0)
+		ok = 0;
+	if (!ok) {
+		fprintf(stderr, "opwin report: %s: cannot keep the previous "
+			"report as %s\n", from, to);
+		return CLI_OUTPUT;
+	}
+	fprintf(stderr, "opwin report: the previous report.pdf is kept as "
+		"report-previous-%s.pdf\n", stamp);
+	return CLI_OK;
+}
+
 /* The drawings are made in a copy of the folder's data that then
  * replaces the folder whole, so an interrupted report leaves it as it was
  * and its manifest always matches. */
 static int render_folder(const struct ow_study *s, const struct ow_grid *g,
 			 const struct ow_window *w, const struct cli_render *r,
-			 const char *dir)
+			 const struct cli_spread *sp, const char *dir)
 {
 	struct cli_outdir od;
 	struct ow_diag d = {{0}};
@@ -70,8 +111,13 @@ static int render_folder(const struct ow_study *s, const struct ow_grid *g,
 
 	if (!rc) {
 		st = ow_mapdir_copy_data(dir, od.tmp, &d);
-		rc = st == OW_OK ? cli_render("report", s, g, w, r, od.tmp)
+		rc = st == OW_OK ? keep_previous_report(dir, od.tmp)
 				 : cli_fail("report", st, &d);
+		if (!rc)
+			rc = cli_spread_files(s, g, w, sp, r->rep.units,
+					      od.tmp);
+		if (!rc)
+			rc = cli_render("report", s, g, w, r, od.tmp);
 	}
 	return cli_outdir_finish("report", &od, rc);
 }
@@ -83,11 +129,14 @@ static int redraw(const struct ow_units *u, const char *dir,
 	struct ow_grid *g = NULL;
 	struct ow_window *w = NULL;
 	struct ow_mapdir_centre centre;
+	struct cli_spread sp;
 	struct ow_diag d = {{0}};
 	enum ow_status st = s ? OW_OK : OW_ENOMEM;
 	int rc;
 
 	memset(&centre, 0, sizeof centre);
+	cli_spread_init(&sp);
+	sp.save = 0; /* spread.json is copied with the folder's data */
 	if (st == OW_OK)
 		st = ow_mapdir_verify(dir, &d);
 	if (st == OW_OK)
@@ -100,10 +149,18 @@ static int redraw(const struct ow_units *u, const char *dir,
 		r->rep.n_profile = centre.n_rows;
 	}
 	rc = st != OW_OK ? cli_fail("report", st, &d)
-			 : cli_render_current("report", u, r, c->units);
+			 : cli_render_current("report", u, r, c->units,
+					      s->own_units);
 	r->jobs = c->jobs;
 	if (!rc)
-		rc = render_folder(s, g, w, r, dir);
+		rc = cli_spread_reload(s, g, w, dir, &sp);
+	r->rep.spread = sp.r;
+	r->rep.robust = sp.w;
+	if (!rc)
+		rc = render_folder(s, g, w, r, &sp, dir);
+	r->rep.spread = NULL;
+	r->rep.robust = NULL;
+	cli_spread_free(&sp);
 	if (!rc && !c->quiet)
 		printf("written to %s/ (maps, report.pdf)\n", dir);
 	ow_window_destroy(w);

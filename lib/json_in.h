@@ -3,7 +3,8 @@
  * quantities with units, integers, strings and choices, strict key sets,
  * and the sources that {"value", "source"} objects carry.
  *
- * Not a public header: only config.c and config_calib.c include it.
+ * Not a public header: only config.c, config_calib.c and config_spread.c
+ * include it.
  * Everything here is re-entrant; the state of one file lives in struct
  * ow_jin. */
 #ifndef OW_JSON_IN_H
@@ -97,5 +98,11 @@ const cJSON *ow_jin_get(const cJSON *obj, const char *key);
  * absent); config_calib.c. The caller applies the factors. */
 enum ow_status ow_config_calibration(const struct ow_jin *j, const cJSON *o,
 				     struct ow_study *s);
+
+/* The study's optional `spread` block into s->spread (after the
+ * calibration is applied: the nominal is the calibrated study);
+ * config_spread.c. */
+enum ow_status ow_config_spread(const struct ow_jin *j, const cJSON *o,
+				struct ow_study *s);
 
 #endif

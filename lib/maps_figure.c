@@ -311,7 +311,7 @@ static void subtitle_of(enum ow_map_figure f, const struct ow_study *s,
 	snprintf(buf, n,
 	         "%sDashed black: edge of the safe region. Box: "
 	         "recommended window.",
-	         lim ? "Dashed red: the limit. " : "");
+	         lim ? "Bold dashed line with its value: the limit. " : "");
 }
 
 static enum ow_status draw_body(const struct ow_plot *p,
@@ -358,7 +358,6 @@ ow_maps_draw_figure(struct ow_canvas *cv, const struct ow_rect *box,
 	struct ow_plot_axis x, y;
 	struct ow_plot p;
 	struct ow_ticks lv;
-	struct ow_rect inner, bar;
 	char ytitle[128], btitle[128], sub[256], title[400];
 	double fs;
 	enum ow_status st;
@@ -387,12 +386,8 @@ ow_maps_draw_figure(struct ow_canvas *cv, const struct ow_rect *box,
 	subtitle_of(f, s, sub, sizeof sub);
 	snprintf(title, sizeof title, "%s — %s", ow_maps_figure_title(f),
 	         s->title);
-	maps_paper(cv, box, title, sub, fs);
-	inner = *box;
-	inner.y += 3.4 * fs;
-	inner.h -= 3.4 * fs;
-	maps_axes(s, g, o->units, &x, &y, ytitle, sizeof ytitle);
-	if (ow_plot_init(&p, cv, &inner, &x, &y, fs, 7.5 * fs) != OW_OK) {
+	if (maps_frame(cv, box, s, g, o->units, title, sub, fs, &p, &x, &y,
+	               ytitle, sizeof ytitle) != OW_OK) {
 		maps_field_free(&mf);
 		return ow_diag_set(d, OW_EARG, "figure map: box too small");
 	}
@@ -403,11 +398,7 @@ ow_maps_draw_figure(struct ow_canvas *cv, const struct ow_rect *box,
 	if (st != OW_OK)
 		return st;
 	ow_plot_axes(&p, &x, &y);
-	bar.x = p.area.x + p.area.w + 1.4 * fs;
-	bar.y = p.area.y - 2.0 * fs;
-	bar.w = 7.0 * fs;
-	bar.h = p.area.h + 5.4 * fs + 4.0;
-	ow_plot_colour_bar(cv, &bar, &lv, OW_CMAP_VIRIDIS,
-	                   bar_title(f, o->units, btitle, sizeof btitle), fs);
+	maps_colour_bar(&p, &lv, OW_CMAP_VIRIDIS,
+	                bar_title(f, o->units, btitle, sizeof btitle), fs);
 	return ow_canvas_status(cv, d);
 }

@@ -63,6 +63,12 @@ void maps_labels_take(struct maps_labels *l, double x0, double y0, double x1,
 
 /* The window's recommended rectangle (width_pt; bold on the window map,
  * thin on the figure maps) and, when thin, its safe-region edge. */
+/* Sides of the window's rectangle (plot coordinates x0..x1, y0 bottom of
+ * the lowest set-point, y1 the highest) that lie on the sweep's edge,
+ * marked dashed: they are no limit. */
+void maps_mark_sweep_edges(const struct ow_plot *p, const struct ow_window *w,
+                           double x0, double x1, double y0, double y1,
+                           double width_pt);
 void maps_draw_rectangle(const struct ow_plot *p, const struct ow_study *s,
                          const struct ow_window *w, enum ow_unit_system u,
                          double width_pt);
@@ -90,5 +96,19 @@ void maps_axes(const struct ow_study *s, const struct ow_grid *g,
                struct ow_plot_axis *y, char *ytitle, size_t n);
 
 double maps_font(const struct ow_maps_options *o);
+
+/* Paper, title and subtitle of a filled-contour map in box, and its plot
+ * frame below them (x rpm, y the reference set-point; the y title into
+ * ytitle). OW_EARG when the box is too small. */
+enum ow_status maps_frame(struct ow_canvas *cv, const struct ow_rect *box,
+                          const struct ow_study *s, const struct ow_grid *g,
+                          enum ow_unit_system u, const char *title,
+                          const char *sub, double font_pt, struct ow_plot *p,
+                          struct ow_plot_axis *x, struct ow_plot_axis *y,
+                          char *ytitle, size_t n);
+
+/* The colour bar of a filled-contour map, right of p's data area. */
+void maps_colour_bar(const struct ow_plot *p, const struct ow_ticks *lv,
+                     enum ow_cmap map, const char *title, double font_pt);
 
 #endif

@@ -15,6 +15,7 @@
 #include "ow_line.h"
 #include "ow_material.h"
 #include "ow_screw.h"
+#include "ow_spread.h"
 #include "ow_status.h"
 #include "ow_units.h"
 
@@ -41,9 +42,14 @@ struct ow_study {
 	struct ow_source sources[OW_MAX_SOURCES];
 	unsigned long input_crc; /* CRC-32 over the bytes of every input
 				    file read, in reading order */
+	enum ow_unit_system own_units; /* what the study is written in (its
+					  first zone's set-point): bare
+					  numbers on the command line */
 	struct ow_calibration calib; /* the calibration block; its factors
 					are applied to screw, resin and
 					line above */
+	struct ow_spread spread;     /* the spread block (present 0 when
+					absent) */
 };
 
 /* Load a study file and the files it names into *out (fully validated:
@@ -57,6 +63,12 @@ enum ow_status ow_config_load_screw(const struct ow_units *u, const char *path,
 enum ow_status ow_config_load_resin(const struct ow_units *u, const char *path,
 				    struct ow_material *out,
 				    struct ow_diag *d);
+
+/* Replace s->spread by the spread block in JSON text (--spread); name
+ * stands for the file in messages. OW_EINPUT as for a study file. */
+enum ow_status ow_config_spread_text(const struct ow_units *u,
+				     const char *text, const char *name,
+				     struct ow_study *s, struct ow_diag *d);
 
 /* The keys a resin file may hold, NULL-terminated (static storage). */
 const char *const *ow_config_resin_keys(void);

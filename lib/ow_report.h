@@ -49,6 +49,11 @@ struct ow_report_options {
 	const struct ow_point *centre_point;
 	const struct ow_profile_row *profile;
 	int n_profile;
+	/* a map run across a spread of inputs (ow_spread.h): its result and
+	 * the robust window, for the page on them; NULL: no such page.
+	 * Borrowed. */
+	const struct ow_spread_result *spread;
+	const struct ow_window *robust;
 };
 
 /* Defaults: A4, SI, no date, blank revision and names, no current point,
@@ -61,7 +66,7 @@ enum ow_status ow_report_paper_parse(const char *s, enum ow_paper *out);
 /* Decimals of the window table: screw speed to 0.1 rpm, set-points to
  * whole degrees (°C or °F), as drives and controllers are set. When the
  * inward rounding below would empty a range, that range gets one more. */
-#define OW_REPORT_RPM_DECIMALS  1
+#define OW_REPORT_RPM_DECIMALS  0
 #define OW_REPORT_TEMP_DECIMALS 0
 
 /* Which way a printed bound is rounded: towards the inside of the window,

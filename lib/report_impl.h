@@ -173,6 +173,7 @@ void rpt_inputs(struct rpt *r);       /* report_inputs.c */
 void rpt_basis(struct rpt *r);        /* report_basis.c */
 void rpt_calib_page(struct rpt *r);   /* report_calib.c */
 void rpt_calib_note(struct rpt *r);   /* report_calib.c: front page line */
+void rpt_spread_page(struct rpt *r);  /* report_spread.c */
 
 /* The window-map options for the report's units and current point. */
 void rpt_map_options(const struct rpt *r, struct ow_maps_options *mo);
@@ -181,5 +182,12 @@ void rpt_map_options(const struct rpt *r, struct ow_maps_options *mo);
 char *rpt_limit_text(struct rpt *r, enum ow_check c, char *buf, size_t n);
 /* "zone 5" style name of the reference zone ("zone 5 (24–30 D)"). */
 char *rpt_zone_name(const struct rpt *r, int z, char *buf, size_t n);
+
+/* Give the finished PDF in *buf (malloc'd, *len bytes) a valid ToUnicode
+ * map for its fonts by an incremental update (report_unicode.c); *buf
+ * may be reallocated. OW_ENOMEM leaves *buf holding the document as it
+ * was. */
+enum ow_status rpt_fix_to_unicode(unsigned char **buf, size_t *len,
+				  struct ow_diag *d);
 
 #endif

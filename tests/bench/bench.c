@@ -6,6 +6,8 @@
  *   - the whole `opwin map` command (solve, draw, write) on 1 and 2
  *     threads, run as the built program;
  *   - the calibration of the demo's 6 readings with 2 free factors;
+ *   - the 41x41 sweep across a 3-input spread at the default sample count,
+ *     as a ratio to the nominal sweep;
  *   - the scale line: the sweep at 11x11 .. 81x81 on 2 threads, each in a
  *     process of its own so that its peak memory is its own.
  * Each target is printed with the measured figure, the target and their
@@ -109,6 +111,44 @@ static double bench_sweep(const struct ow_study *s, int jobs, int steps,
 	return dt;
 }
 
+/* The demo's sweep (its own grid, 2 threads) across a 3-input spread at
+ * the default sample count: viscosity +-10 %, melting point +-3 K, feed
+ * temperature +-10 K. Returns (nominal + sampled) / nominal wall time. */
+static double bench_spread(const struct ow_units *u, struct ow_study *s)
+{
+	static const char *const spec =
+		"{\"viscosity_scale\": {\"plus_minus\": \"10 %\"}, "
+		"\"melting_point\": {\"plus_minus\": \"3 K\"}, "
+		"\"feed_temperature\": {\"plus_minus\": \"10 K\"}}";
+	struct ow_sweep_config c;
+	struct ow_spread_config pc;
+	struct ow_spread_result *r = NULL;
+	struct ow_grid *g = NULL;
+	struct ow_diag d = {{0}};
+	double t0 = now(), t1, ratio = 0.0;
+
+	ow_sweep_default(&c);
+	c.jobs = 2;
+	ow_spread_config_default(&pc);
+	pc.jobs = 2;
+	if (ow_config_spread_text(u, spec, "bench", s, &d) != OW_OK ||
+	    ow_sweep_run(s, &c, &g, &d) != OW_OK) {
+		fprintf(stderr, "bench: %s\n", d.msg);
+		return 0.0;
+	}
+	t1 = now();
+	if (ow_spread_run(s, g, &pc, &r, &d) == OW_OK) {
+		ratio = (now() - t0) / (t1 - t0);
+		printf("sweep 41x41 across a 3-input spread, %d samples: "
+		       "%.1f s against %.1f s nominal (%.1fx), %d sample "
+		       "solves, %d saved\n", r->samples, now() - t0, t1 - t0,
+		       ratio, r->solves, r->solves_saved);
+	}
+	ow_spread_result_destroy(r);
+	ow_grid_destroy(g);
+	return ratio;
+}
+
 /* The whole `opwin map` on the demo's own 41x41 grid: wall time. */
 static double bench_command(const char *opwin, const char *study, int jobs)
 {
@@ -199,7 +239,7 @@ int main(int argc, char **argv)
 	struct ow_units *u = NULL;
 	struct ow_study *s = calloc(1, sizeof *s);
 	struct ow_diag d = {{0}};
-	double cold, warm, mc, mw, t1, t2, c1, c2, m1, m2;
+	double cold, warm, mc, mw, t1, t2, c1, c2, m1, m2, sp;
 	int n1, n2, k;
 	static const int scale[] = {11, 21, 41, 81};
 
@@ -227,6 +267,7 @@ int main(int argc, char **argv)
 	printf("opwin map 41x41 (solve, draw, write): 1 thread %.2f s, "
 	       "2 threads %.2f s\n", c1, c2);
 	bench_calib(u, s, readings);
+	sp = bench_spread(u, s);
 	printf("targets (measured, target, ratio measured/target):\n");
 	target("point solve, cold (median)", 1e3 * cold, 2.0, "ms", 0);
 	target("point solve, warm (median)", 1e3 * warm, 1.0, "ms", 0);
@@ -235,6 +276,9 @@ int main(int argc, char **argv)
 	if (c2 > 0.0)
 		target("opwin map speed-up 1 -> 2 threads", c1 / c2, 1.85,
 		       "x", 1);
+	if (sp > 0.0)
+		target("sweep with a 3-input spread / nominal", sp, 8.0, "x",
+		       0);
 	printf("scale (sweep only, 2 threads; linear cost: constant "
 	       "us/solve):\n");
 	for (k = 0; k < (int)(sizeof scale / sizeof scale[0]); k++)
