@@ -382,7 +382,12 @@ enum ow_status ow_solver_run_from(struct ow_solver *sv, double rpm,
 		sv->set_K[i] = set_K ? set_K[i] : l->zones[i].set_K;
 		sv->zone_slope[i] = 0.0; /* learnt afresh: a point depends
 					    on nothing solved before it */
+		sv->last_side[i] = sv->last2_side[i] = 0;
+		sv->last_ctrl_K[i] = sv->last2_ctrl_K[i] = sv->set_K[i];
+		sv->last_g[i] = sv->last2_g[i] = 0.0;
+		sv->last_k[i] = sv->last2_k[i] = 0.0;
 	}
+	sv->zone_slope_m = 0.0;
 	out->rpm = rpm;
 	memcpy(out->set_K, sv->set_K, sizeof out->set_K);
 	if (start)

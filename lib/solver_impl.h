@@ -48,6 +48,20 @@ struct ow_solver {
 					    temperature), W/K, in this run:
 					    the first step of the next
 					    float */
+	double last_ctrl_K[OW_MAX_ZONES]; /* each zone's control point in
+					     the previous march of this run */
+	int last_side[OW_MAX_ZONES];  /* that march's zone floated short of
+					 heating (1), of cooling (-1), or
+					 held or was not solved (0) */
+	double last_g[OW_MAX_ZONES];  /* that march's channel throughput */
+	double last2_ctrl_K[OW_MAX_ZONES]; /* the same, one march earlier */
+	double last2_g[OW_MAX_ZONES];
+	int last2_side[OW_MAX_ZONES];
+	double last_k[OW_MAX_ZONES];  /* zone slopes after the last march */
+	double last2_k[OW_MAX_ZONES]; /* ... and after the one before */
+	double zone_slope_m;          /* the last zone slope learnt in this
+					 run per metre of zone, W/(K m): a
+					 first step for a zone yet to float */
 	int n_steps;                  /* axial steps hopper -> tip */
 	double dx_m;                  /* axial step */
 	struct ow_profile_row *rows;  /* n_steps + 1 rows */

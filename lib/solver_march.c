@@ -491,6 +491,12 @@ static double film_wall(const struct ctx *c, double x)
 		c->film_mu * c->film_vj2 / (2.0 * d * h)) / (1.0 + a);
 }
 
+/* A bed carrying at most this share of the channel's throughput at a
+ * step's end has melted: its latent heat is below 1e-9 of the melting
+ * heat, far inside the energy book's own residual, and it would otherwise
+ * cost a whole melting step of its own. */
+#define BED_END_RTOL 1e-9
+
 /* Melting over one step (Tadmor 1966): the bed melts into the pool (or the
  * barrier's melt channel), which conveys the melt and sets the pressure
  * gradient. The film's shear work beyond its dissipation is taken as
@@ -520,6 +526,14 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 	st = ow_melting_step(in, &a, &b, dz, c->X, &o, &c->sv->diag);
 	if (st != OW_OK)
 		return st;
+	if (o.melted_at_m < 0.0 && o.solid_flow_kg_s <= BED_END_RTOL * c->g) {
+		/* a bed left with a negligible share of the throughput
+		 * melts at the step's end, not over a whole next step */
+		o.melted_kg_s += o.solid_flow_kg_s;
+		o.solid_flow_kg_s = 0.0;
+		o.bed_width_m = 0.0;
+		o.melted_at_m = dz;
+	}
 	mix_into_pool(c, melt_before, o.melted_kg_s, mt->melt_temp_K);
 	c->solid_flow = o.solid_flow_kg_s;
 	q = (c->g - c->solid_flow) / mt->melt_density_kg_m3;
@@ -792,69 +806,180 @@ static double zone_target(const struct ow_zone *z, double q_W)
 	return q_W;
 }
 
-#define ZONE_TOL_W 1.0      /* heat mismatch accepted, W ... */
-#define ZONE_RTOL 2e-3      /* ... or this share of the zone's power */
-#define ZONE_MAXIT 8
+/* Stop rule of a floating zone: its heat within ZONE_TOL_W or ZONE_RTOL of
+ * its power, or the last secant step below ZONE_DT_K. The zone's heat is
+ * nearly linear in its control temperature (Q = h A (T_c - T_bore), the
+ * bore following T_c by a small share), so secant steps converge
+ * superlinearly and a tolerance far below the match's own (P_RTOL 1e-4)
+ * costs about one zone march more than a loose one: the match function
+ * then carries no trace of where the zone iteration happened to stop. */
+#define ZONE_TOL_W 1e-2
+#define ZONE_RTOL 1e-5
+#define ZONE_DT_K 1e-9
+#define ZONE_MAXIT 12
 #define ZONE_STEP_K 100.0   /* largest change of a control point per try */
+#define ZONE_LO_K 250.0     /* range a control point may float in */
+#define ZONE_HI_K 850.0
+
+/* March zone z's steps (from..to) from its start state s0 with its control
+ * point at t_K; returns the zone's heat through *q_W. */
+static enum ow_status zone_try(struct ctx *c, const struct snap *s0, int z,
+			       int from, int to, double t_K, double *q_W)
+{
+	enum ow_status st;
+
+	restore(c, s0);
+	c->zone = z;
+	c->sv->ctrl_K[z] = t_K;
+	st = march_steps(c, from, to);
+	*q_W = c->m->zone_W[z];
+	return st;
+}
+
+/* Secant iteration on zone z's control temperature for heat target from
+ * (t0, q0) and a first step t1. Returns 1 when converged (the zone's
+ * steps marched at the root, its slope in *k), 0 when the zone's heat does
+ * not follow its wall, -1 when a march failed (*st). */
+static int zone_secant(struct ctx *c, const struct snap *s0, int z,
+		       int from, int to, double target, double t0,
+		       double q0, double t1, double *k, enum ow_status *st)
+{
+	double tol = fmax(ZONE_TOL_W, ZONE_RTOL * fabs(target)), q1;
+	int it;
+
+	for (it = 0; it < ZONE_MAXIT; it++) {
+		double t2;
+
+		*st = zone_try(c, s0, z, from, to, t1, &q1);
+		if (*st != OW_OK)
+			return -1;
+		if (fabs(q1 - target) <= tol || fabs(t1 - t0) < ZONE_DT_K)
+			return 1;
+		if (fabs(q1 - q0) < 1e-9 * (fabs(q0) + 1.0))
+			return 0;
+		*k = (q1 - q0) / (t1 - t0);
+		t2 = t1 - (q1 - target) / *k;
+		t2 = fmin(fmax(t2, t1 - ZONE_STEP_K), t1 + ZONE_STEP_K);
+		t0 = t1;
+		q0 = q1;
+		t1 = fmin(fmax(t2, ZONE_LO_K), ZONE_HI_K);
+	}
+	return 1; /* the closest try of a slowly converging zone */
+}
+
+/* The first secant step from (t0, q0) towards target: with the slope k
+ * this solve has learnt for the zone, a Newton step; else 10 K. */
+static double zone_first_step(double t0, double q0, double target, double k)
+{
+	if (k > 0.0)
+		return t0 + fmin(fmax((target - q0) / k, -ZONE_STEP_K),
+				 ZONE_STEP_K);
+	return t0 + (target > q0 ? 10.0 : -10.0);
+}
+
+/* A zone that floated in the previous march of this solve floats again
+ * near the same control temperature: start there, not at the set-point.
+ * Converged on the floating side of the set-point (below it when short of
+ * heating, above when short of cooling; the zone's heat rises with its
+ * control temperature), the zone floats and its demand at the set-point
+ * is the heat extrapolated along the secant slope, Q(T_set) = P + k (T_set
+ * - T_c). Returns 1 when that holds, 0 to solve the zone from its set-point. */
+static int zone_from_last(struct ctx *c, const struct snap *s0, int z,
+			  int from, int to, enum ow_status *st)
+{
+	struct ow_solver *sv = c->sv;
+	const struct ow_zone *zn = &c->ln->zones[z];
+	double t0 = sv->last_ctrl_K[z], set = sv->set_K[z], k = sv->zone_slope[z];
+	double dg = sv->last_g[z] - sv->last2_g[z], target = sv->last_side[z] > 0 ? zn->heating_W : -zn->cooling_W;
+	double q0;
+	int rc;
+
+	if (sv->last_side[z] == 0 || !(k > 0.0) || !isfinite(target))
+		return 0;
+	/* the control point is smooth in G: predict it linearly from the
+	 * last two marches when they floated this zone too */
+	if (sv->last2_side[z] == sv->last_side[z] && dg != 0.0) {
+		double dk = (sv->last_k[z] - sv->last2_k[z]) / dg *
+			    (c->g - sv->last_g[z]);
+
+		t0 += fmin(fmax((sv->last_ctrl_K[z] - sv->last2_ctrl_K[z]) /
+				dg * (c->g - sv->last_g[z]), -ZONE_STEP_K),
+			   ZONE_STEP_K);
+		if (sv->last2_k[z] > 0.0) /* the slope likewise */
+			k = fmin(fmax(k + dk, 0.5 * k), 2.0 * k);
+	}
+	*st = zone_try(c, s0, z, from, to, t0, &q0);
+	if (*st != OW_OK)
+		return 0;
+	if (fabs(q0 - target) <= fmax(ZONE_TOL_W, ZONE_RTOL * fabs(target)))
+		rc = 1;
+	else
+		rc = zone_secant(c, s0, z, from, to, target, t0, q0,
+				 zone_first_step(t0, q0, target, k), &k, st);
+	if (rc != 1 || (target > 0.0 ? sv->ctrl_K[z] >= set
+				     : sv->ctrl_K[z] <= set))
+		return 0;
+	sv->zone_slope[z] = k;
+	sv->zone_slope_m = k / ((to - from) * sv->dx_m);
+	c->m->zone_demand_W[z] = target + k * (set - sv->ctrl_K[z]);
+	return 1;
+}
 
 /* March the steps of zone z (from..to) with its control point at the
  * set-point. A zone that needs more heating or cooling than it has cannot
  * hold it: its control point floats to the temperature at which the
  * zone's heat equals its power (secant steps on the control temperature,
  * marching the zone again from its start: downstream zones do not act
- * upstream in the march). */
+ * upstream in the march). A zone that floated in the previous march of
+ * the same solve starts from the control temperature it floated to, so
+ * the marches near the match take one or two zone marches; what a march
+ * returns depends only on its inputs to within the zone tolerance. */
 static enum ow_status run_zone(struct ctx *c, int z, int from, int to)
 {
 	struct ow_solver *sv = c->sv;
 	const struct ow_zone *zn = &c->ln->zones[z];
-	double t0 = sv->set_K[z], q0, need, target, t1, q1 = 0.0;
+	double t0 = sv->set_K[z], q0, need, target, k = sv->zone_slope[z];
 	struct snap s0;
-	enum ow_status st;
-	int it;
+	enum ow_status st = OW_OK;
+	int rc, side0;
 
 	save(c, &s0);
-	c->zone = z;
-	st = march_steps(c, from, to);
-	need = q0 = c->m->zone_W[z];
+	side0 = sv->last_side[z];
+	if (zone_from_last(c, &s0, z, from, to, &st)) {
+		c->m->zone_floating |= 1u << z;
+		need = c->m->zone_demand_W[z];
+		goto done;
+	}
+	st = zone_try(c, &s0, z, from, to, t0, &q0);
+	need = q0;
 	target = zone_target(zn, q0);
+	sv->last_side[z] = 0;
 	if (st != OW_OK || target == q0 || !isfinite(target))
 		goto done;
-	if (sv->zone_slope[z] > 0.0) /* a neighbouring march's slope */
-		t1 = t0 + fmin(fmax((target - q0) / sv->zone_slope[z],
-				    -ZONE_STEP_K), ZONE_STEP_K);
-	else
-		t1 = t0 + (target > q0 ? 10.0 : -10.0);
-	for (it = 0; it < ZONE_MAXIT; it++) {
-		double t2;
-
-		restore(c, &s0);
-		c->zone = z;
-		sv->ctrl_K[z] = t1;
-		st = march_steps(c, from, to);
-		q1 = c->m->zone_W[z];
-		if (st != OW_OK || fabs(q1 - target) <=
-		    fmax(ZONE_TOL_W, ZONE_RTOL * fabs(target)))
-			break;
-		if (fabs(q1 - q0) < 1e-9 * (fabs(q0) + 1.0)) {
-			/* the zone's heat does not follow its wall (friction
-			 * on the solid plug only): no temperature it can
-			 * hold; report it at its set-point, flagged */
-			restore(c, &s0);
-			c->zone = z;
-			sv->ctrl_K[z] = sv->set_K[z];
-			st = march_steps(c, from, to);
-			break;
-		}
-		sv->zone_slope[z] = (q1 - q0) / (t1 - t0);
-		t2 = t1 - (q1 - target) * (t1 - t0) / (q1 - q0);
-		t2 = fmin(fmax(t2, t1 - ZONE_STEP_K), t1 + ZONE_STEP_K);
-		t0 = t1;
-		q0 = q1;
-		t1 = fmin(fmax(t2, 250.0), 850.0);
+	if (!(k > 0.0)) /* the zones are alike per length of barrel */
+		k = sv->zone_slope_m * (to - from) * sv->dx_m;
+	rc = zone_secant(c, &s0, z, from, to, target, t0, q0,
+			 zone_first_step(t0, q0, target, k), &k, &st);
+	if (rc == 0) {
+		/* the zone's heat does not follow its wall (friction on the
+		 * solid plug only): no temperature it can hold; report it
+		 * at its set-point, flagged */
+		st = zone_try(c, &s0, z, from, to, t0, &q0);
+	} else if (rc == 1) {
+		sv->zone_slope[z] = k;
+		sv->zone_slope_m = k / ((to - from) * sv->dx_m);
+		sv->last_side[z] = target > 0.0 ? 1 : -1;
 	}
 	c->m->zone_floating |= 1u << z;
 done:
 	c->m->zone_demand_W[z] = need;
+	sv->last2_side[z] = side0;
+	sv->last2_ctrl_K[z] = sv->last_ctrl_K[z];
+	sv->last2_g[z] = sv->last_g[z];
+	sv->last2_k[z] = sv->last_k[z];
+	sv->last_k[z] = sv->zone_slope[z];
+	sv->last_ctrl_K[z] = sv->ctrl_K[z];
+	sv->last_g[z] = c->g;
 	c->m->ctrl_K[z] = sv->ctrl_K[z];
 	return st;
 }
