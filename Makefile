@@ -134,6 +134,10 @@ memcheck: deps
 	$(VALGRIND) $(OPWIN) point demo/study-si.json --rpm 60 --json >/dev/null
 	$(VALGRIND) $(OPWIN) map tests/data/map-fast.json -o build/memcheck-map \
 	  --grid 4x4 --refine 1 --jobs 1 --quiet
+	$(VALGRIND) $(OPWIN) map tests/data/map-fast.json -o build/memcheck-spread \
+	  --grid 3x3 --jobs 1 --spread "viscosity_scale=0.9..1.1" --samples 4 --quiet
+	$(VALGRIND) $(OPWIN) calibrate demo/study-si.json demo/line/line3-readings.csv \
+	  --free viscosity_scale -o build/memcheck-calibrated.json --jobs 1 --quiet >/dev/null
 	@echo "memcheck: clean"
 
 lint:
