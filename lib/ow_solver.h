@@ -19,6 +19,9 @@
 #define OW_FLAG_BACKFLOW 0x08u      /* a band's down-channel flow floored */
 #define OW_FLAG_NO_MELTING 0x10u    /* barrel never above the melting point
 				       and no melting by dissipation */
+#define OW_FLAG_UNHEATED_MELT 0x20u /* a plugged bed gave up solids as melt
+				       with no heat to melt them: the energy
+				       book is short by unheated_melt_W */
 
 /* Figures of one operating point, SI. */
 struct ow_point {
@@ -47,6 +50,10 @@ struct ow_point {
 	double feed_capacity_kg_s;    /* feed section's Darnell-Mol rate at
 					 no pressure loss (NAN: melt-fed) */
 	double energy_residual;       /* (in - out) / drive power, - */
+	double unheated_melt_W;       /* melting heat of the solids a plugged
+					 bed gave up unheated (the book's
+					 shortfall, its residual is about
+					 -unheated_melt_W / power_W) */
 	int n_iter;                   /* marches done by the match */
 	unsigned flags;
 };

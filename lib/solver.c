@@ -23,7 +23,10 @@
  * rpm (a barrier screw down to 0.6), so the march count drops from about
  * 6 to 4 per point against a start at one half. */
 #define G_START 0.95
-#define G_PROBE 1.05  /* second trial: a 5 % step gives the first secant */
+#define G_PROBE 1.05
+/* Named in the notes above this share of the drive power (the residual
+ * the energy book is held to is 1 %). */
+#define UNHEATED_NOTE 1e-3  /* second trial: a 5 % step gives the first secant */
 
 enum ow_status ow_solver_create(const struct ow_study *s,
 				struct ow_solver **out, struct ow_diag *d)
@@ -222,6 +225,9 @@ static void figures(const struct ow_solver *sv, const struct eval *e,
 	in = e->m.power_W + e->m.barrel_W + e->m.root_W;
 	pt->energy_residual = (in - g * h_out - e->m.flow_work_W) /
 			      (fabs(e->m.power_W) > 0.0 ? e->m.power_W : 1.0);
+	pt->unheated_melt_W = e->m.unheated_W;
+	if (e->m.unheated_W > UNHEATED_NOTE * fabs(e->m.power_W))
+		pt->flags |= OW_FLAG_UNHEATED_MELT;
 }
 
 static enum ow_status check_run(const struct ow_solver *sv, double rpm,

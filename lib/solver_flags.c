@@ -13,6 +13,7 @@ static const struct {
 	{OW_FLAG_NOT_CONVERGED, "not_converged"},
 	{OW_FLAG_BACKFLOW, "backflow"},
 	{OW_FLAG_NO_MELTING, "no_melting"},
+	{OW_FLAG_UNHEATED_MELT, "unheated_melt"},
 };
 
 int ow_solver_flag_names(unsigned flags, const char **names, int max)

@@ -23,6 +23,8 @@ struct march {
 	double barrel_W;      /* heat barrel -> resin */
 	double root_W;        /* heat root -> resin */
 	double flow_work_W;   /* sum of Q dP over the screw */
+	double unheated_W;    /* melting heat of solids a held (plugged) bed
+				 gave up without heat: no stage supplies it */
 	double zone_W[OW_MAX_ZONES];
 	double hold_kg;       /* resin held in the channel (residence) */
 	double feed_cap_kg_s; /* feed section capacity (NAN: melt-fed) */

@@ -249,6 +249,18 @@ static double pool_flux(const struct ctx *c, double room, double melt_kg_s,
 	       mt->melt_density_kg_m3;
 }
 
+/* Share of the modelled pool's energy terms that the melt carries: the
+ * pool is solved as a channel carrying q_m3_s, its temperature rise is
+ * (heat in) / (rho c_p q), and the melt mass flow carries that rise, so
+ * the book takes (heat in) times (melt flow) / (rho q): room / W while
+ * the pool has width, and no less once a held bed leaves it a sliver. */
+static double pool_scale(const struct ctx *c, double q_m3_s)
+{
+	double melt_m3_s = (c->g - c->solid_flow) / c->mat->melt_density_kg_m3;
+
+	return q_m3_s > 0.0 ? melt_m3_s / q_m3_s : 0.0;
+}
+
 /* Mix melt of mass dm_kg_s entering at temp_K into the pool of mass flow
  * before_kg_s: flow-weighted, so the pool's enthalpy flux is conserved. */
 static void mix_into_pool(struct ctx *c, double before, double dm,
@@ -257,6 +269,24 @@ static void mix_into_pool(struct ctx *c, double before, double dm,
 	if (dm <= 0.0 || before + dm <= 0.0)
 		return;
 	ow_melt_mix(c->sv->melt, dm / (before + dm), temp_K);
+}
+
+/* A bed held at the channel width (plugging) gives up as melt the solids
+ * the compression squeezes out of it. The film's heat into the bed melts
+ * Q_bed / [C_s (T_m - T_s) + lambda] of them (Tadmor 1966); the rest joins
+ * the pool at the melting point with no heat supplied for it, so the
+ * energy book runs short by that heat: booked here, and named in the
+ * point's notes. */
+static void book_unheated(struct ctx *c, const struct ow_melting_step_out *o)
+{
+	const struct ow_material *mt = c->mat;
+	double heat = mt->solid_cp_J_kgK *
+			      (mt->melt_temp_K - c->ln->feed_temp_K) +
+		      mt->fusion_J_kg;
+	double free_kg_s = o->melted_kg_s - o->bed_heat_W / heat;
+
+	if (free_kg_s > 0.0)
+		c->m->unheated_W += free_kg_s * heat * c->p;
 }
 
 /* Melting over one step (Tadmor 1966): the bed melts into the pool (or the
@@ -290,11 +320,13 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 	if (st != OW_OK)
 		return st;
 	mix_into_pool(c, melt_before, o.melted_kg_s, mt->melt_temp_K);
+	if (o.plugged)
+		book_unheated(c, &o);
 	c->solid_flow = o.solid_flow_kg_s;
 	room = sb.barrier ? sb.melt_w : sb.bed_w - o.bed_width_m;
 	q = pool_flux(c, room, c->g - c->solid_flow, sb.bed_h);
-	scale = sb.barrier ? 1.0 : room / sb.bed_w;
 	pool_w = sb.barrier ? sb.melt_w : sb.bed_w; /* channel carrying melt */
+	scale = pool_scale(c, q * pool_w);
 	st = step_pool(c, x + 0.5 * dx, dz, sb.melt_h,
 		       pool_w, q * pool_w, scale, &mo);
 	if (st != OW_OK)

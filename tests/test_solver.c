@@ -8,6 +8,7 @@
 
 #include "ow_config.h"
 #include "ow_solver.h"
+#include "ow_sweep.h"
 #include "ow_units.h"
 
 static struct ow_point solve(const struct ow_study *s, double rpm,
@@ -230,6 +231,280 @@ static void cold_barrel_returns_a_flagged_point(void **st)
 	free(s);
 }
 
+
+/* ---- solver extras against hand calculations ------------------------- */
+
+/* Rowell & Finlayson (1922) shape factors as Tadmor & Klein (1970) ch. 7
+ * write them, summed here independently of the library:
+ * F_d = 16/(pi^3 h) sum_odd tanh(i pi h/2)/i^3,
+ * F_p = 1 - 192 h/pi^5 sum_odd tanh(i pi/(2h))/i^5, h = H/W. */
+static double shape_fd(double h)
+{
+	double sum = 0.0;
+
+	for (int i = 1; i < 20001; i += 2)
+		sum += tanh(i * OW_PI * h / 2.0) / ((double)i * i * i);
+	return 16.0 / (OW_PI * OW_PI * OW_PI * h) * sum;
+}
+
+static double shape_fp(double h)
+{
+	double sum = 0.0;
+
+	for (int i = 1; i < 20001; i += 2)
+		sum += tanh(i * OW_PI / (2.0 * h)) / pow(i, 5.0);
+	return 1.0 - 192.0 * h / pow(OW_PI, 5.0) * sum;
+}
+
+/* The melt-fed Newtonian screw (constant depth H, length L, p flights,
+ * clearance delta, land e, viscosity mu in channel and clearance alike)
+ * with a rod die (radius R, length L_d) and a screen pack dP_s, in closed
+ * form. Per channel (Tadmor & Klein 1970 ch. 7, with their leakage over
+ * the flight): Q_c = F_d V_bz W H/2 - F_p W H^3 G/(12 mu) - Q_L,
+ * Q_L = L_b [V_bx delta/2 + delta^3 (G L_b + G_x W)/(12 mu e)], with
+ * L_b = pi D cos(phi)/p the flight length beside one channel
+ * cross-section, G = dP/Z (Z = L/sin phi) and G_x = 6 mu V_bx/H^2 the
+ * cross-channel gradient of zero net cross flow. Whole screw p Q_c; die
+ * Q = pi R^4 dP_die/(8 mu L_d) (Hagen-Poiseuille, Bird, Stewart &
+ * Lightfoot 2002 section 2.3); tip pressure dP_die + dP_s. Linear in the
+ * pressures: q = pA/(K + pB) with A, B the screw's intercept and slope. */
+struct line_cf {
+	double D, Ls, H, L, e, delta, mu, R, Ld, rpm, screen;
+	int p;
+};
+
+static void closed_form(const struct line_cf *l, double *q, double *tip)
+{
+	double phi = atan(l->Ls / (OW_PI * l->D)), vb = OW_PI * l->D * l->rpm / 60.0;
+	double vbz = vb * cos(phi), vbx = vb * sin(phi);
+	double W = l->Ls * cos(phi) / l->p - l->e, H = l->H, d3 = pow(l->delta, 3.0);
+	double lb = OW_PI * l->D * cos(phi) / l->p, Z = l->L / sin(phi);
+	double A = shape_fd(H / W) * vbz * W * H / 2.0 - lb * vbx * l->delta / 2.0 -
+		   lb * d3 * W * vbx / (2.0 * l->e * H * H);
+	double B = (shape_fp(H / W) * W * H * H * H / (12.0 * l->mu) +
+		    lb * lb * d3 / (12.0 * l->mu * l->e)) / Z;
+	double K = OW_PI * pow(l->R, 4.0) / (8.0 * l->mu * l->Ld);
+	double die = l->p * (A - B * l->screen) / (K + l->p * B);
+
+	*q = K * die;
+	*tip = die + l->screen;
+}
+
+/* The rod study's line (tests/data/newtonian-rod.json) in those terms. */
+static struct line_cf rod_line(void)
+{
+	struct line_cf l = {0.0635, 0.0635, 0.003175, 8 * 0.0635, 0.00635,
+			    0.0, 1000.0, 0.0025, 0.020, 60.0, 0.0, 1};
+	return l;
+}
+
+/* First the closed form itself against the published operating point
+ * (Q = 1.42774e-5 m3/s at 18.615 MPa, above); then a 5 MPa screen pack:
+ * the tip must carry die + screen, so the output falls along the screw
+ * characteristic to q = p(A - B dP_s)/(K + pB): 1.3903e-5 m3/s, tip
+ * 23.126 MPa (recomputed by hand from the published Q_d = 1.582355e-5
+ * m3/s and dP_max = 1.9051e8 Pa). */
+static void screen_pack_moves_output_along_the_die_characteristic(void **st)
+{
+	struct ow_study *s = ow_test_study("tests/data/newtonian-rod.json");
+	struct line_cf l = rod_line();
+	struct ow_point a, b;
+	double q, tip;
+	(void)st;
+	closed_form(&l, &q, &tip);
+	assert_rel(q, 1.42774e-5, 1e-4);
+	assert_rel(tip, 1.8615e7, 1e-4);
+	a = solve(s, 60.0, NULL);
+	s->line.screen_pressure_Pa = l.screen = 5e6;
+	closed_form(&l, &q, &tip);
+	assert_rel(q, 1.3903e-5, 2e-4);
+	assert_rel(tip, 2.3126e7, 2e-4);
+	b = solve(s, 60.0, NULL);
+	assert_rel(b.output_kg_s / 760.0, q, 3e-4);
+	assert_rel(b.discharge_pressure_Pa, tip, 3e-4);
+	assert_true(b.output_kg_s < a.output_kg_s);
+	free(s);
+}
+
+/* A two-flight screw with a 0.1 mm clearance (and the single-flight one
+ * with it) against the closed form with leakage: each channel leaks over
+ * its own flight length pi D cos(phi)/p. */
+static void two_flight_leakage_matches_the_closed_form(void **st)
+{
+	struct ow_study *s = ow_test_study("tests/data/newtonian-rod.json");
+	struct line_cf l = rod_line();
+	int p;
+	(void)st;
+	for (p = 1; p <= 2; p++) {
+		struct ow_point pt;
+		double q, tip, q0, tip0;
+
+		s->screw.flights = l.p = p;
+		s->screw.clearance_m = l.delta = 1e-4;
+		assert_int_equal(ow_screw_prepare(&s->screw, NULL), OW_OK);
+		closed_form(&l, &q, &tip);
+		l.delta = 0.0;
+		closed_form(&l, &q0, &tip0);
+		assert_true(q < 0.97 * q0); /* the leak matters here */
+		pt = solve(s, 60.0, NULL);
+		assert_rel(pt.output_kg_s / 760.0, q, 5e-4);
+		assert_rel(pt.discharge_pressure_Pa, tip, 5e-4);
+	}
+	free(s);
+}
+
+/* Channel volume of a constant-depth screw: the annulus pi H (D - H)
+ * less the flight lands, p e H / sin(phi_mean) per axial length (the
+ * helical land of normal width e at the mean diameter; Tadmor & Gogos
+ * 2006, ch. 9 channel geometry). */
+static double channel_area(double D, double Ls, double H, double e, int p)
+{
+	double phim = atan(Ls / (OW_PI * (D - H)));
+
+	return OW_PI * H * (D - H) - p * e * H / sin(phim);
+}
+
+/* Mean residence time = hold-up mass / throughput. Melt-fed rod line:
+ * the hold-up is the melt (760 kg/m3) filling the 8 D channel. */
+static void residence_time_is_melt_hold_up_over_throughput(void **st)
+{
+	struct ow_study *s = ow_test_study("tests/data/newtonian-rod.json");
+	struct ow_point pt = solve(s, 60.0, NULL);
+	double vol = channel_area(0.0635, 0.0635, 0.003175, 0.00635, 1) *
+		     8 * 0.0635;
+	(void)st;
+	assert_rel(pt.residence_s, 760.0 * vol / pt.output_kg_s, 1e-6);
+	free(s);
+}
+
+/* The solids in the feed section are held at the bulk density: with the
+ * first zone below the melting point the bed starts melting at 6 D, and
+ * changing only the bulk density (560 -> 400 kg/m3) changes the hold-up
+ * by the difference times the feed channel's volume (H = 9.5 mm, 6 D),
+ * nothing else (the solids pass G at the feed pressure). */
+static void residence_time_holds_the_feed_at_bulk_density(void **st)
+{
+	struct ow_study *s = ow_test_study("fixtures/studies/hdpe-sf.json");
+	double set[OW_MAX_ZONES], vol;
+	struct ow_point a, b;
+	int i;
+	(void)st;
+	for (i = 0; i < s->line.n_zones; i++)
+		set[i] = s->line.zones[i].set_K;
+	set[0] = 393.15; /* 120 degC, below the 130 degC melting point */
+	s->resin.bulk_density_kg_m3 = 560.0;
+	a = solve(s, 60.0, set);
+	s->resin.bulk_density_kg_m3 = 400.0;
+	b = solve(s, 60.0, set);
+	assert_rel(a.melt_start_m, 6 * 0.0635, 1e-9);
+	assert_rel(b.output_kg_s, a.output_kg_s, 1e-9);
+	vol = channel_area(0.0635, 0.0635, 0.0095, 0.00635, 1) * 6 * 0.0635;
+	assert_rel(a.residence_s - b.residence_s,
+		   160.0 * vol / a.output_kg_s, 1e-6);
+	free(s);
+}
+
+/* A screw too short to melt the bed (tests/data/unmelt-short.json) leaves
+ * solids at the tip; they leave at the feed temperature, so the energy
+ * book counts G (1 - unmelt) (h_out - h_feed) and still closes within 1 %
+ * (first law for the open system hopper -> tip, Tadmor & Gogos 2006
+ * ch. 9). */
+static void unmelt_at_the_tip_keeps_the_energy_balance(void **st)
+{
+	struct ow_study *s = ow_test_study("tests/data/unmelt-short.json");
+	struct ow_point pt = solve(s, 60.0, NULL);
+	(void)st;
+	assert_true(pt.unmelt_frac > 0.02);
+	assert_false(pt.flags & OW_FLAG_PLUGGING);
+	assert_abs(pt.energy_residual, 0.0, 0.01);
+	free(s);
+}
+
+/* The energy book of a converged point closes within 1 %, or the point
+ * names why: a plugged bed held at the channel width gives up solids as
+ * melt that no heat melted (note unheated_melt), and the residual is that
+ * heat's share of the drive power, -unheated_melt_W / power_W, within
+ * 1 %. */
+static void assert_energy_closed(const struct ow_point *pt)
+{
+	double expect = 0.0;
+
+	if (pt->flags & OW_FLAG_UNHEATED_MELT) {
+		assert_true(pt->flags & OW_FLAG_PLUGGING);
+		expect = -pt->unheated_melt_W / pt->power_W;
+	}
+	assert_abs(pt->energy_residual, expect, 0.01);
+}
+
+/* At 120 rpm the short screw plugs: the note is set, and the book closes
+ * once the unheated melt is counted. */
+static void plugged_point_names_its_unheated_melt(void **st)
+{
+	struct ow_study *s = ow_test_study("tests/data/unmelt-short.json");
+	struct ow_point pt = solve(s, 120.0, NULL);
+	(void)st;
+	assert_true(pt.flags & OW_FLAG_PLUGGING);
+	assert_true(pt.flags & OW_FLAG_UNHEATED_MELT);
+	assert_true(pt.unheated_melt_W > 0.01 * pt.power_W);
+	assert_energy_closed(&pt);
+	free(s);
+}
+
+/* Every converged point of every fixture map (each study's own sweep
+ * grid; the demo on an 11 x 11 grid, plus its plugged point at 120 rpm
+ * with the zones 60 K below the study) keeps the energy book. */
+static void energy_closes_at_every_point_of_every_fixture_map(void **st)
+{
+	const char *studies[] = {
+		"fixtures/studies/hdpe-abrupt.json",
+		"fixtures/studies/hdpe-barrier.json",
+		"fixtures/studies/hdpe-deep.json",
+		"fixtures/studies/hdpe-sf.json",
+		"fixtures/studies/hdpe-worn.json",
+		"fixtures/studies/ldpe-sf.json",
+		"fixtures/studies/melt-fed.json",
+		"fixtures/studies/pp-sheet.json",
+		"fixtures/studies/ps-rod.json",
+		"demo/study-si.json"};
+	size_t i;
+	int k, checked = 0;
+	(void)st;
+	for (i = 0; i < sizeof studies / sizeof studies[0]; i++) {
+		struct ow_study *s = ow_test_study(studies[i]);
+		struct ow_sweep_config c;
+		struct ow_grid *g = NULL;
+
+		ow_sweep_default(&c);
+		c.jobs = 2;
+		if (strstr(studies[i], "demo"))
+			c.rpm_steps = c.axis_steps = 11;
+		assert_int_equal(ow_sweep_run(s, &c, &g, NULL), OW_OK);
+		for (k = 0; k < g->n_rpm * g->n_axis; k++) {
+			const struct ow_point *pt = &g->pts[k].pt;
+
+			if (g->pts[k].solved != 1 ||
+			    (pt->flags & OW_FLAG_NOT_CONVERGED))
+				continue;
+			assert_energy_closed(pt);
+			checked++;
+		}
+		ow_grid_destroy(g);
+		free(s);
+	}
+	assert_true(checked > 1000);
+	{
+		struct ow_study *s = ow_test_study("demo/study-si.json");
+		double set[OW_MAX_ZONES];
+		struct ow_point pt;
+
+		for (k = 0; k < s->line.n_zones; k++)
+			set[k] = s->line.zones[k].set_K - 60.0;
+		pt = solve(s, 120.0, set);
+		assert_energy_closed(&pt);
+		free(s);
+	}
+}
+
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
@@ -243,6 +518,13 @@ int main(void)
 		cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
 		cmocka_unit_test(cold_barrel_returns_a_flagged_point),
 		cmocka_unit_test(feed_capacity_follows_darnell_mol),
+		cmocka_unit_test(screen_pack_moves_output_along_the_die_characteristic),
+		cmocka_unit_test(two_flight_leakage_matches_the_closed_form),
+		cmocka_unit_test(residence_time_is_melt_hold_up_over_throughput),
+		cmocka_unit_test(residence_time_holds_the_feed_at_bulk_density),
+		cmocka_unit_test(unmelt_at_the_tip_keeps_the_energy_balance),
+		cmocka_unit_test(plugged_point_names_its_unheated_melt),
+		cmocka_unit_test(energy_closes_at_every_point_of_every_fixture_map),
 	};
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
 	                              ow_test_units_teardown);
