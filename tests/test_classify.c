@@ -308,14 +308,10 @@ static void limits_around_a_closed_form_operating_point(void **st)
 {
 	struct ow_study *s = ow_test_study("tests/data/limits-rod.json");
 	struct ow_limits *l = &s->line.limits;
-	struct ow_solver *sv = NULL;
-	struct ow_point p;
+	struct ow_point p = ow_test_solve(s, 60.0, NULL);
 	struct ow_verdict v;
 	double len = 8.0 * 0.0635;
 	(void)st;
-	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
-	assert_int_equal(ow_solver_run(sv, 60.0, NULL, 0.0, &p, NULL), OW_OK);
-	ow_solver_destroy(sv);
 	assert_rel(p.output_kg_s * 3600.0, 39.063, 3e-4);
 	assert_rel(p.max_pressure_Pa, 1.8615e7, 3e-4);
 	ow_classify(&p, l, len, &v);

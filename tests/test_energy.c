@@ -15,14 +15,7 @@
 static struct ow_point solve(const struct ow_study *s, double rpm,
 			     const double *set_K)
 {
-	struct ow_solver *sv = NULL;
-	struct ow_point pt;
-
-	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
-	assert_int_equal(ow_solver_run(sv, rpm, set_K, 0.0, &pt, NULL), OW_OK);
-	ow_solver_destroy(sv);
-	assert_false(pt.flags & OW_FLAG_NOT_CONVERGED);
-	return pt;
+	return ow_test_solve(s, rpm, set_K);
 }
 
 /* A screw too short to melt the bed (tests/data/unmelt-short.json) leaves

@@ -13,15 +13,7 @@
 static struct ow_point solve(const struct ow_study *s, double rpm,
 			     const double *set_K)
 {
-	struct ow_solver *sv = NULL;
-	struct ow_point pt;
-	struct ow_diag d = {{0}};
-
-	assert_int_equal(ow_solver_create(s, &sv, &d), OW_OK);
-	assert_int_equal(ow_solver_run(sv, rpm, set_K, 0.0, &pt, &d), OW_OK);
-	ow_solver_destroy(sv);
-	assert_false(pt.flags & OW_FLAG_NOT_CONVERGED);
-	return pt;
+	return ow_test_solve(s, rpm, set_K);
 }
 
 /* Melt-fed Newtonian metering section (8 D, H = 3.175 mm, mu = 1000 Pa s,
