@@ -314,7 +314,48 @@ static void screen_pack_moves_output_along_the_die_characteristic(void **st)
 	assert_rel(b.output_kg_s / 760.0, q, 3e-4);
 	assert_rel(b.discharge_pressure_Pa, tip, 3e-4);
 	assert_true(b.output_kg_s < a.output_kg_s);
+	/* drive power from torque, P = 2 pi N T (rotational power; 1000 N m
+	 * at 60 rpm is 6283.2 W) */
+	assert_rel(b.power_W, 2.0 * OW_PI * (60.0 / 60.0) * b.torque_Nm, 1e-12);
 	free(s);
+}
+
+/* The pressure figure classified is the largest anywhere on the screw:
+ * the maximum over the profile's stations and where it is (on the demo
+ * line the pressure peaks before the tip). */
+static void max_pressure_is_the_largest_on_the_profile(void **st)
+{
+	struct ow_study *s = ow_test_study("demo/study-si.json");
+	struct ow_solver *sv = NULL;
+	const struct ow_profile_row *r;
+	struct ow_point pt;
+	double mx = -1.0, at = 0.0;
+	int n, i;
+	(void)st;
+	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, 60.0, NULL, 0.0, &pt, NULL), OW_OK);
+	r = ow_solver_profile(sv, &n);
+	for (i = 0; i < n; i++)
+		if (r[i].pressure_Pa > mx) {
+			mx = r[i].pressure_Pa;
+			at = r[i].axial_m;
+		}
+	assert_rel(pt.max_pressure_Pa, mx, 1e-12);
+	assert_rel(pt.max_pressure_at_m, at, 1e-12);
+	assert_rel(pt.discharge_pressure_Pa, r[n - 1].pressure_Pa, 1e-12);
+	ow_solver_destroy(sv);
+	free(s);
+}
+
+/* Channel volume of a constant-depth screw: the annulus pi H (D - H)
+ * less the flight lands, p e H / sin(phi_mean) per axial length (the
+ * helical land of normal width e at the mean diameter; Tadmor & Gogos
+ * 2006, ch. 9 channel geometry). */
+static double channel_area(double D, double Ls, double H, double e, int p)
+{
+	double phim = atan(Ls / (OW_PI * (D - H)));
+
+	return OW_PI * H * (D - H) - p * e * H / sin(phim);
 }
 
 /* A two-flight screw with a 0.1 mm clearance (and the single-flight one
@@ -343,20 +384,17 @@ static void two_flight_leakage_matches_the_closed_form(void **st)
 		/* and the energy book of all p channels closes (first law,
 		 * Tadmor & Gogos 2006 ch. 9) */
 		assert_abs(pt.energy_residual, 0.0, 0.01);
+		/* the hold-up fills every channel: melt over the channel
+		 * volume of p flights */
+		assert_rel(pt.residence_s,
+			   760.0 * channel_area(0.0635, 0.0635, 0.003175,
+						0.00635, p) *
+				   8 * 0.0635 / pt.output_kg_s,
+			   1e-6);
 	}
 	free(s);
 }
 
-/* Channel volume of a constant-depth screw: the annulus pi H (D - H)
- * less the flight lands, p e H / sin(phi_mean) per axial length (the
- * helical land of normal width e at the mean diameter; Tadmor & Gogos
- * 2006, ch. 9 channel geometry). */
-static double channel_area(double D, double Ls, double H, double e, int p)
-{
-	double phim = atan(Ls / (OW_PI * (D - H)));
-
-	return OW_PI * H * (D - H) - p * e * H / sin(phim);
-}
 
 /* Mean residence time = hold-up mass / throughput. Melt-fed rod line:
  * the hold-up is the melt (760 kg/m3) filling the 8 D channel. */
@@ -412,6 +450,7 @@ int main(void)
 		cmocka_unit_test(cold_barrel_returns_a_flagged_point),
 		cmocka_unit_test(feed_capacity_follows_darnell_mol),
 		cmocka_unit_test(screen_pack_moves_output_along_the_die_characteristic),
+		cmocka_unit_test(max_pressure_is_the_largest_on_the_profile),
 		cmocka_unit_test(two_flight_leakage_matches_the_closed_form),
 		cmocka_unit_test(residence_time_is_melt_hold_up_over_throughput),
 		cmocka_unit_test(residence_time_holds_the_feed_at_bulk_density),
