@@ -382,8 +382,10 @@ static void two_flight_leakage_matches_the_closed_form(void **st)
 		assert_rel(pt.output_kg_s / 760.0, q, 5e-4);
 		assert_rel(pt.discharge_pressure_Pa, tip, 5e-4);
 		/* and the energy book of all p channels closes (first law,
-		 * Tadmor & Gogos 2006 ch. 9) */
-		assert_abs(pt.energy_residual, 0.0, 0.01);
+		 * Tadmor & Gogos 2006 ch. 9); melt-fed, each station's power
+		 * is its dissipation plus Q dP exactly (Tadmor & Klein 1970
+		 * ch. 7), so to round-off, not just 1 % */
+		assert_abs(pt.energy_residual, 0.0, 1e-6);
 		/* the hold-up fills every channel: melt over the channel
 		 * volume of p flights */
 		assert_rel(pt.residence_s,

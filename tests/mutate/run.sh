@@ -49,7 +49,7 @@ for p in $progs; do
 	fi
 done
 
-total=0 caught=0 equiv=0 bad=0
+total=0 caught=0 equiv=0 accepted=0 unexpected=0 bad=0
 survivors=""
 note=""
 while IFS= read -r line; do
@@ -98,7 +98,11 @@ while IFS= read -r line; do
 	case "$verdict" in
 	caught*) caught=$((caught + 1)) ;;
 	*)
-		[ "$expect" = equivalent ] && equiv=$((equiv + 1))
+		case "$expect" in
+		equivalent) equiv=$((equiv + 1)) ;;
+		accepted) accepted=$((accepted + 1)) ;;
+		*) unexpected=$((unexpected + 1)); expect="NOT EXPLAINED" ;;
+		esac
 		survivors="${survivors}  $id [$expect]
 $(printf '%s' "$note" | sed 's/^/     /')
 " ;;
@@ -115,6 +119,7 @@ fi
 [ $bad -gt 0 ] && echo "mutations that did not apply: $bad"
 if [ $total -gt 0 ]; then
 	echo "mutate: $caught of $total caught ($((100 * caught / total)) %);" \
-	     "$equiv survivors marked equivalent;" \
-	     "score without them: $caught of $((total - equiv))"
+	     "survivors: $equiv equivalent, $accepted accepted," \
+	     "$unexpected not explained"
 fi
+[ $unexpected -eq 0 ] && [ $bad -eq 0 ]
