@@ -54,6 +54,7 @@ survivors=""
 note=""
 while IFS= read -r line; do
 	case "$line" in
+	'# ----'*) note=""; continue ;;
 	'#'*) note="${note}${line#\#}
 "; continue ;;
 	'') note=""; continue ;;
