@@ -36,7 +36,8 @@ APT_PKGS := build-essential pkg-config libcjson-dev libudunits2-dev \
 FONT     := /usr/share/fonts/truetype/dejavu/DejaVuSans.ttf
 
 .SECONDARY:
-.PHONY: all deps test check-run demo bench sanitize memcheck mutate lint format clean install
+.PHONY: all deps test check-run demo bench sanitize memcheck mutate lint format clean install \
+        fuzz fuzz-deps fuzz-run
 
 all: $(LIBA) $(OPWIN)
 
@@ -68,6 +69,9 @@ $(OPWIN): $(CLI_OBJ) $(LIBA)
 $(BUILD)/%.o: %.c
 	@mkdir -p $(dir $@)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -c -o $@ $<
+
+# Tests write under their own build folder.
+$(BUILD)/tests/%.o: CPPFLAGS += -DOW_TEST_OUT='"$(BUILD)/tests"'
 
 $(BUILD)/tests/%: $(BUILD)/tests/%.o $(SUP_OBJ) $(LIBA)
 	$(CC) $(LDFLAGS) -o $@ $< $(SUP_OBJ) $(LIBA) $(LDLIBS) $(TEST_LIBS)
@@ -101,6 +105,32 @@ sanitize: deps
 mutate: deps
 	@sh tests/mutate/run.sh $(if $(MUTATE_ALL),--all-tests,) $(MUTATE_TREE)
 
+# libFuzzer targets (tests/fuzz/) with ASan + UBSan, built with clang in
+# build-fuzz/; each runs FUZZ_S seconds from seeds taken from fixtures/,
+# tests/bad/, tests/data/ and demo/. A finding stops with its input saved
+# as build-fuzz/fuzz/crash-* (or leak-*, timeout-*).
+FUZZ_S   ?= 60
+FUZZERS  := study units csv
+
+fuzz-deps: deps
+	@command -v clang >/dev/null && [ -f /usr/lib/llvm-$$(clang -dumpversion | cut -d. -f1)/lib/libomp.so ] || { \
+	  echo "fuzz: installing clang"; apt-get update -qq && \
+	  DEBIAN_FRONTEND=noninteractive apt-get install -y -qq \
+	    --no-install-recommends clang libomp-dev >/dev/null; }
+
+fuzz: fuzz-deps
+	@$(MAKE) --no-print-directory BUILD=build-fuzz CC=clang OPT=-O1 WERROR= \
+	  SANFLAGS="-fsanitize=address,undefined -fno-omit-frame-pointer -fno-sanitize-recover=undefined" \
+	  fuzz-run
+
+$(BUILD)/fuzz/fuzz_%: tests/fuzz/fuzz_%.c $(LIBA)
+	@mkdir -p $(dir $@)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -fsanitize=fuzzer -o $@ $< $(LIBA) \
+	  $(LDFLAGS) -fsanitize=fuzzer $(LDLIBS)
+
+fuzz-run: $(FUZZERS:%=$(BUILD)/fuzz/fuzz_%)
+	@sh tests/fuzz/run.sh $(BUILD)/fuzz $(FUZZ_S) $(FUZZERS)
+
 # valgrind on the command line: no invalid access, no definite leak.
 VALGRIND := valgrind -q --leak-check=full --show-leak-kinds=definite \
             --errors-for-leak-kinds=definite \
@@ -121,7 +151,7 @@ format:
 	clang-format -i lib/*.c lib/*.h cli/*.c cli/*.h tests/*.c
 
 clean:
-	rm -rf build build-san lib/libopwin.a
+	rm -rf build build-san build-fuzz lib/libopwin.a
 
 install: all
 	install -d $(DESTDIR)$(PREFIX)/bin $(DESTDIR)$(PREFIX)/lib \

@@ -4,6 +4,7 @@
 #ifndef OW_CLI_H
 #define OW_CLI_H
 
+#include <signal.h>
 #include <stddef.h>
 #include <time.h>
 
@@ -76,7 +77,7 @@ int cli_load_study(const char *cmd, const char *path, struct ow_units **u,
 /* --grid NxM: 0, or -1 unless both are 2..1000. */
 int cli_parse_grid(const char *s, int *n, int *m);
 
-/* A YYYY-MM-DD date with a plausible month and day? */
+/* A YYYY-MM-DD date that exists in the Gregorian calendar (year 1..9999)? */
 int cli_valid_date(const char *s);
 
 /* Today as YYYY-MM-DD (UTC), or the day of SOURCE_DATE_EPOCH when set so
@@ -85,6 +86,26 @@ void cli_today(char *buf, size_t n);
 
 /* Make the output folder dir (one level) or say why not: CLI_OUTPUT. */
 int cli_make_dir(const char *cmd, const char *dir);
+
+/* A map folder written as a whole (outdir.c). */
+struct cli_outdir {
+	const char *dir;               /* where the folder goes */
+	char tmp[OW_PATH_LEN + 32];    /* the folder being written */
+	struct sigaction saved[3];     /* SIGINT, SIGTERM, SIGHUP before */
+};
+
+/* Before solving: can a map folder be written at dir (ow_mapdir.h,
+ * ow_mapdir_check_target)? CLI_OK, or CLI_OUTPUT after printing why. */
+int cli_outdir_check(const char *cmd, const char *dir);
+
+/* Make the sibling temporary folder o->tmp for dir and note SIGINT,
+ * SIGTERM and SIGHUP from now on. CLI_OK or CLI_OUTPUT. */
+int cli_outdir_begin(const char *cmd, struct cli_outdir *o, const char *dir);
+
+/* rc 0 and no signal noted: seal o->tmp and put it in place of o->dir.
+ * Otherwise (or when that fails) discard o->tmp. Restores the signal
+ * handling, then re-raises a noted signal. Returns rc, or CLI_OUTPUT. */
+int cli_outdir_finish(const char *cmd, struct cli_outdir *o, int rc);
 
 /* A progress bar on stderr for the sweep's callback. */
 struct cli_progress {

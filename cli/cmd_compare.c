@@ -265,7 +265,7 @@ static int write_text(const char *dir, const char *name, char *text,
 
 	if (st == OW_OK && text) {
 		snprintf(path, sizeof path, "%s/%s", dir, name);
-		st = ow_results_write_file(path, text, strlen(text), d);
+		st = ow_io_write_file(path, text, strlen(text), d);
 	}
 	free(text);
 	return st == OW_OK ? CLI_OK : cli_fail("compare", st, d);

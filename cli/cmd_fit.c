@@ -43,6 +43,8 @@ static void help(void)
 	       "standard output)\n"
 	       "  --into FILE    replace the viscosity block of an existing "
 	       "resin file\n"
+	       "                 (the rest of it kept as written; any other "
+	       "file is refused)\n"
 	       "  --plot FILE    draw data and fitted curves into a PNG\n"
 	       "  --units si|us  units for people (the resin block is always "
 	       "SI)\n"

@@ -34,7 +34,9 @@ static void help(void)
 	       "against the\nstudy's limits, extracts the recommended window "
 	       "and writes grid.csv,\nwindow.json, the maps and report.pdf "
 	       "into DIR (default: opwin-map).\n\n"
-	       "  -o DIR        output folder (created if missing)\n"
+	       "  -o DIR        output folder, written whole: a previous map "
+	       "folder there\n                is replaced once the new one "
+	       "is complete\n"
 	       "  --grid NxM    N speeds x M barrel values (default: the "
 	       "study's sweep)\n"
 	       "  --refine K    re-solve cells a boundary crosses, K levels "
@@ -55,7 +57,7 @@ static int write_text(const char *dir, const char *name, char *text,
 
 	if (st == OW_OK) {
 		snprintf(path, sizeof path, "%s/%s", dir, name);
-		st = ow_results_write_file(path, text, strlen(text), d);
+		st = ow_io_write_file(path, text, strlen(text), d);
 	}
 	free(text);
 	return st == OW_OK ? CLI_OK : cli_fail("map", st, d);
@@ -164,6 +166,23 @@ static int write_outputs(const struct ow_study *s, const struct ow_grid *g,
 	return rc;
 }
 
+/* The whole folder or nothing: the outputs go into a sibling temporary
+ * folder that replaces o->dir only once everything is written. */
+static int write_folder(const struct ow_study *s, const struct ow_grid *g,
+			const struct ow_window *w, struct map_opts *o)
+{
+	struct cli_outdir od;
+	const char *dir = o->dir;
+	int rc = cli_outdir_begin("map", &od, dir);
+
+	if (rc)
+		return cli_outdir_finish("map", &od, rc);
+	o->dir = od.tmp;
+	rc = write_outputs(s, g, w, o);
+	o->dir = dir;
+	return cli_outdir_finish("map", &od, rc);
+}
+
 static int sweep(const struct ow_study *s, struct map_opts *o)
 {
 	struct ow_sweep_config cfg;
@@ -191,7 +210,7 @@ static int sweep(const struct ow_study *s, struct map_opts *o)
 		rc = cli_fail("map", st, &d);
 		goto done;
 	}
-	rc = write_outputs(s, g, w, o);
+	rc = write_folder(s, g, w, o);
 	if (!rc && !o->c.quiet) {
 		print_window(s, g, w, o);
 		printf("written to %s/ (grid.csv, window.json, maps, "
@@ -251,7 +270,7 @@ int cmd_map(int argc, char **argv)
 		return rc;
 	rc = cli_render_current("map", u, &o.r, o.c.units);
 	if (!rc)
-		rc = cli_make_dir("map", o.dir);
+		rc = cli_outdir_check("map", o.dir);
 	if (!rc)
 		rc = sweep(s, &o);
 	free(s);

@@ -54,6 +54,28 @@ static void print_limit_lines(const struct ow_verdict *v)
 #define SHOW(dim, si) ow_display_value(o->c.units, dim, si), \
 		      ow_display_label(o->c.units, dim)
 
+/* A line for each zone that cannot hold its set-point. */
+static void print_zones(const struct ow_study *s, const struct ow_point *pt,
+			const struct point_opts *o)
+{
+	int i;
+
+	for (i = 0; i < s->line.n_zones; i++) {
+		const struct ow_zone *z = &s->line.zones[i];
+		double need = pt->zone_demand_W[i];
+
+		if (!(pt->zone_floating & (1u << i)))
+			continue;
+		printf("zone %-4d cannot hold set-point: needs %.2f %s of %s, "
+		       "has %.2f %s; runs at %.1f %s\n", i + 1,
+		       SHOW(OW_DIM_POWER, fabs(need)),
+		       need < 0.0 ? "cooling" : "heating",
+		       SHOW(OW_DIM_POWER,
+			    need < 0.0 ? z->cooling_W : z->heating_W),
+		       SHOW(OW_DIM_TEMPERATURE, pt->zone_control_K[i]));
+	}
+}
+
 static void print_note(const struct ow_study *s, const struct ow_point *pt,
 		       const struct ow_verdict *v,
 		       const struct point_opts *o)
@@ -92,6 +114,7 @@ static void print_note(const struct ow_study *s, const struct ow_point *pt,
 		       100.0 * pt->output_kg_s / pt->feed_capacity_kg_s);
 	printf("barrel    %+.2f %s net into the resin (negative: cooling)\n",
 	       SHOW(OW_DIM_POWER, pt->barrel_heat_W));
+	print_zones(s, pt, o);
 	print_limit_lines(v);
 	if (pt->flags & OW_FLAG_NOT_CONVERGED)
 		printf("note      the screw-die match did not converge: "
@@ -110,7 +133,7 @@ static int write_profile(const struct ow_study *s, const struct ow_solver *sv,
 	rows = ow_solver_profile(sv, &n);
 	st = ow_results_profile_csv(s, rows, n, &csv, &d);
 	if (st == OW_OK)
-		st = ow_results_write_file(path, csv, strlen(csv), &d);
+		st = ow_io_write_file(path, csv, strlen(csv), &d);
 	free(csv);
 	return st == OW_OK ? CLI_OK : cli_fail("point", st, &d);
 }

@@ -21,8 +21,11 @@ static void help(void)
 	       "any point.\n\n"
 	       "  --units U          si (default) or us: units people read\n"
 	       CLI_RENDER_HELP
-	       "exit codes: 0 ok, 1 DIR missing or not a map folder, 2 "
-	       "usage,\n            4 output could not be written\n");
+	       "DIR must be whole as `opwin map` wrote it (its manifest.json "
+	       "lists every\nfile's size and checksum); it is replaced whole "
+	       "once the drawings are done.\n\n"
+	       "exit codes: 0 ok, 1 DIR missing, not a map folder or changed "
+	       "since, 2 usage,\n            4 output could not be written\n");
 }
 
 static int parse(int argc, char **argv, struct cli_common *c,
@@ -53,6 +56,26 @@ static int parse(int argc, char **argv, struct cli_common *c,
 	return CLI_OK;
 }
 
+/* The drawings are made in a copy of the folder's data that then
+ * replaces the folder whole, so an interrupted report leaves it as it was
+ * and its manifest always matches. */
+static int render_folder(const struct ow_study *s, const struct ow_grid *g,
+			 const struct ow_window *w, const struct cli_render *r,
+			 const char *dir)
+{
+	struct cli_outdir od;
+	struct ow_diag d = {{0}};
+	enum ow_status st;
+	int rc = cli_outdir_begin("report", &od, dir);
+
+	if (!rc) {
+		st = ow_mapdir_copy_data(dir, od.tmp, &d);
+		rc = st == OW_OK ? cli_render("report", s, g, w, r, od.tmp)
+				 : cli_fail("report", st, &d);
+	}
+	return cli_outdir_finish("report", &od, rc);
+}
+
 static int redraw(const struct ow_units *u, const char *dir,
 		  const struct cli_common *c, struct cli_render *r)
 {
@@ -66,6 +89,8 @@ static int redraw(const struct ow_units *u, const char *dir,
 
 	memset(&centre, 0, sizeof centre);
 	if (st == OW_OK)
+		st = ow_mapdir_verify(dir, &d);
+	if (st == OW_OK)
 		st = ow_mapdir_load(u, dir, s, &g, &centre, &d);
 	if (st == OW_OK)
 		st = ow_window_extract(s, g, &w, &d);
@@ -77,7 +102,7 @@ static int redraw(const struct ow_units *u, const char *dir,
 	rc = st != OW_OK ? cli_fail("report", st, &d)
 			 : cli_render_current("report", u, r, c->units);
 	if (!rc)
-		rc = cli_render("report", s, g, w, r, dir);
+		rc = render_folder(s, g, w, r, dir);
 	if (!rc && !c->quiet)
 		printf("written to %s/ (maps, report.pdf)\n", dir);
 	ow_window_destroy(w);

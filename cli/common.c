@@ -112,13 +112,29 @@ int cli_parse_grid(const char *s, int *n, int *m)
 	return 0;
 }
 
+/* Days in month m of year y, Gregorian calendar: a leap year is divisible
+ * by 4, except centuries not divisible by 400 (ISO 8601:2004, 3.2.1). */
+static int month_days(int y, int m)
+{
+	static const int days[12] = {31, 28, 31, 30, 31, 30,
+				     31, 31, 30, 31, 30, 31};
+	int leap = (y % 4 == 0 && y % 100 != 0) || y % 400 == 0;
+
+	return days[m - 1] + (m == 2 && leap);
+}
+
 int cli_valid_date(const char *s)
 {
-	int y, m, d, n = 0;
+	int y, m, d, n = 0, i;
 
-	return strlen(s) == 10 &&
+	for (i = 0; i < 10; i++) /* digits and dashes only: no signs, spaces */
+		if (!s[i] || (i == 4 || i == 7 ? s[i] != '-'
+					       : s[i] < '0' || s[i] > '9'))
+			return 0;
+	return !s[10] &&
 	       sscanf(s, "%4d-%2d-%2d%n", &y, &m, &d, &n) == 3 && n == 10 &&
-	       m >= 1 && m <= 12 && d >= 1 && d <= 31;
+	       y >= 1 && m >= 1 && m <= 12 && d >= 1 &&
+	       d <= month_days(y, m);
 }
 
 void cli_today(char *buf, size_t n)

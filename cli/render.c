@@ -33,6 +33,11 @@ void cli_render_init(struct cli_render *r)
 int cli_render_option(const char *cmd, struct cli_render *r, int id,
 		      const char *arg)
 {
+	size_t n = arg ? strlen(arg) : 0;
+
+	if (arg && ow_io_utf8_check(arg, n) != n && strchr("pRPADC", id))
+		return cli_usage_error(cmd, "an option's text is not UTF-8: "
+					    "it would be printed in the report");
 	switch (id) {
 	case 'p':
 		if (ow_report_paper_parse(arg, &r->rep.paper))

@@ -113,10 +113,30 @@ static void check_ratios(const struct ow_screw *s, struct sink *k)
 	}
 }
 
+/* A mixer whose file does not give its lands runs on the default. */
+static void check_lands(const struct ow_screw *s, struct sink *k)
+{
+	char t[200];
+	int i;
+
+	for (i = 0; i < s->n_sections; i++) {
+		const struct ow_section *sec = &s->sections[i];
+
+		if (sec->type != OW_SEC_MIXER || sec->lands_given)
+			continue;
+		snprintf(t, sizeof t,
+			 "sections[%d] (mixer) does not give its lands: %d "
+			 "taken (one barrier land per 25 mm of barrel "
+			 "circumference, common practice)", i, sec->lands);
+		add(k, "mixer_lands", t);
+	}
+}
+
 int ow_advise_screw(const struct ow_screw *s, struct ow_warning *out, int max)
 {
 	struct sink k = {out, 0, max};
 
+	check_lands(s, &k);
 	check_compression(s, &k);
 	check_clearance(s, &k);
 	check_ratios(s, &k);

@@ -11,6 +11,7 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "ow_io.h"
 #include "ow_results.h"
 
 #define OW_PI 3.14159265358979323846
@@ -166,7 +167,7 @@ enum ow_status ow_canvas_write_file(struct ow_canvas *cv, const char *path,
 		return ow_diag_set(d, OW_EARG, "canvas: no file name");
 	st = ow_canvas_encode(cv, &b, &n, d);
 	if (st == OW_OK)
-		st = ow_results_write_file(path, (const char *)b, n, d);
+		st = ow_io_write_file(path, (const char *)b, n, d);
 	free(b);
 	return st;
 }

@@ -44,6 +44,7 @@ double ow_check_limit(const struct ow_limits *l, enum ow_check c)
 	case OW_CK_MIN_OUTPUT: return l->min_output_kg_s;
 	case OW_CK_MAX_OUTPUT: return l->max_output_kg_s;
 	case OW_CK_MAX_SBR: return l->max_sbr;
+	case OW_CK_ZONE_CONTROL: return l->zone_load;
 	default: return NAN;
 	}
 }
@@ -95,6 +96,8 @@ static double margin_of(const struct ow_point *pt, enum ow_check c,
 		return rel(lim, pt->output_kg_s, 1);
 	case OW_CK_MAX_SBR:
 		return rel(lim, pt->max_sbr, 1);
+	case OW_CK_ZONE_CONTROL: /* share of a zone's power needed */
+		return rel(lim, pt->zone_load, 1);
 	default:
 		return NAN;
 	}
@@ -120,6 +123,8 @@ void ow_classify(const struct ow_point *pt, const struct ow_limits *lim,
 		v->bits |= 1u << OW_CK_PLUGGING;
 	if (pt->flags & OW_FLAG_FEED_LIMITED)
 		v->bits |= 1u << OW_CK_FEED;
+	if (pt->flags & OW_FLAG_PARTIAL_FILL)
+		v->bits |= 1u << OW_CK_PARTIAL_FILL;
 	if (pt->flags & OW_FLAG_NOT_CONVERGED)
 		v->bits |= 1u << OW_CK_NOCONV;
 }

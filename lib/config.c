@@ -95,6 +95,25 @@ static enum ow_status parse_barrier(const struct ow_jin *j, const cJSON *o,
 	return st;
 }
 
+/* A mixer's barrier lands: a whole number 2..64, plain or as
+ * {"value", "source"} like every value. */
+static enum ow_status parse_lands(const struct ow_jin *j, const cJSON *o,
+				  const char *path, struct ow_section *s)
+{
+	char p[OW_JPATH_LEN];
+	double n = 0.0;
+	enum ow_status st = ow_jin_qty(j, o, path, "lands", OW_DIM_NONE, 0, &n);
+
+	if (st != OW_OK || !ow_jin_get(o, "lands"))
+		return st;
+	if (!(n == floor(n) && n >= 2.0 && n <= 64.0))
+		return ow_jin_fail(j, ow_jin_key(p, path, "lands"),
+				   "expected a whole number of barrier lands "
+				   "2..64, got %g", n);
+	s->lands = (int)n;
+	return OW_OK;
+}
+
 static enum ow_status parse_section(const struct ow_jin *j, const cJSON *o,
 				    const char *path, struct ow_section *s)
 {
@@ -118,9 +137,8 @@ static enum ow_status parse_section(const struct ow_jin *j, const cJSON *o,
 	if (s->type == OW_SEC_MIXER) {
 		st = ow_jin_qty(j, o, path, "gap", OW_DIM_LENGTH, req,
 				&s->gap_m);
-		if (st == OW_OK) /* optional: 0 keeps the solver's default */
-			st = ow_jin_int(j, o, path, "lands", 2, 64, 0,
-					&s->lands);
+		if (st == OW_OK) /* optional: 0 takes the screw's default */
+			st = parse_lands(j, o, path, s);
 		return st;
 	}
 	return ow_jin_qty(j, o, path, "depth", OW_DIM_LENGTH, req,
@@ -306,6 +324,32 @@ static enum ow_status parse_shift(const struct ow_jin *j, const cJSON *o,
 	return st;
 }
 
+/* A power-law consistency is in Pa s^n: a power of s written in its unit
+ * must be the index, else the unit says another model than the one fitted
+ * ("8000 Pa s^7" with n = 0.45). Tolerance: the index written to three
+ * decimals. */
+static enum ow_status check_consistency_power(const struct ow_jin *j,
+					      const cJSON *vo, const char *path,
+					      const struct ow_viscosity *v)
+{
+	const cJSON *c = ow_jin_get(vo, "consistency");
+	char p[OW_JPATH_LEN];
+	double power;
+
+	if (cJSON_IsObject(c))
+		c = ow_jin_get(c, "value");
+	if (ow_viscosity_validate(v, "", NULL) != OW_OK) /* said later */
+		return OW_OK;
+	if (!cJSON_IsString(c) ||
+	    !ow_units_consistency_power(c->valuestring, &power) ||
+	    fabs(power - v->index) <= 5e-4)
+		return OW_OK;
+	return ow_jin_fail(j, ow_jin_key(p, path, "consistency"),
+			   "\"%s\": the power of s (%g) is not the index "
+			   "(%g); write Pa s^n or Pa s^%g",
+			   c->valuestring, power, v->index, v->index);
+}
+
 static enum ow_status parse_viscosity(const struct ow_jin *j,
 				      const cJSON *o, const char *path,
 				      struct ow_viscosity *v)
@@ -346,18 +390,29 @@ static enum ow_status parse_viscosity(const struct ow_jin *j,
 			st = ow_jin_qty(j, vo, p, f[i].key, f[i].dim,
 					OW_JIN_REQUIRED, f[i].out);
 	}
-	return st == OW_OK ? parse_shift(j, vo, p, v) : st;
+	if (st == OW_OK)
+		st = parse_shift(j, vo, p, v);
+	if (st == OW_OK && v->model == OW_VISC_POWER_LAW)
+		st = check_consistency_power(j, vo, p, v);
+	return st;
+}
+
+static const char *const resin_keys[] = {
+	"notes", "name", "solid_density", "bulk_density",
+	"melt_density", "solid_heat_capacity", "melt_heat_capacity",
+	"solid_conductivity", "melt_conductivity", "melting_point",
+	"heat_of_fusion", "friction_barrel", "friction_screw",
+	"viscosity", NULL};
+
+const char *const *ow_config_resin_keys(void)
+{
+	return resin_keys;
 }
 
 static enum ow_status parse_resin(const struct ow_jin *j, const cJSON *o,
 				  const char *path, void *out)
 {
-	static const char *const keys[] = {
-		"notes", "name", "solid_density", "bulk_density",
-		"melt_density", "solid_heat_capacity", "melt_heat_capacity",
-		"solid_conductivity", "melt_conductivity", "melting_point",
-		"heat_of_fusion", "friction_barrel", "friction_screw",
-		"viscosity", NULL};
+	const char *const *keys = resin_keys;
 	struct ow_material *m = out;
 	const struct qty_field f[] = {
 		{"solid_density", OW_DIM_DENSITY, &m->solid_density_kg_m3},
@@ -410,11 +465,21 @@ static enum ow_status parse_feed(const struct ow_jin *j, const cJSON *o,
 	return st;
 }
 
+/* One zone: where it ends, its set-point and (optional, defaults from
+ * ow_line_zone_defaults) its control: heating and cooling power and the
+ * wall's heat-transfer coefficient. */
 static enum ow_status zone_one(const struct ow_jin *j, const cJSON *o,
 			       const char *path, void *out)
 {
-	static const char *const keys[] = {"to", "set", NULL};
+	static const char *const keys[] = {"to", "set", "heating_power",
+					   "cooling_power", "heat_transfer",
+					   NULL};
 	struct ow_zone *z = out;
+	const struct qty_field f[] = {
+		{"heating_power", OW_DIM_POWER, &z->heating_W},
+		{"cooling_power", OW_DIM_POWER, &z->cooling_W},
+		{"heat_transfer", OW_DIM_HEAT_TRANSFER, &z->wall_h_W_m2K},
+	};
 	enum ow_status st = ow_jin_object(j, o, path);
 
 	if (st == OW_OK)
@@ -425,6 +490,9 @@ static enum ow_status zone_one(const struct ow_jin *j, const cJSON *o,
 	if (st == OW_OK)
 		st = ow_jin_qty(j, o, path, "set", OW_DIM_TEMPERATURE,
 				OW_JIN_REQUIRED, &z->set_K);
+	if (st == OW_OK)
+		st = get_fields(j, o, path, f, sizeof f / sizeof f[0],
+				OW_JIN_OPTIONAL);
 	return st;
 }
 
@@ -441,7 +509,8 @@ static int starts_numeric(const char *t)
 static enum ow_status parse_barrel(const struct ow_jin *j, const cJSON *o,
 				   struct ow_line *l)
 {
-	static const char *const keys[] = {"zones", "screw_root", NULL};
+	static const char *const keys[] = {"zones", "screw_root",
+					   "heat_transfer_factor", NULL};
 	char p[OW_JPATH_LEN], q[OW_JPATH_LEN];
 	const cJSON *b, *root;
 	enum ow_status st = get_object(j, o, "", "barrel", keys, 1, &b, p);
@@ -450,6 +519,11 @@ static enum ow_status parse_barrel(const struct ow_jin *j, const cJSON *o,
 		st = get_list(j, b, p, "zones", 1, OW_MAX_ZONES,
 			      OW_JIN_REQUIRED, l->zones, sizeof l->zones[0],
 			      &l->n_zones, zone_one);
+	if (st == OW_OK)
+		st = ow_jin_qty(j, b, p, "heat_transfer_factor", OW_DIM_NONE,
+				OW_JIN_OPTIONAL, &l->heat_transfer_factor);
+	if (st == OW_OK)
+		ow_line_zone_defaults(l, j->diameter_m);
 	if (st != OW_OK || !(root = ow_jin_get(b, "screw_root")))
 		return st;
 	if (cJSON_IsString(root) && !strcmp(root->valuestring, "adiabatic")) {
@@ -538,12 +612,30 @@ static enum ow_status parse_screen(const struct ow_jin *j, const cJSON *o,
 			  OW_JIN_REQUIRED, &l->screen_pressure_Pa);
 }
 
+/* limits.zone_control: true (every zone must hold its set-point: the
+ * default), false (off), or the largest share of a zone's heating or
+ * cooling power a point may need ("90 %"). */
+static enum ow_status parse_zone_control(const struct ow_jin *j,
+					 const cJSON *s, const char *path,
+					 struct ow_limits *m)
+{
+	const cJSON *v = ow_jin_get(s, "zone_control");
+
+	if (v && cJSON_IsBool(v)) {
+		m->zone_load = cJSON_IsTrue(v) ? 1.0 : NAN;
+		return OW_OK;
+	}
+	return ow_jin_qty(j, s, path, "zone_control", OW_DIM_NONE,
+			  OW_JIN_OPTIONAL, &m->zone_load);
+}
+
 static enum ow_status parse_limits(const struct ow_jin *j, const cJSON *o,
 				   struct ow_limits *m)
 {
 	static const char *const keys[] = {
 		"peak_temp", "unmelt", "pressure", "power", "torque",
-		"min_melt_temp", "min_output", "max_output", "max_sbr", NULL};
+		"min_melt_temp", "min_output", "max_output", "max_sbr",
+		"zone_control", NULL};
 	const struct qty_field f[] = {
 		{"peak_temp", OW_DIM_TEMPERATURE, &m->peak_temp_K},
 		{"unmelt", OW_DIM_NONE, &m->unmelt_frac},
@@ -561,8 +653,8 @@ static enum ow_status parse_limits(const struct ow_jin *j, const cJSON *o,
 
 	if (st != OW_OK || !s)
 		return st;
-	return get_fields(j, s, p, f, sizeof f / sizeof f[0],
-			  OW_JIN_OPTIONAL);
+	st = get_fields(j, s, p, f, sizeof f / sizeof f[0], OW_JIN_OPTIONAL);
+	return st == OW_OK ? parse_zone_control(j, s, p, m) : st;
 }
 
 static enum ow_status parse_rpm_axis(const struct ow_jin *j,

@@ -1,5 +1,6 @@
 /* csv.c - numeric comma-separated tables with a header line. */
 #include "ow_csv.h"
+#include "ow_io.h"
 
 #include <errno.h>
 #include <math.h>
@@ -7,8 +8,9 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define CSV_MAX_BYTES (64L * 1024 * 1024) /* a lab table is far smaller */
-#define CSV_MAX_COLS 64
+#define CSV_MAX_BYTES ((size_t)64 * 1024 * 1024) /* a lab table is far smaller */
+#define CSV_MAX_COLS 1024 /* a guard against a runaway line, not a limit */
+#define CSV_MAX_CELL 256  /* bytes: a number written out in full is shorter */
 
 /* One line of the text: [start, end) without its line break. */
 struct span {
@@ -100,11 +102,24 @@ static enum ow_status read_header(struct ow_csv *c, struct span line,
 	c->n_cols = n;
 	c->header_line = lineno;
 	for (i = 0; i < n; i++) {
+		if (memchr(cells[i].start, '\0',
+			   (size_t)(cells[i].end - cells[i].start)))
+			return ow_diag_set(d, OW_EINPUT,
+					   "%s: line %d, column %d: a NUL byte "
+					   "in the column name", c->name,
+					   lineno, i + 1);
 		if (cells[i].start == cells[i].end)
 			return ow_diag_set(d, OW_EINPUT,
 					   "%s: line %d, column %d: empty "
 					   "column name in the header",
 					   c->name, lineno, i + 1);
+		if (ow_io_utf8_check(cells[i].start,
+				     (size_t)(cells[i].end - cells[i].start)) !=
+		    (size_t)(cells[i].end - cells[i].start))
+			return ow_diag_set(d, OW_EINPUT,
+					   "%s: line %d, column %d: the column "
+					   "name is not UTF-8 text", c->name,
+					   lineno, i + 1);
 		c->cols[i] = dup_span(cells[i]);
 		if (!c->cols[i])
 			return ow_diag_set(d, OW_ENOMEM, "%s: out of memory",
@@ -118,7 +133,7 @@ static enum ow_status read_number(const struct ow_csv *c, struct span s,
 				  int lineno, int col, double *x,
 				  struct ow_diag *d)
 {
-	char buf[64], *end;
+	char buf[CSV_MAX_CELL + 1], *end;
 	size_t len = (size_t)(s.end - s.start);
 
 	if (len == 0)
@@ -126,8 +141,17 @@ static enum ow_status read_number(const struct ow_csv *c, struct span s,
 				   "%s: line %d, column %d (%s): empty cell: "
 				   "expected a number", c->name, lineno,
 				   col + 1, c->cols[col]);
-	if (len >= sizeof buf)
-		len = sizeof buf - 1;
+	if (memchr(s.start, '\0', len))
+		return ow_diag_set(d, OW_EINPUT,
+				   "%s: line %d, column %d (%s): a NUL byte in "
+				   "the cell: expected a number", c->name,
+				   lineno, col + 1, c->cols[col]);
+	if (len > CSV_MAX_CELL) /* never cut: a cut number is another one */
+		return ow_diag_set(d, OW_EINPUT,
+				   "%s: line %d, column %d (%s): a cell of %zu "
+				   "bytes: a number is at most %d", c->name,
+				   lineno, col + 1, c->cols[col], len,
+				   CSV_MAX_CELL);
 	memcpy(buf, s.start, len);
 	buf[len] = '\0';
 	errno = 0;
@@ -243,39 +267,19 @@ fail:
 enum ow_status ow_csv_read(const char *path, struct ow_csv **out,
 			   struct ow_diag *d)
 {
-	FILE *f = fopen(path, "rb");
 	char *buf = NULL;
-	long size;
-	enum ow_status st = OW_EINPUT;
+	size_t len = 0;
+	enum ow_status st;
 
 	*out = NULL;
-	if (!f)
-		return ow_diag_set(d, OW_EINPUT, "%s: cannot be read: %s",
-				   path, strerror(errno));
-	if (fseek(f, 0, SEEK_END) != 0 || (size = ftell(f)) < 0 ||
-	    fseek(f, 0, SEEK_SET) != 0) {
-		ow_diag_set(d, OW_EINPUT, "%s: cannot be read: %s", path,
-			    strerror(errno));
-		goto fail;
-	}
-	if (size > CSV_MAX_BYTES) {
-		ow_diag_set(d, OW_EINPUT, "%s: %ld bytes is too large for a "
-			    "data table", path, size);
-		goto fail;
-	}
-	buf = malloc((size_t)size + 1);
-	if (!buf) {
-		st = ow_diag_set(d, OW_ENOMEM, "%s: out of memory", path);
-		goto fail;
-	}
-	if (fread(buf, 1, (size_t)size, f) != (size_t)size) {
-		ow_diag_set(d, OW_EINPUT, "%s: cannot be read", path);
-		goto fail;
-	}
-	st = ow_csv_parse(buf, (size_t)size, path, out, d);
-fail:
+	len = strlen(path);
+	if (ow_io_utf8_check(path, len) != len) /* it is copied into outputs */
+		return ow_diag_set(d, OW_EINPUT, "%s: the file name is not "
+				   "UTF-8 text: rename the file", path);
+	st = ow_io_read_file(path, CSV_MAX_BYTES, &buf, &len, d);
+	if (st == OW_OK)
+		st = ow_csv_parse(buf, len, path, out, d);
 	free(buf);
-	fclose(f);
 	return st;
 }
 

@@ -9,9 +9,11 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "ow_config.h"
+#include "ow_io.h"
 #include "ow_results.h"
 
-#define MAX_RESIN_BYTES (16L * 1024 * 1024)
+#define MAX_RESIN_BYTES ((size_t)16 * 1024 * 1024)
 
 /* Six significant digits: far finer than any fit's standard error, and
  * readable in a file people edit. */
@@ -134,7 +136,7 @@ enum ow_status ow_fit_write_block(const struct ow_viscosity *v,
 	enum ow_status st = ow_fit_block_text(v, notes, &text, d);
 
 	if (st == OW_OK)
-		st = ow_results_write_file(path, text, strlen(text), d);
+		st = ow_io_write_file(path, text, strlen(text), d);
 	free(text);
 	return st;
 }
@@ -142,27 +144,7 @@ enum ow_status ow_fit_write_block(const struct ow_viscosity *v,
 /* The whole file as a NUL-terminated string, or an input rejection. */
 static enum ow_status slurp(const char *path, char **out, struct ow_diag *d)
 {
-	FILE *f = fopen(path, "rb");
-	long size = -1;
-	char *buf = NULL;
-
-	*out = NULL;
-	if (!f)
-		return ow_diag_set(d, OW_EINPUT, "%s: cannot be read: %s",
-				   path, strerror(errno));
-	if (fseek(f, 0, SEEK_END) == 0)
-		size = ftell(f);
-	if (size >= 0 && size <= MAX_RESIN_BYTES && fseek(f, 0, SEEK_SET) == 0)
-		buf = malloc((size_t)size + 1);
-	if (buf && fread(buf, 1, (size_t)size, f) == (size_t)size) {
-		buf[size] = '\0';
-		*out = buf;
-	} else {
-		free(buf);
-	}
-	fclose(f);
-	return *out ? OW_OK
-		    : ow_diag_set(d, OW_EINPUT, "%s: cannot be read", path);
+	return ow_io_read_file(path, MAX_RESIN_BYTES, out, NULL, d);
 }
 
 /* Line of byte offset pos, for the parse error message. */
@@ -175,30 +157,171 @@ static int line_of(const char *text, const char *pos)
 	return line;
 }
 
+/* A resin file: one JSON object (nothing after it) whose keys are all
+ * keys of a resin, so that a study, a screw or a fit block is never
+ * rewritten as if it were one. */
 static enum ow_status parse_resin(const char *path, const char *text,
 				  cJSON **root, struct ow_diag *d)
 {
+	const char *const *keys = ow_config_resin_keys();
 	const char *end = NULL;
+	const cJSON *e;
+	size_t k;
 
-	*root = cJSON_ParseWithOpts(text, &end, 0);
+	*root = cJSON_ParseWithOpts(text, &end, 1);
 	if (!*root)
 		return ow_diag_set(d, OW_EINPUT,
 				   "%s: line %d: not valid JSON", path,
 				   line_of(text, end ? end : text));
-	if (!cJSON_IsObject(*root)) {
-		cJSON_Delete(*root);
-		*root = NULL;
-		return ow_diag_set(d, OW_EINPUT, "%s: a resin file must hold "
-				   "one JSON object", path);
+	if (!cJSON_IsObject(*root))
+		goto not_resin;
+	cJSON_ArrayForEach(e, *root)
+	{
+		for (k = 0; keys[k] && strcmp(keys[k], e->string); k++)
+			;
+		if (!keys[k]) {
+			ow_diag_set(d, OW_EINPUT, "%s: key \"%.40s\" is not a key "
+				    "of a resin file: --into replaces the "
+				    "viscosity block of a resin file only",
+				    path, e->string);
+			cJSON_Delete(*root);
+			*root = NULL;
+			return OW_EINPUT;
+		}
 	}
-	return OW_OK;
+	if (cJSON_GetObjectItemCaseSensitive(*root, "name"))
+		return OW_OK;
+not_resin:
+	cJSON_Delete(*root);
+	*root = NULL;
+	return ow_diag_set(d, OW_EINPUT, "%s: not a resin file (a resin "
+			   "file holds one JSON object with its \"name\" "
+			   "and properties)", path);
+}
+
+/* ---- keeping the file's layout ---------------------------------------- */
+
+static const char *skip_ws(const char *p)
+{
+	while (*p == ' ' || *p == '\t' || *p == '\n' || *p == '\r')
+		p++;
+	return p;
+}
+
+/* End of the JSON value at p (the text is known to be valid JSON). */
+static const char *skip_value(const char *p)
+{
+	int depth = 0;
+
+	do {
+		if (*p == '"') {
+			for (p++; *p && *p != '"'; p++)
+				if (*p == '\\' && p[1])
+					p++;
+			p++;
+		} else if (*p == '{' || *p == '[') {
+			depth++;
+			p++;
+		} else if (*p == '}' || *p == ']') {
+			depth--;
+			p++;
+		} else if (depth == 0) {
+			while (*p && !strchr(",}] \t\r\n", *p))
+				p++;
+		} else {
+			p++;
+		}
+	} while (depth > 0 && *p);
+	return p;
+}
+
+/* Where the top-level member "viscosity" of the object text is: its value
+ * [*vb, *ve), its key at *key (*vb = NULL when there is none); *last is
+ * the end of the object's last value (the object's "{" + 1 when empty). */
+static void find_member(const char *text, const char **key, const char **vb,
+			const char **ve, const char **last)
+{
+	const char *p = skip_ws(text) + 1; /* after "{" */
+
+	*key = *vb = *ve = NULL;
+	*last = p;
+	for (p = skip_ws(p); *p == '"'; p = skip_ws(p + 1)) {
+		const char *k = p, *v;
+
+		p = skip_value(p);
+		v = skip_ws(skip_ws(p) + 1); /* after ":" */
+		p = skip_value(v);
+		*last = p;
+		if (p - v > 0 && !strncmp(k, "\"viscosity\"", 11)) {
+			*key = k;
+			*vb = v;
+			*ve = p;
+		}
+		p = skip_ws(p);
+		if (*p != ',')
+			break;
+	}
+}
+
+/* The block printed by cJSON (tab per level, tab after ':') re-indented with unit, each
+ * line after the first starting with the key's own indent. */
+static void add_indented(struct ow_buf *b, const char *block,
+			 const char *indent, size_t ilen, const char *unit)
+{
+	for (; *block; block++) {
+		if (block[0] == ':' && block[1] == '\t') {
+			ow_buf_adds(b, ": "); /* cJSON puts a tab after ':' */
+			block++;
+			continue;
+		}
+		ow_buf_add(b, block, 1);
+		if (*block != '\n')
+			continue;
+		ow_buf_add(b, indent, ilen);
+		for (; block[1] == '\t'; block++)
+			ow_buf_adds(b, unit);
+	}
+}
+
+/* The resin text with its viscosity block replaced (or added last) and
+ * every other byte as the user wrote it; NULL when out of memory. */
+static char *splice(const char *text, const cJSON *o)
+{
+	const char *key, *vb, *ve, *last, *ls, *ind;
+	char *block = cJSON_Print(o), *out = NULL, unit[16];
+	struct ow_buf b = {0};
+	size_t ilen;
+
+	if (!block)
+		return NULL;
+	find_member(text, &key, &vb, &ve, &last);
+	ls = key ? key : last;
+	while (ls > text && ls[-1] != '\n')
+		ls--;
+	for (ilen = 0; ls[ilen] == ' ' || ls[ilen] == '\t'; ilen++)
+		;
+	ind = ilen ? ls : "  "; /* one level: the members' own indent */
+	ilen = ilen ? ilen : 2;
+	snprintf(unit, sizeof unit, "%.*s", ilen < sizeof unit ? (int)ilen : 2,
+		 ind);
+	ow_buf_add(&b, text, (size_t)((vb ? vb : last) - text));
+	if (!vb) {
+		ow_buf_adds(&b, last > skip_ws(text) + 1 ? ",\n" : "\n");
+		ow_buf_add(&b, ind, ilen);
+		ow_buf_adds(&b, "\"viscosity\": ");
+	}
+	add_indented(&b, block, ind, ilen, unit);
+	ow_buf_adds(&b, vb ? ve : last);
+	ow_buf_take(&b, &out, NULL, NULL);
+	free(block);
+	return out;
 }
 
 enum ow_status ow_fit_merge_into(const struct ow_viscosity *v,
 				 const char *path, struct ow_diag *d)
 {
 	char *text = NULL, *out = NULL;
-	cJSON *root = NULL, *o = NULL;
+	cJSON *root = NULL, *o = NULL, *back = NULL;
 	enum ow_status st = slurp(path, &text, d);
 
 	if (st == OW_OK)
@@ -206,23 +329,28 @@ enum ow_status ow_fit_merge_into(const struct ow_viscosity *v,
 	if (st != OW_OK)
 		goto fail;
 	o = visc_object(v);
-	if (!o) {
+	out = o ? splice(text, o) : NULL;
+	if (!out) {
 		st = ow_diag_set(d, OW_ENOMEM, "out of memory");
 		goto fail;
 	}
-	/* replace in place so the file keeps its key order */
-	if (cJSON_GetObjectItemCaseSensitive(root, "viscosity")
-		    ? !cJSON_ReplaceItemInObjectCaseSensitive(root, "viscosity",
-							      o)
-		    : !cJSON_AddItemToObject(root, "viscosity", o)) {
-		cJSON_Delete(o);
-		st = ow_diag_set(d, OW_ENOMEM, "out of memory");
+	/* the spliced text must read back as the file with the new block */
+	back = cJSON_Parse(out);
+	if (!cJSON_Compare(cJSON_GetObjectItemCaseSensitive(back, "viscosity"),
+			   o, 1) ||
+	    cJSON_GetArraySize(back) !=
+		    cJSON_GetArraySize(root) +
+			    !cJSON_GetObjectItemCaseSensitive(root,
+							      "viscosity")) {
+		st = ow_diag_set(d, OW_ECOMPUTE, "%s: the viscosity block "
+				 "could not be placed in the file's own "
+				 "layout; the file was left as it was", path);
 		goto fail;
 	}
-	st = print_json(root, &out, d);
-	if (st == OW_OK)
-		st = ow_results_write_file(path, out, strlen(out), d);
+	st = ow_io_write_file(path, out, strlen(out), d);
 fail:
+	cJSON_Delete(back);
+	cJSON_Delete(o);
 	cJSON_Delete(root);
 	free(text);
 	free(out);

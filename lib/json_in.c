@@ -1,6 +1,7 @@
 /* json_in.c - one JSON input file: reading, parsing with line:column
  * messages, strict key sets and typed getters (see json_in.h). */
 #include "json_in.h"
+#include "ow_io.h"
 
 #include <errno.h>
 #include <math.h>
@@ -35,63 +36,9 @@ const char *ow_jin_index(char *out, const char *parent, int i)
 	return out;
 }
 
-/* Bitwise CRC-32 of ISO 3309 / IEEE 802.3 (reflected polynomial
- * 0xEDB88320, initial value and final xor 0xFFFFFFFF); check value
- * CRC("123456789") = 0xCBF43926 (Williams, "A painless guide to CRC error
- * detection algorithms", 1993, ch. 17). Inverting on entry and exit makes
- * the function continuable: crc(a || b) = crc32(crc32(0, a), b). */
 unsigned long ow_jin_crc32(unsigned long crc, const void *p, size_t n)
 {
-	const unsigned char *b = p;
-	int k;
-
-	crc = ~crc & 0xFFFFFFFFUL;
-	while (n--) {
-		crc ^= *b++;
-		for (k = 0; k < 8; k++) /* mask is all ones when bit 0 is set */
-			crc = (crc >> 1) ^ (0xEDB88320UL & (0UL - (crc & 1UL)));
-	}
-	return ~crc & 0xFFFFFFFFUL;
-}
-
-/* Whole file into a NUL-terminated buffer; 0 or an errno value. */
-static int slurp(const char *path, char **buf, size_t *len)
-{
-	FILE *f = fopen(path, "rb");
-	size_t cap = 4096, n = 0, got;
-	char *b, *nb;
-	int err = 0;
-
-	if (!f)
-		return errno ? errno : ENOENT;
-	if (!(b = malloc(cap))) {
-		err = ENOMEM;
-		goto fail;
-	}
-	while ((got = fread(b + n, 1, cap - 1 - n, f)) > 0) {
-		n += got;
-		if (n + 1 < cap)
-			continue;
-		if (cap > MAX_FILE_BYTES || !(nb = realloc(b, 2 * cap))) {
-			err = cap > MAX_FILE_BYTES ? EFBIG : ENOMEM;
-			goto fail;
-		}
-		b = nb;
-		cap *= 2;
-	}
-	if (ferror(f)) {
-		err = errno ? errno : EIO;
-		goto fail;
-	}
-	fclose(f);
-	b[n] = '\0';
-	*buf = b;
-	*len = n;
-	return 0;
-fail:
-	fclose(f);
-	free(b);
-	return err;
+	return ow_io_crc32(crc, p, n);
 }
 
 static enum ow_status open_error(const struct ow_jin *j, const char *who,
@@ -99,8 +46,7 @@ static enum ow_status open_error(const struct ow_jin *j, const char *who,
 {
 	char eb[128];
 
-	if (strerror_r(err, eb, sizeof eb))
-		snprintf(eb, sizeof eb, "error %d", err);
+	ow_io_strerror(err, eb, sizeof eb);
 	if (who)
 		return ow_diag_set(j->d, OW_EINPUT,
 				   "%s: %s: cannot open \"%s\": %s", who, key,
@@ -135,15 +81,51 @@ static enum ow_status syntax_error(const struct ow_jin *j, const char *buf,
 			   "end of file)", near, k ? "\"" : "");
 }
 
+/* Every key and string under node is UTF-8 text (JSON texts are UTF-8,
+ * RFC 8259 section 8.1; a stray byte would reach study.json and the PDF). */
+static enum ow_status utf8_tree(const struct ow_jin *j, const cJSON *node,
+				const char *path)
+{
+	char p[OW_JPATH_LEN];
+	const cJSON *c;
+	size_t n, bad;
+	int i = 0;
+
+	for (c = node->child; c; c = c->next, i++) {
+		const char *at = c->string ? ow_jin_key(p, path, c->string)
+					   : ow_jin_index(p, path, i);
+
+		if (c->string && (n = strlen(c->string),
+				  ow_io_utf8_check(c->string, n) != n))
+			return ow_jin_fail(j, path[0] ? path : "(top level)",
+					   "a key is not UTF-8 text");
+		if (cJSON_IsString(c) &&
+		    (n = strlen(c->valuestring),
+		     (bad = ow_io_utf8_check(c->valuestring, n)) != n))
+			return ow_jin_fail(j, at, "not UTF-8 text (byte 0x%02X "
+					   "at byte %zu of the string)",
+					   (unsigned char)c->valuestring[bad],
+					   bad + 1);
+		if (utf8_tree(j, c, at) != OW_OK)
+			return OW_EINPUT;
+	}
+	return OW_OK;
+}
+
 enum ow_status ow_jin_load(const struct ow_jin *j, const char *who,
 			   const char *key, unsigned long *crc, cJSON **root)
 {
 	const char *end = NULL;
 	char *buf = NULL;
 	size_t len = 0, bom;
-	int err = slurp(j->file, &buf, &len);
+	int err;
 
 	*root = NULL;
+	len = strlen(j->file);
+	if (ow_io_utf8_check(j->file, len) != len) /* it is copied into outputs */
+		return ow_diag_set(j->d, OW_EINPUT, "%s: the file name is not "
+				   "UTF-8 text: rename the file", j->file);
+	err = ow_io_slurp(j->file, MAX_FILE_BYTES, &buf, &len);
 	if (err)
 		return open_error(j, who, key, err);
 	*crc = ow_jin_crc32(*crc, buf, len);
@@ -166,6 +148,11 @@ enum ow_status ow_jin_load(const struct ow_jin *j, const char *who,
 		return st;
 	}
 	free(buf);
+	if (utf8_tree(j, *root, "") != OW_OK) {
+		cJSON_Delete(*root);
+		*root = NULL;
+		return OW_EINPUT;
+	}
 	if (!cJSON_IsObject(*root)) {
 		cJSON_Delete(*root);
 		*root = NULL;

@@ -11,21 +11,55 @@ void ow_line_default(struct ow_line *l)
 	l->root_adiabatic = 1;
 	l->root_temp_K = NAN;
 	l->limits = (struct ow_limits){NAN, NAN, NAN, NAN, NAN,
-				       NAN, NAN, NAN, NAN};
+				       NAN, NAN, NAN, NAN, 1.0};
+	l->heat_transfer_factor = 1.0;
+	for (int i = 0; i < OW_MAX_ZONES; i++) /* unlimited, ideal wall */
+		l->zones[i].heating_W = l->zones[i].cooling_W =
+			l->zones[i].wall_h_W_m2K = NAN;
 	l->axes.mode = OW_AXIS_SHIFT;
 	l->numerics.stations_per_turn = 6; /* proven by test_solver */
 	l->numerics.depth_nodes = 21;
 	l->numerics.feed_pressure_Pa = 1e4; /* flood-fed hopper, small */
 }
 
-double ow_line_barrel_temp(const struct ow_line *l, double x_m)
+int ow_line_zone_at(const struct ow_line *l, double x_m)
 {
 	int i;
 
 	for (i = 0; i < l->n_zones - 1; i++)
 		if (x_m < l->zones[i].to_m)
-			return l->zones[i].set_K;
-	return l->zones[l->n_zones - 1].set_K;
+			return i;
+	return l->n_zones - 1;
+}
+
+double ow_line_barrel_temp(const struct ow_line *l, double x_m)
+{
+	return l->zones[ow_line_zone_at(l, x_m)].set_K;
+}
+
+void ow_line_zone_defaults(struct ow_line *l, double diameter_m)
+{
+	int i;
+
+	for (i = 0; i < l->n_zones && i < OW_MAX_ZONES; i++) {
+		struct ow_zone *z = &l->zones[i];
+		double len = z->to_m - (i ? l->zones[i - 1].to_m : 0.0);
+		double heat = OW_ZONE_HEATING_W_M2 * 3.14159265358979323846 *
+			      diameter_m * len;
+
+		if (isnan(z->heating_W)) {
+			z->heating_W = heat;
+			z->defaulted |= OW_ZONE_DEF_HEATING;
+		}
+		if (isnan(z->cooling_W)) {
+			z->cooling_W = OW_ZONE_COOLING_SHARE * heat;
+			z->defaulted |= OW_ZONE_DEF_COOLING;
+		}
+		if (isnan(z->wall_h_W_m2K)) {
+			z->wall_h_W_m2K = OW_ZONE_WALL_H;
+			z->defaulted |= OW_ZONE_DEF_WALL;
+		}
+	}
 }
 
 void ow_line_apply_axis(const struct ow_line *l, double v, double *set_K)
@@ -59,6 +93,17 @@ static int bad_temp(double t)
 	return !isfinite(t) || t < 200.0 || t > 800.0;
 }
 
+/* Zone control values: NAN (unlimited / ideal) or in range. */
+static int bad_control(const struct ow_zone *z)
+{
+	return (!isnan(z->heating_W) &&
+		!(z->heating_W >= 0.0 && z->heating_W < 1e6)) ||
+	       (!isnan(z->cooling_W) &&
+		!(z->cooling_W >= 0.0 && z->cooling_W < 1e6)) ||
+	       (!isnan(z->wall_h_W_m2K) &&
+		!(z->wall_h_W_m2K > 0.0 && z->wall_h_W_m2K < 1e6));
+}
+
 static enum ow_status check_zones(const struct ow_line *l, double len,
 				  struct ow_diag *d)
 {
@@ -77,12 +122,29 @@ static enum ow_status check_zones(const struct ow_line *l, double len,
 					   "beyond the previous zone's end "
 					   "(%g mm)", i, l->zones[i].to_m * 1e3,
 					   prev * 1e3);
+		if (l->zones[i].to_m > len + 1e-6) /* "30 D" on a 24 D screw */
+			return ow_diag_set(d, OW_EINPUT,
+					   "barrel.zones[%d].to: %g mm lies past "
+					   "the end of the screw (%g mm); the "
+					   "last zone ends at the screw's end",
+					   i, l->zones[i].to_m * 1e3, len * 1e3);
 		if (bad_temp(l->zones[i].set_K))
 			return ow_diag_set(d, OW_EINPUT,
 					   "barrel.zones[%d].set: %g degC must "
 					   "lie in -73..527 degC", i,
 					   l->zones[i].set_K - 273.15);
+		if (bad_control(&l->zones[i]))
+			return ow_diag_set(d, OW_EINPUT,
+					   "barrel.zones[%d]: heating_power and "
+					   "cooling_power must be >= 0 and below "
+					   "1 MW, heat_transfer > 0 and below "
+					   "1e6 W/(m2 K)", i);
 	}
+	if (!(isfinite(l->heat_transfer_factor) &&
+	      l->heat_transfer_factor > 0.0 && l->heat_transfer_factor <= 100.0))
+		return ow_diag_set(d, OW_EINPUT,
+				   "barrel.heat_transfer_factor: %g must lie "
+				   "in (0, 100]", l->heat_transfer_factor);
 	if (l->zones[l->n_zones - 1].to_m < len - 1e-6)
 		return ow_diag_set(d, OW_EINPUT,
 				   "barrel.zones[%d].to: %g mm; the zones must "
@@ -150,7 +212,8 @@ static enum ow_status check_limits(const struct ow_limits *m,
 		   {"min_melt_temp", m->min_melt_temp_K, 900.0},
 		   {"min_output", m->min_output_kg_s, 1e3},
 		   {"max_output", m->max_output_kg_s, 1e3},
-		   {"max_sbr", m->max_sbr, 1.0}};
+		   {"max_sbr", m->max_sbr, 1.0},
+		   {"zone_control", m->zone_load, 1.0}};
 	size_t i;
 
 	for (i = 0; i < sizeof lim / sizeof lim[0]; i++)

@@ -12,28 +12,13 @@
 #include <sys/stat.h>
 
 #include "ow_classify.h"
+#include "ow_io.h"
 #include "ow_results.h"
 
 #define FORMAT         "opwin map folder"
 #define FORMAT_VERSION 1
 #define MAX_STRIDE     16 /* 2^4: the sweep's deepest refinement */
 #define BIT_DIGITS     ((OW_CK_COUNT + 3) / 4) /* hex digits of a status */
-
-/* CRC-32 continued over n bytes (IEEE 802.3 polynomial, reflected; ISO
- * 3309), the same sum the study loader keeps in input_crc. */
-static unsigned long crc32_more(unsigned long crc, const void *p, size_t n)
-{
-	const unsigned char *b = p;
-	int k;
-
-	crc = ~crc & 0xFFFFFFFFUL;
-	while (n--) {
-		crc ^= *b++;
-		for (k = 0; k < 8; k++)
-			crc = (crc >> 1) ^ (0xEDB88320UL & (0UL - (crc & 1UL)));
-	}
-	return ~crc & 0xFFFFFFFFUL;
-}
 
 /* ---- exact numbers in JSON ---------------------------------------------- */
 
@@ -97,7 +82,7 @@ static enum ow_status read_json(const char *path, unsigned long *crc,
 		                   "%s: cannot read it again to "
 		                   "copy it into the map folder: %s",
 		                   path, strerror(err));
-	*crc = crc32_more(*crc, buf, len);
+	*crc = ow_io_crc32(*crc, buf, len);
 	bom = len >= 3 && !memcmp(buf, "\xEF\xBB\xBF", 3) ? 3 : 0;
 	*out = cJSON_ParseWithLength(buf + bom, len - bom);
 	free(buf);
@@ -301,7 +286,7 @@ static enum ow_status put(const char *dir, const char *name, char *text,
 		return OW_OK;
 	st = md_path(path, sizeof path, dir, name, d);
 	if (st == OW_OK)
-		st = ow_results_write_file(path, text, strlen(text), d);
+		st = ow_io_write_file(path, text, strlen(text), d);
 	return st;
 }
 

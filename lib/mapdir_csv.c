@@ -15,38 +15,12 @@
 
 /* ---- small helpers ------------------------------------------------------ */
 
-static void grow(struct md_text *t, size_t need)
+void md_add(struct ow_buf *t, const char *s)
 {
-	size_t cap = t->cap ? t->cap : 4096;
-	char *s;
-
-	while (cap < t->len + need + 1)
-		cap *= 2;
-	if (cap == t->cap)
-		return;
-	s = realloc(t->s, cap);
-	if (!s) {
-		t->oom = 1;
-		return;
-	}
-	t->s = s;
-	t->cap = cap;
+	ow_buf_adds(t, s);
 }
 
-void md_add(struct md_text *t, const char *s)
-{
-	size_t n = strlen(s);
-
-	if (t->oom)
-		return;
-	grow(t, n);
-	if (t->oom)
-		return;
-	memcpy(t->s + t->len, s, n + 1);
-	t->len += n;
-}
-
-void md_addf(struct md_text *t, const char *fmt, ...)
+void md_addf(struct ow_buf *t, const char *fmt, ...)
 {
 	char buf[256];
 	va_list ap;
@@ -57,7 +31,7 @@ void md_addf(struct md_text *t, const char *fmt, ...)
 	md_add(t, buf);
 }
 
-void md_num(struct md_text *t, double x)
+void md_num(struct ow_buf *t, double x)
 {
 	/* The program never calls setlocale: "%.17g" prints '.' and 17
 	 * significant digits round-trip a double. */
@@ -82,37 +56,7 @@ int md_parse_num(const char *text, double *x)
 
 int md_slurp(const char *path, char **buf, size_t *len)
 {
-	FILE *f = fopen(path, "rb");
-	size_t cap = 8192, n = 0, got;
-	char *b, *nb;
-	int err = 0;
-
-	if (!f)
-		return errno ? errno : ENOENT;
-	b = malloc(cap);
-	while (b && (got = fread(b + n, 1, cap - 1 - n, f)) > 0) {
-		n += got;
-		if (n + 1 < cap)
-			continue;
-		nb = realloc(b, cap * 2);
-		if (!nb)
-			free(b);
-		b = nb;
-		cap *= 2;
-	}
-	if (!b)
-		err = ENOMEM;
-	else if (ferror(f))
-		err = EIO;
-	fclose(f);
-	if (!b || err) {
-		free(b);
-		return err;
-	}
-	b[n] = '\0';
-	*buf = b;
-	*len = n;
-	return 0;
+	return ow_io_slurp(path, MD_MAX_FILE_BYTES, buf, len);
 }
 
 enum ow_status md_path(char *out, size_t n, const char *dir, const char *name,
@@ -154,6 +98,7 @@ static const struct {
     FIELD(melt_complete_m),
     FIELD(max_sbr),
     FIELD(max_sbr_at_m),
+    FIELD(plug_ratio),
     FIELD(plugging_at_m),
     FIELD(power_W),
     FIELD(torque_Nm),
@@ -162,6 +107,7 @@ static const struct {
     FIELD(residence_s),
     FIELD(energy_residual),
     FIELD(feed_capacity_kg_s),
+    FIELD(zone_load),
 };
 #undef FIELD
 #define N_FIELDS ((int)(sizeof fields / sizeof fields[0]))
@@ -186,7 +132,7 @@ double *md_field(struct ow_point *p, int k)
 	return field_at(p, k);
 }
 
-static void points_header(struct md_text *t, int n_zones)
+static void points_header(struct ow_buf *t, int n_zones)
 {
 	int k;
 
@@ -199,10 +145,14 @@ static void points_header(struct md_text *t, int n_zones)
 		md_addf(t, ",set_K_%d", k + 1);
 	for (k = 0; k < n_zones; k++)
 		md_addf(t, ",zone_heat_W_%d", k + 1);
+	for (k = 0; k < n_zones; k++)
+		md_addf(t, ",zone_demand_W_%d", k + 1);
+	for (k = 0; k < n_zones; k++)
+		md_addf(t, ",zone_control_K_%d", k + 1);
 	md_add(t, "\n");
 }
 
-static void point_row(struct md_text *t, const struct ow_grid *g, int i,
+static void point_row(struct ow_buf *t, const struct ow_grid *g, int i,
                       int n_zones)
 {
 	struct ow_grid_point *p = &g->pts[i];
@@ -226,13 +176,21 @@ static void point_row(struct md_text *t, const struct ow_grid *g, int i,
 		md_add(t, ",");
 		md_num(t, p->pt.zone_heat_W[k]);
 	}
+	for (k = 0; k < n_zones; k++) {
+		md_add(t, ",");
+		md_num(t, p->pt.zone_demand_W[k]);
+	}
+	for (k = 0; k < n_zones; k++) {
+		md_add(t, ",");
+		md_num(t, p->pt.zone_control_K[k]);
+	}
 	md_add(t, "\n");
 }
 
 enum ow_status md_points_csv(const struct ow_grid *g, int n_zones, char **out,
                              struct ow_diag *d)
 {
-	struct md_text t = {0};
+	struct ow_buf t = {0};
 	int i;
 
 	points_header(&t, n_zones);
@@ -240,10 +198,10 @@ enum ow_status md_points_csv(const struct ow_grid *g, int n_zones, char **out,
 		if (g->pts[i].solved == 1)
 			point_row(&t, g, i, n_zones);
 	if (t.oom) {
-		free(t.s);
+		ow_buf_free(&t);
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	}
-	*out = t.s;
+	*out = t.data;
 	return OW_OK;
 }
 
@@ -337,6 +295,15 @@ static enum ow_status point_read(char **c, const char *file, int line,
 	for (k = 0; k < n_zones; k++)
 		if (!md_parse_num(c[at++], &p->pt.zone_heat_W[k]))
 			goto num;
+	for (k = 0; k < n_zones; k++)
+		if (!md_parse_num(c[at++], &p->pt.zone_demand_W[k]))
+			goto num;
+	for (k = 0; k < n_zones; k++) {
+		if (!md_parse_num(c[at++], &p->pt.zone_control_K[k]))
+			goto num;
+		if (p->pt.zone_control_K[k] != p->pt.set_K[k])
+			p->pt.zone_floating |= 1u << k;
+	}
 	return OW_OK;
 num:
 	return ow_diag_set(d, OW_EINPUT,
@@ -349,8 +316,8 @@ enum ow_status md_points_read(char *text, const char *file, int n_zones,
                               struct ow_grid *g, int *n_solved,
                               struct ow_diag *d)
 {
-	int n_cols = 5 + OW_CK_LIMITS + N_FIELDS + 2 * n_zones, line = 0;
-	struct md_text want = {0};
+	int n_cols = 5 + OW_CK_LIMITS + N_FIELDS + 4 * n_zones, line = 0;
+	struct ow_buf want = {0};
 	char *cur = text, *l, **cells = NULL;
 	enum ow_status st = OW_OK;
 
@@ -361,9 +328,9 @@ enum ow_status md_points_read(char *text, const char *file, int n_zones,
 		st = ow_diag_set(d, OW_ENOMEM, "out of memory");
 		goto fail;
 	}
-	want.s[want.len - 1] = '\0'; /* no newline */
+	want.data[want.len - 1] = '\0'; /* no newline */
 	l = next_line(&cur, &line);
-	if (!l || strcmp(l, want.s)) {
+	if (!l || strcmp(l, want.data)) {
 		st = bad(d, file, 1,
 		         "unexpected header: the folder was "
 		         "written by another version of opwin or edited");
@@ -377,7 +344,7 @@ enum ow_status md_points_read(char *text, const char *file, int n_zones,
 		++*n_solved;
 	}
 fail:
-	free(want.s);
+	ow_buf_free(&want);
 	free(cells);
 	return st;
 }

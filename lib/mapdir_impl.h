@@ -1,26 +1,24 @@
 /* mapdir_impl.h - internals of the map folder module (not public): a
- * growing text buffer, whole-file reading, folder paths, exact number
+ * growing text buffer, whole-file reading (both ow_io.h), folder paths, exact number
  * texts, and the lattice.csv writer and reader. */
 #ifndef OW_MAPDIR_IMPL_H
 #define OW_MAPDIR_IMPL_H
 
 #include <stddef.h>
 
+#include "ow_io.h"
 #include "ow_mapdir.h"
 
-/* A growing NUL-terminated text; failed growth sets oom and later
- * appends do nothing. */
-struct md_text {
-	char *s;
-	size_t len, cap;
-	int oom;
-};
+/* Largest map folder file read back (a 1000 x 1000 lattice refined
+ * twice is some hundreds of MB of lattice.csv). */
+#define MD_MAX_FILE_BYTES ((size_t)1 << 30)
 
-void md_add(struct md_text *t, const char *s);
-void md_addf(struct md_text *t, const char *fmt, ...)
+/* Appending to a growing text (struct ow_buf, ow_io.h). */
+void md_add(struct ow_buf *t, const char *s);
+void md_addf(struct ow_buf *t, const char *fmt, ...)
     __attribute__((format(printf, 2, 3)));
 /* x with 17 significant digits (round trip), "nan", "inf" or "-inf". */
-void md_num(struct md_text *t, double x);
+void md_num(struct ow_buf *t, double x);
 
 /* Whole file into a NUL-terminated malloc'd buffer; 0 or an errno. */
 int md_slurp(const char *path, char **buf, size_t *len);

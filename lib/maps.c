@@ -25,10 +25,12 @@ double maps_font(const struct ow_maps_options *o)
 }
 
 static const char *const fig_file[OW_MAP_COUNT] = {
-    "map-peak-temp", "map-unmelt", "map-pressure", "map-output", "map-sec"};
+    "map-peak-temp", "map-unmelt", "map-pressure", "map-output", "map-sec",
+    "map-zone-load"};
 static const char *const fig_title[OW_MAP_COUNT] = {
     "Peak melt temperature", "Unmelted solids at discharge",
-    "Highest pressure on the screw", "Throughput", "Specific energy (drive)"};
+    "Highest pressure on the screw", "Throughput", "Specific energy (drive)",
+    "Barrel zone load"};
 
 const char *ow_maps_figure_file(enum ow_map_figure f)
 {
@@ -111,6 +113,7 @@ char *maps_limit_text(const struct ow_study *s, int check,
 	    [OW_CK_MIN_OUTPUT] = {"min. output", OW_DIM_MASS_FLOW},
 	    [OW_CK_MAX_OUTPUT] = {"max. output", OW_DIM_MASS_FLOW},
 	    [OW_CK_MAX_SBR] = {"solid bed ratio", OW_DIM_NONE},
+	    [OW_CK_ZONE_CONTROL] = {"zone load", OW_DIM_NONE},
 	};
 	char num[48];
 	double v;
@@ -120,10 +123,12 @@ char *maps_limit_text(const struct ow_study *s, int check,
 		return snprintf(buf, n, "plugging"), buf;
 	if (check == OW_CK_FEED)
 		return snprintf(buf, n, "feed-limited"), buf;
+	if (check == OW_CK_PARTIAL_FILL)
+		return snprintf(buf, n, "partly filled"), buf;
 	if (check == OW_CK_NOCONV || check < 0 || check >= OW_CK_LIMITS)
 		return snprintf(buf, n, "no solution"), buf;
 	v = ow_check_limit(&s->line.limits, (enum ow_check)check);
-	if (check == OW_CK_UNMELT) {
+	if (check == OW_CK_UNMELT || check == OW_CK_ZONE_CONTROL) {
 		snprintf(buf, n, "%s%s%s %%", lim[check].name, op,
 		         maps_num(num, sizeof num, 100.0 * v));
 		return buf;

@@ -39,6 +39,8 @@ static double fig_value(const struct ow_grid_point *p, const void *ctx)
 	case OW_MAP_SEC:
 		return ow_display_value(c->u, OW_DIM_SPECIFIC_ENERGY,
 		                        pt->sec_J_kg);
+	case OW_MAP_ZONE_LOAD:
+		return 100.0 * pt->zone_load;
 	case OW_MAP_COUNT:
 		break;
 	}
@@ -49,9 +51,11 @@ static const char *unit_of(enum ow_map_figure f, enum ow_unit_system u)
 {
 	static const enum ow_dim dim[OW_MAP_COUNT] = {
 	    OW_DIM_TEMPERATURE, OW_DIM_NONE, OW_DIM_PRESSURE, OW_DIM_MASS_FLOW,
-	    OW_DIM_SPECIFIC_ENERGY};
+	    OW_DIM_SPECIFIC_ENERGY, OW_DIM_NONE};
 
-	return f == OW_MAP_UNMELT ? "%" : ow_display_label(u, dim[f]);
+	return f == OW_MAP_UNMELT || f == OW_MAP_ZONE_LOAD
+	           ? "%"
+	           : ow_display_label(u, dim[f]);
 }
 
 static char *bar_title(enum ow_map_figure f, enum ow_unit_system u, char *buf,
@@ -72,6 +76,10 @@ static char *bar_title(enum ow_map_figure f, enum ow_unit_system u, char *buf,
 	case OW_MAP_OUTPUT:
 		snprintf(buf, n, "throughput (%s)",
 		         ow_display_label(u, OW_DIM_MASS_FLOW));
+		break;
+	case OW_MAP_ZONE_LOAD:
+		snprintf(buf, n, "highest zone load (%% of its heating or "
+		         "cooling power)");
 		break;
 	default:
 		snprintf(buf, n, "specific energy (%s)",
@@ -97,6 +105,9 @@ static int limits_of(enum ow_map_figure f, int *c)
 		c[0] = OW_CK_MIN_OUTPUT;
 		c[1] = OW_CK_MAX_OUTPUT;
 		return 2;
+	case OW_MAP_ZONE_LOAD:
+		c[0] = OW_CK_ZONE_CONTROL;
+		return 1;
 	default:
 		return 0;
 	}
@@ -111,6 +122,7 @@ static double shown_limit(const struct ow_study *s, int c,
 	case OW_CK_PEAK_TEMP:
 		return ow_display_value(u, OW_DIM_TEMPERATURE, v);
 	case OW_CK_UNMELT:
+	case OW_CK_ZONE_CONTROL:
 		return 100.0 * v;
 	case OW_CK_PRESSURE:
 		return ow_display_value(u, OW_DIM_PRESSURE, v);

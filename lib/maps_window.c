@@ -36,12 +36,14 @@ static const struct group *group_of(int c)
 	switch (c) {
 	case OW_CK_PEAK_TEMP:
 	case OW_CK_MIN_MELT_TEMP:
+	case OW_CK_ZONE_CONTROL: /* barrel temperature control */
 		return &groups[0];
 	case OW_CK_UNMELT:
 	case OW_CK_MAX_SBR:
 	case OW_CK_PLUGGING:
 		return &groups[1];
 	case OW_CK_PRESSURE:
+	case OW_CK_PARTIAL_FILL:
 		return &groups[2];
 	case OW_CK_POWER:
 	case OW_CK_TORQUE:

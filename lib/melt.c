@@ -128,6 +128,70 @@ void ow_melt_heat(struct ow_melt_ws *ws, double dT_K)
 	ws->bulk += dT_K;
 }
 
+void ow_melt_mixer_land(double q_m3_s, double n_lands, double length_m,
+			double gap_m, double land_width_m, double vb_m_s,
+			double visc_Pa_s, struct ow_mixer_land *out)
+{
+	double g = gap_m, e = land_width_m, mu = visc_Pa_s, len;
+	double g3 = g * g * g, q, grad;
+
+	if (!(g > 0.0 && e > 0.0 && length_m > 0.0 && n_lands > 0.0 &&
+	      mu > 0.0)) {
+		out->dp_Pa = out->heat_W = out->power_W = NAN;
+		out->shear_1_s = NAN;
+		return;
+	}
+	len = n_lands * length_m;
+	q = q_m3_s / len;
+	out->dp_Pa = 12.0 * mu * e * (0.5 * vb_m_s * g - q) / g3;
+	grad = out->dp_Pa / e;
+	out->heat_W = len * e * (mu * vb_m_s * vb_m_s / g +
+				 g3 * grad * grad / (12.0 * mu));
+	out->power_W = out->heat_W + q_m3_s * out->dp_Pa;
+	out->shear_1_s = fabs(vb_m_s) / g;
+}
+
+void ow_melt_copy(struct ow_melt_ws *dst, const struct ow_melt_ws *src)
+{
+	struct ow_melt_ws keep = *dst;
+	size_t nc = (size_t)src->nc, nn = (size_t)src->nn;
+	size_t nb = (size_t)src->nb;
+
+	memcpy(dst->cell_mem, src->cell_mem, 16 * nc * sizeof(double));
+	memcpy(dst->cell_band, src->cell_band, nc * sizeof(int));
+	memcpy(dst->y, src->y, 8 * nn * sizeof(double));
+	memcpy(dst->t, src->t, 13 * nb * sizeof(double));
+	memcpy(dst->seg_lo, src->seg_lo, 4 * nb * sizeof(double));
+	memcpy(dst->seg_band, src->seg_band, 2 * nb * sizeof(int));
+	*dst = *src; /* the scalars ... */
+	dst->cur = keep.cur; /* ... but dst's own arrays */
+	dst->trial = keep.trial;
+	dst->cell_mem = keep.cell_mem;
+	dst->tc = keep.tc;
+	dst->lat = keep.lat;
+	dst->cell_band = keep.cell_band;
+	dst->y = keep.y;
+	dst->uz = keep.uz;
+	dst->ux = keep.ux;
+	dst->gd = keep.gd;
+	dst->dis = keep.dis;
+	dst->eta = keep.eta;
+	dst->tn = keep.tn;
+	dst->psi = keep.psi;
+	dst->t = keep.t;
+	dst->w = keep.w;
+	dst->dk = keep.dk;
+	dst->gnext = keep.gnext;
+	dst->gb = keep.gb;
+	dst->gr = keep.gr;
+	dst->tri = keep.tri;
+	dst->legs = keep.legs;
+	dst->level = keep.level;
+	dst->seg_lo = keep.seg_lo;
+	dst->seg_hi = keep.seg_hi;
+	dst->seg_band = keep.seg_band;
+}
+
 double ow_melt_bulk(const struct ow_melt_ws *ws)
 {
 	return ws->bulk;

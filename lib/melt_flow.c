@@ -59,6 +59,19 @@ double ow_melt_shape_fp(double h)
 			     (SUM_ODD_INV5 - tanh_deficit(5.0, PI / (2.0 * h)));
 }
 
+/* A side wall of the channel (height H) sliding down-channel at V_s drags
+ * Q_s = F_d(W/H) V_s H W/2: the Rowell & Finlayson (1922) drag solution
+ * with the roles of width and depth exchanged (Tadmor & Klein 1970, ch. 7,
+ * for the barrel's share). Newtonian flows superpose, so the side wall
+ * counts as an extra barrel speed V_s F_d(W/H)/F_d(H/W). */
+double ow_melt_side_drag_speed(double depth_m, double width_m,
+			       double wall_speed_m_s)
+{
+	double h = depth_m / width_m;
+
+	return wall_speed_m_s * ow_melt_shape_fd(1.0 / h) / ow_melt_shape_fd(h);
+}
+
 /* ---- power-law drag + pressure flow ----------------------------------- */
 
 /* 8-point Gauss-Legendre rule on [-1, 1] (Abramowitz & Stegun, Handbook

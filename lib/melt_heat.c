@@ -238,7 +238,15 @@ static void layout_layers(struct ow_melt_ws *ws)
 	}
 }
 
-/* Finite-volume conductances between leg centres (half a leg to a wall). */
+/* A conductance g in series with the barrel wall's h (h = 0: ideal wall):
+ * resistances add, 1/(1/g + 1/h). */
+static double with_wall(double g, double h)
+{
+	return h > 0.0 ? g * h / (g + h) : g;
+}
+
+/* Finite-volume conductances between leg centres (half a leg to a wall);
+ * the barrel side in series with the wall's heat-transfer coefficient. */
 static void conductances(struct ow_melt_ws *ws, const struct ow_melt_cond *c)
 {
 	double k = c->mat->melt_k_W_mK, dmin = 1e-9 * ws->H;
@@ -259,11 +267,14 @@ static void conductances(struct ow_melt_ws *ws, const struct ow_melt_cond *c)
 	if (ws->circ) {
 		const double *lg = ws->legs + 4 * (K - 1);
 
-		ws->gb[K - 1] = k / fmax(ws->H - 0.5 * (lg[2] + lg[3]), dmin);
+		ws->gb[K - 1] = with_wall(
+			k / fmax(ws->H - 0.5 * (lg[2] + lg[3]), dmin),
+			c->wall_h_W_m2K);
 		if (!c->root_adiabatic)
 			ws->gr[K - 1] = k / fmax(0.5 * (lg[0] + lg[1]), dmin);
 	} else {
-		ws->gb[K - 1] = k / fmax(0.5 * ws->H / (double)K, dmin);
+		ws->gb[K - 1] = with_wall(k / fmax(0.5 * ws->H / (double)K,
+						   dmin), c->wall_h_W_m2K);
 		if (!c->root_adiabatic)
 			ws->gr[0] = k / fmax(0.5 * ws->H / (double)K, dmin);
 	}
@@ -450,4 +461,49 @@ void ow_melt_wall_heat(const struct ow_melt_ws *ws,
 	}
 	*barrel_W_m = qb * c->width_m;
 	*root_W_m = qr * c->width_m;
+}
+
+/* The mixer step of ow_melt.h: the layout of the last station (or equal
+ * layers), heat spread in proportion to the band flows, conductances for
+ * this wall, and the implicit step of ow_melt_advance. */
+enum ow_status ow_melt_mixer_step(struct ow_melt_ws *ws,
+				  const struct ow_melt_cond *c, double dz_m,
+				  double heat_W_m, struct ow_melt_out *out,
+				  struct ow_diag *d)
+{
+	struct melt_station st;
+	double sum = 0.0;
+	int K = ws->nb;
+
+	if (!c || !c->mat || !(c->width_m > 0.0) || !(dz_m > 0.0) ||
+	    !(c->vol_flow_m3_s > 0.0) || !isfinite(heat_W_m) ||
+	    !(c->barrel_K > 0.0))
+		return ow_diag_set(d, OW_EARG, "melt: mixer step needs a "
+				   "resin, width, flow, wall and dz > 0");
+	memset(&st, 0, sizeof st);
+	st.W = c->width_m;
+	if (!ws->have_profile) {
+		ws->H = c->depth_m;
+		ws->circ = 0;
+		layout_layers(ws);
+		for (int b = 0; b < K; b++)
+			ws->w[b] = 1.0;
+		map_cells(ws);
+		ws->have_profile = 1;
+	}
+	conductances(ws, c);
+	for (int b = 0; b < K; b++)
+		sum += fmax(ws->w[b], 0.0);
+	for (int b = 0; b < K; b++)
+		ws->dk[b] = sum > 0.0 ? heat_W_m / st.W * fmax(ws->w[b], 0.0) /
+					       sum
+				      : heat_W_m / st.W / (double)K;
+	memset(out, 0, sizeof *out);
+	out->q_floor_used = ow_melt_advance(ws, &st, c, dz_m);
+	ow_melt_wall_heat(ws, c, &out->barrel_heat_W_m, &out->root_heat_W_m);
+	out->dissipation_W_m = heat_W_m;
+	out->bulk_K = ws->bulk;
+	out->peak_K = ow_melt_peak(ws);
+	out->circulating = ws->circ;
+	return OW_OK;
 }

@@ -6,6 +6,7 @@
 #define OW_VERSION "0.1.0"
 
 #include "ow_status.h"
+#include "ow_io.h"
 #include "ow_units.h"
 #include "ow_material.h"
 #include "ow_screw.h"

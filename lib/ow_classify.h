@@ -20,8 +20,11 @@
 	X(OW_CK_MIN_OUTPUT, "min_output", "throughput below minimum")    \
 	X(OW_CK_MAX_OUTPUT, "max_output", "throughput above maximum")    \
 	X(OW_CK_MAX_SBR, "max_sbr", "solid bed ratio")                   \
+	X(OW_CK_ZONE_CONTROL, "zone_control", "zone cannot hold set-point") \
 	X(OW_CK_PLUGGING, "plugging", "solid bed plugging")              \
 	X(OW_CK_FEED, "feed_limited", "feed-limited (starved)")          \
+	X(OW_CK_PARTIAL_FILL, "partial_fill", "channel partly filled "   \
+						"(pressure below zero)")         \
 	X(OW_CK_NOCONV, "not_converged", "solution did not converge")
 
 enum ow_check {
@@ -32,7 +35,7 @@ enum ow_check {
 };
 
 /* Number of checks that are limits with margins (the first ones). */
-#define OW_CK_LIMITS (OW_CK_MAX_SBR + 1)
+#define OW_CK_LIMITS (OW_CK_ZONE_CONTROL + 1)
 
 struct ow_verdict {
 	unsigned bits;                /* 1u << check, for each violated */

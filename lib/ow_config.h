@@ -54,4 +54,7 @@ enum ow_status ow_config_load_resin(const struct ow_units *u, const char *path,
 				    struct ow_material *out,
 				    struct ow_diag *d);
 
+/* The keys a resin file may hold, NULL-terminated (static storage). */
+const char *const *ow_config_resin_keys(void);
+
 #endif

@@ -4,8 +4,9 @@
  *
  * Blank lines are skipped, CR-LF line ends and a UTF-8 byte-order mark are
  * accepted, cells are trimmed and may be wrapped in double quotes. Every data
- * cell must be a finite number and every row must have as many cells as the
- * header. Numbers are read with strtod: the program never calls setlocale,
+ * cell must be a finite number, read whole (a cell longer than 256 bytes
+ * or holding a NUL byte is refused, never cut), and every row must have as
+ * many cells as the header (at most 1024). Column names must be UTF-8. Numbers are read with strtod: the program never calls setlocale,
  * so the decimal point is always ".". Errors are OW_EINPUT with
  * "<file>: line <n>[, column <k> (<name>)]: <what was expected>". */
 #ifndef OW_CSV_H

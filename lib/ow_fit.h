@@ -160,9 +160,12 @@ enum ow_status ow_fit_write_block(const struct ow_viscosity *v,
 				  const char *notes, const char *path,
 				  struct ow_diag *d);
 
-/* Replace (or add) the `viscosity` block of the resin file at path, keeping
- * its other keys and their order, atomically. OW_EINPUT when the file is
- * missing or not a JSON object, OW_EIO when it cannot be rewritten. */
+/* Replace (or add, last) the `viscosity` block of the resin file at path,
+ * atomically, every other byte of the file as the user wrote it (layout,
+ * key order, sources). OW_EINPUT when the file is missing, not one JSON
+ * object, or not a resin file (a key a resin does not have, e.g. a
+ * study's, or no "name"): nothing is written then. OW_EIO when it cannot
+ * be rewritten. */
 enum ow_status ow_fit_merge_into(const struct ow_viscosity *v,
 				 const char *path, struct ow_diag *d);
 

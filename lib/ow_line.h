@@ -8,10 +8,33 @@
 
 #define OW_MAX_ZONES 16
 
+/* A barrel zone is a controlled wall: its control point is held at the
+ * set-point while the heat the zone must give the resin (or take from it)
+ * stays within its heating and cooling power; the inner surface lies
+ * behind a heat-transfer coefficient from the control point. NAN powers
+ * are unlimited and a NAN or zero coefficient an ideal wall (what a line
+ * built in code without ow_line_zone_defaults gets). */
 struct ow_zone {
-	double to_m;   /* axial end of the zone (zones are contiguous from 0) */
-	double set_K;  /* barrel set-point */
+	double to_m;        /* axial end of the zone (contiguous from 0) */
+	double set_K;       /* barrel set-point at the control point */
+	double heating_W;   /* heater power */
+	double cooling_W;   /* cooling power (a positive number) */
+	double wall_h_W_m2K; /* control point -> inner surface, per m^2 of
+				bore */
+	unsigned defaulted; /* OW_ZONE_DEF_* bits: values not in the file */
 };
+
+#define OW_ZONE_DEF_HEATING 0x1u
+#define OW_ZONE_DEF_COOLING 0x2u
+#define OW_ZONE_DEF_WALL 0x4u
+
+/* Defaults of a zone's control, typical values from memory: heating
+ * 50 kW per m^2 of bore (3.8 kW on a 6 D zone of a 63.5 mm barrel),
+ * cooling 40 % of that, and 2000 W/(m^2 K) between control point and
+ * bore (about 20 mm of steel, k about 40 W/(m K)). */
+#define OW_ZONE_HEATING_W_M2 50e3
+#define OW_ZONE_COOLING_SHARE 0.4
+#define OW_ZONE_WALL_H 2000.0
 
 enum ow_die_type {
 	OW_DIE_CIRCLE,   /* diameter_m, length_m */
@@ -39,6 +62,9 @@ struct ow_limits {
 	double min_output_kg_s;
 	double max_output_kg_s;
 	double max_sbr;         /* max solid bed ratio anywhere, - */
+	double zone_load;       /* max share of a zone's heating or cooling
+				   power a point may need, - (1: every zone
+				   holds its set-point; the default) */
 };
 
 enum ow_axis_mode {
@@ -75,11 +101,20 @@ struct ow_line {
 	struct ow_limits limits;
 	struct ow_axes axes;
 	struct ow_numerics numerics;
+	double heat_transfer_factor; /* multiplies every zone's wall_h (a
+					calibration factor); default 1 */
 };
 
 /* Defaults: no limits set (all NAN), adiabatic root, 25 degC feed, numerics
  * at their proven defaults, 0.01 MPa feed pressure. */
 void ow_line_default(struct ow_line *l);
+
+/* Fill the zone control values a file left out (NAN) with the defaults
+ * above for a barrel of bore diameter_m, marking them in `defaulted`. */
+void ow_line_zone_defaults(struct ow_line *l, double diameter_m);
+
+/* Zone (0-based) that holds axial position x_m. */
+int ow_line_zone_at(const struct ow_line *l, double x_m);
 
 /* Barrel set-point at axial position x_m (the zone that holds x). */
 double ow_line_barrel_temp(const struct ow_line *l, double x_m);

@@ -18,8 +18,13 @@
  *   DIR/profile.csv   the centre point's axial profile
  *                     (ow_results_profile_csv), absent when the window is
  *                     empty; its figures are in lattice.json ("centre").
+ *   DIR/manifest.json every other file's size and CRC-32, written last
+ *                     (ow_mapdir_seal): a folder without it, or whose
+ *                     files do not match it, is not read back.
  *
- * Every file is written atomically (ow_results_write_file). */
+ * Every file is written atomically (ow_io_write_file), and the folder as a
+ * whole: into a sibling temporary folder that ow_mapdir_replace puts in
+ * place of the previous one in one rename. */
 #ifndef OW_MAPDIR_H
 #define OW_MAPDIR_H
 
@@ -64,6 +69,35 @@ enum ow_status ow_mapdir_load(const struct ow_units *u, const char *dir,
                               struct ow_study *study, struct ow_grid **grid,
                               struct ow_mapdir_centre *centre,
                               struct ow_diag *d);
+
+/* Write DIR/manifest.json: the size and CRC-32 of every regular file in
+ * dir (names starting with '.' left out). OW_EIO when a write fails. */
+enum ow_status ow_mapdir_seal(const char *dir, struct ow_diag *d);
+
+/* Check that dir is a complete map folder as opwin wrote it: its manifest
+ * is there and every file it lists has its size and CRC-32. OW_EINPUT
+ * naming the folder and the file otherwise. */
+enum ow_status ow_mapdir_verify(const char *dir, struct ow_diag *d);
+
+/* Before solving: can a map folder be written at dir? Its parent must be
+ * a writable folder and dir absent, an empty folder, or a map folder
+ * (never a folder of other files, which replacing would hide). OW_EIO
+ * naming dir and why not. */
+enum ow_status ow_mapdir_check_target(const char *dir, struct ow_diag *d);
+
+/* Put the finished folder tmp (sealed; from ow_io_dir_begin) in place of
+ * dir in one rename. The previous folder's files that opwin writes are
+ * deleted; anything else in it moves into the new folder. When something
+ * could not be moved or deleted, the previous folder stays at the path
+ * put into left[n] ("" otherwise). OW_EIO when the rename fails (tmp is
+ * then untouched). */
+enum ow_status ow_mapdir_replace(const char *tmp, const char *dir,
+                                 char *left, size_t n, struct ow_diag *d);
+
+/* Copy the data files of map folder `from` (all but the drawings and the
+ * manifest) into folder `to`, so the drawings can be made again there. */
+enum ow_status ow_mapdir_copy_data(const char *from, const char *to,
+                                   struct ow_diag *d);
 
 /* Free the rows of a loaded centre and mark it invalid (NULL-safe). */
 void ow_mapdir_centre_free(struct ow_mapdir_centre *c);

@@ -48,6 +48,8 @@ enum ow_map_figure {
 	OW_MAP_PRESSURE,  /* map-pressure: highest pressure on the screw */
 	OW_MAP_OUTPUT,    /* map-output: throughput */
 	OW_MAP_SEC,       /* map-sec: specific energy (drive) */
+	OW_MAP_ZONE_LOAD, /* map-zone-load: largest share of a barrel zone's
+			     heating or cooling power needed */
 	OW_MAP_COUNT
 };
 

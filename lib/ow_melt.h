@@ -34,6 +34,14 @@
 double ow_melt_shape_fd(double h_over_w);
 double ow_melt_shape_fp(double h_over_w);
 
+/* Barrel speed that drags as much as a side wall of the channel (depth H,
+ * width W) sliding down-channel at wall_speed, e.g. the solid bed beside
+ * the melt pool: V_s F_d(W/H)/F_d(H/W) (Rowell & Finlayson's drag solution
+ * with width and depth exchanged; exact for a Newtonian melt, whose drag
+ * flows add). m/s; NAN for a non-positive depth or width. */
+double ow_melt_side_drag_speed(double depth_m, double width_m,
+			       double wall_speed_m_s);
+
 /* ---- power-law drag + pressure flow (exact) ---------------------------- */
 
 /* Combined drag and pressure flow of a power-law fluid (tau = m gdot^n)
@@ -66,6 +74,35 @@ double ow_melt_leak_flux(double vbx_m_s, double clearance_m,
  * delta <= 0. */
 double ow_melt_leak_heat(double vb_m_s, double clearance_m, double visc_Pa_s,
 			 double flight_width_m);
+
+/* ---- fluted barrier mixer -------------------------------------------- */
+
+/* Flow of q_m3_s over n_lands barrier lands of a fluted mixer, each of
+ * length_m along the section, land width e (in the flow direction), gap
+ * g over the land, the barrel moving across the land at vb_m_s, melt
+ * viscosity mu (Tadmor & Gogos, Principles of Polymer Processing, 2nd ed.
+ * 2006, ch. 10; Rauwendaal, Polymer Extrusion, barrier-flight flow). Per
+ * unit land length, plane Couette-Poiseuille flow through the gap (Bird,
+ * Stewart & Lightfoot, Transport Phenomena, 2nd ed. 2002, sections 2.2 and
+ * 10.4):
+ *   q = Q / (n L) = V g/2 - g^3 dP / (12 mu e)
+ *   => dP = 12 mu e (V g/2 - q) / g^3   (rise across a land; > 0: the
+ *                                       mixer pumps)
+ *   heat  = n L e [mu V^2/g + g^3 (dP/e)^2 / (12 mu)]  (the cross term of
+ *           the two flows integrates to zero across the gap)
+ *   power = heat + Q dP                  (barrel shear stress times V)
+ * Newtonian forms; for a shear-thinning melt mu is taken at the gap's
+ * Couette shear rate V/g. Every output NAN for a non-positive gap, land
+ * length, land count or viscosity. */
+struct ow_mixer_land {
+	double dp_Pa;         /* pressure rise across the lands */
+	double heat_W;        /* viscous heating in all the land gaps */
+	double power_W;       /* barrel work on the land gaps */
+	double shear_1_s;     /* Couette shear rate in the gap, V/g */
+};
+void ow_melt_mixer_land(double q_m3_s, double n_lands, double length_m,
+			double gap_m, double land_width_m, double vb_m_s,
+			double visc_Pa_s, struct ow_mixer_land *out);
 
 /* Local power-law index n = 1 + dln(eta)/dln(gdot) of the resin's model at
  * shear rate gdot_1_s and temp_K (central difference in ln gdot). */
@@ -115,6 +152,12 @@ struct ow_melt_cond {
 					  down-channel length (1 for an
 					  ordinary channel) for the clearance
 					  heating */
+	double wall_h_W_m2K;           /* heat-transfer coefficient between
+					  the barrel's control point (at
+					  barrel_K) and its inner surface,
+					  per unit area of melt on the
+					  barrel; 0: ideal wall (the inner
+					  surface at barrel_K) */
 };
 
 /* Results of one station (per unit down-channel length of this channel).
@@ -174,6 +217,26 @@ void ow_melt_mix(struct ow_melt_ws *ws, double frac, double temp_K);
 
 /* Raise every band by dT_K (heat added uniformly, e.g. a mixing element). */
 void ow_melt_heat(struct ow_melt_ws *ws, double dT_K);
+
+/* One step of dz_m > 0 through a mixing section: the melt keeps the band
+ * layout and band flows of the last conveying station (the flutes, open to
+ * the barrel, carry it as the channel before them did), gains heat_W_m per
+ * unit down-channel length spread over the bands in proportion to their
+ * flow (every particle crosses a land, where the Couette shear heating is
+ * uniform across the gap: Bird, Stewart & Lightfoot 2002, section 10.4),
+ * and exchanges heat with the barrel (through wall_h_W_m2K) and the root
+ * like any station. Without a previous station the bands are equal depth
+ * layers of depth_m. Fills bulk_K, peak_K, barrel_heat_W_m, root_heat_W_m
+ * and dissipation_W_m (= heat_W_m) of *out; energy is conserved exactly
+ * as in ow_melt_step. Errors as ow_melt_step. */
+enum ow_status ow_melt_mixer_step(struct ow_melt_ws *ws,
+				  const struct ow_melt_cond *c, double dz_m,
+				  double heat_W_m, struct ow_melt_out *out,
+				  struct ow_diag *d);
+
+/* Copy the whole state of src (band temperatures, layout, warm start) into
+ * dst, created with the same sizes; for restarting a stretch of a march. */
+void ow_melt_copy(struct ow_melt_ws *dst, const struct ow_melt_ws *src);
 
 /* Flow-weighted bulk and peak band temperature now, K. */
 double ow_melt_bulk(const struct ow_melt_ws *ws);

@@ -65,9 +65,9 @@ enum ow_status ow_results_window_json(const struct ow_study *s,
 				      const struct ow_window *w, char **out,
 				      struct ow_diag *d);
 
-/* Write text to path atomically: a temporary file in the same folder, then
- * rename, so a failed write never replaces a good file. OW_EIO on failure
- * (message names the path). */
+/* The same as ow_io_write_file (ow_io.h): a temporary made with mkstemp
+ * beside path, then renamed; a failed write never replaces a good file.
+ * OW_EIO on failure (message names the path). */
 enum ow_status ow_results_write_file(const char *path, const char *text,
 				     size_t len, struct ow_diag *d);
 

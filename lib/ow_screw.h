@@ -29,10 +29,13 @@ struct ow_section {
 	enum ow_section_type type;
 	double length_m;      /* axial length */
 	double depth_m;       /* end depth (feed/metering: the depth) */
-	/* mixer: gap over its barrier lands, and the number of lands the melt
-	 * can cross (0: the default of 8, from memory of fluted mixers) */
+	/* mixer: gap over its barrier lands, and the number of barrier lands
+	 * the melt can cross (0 in a file without it: ow_screw_prepare puts
+	 * in the common-practice default of ow_screw_default_lands and
+	 * clears lands_given) */
 	double gap_m;
 	int lands;
+	int lands_given;
 	/* barrier: both channels' depths at start and end, the melt channel's
 	 * share of the total channel width at start and end (0..1), and the
 	 * radial clearance over the barrier flight */
@@ -107,5 +110,10 @@ double ow_screw_free_area(const struct ow_screw *s, double x_m);
 
 /* Name of a section type as written in screw files ("feed", "taper", ...). */
 const char *ow_section_name(enum ow_section_type t);
+
+/* Barrier lands of a fluted mixer on a barrel of diameter_m when the
+ * screw file does not say: one per 25 mm of barrel circumference, at least
+ * 2 (common practice; 8 on a 63.5 mm screw). */
+int ow_screw_default_lands(double diameter_m);
 
 #endif

@@ -19,7 +19,12 @@
 #define OW_FLAG_BACKFLOW 0x08u      /* a band's down-channel flow floored */
 #define OW_FLAG_NO_MELTING 0x10u    /* barrel never above the melting point
 				       and no melting by dissipation */
-#define OW_FLAG_UNHEATED_MELT 0x20u /* a plugged bed gave up solids as melt
+#define OW_FLAG_PARTIAL_FILL 0x20u  /* absolute pressure below zero somewhere:
+				       the channel cannot run full there
+				       (starved, partly filled) */
+#define OW_FLAG_ZONE_FLOAT 0x40u    /* a zone cannot hold its set-point and
+				       runs at the temperature it can hold */
+#define OW_FLAG_UNHEATED_MELT 0x80u /* a plugged bed gave up solids as melt
 				       with no heat to melt them: the energy
 				       book is short by unheated_melt_W */
 
@@ -38,14 +43,31 @@ struct ow_point {
 	double unmelt_frac;           /* solid mass fraction at the tip */
 	double melt_start_m;          /* NAN when melting never starts */
 	double melt_complete_m;       /* NAN when solids reach the tip */
-	double max_sbr;               /* solid bed ratio X/W, max */
-	double max_sbr_at_m;
+	double max_sbr;               /* solid bed ratio X/W, max where the
+					 bed's channel gets shallower (the
+					 transition); 0 if the bed is gone
+					 before */
+	double max_sbr_at_m;          /* NAN when max_sbr is 0 */
+	double plug_ratio;            /* Tadmor's plugging number there, max:
+					 A sqrt(X/W) rho_s V_sz sqrt(W) / Phi;
+					 >= 1: the bed widens as it is
+					 squeezed */
 	double plugging_at_m;         /* NAN unless plugging */
 	double power_W;               /* screw drive power (shaft) */
 	double torque_Nm;
 	double sec_J_kg;              /* drive power / throughput */
 	double barrel_heat_W;         /* net heat barrel -> resin */
-	double zone_heat_W[OW_MAX_ZONES];
+	double zone_heat_W[OW_MAX_ZONES]; /* heat each zone gives the resin */
+	double zone_demand_W[OW_MAX_ZONES]; /* heat each zone must give to
+					       hold its set-point (< 0:
+					       cooling) */
+	double zone_control_K[OW_MAX_ZONES]; /* control-point temperature the
+						zone runs at (the set-point
+						unless it floats) */
+	double zone_load;             /* max over zones of demand / the
+					 heating (or cooling) power, - */
+	unsigned zone_floating;       /* bit i: zone i cannot hold its
+					 set-point */
 	double residence_s;           /* mean residence time hopper -> tip */
 	double feed_capacity_kg_s;    /* feed section's Darnell-Mol rate at
 					 no pressure loss (NAN: melt-fed) */

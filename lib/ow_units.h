@@ -29,6 +29,7 @@ enum ow_dim {
 	OW_DIM_TORQUE,        /* N m */
 	OW_DIM_SHEAR_RATE,    /* 1/s */
 	OW_DIM_CONSISTENCY,   /* Pa s^n: "<pressure unit> s^n" or "Pa s^0.4" */
+	OW_DIM_HEAT_TRANSFER, /* W/(m2 K), a heat-transfer coefficient */
 	OW_DIM_COUNT
 };
 
@@ -65,6 +66,12 @@ enum ow_status ow_units_convert(const struct ow_units *u, double x,
  * point whatever the locale. OW_EINPUT for "", "nan", "1e999", "2 mm". */
 enum ow_status ow_units_parse_number(const char *text, double *x,
 				     struct ow_diag *d);
+
+/* The power of s written in a power-law consistency text ("20000 Pa
+ * s^0.41" -> 0.41, "8 kPa s" -> 1): 1 and *power set, or 0 when the power
+ * is the symbol n (or the text is not a consistency). Lets a reader check
+ * that the power matches the model's index. Pure text; thread-safe. */
+int ow_units_consistency_power(const char *text, double *power);
 
 /* A human name of a dimension with an example ("a length such as 63.5 mm"). */
 const char *ow_dim_expect(enum ow_dim dim);

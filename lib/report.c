@@ -13,6 +13,7 @@
 #include <string.h>
 
 #include "opwin.h"
+#include "ow_io.h"
 #include "ow_results.h"
 
 /* ISO 216 A4 is 210 x 297 mm; US Letter 8.5 x 11 in; 72 pt per inch. */
@@ -264,7 +265,7 @@ static void save(struct rpt *r, const char *path)
 	rpt_check(r);
 	if (r->st == OW_OK)
 		r->st =
-		    ow_results_write_file(path, (const char *)buf, len, r->d);
+		    ow_io_write_file(path, (const char *)buf, len, r->d);
 	free(buf);
 }
 

@@ -203,7 +203,8 @@ char *rpt_limit_text(struct rpt *r, enum ow_check c, char *buf, size_t n)
 	static const enum ow_dim dims[OW_CK_LIMITS] = {
 	    OW_DIM_TEMPERATURE, OW_DIM_NONE,      OW_DIM_PRESSURE,
 	    OW_DIM_POWER,       OW_DIM_TORQUE,    OW_DIM_TEMPERATURE,
-	    OW_DIM_MASS_FLOW,   OW_DIM_MASS_FLOW, OW_DIM_NONE};
+	    OW_DIM_MASS_FLOW,   OW_DIM_MASS_FLOW, OW_DIM_NONE,
+	    OW_DIM_NONE};
 	int at_least = c == OW_CK_MIN_MELT_TEMP || c == OW_CK_MIN_OUTPUT;
 	double v = ow_check_limit(&r->s->line.limits, c);
 	char q[64];
@@ -212,7 +213,7 @@ char *rpt_limit_text(struct rpt *r, enum ow_check c, char *buf, size_t n)
 		snprintf(buf, n, "%s (always unsafe)", ow_check_text(c));
 		return buf;
 	}
-	if (c == OW_CK_UNMELT) {
+	if (c == OW_CK_UNMELT || c == OW_CK_ZONE_CONTROL) {
 		rpt_num(q, sizeof q, v * 100.0, 3);
 		strcat(q, " %");
 	} else {

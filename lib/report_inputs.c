@@ -97,7 +97,7 @@ static void section_note(struct rpt *r, const struct ow_section *x, char *buf,
 	if (x->type == OW_SEC_MIXER) {
 		rpt_qty(r, a, sizeof a, OW_DIM_LENGTH, x->gap_m, 3);
 		snprintf(buf, n, "gap over the lands %s, %d lands", a,
-		         x->lands ? x->lands : 8);
+		         x->lands);
 	} else if (x->type == OW_SEC_BARRIER) {
 		rpt_qty(r, a, sizeof a, OW_DIM_LENGTH, x->melt_depth_start_m,
 		        3);

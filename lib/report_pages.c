@@ -34,6 +34,11 @@ static const struct {
     [OW_MAP_SEC] = {"Drive energy put into each unit "
                     "mass of resin (drive power over throughput).",
                     -1},
+    [OW_MAP_ZONE_LOAD] = {"Largest share of a barrel zone's heating or "
+                          "cooling power the point needs to hold the "
+                          "set-points; above 100 % that zone cannot hold "
+                          "its set-point and runs hotter (or colder).",
+                          OW_CK_ZONE_CONTROL},
 };
 
 static void caption(struct rpt *r, enum ow_map_figure f)

@@ -2,6 +2,7 @@
  * writing. Units are those the keys name, never display units. */
 #include "ow_results.h"
 #include "text_impl.h"
+#include "ow_io.h"
 
 #include <cjson/cJSON.h>
 #include <errno.h>
@@ -9,7 +10,6 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
-#include <unistd.h>
 
 #define OW_PI 3.14159265358979323846
 
@@ -27,35 +27,7 @@ char *ow_fmt_double(char *buf, size_t n, double x, int json)
 enum ow_status ow_results_write_file(const char *path, const char *text,
 				     size_t len, struct ow_diag *d)
 {
-	size_t plen = strlen(path) + 32;
-	char *tmp = malloc(plen);
-	FILE *f = NULL;
-	enum ow_status st = OW_OK;
-
-	if (!tmp)
-		return ow_diag_set(d, OW_ENOMEM, "out of memory");
-	snprintf(tmp, plen, "%s.tmp%ld", path, (long)getpid());
-	f = fopen(tmp, "wb");
-	if (!f) {
-		st = ow_diag_set(d, OW_EIO, "%s: cannot write: %s", path,
-				 strerror(errno));
-		goto fail;
-	}
-	if (fwrite(text, 1, len, f) != len || fflush(f) != 0) {
-		st = ow_diag_set(d, OW_EIO, "%s: write failed: %s", path,
-				 strerror(errno));
-		fclose(f);
-		remove(tmp);
-		goto fail;
-	}
-	if (fclose(f) != 0 || rename(tmp, path) != 0) {
-		st = ow_diag_set(d, OW_EIO, "%s: cannot complete: %s", path,
-				 strerror(errno));
-		remove(tmp);
-	}
-fail:
-	free(tmp);
-	return st;
+	return ow_io_write_file(path, text, len, d);
 }
 
 static int put_num(cJSON *o, const char *key, double v)
@@ -78,6 +50,7 @@ static cJSON *section_json(const struct ow_screw *s, int i)
 	if (sec->type == OW_SEC_MIXER) {
 		ok = ok && put_num(o, "depth_start_mm", sec->gap_m * 1e3);
 		ok = ok && put_num(o, "depth_end_mm", sec->gap_m * 1e3);
+		ok = ok && put_num(o, "lands", sec->lands);
 	} else {
 		ok = ok && put_num(o, "depth_start_mm",
 				   sec->depth_start_m * 1e3);
@@ -221,6 +194,8 @@ static double fig(const struct ow_study *s, const struct ow_point *p, int i)
 	case 16: return per_D(s, p->peak_at_m);
 	case 17: return p->energy_residual;
 	case 18: return p->feed_capacity_kg_s * 3600.0;
+	case 19: return p->plug_ratio;
+	case 20: return p->zone_load;
 	default: return NAN;
 	}
 }
@@ -231,7 +206,7 @@ static const char *const fig_keys[] = {
 	"unmelt_fraction", "melt_complete_D", "max_sbr", "power_kW",
 	"torque_Nm", "sec_kWh_kg", "barrel_heat_kW", "residence_s",
 	"melt_start_D", "max_pressure_D", "peak_temp_D", "energy_residual",
-	"feed_capacity_kg_h",
+	"feed_capacity_kg_h", "plug_ratio", "zone_load",
 };
 
 int ow_results_n_figures(void)
@@ -285,6 +260,33 @@ static int add_zones(cJSON *o, const struct ow_study *s,
 		ok = ok && put_num(z, "to_D", per_D(s, s->line.zones[i].to_m));
 		ok = ok && put_num(z, "set_C", C_OF_K(pt->set_K[i]));
 		ok = ok && put_num(z, "heat_kW", pt->zone_heat_W[i] * 1e-3);
+		ok = ok && put_num(z, "demand_kW",
+				   pt->zone_demand_W[i] * 1e-3);
+		ok = ok && put_num(z, "heating_kW",
+				   s->line.zones[i].heating_W * 1e-3);
+		ok = ok && put_num(z, "cooling_kW",
+				   s->line.zones[i].cooling_W * 1e-3);
+		ok = ok && put_num(z, "control_C",
+				   C_OF_K(pt->zone_control_K[i]));
+		ok = ok && cJSON_AddBoolToObject(
+				   z, "holds_set",
+				   !(pt->zone_floating & (1u << i))) != NULL;
+	}
+	return ok;
+}
+
+/* "zone N cannot hold set-point" for every zone that floats. */
+static int add_zone_notes(cJSON *notes, const struct ow_study *s,
+			  const struct ow_point *pt)
+{
+	char t[64];
+	int i, ok = notes != NULL;
+
+	for (i = 0; ok && i < s->line.n_zones; i++) {
+		if (!(pt->zone_floating & (1u << i)))
+			continue;
+		snprintf(t, sizeof t, "zone %d cannot hold set-point", i + 1);
+		ok = cJSON_AddItemToArray(notes, cJSON_CreateString(t));
 	}
 	return ok;
 }
@@ -321,6 +323,7 @@ enum ow_status ow_results_point_json(const struct ow_study *s,
 					      OW_FLAG_UNHEATED_MELT),
 				 names, 8);
 	ok = ok && add_names(root, "notes", names, n);
+	ok = ok && add_zone_notes(cJSON_GetObjectItem(root, "notes"), s, pt);
 	ok = ok && put_num(root, "iterations", pt->n_iter);
 	ok = ok && add_zones(root, s, pt);
 	ok = ok && add_margins(root, v);
@@ -372,6 +375,12 @@ enum ow_status ow_results_grid_csv(const struct ow_study *s,
 		ow_text_add(&t, ",");
 		ow_text_add(&t, fig_keys[f]);
 	}
+	for (f = 0; f < s->line.n_zones; f++) {
+		char h[40];
+
+		snprintf(h, sizeof h, ",zone_%d_demand_kW", f + 1);
+		ow_text_add(&t, h);
+	}
 	ow_text_add(&t, ",status\n");
 	for (i = 0; i < g->n_rpm * g->n_axis; i++) {
 		const struct ow_grid_point *p = &g->pts[i];
@@ -383,6 +392,8 @@ enum ow_status ow_results_grid_csv(const struct ow_study *s,
 		ow_text_num(&t, C_OF_K(p->set_ref_K), 1);
 		for (f = 0; f < nf; f++)
 			ow_text_num(&t, fig(s, &p->pt, f), 1);
+		for (f = 0; f < s->line.n_zones; f++)
+			ow_text_num(&t, p->pt.zone_demand_W[f] * 1e-3, 1);
 		ow_text_status(&t, &p->v);
 		ow_text_add(&t, "\n");
 	}

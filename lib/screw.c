@@ -172,6 +172,13 @@ static enum ow_status check_barrier(const struct ow_section *sec, int i,
 }
 
 /* Derive start/end/depth_start of one section and check its own values. */
+int ow_screw_default_lands(double diameter_m)
+{
+	double n = floor(3.14159265358979323846 * diameter_m / 0.025 + 0.5);
+
+	return n < 2.0 ? 2 : (n > 64.0 ? 64 : (int)n);
+}
+
 static enum ow_status prepare_section(struct ow_screw *s, int i, double x,
 				      struct ow_diag *d)
 {
@@ -191,6 +198,9 @@ static enum ow_status prepare_section(struct ow_screw *s, int i, double x,
 					   "positive gap below the radius",
 					   i, sec->gap_m * 1e3);
 		sec->depth_m = sec->depth_start_m = last_depth(s, i);
+		sec->lands_given = sec->lands > 0;
+		if (!sec->lands_given)
+			sec->lands = ow_screw_default_lands(s->diameter_m);
 		if (i == 0)
 			return ow_diag_set(d, OW_EINPUT,
 					   "sections[0].type: a mixer cannot "

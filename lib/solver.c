@@ -54,6 +54,9 @@ enum ow_status ow_solver_create(const struct ow_study *s,
 	bands = (nm->depth_nodes - 1) / 2;
 	st = ow_melt_create(nm->depth_nodes, bands < 2 ? 2 : bands,
 			    &sv->melt, d);
+	if (st == OW_OK)
+		st = ow_melt_create(nm->depth_nodes, bands < 2 ? 2 : bands,
+				    &sv->melt_save, d);
 	if (st != OW_OK)
 		goto fail;
 	*out = sv;
@@ -68,6 +71,7 @@ void ow_solver_destroy(struct ow_solver *sv)
 	if (!sv)
 		return;
 	ow_melt_destroy(sv->melt);
+	ow_melt_destroy(sv->melt_save);
 	free(sv->rows);
 	free(sv);
 }
@@ -187,6 +191,31 @@ static int refine(struct ow_solver *sv, struct eval *lo, struct eval *hi,
 	return 0;
 }
 
+/* Each zone's demand, the control temperature it ran at, and the largest
+ * share of a zone's heating or cooling power the point needs. */
+static void zone_figures(const struct ow_line *l, const struct march *m,
+			 struct ow_point *pt)
+{
+	int i;
+
+	pt->zone_load = 0.0;
+	for (i = 0; i < l->n_zones; i++) {
+		const struct ow_zone *z = &l->zones[i];
+		double need = m->zone_demand_W[i];
+		double cap = need > 0.0 ? z->heating_W : z->cooling_W;
+
+		pt->zone_demand_W[i] = need;
+		pt->zone_control_K[i] = m->ctrl_K[i];
+		if (need != 0.0 && !isnan(cap))
+			pt->zone_load = fmax(pt->zone_load,
+					     cap > 0.0 ? fabs(need) / cap
+						       : INFINITY);
+	}
+	pt->zone_floating = m->zone_floating;
+	if (m->zone_floating)
+		pt->flags |= OW_FLAG_ZONE_FLOAT;
+}
+
 /* Fill the figures of point *pt from the final march. */
 static void figures(const struct ow_solver *sv, const struct eval *e,
 		    struct ow_point *pt)
@@ -209,12 +238,14 @@ static void figures(const struct ow_solver *sv, const struct eval *e,
 	pt->melt_complete_m = e->m.melt_done_m;
 	pt->max_sbr = e->m.max_sbr;
 	pt->max_sbr_at_m = e->m.max_sbr_at_m;
+	pt->plug_ratio = e->m.plug_ratio;
 	pt->plugging_at_m = e->m.plug_at_m;
 	pt->power_W = e->m.power_W;
 	pt->torque_Nm = e->m.power_W / (2.0 * OW_PI * sv->rev_s);
 	pt->sec_J_kg = g > 0.0 ? e->m.power_W / g : NAN;
 	pt->barrel_heat_W = e->m.barrel_W;
 	memcpy(pt->zone_heat_W, e->m.zone_W, sizeof pt->zone_heat_W);
+	zone_figures(&s->line, &e->m, pt);
 	pt->residence_s = g > 0.0 ? e->m.hold_kg / g : NAN;
 	pt->feed_capacity_kg_s = e->m.feed_cap_kg_s;
 	pt->flags |= e->m.flags;

@@ -13,6 +13,8 @@ static const struct {
 	{OW_FLAG_NOT_CONVERGED, "not_converged"},
 	{OW_FLAG_BACKFLOW, "backflow"},
 	{OW_FLAG_NO_MELTING, "no_melting"},
+	{OW_FLAG_PARTIAL_FILL, "partial_fill"},
+	{OW_FLAG_ZONE_FLOAT, "zone_floating"},
 	{OW_FLAG_UNHEATED_MELT, "unheated_melt"},
 };
 

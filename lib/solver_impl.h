@@ -18,7 +18,9 @@ struct march {
 	double peak_K, peak_at_m;
 	double unmelt;        /* solid mass fraction at the tip */
 	double melt_start_m, melt_done_m;
-	double max_sbr, max_sbr_at_m, plug_at_m;
+	double max_sbr, max_sbr_at_m, plug_at_m; /* max_sbr where the bed's
+					channel gets shallower (0: none) */
+	double plug_ratio;    /* Tadmor's plugging number, max there */
 	double power_W;       /* drive power */
 	double barrel_W;      /* heat barrel -> resin */
 	double root_W;        /* heat root -> resin */
@@ -26,6 +28,9 @@ struct march {
 	double unheated_W;    /* melting heat of solids a held (plugged) bed
 				 gave up without heat: no stage supplies it */
 	double zone_W[OW_MAX_ZONES];
+	double zone_demand_W[OW_MAX_ZONES]; /* at the set-point */
+	double ctrl_K[OW_MAX_ZONES];  /* control points as run */
+	unsigned zone_floating;       /* bit per zone */
 	double hold_kg;       /* resin held in the channel (residence) */
 	double feed_cap_kg_s; /* feed section capacity (NAN: melt-fed) */
 	unsigned flags;
@@ -36,6 +41,10 @@ struct ow_solver {
 	struct ow_melt_ws *melt;
 	double rev_s;                 /* screw speed of the current run */
 	double set_K[OW_MAX_ZONES];   /* zone set-points of the current run */
+	double ctrl_K[OW_MAX_ZONES];  /* control points of the current march
+					 (the set-points unless a zone
+					 floats) */
+	struct ow_melt_ws *melt_save; /* melt state at a zone's start */
 	int n_steps;                  /* axial steps hopper -> tip */
 	double dx_m;                  /* axial step */
 	struct ow_profile_row *rows;  /* n_steps + 1 rows */
@@ -49,7 +58,8 @@ struct ow_solver {
 enum ow_status ow_solver_march(struct ow_solver *sv, double g_kg_s,
 			       struct march *m);
 
-/* Barrel temperature at axial position x of the current run. */
+/* Barrel control-point temperature at axial position x of the current
+ * march. */
 double ow_solver_barrel(const struct ow_solver *sv, double x_m);
 
 #endif

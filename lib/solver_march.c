@@ -14,8 +14,6 @@
 #include <string.h>
 
 #define OW_PI 3.14159265358979323846
-#define POOL_MIN_FRAC 1e-3 /* pool narrower than this share of W: use the
-			      limit of its flow per width */
 
 enum phase { PH_SOLIDS, PH_MELTING, PH_MELT };
 
@@ -42,38 +40,46 @@ struct ctx {
 	double film_peak_K;
 	double shear;      /* max shear rate at this station */
 	double melt_from;  /* melting may start from here (axial, m) */
+	int zone;          /* the zone whose steps are being marched */
+	double film_m, film_mu, film_vj2; /* last melt film: thickness,
+					     viscosity, slip speed^2 */
+};
+
+/* The march's state at a zone's start, to march the zone again. */
+struct snap {
+	struct ctx c;
+	struct march m;
 };
 
 double ow_solver_barrel(const struct ow_solver *sv, double x_m)
 {
-	const struct ow_line *l = &sv->s->line;
-	int i;
-
-	for (i = 0; i < l->n_zones - 1; i++)
-		if (x_m < l->zones[i].to_m)
-			return sv->set_K[i];
-	return sv->set_K[l->n_zones - 1];
+	return sv->ctrl_K[ow_line_zone_at(&sv->s->line, x_m)];
 }
 
-static int zone_of(const struct ow_line *l, double x_m)
+/* Heat-transfer coefficient from the control point to the bore at x,
+ * with the study's factor; 0 for an ideal wall. */
+static double wall_h(const struct ctx *c, double x)
 {
-	int i;
+	double h = c->ln->zones[ow_line_zone_at(c->ln, x)].wall_h_W_m2K;
 
-	for (i = 0; i < l->n_zones - 1; i++)
-		if (x_m < l->zones[i].to_m)
-			return i;
-	return l->n_zones - 1;
+	return h > 0.0 ? h * c->ln->heat_transfer_factor : 0.0;
 }
 
-/* Book heat from the barrel at axial position x (all channels). */
+/* Book heat from the barrel (all channels) to the zone being marched. */
 static void book_barrel(struct ctx *c, double x, double w)
 {
+	(void)x;
 	c->m->barrel_W += w;
-	c->m->zone_W[zone_of(c->ln, x)] += w;
+	c->m->zone_W[c->zone] += w;
 }
 
+/* A pressure below zero cannot exist in melt: the channel cannot run full
+ * there (starved or partly filled), so the full-channel model no longer
+ * holds and the point is flagged. */
 static void note_pressure(struct ctx *c, double x)
 {
+	if (c->P < 0.0)
+		c->m->flags |= OW_FLAG_PARTIAL_FILL;
 	if (c->P > c->m->max_Pa) {
 		c->m->max_Pa = c->P;
 		c->m->max_at_m = x;
@@ -101,6 +107,7 @@ static void melt_cond(const struct ctx *c, double x, double depth,
 	mc->vb_m_s = c->vb;
 	mc->vol_flow_m3_s = q_m3_s;
 	mc->barrel_K = ow_solver_barrel(c->sv, x);
+	mc->wall_h_W_m2K = wall_h(c, x);
 	mc->root_adiabatic = c->ln->root_adiabatic;
 	mc->root_K = c->ln->root_temp_K;
 	mc->clearance_m = ow_screw_clearance(c->sc, x);
@@ -211,23 +218,41 @@ static void fit_bed(struct ctx *c, const struct split *sp)
 		 (c->mat->solid_density_kg_m3 * sp->bed_h * sp->bed_w);
 }
 
-/* Melt pool (or barrier melt channel) over one step, with flow q_m3_s
- * carried at the channel's own width; scale is the share of the channel the
- * pool occupies (energy terms scale with it). */
-static enum ow_status step_pool(struct ctx *c, double x, double dz,
-				double depth, double width, double q,
-				double scale, struct ow_melt_out *o)
+/* A channel carrying melt: its depth and width, and the speed at which one
+ * side wall slides down-channel (the solid bed beside a pool; 0: none). */
+struct chan {
+	double h, w, side;
+};
+
+/* Solve the melt of flow q in channel ch at axial x; the band temperatures
+ * advance over dz (0: the pressure gradient only). */
+static enum ow_status chan_solve(struct ctx *c, double x, double dz,
+				 const struct chan *ch, double q,
+				 struct ow_melt_out *o)
 {
 	struct ow_melt_cond mc;
-	enum ow_status st;
 
-	melt_cond(c, x, depth, width, q, &mc);
-	st = ow_melt_step(c->sv->melt, &mc, dz, o, &c->sv->diag);
+	melt_cond(c, x, ch->h, ch->w, q, &mc);
+	if (ch->side > 0.0)
+		mc.vbz_m_s += ow_melt_side_drag_speed(ch->h, ch->w, ch->side);
+	return ow_melt_step(c->sv->melt, &mc, dz, o, &c->sv->diag);
+}
+
+/* Melt channel, melt pool or one of a barrier's channels over one step:
+ * flow q_m3_s carried in channel ch. The bands advance over share dz, the
+ * share of the melt this channel carries; power and heat are booked over dz
+ * (share 1: the whole melt). */
+static enum ow_status step_pool(struct ctx *c, double x, double dz,
+				const struct chan *ch, double q, double share,
+				struct ow_melt_out *o)
+{
+	enum ow_status st = chan_solve(c, x, share * dz, ch, q, o);
+
 	if (st != OW_OK)
 		return st;
-	c->m->power_W += o->power_W_m * dz * scale * c->p;
-	c->m->root_W += o->root_heat_W_m * dz * scale * c->p;
-	book_barrel(c, x, o->barrel_heat_W_m * dz * scale * c->p);
+	c->m->power_W += o->power_W_m * dz * c->p;
+	c->m->root_W += o->root_heat_W_m * dz * c->p;
+	book_barrel(c, x, o->barrel_heat_W_m * dz * c->p);
 	if (o->q_floor_used)
 		c->m->flags |= OW_FLAG_BACKFLOW;
 	if (o->max_shear_1_s > c->shear)
@@ -235,30 +260,124 @@ static enum ow_status step_pool(struct ctx *c, double x, double dz,
 	return OW_OK;
 }
 
-/* Melt flow of the pool per unit width, m^2/s: the melted mass spread over
- * the pool's width, or (pool still a sliver) its limit, the bed's own volume
- * flux per width at melt density. */
-static double pool_flux(const struct ctx *c, double room, double melt_kg_s,
-			double bed_h)
+/* Pressure gradient mismatch of a barrier's two channels when the solids
+ * channel carries q1 of the melt flow q: G_1(q1) - G_2(q - q1), falling as
+ * q1 rises. Temperatures untouched. */
+static enum ow_status split_gap(struct ctx *c, double x,
+				const struct chan ch[2], double q, double q1,
+				double *gap)
 {
-	const struct ow_material *mt = c->mat;
+	struct ow_melt_out o1, o2;
+	enum ow_status st = chan_solve(c, x, 0.0, &ch[0], q1, &o1);
 
-	if (room > POOL_MIN_FRAC * c->width)
-		return melt_kg_s / mt->melt_density_kg_m3 / room;
-	return c->vsz * bed_h * mt->solid_density_kg_m3 /
-	       mt->melt_density_kg_m3;
+	if (st == OW_OK)
+		st = chan_solve(c, x, 0.0, &ch[1], q - q1, &o2);
+	*gap = o1.dpdz_Pa_m - o2.dpdz_Pa_m;
+	return st;
 }
 
-/* Share of the modelled pool's energy terms that the melt carries: the
- * pool is solved as a channel carrying q_m3_s, its temperature rise is
- * (heat in) / (rho c_p q), and the melt mass flow carries that rise, so
- * the book takes (heat in) times (melt flow) / (rho q): room / W while
- * the pool has width, and no less once a held bed leaves it a sliver. */
-static double pool_scale(const struct ctx *c, double q_m3_s)
-{
-	double melt_m3_s = (c->g - c->solid_flow) / c->mat->melt_density_kg_m3;
+#define SPLIT_TOL 1e-6  /* gradient mismatch relative to the larger one */
+#define SPLIT_MAXIT 60
 
-	return q_m3_s > 0.0 ? melt_m3_s / q_m3_s : 0.0;
+/* The share of the melt flow q the solids channel carries when both
+ * channels of a barrier section, side by side under the barrel, run at one
+ * pressure gradient: parallel conduits split the flow by their drag and
+ * pressure-flow conductances (Tadmor & Klein 1970, ch. 7, applied to each
+ * channel). Illinois regula falsi (Dowell & Jarratt, BIT 11 (1971) 168) on
+ * q1 in [0, q]; a channel whose gradient cannot be matched even with all
+ * or none of the flow gets all or none of it. */
+static enum ow_status split_flow(struct ctx *c, double x,
+				 const struct chan ch[2], double q,
+				 double *q1)
+{
+	double lo = 0.0, hi = q, flo, fhi, f, g1, g2;
+	int it, side = 0;
+	enum ow_status st = split_gap(c, x, ch, q, lo, &flo);
+
+	if (st == OW_OK)
+		st = split_gap(c, x, ch, q, hi, &fhi);
+	*q1 = flo <= 0.0 ? 0.0 : q;
+	if (st != OW_OK || flo <= 0.0 || fhi >= 0.0)
+		return st;
+	for (it = 0; it < SPLIT_MAXIT; it++) {
+		*q1 = (lo * fhi - hi * flo) / (fhi - flo);
+		st = split_gap(c, x, ch, q, *q1, &f);
+		if (st != OW_OK)
+			return st;
+		g1 = fabs(flo), g2 = fabs(fhi);
+		if (fabs(f) <= SPLIT_TOL * fmax(g1, g2) || f == 0.0)
+			break;
+		if (f > 0.0) {
+			lo = *q1, flo = f;
+			if (side == 1)
+				fhi *= 0.5;
+			side = 1;
+		} else {
+			hi = *q1, fhi = f;
+			if (side == -1)
+				flo *= 0.5;
+			side = -1;
+		}
+	}
+	return OW_OK;
+}
+
+/* Melt flow q over one step of a barrier section. The solids channel holds
+ * the bed and, beside it, a pool (the whole channel once the bed is gone);
+ * the melt channel beyond the barrier flight. Both carry melt at one
+ * pressure gradient (split_flow); the bands advance in each channel over
+ * its share of the step, so the band state is the flow-weighted mix of the
+ * two. *mo gets the flow-weighted gradient (the flow work of both) and the
+ * larger shear rate. A pool beside the bed narrower than it is deep
+ * carries none. */
+static enum ow_status step_barrier(struct ctx *c, double x, double dz,
+				   const struct split *sb, double bed_w,
+				   double q, struct ow_melt_out *mo)
+{
+	struct chan ch[2] = {{sb->bed_h, sb->bed_w - bed_w,
+			      bed_w > 0.0 ? c->vsz : 0.0},
+			     {sb->melt_h, sb->melt_w, 0.0}};
+	struct ow_melt_out o;
+	double q1 = 0.0, qs[2], g = 0.0;
+	enum ow_status st = OW_OK;
+	int k;
+
+	if (!(bed_w > 0.0 && ch[0].w < ch[0].h))
+		st = split_flow(c, x, ch, q, &q1);
+	qs[0] = q1;
+	qs[1] = q - q1;
+	memset(mo, 0, sizeof *mo);
+	for (k = 0; k < 2 && st == OW_OK; k++) {
+		if (!(qs[k] > 0.0))
+			continue;
+		st = step_pool(c, x, dz, &ch[k], qs[k], qs[k] / q, &o);
+		g += o.dpdz_Pa_m * qs[k] / q;
+		mo->max_shear_1_s = fmax(mo->max_shear_1_s, o.max_shear_1_s);
+	}
+	mo->dpdz_Pa_m = g;
+	return st;
+}
+
+/* The melt of one melting step: in a barrier section see step_barrier;
+ * otherwise the pool beside the bed, a channel of its own width W - X
+ * whose side wall, the bed, slides at V_sz (Tadmor & Klein 1970, ch. 9,
+ * convey the pool at width W - X). A pool narrower than it is deep is not
+ * yet a channel of its own: the bed filling the channel carries the
+ * pressure as the plug did (no build-up) and the pool melt stays at the
+ * melting point it entered with; an engineering choice, not from a source.
+ * *mo is zero then. */
+static enum ow_status step_melt_of_bed(struct ctx *c, double x, double dz,
+				       const struct split *sb, double bed_w,
+				       double q, struct ow_melt_out *mo)
+{
+	struct chan pool = {sb->bed_h, sb->bed_w - bed_w, c->vsz};
+
+	if (sb->barrier)
+		return step_barrier(c, x, dz, sb, bed_w, q, mo);
+	memset(mo, 0, sizeof *mo);
+	if (pool.w < pool.h)
+		return OW_OK;
+	return step_pool(c, x, dz, &pool, q, 1.0, mo);
 }
 
 /* Mix melt of mass dm_kg_s entering at temp_K into the pool of mass flow
@@ -289,6 +408,49 @@ static void book_unheated(struct ctx *c, const struct ow_melting_step_out *o)
 		c->m->unheated_W += free_kg_s * heat * c->p;
 }
 
+/* Plugging as the trade reads it, where the channel holding the bed gets
+ * shallower: the solid bed ratio there, and Tadmor's plugging number, the
+ * bed's width demand over its melting. With s = X/W, A = -dH/dz and
+ * psi_t = Phi / (rho_s V_sz sqrt(W)), the bed mass balance gives
+ * d sqrt(s)/dz = (A sqrt(s) - psi_t) / (2H) (Tadmor & Klein 1970, ch. 9),
+ * so the bed widens as it is squeezed when A sqrt(s) / psi_t > 1; for a
+ * bed filling the channel that is Tadmor's criterion psi_t <= A. */
+static void note_compression(struct ctx *c, const struct split *sa,
+			     const struct split *sb, double dz,
+			     const struct ow_melting_step_out *o, double x)
+{
+	double taper = (sa->bed_h - sb->bed_h) / dz, psi, r;
+
+	if (!(taper > 0.0) || !(o->bed_width_m > 0.0))
+		return;
+	if (o->sbr > c->m->max_sbr) {
+		c->m->max_sbr = o->sbr;
+		c->m->max_sbr_at_m = x;
+	}
+	psi = ow_melting_psi_taper(o->film.phi, c->mat->solid_density_kg_m3,
+				   c->vsz, sb->bed_w);
+	r = taper * sqrt(o->sbr) / psi;
+	if (psi > 0.0 && r > c->m->plug_ratio)
+		c->m->plug_ratio = r;
+}
+
+/* Inner-surface temperature over the melt film at x: the film takes
+ * q = (k/delta)(T_w - T_m) - mu V_j^2/(2 delta) per unit area (Tadmor
+ * 1966), the wall passes q = h (T_c - T_w) from the control point, so
+ *   T_w = (T_c + a T_m + mu V_j^2/(2 delta h)) / (1 + a),  a = k/(delta h)
+ * with the film of the last step (it changes slowly along the bed). */
+static double film_wall(const struct ctx *c, double x)
+{
+	double tc = ow_solver_barrel(c->sv, x), h = wall_h(c, x);
+	double d = c->film_m, a;
+
+	if (!(h > 0.0) || !(d > 0.0) || !(tc > c->mat->melt_temp_K))
+		return tc;
+	a = c->mat->melt_k_W_mK / (d * h);
+	return (tc + a * c->mat->melt_temp_K +
+		c->film_mu * c->film_vj2 / (2.0 * d * h)) / (1.0 + a);
+}
+
 /* Melting over one step (Tadmor 1966): the bed melts into the pool (or the
  * barrier's melt channel), which conveys the melt and sets the pressure
  * gradient. The film's shear work beyond its dissipation is taken as
@@ -303,17 +465,16 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 	struct ow_melting_step_out o;
 	struct ow_melt_out mo;
 	struct split sa, sb;
-	double melt_before = c->g - c->solid_flow, q, room, scale, pool_w;
+	double melt_before = c->g - c->solid_flow, q;
 	enum ow_status st;
 
 	channel_split(c, x, &sa);
 	channel_split(c, x + dx, &sb);
 	fit_bed(c, &sa);
 	in->bed_speed_m_s = c->vsz;
-	a = (struct ow_melting_station){sa.bed_h, sa.bed_w,
-					ow_solver_barrel(c->sv, x)};
+	a = (struct ow_melting_station){sa.bed_h, sa.bed_w, film_wall(c, x)};
 	b = (struct ow_melting_station){sb.bed_h, sb.bed_w,
-					ow_solver_barrel(c->sv, x + dx)};
+					film_wall(c, x + dx)};
 	if (sb.barrier && sb.bed_w < c->X)
 		b.width_m = c->X; /* the barrier reshapes the bed, not plugs */
 	st = ow_melting_step(in, &a, &b, dz, c->X, &o, &c->sv->diag);
@@ -323,33 +484,29 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 	if (o.plugged)
 		book_unheated(c, &o);
 	c->solid_flow = o.solid_flow_kg_s;
-	room = sb.barrier ? sb.melt_w : sb.bed_w - o.bed_width_m;
-	q = pool_flux(c, room, c->g - c->solid_flow, sb.bed_h);
-	pool_w = sb.barrier ? sb.melt_w : sb.bed_w; /* channel carrying melt */
-	scale = pool_scale(c, q * pool_w);
-	st = step_pool(c, x + 0.5 * dx, dz, sb.melt_h,
-		       pool_w, q * pool_w, scale, &mo);
+	q = (c->g - c->solid_flow) / mt->melt_density_kg_m3;
+	st = step_melt_of_bed(c, x + 0.5 * dx, dz, &sb, o.bed_width_m, q,
+			      &mo);
 	if (st != OW_OK)
 		return st;
 	/* film: dissipation + pressure work on the bed; heat from barrel */
 	c->m->power_W += (o.dissipation_W + c->solid_flow /
 			  mt->solid_density_kg_m3 * mo.dpdz_Pa_m * dz) * c->p;
-	c->m->flow_work_W += (c->solid_flow / mt->solid_density_kg_m3 +
-			      q * pool_w * scale) *
+	c->m->flow_work_W += (c->solid_flow / mt->solid_density_kg_m3 + q) *
 			     mo.dpdz_Pa_m * dz * c->p;
 	book_barrel(c, x, o.barrel_heat_W * c->p);
 	c->P += mo.dpdz_Pa_m * dz;
 	c->X = o.bed_width_m;
 	c->film_peak_K = o.film.peak_temp_K;
+	c->film_m = o.film.film_m;
+	c->film_mu = o.film.visc_Pa_s;
+	c->film_vj2 = o.film.slip_speed_m_s * o.film.slip_speed_m_s;
 	if (o.plugged) {
 		c->m->flags |= OW_FLAG_PLUGGING;
 		if (isnan(c->m->plug_at_m))
 			c->m->plug_at_m = x + dx;
 	}
-	if (o.sbr > c->m->max_sbr) {
-		c->m->max_sbr = o.sbr;
-		c->m->max_sbr_at_m = x + dx;
-	}
+	note_compression(c, &sa, &sb, dz, &o, x + dx);
 	if (o.melted_at_m >= 0.0) {
 		c->ph = PH_MELT;
 		c->solid_flow = 0.0;
@@ -358,15 +515,19 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 	return OW_OK;
 }
 
-/* Melt conveying over one step of a conveying section. */
+/* Melt conveying over one step of a conveying section; in a barrier
+ * section both channels carry the melt (step_barrier). */
 static enum ow_status step_melt(struct ctx *c, double x, double dx, double dz)
 {
 	struct ow_melt_out mo;
-	double q = c->g / c->mat->melt_density_kg_m3;
-	enum ow_status st = step_pool(c, x + 0.5 * dx, dz,
-				      ow_screw_depth(c->sc, x + 0.5 * dx),
-				      c->width, q, 1.0, &mo);
+	struct split sp;
+	double q = c->g / c->mat->melt_density_kg_m3, xm = x + 0.5 * dx;
+	struct chan ch = {ow_screw_depth(c->sc, xm), c->width, 0.0};
+	enum ow_status st;
 
+	channel_split(c, xm, &sp);
+	st = sp.barrier ? step_barrier(c, xm, dz, &sp, 0.0, q, &mo)
+			: step_pool(c, xm, dz, &ch, q, 1.0, &mo);
 	if (st != OW_OK)
 		return st;
 	c->m->flow_work_W += q * mo.dpdz_Pa_m * dz * c->p;
@@ -374,45 +535,48 @@ static enum ow_status step_melt(struct ctx *c, double x, double dx, double dz)
 	return OW_OK;
 }
 
-/* A mixing section as a fluted barrier mixer: the melt crosses barrier
- * lands of width e_m (the screw's flight width) through the section's gap g
- * over a total land length n L (n lands along the section), dragged across
- * by the barrel. Per land area, plane Couette-Poiseuille flow (Tadmor &
- * Gogos 2006, ch. 6): flux q = V_b g/2 - g^3 dp/(12 mu e_m), so
- *   dp = 12 mu e_m (Q/(n L) - V_b g / 2) / g^3,
- * dissipation mu V_b^2/g + g^3 (dp/e_m)^2/(12 mu) per unit land area; all of
- * it heats the melt (short element: no barrel conduction). Over one step the
- * share dx/L of the section applies. */
+/* A mixing section as a fluted barrier mixer: the melt crosses the
+ * section's barrier lands (axial, as long as the section, as wide as the
+ * screw's flight land) through its gap, dragged across by the barrel; the
+ * land flow, pressure change and shear heating are those of
+ * ow_melt_mixer_land. The heat of the lands goes into the melt, which
+ * exchanges heat with the barrel as in any section (ow_melt_mixer_step).
+ * Over one step the share dx/L of the section applies. */
 static enum ow_status step_mixer(struct ctx *c, const struct ow_section *sec,
-				 double x, double dx)
+				 double x, double dx, double dz)
 {
 	const struct ow_material *mt = c->mat;
-	double g = sec->gap_m, e = c->sc->flight_width_m;
-	double lands = sec->lands > 0 ? sec->lands : 8.0;
-	double len = lands * dx; /* land length in this step */
+	double e = c->sc->flight_width_m, share = dx / sec->length_m;
 	double q = c->g * c->p / mt->melt_density_kg_m3; /* whole screw */
-	double tb = ow_melt_bulk(c->sv->melt), mu, dp, diss, dT;
+	double mu = ow_viscosity_eval(&mt->visc, c->vb / sec->gap_m,
+				      ow_melt_bulk(c->sv->melt));
+	struct ow_mixer_land land;
+	struct ow_melt_cond mc;
+	struct ow_melt_out mo;
+	enum ow_status st;
 
 	if (e <= 0.0)
 		e = 0.1 * c->sc->diameter_m; /* land about 0.1 D: common
 						practice */
-	mu = ow_viscosity_eval(&mt->visc, c->vb / g, tb);
-	if (!isfinite(mu) || mu <= 0.0)
+	ow_melt_mixer_land(q, sec->lands, sec->length_m, sec->gap_m, e, c->vb,
+			   mu, &land);
+	if (!isfinite(land.heat_W))
 		return ow_diag_set(&c->sv->diag, OW_ECOMPUTE,
 				   "mixer at %.3f m: viscosity not finite", x);
-	/* pressure drop over the share of the section in this step */
-	dp = 12.0 * mu * e * (q / (lands * sec->length_m) - 0.5 * c->vb * g) /
-	     (g * g * g) * (dx / sec->length_m);
-	diss = (mu * c->vb * c->vb / g +
-		g * g * g * pow(dp / (dx / sec->length_m) / e, 2) /
-			(12.0 * mu)) * e * len;
-	dT = diss / (c->g * c->p * mt->melt_cp_J_kgK);
-	ow_melt_heat(c->sv->melt, dT);
-	c->m->power_W += diss - q * dp;
-	c->m->flow_work_W -= q * dp;
-	c->P -= dp;
-	if (c->vb / g > c->shear)
-		c->shear = c->vb / g;
+	melt_cond(c, x + 0.5 * dx, sec->depth_m, c->width, c->g /
+		  mt->melt_density_kg_m3, &mc);
+	st = ow_melt_mixer_step(c->sv->melt, &mc, dz,
+				land.heat_W * share / (c->p * dz), &mo,
+				&c->sv->diag);
+	if (st != OW_OK)
+		return st;
+	c->m->power_W += land.power_W * share;
+	c->m->flow_work_W += q * land.dp_Pa * share;
+	c->m->root_W += mo.root_heat_W_m * dz * c->p;
+	book_barrel(c, x, mo.barrel_heat_W_m * dz * c->p);
+	c->P += land.dp_Pa * share;
+	if (land.shear_1_s > c->shear)
+		c->shear = land.shear_1_s;
 	return OW_OK;
 }
 
@@ -430,7 +594,7 @@ static void record(struct ctx *c, int i, double x)
 	r->axial_m = x;
 	r->depth_m = ow_screw_depth(c->sc, x);
 	r->barrel_K = ow_solver_barrel(c->sv, x);
-	r->pressure_Pa = c->P;
+	r->pressure_Pa = c->P < 0.0 ? NAN : c->P; /* no pressure below 0 */
 	r->bulk_K = c->ph == PH_SOLIDS ? NAN : bulk;
 	r->peak_K = peak;
 	r->sbr = c->ph == PH_MELTING ? c->X / c->width
@@ -475,7 +639,7 @@ static enum ow_status one_step(struct ctx *c, double x, double dx)
 	if (c->ph == PH_SOLIDS)
 		return step_solids(c, x, dz);
 	if (sec->type == OW_SEC_MIXER && c->ph == PH_MELT)
-		return step_mixer(c, sec, x, dx);
+		return step_mixer(c, sec, x, dx, dz);
 	if (c->ph == PH_MELTING)
 		return step_melting(c, x, dx, dz);
 	return step_melt(c, x, dx, dz);
@@ -514,9 +678,12 @@ static void init_ctx(struct ctx *c, struct ow_solver *sv, double g,
 	c->melt_from = 0.0;
 	memset(m, 0, sizeof *m);
 	m->melt_start_m = m->melt_done_m = m->plug_at_m = NAN;
+	m->max_sbr_at_m = NAN;
 	m->feed_cap_kg_s = NAN;
 	m->max_Pa = c->P;
 	m->peak_K = -INFINITY;
+	for (int z = 0; z < c->ln->n_zones; z++)
+		m->ctrl_K[z] = sv->ctrl_K[z] = sv->set_K[z];
 	if (c->ln->feed_temp_K > c->mat->melt_temp_K) { /* melt-fed */
 		c->ph = PH_MELT;
 		ow_melt_reset(sv->melt, c->ln->feed_temp_K);
@@ -542,12 +709,106 @@ static void finish(struct ctx *c, struct march *m)
 		m->flags |= OW_FLAG_NO_MELTING;
 }
 
+/* Steps i in [from, to): one step, its temperatures, its profile row. */
+static enum ow_status march_steps(struct ctx *c, int from, int to)
+{
+	double dx = c->sv->dx_m;
+	enum ow_status st = OW_OK;
+	int i;
+
+	for (i = from; i < to && st == OW_OK; i++) {
+		st = one_step(c, i * dx, dx);
+		after_step(c, (i + 1) * dx, dx);
+		record(c, i + 1, (i + 1) * dx);
+	}
+	return st;
+}
+
+static void save(struct ctx *c, struct snap *s)
+{
+	s->c = *c;
+	s->m = *c->m;
+	ow_melt_copy(c->sv->melt_save, c->sv->melt);
+}
+
+static void restore(struct ctx *c, const struct snap *s)
+{
+	*c = s->c;
+	*c->m = s->m;
+	ow_melt_copy(c->sv->melt, c->sv->melt_save);
+}
+
+/* The heat zone z can give (target) when it needs q_W to hold its
+ * set-point: q_W itself, or its heating or cooling power. */
+static double zone_target(const struct ow_zone *z, double q_W)
+{
+	if (q_W > z->heating_W)
+		return z->heating_W;
+	if (q_W < -z->cooling_W)
+		return -z->cooling_W;
+	return q_W;
+}
+
+#define ZONE_TOL_W 1.0      /* heat mismatch accepted, W ... */
+#define ZONE_RTOL 2e-3      /* ... or this share of the zone's power */
+#define ZONE_MAXIT 8
+#define ZONE_STEP_K 100.0   /* largest change of a control point per try */
+
+/* March the steps of zone z (from..to) with its control point at the
+ * set-point. A zone that needs more heating or cooling than it has cannot
+ * hold it: its control point floats to the temperature at which the
+ * zone's heat equals its power (secant steps on the control temperature,
+ * marching the zone again from its start: downstream zones do not act
+ * upstream in the march). */
+static enum ow_status run_zone(struct ctx *c, int z, int from, int to)
+{
+	struct ow_solver *sv = c->sv;
+	const struct ow_zone *zn = &c->ln->zones[z];
+	double t0 = sv->set_K[z], q0, need, target, t1, q1 = 0.0;
+	struct snap s0;
+	enum ow_status st;
+	int it;
+
+	save(c, &s0);
+	c->zone = z;
+	st = march_steps(c, from, to);
+	need = q0 = c->m->zone_W[z];
+	target = zone_target(zn, q0);
+	if (st != OW_OK || target == q0 || !isfinite(target))
+		goto done;
+	t1 = t0 + (target > q0 ? 10.0 : -10.0);
+	for (it = 0; it < ZONE_MAXIT; it++) {
+		double t2;
+
+		restore(c, &s0);
+		c->zone = z;
+		sv->ctrl_K[z] = t1;
+		st = march_steps(c, from, to);
+		q1 = c->m->zone_W[z];
+		if (st != OW_OK || fabs(q1 - target) <=
+		    fmax(ZONE_TOL_W, ZONE_RTOL * fabs(target)))
+			break;
+		if (fabs(q1 - q0) < 1e-9 * (fabs(q0) + 1.0))
+			break; /* the zone's heat does not follow its wall */
+		t2 = t1 - (q1 - target) * (t1 - t0) / (q1 - q0);
+		t2 = fmin(fmax(t2, t1 - ZONE_STEP_K), t1 + ZONE_STEP_K);
+		t0 = t1;
+		q0 = q1;
+		t1 = fmin(fmax(t2, 250.0), 850.0);
+	}
+	c->m->zone_floating |= 1u << z;
+done:
+	c->m->zone_demand_W[z] = need;
+	c->m->ctrl_K[z] = sv->ctrl_K[z];
+	return st;
+}
+
 enum ow_status ow_solver_march(struct ow_solver *sv, double g_kg_s,
 			       struct march *m)
 {
+	const struct ow_line *l = &sv->s->line;
 	struct ctx c;
-	double x = 0.0;
-	int i;
+	int z, from = 0;
 	enum ow_status st = OW_OK;
 
 	init_ctx(&c, sv, g_kg_s, m);
@@ -555,11 +816,17 @@ enum ow_status ow_solver_march(struct ow_solver *sv, double g_kg_s,
 		st = check_feed(&c);
 	sv->n_rows = 0;
 	record(&c, 0, 0.0);
-	for (i = 0; i < sv->n_steps && st == OW_OK; i++) {
-		st = one_step(&c, x, sv->dx_m);
-		x = (i + 1) * sv->dx_m;
-		after_step(&c, x, sv->dx_m);
-		record(&c, i + 1, x);
+	for (z = 0; z < l->n_zones && st == OW_OK; z++) {
+		int to = from;
+
+		/* the zone's steps: those whose middle lies in it */
+		while (to < sv->n_steps &&
+		       (z == l->n_zones - 1 ||
+			(to + 0.5) * sv->dx_m < l->zones[z].to_m))
+			to++;
+		if (to > from)
+			st = run_zone(&c, z, from, to);
+		from = to;
 	}
 	finish(&c, m);
 	return st;

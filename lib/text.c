@@ -8,26 +8,7 @@
 
 void ow_text_add(struct ow_text *t, const char *str)
 {
-	size_t n = strlen(str);
-
-	if (t->oom)
-		return;
-	if (t->len + n + 1 > t->cap) {
-		size_t cap = t->cap ? 2 * t->cap : 8192;
-		char *nb;
-
-		while (cap < t->len + n + 1)
-			cap *= 2;
-		nb = realloc(t->buf, cap);
-		if (!nb) {
-			t->oom = 1;
-			return;
-		}
-		t->buf = nb;
-		t->cap = cap;
-	}
-	memcpy(t->buf + t->len, str, n + 1);
-	t->len += n;
+	ow_buf_adds(&t->b, str);
 }
 
 void ow_text_num(struct ow_text *t, double x, int sep)
@@ -53,11 +34,5 @@ void ow_text_status(struct ow_text *t, const struct ow_verdict *v)
 
 enum ow_status ow_text_done(struct ow_text *t, char **out, struct ow_diag *d)
 {
-	if (t->oom || !t->buf) {
-		free(t->buf);
-		*out = NULL;
-		return ow_diag_set(d, OW_ENOMEM, "out of memory");
-	}
-	*out = t->buf;
-	return OW_OK;
+	return ow_buf_take(&t->b, out, NULL, d);
 }

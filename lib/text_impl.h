@@ -6,12 +6,11 @@
 #include <stddef.h>
 
 #include "ow_classify.h"
+#include "ow_io.h"
 #include "ow_status.h"
 
 struct ow_text {
-	char *buf;
-	size_t len, cap;
-	int oom; /* an allocation failed: later adds do nothing */
+	struct ow_buf b; /* after a failed allocation later adds do nothing */
 };
 
 /* Append str. */

@@ -77,6 +77,7 @@ static const char *const si_text[OW_DIM_COUNT] = {
 	[OW_DIM_TORQUE] = "N m", /* same dimension as J: both accepted */
 	[OW_DIM_SHEAR_RATE] = "1/s",
 	[OW_DIM_CONSISTENCY] = "Pa",
+	[OW_DIM_HEAT_TRANSFER] = "W/(m2 K)",
 };
 
 static const char *const expect_text[OW_DIM_COUNT] = {
@@ -106,6 +107,9 @@ static const char *const expect_text[OW_DIM_COUNT] = {
 	[OW_DIM_SHEAR_RATE] = "a shear rate such as \"100 1/s\"",
 	[OW_DIM_CONSISTENCY] = "a power-law consistency such as "
 			       "\"20000 Pa s^0.41\" or \"20 kPa s^n\"",
+	[OW_DIM_HEAT_TRANSFER] = "a heat-transfer coefficient such as "
+				 "\"2000 W/(m2 K)\" or "
+				 "\"350 BTU/(h ft2 degF)\"",
 };
 
 struct alias {
@@ -575,7 +579,7 @@ static const char *power_mark(const char *unit, size_t *mark_len)
 		if (p[0] == '*' && p[1] == '*')
 			return p;
 		*mark_len = 0; /* ⁿ is the exponent itself */
-		if (memcmp(p, "ⁿ", strlen("ⁿ")) == 0)
+		if (strncmp(p, "ⁿ", strlen("ⁿ")) == 0) /* stops at the NUL */
 			return p;
 	}
 	return NULL;
@@ -613,6 +617,31 @@ static size_t product_sign_before(const char *base, size_t end)
 	if (end >= 3 && memcmp(base + end - 3, "⋅", 3) == 0)
 		return 3;
 	return 0;
+}
+
+int ow_units_consistency_power(const char *text, double *power)
+{
+	char buf[TEXT_MAX], e[TEXT_MAX];
+	const char *mark;
+	size_t len, mark_len;
+
+	if (!text || !trim_copy(text, buf, sizeof buf))
+		return 0;
+	mark = power_mark(buf, &mark_len);
+	if (!mark) { /* "<pressure> s": the first power */
+		*power = 1.0;
+		return number_len(buf) > 0;
+	}
+	if (mark_len == 0 || !valid_power(mark + mark_len) ||
+	    !trim_copy(mark + mark_len, e, sizeof e))
+		return 0;
+	len = strlen(e);
+	if (len >= 2 && (e[0] == '(' || e[0] == '{')) { /* "(0.41)" */
+		memmove(e, e + 1, len - 2);
+		e[len - 2] = '\0';
+	}
+	len = number_len(e);
+	return len > 0 && e[len] == '\0' && number_value(e, len, power);
 }
 
 /* Power-law consistency "<pressure unit> s^<n>" -> Pa s^n. The unit of
@@ -786,6 +815,7 @@ static const struct shown_unit shown_units[2][OW_DIM_COUNT] = {
 		[OW_DIM_TORQUE] = {1.0, 0.0, 0.0, "N·m"},
 		[OW_DIM_SHEAR_RATE] = {1.0, 0.0, 0.0, "1/s"},
 		[OW_DIM_CONSISTENCY] = {1.0, 0.0, 0.0, "Pa·sⁿ"},
+		[OW_DIM_HEAT_TRANSFER] = {1.0, 0.0, 0.0, "W/(m²·K)"},
 	},
 	[OW_SYS_US] = {
 		[OW_DIM_NONE] = {1.0, 0.0, 0.0, ""},
@@ -810,6 +840,9 @@ static const struct shown_unit shown_units[2][OW_DIM_COUNT] = {
 		[OW_DIM_TORQUE] = {LBF_N * FT_M, 0.0, 0.0, "lbf·ft"},
 		[OW_DIM_SHEAR_RATE] = {1.0, 0.0, 0.0, "1/s"},
 		[OW_DIM_CONSISTENCY] = {1.0, 0.0, 0.0, "Pa·sⁿ"},
+		[OW_DIM_HEAT_TRANSFER] = {BTU_J / (3600.0 * FT_M * FT_M *
+						   DEGF_K), 0.0, 0.0,
+					  "BTU/(h·ft²·°F)"},
 	},
 };
 

@@ -40,6 +40,7 @@ static struct ow_point inside_point(void)
 	p.max_sbr = 0.6;                        /* < 0.8 */
 	p.power_W = 20e3;                       /* 20 kW < 40 */
 	p.torque_Nm = 3183.1;                   /* 20 kW at 60 rpm < 5000 */
+	p.zone_load = 0.5;                      /* half a zone's power < 90 % */
 	return p;
 }
 
@@ -57,7 +58,7 @@ static unsigned verdict(const struct ow_study *s, const struct ow_point *p,
 
 /* The study's limits, converted to SI by hand: 240 degC = 513.15 K;
  * 0.5 % = 0.005; 35 MPa; 40 kW; 5000 N m; 190 degC = 463.15 K; 30 and
- * 90 kg/h = 1/120 and 1/40 kg/s; SBR 0.8. */
+ * 90 kg/h = 1/120 and 1/40 kg/s; SBR 0.8; zone control 90 % = 0.9. */
 static void study_limits_load_in_si(void **st)
 {
 	struct ow_study *s = all_limits();
@@ -72,6 +73,7 @@ static void study_limits_load_in_si(void **st)
 	assert_rel(l->min_output_kg_s, 1.0 / 120.0, 1e-12);
 	assert_rel(l->max_output_kg_s, 1.0 / 40.0, 1e-12);
 	assert_rel(l->max_sbr, 0.8, 1e-12);
+	assert_rel(l->zone_load, 0.9, 1e-12);
 	free(s);
 }
 
@@ -91,7 +93,8 @@ static void point_inside_every_limit_is_safe(void **st)
 
 /* One figure of the comfortable point moved to a value. */
 enum fig {
-	F_PEAK, F_UNMELT, F_PMAX, F_POWER, F_TORQUE, F_BULK, F_OUTPUT, F_SBR
+	F_PEAK, F_UNMELT, F_PMAX, F_POWER, F_TORQUE, F_BULK, F_OUTPUT, F_SBR,
+	F_ZONE
 };
 
 static void set_fig(struct ow_point *p, enum fig f, double x)
@@ -105,6 +108,7 @@ static void set_fig(struct ow_point *p, enum fig f, double x)
 	case F_BULK: p->discharge_bulk_K = x; break;
 	case F_OUTPUT: p->output_kg_s = x; break;
 	case F_SBR: p->max_sbr = x; break;
+	case F_ZONE: p->zone_load = x; break;
 	}
 }
 
@@ -215,6 +219,14 @@ static void solid_bed_ratio_limit_has_three_sides(void **st)
 	check_sides(&k);
 }
 
+static void zone_control_limit_has_three_sides(void **st)
+{
+	/* 90 % of a zone's heating or cooling power: 89.9, 90, 90.1 % */
+	struct side_case k = {OW_CK_ZONE_CONTROL, F_ZONE, 0.899, 0.9, 0.901};
+	(void)st;
+	check_sides(&k);
+}
+
 /* Margins by hand at the comfortable point: relative to the limit for
  * pressures, powers, torques, outputs and ratios, per 50 K for
  * temperatures; unmelt per max(limit, 1 %). */
@@ -234,6 +246,7 @@ static void margins_are_the_documented_normalised_distances(void **st)
 	assert_rel(v.margin[OW_CK_MIN_OUTPUT], 30.0 / 30.0, 1e-9);
 	assert_rel(v.margin[OW_CK_MAX_OUTPUT], 30.0 / 90.0, 1e-9);
 	assert_rel(v.margin[OW_CK_MAX_SBR], 0.2 / 0.8, 1e-9);
+	assert_rel(v.margin[OW_CK_ZONE_CONTROL], 0.4 / 0.9, 1e-9);
 	free(s);
 }
 
@@ -286,7 +299,7 @@ static void a_point_without_figures_fails_every_limit_set(void **st)
 	memset(&p, 0, sizeof p);
 	p.output_kg_s = p.max_pressure_Pa = p.peak_K = NAN;
 	p.discharge_bulk_K = p.unmelt_frac = p.max_sbr = NAN;
-	p.power_W = p.torque_Nm = p.melt_complete_m = NAN;
+	p.power_W = p.torque_Nm = p.melt_complete_m = p.zone_load = NAN;
 	assert_int_equal(verdict(s, &p, &v), all);
 	s->line.limits.max_sbr = NAN; /* not set: neither checked */
 	s->line.limits.torque_Nm = NAN;
@@ -344,6 +357,7 @@ int main(void)
 		cmocka_unit_test(minimum_output_has_three_sides),
 		cmocka_unit_test(maximum_output_has_three_sides),
 		cmocka_unit_test(solid_bed_ratio_limit_has_three_sides),
+		cmocka_unit_test(zone_control_limit_has_three_sides),
 		cmocka_unit_test(margins_are_the_documented_normalised_distances),
 		cmocka_unit_test(unmelt_margin_grows_with_the_screw_left_after_melting),
 		cmocka_unit_test(flags_are_always_unsafe),

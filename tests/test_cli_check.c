@@ -95,7 +95,7 @@ static void bad_inputs_are_rejected_with_file_and_path(void **state)
 	assert_non_null(f);
 	while (fgets(line, sizeof line, f)) {
 		char *file = strtok(line, "\t\n"), *path, *text;
-		char args[1400], out[] = "build/tests/bad-profile.csv";
+		char args[1400], out[] = OW_TEST_OUT "/bad-profile.csv";
 		struct cli_result r;
 
 		if (!file || file[0] == '#')

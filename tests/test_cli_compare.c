@@ -13,7 +13,7 @@
 
 #define FAST "tests/data/map-fast.json"
 #define WORN "tests/data/compare-fast-worn.json"
-#define OUT  "build/tests/cmp-fast"
+#define OUT  OW_TEST_OUT "/cmp-fast"
 
 static int ran;
 
@@ -208,29 +208,29 @@ static void studies_whose_sweeps_differ_are_refused(void **state)
 {
 	struct cli_result r;
 	(void)state;
-	variant("build/tests/cmp-steps.json", "\"steps\": 11", "\"steps\": 21");
-	cli_run("compare " FAST " build/tests/cmp-steps.json -o "
-	        "build/tests/cmp-refused --quiet",
+	variant(OW_TEST_OUT "/cmp-steps.json", "\"steps\": 11", "\"steps\": 21");
+	cli_run("compare " FAST " " OW_TEST_OUT "/cmp-steps.json -o "
+	        OW_TEST_OUT "/cmp-refused --quiet",
 	        &r);
 	assert_int_equal(r.code, 1);
 	assert_non_null(strstr(r.err, "sweep.rpm.steps"));
 	assert_non_null(strstr(r.err, FAST));
-	assert_non_null(strstr(r.err, "build/tests/cmp-steps.json"));
+	assert_non_null(strstr(r.err, OW_TEST_OUT "/cmp-steps.json"));
 	cli_result_free(&r);
-	variant("build/tests/cmp-mode.json",
+	variant(OW_TEST_OUT "/cmp-mode.json",
 	        "\"mode\": \"shift\",\n      \"from\": \"-30 K\",\n"
 	        "      \"to\": \"30 K\"",
 	        "\"mode\": \"zone\", \"zone\": 2, \"from\": \"170 degC\", "
 	        "\"to\": \"230 degC\"");
-	cli_run("compare build/tests/cmp-mode.json " FAST " --quiet -o "
-	        "build/tests/cmp-refused",
+	cli_run("compare " OW_TEST_OUT "/cmp-mode.json " FAST " --quiet -o "
+	        OW_TEST_OUT "/cmp-refused",
 	        &r);
 	assert_int_equal(r.code, 1);
 	assert_non_null(strstr(r.err, "sweep.barrel.mode"));
 	cli_result_free(&r);
 	/* --grid sets one lattice for both: the steps no longer matter */
-	cli_run("compare " FAST " build/tests/cmp-steps.json --grid 6x5 "
-	        "--quiet -o build/tests/cmp-grid",
+	cli_run("compare " FAST " " OW_TEST_OUT "/cmp-steps.json --grid 6x5 "
+	        "--quiet -o " OW_TEST_OUT "/cmp-grid",
 	        &r);
 	assert_int_equal(r.code, 0);
 	cli_result_free(&r);

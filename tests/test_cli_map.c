@@ -34,8 +34,8 @@ static void point_json_and_profile_follow_the_contract(void **state)
 		"max_sbr", "power_kW", "torque_Nm", "sec_kWh_kg",
 		"barrel_heat_kW"};
 	cJSON *j = cli_run_json("point demo/study-si.json --rpm 50 --json "
-			    "--profile build/tests/profile.csv");
-	char *csv = cli_slurp("build/tests/profile.csv");
+			    "--profile " OW_TEST_OUT "/profile.csv");
+	char *csv = cli_slurp(OW_TEST_OUT "/profile.csv");
 	size_t i;
 	(void)state;
 	for (i = 0; i < sizeof keys / sizeof keys[0]; i++)
@@ -131,8 +131,8 @@ static void window_corners_and_centre_are_safe(void **state)
 	char *grid, *line;
 	double r0, r1, a0, a1;
 	(void)state;
-	map(FAST, "build/tests/map-a", "--grid 21x21");
-	w = cli_read_json("build/tests/map-a/window.json");
+	map(FAST, OW_TEST_OUT "/map-a", "--grid 21x21");
+	w = cli_read_json(OW_TEST_OUT "/map-a/window.json");
 	r0 = cli_json_num(w, "rpm_min");
 	r1 = cli_json_num(w, "rpm_max");
 	a0 = cli_json_num(w, "axis_min");
@@ -143,7 +143,7 @@ static void window_corners_and_centre_are_safe(void **state)
 	assert_true(safe_point(r1, a0) && safe_point(r1, a1));
 	assert_true(safe_point(cli_json_num(c, "rpm"),
 			       cli_json_num(c, "axis_value")));
-	grid = cli_slurp("build/tests/map-a/grid.csv");
+	grid = cli_slurp(OW_TEST_OUT "/map-a/grid.csv");
 	for (line = strtok(strchr(grid, '\n') + 1, "\n"); line;
 	     line = strtok(NULL, "\n")) {
 		double rpm = atof(line), ax = atof(strchr(line, ',') + 1);
@@ -161,10 +161,10 @@ static void grid_is_identical_for_any_thread_count(void **state)
 {
 	char *a, *b;
 	(void)state;
-	map(FAST, "build/tests/map-j1", "--grid 15x13 --refine 1 --jobs 1");
-	map(FAST, "build/tests/map-j2", "--grid 15x13 --refine 1 --jobs 2");
-	a = cli_slurp("build/tests/map-j1/grid.csv");
-	b = cli_slurp("build/tests/map-j2/grid.csv");
+	map(FAST, OW_TEST_OUT "/map-j1", "--grid 15x13 --refine 1 --jobs 1");
+	map(FAST, OW_TEST_OUT "/map-j2", "--grid 15x13 --refine 1 --jobs 2");
+	a = cli_slurp(OW_TEST_OUT "/map-j1/grid.csv");
+	b = cli_slurp(OW_TEST_OUT "/map-j2/grid.csv");
 	assert_non_null(a);
 	assert_non_null(b);
 	assert_string_equal(a, b);
@@ -230,10 +230,10 @@ static void refinement_matches_fine_grid_with_fewer_solves(void **state)
 	cJSON *fine, *ref;
 	size_t k;
 	(void)state;
-	map(FAST, "build/tests/map-r2", "--grid 21x21 --refine 2");
-	map(FAST, "build/tests/map-81", "--grid 81x81");
-	ref = cli_read_json("build/tests/map-r2/window.json");
-	fine = cli_read_json("build/tests/map-81/window.json");
+	map(FAST, OW_TEST_OUT "/map-r2", "--grid 21x21 --refine 2");
+	map(FAST, OW_TEST_OUT "/map-81", "--grid 81x81");
+	ref = cli_read_json(OW_TEST_OUT "/map-r2/window.json");
+	fine = cli_read_json(OW_TEST_OUT "/map-81/window.json");
 	assert_true(cli_json_num(ref, "solves") <= 0.4 * 81 * 81);
 	for (k = 0; k < sizeof limits / sizeof limits[0]; k++) {
 		const cJSON *lr = lines_of(ref, limits[k]);
@@ -257,7 +257,7 @@ static void refinement_matches_fine_grid_with_fewer_solves(void **state)
  * limits named, null bounds in window.json. */
 static void impossible_limits_give_an_empty_window(void **state)
 {
-	FILE *f = fopen("build/tests/empty.json", "w");
+	FILE *f = fopen(OW_TEST_OUT "/empty.json", "w");
 	char *text = cli_slurp(FAST), *p;
 	struct cli_result r;
 	cJSON *w;
@@ -270,13 +270,13 @@ static void impossible_limits_give_an_empty_window(void **state)
 	fclose(f);
 	free(text);
 	/* the study file's relative paths: none (embedded) */
-	cli_run("map build/tests/empty.json -o build/tests/map-empty "
+	cli_run("map " OW_TEST_OUT "/empty.json -o " OW_TEST_OUT "/map-empty "
 		"--grid 5x5", &r);
 	assert_int_equal(r.code, 0);
 	assert_non_null(strstr(r.out, "No safe operating point"));
 	assert_non_null(strstr(r.out, "peak_temp"));
 	cli_result_free(&r);
-	w = cli_read_json("build/tests/map-empty/window.json");
+	w = cli_read_json(OW_TEST_OUT "/map-empty/window.json");
 	assert_true(cJSON_IsTrue(cJSON_GetObjectItem(w, "empty")));
 	assert_true(cJSON_IsNull(cJSON_GetObjectItem(w, "rpm_min")));
 	assert_true(cJSON_IsNull(cJSON_GetObjectItem(w, "set_max_C")));
@@ -287,11 +287,11 @@ static void impossible_limits_give_an_empty_window(void **state)
 static void unwritable_output_exits_four(void **state)
 {
 	struct cli_result r;
-	FILE *f = fopen("build/tests/not-a-dir", "w");
+	FILE *f = fopen(OW_TEST_OUT "/not-a-dir", "w");
 	(void)state;
 	fputs("x", f);
 	fclose(f);
-	cli_run("map " FAST " -o build/tests/not-a-dir --grid 3x3 --quiet",
+	cli_run("map " FAST " -o " OW_TEST_OUT "/not-a-dir --grid 3x3 --quiet",
 		&r);
 	assert_int_equal(r.code, 4);
 	cli_result_free(&r);

@@ -10,6 +10,7 @@
 #include <sys/stat.h>
 #include <unistd.h>
 
+#include "ow_advise.h"
 #include "ow_config.h"
 
 #define DATA "tests/data/"
@@ -120,6 +121,31 @@ static void full_study_loads_screw_in_si(void **state)
 	assert_rel(s->wear[0].clearance_m, 0.5e-3, 1e-12);
 }
 
+/* A mixer without its lands takes one barrier land per 25 mm of barrel
+ * circumference (common practice: 8 on 63.5 mm) and check says so. */
+static void mixer_without_lands_takes_the_stated_default(void **state)
+{
+	struct fixture *f = *state;
+	struct ow_warning w[OW_MAX_WARNINGS];
+	const struct ow_section *mx;
+	int n, k, found = 0;
+
+	load_ok(f, DATA "study-full.json", f->a);
+	mx = &f->a->screw.sections[3];
+	assert_int_equal(mx->type, OW_SEC_MIXER);
+	assert_int_equal(mx->lands, 6);
+	assert_true(mx->lands_given);
+	f->a->screw.sections[3].lands = 0;
+	assert_int_equal(ow_screw_prepare(&f->a->screw, NULL), OW_OK);
+	assert_int_equal(mx->lands, 8);
+	assert_false(mx->lands_given);
+	assert_int_equal(ow_screw_default_lands(0.1143), 14); /* 4.5 in */
+	n = ow_advise_screw(&f->a->screw, w, OW_MAX_WARNINGS);
+	for (k = 0; k < n; k++)
+		found |= !strcmp(w[k].code, "mixer_lands");
+	assert_true(found);
+}
+
 static void full_study_loads_resin_in_si(void **state)
 {
 	struct fixture *f = *state;
@@ -167,6 +193,21 @@ static void full_study_loads_line_in_si(void **state)
 	assert_rel(l->die.inner_diameter_m, 0.052, 1e-12);
 	assert_rel(l->die.length_m, 0.090, 1e-12);
 	assert_rel(l->screen_pressure_Pa, 1.5e6, 1e-12);
+	/* zone control: as written, or the stated defaults for a 63.5 mm
+	 * bore (50 kW/m2 of bore heating, 40 % of it cooling, 2000
+	 * W/(m2 K)) */
+	assert_rel(l->zones[1].heating_W, 4e3, 1e-12);
+	assert_rel(l->zones[1].cooling_W, 1.2e3, 1e-12);
+	assert_rel(l->zones[1].wall_h_W_m2K, 1500.0, 1e-12);
+	assert_int_equal(l->zones[1].defaulted, 0);
+	assert_rel(l->zones[0].heating_W, 50e3 * OW_PI * 0.0635 * 6 * 0.0635,
+		   1e-12);
+	assert_rel(l->zones[0].cooling_W, 0.4 * l->zones[0].heating_W, 1e-12);
+	assert_rel(l->zones[2].wall_h_W_m2K, 2000.0, 1e-12);
+	assert_int_equal(l->zones[2].defaulted, OW_ZONE_DEF_HEATING |
+						OW_ZONE_DEF_COOLING |
+						OW_ZONE_DEF_WALL);
+	assert_rel(l->heat_transfer_factor, 1.25, 1e-12);
 }
 
 static void full_study_loads_limits_sweep_and_numerics(void **state)
@@ -184,6 +225,7 @@ static void full_study_loads_limits_sweep_and_numerics(void **state)
 	assert_rel(l->limits.min_output_kg_s, 20.0 / 3600.0, 1e-12);
 	assert_rel(l->limits.max_output_kg_s, 150.0 / 3600.0, 1e-12);
 	assert_rel(l->limits.max_sbr, 0.9, 1e-12);
+	assert_rel(l->limits.zone_load, 0.9, 1e-12); /* "90 %" */
 	assert_rel(l->axes.rpm_from, 20.0, 1e-12); /* rev/min inside */
 	assert_rel(l->axes.rpm_to, 120.0, 1e-12);
 	assert_int_equal(l->axes.rpm_steps, 41);
@@ -202,7 +244,7 @@ static void value_source_objects_record_their_sources(void **state)
 	const struct ow_source *s;
 
 	load_ok(f, DATA "study-full.json", f->a);
-	assert_int_equal(f->a->n_sources, 7);
+	assert_int_equal(f->a->n_sources, 8);
 	s = source(f->a, "screw.diameter");
 	assert_non_null(s);
 	assert_string_equal(s->value, "63.5 mm");
@@ -221,6 +263,9 @@ static void value_source_objects_record_their_sources(void **state)
 	assert_non_null(s);
 	assert_string_equal(s->value, "200 degC");
 	assert_string_equal(s->text, "invented test value");
+	s = source(f->a, "barrel.zones[1].cooling_power");
+	assert_non_null(s);
+	assert_string_equal(s->value, "1.2 kW");
 }
 
 static void absent_optional_parts_take_their_defaults(void **state)
@@ -238,6 +283,8 @@ static void absent_optional_parts_take_their_defaults(void **state)
 	assert_rel(l->screen_pressure_Pa, 0.0, 0.0);
 	assert_true(isnan(l->limits.peak_temp_K));
 	assert_true(isnan(l->limits.max_sbr));
+	assert_rel(l->limits.zone_load, 1.0, 0.0); /* zones must hold */
+	assert_rel(l->heat_transfer_factor, 1.0, 0.0);
 	assert_int_equal(l->axes.rpm_steps, 0); /* no sweep */
 	assert_int_equal(l->numerics.stations_per_turn,
 			 def.numerics.stations_per_turn);
@@ -682,6 +729,7 @@ int main(void)
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(full_study_loads_screw_in_si),
 		cmocka_unit_test(full_study_loads_resin_in_si),
+		cmocka_unit_test(mixer_without_lands_takes_the_stated_default),
 		cmocka_unit_test(full_study_loads_line_in_si),
 		cmocka_unit_test(full_study_loads_limits_sweep_and_numerics),
 		cmocka_unit_test(value_source_objects_record_their_sources),

@@ -224,7 +224,7 @@ static void maps_window_labels_each_limit_with_name_and_value(void **state)
 	o.current_set_K = 273.15 + 200.0;
 	svg = draw_svg(f, f->w, &o);
 	assert_non_null(strstr(svg, ">peak melt 240 °C</text>"));
-	assert_non_null(strstr(svg, ">pressure 45 MPa</text>"));
+	assert_non_null(strstr(svg, ">power 30 kW</text>"));
 	assert_non_null(strstr(svg, ">screw speed (rpm)</text>"));
 	assert_non_null(strstr(svg, ">last zone set-point (°C)</text>"));
 	assert_non_null(strstr(svg, ">recommended "));
@@ -233,11 +233,11 @@ static void maps_window_labels_each_limit_with_name_and_value(void **state)
 	assert_non_null(strstr(svg, ">current operating point</text>"));
 	free(svg);
 
-	o.units = OW_SYS_US; /* 240 degC = 464 degF; 45 MPa = 6527 psi
+	o.units = OW_SYS_US; /* 240 degC = 464 degF; 30 kW = 40.2 hp
 	                        (NIST SP 811, 2008, App. B; recomputed) */
 	svg = draw_svg(f, f->w, &o);
 	assert_non_null(strstr(svg, ">peak melt 464 °F</text>"));
-	assert_non_null(strstr(svg, ">pressure 6527 psi</text>"));
+	assert_non_null(strstr(svg, ">power 40.2 hp</text>"));
 	assert_non_null(strstr(svg, ">last zone set-point (°F)</text>"));
 	free(svg);
 }
@@ -423,7 +423,8 @@ static void maps_figure_maps_carry_colour_bar_titles_with_units(void **state)
 	    ">peak melt temperature (°C)</text>",
 	    ">unmelted fraction at discharge (%)</text>",
 	    ">highest pressure (MPa)</text>", ">throughput (kg/h)</text>",
-	    ">specific energy (kWh/kg)</text>"};
+	    ">specific energy (kWh/kg)</text>",
+	    ">highest zone load (% of its heating or cooling power)</text>"};
 	struct fix *f = *state;
 	int k;
 

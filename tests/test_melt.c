@@ -801,6 +801,107 @@ static void failures_return_a_status(void **state)
 	ow_melt_destroy(ws);
 }
 
+
+/* ---- fluted mixer and barrel wall -------------------------------------- */
+
+/* Barrier-land flow of a fluted mixer, 8 lands of 0.127 m, gap 1 mm, land
+ * 6.35 mm, barrel at 0.26599 m/s (80 rpm on 63.5 mm), mu = 500 Pa s
+ * (inputs chosen for the check). Per unit land length the gap is plane
+ * Couette-Poiseuille flow q = V g/2 - g^3 dP/(12 mu e) (Tadmor & Gogos
+ * 2006, ch. 10; Rauwendaal, Polymer Extrusion, barrier flight flow); values
+ * recomputed. */
+static void mixer_land_follows_couette_poiseuille_land_flow(void **state)
+{
+	const double V = PI * 0.0635 * 80.0 / 60.0, nL = 8.0 * 0.127;
+	struct ow_mixer_land o;
+
+	(void)state;
+	/* pure drag: no pressure change, Couette heating mu V^2/g per unit
+	 * land area (Bird, Stewart & Lightfoot 2002, section 10.4) */
+	ow_melt_mixer_land(V * 1e-3 / 2.0 * nL, 8.0, 0.127, 1e-3, 6.35e-3, V,
+			   500.0, &o);
+	assert_abs(o.dp_Pa, 0.0, 1e-6);
+	assert_rel(o.heat_W, 228.22441722, 1e-9);
+	assert_rel(o.power_W, o.heat_W, 1e-12);
+	assert_rel(o.shear_1_s, V / 1e-3, 1e-12);
+	/* barrel at rest: plane slit flow Q = nL g^3 dP/(12 mu e) backward
+	 * (BSL section 2.2), all of the pressure work dissipated */
+	ow_melt_mixer_land(2e-5, 8.0, 0.127, 1e-3, 6.35e-3, 0.0, 500.0, &o);
+	assert_rel(o.dp_Pa, -7.5e5, 1e-12);
+	assert_rel(o.heat_W, 15.0, 1e-12);
+	assert_abs(o.power_W, 0.0, 1e-9);
+	/* both at once, at the flow of the demo line near 60 kg/h */
+	ow_melt_mixer_land(2.2e-5, 8.0, 0.127, 1e-3, 6.35e-3, V, 500.0, &o);
+	assert_rel(o.dp_Pa, 4.242074791e6, 1e-9);
+	assert_rel(o.heat_W, 708.09637808, 1e-9);
+	assert_rel(o.power_W, 801.42202348, 1e-9);
+	ow_melt_mixer_land(2.2e-5, 8.0, 0.127, 0.0, 6.35e-3, V, 500.0, &o);
+	assert_true(isnan(o.dp_Pa) && isnan(o.heat_W));
+}
+
+/* Couette cell with the root adiabatic and the barrel reached through a
+ * wall of h = 2000 W/(m2 K) from a control point at T_w: all the heat
+ * mu V^2/H leaves through the wall, so the root sits at T_w + mu V^2/(H h)
+ * + mu V^2/(2k) = 106.667 K above T_w (Bird, Stewart & Lightfoot 2002,
+ * section 10.4 with Newton's law of cooling at the wall, section 10.1;
+ * mu = 1000 Pa s, V = 0.2 m/s, k = 0.2 W/(m K), H = 3 mm). */
+static void finite_wall_adds_its_resistance_to_the_couette_rise(void **state)
+{
+	struct ow_material m = power_law(1000.0, 1.0);
+	struct ow_melt_cond c = couette(&m);
+	struct ow_melt_ws *ws = workspace(41, 40, T200);
+	struct ow_melt_out o;
+
+	(void)state;
+	c.root_adiabatic = 1;
+	c.wall_h_W_m2K = 2000.0;
+	o = march_to_steady(ws, &c);
+	assert_rel(o.peak_K - T200, 100.0 + 40.0 / 0.003 / 2000.0, 1e-3);
+	assert_rel(-o.barrel_heat_W_m, o.dissipation_W_m, 1e-9);
+	ow_melt_destroy(ws);
+}
+
+/* A mixer step closes rho c_p Q d(bulk) = (heat + barrel + root) dz
+ * exactly (first law, Bird, Stewart & Lightfoot 2002 ch. 11), warms every
+ * band alike when the wall is at the melt's temperature, and loses heat to
+ * a colder barrel, less through a finite wall. */
+static void mixer_step_keeps_the_energy_book_with_the_barrel(void **state)
+{
+	struct ow_material m = carreau();
+	struct ow_melt_cond c = metering(&m);
+	struct ow_melt_ws *ws = workspace(21, 10, 500.0);
+	struct ow_melt_ws *cp = workspace(21, 10, 500.0);
+	struct ow_melt_out o, oh;
+	double dz = 0.02, heat = 3000.0, rc, b0;
+
+	(void)state;
+	c.vol_flow_m3_s = 40.0 / 3600.0 / 760.0;
+	c.barrel_K = 500.0;
+	rc = m.melt_density_kg_m3 * m.melt_cp_J_kgK * c.vol_flow_m3_s;
+	station(ws, &c, 0.0); /* the layout of a conveying station */
+	ow_melt_copy(cp, ws);
+	b0 = ow_melt_bulk(ws);
+	assert_int_equal(ow_melt_mixer_step(ws, &c, dz, heat, &o, NULL), OW_OK);
+	assert_rel(rc * (o.bulk_K - b0) / dz,
+		   o.dissipation_W_m + o.barrel_heat_W_m + o.root_heat_W_m,
+		   1e-9);
+	assert_true(o.barrel_heat_W_m < 0.0); /* melt now above the wall */
+	assert_rel(o.peak_K - 500.0, o.bulk_K - 500.0, 0.5);
+	c.barrel_K = 470.0;
+	ow_melt_copy(ws, cp);
+	assert_int_equal(ow_melt_mixer_step(ws, &c, dz, heat, &o, NULL), OW_OK);
+	c.wall_h_W_m2K = 500.0;
+	ow_melt_copy(ws, cp);
+	assert_int_equal(ow_melt_mixer_step(ws, &c, dz, heat, &oh, NULL),
+			 OW_OK);
+	assert_true(o.barrel_heat_W_m < oh.barrel_heat_W_m);
+	assert_true(oh.barrel_heat_W_m < 0.0);
+	assert_rel(rc * (oh.bulk_K - b0) / dz,
+		   oh.dissipation_W_m + oh.barrel_heat_W_m, 1e-9);
+	ow_melt_destroy(ws);
+	ow_melt_destroy(cp);
+}
+
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
@@ -831,6 +932,12 @@ int main(void)
 		cmocka_unit_test(band_legs_tile_the_depth_on_streamlines),
 		cmocka_unit_test(default_resolution_is_converged),
 		cmocka_unit_test(failures_return_a_status),
+		cmocka_unit_test(
+			mixer_land_follows_couette_poiseuille_land_flow),
+		cmocka_unit_test(
+			finite_wall_adds_its_resistance_to_the_couette_rise),
+		cmocka_unit_test(
+			mixer_step_keeps_the_energy_book_with_the_barrel),
 	};
 
 	return cmocka_run_group_tests(tests, NULL, NULL);

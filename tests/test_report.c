@@ -351,6 +351,7 @@ static void make_map_folder(const struct fx *f, char *dir, size_t n)
 	assert_int_equal(ow_mapdir_save(f->m.s, f->m.g, &f->m.centre, f->m.rows,
 	                                f->m.n_rows, dir, &d),
 	                 OW_OK);
+	assert_int_equal(ow_mapdir_seal(dir, &d), OW_OK);
 }
 
 static void cli_report_redraws_a_saved_map_folder(void **state)

@@ -3,10 +3,13 @@
  * every extrusion engineer expects. */
 #include "testutil.h"
 
+#include <math.h>
 #include <stdlib.h>
 #include <string.h>
 
+#include "ow_classify.h"
 #include "ow_config.h"
+#include "ow_melt.h"
 #include "ow_solver.h"
 #include "ow_units.h"
 
@@ -115,18 +118,251 @@ static void deeper_metering_gives_more_output_and_cooler_melt(void **st)
 	free(b);
 }
 
+/* Every zone of s holds its set-point whatever heat it takes (unlimited
+ * heating and cooling power). */
+static void hold_every_zone(struct ow_study *s)
+{
+	for (int i = 0; i < s->line.n_zones; i++)
+		s->line.zones[i].heating_W = s->line.zones[i].cooling_W = NAN;
+}
+
 /* A worn screw (larger flight clearance) gives less output and a hotter
- * melt at the same speed (common practice: leakage flow back over the
- * flights, sheared hard in the clearance). */
+ * melt at the same speed and barrel temperatures (common practice:
+ * leakage flow back over the flights, sheared hard in the clearance). */
 static void worn_screw_gives_less_output_and_hotter_melt(void **st)
 {
 	struct ow_study *a = ow_test_study("fixtures/studies/hdpe-sf.json");
 	struct ow_study *b = ow_test_study("fixtures/studies/hdpe-worn.json");
-	struct ow_point pa = solve(a, 80.0, NULL), pb = solve(b, 80.0, NULL);
+	struct ow_point pa, pb;
 	(void)st;
+	hold_every_zone(a);
+	hold_every_zone(b);
+	pa = solve(a, 80.0, NULL);
+	pb = solve(b, 80.0, NULL);
 	assert_true(pb.output_kg_s < pa.output_kg_s);
 	assert_true(pb.discharge_bulk_K > pa.discharge_bulk_K);
 	assert_true(pb.peak_K > pa.peak_K);
+	free(a);
+	free(b);
+}
+
+/* Solve s at rpm with its own set-points and copy the profile into *rows
+ * (malloc'd, the caller frees it). */
+static struct ow_point solve_profile(const struct ow_study *s, double rpm,
+				     struct ow_profile_row **rows, int *n)
+{
+	struct ow_solver *sv = NULL;
+	struct ow_point pt;
+	const struct ow_profile_row *r;
+
+	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, rpm, NULL, 0.0, &pt, NULL), OW_OK);
+	assert_false(pt.flags & OW_FLAG_NOT_CONVERGED);
+	r = ow_solver_profile(sv, n);
+	*rows = malloc(sizeof **rows * (size_t)*n);
+	assert_non_null(*rows);
+	memcpy(*rows, r, sizeof **rows * (size_t)*n);
+	ow_solver_destroy(sv);
+	return pt;
+}
+
+/* The melt pool beside the bed is a channel of its own width w = W - X,
+ * one side wall of which (the bed) slides at V_sz; for a Newtonian melt
+ * with no clearance its pressure gradient is the closed form
+ *   Q = [F_d(H/w) V_bz + F_d(w/H) V_sz] w H/2 - F_p(H/w) w H^3 G/(12 mu)
+ * (Tadmor & Klein 1970, ch. 9, pool of width W - X; Rowell & Finlayson
+ * 1922 shape factors, the side wall's by exchanging width and depth), with
+ * Q = G_m (1 - unmelt)/rho_m. Checked on every step of the constant-depth
+ * feed section where the pool is at least as wide as deep. */
+static void melt_pool_conveys_at_its_own_width(void **st)
+{
+	struct ow_study *s =
+		ow_test_study("tests/data/newtonian-plasticating.json");
+	const struct ow_screw *sc = &s->screw;
+	struct ow_profile_row *r;
+	int n, i, checked = 0;
+	double rpm = 40.0, H = 9.525e-3, mu = 1000.0;
+	double phi = ow_screw_helix(sc, sc->diameter_m);
+	double W = ow_screw_width(sc, sc->diameter_m);
+	double vbz = OW_PI * sc->diameter_m * rpm / 60.0 * cos(phi);
+	struct ow_point pt = solve_profile(s, rpm, &r, &n);
+	double vsz = pt.output_kg_s / (950.0 * H * W);
+	(void)st;
+	for (i = 1; i < n; i++) {
+		double w = W * (1.0 - r[i].sbr), h = H / w, q, g, dpdz;
+
+		if (r[i].axial_m > 10.0 * 0.0635 || r[i].sbr <= 0.0 ||
+		    r[i - 1].sbr >= 1.0 || w < H)
+			continue;
+		q = pt.output_kg_s * (1.0 - r[i].unmelt_frac) / 760.0;
+		g = 12.0 * mu *
+		    ((ow_melt_shape_fd(h) * vbz + ow_melt_shape_fd(1.0 / h) *
+		      vsz) * w * H / 2.0 - q) /
+		    (ow_melt_shape_fp(h) * w * H * H * H);
+		dpdz = (r[i].pressure_Pa - r[i - 1].pressure_Pa) /
+		       (r[i].axial_m - r[i - 1].axial_m) * sin(phi);
+		assert_rel(dpdz, g, 1e-6);
+		checked++;
+	}
+	assert_true(checked >= 20);
+	free(r);
+	free(s);
+}
+
+/* Metering-controlled screw: once the bed is gone the pressure peaks where
+ * the tapering channel's drag flow equals the throughput, F_d(H* / W) V_bz W
+ * H* / 2 = Q (Newtonian, no clearance: the gradient changes sign there;
+ * Tadmor & Klein 1970, ch. 7), and falls along the shallower metering
+ * section. The maximum lies within one station of the taper's depth H*. */
+static void pressure_peaks_where_taper_drag_equals_throughput(void **st)
+{
+	struct ow_study *s =
+		ow_test_study("tests/data/newtonian-plasticating.json");
+	const struct ow_screw *sc = &s->screw;
+	struct ow_profile_row *r;
+	int n, it;
+	double rpm = 40.0, D = sc->diameter_m, lo = 3.175e-3, hi = 9.525e-3;
+	double phi = ow_screw_helix(sc, D), W = ow_screw_width(sc, D);
+	double vbz = OW_PI * D * rpm / 60.0 * cos(phi), q, xs;
+	struct ow_point pt = solve_profile(s, rpm, &r, &n);
+	(void)st;
+	q = pt.output_kg_s / 760.0;
+	for (it = 0; it < 100; it++) { /* drag flow rises with depth */
+		double mid = 0.5 * (lo + hi);
+
+		if (ow_melt_shape_fd(mid / W) * vbz * W * mid / 2.0 < q)
+			lo = mid;
+		else
+			hi = mid;
+	}
+	xs = 10.0 * D + 6.0 * D * (9.525e-3 - lo) / (9.525e-3 - 3.175e-3);
+	assert_true(xs > 10.0 * D && xs < 16.0 * D);
+	assert_true(pt.melt_complete_m < xs - D); /* all melt by then */
+	assert_abs(pt.max_pressure_at_m, xs, D / 6.0);
+	assert_true(pt.discharge_pressure_Pa < 0.5 * pt.max_pressure_Pa);
+	free(r);
+	free(s);
+}
+
+/* Drag capacity A = F_d V_bz W H/2 and pressure conductance B = F_p W H^3
+ * / (12 mu) of a Newtonian channel (Tadmor & Klein 1970, ch. 7). */
+static void channel_ab(double vbz, double w, double h, double mu, double *a,
+		       double *b)
+{
+	*a = ow_melt_shape_fd(h / w) * vbz * w * h / 2.0;
+	*b = ow_melt_shape_fp(h / w) * w * h * h * h / (12.0 * mu);
+}
+
+/* In a barrier section the solids and melt channels, side by side under
+ * the barrel, carry the melt at one pressure gradient: Q = A_1 + A_2 -
+ * (B_1 + B_2) G, each channel with the Newtonian drag and pressure flow of
+ * its own width and depth (Tadmor & Klein 1970, ch. 7). Checked on every
+ * step of the barrier section of a melt-fed Newtonian screw. */
+static void barrier_channels_share_one_gradient(void **st)
+{
+	struct ow_study *s = ow_test_study("tests/data/newtonian-barrier.json");
+	const struct ow_screw *sc = &s->screw;
+	struct ow_profile_row *r;
+	int n, i, checked = 0;
+	double rpm = 40.0, D = sc->diameter_m, mu = 1000.0;
+	double phi = ow_screw_helix(sc, D), W = ow_screw_width(sc, D);
+	double vbz = OW_PI * D * rpm / 60.0 * cos(phi), q;
+	struct ow_point pt = solve_profile(s, rpm, &r, &n);
+	(void)st;
+	q = pt.output_kg_s / 760.0;
+	for (i = 1; i < n; i++) {
+		double xm = 0.5 * (r[i].axial_m + r[i - 1].axial_m);
+		double f = (xm - 4.0 * D) / (12.0 * D), a1, b1, a2, b2, g;
+		double share = 0.1 + 0.75 * f, dpdz;
+
+		if (f <= 0.0 || f >= 1.0)
+			continue;
+		channel_ab(vbz, W * (1.0 - share), 7.0e-3 - 5.5e-3 * f, mu,
+			   &a1, &b1);
+		channel_ab(vbz, W * share, 2.0e-3 + 2.0e-3 * f, mu, &a2, &b2);
+		g = (a1 + a2 - q) / (b1 + b2);
+		assert_true(a1 - b1 * g > 0.0 && a2 - b2 * g > 0.0);
+		dpdz = (r[i].pressure_Pa - r[i - 1].pressure_Pa) /
+		       (r[i].axial_m - r[i - 1].axial_m) * sin(phi);
+		assert_rel(dpdz, g, 1e-5);
+		checked++;
+	}
+	assert_true(checked >= 70);
+	free(r);
+	free(s);
+}
+
+/* A shallow first section fed with melt cannot carry the throughput the
+ * deep section after it draws (drag flow V_bz W H/2 too small, Tadmor &
+ * Klein 1970, ch. 7): the computed pressure falls below zero there, which
+ * melt cannot hold. The point is flagged partial_fill, classified unsafe
+ * with that reason, and the profile prints no such pressure. */
+static void negative_pressure_flags_a_partly_filled_channel(void **st)
+{
+	struct ow_study *s = ow_test_study("tests/data/newtonian-barrier.json");
+	struct ow_profile_row *r;
+	struct ow_verdict v;
+	int n, i, empty = 0;
+	struct ow_point pt;
+	(void)st;
+	s->screw.sections[0].depth_m = 1.5e-3; /* shallow feed */
+	assert_int_equal(ow_screw_prepare(&s->screw, NULL), OW_OK);
+	pt = solve_profile(s, 40.0, &r, &n);
+	assert_true(pt.flags & OW_FLAG_PARTIAL_FILL);
+	ow_classify(&pt, &s->line.limits, ow_screw_length(&s->screw), &v);
+	assert_true(v.bits & (1u << OW_CK_PARTIAL_FILL));
+	for (i = 0; i < n; i++) {
+		assert_false(r[i].pressure_Pa < 0.0);
+		empty += isnan(r[i].pressure_Pa);
+	}
+	assert_true(empty > 0);
+	free(r);
+	free(s);
+}
+
+/* The barrier fixture against the single-flight screw of the same line
+ * (same zones, die and feed depth): a barrier screw delivers about the
+ * same output at a given speed (common practice), with no pressure below
+ * zero anywhere. */
+static void barrier_screw_keeps_pace_with_single_flight(void **st)
+{
+	struct ow_study *a = ow_test_study("fixtures/studies/hdpe-barrier.json");
+	struct ow_study *b = ow_test_study("fixtures/studies/hdpe-sf.json");
+	double rpm[] = {40.0, 80.0};
+	int k;
+	(void)st;
+	for (k = 0; k < 2; k++) {
+		struct ow_point pa = solve(a, rpm[k], NULL);
+		struct ow_point pb = solve(b, rpm[k], NULL);
+
+		assert_false(pa.flags & OW_FLAG_PARTIAL_FILL);
+		assert_rel(pa.output_kg_s, pb.output_kg_s, 0.15);
+	}
+	free(a);
+	free(b);
+}
+
+/* Plugging as the trade reads it: the solid bed ratio where the channel
+ * gets shallower, and Tadmor's plugging number A sqrt(X/W) / psi_t there
+ * (>= 1: the channel compresses faster than the bed melts, Tadmor & Klein
+ * 1970 ch. 9). The abrupt fixture's 0.75 D transition, reached by a bed
+ * still unmelted, squeezes faster than it melts; the gradual 8 D taper of
+ * the single-flight fixture does not. Both readings lie in the transition. */
+static void plugging_is_read_in_the_transition(void **st)
+{
+	struct ow_study *a = ow_test_study("fixtures/studies/hdpe-abrupt.json");
+	struct ow_study *b = ow_test_study("fixtures/studies/hdpe-sf.json");
+	double D = a->screw.diameter_m;
+	struct ow_point pa = solve(a, 80.0, NULL), pb = solve(b, 80.0, NULL);
+	(void)st;
+	assert_true(pa.max_sbr > 0.0 && pa.max_sbr < 1.0);
+	assert_true(pa.max_sbr_at_m > 12.0 * D &&
+		    pa.max_sbr_at_m <= 12.75 * D + D / 6.0); /* one station */
+	assert_true(pa.plug_ratio >= 1.0);
+	assert_true(pb.max_sbr > 0.0 && pb.max_sbr < 1.0);
+	assert_true(pb.max_sbr_at_m > 6.0 * D &&
+		    pb.max_sbr_at_m <= 14.0 * D + D / 6.0);
+	assert_true(pb.plug_ratio > 0.0 && pb.plug_ratio < 1.0);
 	free(a);
 	free(b);
 }
@@ -152,8 +388,10 @@ static void abrupt_compression_plugs_and_gradual_does_not(void **st)
 	pb = solve(b, 60.0, set);
 	assert_true(pa.flags & OW_FLAG_PLUGGING);
 	assert_abs(pa.max_sbr, 1.0, 1e-9);
+	assert_true(pa.plug_ratio >= 1.0); /* psi_t <= A */
 	assert_false(pb.flags & OW_FLAG_PLUGGING);
 	assert_true(pb.max_sbr < 1.0);
+	assert_true(pb.plug_ratio < 1.0);
 	free(a);
 	free(b);
 }
@@ -222,6 +460,87 @@ static void cold_barrel_returns_a_flagged_point(void **st)
 	free(s);
 }
 
+/* The fluted mixer's pressure change against the closed form of its land
+ * flow: per unit land length q = Q/(n L) = V_b g/2 - g^3 dP/(12 mu e), so
+ * dP = 12 mu e (V_b g/2 - Q/(n L))/g^3 over the section (plane
+ * Couette-Poiseuille flow over a barrier land, Tadmor & Gogos 2006 ch. 10,
+ * Rauwendaal, Polymer Extrusion; Newtonian melt of 1000 Pa s without
+ * temperature shift, 8 lands of 2 D, gap 1 mm, land 6.35 mm, 60 rpm on
+ * 63.5 mm; inputs chosen for the check). The energy book still closes. */
+static void mixer_pressure_follows_the_land_flow_closed_form(void **st)
+{
+	struct ow_study *s = ow_test_study("tests/data/newtonian-mixer.json");
+	struct ow_solver *sv = NULL;
+	struct ow_point pt;
+	const struct ow_profile_row *r;
+	double D = 0.0635, vb = OW_PI * D, q, want, p_in = NAN, p_out = NAN;
+	int n, i;
+	(void)st;
+	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, 60.0, NULL, 0.0, &pt, NULL), OW_OK);
+	assert_false(pt.flags & OW_FLAG_NOT_CONVERGED);
+	r = ow_solver_profile(sv, &n);
+	for (i = 0; i < n; i++) {
+		if (fabs(r[i].axial_m - 8.0 * D) < 1e-9)
+			p_in = r[i].pressure_Pa;
+		if (fabs(r[i].axial_m - 10.0 * D) < 1e-9)
+			p_out = r[i].pressure_Pa;
+	}
+	q = pt.output_kg_s / 760.0;
+	want = 12.0 * 1000.0 * 6.35e-3 *
+	       (vb * 1e-3 / 2.0 - q / (8.0 * 2.0 * D)) / 1e-9;
+	assert_rel(p_out - p_in, want, 1e-6);
+	assert_true(want > 1e6); /* the lands pump: drag beats the flow */
+	assert_abs(pt.energy_residual, 0.0, 1e-6);
+	ow_solver_destroy(sv);
+	free(s);
+}
+
+/* A barrel zone is a controlled wall with finite heating and cooling
+ * power. On the demo line at 100 rpm the last zones need more cooling than
+ * they have: each such zone gives the resin exactly minus its cooling
+ * power, its control point floats above the set-point, the point says so
+ * and fails zone_control; the energy book still closes (first law,
+ * Tadmor & Gogos 2006 ch. 9). With unlimited power every zone holds its
+ * set-point, gives what it needs, and the melt leaves cooler. */
+static void zone_out_of_cooling_floats_to_the_heat_it_can_remove(void **st)
+{
+	struct ow_study *s = ow_test_study("demo/study-si.json");
+	struct ow_point pt = solve(s, 100.0, NULL), held;
+	struct ow_verdict v;
+	int i, floating = 0;
+	(void)st;
+	for (i = 0; i < s->line.n_zones; i++) {
+		const struct ow_zone *z = &s->line.zones[i];
+
+		if (!(pt.zone_floating & (1u << i))) {
+			assert_rel(pt.zone_control_K[i], pt.set_K[i], 1e-12);
+			assert_abs(pt.zone_heat_W[i], pt.zone_demand_W[i], 1e-6);
+			continue;
+		}
+		floating++;
+		assert_true(pt.zone_demand_W[i] < -z->cooling_W);
+		assert_abs(pt.zone_heat_W[i], -z->cooling_W,
+			   2e-3 * z->cooling_W + 1.0);
+		assert_true(pt.zone_control_K[i] > pt.set_K[i] + 1.0);
+	}
+	assert_true(floating >= 1);
+	assert_true(pt.flags & OW_FLAG_ZONE_FLOAT);
+	assert_true(pt.zone_load > 1.0);
+	assert_abs(pt.energy_residual, 0.0, 1e-6);
+	ow_classify(&pt, &s->line.limits, ow_screw_length(&s->screw), &v);
+	assert_true(v.bits & (1u << OW_CK_ZONE_CONTROL));
+	assert_true(v.margin[OW_CK_ZONE_CONTROL] < 0.0);
+	s->line.limits.zone_load = NAN; /* switched off: not classified */
+	ow_classify(&pt, &s->line.limits, ow_screw_length(&s->screw), &v);
+	assert_false(v.bits & (1u << OW_CK_ZONE_CONTROL));
+	hold_every_zone(s);
+	held = solve(s, 100.0, NULL);
+	assert_int_equal(held.zone_floating, 0);
+	assert_true(held.barrel_heat_W < pt.barrel_heat_W);
+	assert_true(held.discharge_bulk_K < pt.discharge_bulk_K - 5.0);
+	free(s);
+}
 
 /* ---- solver extras against hand calculations ------------------------- */
 
@@ -447,10 +766,20 @@ int main(void)
 		cmocka_unit_test(output_and_peak_rise_with_speed),
 		cmocka_unit_test(deeper_metering_gives_more_output_and_cooler_melt),
 		cmocka_unit_test(worn_screw_gives_less_output_and_hotter_melt),
+		cmocka_unit_test(melt_pool_conveys_at_its_own_width),
+		cmocka_unit_test(pressure_peaks_where_taper_drag_equals_throughput),
+		cmocka_unit_test(barrier_channels_share_one_gradient),
+		cmocka_unit_test(negative_pressure_flags_a_partly_filled_channel),
+		cmocka_unit_test(barrier_screw_keeps_pace_with_single_flight),
+		cmocka_unit_test(plugging_is_read_in_the_transition),
 		cmocka_unit_test(abrupt_compression_plugs_and_gradual_does_not),
 		cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
 		cmocka_unit_test(cold_barrel_returns_a_flagged_point),
 		cmocka_unit_test(feed_capacity_follows_darnell_mol),
+		cmocka_unit_test(
+			mixer_pressure_follows_the_land_flow_closed_form),
+		cmocka_unit_test(
+			zone_out_of_cooling_floats_to_the_heat_it_can_remove),
 		cmocka_unit_test(screen_pack_moves_output_along_the_die_characteristic),
 		cmocka_unit_test(max_pressure_is_the_largest_on_the_profile),
 		cmocka_unit_test(two_flight_leakage_matches_the_closed_form),

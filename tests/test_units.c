@@ -370,6 +370,7 @@ static const double sample_si[OW_DIM_COUNT] = {
 	[OW_DIM_TORQUE] = 4800.0,
 	[OW_DIM_SHEAR_RATE] = 100.0,
 	[OW_DIM_CONSISTENCY] = 20000.0,
+	[OW_DIM_HEAT_TRANSFER] = 2000.0,
 };
 
 static void round_trip(enum ow_unit_system sys)

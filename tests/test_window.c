@@ -27,7 +27,7 @@ static struct ow_study *study(void)
 
 	l->unmelt_frac = l->pressure_Pa = l->power_W = l->torque_Nm = NAN;
 	l->min_melt_temp_K = l->min_output_kg_s = l->max_output_kg_s = NAN;
-	l->max_sbr = NAN;
+	l->max_sbr = l->zone_load = NAN;
 	return s;
 }
 

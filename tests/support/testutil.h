@@ -12,6 +12,12 @@
 
 #define OW_PI 3.14159265358979323846
 
+/* Folder the end-to-end tests write into: the build folder's tests/ (the
+ * Makefile passes it, so `make sanitize` writes under build-san/). */
+#ifndef OW_TEST_OUT
+#define OW_TEST_OUT "build/tests"
+#endif
+
 /* Relative closeness |a - b| <= tol * max(|b|, tiny). */
 #define assert_rel(a, b, tol) \
 	ow_test_assert_rel((a), (b), (tol), #a, __FILE__, __LINE__)
