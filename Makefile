@@ -87,7 +87,7 @@ demo: deps
 	@sh demo/run.sh $(OPWIN)
 
 bench: all $(BUILD)/bench
-	@$(BUILD)/bench demo/study-si.json
+	@$(BUILD)/bench demo/study-si.json demo/line/line3-readings.csv
 
 $(BUILD)/bench: $(BUILD)/tests/bench/bench.o $(LIBA)
 	$(CC) $(LDFLAGS) -o $@ $< $(LIBA) $(LDLIBS)

@@ -35,6 +35,7 @@ struct cli_command {
 	const char *summary;
 };
 
+int cmd_calibrate(int argc, char **argv);
 int cmd_check(int argc, char **argv);
 int cmd_compare(int argc, char **argv);
 int cmd_point(int argc, char **argv);

@@ -97,13 +97,15 @@ static void print_note(const struct ow_study *s, const struct ow_point *pt,
 	       SHOW(OW_DIM_TEMPERATURE, pt->discharge_peak_K),
 	       SHOW(OW_DIM_TEMPERATURE, pt->peak_K), pt->peak_at_m / D);
 	if (isfinite(pt->melt_complete_m))
-		printf("melting   from %.1f D, complete at %.1f D; max solid bed "
-		       "ratio %.2f\n", pt->melt_start_m / D,
-		       pt->melt_complete_m / D, pt->max_sbr);
+		printf("melting   from %.2f D, complete at %.1f D; solid bed "
+		       "ratio in the transition %.2f, plugging number %.2f\n",
+		       pt->melt_start_m / D, pt->melt_complete_m / D,
+		       pt->max_sbr, pt->plug_ratio);
 	else
 		printf("melting   NOT complete: %.2f %% of the mass leaves "
-		       "unmelted; max solid bed ratio %.2f\n",
-		       100.0 * pt->unmelt_frac, pt->max_sbr);
+		       "unmelted; solid bed ratio in the transition %.2f, "
+		       "plugging number %.2f\n", 100.0 * pt->unmelt_frac,
+		       pt->max_sbr, pt->plug_ratio);
 	printf("drive     %.2f %s, torque %.0f N·m, specific energy %.3f "
 	       "kWh/kg\n", SHOW(OW_DIM_POWER, pt->power_W), pt->torque_Nm,
 	       pt->sec_J_kg / 3.6e6);
@@ -115,6 +117,14 @@ static void print_note(const struct ow_study *s, const struct ow_point *pt,
 	printf("barrel    %+.2f %s net into the resin (negative: cooling)\n",
 	       SHOW(OW_DIM_POWER, pt->barrel_heat_W));
 	print_zones(s, pt, o);
+	printf("energy    drive %.3f + barrel %+.3f + root %+.3f = enthalpy "
+	       "rise %.3f + flow work %.3f %s\n",
+	       ow_display_value(o->c.units, OW_DIM_POWER, pt->power_W),
+	       ow_display_value(o->c.units, OW_DIM_POWER, pt->barrel_heat_W),
+	       ow_display_value(o->c.units, OW_DIM_POWER, pt->root_heat_W),
+	       ow_display_value(o->c.units, OW_DIM_POWER,
+				pt->enthalpy_rise_W),
+	       SHOW(OW_DIM_POWER, pt->flow_work_W));
 	print_limit_lines(v);
 	if (pt->flags & OW_FLAG_NOT_CONVERGED)
 		printf("note      the screw-die match did not converge: "

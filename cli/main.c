@@ -8,6 +8,7 @@ static int cmd_help(int argc, char **argv);
 
 /* Sorted by name. */
 static const struct cli_command commands[] = {
+	{"calibrate", cmd_calibrate, "fit model factors to line readings"},
 	{"check", cmd_check, "validate inputs; print derived screw data"},
 	{"compare", cmd_compare, "two studies on one grid, common window"},
 	{"fit", cmd_fit, "fit a viscosity model to lab data"},

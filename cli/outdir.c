@@ -50,7 +50,9 @@ int cli_outdir_begin(const char *cmd, struct cli_outdir *o, const char *dir)
 		if (o->saved[k].sa_handler == SIG_IGN) /* e.g. under nohup */
 			sigaction(caught[k], &o->saved[k], NULL);
 	}
-	st = ow_io_dir_begin(dir, o->tmp, sizeof o->tmp, &d);
+	st = ow_io_dir_check(dir, &d); /* again: things change while solving */
+	if (st == OW_OK)
+		st = ow_io_dir_begin(dir, o->tmp, sizeof o->tmp, &d);
 	if (st != OW_OK) {
 		o->tmp[0] = '\0';
 		return cli_fail(cmd, st, &d);
@@ -81,8 +83,13 @@ int cli_outdir_finish(const char *cmd, struct cli_outdir *o, int rc)
 		if (st != OW_OK)
 			rc = cli_fail(cmd, st, &d);
 	}
-	if (o->tmp[0]) /* not put in place: discard it whole */
+	if (o->tmp[0]) { /* not put in place: discard it whole */
 		ow_io_dir_remove(o->tmp, NULL, NULL, NULL);
+		if (rc)
+			fprintf(stderr, "opwin %s: %s: left as it was (the "
+				"outputs went into %s, now removed)\n",
+				cmd, o->dir, o->tmp);
+	}
 	sig = pending_signal;
 	for (k = 0; k < N_CAUGHT; k++)
 		sigaction(caught[k], &o->saved[k], NULL);

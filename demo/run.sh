@@ -27,4 +27,10 @@ echo "== the demo resin refitted from (invented) lab data"
 "$opwin" fit "$here/lab/hdpe-pipe-lab.csv" -o "$out/fitted-viscosity.json" \
 	--plot "$out/fit.png"
 
+echo "== the model calibrated to the line's (invented) readings, and its window"
+"$opwin" calibrate "$here/study-si.json" "$here/line/line3-readings.csv" \
+	--free viscosity_scale,die_factor -o "$out/study-calibrated.json" \
+	--plot "$out/calibration.png"
+"$opwin" map "$out/study-calibrated.json" -o "$out/window-calibrated"
+
 echo "demo outputs are in $out/"

@@ -931,7 +931,8 @@ static enum ow_status parse_study(const struct ow_jin *j, const cJSON *o,
 {
 	static const char *const keys[] = {
 		"notes", "title", "screw", "resin", "feed", "barrel", "die",
-		"screen_pack", "limits", "sweep", "numerics", NULL};
+		"screen_pack", "limits", "sweep", "numerics", "calibration",
+		NULL};
 	struct ow_diag tmp = {{0}};
 	enum ow_status st = ow_jin_keys(j, o, "", keys);
 
@@ -948,6 +949,13 @@ static enum ow_status parse_study(const struct ow_jin *j, const cJSON *o,
 		st = checked(ow_line_validate(&s->line,
 					      ow_screw_length(&s->screw), &tmp),
 			     &tmp, s->path, "", j->d);
+	if (st == OW_OK)
+		st = ow_config_calibration(j, o, s);
+	if (st == OW_OK && ow_calib_active(&s->calib)) {
+		ow_calib_apply(s, NULL); /* the model the study asks for */
+		st = check_resin(&s->resin, s->path, "calibration applied: "
+				 "resin.", j->d);
+	}
 	return st;
 }
 

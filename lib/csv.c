@@ -80,6 +80,9 @@ void ow_csv_destroy(struct ow_csv *c)
 	for (i = 0; c->cols && i < c->n_cols; i++)
 		free(c->cols[i]);
 	free(c->cols);
+	for (i = 0; c->texts && (size_t)i < c->n_rows * (size_t)c->n_cols; i++)
+		free(c->texts[i]);
+	free(c->texts);
 	free(c->cells);
 	free(c->lines);
 	free(c->name);
@@ -164,6 +167,47 @@ static enum ow_status read_number(const struct ow_csv *c, struct span s,
 	return OW_OK;
 }
 
+/* Is column col one of the text columns the caller named? */
+static int is_text_col(const struct ow_csv *c, int col)
+{
+	const char *const *t;
+
+	for (t = c->text_names; t && *t; t++)
+		if (strcmp(c->cols[col], *t) == 0)
+			return 1;
+	return 0;
+}
+
+/* A cell: text kept as it is in a text column, NAN for an empty cell when
+ * empty cells are allowed, otherwise a number. */
+static enum ow_status read_cell(struct ow_csv *c, struct span s, int lineno,
+				int col, double *x, struct ow_diag *d)
+{
+	size_t at = c->n_rows * (size_t)c->n_cols + (size_t)col;
+
+	size_t len = (size_t)(s.end - s.start);
+
+	if (c->texts && is_text_col(c, col)) {
+		*x = NAN;
+		if (len > CSV_MAX_CELL || memchr(s.start, '\0', len) ||
+		    ow_io_utf8_check(s.start, len) != len)
+			return ow_diag_set(d, OW_EINPUT,
+					   "%s: line %d, column %d (%s): "
+					   "expected UTF-8 text of at most %d "
+					   "bytes", c->name, lineno, col + 1,
+					   c->cols[col], CSV_MAX_CELL);
+		c->texts[at] = dup_span(s);
+		return c->texts[at] ? OW_OK
+				    : ow_diag_set(d, OW_ENOMEM, "%s: out of "
+						  "memory", c->name);
+	}
+	if (c->empty_nan && len == 0) {
+		*x = NAN;
+		return OW_OK;
+	}
+	return read_number(c, s, lineno, col, x, d);
+}
+
 static enum ow_status read_row(struct ow_csv *c, struct span line, int lineno,
 			       struct ow_diag *d)
 {
@@ -180,7 +224,7 @@ static enum ow_status read_row(struct ow_csv *c, struct span line, int lineno,
 				   n > c->n_cols ? c->n_cols : n,
 				   c->header_line, c->n_cols);
 	for (i = 0; i < n; i++) {
-		st = read_number(c, cells[i], lineno, i, &row[i], d);
+		st = read_cell(c, cells[i], lineno, i, &row[i], d);
 		if (st != OW_OK)
 			return st;
 	}
@@ -218,6 +262,12 @@ static enum ow_status parse_lines(struct ow_csv *c, const char *text,
 			st = read_header(c, line, lineno, d);
 			c->cells = malloc(max_rows * (size_t)c->n_cols *
 					  sizeof *c->cells);
+			if (st == OW_OK && c->text_names)
+				c->texts = calloc(max_rows * (size_t)c->n_cols,
+						  sizeof *c->texts);
+			if (st == OW_OK && c->text_names && !c->texts)
+				st = ow_diag_set(d, OW_ENOMEM,
+						 "%s: out of memory", c->name);
 			if (st == OW_OK && !c->cells)
 				st = ow_diag_set(d, OW_ENOMEM,
 						 "%s: out of memory", c->name);
@@ -238,12 +288,22 @@ static enum ow_status parse_lines(struct ow_csv *c, const char *text,
 enum ow_status ow_csv_parse(const char *text, size_t len, const char *name,
 			    struct ow_csv **out, struct ow_diag *d)
 {
+	return ow_csv_parse_with(text, len, name, NULL, 0, out, d);
+}
+
+enum ow_status ow_csv_parse_with(const char *text, size_t len,
+				 const char *name,
+				 const char *const *text_cols, int empty_nan,
+				 struct ow_csv **out, struct ow_diag *d)
+{
 	struct ow_csv *c = calloc(1, sizeof *c);
 	enum ow_status st = OW_ENOMEM;
 
 	*out = NULL;
 	if (!c)
 		return ow_diag_set(d, OW_ENOMEM, "%s: out of memory", name);
+	c->text_names = text_cols;
+	c->empty_nan = empty_nan;
 	c->name = strdup(name);
 	c->lines = malloc(count_lines(text, len) * sizeof *c->lines);
 	if (!c->name || !c->lines) {
@@ -267,6 +327,13 @@ fail:
 enum ow_status ow_csv_read(const char *path, struct ow_csv **out,
 			   struct ow_diag *d)
 {
+	return ow_csv_read_with(path, NULL, 0, out, d);
+}
+
+enum ow_status ow_csv_read_with(const char *path,
+				const char *const *text_cols, int empty_nan,
+				struct ow_csv **out, struct ow_diag *d)
+{
 	char *buf = NULL;
 	size_t len = 0;
 	enum ow_status st;
@@ -278,7 +345,8 @@ enum ow_status ow_csv_read(const char *path, struct ow_csv **out,
 				   "UTF-8 text: rename the file", path);
 	st = ow_io_read_file(path, CSV_MAX_BYTES, &buf, &len, d);
 	if (st == OW_OK)
-		st = ow_csv_parse(buf, len, path, out, d);
+		st = ow_csv_parse_with(buf, len, path, text_cols, empty_nan,
+				       out, d);
 	free(buf);
 	return st;
 }
@@ -286,6 +354,15 @@ enum ow_status ow_csv_read(const char *path, struct ow_csv **out,
 double ow_csv_cell(const struct ow_csv *c, size_t row, int col)
 {
 	return c->cells[row * (size_t)c->n_cols + (size_t)col];
+}
+
+const char *ow_csv_text(const struct ow_csv *c, size_t row, int col)
+{
+	const char *t = c->texts ? c->texts[row * (size_t)c->n_cols +
+					    (size_t)col]
+				 : NULL;
+
+	return t ? t : "";
 }
 
 int ow_csv_find(const struct ow_csv *c, const char *quantity,

@@ -82,29 +82,7 @@ static enum ow_status find_role(const struct ow_csv *c, const struct role *r,
 		return ow_diag_set(d, OW_EINPUT,
 				   "%s: line %d: more than one %s column",
 				   c->name, c->header_line, r->what);
-	if (!**unit)
-		return ow_diag_set(d, OW_EINPUT,
-				   "%s: line %d, column %d (%s): the column "
-				   "name must carry its unit, e.g. %s",
-				   c->name, c->header_line, *col + 1,
-				   c->cols[*col], r->example);
 	return OW_OK;
-}
-
-/* The unit text must convert to the role's dimension. */
-static enum ow_status check_unit(const struct ow_units *u,
-				 const struct ow_csv *c, const struct role *r,
-				 int col, const char *unit, struct ow_diag *d)
-{
-	struct ow_diag why = {{0}};
-	double x;
-
-	if (ow_units_convert(u, 1.0, unit, r->dim, &x, &why) == OW_OK)
-		return OW_OK;
-	return ow_diag_set(d, OW_EINPUT,
-			   "%s: line %d, column %d (%s): unit \"%s\": %s",
-			   c->name, c->header_line, col + 1, c->cols[col],
-			   unit, why.msg[0] ? why.msg : "not understood");
 }
 
 /* Convert one cell to SI and check it is a positive (plausible) value. */
@@ -115,13 +93,11 @@ static enum ow_status convert_cell(const struct ow_units *u,
 				   struct ow_diag *d)
 {
 	double x = ow_csv_cell(c, row, col);
-	struct ow_diag why = {{0}};
 	int line = c->lines[row];
+	enum ow_status st = ow_csv_cell_si(u, c, row, col, unit, r->dim, si, d);
 
-	if (ow_units_convert(u, x, unit, r->dim, si, &why) != OW_OK)
-		return ow_diag_set(d, OW_EINPUT, "%s: line %d, column %d "
-				   "(%s): %g: %s", c->name, line, col + 1,
-				   c->cols[col], x, why.msg);
+	if (st != OW_OK)
+		return st;
 	if (r->dim == OW_DIM_TEMPERATURE &&
 	    (*si < TEMP_MIN_K || *si > TEMP_MAX_K))
 		return ow_diag_set(d, OW_EINPUT,
@@ -150,7 +126,9 @@ static enum ow_status from_csv(const struct ow_units *u,
 	for (k = 0; k < 3; k++) {
 		st = find_role(c, &roles[k], &col[k], &unit[k], &used[k], d);
 		if (st == OW_OK)
-			st = check_unit(u, c, &roles[k], col[k], unit[k], d);
+			st = ow_csv_unit_check(u, c, col[k], unit[k],
+					       roles[k].dim, roles[k].example,
+					       d);
 		if (st != OW_OK)
 			return st;
 	}

@@ -3,7 +3,6 @@
 #include "ow_fit.h"
 
 #include <cjson/cJSON.h>
-#include <errno.h>
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>

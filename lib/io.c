@@ -144,8 +144,19 @@ const char *ow_io_strerror(int err, char *buf, size_t n)
 		snprintf(buf, n, "is not a regular file");
 	else if (err == EFBIG)
 		snprintf(buf, n, "too large");
-	else if (strerror_r(err, buf, n) != 0)
-		snprintf(buf, n, "error %d", err);
+	else {
+#if defined(__GLIBC__)
+		/* _GNU_SOURCE (above) selects the GNU strerror_r: it returns
+		 * the text, which may be a static string, not buf */
+		const char *m = strerror_r(err, buf, n);
+
+		if (m != buf)
+			snprintf(buf, n, "%s", m);
+#else
+		if (strerror_r(err, buf, n) != 0)
+			snprintf(buf, n, "error %d", err);
+#endif
+	}
 	return buf;
 }
 
@@ -205,17 +216,32 @@ static mode_t current_umask(void)
 	return (mode_t)(m & 0777);
 }
 
+/* The last name in path, trailing slashes ignored ("out/map/" -> "map"):
+ * its start *base and length; returns the length of what comes before. */
+static size_t last_name(const char *path, const char **base, size_t *len)
+{
+	size_t end = strlen(path), start;
+
+	while (end > 1 && path[end - 1] == '/')
+		end--;
+	for (start = end; start > 0 && path[start - 1] != '/'; start--)
+		;
+	*base = path + start;
+	*len = end - start;
+	return start;
+}
+
 /* "<folder of path>/.<name>.<suffix>" into a malloc'd string. */
 static char *sibling(const char *path, const char *suffix)
 {
-	const char *slash = strrchr(path, '/');
-	size_t dlen = slash ? (size_t)(slash - path) + 1 : 0;
-	const char *base = slash ? slash + 1 : path;
-	size_t n = dlen + strlen(base) + strlen(suffix) + 3;
+	const char *base;
+	size_t blen, dlen = last_name(path, &base, &blen);
+	size_t n = dlen + blen + strlen(suffix) + 3;
 	char *t = malloc(n);
 
 	if (t)
-		snprintf(t, n, "%.*s.%s.%s", (int)dlen, path, base, suffix);
+		snprintf(t, n, "%.*s.%.*s.%s", (int)dlen, path, (int)blen, base,
+			 suffix);
 	return t;
 }
 
@@ -253,9 +279,9 @@ static int write_replace(const char *path, const void *data, size_t len,
 		free(tmp);
 		return err;
 	}
-	/* the file just made: regular, one link, ours */
-	if (fstat(fd, &st) != 0 || !S_ISREG(st.st_mode) || st.st_nlink != 1 ||
-	    st.st_uid != geteuid())
+	/* the file just made: regular and empty (owner and link count are
+	 * left alone: network and foreign file systems report their own) */
+	if (fstat(fd, &st) != 0 || !S_ISREG(st.st_mode) || st.st_size != 0)
 		err = EPERM;
 	if (!err && fchmod(fd, mode) != 0)
 		err = errno;
@@ -300,7 +326,7 @@ enum ow_status ow_io_write_file(const char *path, const void *data,
 		if (!S_ISREG(lst.st_mode))
 			return ow_diag_set(d, OW_EIO, "%s: is not a regular "
 					   "file: not replaced", path);
-		mode = lst.st_mode & 07777;
+		mode = lst.st_mode & 0777; /* never set-id bits */
 	} else if (errno != ENOENT) {
 		err = errno;
 		goto done;
@@ -344,12 +370,24 @@ static char *parent_of(const char *dir)
 enum ow_status ow_io_dir_check(const char *dir, struct ow_diag *d)
 {
 	char eb[128];
-	char *parent = parent_of(dir), *tmp = NULL;
+	char *parent = parent_of(dir);
 	struct stat st;
 	enum ow_status s = OW_OK;
 
+	const char *base;
+	size_t blen;
+
+	last_name(dir, &base, &blen);
 	if (!parent)
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
+	if (blen == 0 || *base == '/' || !strncmp(base, ".", blen) ||
+	    !strncmp(base, "..", blen)) {
+		/* a folder is put in place by renaming it: it needs a name */
+		s = ow_diag_set(d, OW_EIO, "%s: name the folder itself (as "
+				"in out/map), not \".\", \"..\" or \"/\"",
+				dir);
+		goto done;
+	}
 	if (lstat(dir, &st) == 0 && !S_ISDIR(st.st_mode)) {
 		s = ow_diag_set(d, OW_EIO, "%s: %s", dir,
 				S_ISLNK(st.st_mode)
@@ -363,16 +401,12 @@ enum ow_status ow_io_dir_check(const char *dir, struct ow_diag *d)
 				"is not a folder", dir, parent);
 		goto done;
 	}
-	tmp = sibling(dir, "XXXXXX");
-	if (!tmp || !mkdtemp(tmp)) {
+	/* with the effective ids, as creating would; EROFS on a read-only
+	 * file system. Nothing is made, so a signal leaves nothing behind. */
+	if (faccessat(AT_FDCWD, parent, W_OK | X_OK, AT_EACCESS) != 0)
 		s = ow_diag_set(d, OW_EIO, "%s: cannot create the folder: %s",
-				dir, tmp ? ow_io_strerror(errno, eb, sizeof eb)
-					 : "out of memory");
-		goto done;
-	}
-	rmdir(tmp);
+				dir, ow_io_strerror(errno, eb, sizeof eb));
 done:
-	free(tmp);
 	free(parent);
 	return s;
 }

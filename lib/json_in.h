@@ -3,8 +3,9 @@
  * quantities with units, integers, strings and choices, strict key sets,
  * and the sources that {"value", "source"} objects carry.
  *
- * Not a public header: only config.c includes it. Everything here is
- * re-entrant; the state of one file lives in struct ow_jin. */
+ * Not a public header: only config.c and config_calib.c include it.
+ * Everything here is re-entrant; the state of one file lives in struct
+ * ow_jin. */
 #ifndef OW_JSON_IN_H
 #define OW_JSON_IN_H
 
@@ -91,5 +92,10 @@ enum ow_status ow_jin_choice(const struct ow_jin *j, const cJSON *obj,
 
 /* The member named key (case-sensitive), or NULL. */
 const cJSON *ow_jin_get(const cJSON *obj, const char *key);
+
+/* The study's optional `calibration` block into s->calib (defaults when
+ * absent); config_calib.c. The caller applies the factors. */
+enum ow_status ow_config_calibration(const struct ow_jin *j, const cJSON *o,
+				     struct ow_study *s);
 
 #endif

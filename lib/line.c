@@ -10,6 +10,7 @@ void ow_line_default(struct ow_line *l)
 	l->feed_temp_K = 298.15;
 	l->root_adiabatic = 1;
 	l->root_temp_K = NAN;
+	l->die_factor = 1.0;
 	l->limits = (struct ow_limits){NAN, NAN, NAN, NAN, NAN,
 				       NAN, NAN, NAN, NAN, 1.0};
 	l->heat_transfer_factor = 1.0;

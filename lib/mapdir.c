@@ -75,13 +75,14 @@ static enum ow_status read_json(const char *path, unsigned long *crc,
 {
 	char *buf = NULL;
 	size_t len = 0, bom;
+	char eb[128];
 	int err = md_slurp(path, &buf, &len);
 
 	if (err)
 		return ow_diag_set(d, OW_EINPUT,
 		                   "%s: cannot read it again to "
 		                   "copy it into the map folder: %s",
-		                   path, strerror(err));
+		                   path, ow_io_strerror(err, eb, sizeof eb));
 	*crc = ow_io_crc32(*crc, buf, len);
 	bom = len >= 3 && !memcmp(buf, "\xEF\xBB\xBF", 3) ? 3 : 0;
 	*out = cJSON_ParseWithLength(buf + bom, len - bom);
@@ -527,6 +528,7 @@ static enum ow_status read_in(const char *dir, const char *name, char *path,
                               char **text, const char *missing,
                               struct ow_diag *d)
 {
+	char eb[128];
 	size_t len = 0;
 	enum ow_status st = md_path(path, OW_PATH_LEN + 32, dir, name, d);
 	int err;
@@ -542,7 +544,8 @@ static enum ow_status read_in(const char *dir, const char *name, char *path,
 		                   dir, missing);
 	if (err)
 		return ow_diag_set(d, err == ENOMEM ? OW_ENOMEM : OW_EINPUT,
-		                   "%s: cannot read: %s", path, strerror(err));
+		                   "%s: cannot read: %s", path,
+		                   ow_io_strerror(err, eb, sizeof eb));
 	if (strlen(*text) != len) {
 		free(*text);
 		*text = NULL;

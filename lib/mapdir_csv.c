@@ -108,6 +108,9 @@ static const struct {
     FIELD(energy_residual),
     FIELD(feed_capacity_kg_s),
     FIELD(zone_load),
+    FIELD(root_heat_W),
+    FIELD(enthalpy_rise_W),
+    FIELD(flow_work_W),
 };
 #undef FIELD
 #define N_FIELDS ((int)(sizeof fields / sizeof fields[0]))

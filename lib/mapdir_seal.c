@@ -151,7 +151,7 @@ static enum ow_status verify_file(const char *dir, const cJSON *e,
 
 enum ow_status ow_mapdir_verify(const char *dir, struct ow_diag *d)
 {
-	char path[OW_PATH_LEN + 32], *text = NULL;
+	char path[OW_PATH_LEN + 32], *text = NULL, eb[128];
 	const cJSON *f, *v, *files, *e;
 	cJSON *o = NULL;
 	enum ow_status st = md_path(path, sizeof path, dir, MANIFEST, d);
@@ -176,7 +176,7 @@ enum ow_status ow_mapdir_verify(const char *dir, struct ow_diag *d)
 		                   dir);
 	if (err)
 		return ow_diag_set(d, OW_EINPUT, "%s: cannot read: %s", path,
-		                   strerror(err));
+		                   ow_io_strerror(err, eb, sizeof eb));
 	o = cJSON_Parse(text);
 	f = cJSON_GetObjectItemCaseSensitive(o, "format");
 	v = cJSON_GetObjectItemCaseSensitive(o, "version");

@@ -21,23 +21,25 @@ struct group {
 };
 
 /* Groups: melt temperature, melting, pressure, drive, throughput and
- * feed, no solution. Hues from Okabe & Ito, "Color Universal Design"
- * (2008), darkened for thin lines. */
-static const struct group groups[6] = {
+ * feed, no solution, barrel zone control. Hues from Okabe & Ito, "Color
+ * Universal Design" (2008), darkened for thin lines. */
+static const struct group groups[7] = {
     {0.78, 0.20, 0.05, 45.0, OW_DASH_SOLID},
     {0.60, 0.30, 0.55, 135.0, OW_DASH_DASHED},
     {0.00, 0.36, 0.60, 90.0, OW_DASH_DASH_DOT},
     {0.55, 0.40, 0.00, 0.0, OW_DASH_LONG},
     {0.00, 0.48, 0.36, 67.5, OW_DASH_DOTTED},
-    {0.35, 0.35, 0.35, 112.5, OW_DASH_SOLID}};
+    {0.35, 0.35, 0.35, 112.5, OW_DASH_SOLID},
+    {0.15, 0.55, 0.78, 22.5, OW_DASH_DASHED}};
 
 static const struct group *group_of(int c)
 {
 	switch (c) {
 	case OW_CK_PEAK_TEMP:
 	case OW_CK_MIN_MELT_TEMP:
-	case OW_CK_ZONE_CONTROL: /* barrel temperature control */
 		return &groups[0];
+	case OW_CK_ZONE_CONTROL:
+		return &groups[6];
 	case OW_CK_UNMELT:
 	case OW_CK_MAX_SBR:
 	case OW_CK_PLUGGING:

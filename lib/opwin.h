@@ -11,6 +11,7 @@
 #include "ow_material.h"
 #include "ow_screw.h"
 #include "ow_line.h"
+#include "ow_calib.h"
 #include "ow_config.h"
 #include "ow_advise.h"
 #include "ow_results.h"

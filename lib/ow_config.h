@@ -11,6 +11,7 @@
 #ifndef OW_CONFIG_H
 #define OW_CONFIG_H
 
+#include "ow_calib.h"
 #include "ow_line.h"
 #include "ow_material.h"
 #include "ow_screw.h"
@@ -40,6 +41,9 @@ struct ow_study {
 	struct ow_source sources[OW_MAX_SOURCES];
 	unsigned long input_crc; /* CRC-32 over the bytes of every input
 				    file read, in reading order */
+	struct ow_calibration calib; /* the calibration block; its factors
+					are applied to screw, resin and
+					line above */
 };
 
 /* Load a study file and the files it names into *out (fully validated:

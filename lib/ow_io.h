@@ -77,10 +77,10 @@ enum ow_status ow_io_write_file(const char *path, const void *data,
 				size_t len, struct ow_diag *d);
 
 /* Can folder dir be written as a whole? Its parent must be an existing
- * folder this process can create entries in (checked by making and
- * removing a temporary folder there), and dir must be absent or a folder,
- * not a symbolic link. OW_EIO naming dir and the reason otherwise. Nothing
- * is left behind. */
+ * folder this process can create entries in (faccessat with the effective
+ * ids: permissions, a read-only file system), and dir must be absent or a
+ * folder, not a symbolic link. OW_EIO naming dir and the reason
+ * otherwise. Nothing is created. */
 enum ow_status ow_io_dir_check(const char *dir, struct ow_diag *d);
 
 /* Make the sibling temporary folder for dir; its path into tmp[n]. */

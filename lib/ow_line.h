@@ -98,6 +98,8 @@ struct ow_line {
 	double root_temp_K;
 	struct ow_die die;
 	double screen_pressure_Pa; /* constant screen-pack/adapter drop */
+	double die_factor;         /* multiplies the die's pressure need
+				      (calibration; 1 = the ideal die) */
 	struct ow_limits limits;
 	struct ow_axes axes;
 	struct ow_numerics numerics;
@@ -106,7 +108,7 @@ struct ow_line {
 };
 
 /* Defaults: no limits set (all NAN), adiabatic root, 25 degC feed, numerics
- * at their proven defaults, 0.01 MPa feed pressure. */
+ * at their proven defaults, 0.01 MPa feed pressure, die factor 1. */
 void ow_line_default(struct ow_line *l);
 
 /* Fill the zone control values a file left out (NAN) with the defaults

@@ -83,7 +83,7 @@ double ow_melt_leak_heat(double vb_m_s, double clearance_m, double visc_Pa_s,
  * viscosity mu (Tadmor & Gogos, Principles of Polymer Processing, 2nd ed.
  * 2006, ch. 10; Rauwendaal, Polymer Extrusion, barrier-flight flow). Per
  * unit land length, plane Couette-Poiseuille flow through the gap (Bird,
- * Stewart & Lightfoot, Transport Phenomena, 2nd ed. 2002, sections 2.2 and
+ * Stewart & Lightfoot, Transport Phenomena, 2nd ed. 2002, ch. 2 and section
  * 10.4):
  *   q = Q / (n L) = V g/2 - g^3 dP / (12 mu e)
  *   => dP = 12 mu e (V g/2 - q) / g^3   (rise across a land; > 0: the

@@ -71,6 +71,15 @@ struct ow_point {
 	double residence_s;           /* mean residence time hopper -> tip */
 	double feed_capacity_kg_s;    /* feed section's Darnell-Mol rate at
 					 no pressure loss (NAN: melt-fed) */
+	/* energy book: power + barrel + root = enthalpy rise + flow work */
+	double root_heat_W;           /* heat screw root -> resin */
+	double enthalpy_rise_W;       /* G (h(T_bulk) - h(T_feed)), solids
+					 leaving at the feed temperature;
+					 h: sensible + latent */
+	double flow_work_W;           /* sum of Q dP along the screw (~ G
+					 (P_tip - P_feed)/rho_melt): the
+					 pressure energy the melt takes to
+					 the die */
 	double energy_residual;       /* (in - out) / drive power, - */
 	double unheated_melt_W;       /* melting heat of the solids a plugged
 					 bed gave up unheated (the book's

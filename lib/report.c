@@ -318,6 +318,7 @@ enum ow_status ow_report_write(const struct ow_study *s,
 		rpt_front_page(&r);
 		rpt_map_pages(&r);
 		rpt_profile_page(&r);
+		rpt_calib_page(&r);
 		rpt_inputs(&r);
 		rpt_basis(&r);
 	}

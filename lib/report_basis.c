@@ -18,6 +18,11 @@ static const char *const methods[] = {
     "Tadmor & Klein (1970), Engineering Principles of Plasticating "
     "Extrusion: the screw as one chain of solids conveying, melting and "
     "melt conveying, and the geometry of the helical channel.",
+    "Kacir & Tadmor (1972), \"Solids conveying in screw extruders. Part "
+    "III: the delay zone\", Polymer Engineering and Science 12, 387: the "
+    "melt film between barrel and plug that must outgrow the flight "
+    "clearance before a melt pool forms; with Carslaw & Jaeger (1959), "
+    "Conduction of Heat in Solids, for the heating of the plug.",
     "Tadmor & Gogos (2006), Principles of Polymer Processing, 2nd ed.: "
     "conveying of shear-thinning melts, leakage over the flights, and "
     "the match of screw and die that sets the throughput.",
@@ -27,11 +32,20 @@ static const char *const methods[] = {
     "Dealy & Wissbrun (1990), Melt Rheology and its Role in Plastics "
     "Processing: the viscosity models of the resin and their shift with "
     "temperature.",
+    "Rauwendaal, Polymer Extrusion, and Tadmor & Gogos (2006): the flow "
+    "of melt over the barrier lands of a fluted mixer, drag across the "
+    "land against the pressure it builds.",
+    "Each barrel zone as a controlled wall: its control point at the "
+    "set-point behind a heat-transfer coefficient to the bore, within the "
+    "zone's heating and cooling power; a zone that needs more floats to "
+    "the temperature at which its power is enough.",
 };
 
 static const char *const left_out[] = {
     "break-up of the solid bed",
-    "the detail of the delay zone between solids conveying and melting",
+    "in the delay zone, the contact resistance of a loose pellet plug at "
+    "the barrel (full contact is assumed, which shortens the zone) and "
+    "melt films on the flights and the screw root",
     "the effect of pressure on viscosity",
     "slip of the melt or the pellets at the walls",
     "melt elasticity (normal stresses, die swell)",
@@ -40,6 +54,8 @@ static const char *const left_out[] = {
     "venting",
     "surging and every transient: start-up, changes of settings, "
     "purging",
+    "heat lost from the barrel to the room, and conduction along the "
+    "barrel between zones",
 };
 
 /* Our own words; each caution is a paragraph with a bold lead. */

@@ -50,6 +50,7 @@ static void banner(struct rpt *r)
 	         "measurements. Read the cautions at the end of this report "
 	         "before setting the line.",
 	         &note, 6.0);
+	rpt_calib_note(r);
 }
 
 /* One labelled cell of the title block: a small label, then the value
@@ -219,7 +220,12 @@ char *rpt_limit_text(struct rpt *r, enum ow_check c, char *buf, size_t n)
 	} else {
 		rpt_qty(r, q, sizeof q, dims[c], v, 4);
 	}
-	snprintf(buf, n, "%s %s %s", ow_check_text(c), at_least ? "≥" : "≤", q);
+	if (c == OW_CK_ZONE_CONTROL) /* the limit is on the zone load */
+		snprintf(buf, n, "zone load ≤ %s of a zone's heating or "
+		         "cooling power", q);
+	else
+		snprintf(buf, n, "%s %s %s", ow_check_text(c),
+		         at_least ? "≥" : "≤", q);
 	return buf;
 }
 

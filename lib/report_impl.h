@@ -171,6 +171,8 @@ void rpt_map_pages(struct rpt *r);    /* report_pages.c */
 void rpt_profile_page(struct rpt *r); /* report_pages.c */
 void rpt_inputs(struct rpt *r);       /* report_inputs.c */
 void rpt_basis(struct rpt *r);        /* report_basis.c */
+void rpt_calib_page(struct rpt *r);   /* report_calib.c */
+void rpt_calib_note(struct rpt *r);   /* report_calib.c: front page line */
 
 /* The window-map options for the report's units and current point. */
 void rpt_map_options(const struct rpt *r, struct ow_maps_options *mo);

@@ -342,28 +342,55 @@ static void resin(struct inputs *in)
 /* ---- the line -------------------------------------------------------------
  */
 
+/* A zone's control value, "unlimited" when not set, "(typical)" when
+ * the file left it to the default. */
+static void zone_value(struct rpt *r, char *buf, size_t n, enum ow_dim dim,
+                       double v, unsigned defaulted)
+{
+	size_t len;
+
+	if (!isfinite(v)) {
+		snprintf(buf, n, "unlimited");
+		return;
+	}
+	rpt_qty(r, buf, n, dim, v, 3);
+	len = strlen(buf);
+	if (defaulted && len < n)
+		snprintf(buf + len, n - len, " (typical)");
+}
+
 static void barrel(struct inputs *in)
 {
-	struct rpt_table t = {2,
-	                      {"Barrel zone", "Set-point in the study"},
-	                      {0.5, 0.5},
-	                      {OW_ALIGN_LEFT, OW_ALIGN_LEFT},
+	struct rpt_table t = {5,
+	                      {"Barrel zone", "Set-point in the study",
+	                       "Heating power", "Cooling power",
+	                       "Control point to bore"},
+	                      {0.24, 0.19, 0.19, 0.19, 0.19},
+	                      {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT,
+	                       OW_ALIGN_LEFT, OW_ALIGN_LEFT},
 	                      RPT_SMALL_PT,
 	                      0};
 	struct rpt *r = in->r;
 	const struct ow_line *l = &r->s->line;
-	char zn[48], v[48];
+	char zn[48], v[48], hp[64], cp[64], hw[64];
 	int z;
 
 	rpt_subheading(r, "Barrel and feed", 60.0);
 	rpt_table_head(r, &t);
 	for (z = 0; z < l->n_zones; z++) {
-		const char *cells[2] = {zn, v};
+		const struct ow_zone *zo = &l->zones[z];
+		const char *cells[5] = {zn, v, hp, cp, hw};
 
 		rpt_zone_name(r, z, zn, sizeof zn);
 		zn[0] = 'Z';
-		rpt_qty(r, v, sizeof v, OW_DIM_TEMPERATURE, l->zones[z].set_K,
-		        4);
+		rpt_qty(r, v, sizeof v, OW_DIM_TEMPERATURE, zo->set_K, 4);
+		zone_value(r, hp, sizeof hp, OW_DIM_POWER, zo->heating_W,
+		           zo->defaulted & OW_ZONE_DEF_HEATING);
+		zone_value(r, cp, sizeof cp, OW_DIM_POWER, zo->cooling_W,
+		           zo->defaulted & OW_ZONE_DEF_COOLING);
+		zone_value(r, hw, sizeof hw, OW_DIM_HEAT_TRANSFER,
+		           zo->wall_h_W_m2K * l->heat_transfer_factor,
+		           zo->defaulted & OW_ZONE_DEF_WALL);
 		rpt_table_row(r, &t, cells, 0);
 	}
 	rpt_table_end(r);

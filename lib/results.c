@@ -5,7 +5,6 @@
 #include "ow_io.h"
 
 #include <cjson/cJSON.h>
-#include <errno.h>
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -196,6 +195,9 @@ static double fig(const struct ow_study *s, const struct ow_point *p, int i)
 	case 18: return p->feed_capacity_kg_s * 3600.0;
 	case 19: return p->plug_ratio;
 	case 20: return p->zone_load;
+	case 21: return p->root_heat_W * 1e-3;
+	case 22: return p->enthalpy_rise_W * 1e-3;
+	case 23: return p->flow_work_W * 1e-3;
 	default: return NAN;
 	}
 }
@@ -206,7 +208,8 @@ static const char *const fig_keys[] = {
 	"unmelt_fraction", "melt_complete_D", "max_sbr", "power_kW",
 	"torque_Nm", "sec_kWh_kg", "barrel_heat_kW", "residence_s",
 	"melt_start_D", "max_pressure_D", "peak_temp_D", "energy_residual",
-	"feed_capacity_kg_h", "plug_ratio", "zone_load",
+	"feed_capacity_kg_h", "plug_ratio", "zone_load", "root_heat_kW",
+	"enthalpy_rise_kW", "flow_work_kW",
 };
 
 int ow_results_n_figures(void)

@@ -23,10 +23,10 @@
  * rpm (a barrier screw down to 0.6), so the march count drops from about
  * 6 to 4 per point against a start at one half. */
 #define G_START 0.95
-#define G_PROBE 1.05
+#define G_PROBE 1.05  /* second trial: a 5 % step gives the first secant */
 /* Named in the notes above this share of the drive power (the residual
  * the energy book is held to is 1 %). */
-#define UNHEATED_NOTE 1e-3  /* second trial: a 5 % step gives the first secant */
+#define UNHEATED_NOTE 1e-3
 
 enum ow_status ow_solver_create(const struct ow_study *s,
 				struct ow_solver **out, struct ow_diag *d)
@@ -101,7 +101,8 @@ static void evaluate(struct ow_solver *sv, double g, struct eval *e, int *n)
 	if (e->st == OW_OK)
 		e->st = ow_die_pressure(&s->line.die, &s->resin, g,
 					e->m.bulk_K, &dp, &sv->diag);
-	e->need = dp + s->line.screen_pressure_Pa;
+	/* die_factor: a calibrated die that needs more or less than ideal */
+	e->need = dp * s->line.die_factor + s->line.screen_pressure_Pa;
 	e->f = e->st == OW_OK ? e->m.tip_Pa - e->need : NAN;
 }
 
@@ -254,6 +255,9 @@ static void figures(const struct ow_solver *sv, const struct eval *e,
 		(ow_material_enthalpy(mt, e->m.bulk_K, tf) -
 		 ow_material_enthalpy(mt, tf, tf)); /* solids leave at tf */
 	in = e->m.power_W + e->m.barrel_W + e->m.root_W;
+	pt->root_heat_W = e->m.root_W;
+	pt->enthalpy_rise_W = g * h_out;
+	pt->flow_work_W = e->m.flow_work_W;
 	pt->energy_residual = (in - g * h_out - e->m.flow_work_W) /
 			      (fabs(e->m.power_W) > 0.0 ? e->m.power_W : 1.0);
 	pt->unheated_melt_W = e->m.unheated_W;
@@ -293,8 +297,11 @@ enum ow_status ow_solver_run(struct ow_solver *sv, double rpm,
 	memset(out, 0, sizeof *out);
 	ow_diag_clear(&sv->diag);
 	sv->rev_s = rpm / 60.0;
-	for (i = 0; i < l->n_zones; i++)
+	for (i = 0; i < l->n_zones; i++) {
 		sv->set_K[i] = set_K ? set_K[i] : l->zones[i].set_K;
+		sv->zone_slope[i] = 0.0; /* learnt afresh: a point depends
+					    on nothing solved before it */
+	}
 	out->rpm = rpm;
 	memcpy(out->set_K, sv->set_K, sizeof out->set_K);
 	sv->record = 1; /* every march records: the last one is kept */

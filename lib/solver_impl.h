@@ -4,6 +4,7 @@
 #ifndef OW_SOLVER_IMPL_H
 #define OW_SOLVER_IMPL_H
 
+#include "ow_delay.h"
 #include "ow_melt.h"
 #include "ow_melting.h"
 #include "ow_solids.h"
@@ -45,6 +46,10 @@ struct ow_solver {
 					 (the set-points unless a zone
 					 floats) */
 	struct ow_melt_ws *melt_save; /* melt state at a zone's start */
+	double zone_slope[OW_MAX_ZONES]; /* last d(zone heat)/d(control
+					    temperature), W/K, in this run:
+					    the first step of the next
+					    float */
 	int n_steps;                  /* axial steps hopper -> tip */
 	double dx_m;                  /* axial step */
 	struct ow_profile_row *rows;  /* n_steps + 1 rows */

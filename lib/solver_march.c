@@ -39,7 +39,8 @@ struct ctx {
 	double pool_peak_K;
 	double film_peak_K;
 	double shear;      /* max shear rate at this station */
-	double melt_from;  /* melting may start from here (axial, m) */
+	struct ow_delay delay; /* the plug heating up ahead of melting */
+	int delay_done;    /* the film reached the clearance: melting next */
 	int zone;          /* the zone whose steps are being marched */
 	double film_m, film_mu, film_vj2; /* last melt film: thickness,
 					     viscosity, slip speed^2 */
@@ -75,10 +76,14 @@ static void book_barrel(struct ctx *c, double x, double w)
 
 /* A pressure below zero cannot exist in melt: the channel cannot run full
  * there (starved or partly filled), so the full-channel model no longer
- * holds and the point is flagged. */
+ * holds and the point is flagged, once the bed is gone. Beside a solid bed
+ * a melt pool that needs such a pressure runs partly filled while the bed
+ * carries the load (the plug's own pressure is not modelled): the normal
+ * start of melting, most of all where it begins in a taper, not a starved
+ * channel. */
 static void note_pressure(struct ctx *c, double x)
 {
-	if (c->P < 0.0)
+	if (c->P < 0.0 && c->ph == PH_MELT)
 		c->m->flags |= OW_FLAG_PARTIAL_FILL;
 	if (c->P > c->m->max_Pa) {
 		c->m->max_Pa = c->P;
@@ -116,6 +121,41 @@ static void melt_cond(const struct ctx *c, double x, double depth,
 	mc->leak_flight_len_per_z = 1.0;
 }
 
+/* The plug's delay zone over one step of dz (ow_delay.h): the plug slides
+ * at V_sz = G / (rho_s H W), so the step is dz / V_sz of contact under the
+ * zone's wall (control temperature and coefficient to the bore). Heat
+ * into the plug and its film per unit contact area becomes heat flows over
+ * the step's contact area W dz. *done gets the share of the step after
+ * which the film reached the clearance (-1: not yet). */
+static enum ow_status step_delay(struct ctx *c, double x, double dz,
+				 double *done)
+{
+	double h = ow_screw_depth(c->sc, x);
+	double v = ow_melting_bed_speed(c->mat, c->g, h, c->width);
+	double slip = sqrt(c->vb * c->vb + v * v -
+			   2.0 * c->vb * v * cos(c->phi));
+	double rate = v * c->width * c->p, dt = v > 0.0 ? dz / v : 0.0;
+	struct ow_delay_out o;
+	enum ow_status st;
+
+	*done = -1.0;
+	if (!(dt > 0.0))
+		return ow_diag_set(&c->sv->diag, OW_ECOMPUTE, "delay zone at "
+				   "%.3f m: no plug speed", x);
+	st = ow_delay_advance(&c->delay, ow_solver_barrel(c->sv, x),
+			      wall_h(c, x), slip,
+			      ow_screw_clearance(c->sc, x), dt, &o,
+			      &c->sv->diag);
+	if (st != OW_OK)
+		return st;
+	c->m->power_W += o.dissip_J_m2 * rate;
+	book_barrel(c, x, (o.heat_J_m2 - o.dissip_J_m2) * rate);
+	c->film_peak_K = o.peak_K;
+	if (o.done_s >= 0.0)
+		*done = o.done_s / dt;
+	return OW_OK;
+}
+
 /* Solids conveying over one step (Darnell & Mol 1956): the plug must carry
  * the demanded rate G, which needs G below the section's zero-gradient
  * capacity (feed_limited otherwise). Its constant-friction exponential
@@ -124,15 +164,27 @@ static void melt_cond(const struct ctx *c, double x, double depth,
  * controlled: the plug passes G at the feed pressure and the melt sections
  * build the pressure (the usual case for smooth-barrel screws, Tadmor &
  * Gogos 2006 ch. 9). The barrel friction work is drive power that heats
- * the barrel wall, since the plug's temperature is not tracked. */
-static enum ow_status step_solids(struct ctx *c, double x, double dz)
+ * the barrel wall (held at its temperature). The plug heats up meanwhile
+ * (step_delay); *now is set when the delay zone ended at the step's start,
+ * so that melting takes this step. */
+static enum ow_status step_solids(struct ctx *c, double x, double dz,
+				  int *now)
 {
 	struct ow_solids_in in = {c->sc, ow_screw_depth(c->sc, x),
 				  c->sv->rev_s, c->mat};
 	struct ow_solids so;
 	struct ow_solids_out o;
-	double w;
-	enum ow_status st = ow_solids_prepare(&in, &so, &c->sv->diag);
+	double w, done;
+	enum ow_status st = step_delay(c, x, dz, &done);
+
+	*now = done == 0.0;
+	if (done >= 0.0) {
+		c->delay_done = 1;
+		c->m->melt_start_m = x + done * dz * c->sinphi;
+	}
+	if (st != OW_OK || *now)
+		return st;
+	st = ow_solids_prepare(&in, &so, &c->sv->diag);
 
 	if (st == OW_OK)
 		st = ow_solids_eval(&so, c->g, &o, &c->sv->diag);
@@ -192,18 +244,24 @@ static enum ow_status check_feed(struct ctx *c)
 	return st;
 }
 
+/* Tadmor melting takes over from the delay zone: the film melt is the
+ * first pool, and the bed enters with the heat the plug took up (its mean
+ * temperature as the bed's T_s, which keeps the energy book exact). */
 static void start_melting(struct ctx *c, double x)
 {
 	struct split sp;
+	double f, bed_K, melt_K;
 
 	channel_split(c, x, &sp);
+	ow_delay_bed(&c->delay, sp.bed_h, &f, &bed_K, &melt_K);
 	c->ph = PH_MELTING;
-	c->X = sp.bed_w;
+	c->X = sp.bed_w * (1.0 - f);
 	c->vsz = ow_melting_bed_speed(c->mat, c->g, sp.bed_h, sp.bed_w);
-	c->solid_flow = c->g;
-	c->pool_K = c->mat->melt_temp_K;
+	c->solid_flow = c->g * (1.0 - f);
+	c->melt_in.solid_temp_K = bed_K;
+	c->pool_K = melt_K;
 	ow_melt_reset(c->sv->melt, c->pool_K);
-	c->m->melt_start_m = x;
+	c->film_peak_K = NAN;
 }
 
 /* In a barrier section the bed fills the (narrowing) solids channel: a
@@ -400,8 +458,8 @@ static void book_unheated(struct ctx *c, const struct ow_melting_step_out *o)
 {
 	const struct ow_material *mt = c->mat;
 	double heat = mt->solid_cp_J_kgK *
-			      (mt->melt_temp_K - c->ln->feed_temp_K) +
-		      mt->fusion_J_kg;
+			      (mt->melt_temp_K - c->melt_in.solid_temp_K) +
+		      mt->fusion_J_kg; /* the bed enters at its T_s */
 	double free_kg_s = o->melted_kg_s - o->bed_heat_W / heat;
 
 	if (free_kg_s > 0.0)
@@ -612,6 +670,8 @@ static void after_step(struct ctx *c, double x, double dx)
 
 	if (c->ph == PH_SOLIDS) {
 		rho = c->mat->bulk_density_kg_m3;
+		if (isfinite(c->film_peak_K)) /* the delay zone's film */
+			note_peak(c, c->film_peak_K, x);
 	} else {
 		double f = c->solid_flow / c->g;
 		double t = ow_melt_peak(c->sv->melt);
@@ -633,11 +693,16 @@ static enum ow_status one_step(struct ctx *c, double x, double dx)
 	double dz = dx / c->sinphi;
 
 	c->shear = 0.0;
-	if (c->ph == PH_SOLIDS && x >= c->melt_from - 1e-9 &&
-	    ow_solver_barrel(c->sv, x) > c->mat->melt_temp_K)
+	if (c->ph == PH_SOLIDS && c->delay_done)
 		start_melting(c, x);
-	if (c->ph == PH_SOLIDS)
-		return step_solids(c, x, dz);
+	if (c->ph == PH_SOLIDS) {
+		int now;
+		enum ow_status st = step_solids(c, x, dz, &now);
+
+		if (st != OW_OK || !now)
+			return st;
+		start_melting(c, x);
+	}
 	if (sec->type == OW_SEC_MIXER && c->ph == PH_MELT)
 		return step_mixer(c, sec, x, dx, dz);
 	if (c->ph == PH_MELTING)
@@ -673,9 +738,6 @@ static void init_ctx(struct ctx *c, struct ow_solver *sv, double g,
 	c->melt_in.visc_log = &c->vlog;
 	c->P = c->ln->numerics.feed_pressure_Pa;
 	c->film_peak_K = NAN;
-	/* Melting starts where the barrel is above the melting point; the
-	 * delay zone is taken as zero (Tadmor & Klein 1970, ch. 9). */
-	c->melt_from = 0.0;
 	memset(m, 0, sizeof *m);
 	m->melt_start_m = m->melt_done_m = m->plug_at_m = NAN;
 	m->max_sbr_at_m = NAN;
@@ -692,6 +754,7 @@ static void init_ctx(struct ctx *c, struct ow_solver *sv, double g,
 		c->ph = PH_SOLIDS;
 		c->solid_flow = c->g;
 		ow_melt_reset(sv->melt, c->mat->melt_temp_K);
+		ow_delay_start(&c->delay, c->mat, c->ln->feed_temp_K);
 	}
 }
 
@@ -776,7 +839,11 @@ static enum ow_status run_zone(struct ctx *c, int z, int from, int to)
 	target = zone_target(zn, q0);
 	if (st != OW_OK || target == q0 || !isfinite(target))
 		goto done;
-	t1 = t0 + (target > q0 ? 10.0 : -10.0);
+	if (sv->zone_slope[z] > 0.0) /* a neighbouring march's slope */
+		t1 = t0 + fmin(fmax((target - q0) / sv->zone_slope[z],
+				    -ZONE_STEP_K), ZONE_STEP_K);
+	else
+		t1 = t0 + (target > q0 ? 10.0 : -10.0);
 	for (it = 0; it < ZONE_MAXIT; it++) {
 		double t2;
 
@@ -788,8 +855,17 @@ static enum ow_status run_zone(struct ctx *c, int z, int from, int to)
 		if (st != OW_OK || fabs(q1 - target) <=
 		    fmax(ZONE_TOL_W, ZONE_RTOL * fabs(target)))
 			break;
-		if (fabs(q1 - q0) < 1e-9 * (fabs(q0) + 1.0))
-			break; /* the zone's heat does not follow its wall */
+		if (fabs(q1 - q0) < 1e-9 * (fabs(q0) + 1.0)) {
+			/* the zone's heat does not follow its wall (friction
+			 * on the solid plug only): no temperature it can
+			 * hold; report it at its set-point, flagged */
+			restore(c, &s0);
+			c->zone = z;
+			sv->ctrl_K[z] = sv->set_K[z];
+			st = march_steps(c, from, to);
+			break;
+		}
+		sv->zone_slope[z] = (q1 - q0) / (t1 - t0);
 		t2 = t1 - (q1 - target) * (t1 - t0) / (q1 - q0);
 		t2 = fmin(fmax(t2, t1 - ZONE_STEP_K), t1 + ZONE_STEP_K);
 		t0 = t1;

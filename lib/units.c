@@ -31,6 +31,8 @@
 #include <string.h>
 #include <udunits2.h>
 
+#include "ow_io.h"
+
 #define TEXT_MAX 256   /* longest accepted input text, bytes */
 #define UNIT_BUF 1024  /* a unit after alias rewriting */
 #define PROBLEM_LEN 256
@@ -536,6 +538,12 @@ static enum ow_status udunits_to_si(const struct ow_units *u,
 
 	if (stray_number(unit))
 		return reject(r, "a number inside the unit \"%s\"", unit);
+	/* Signs no unit of ours uses (UDUNITS-2 offsets and timestamps with
+	 * "@", stray punctuation) and bytes that are not UTF-8 never reach
+	 * UDUNITS-2, whose lexer keeps memory on some malformed texts. */
+	if (strpbrk(unit, "!\"#$&',:;<=>?@[\\]`{|}~") ||
+	    ow_io_utf8_check(unit, strlen(unit)) != strlen(unit))
+		return reject(r, "unknown unit \"%s\"", unit);
 	if (!rewrite_unit(unit, dim, buf, sizeof buf))
 		return reject(r, "unit too long");
 	from = ut_parse(u->sys, buf, UT_UTF8); /* test the pointer: the

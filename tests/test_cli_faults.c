@@ -133,6 +133,7 @@ static void output_folders_that_cannot_be_written_are_refused_first(void **s)
 	expect(4, "map " FAST " -o " TOP "/fifo --quiet", "not a folder");
 	expect(4, "map " FAST " -o " TOP "/link --quiet", "symbolic link");
 	expect(4, "map " FAST " -o " TOP "/notes --quiet", "not a map folder");
+	expect(4, "map " FAST " -o . --quiet", "name the folder itself");
 	assert_false(exists(TOP "/file/out"));
 	holds(TOP "/notes/mine.txt", "keep");
 	assert_int_equal(temporaries(), 0);
@@ -348,7 +349,7 @@ static void two_runs_into_one_folder_leave_one_whole_run(void **s)
 static void report_refuses_a_folder_changed_since_written(void **s)
 {
 	(void)s;
-	map_into(TOP "/chg", 3);
+	map_into(TOP "/chg/", 3); /* a trailing slash as typed */
 	sh("printf keep > %s/chg/mine.txt", TOP);
 	whole(TOP "/chg"); /* a file of the user's own does not matter */
 	map_into(TOP "/chg", 3);

@@ -297,10 +297,66 @@ static void unwritable_output_exits_four(void **state)
 	cli_result_free(&r);
 }
 
+/* A reader closes the energy balance from the printed figures alone:
+ * drive power + barrel heat + root heat = throughput x enthalpy rise +
+ * flow work, to 0.1 % of the drive power (first law for the open system
+ * hopper -> tip, Tadmor & Gogos 2006 ch. 9). The enthalpy rise is the
+ * reader's own: G [c_s (T_m - T_feed) + lambda + c_m (T - T_m)] with the
+ * demo resin's data (2.3 and 2.7 kJ/(kg K), 130 degC, 200 kJ/kg, feed at
+ * 25 degC); the zones' heats add up to the barrel's. On the melt-fed
+ * Newtonian line the flow work is Q (P_tip - P_feed) exactly
+ * (incompressible melt). */
+static void energy_balance_closes_from_the_printed_figures(void **state)
+{
+	double rpm[] = {30.0, 80.0, 120.0};
+	size_t i;
+	(void)state;
+	for (i = 0; i < 3; i++) {
+		char args[128];
+		cJSON *j, *zones, *z;
+		double g, t, h, in, out, sum = 0.0;
+
+		snprintf(args, sizeof args,
+			 "point demo/study-si.json --rpm %g --set 10 --json",
+			 rpm[i]);
+		j = cli_run_json(args);
+		assert_abs(cli_json_num(j, "unmelt_fraction"), 0.0, 0.0);
+		g = cli_json_num(j, "output_kg_h") / 3600.0;
+		t = cli_json_num(j, "discharge_bulk_temp_C");
+		h = 2300.0 * (130.0 - 25.0) + 200e3 + 2700.0 * (t - 130.0);
+		assert_rel(cli_json_num(j, "enthalpy_rise_kW"), g * h * 1e-3,
+			   1e-9);
+		in = cli_json_num(j, "power_kW") +
+		     cli_json_num(j, "barrel_heat_kW") +
+		     cli_json_num(j, "root_heat_kW");
+		out = g * h * 1e-3 + cli_json_num(j, "flow_work_kW");
+		assert_abs(in - out, 0.0, 1e-3 * cli_json_num(j, "power_kW"));
+		zones = cJSON_GetObjectItem(j, "zones");
+		cJSON_ArrayForEach(z, zones)
+			sum += cli_json_num(z, "heat_kW");
+		assert_rel(sum, cli_json_num(j, "barrel_heat_kW"), 1e-9);
+		cJSON_Delete(j);
+	}
+	{
+		cJSON *j = cli_run_json("point tests/data/newtonian-rod.json "
+					"--rpm 60 --json");
+
+		assert_rel(cli_json_num(j, "flow_work_kW") * 1e3,
+			   cli_json_num(j, "output_kg_h") / 3600.0 / 760.0 *
+				   (cli_json_num(j, "discharge_pressure_MPa") *
+					    1e6 -
+				    1.0),
+			   1e-6);
+		cJSON_Delete(j);
+	}
+}
+
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(point_json_and_profile_follow_the_contract),
+		cmocka_unit_test(
+			energy_balance_closes_from_the_printed_figures),
 		cmocka_unit_test(point_set_reads_units),
 		cmocka_unit_test(point_note_speaks_the_chosen_units),
 		cmocka_unit_test(window_corners_and_centre_are_safe),

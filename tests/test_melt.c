@@ -804,6 +804,41 @@ static void failures_return_a_status(void **state)
 
 /* ---- fluted mixer and barrel wall -------------------------------------- */
 
+/* Plane Couette-Poiseuille flow across a 1 mm gap under a wall at V with
+ * pressure gradient G = dP/e (mu = 500 Pa s): u(y) = V y/g - G y (g - y)
+ * /(2 mu) (Bird, Stewart & Lightfoot 2002, ch. 2, parallel plates, one
+ * moving); its flow rate and dissipation mu u'^2 integrated by GSL QAGS. */
+struct land_gap {
+	double V, G, g, mu;
+	int heat;
+};
+
+static double land_integrand(double y, void *p)
+{
+	const struct land_gap *l = p;
+	double du = l->V / l->g - l->G * (l->g - 2.0 * y) / (2.0 * l->mu);
+
+	if (l->heat)
+		return l->mu * du * du;
+	return l->V * y / l->g - l->G * y * (l->g - y) / (2.0 * l->mu);
+}
+
+static void land_agrees_with_gsl_over_the_gap(const struct ow_mixer_land *o,
+					      double Q, double nL, double V)
+{
+	gsl_integration_workspace *w = gsl_integration_workspace_alloc(100);
+	struct land_gap l = {V, o->dp_Pa / 6.35e-3, 1e-3, 500.0, 0};
+	gsl_function f = {land_integrand, &l};
+	double q, heat, err;
+
+	gsl_integration_qags(&f, 0.0, 1e-3, 0.0, 1e-12, 100, w, &q, &err);
+	l.heat = 1;
+	gsl_integration_qags(&f, 0.0, 1e-3, 0.0, 1e-12, 100, w, &heat, &err);
+	gsl_integration_workspace_free(w);
+	assert_rel(q * nL, Q, 1e-9);
+	assert_rel(heat * 6.35e-3 * nL, o->heat_W, 1e-9);
+}
+
 /* Barrier-land flow of a fluted mixer, 8 lands of 0.127 m, gap 1 mm, land
  * 6.35 mm, barrel at 0.26599 m/s (80 rpm on 63.5 mm), mu = 500 Pa s
  * (inputs chosen for the check). Per unit land length the gap is plane
@@ -825,7 +860,8 @@ static void mixer_land_follows_couette_poiseuille_land_flow(void **state)
 	assert_rel(o.power_W, o.heat_W, 1e-12);
 	assert_rel(o.shear_1_s, V / 1e-3, 1e-12);
 	/* barrel at rest: plane slit flow Q = nL g^3 dP/(12 mu e) backward
-	 * (BSL section 2.2), all of the pressure work dissipated */
+	 * (BSL ch. 2, flow between parallel plates), all of the pressure
+	 * work dissipated */
 	ow_melt_mixer_land(2e-5, 8.0, 0.127, 1e-3, 6.35e-3, 0.0, 500.0, &o);
 	assert_rel(o.dp_Pa, -7.5e5, 1e-12);
 	assert_rel(o.heat_W, 15.0, 1e-12);
@@ -835,6 +871,7 @@ static void mixer_land_follows_couette_poiseuille_land_flow(void **state)
 	assert_rel(o.dp_Pa, 4.242074791e6, 1e-9);
 	assert_rel(o.heat_W, 708.09637808, 1e-9);
 	assert_rel(o.power_W, 801.42202348, 1e-9);
+	land_agrees_with_gsl_over_the_gap(&o, 2.2e-5, nL, V);
 	ow_melt_mixer_land(2.2e-5, 8.0, 0.127, 0.0, 6.35e-3, V, 500.0, &o);
 	assert_true(isnan(o.dp_Pa) && isnan(o.heat_W));
 }
@@ -902,6 +939,105 @@ static void mixer_step_keeps_the_energy_book_with_the_barrel(void **state)
 	ow_melt_destroy(cp);
 }
 
+/* ---- viscous heating with cross-channel circulation ------------------- */
+
+/* Kinematics of a pure-drag Newtonian channel with circulation:
+ * u_z = V_bz xi, u_x = V_bx xi (3 xi - 2) (Tadmor & Klein 1970, ch. 7). */
+struct circ_case {
+	double mu, k, H, vbz, vbx;
+};
+
+/* Partner level on the same cross-channel streamline, xi^2 (1 - xi) =
+ * xi_c^2 (1 - xi_c) (Mohr, Saxton & Jepson 1957, as reduced in the check
+ * of the band pairing above). */
+static double partner_of(double xi)
+{
+	return 0.5 * ((1.0 - xi) + sqrt((1.0 - xi) * (1.0 + 3.0 * xi)));
+}
+
+/* Dissipation mu (u_z'^2 + u_x'^2) integrated over [a, b] in xi, times H:
+ * heat per unit wall area, W/m^2. */
+static double circ_heat(const struct circ_case *c, double a, double b)
+{
+	double m = c->mu / (c->H * c->H), vx2 = c->vbx * c->vbx;
+	double fa = c->vbz * c->vbz * a + vx2 * pow(6.0 * a - 2.0, 3) / 18.0;
+	double fb = c->vbz * c->vbz * b + vx2 * pow(6.0 * b - 2.0, 3) / 18.0;
+
+	return c->H * m * (fb - fa);
+}
+
+/* d(T_centre - T_w)/d xi_u: the heat made inside the streamline through
+ * xi_u leaves by conduction across both of its legs, in the ratio of the
+ * stream-function slopes |u_x| there. */
+static double circ_integrand(double xu, void *p)
+{
+	const struct circ_case *c = p;
+	double xc = partner_of(xu);
+	double au = fabs(xu * (3.0 * xu - 2.0)), ac = fabs(xc * (3.0 * xc - 2.0));
+
+	if (!(au + ac > 0.0))
+		return 0.0;
+	return circ_heat(c, xc, xu) * c->H / c->k * au / (au + ac);
+}
+
+/* Viscous heating in a circulating channel between walls at one
+ * temperature, against the limit the bands stand for: when circulation is
+ * fast against conduction (cross-channel Peclet number V_bx H/alpha of
+ * order 1e3 here) the temperature is uniform on each closed streamline,
+ * and a heat balance on the fluid inside the streamline through xi_u gives
+ *   T_c - T_w = int_{2/3}^{1} Q(xi_u) (H/k) |u_x(xi_u)| /
+ *               (|u_x(xi_u)| + |u_x(xi_c)|) d xi_u,
+ *   Q = H int_{xi_c}^{xi_u} mu (u_z'^2 + u_x'^2) d xi
+ * (Bird, Stewart & Lightfoot 2002, section 10.4 energy balance, on the
+ * streamlines of Mohr, Saxton & Jepson 1957; integrated with GSL QAGS).
+ * With mu = 1000 Pa s, k = 0.2 W/(m K), H = 3.175 mm and the barrel of a
+ * 63.5 mm square-pitch screw at 40 and 100 rpm the limit is 0.9151 of the
+ * plane Couette rise mu V_b^2/(8k): circulation adds the cross-channel
+ * dissipation 3 mu V_bx^2/H but carries heat across the depth, so the
+ * centre runs cooler than in plane Couette flow. The default resolution
+ * (21 nodes, 10 bands) must be within 1 % of the limit; without
+ * circulation it reproduces mu V^2/(8k) itself to 1 %. */
+static void circulating_couette_peak_matches_the_streamline_limit(void **st)
+{
+	struct ow_material m = power_law(1000.0, 1.0);
+	gsl_integration_workspace *w = gsl_integration_workspace_alloc(1000);
+	double rpm[] = {40.0, 100.0}, phi = ex_phi();
+
+	(void)st;
+	for (int i = 0; i < 2; i++) {
+		double vb = PI * EX_D * rpm[i] / 60.0, ref, err, bsl;
+		struct circ_case cc = {1000.0, 0.2, EX_H, vb * cos(phi),
+				       vb * sin(phi)};
+		gsl_function f = {circ_integrand, &cc};
+		struct ow_melt_cond c = couette(&m);
+		struct ow_melt_ws *ws = workspace(21, 10, T200);
+		struct ow_melt_out o;
+
+		gsl_integration_qags(&f, 2.0 / 3.0, 1.0, 1e-12, 1e-10, 1000, w,
+				     &ref, &err);
+		bsl = 1000.0 * vb * vb / (8.0 * 0.2);
+		assert_rel(ref / bsl, 0.91515, 1e-4);
+		c.depth_m = EX_H;
+		c.vbz_m_s = cc.vbz;
+		c.vbx_m_s = cc.vbx;
+		c.vb_m_s = vb;
+		c.vol_flow_m3_s = cc.vbz * c.width_m * EX_H / 2.0;
+		c.root_adiabatic = 0;
+		o = march_to_steady(ws, &c);
+		assert_true(o.circulating);
+		assert_rel(o.peak_K - T200, ref, 0.01);
+		c.vbz_m_s = vb; /* the same barrel without circulation */
+		c.vbx_m_s = 0.0;
+		c.vol_flow_m3_s = vb * c.width_m * EX_H / 2.0;
+		ow_melt_reset(ws, T200);
+		o = march_to_steady(ws, &c);
+		assert_false(o.circulating);
+		assert_rel(o.peak_K - T200, bsl, 0.01);
+		ow_melt_destroy(ws);
+	}
+	gsl_integration_workspace_free(w);
+}
+
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
@@ -938,6 +1074,8 @@ int main(void)
 			finite_wall_adds_its_resistance_to_the_couette_rise),
 		cmocka_unit_test(
 			mixer_step_keeps_the_energy_book_with_the_barrel),
+		cmocka_unit_test(
+			circulating_couette_peak_matches_the_streamline_limit),
 	};
 
 	return cmocka_run_group_tests(tests, NULL, NULL);

@@ -222,6 +222,41 @@ static void consistency_takes_a_pressure_times_seconds_to_the_n(void **state)
 	rejected("20 kg s^n", OW_DIM_CONSISTENCY, "measures something else");
 }
 
+/* The power written in the unit, for checking it against the index. */
+static void consistency_power_is_read_from_the_unit(void **state)
+{
+	double n = -1.0;
+
+	(void)state;
+	assert_int_equal(ow_units_consistency_power("20000 Pa s^0.41", &n), 1);
+	assert_rel(n, 0.41, 1e-15);
+	assert_int_equal(ow_units_consistency_power("20 kPa*s**(0.35)", &n),
+			 1);
+	assert_rel(n, 0.35, 1e-15);
+	assert_int_equal(ow_units_consistency_power("8000 Pa s", &n), 1);
+	assert_rel(n, 1.0, 1e-15); /* tau = K gdot: the first power */
+	assert_int_equal(ow_units_consistency_power("20 kPa s^n", &n), 0);
+	assert_int_equal(ow_units_consistency_power("20000 Pa·sⁿ", &n), 0);
+}
+
+/* A text filling the whole 256-byte buffer: every check stays inside it
+ * (an ASan build reads past the end otherwise), and punctuation no unit
+ * uses never reaches UDUNITS-2. */
+static void a_text_as_long_as_the_buffer_is_read_within_it(void **state)
+{
+	char text[256];
+
+	(void)state;
+	memset(text, 'P', sizeof text - 1);
+	memcpy(text, "8000 ", 5);
+	text[sizeof text - 1] = '\0';
+	rejected(text, OW_DIM_CONSISTENCY, "unknown unit");
+	rejected(text, OW_DIM_LENGTH, "unknown unit");
+	rejected("5 m @ x", OW_DIM_LENGTH, "unknown unit");
+	rejected("5 mm!", OW_DIM_LENGTH, "unknown unit");
+	rejected("5 m\xff", OW_DIM_LENGTH, "unknown unit");
+}
+
 static void inputs_without_a_unit_or_number_are_refused(void **state)
 {
 	(void)state;
@@ -469,6 +504,8 @@ int main(void)
 		cmocka_unit_test(kilowatt_hours_are_energies),
 		cmocka_unit_test(percent_is_a_fraction),
 		cmocka_unit_test(consistency_takes_a_pressure_times_seconds_to_the_n),
+		cmocka_unit_test(consistency_power_is_read_from_the_unit),
+		cmocka_unit_test(a_text_as_long_as_the_buffer_is_read_within_it),
 		cmocka_unit_test(inputs_without_a_unit_or_number_are_refused),
 		cmocka_unit_test(units_of_the_wrong_kind_say_what_was_expected),
 		cmocka_unit_test(non_finite_numbers_are_refused),

@@ -1,7 +1,8 @@
 /* bench.c - speed and memory figures for `make bench` (not a test: it
  * prints, it does not judge). Median time of a cold operating-point solve
  * on the demo at default resolution; points per second of the demo map
- * with 1 and 2 threads; peak memory. */
+ * with 1 and 2 threads; calibration time for the demo's 6 readings and 2
+ * free factors; peak memory. */
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -69,9 +70,40 @@ static double bench_map(const struct ow_study *s, int jobs, int steps)
 	return dt;
 }
 
+/* The demo calibration: 6 readings, viscosity_scale and die_factor. */
+static void bench_calib(const struct ow_units *u, const struct ow_study *s,
+			const char *readings)
+{
+	struct ow_calib_result *r = malloc(sizeof *r);
+	struct ow_readings *rd = NULL;
+	struct ow_calib_options o;
+	struct ow_diag d = {{0}};
+	double t0;
+
+	if (!r || ow_calib_readings_read(u, readings, s->line.n_zones, &rd,
+					 &d) != OW_OK) {
+		fprintf(stderr, "bench: %s\n", d.msg);
+		free(r);
+		return;
+	}
+	ow_calib_options_from(&s->calib, &o);
+	o.free_mask = (1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE);
+	t0 = now();
+	if (ow_calib_run(s, rd, &o, r, &d) == OW_OK)
+		printf("calibration, %zu readings and 2 factors: %.2f s, %d "
+		       "iterations, %d point solves (target: seconds)\n",
+		       rd->n, now() - t0, r->iterations, r->solves);
+	else
+		fprintf(stderr, "bench: %s\n", d.msg);
+	free(rd);
+	free(r);
+}
+
 int main(int argc, char **argv)
 {
 	const char *path = argc > 1 ? argv[1] : "demo/study-si.json";
+	const char *readings = argc > 2 ? argv[2]
+					: "demo/line/line3-readings.csv";
 	struct ow_units *u = NULL;
 	struct ow_study *s = calloc(1, sizeof *s);
 	struct ow_diag d = {{0}};
@@ -90,6 +122,7 @@ int main(int argc, char **argv)
 		printf("speed-up 1 -> 2 threads: %.2fx (target: >= 1.8x); "
 		       "41x41 on 2 threads: %.1f s (target: <= 10 s)\n",
 		       t1 / t2, t2);
+	bench_calib(u, s, readings);
 	getrusage(RUSAGE_SELF, &ru);
 	printf("peak memory: %.1f MB\n", ru.ru_maxrss / 1024.0);
 	free(s);

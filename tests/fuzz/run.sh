@@ -19,6 +19,7 @@ cp -r tests/bad/parts "$work/study/parts"
 cp tests/data/parts/* "$work/study/parts/" 2>/dev/null || true
 cp demo/*.json "$work/study/"
 cp -r fixtures/screws fixtures/resins "$work/"
+mkdir -p "$work/bad" && cp -r tests/bad/parts "$work/bad/"
 # units: every quantity written in those files
 n=0
 grep -ohE '"[-+]?[0-9][^"]{0,80}"' fixtures/*/*.json tests/bad/*.json \
