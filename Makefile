@@ -8,7 +8,7 @@ SANFLAGS ?=
 # -Werror under CI (CI=true is set by the CI runner).
 WERROR   ?= $(if $(CI),-Werror,)
 
-PKGS     := udunits libcjson cairo cairo-ft freetype2 gsl
+PKGS     := udunits libcjson cairo cairo-ft freetype2 gsl zlib
 WARN     := -Wall -Wextra -Wshadow -Wconversion -Wstrict-prototypes \
             -Wmissing-prototypes -Wno-sign-conversion
 CPPFLAGS += -Ilib -Itests/support -D_POSIX_C_SOURCE=200809L -D_DEFAULT_SOURCE
@@ -31,7 +31,7 @@ OPWIN    := $(BUILD)/opwin
 
 # Debian packages (verified on a fresh Debian 12).
 APT_PKGS := build-essential pkg-config libcjson-dev libudunits2-dev \
-            libcairo2-dev libhpdf-dev libcmocka-dev libgsl-dev \
+            libcairo2-dev libhpdf-dev libcmocka-dev libgsl-dev zlib1g-dev \
             fonts-dejavu-core poppler-utils valgrind
 FONT     := /usr/share/fonts/truetype/dejavu/DejaVuSans.ttf
 
@@ -87,7 +87,7 @@ demo: deps
 	@sh demo/run.sh $(OPWIN)
 
 bench: all $(BUILD)/bench
-	@$(BUILD)/bench demo/study-si.json demo/line/line3-readings.csv
+	@$(BUILD)/bench demo/study-si.json demo/line/line3-readings.csv $(OPWIN)
 
 $(BUILD)/bench: $(BUILD)/tests/bench/bench.o $(LIBA)
 	$(CC) $(LDFLAGS) -o $@ $< $(LIBA) $(LDLIBS)

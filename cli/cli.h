@@ -69,8 +69,10 @@ void cli_version(void);
 int cli_common_option(const char *cmd, struct cli_common *c, int id,
 		      const char *arg);
 
-/* Load units and a study; on failure print and return the exit code (the
- * caller then returns it). On success *u and *study are owned by the caller:
+/* Load a study, with the units in *u (NULL: created here, so that a
+ * command with two studies reads the unit database once); on failure print
+ * and return the exit code (the caller then returns it; units created
+ * here are gone again). On success *u and *study are owned by the caller:
  * ow_units_destroy(*u), free(*study). */
 int cli_load_study(const char *cmd, const char *path, struct ow_units **u,
 		   struct ow_study **study);
@@ -127,6 +129,7 @@ struct cli_render {
 	struct ow_report_options rep;
 	const char *current; /* "--current RPM,SET" as typed */
 	char today[16];
+	int jobs;            /* threads drawing (--jobs; 0: all cores) */
 };
 
 #define CLI_RENDER_LONGOPTS                                      \
@@ -163,7 +166,8 @@ int cli_render_option(const char *cmd, struct cli_render *r, int id,
 int cli_render_current(const char *cmd, const struct ow_units *u,
 		       struct cli_render *r, enum ow_unit_system sys);
 
-/* Draw the maps and report.pdf of study s, grid g, window w into dir. */
+/* Draw the maps and report.pdf of study s, grid g, window w into dir,
+ * r->jobs files at once. */
 int cli_render(const char *cmd, const struct ow_study *s,
 	       const struct ow_grid *g, const struct ow_window *w,
 	       const struct cli_render *r, const char *dir);

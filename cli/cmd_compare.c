@@ -407,7 +407,7 @@ int cmd_compare(int argc, char **argv)
 {
 	struct cmp_opts o = {
 	    {OW_SYS_SI, 0, 0}, "opwin-compare", {"A", "B"}, NULL, 0, 0, 0};
-	struct ow_units *u[2] = {NULL, NULL};
+	struct ow_units *u = NULL; /* one unit database for both */
 	struct ow_study *s[2] = {NULL, NULL};
 	char date[16];
 	int rc = parse(argc, argv, &o), k;
@@ -420,12 +420,11 @@ int cmd_compare(int argc, char **argv)
 	}
 	rc = CLI_OK;
 	for (k = 0; k < 2 && !rc; k++)
-		rc = cli_load_study("compare", argv[optind + k], &u[k], &s[k]);
+		rc = cli_load_study("compare", argv[optind + k], &u, &s[k]);
 	if (!rc)
 		rc = run(s[0], s[1], &o);
-	for (k = 0; k < 2; k++) {
+	for (k = 0; k < 2; k++)
 		free(s[k]);
-		ow_units_destroy(u[k]);
-	}
+	ow_units_destroy(u);
 	return rc;
 }

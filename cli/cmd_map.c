@@ -159,6 +159,7 @@ static int write_outputs(const struct ow_study *s, const struct ow_grid *g,
 	o->r.rep.centre_point = w->empty ? NULL : &centre;
 	o->r.rep.profile = rows;
 	o->r.rep.n_profile = n;
+	o->r.jobs = o->c.jobs;
 	rc = cli_render("map", s, g, w, &o->r, o->dir);
 	o->r.rep.centre_point = NULL;
 	o->r.rep.profile = NULL;

@@ -101,6 +101,7 @@ static int redraw(const struct ow_units *u, const char *dir,
 	}
 	rc = st != OW_OK ? cli_fail("report", st, &d)
 			 : cli_render_current("report", u, r, c->units);
+	r->jobs = c->jobs;
 	if (!rc)
 		rc = render_folder(s, g, w, r, dir);
 	if (!rc && !c->quiet)

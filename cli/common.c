@@ -74,25 +74,22 @@ int cli_load_study(const char *cmd, const char *path, struct ow_units **u,
 		   struct ow_study **study)
 {
 	struct ow_diag d = {{0}};
-	enum ow_status st;
+	int own = *u == NULL;
+	enum ow_status st = own ? ow_units_create(u, &d) : OW_OK;
 
 	*study = NULL;
-	st = ow_units_create(u, &d);
 	if (st != OW_OK)
 		return cli_fail(cmd, st, &d);
 	*study = calloc(1, sizeof **study);
-	if (!*study) {
-		ow_units_destroy(*u);
-		*u = NULL;
-		return cli_fail(cmd, OW_ENOMEM, NULL);
-	}
-	st = ow_config_load_study(*u, path, *study, &d);
+	st = *study ? ow_config_load_study(*u, path, *study, &d) : OW_ENOMEM;
 	if (st != OW_OK) {
 		free(*study);
 		*study = NULL;
-		ow_units_destroy(*u);
-		*u = NULL;
-		return cli_fail(cmd, st, &d);
+		if (own) {
+			ow_units_destroy(*u);
+			*u = NULL;
+		}
+		return cli_fail(cmd, st, st == OW_ENOMEM ? NULL : &d);
 	}
 	return CLI_OK;
 }

@@ -98,7 +98,6 @@ int cli_render(const char *cmd, const struct ow_study *s,
 {
 	struct ow_maps_options mo;
 	struct ow_diag d = {{0}};
-	char path[OW_PATH_LEN + 16];
 	enum ow_status st;
 
 	ow_maps_default(&mo);
@@ -108,9 +107,7 @@ int cli_render(const char *cmd, const struct ow_study *s,
 	mo.current_set_K = r->rep.current_set_K;
 	mo.profile = r->rep.profile;
 	mo.n_profile = r->rep.n_profile;
-	st = ow_maps_write_all(s, g, w, &mo, dir, &d);
-	snprintf(path, sizeof path, "%s/report.pdf", dir);
-	if (st == OW_OK)
-		st = ow_report_write(s, g, w, &r->rep, path, &d);
+	mo.jobs = r->jobs;
+	st = ow_report_write_folder(s, g, w, &r->rep, &mo, dir, &d);
 	return st == OW_OK ? CLI_OK : cli_fail(cmd, st, &d);
 }

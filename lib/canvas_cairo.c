@@ -1,7 +1,8 @@
-/* canvas_cairo.c - the PNG back-end of the canvas over cairo, and the
- * DejaVu Sans faces loaded through FreeType (unhinted) that it and the SVG
- * back-end's text measure share: the picture then does not depend on the
- * machine's font configuration, and the same inputs give the same bytes. */
+/* canvas_cairo.c - the PNG back-end of the canvas over cairo (the file
+ * encoded here with zlib), and the DejaVu Sans faces loaded through
+ * FreeType (unhinted) that it and the SVG back-end's text measure share:
+ * the picture then does not depend on the machine's font configuration,
+ * and the same inputs give the same bytes. */
 #include "canvas_impl.h"
 
 #include <cairo-ft.h>
@@ -10,8 +11,10 @@
 #include FT_FREETYPE_H
 #include <math.h>
 #include <stdatomic.h>
+#include <stdint.h>
 #include <stdlib.h>
 #include <string.h>
+#include <zlib.h>
 
 /* The FreeType library and faces are freed by cairo's destroy callback
  * when cairo lets go of the last face: cairo may hold a face in its font
@@ -258,51 +261,157 @@ static double png_text_width(struct ow_canvas *cv, const char *s)
 	return e.x_advance;
 }
 
-/* Growing memory buffer for cairo_surface_write_to_png_stream. */
-struct membuf {
-	unsigned char *b;
-	size_t n, cap;
-};
+/* --- PNG encoding --------------------------------------------------------
+ *
+ * PNG (ISO/IEC 15948:2004, W3C PNG 2nd ed.) written with zlib: 8-bit RGB
+ * when every pixel is opaque, else RGBA (cairo's premultiplied ARGB32
+ * undone as cairo does it), every scan line with the Up filter and the
+ * stream deflated at PNG_LEVEL. Against libpng's defaults through cairo
+ * (adaptive filter choice per line, level 6) this is about a tenth of the
+ * work for files some 10 % larger: maps are flat colour fields and lines. */
+#define PNG_LEVEL 2
+#define PNG_FILTER_UP 2
 
-static cairo_status_t to_mem(void *closure, const unsigned char *data,
-                             unsigned int len)
+static void put32(unsigned char *p, unsigned long v)
 {
-	struct membuf *m = closure;
+	p[0] = (unsigned char)(v >> 24);
+	p[1] = (unsigned char)(v >> 16);
+	p[2] = (unsigned char)(v >> 8);
+	p[3] = (unsigned char)v;
+}
 
-	if (m->n + len > m->cap) {
-		size_t cap = m->cap ? m->cap : 65536;
-		unsigned char *p;
+/* Chunk of type `type` with len data bytes already at out + 8: writes the
+ * length, the type and the CRC over type and data; returns its size. */
+static size_t chunk(unsigned char *out, const char *type, size_t len)
+{
+	put32(out, (unsigned long)len);
+	memcpy(out + 4, type, 4);
+	put32(out + 8 + len, crc32(crc32(0L, Z_NULL, 0), out + 4,
+				   (uInt)(len + 4)));
+	return len + 12;
+}
 
-		while (cap < m->n + len)
-			cap *= 2;
-		p = realloc(m->b, cap);
-		if (!p)
-			return CAIRO_STATUS_NO_MEMORY;
-		m->b = p;
-		m->cap = cap;
+static int all_opaque(const unsigned char *px, int w, int h, int stride)
+{
+	uint32_t and = 0xffffffffu;
+	int x, y;
+
+	for (y = 0; y < h; y++) {
+		const uint32_t *r = (const uint32_t *)(px + (size_t)y * stride);
+
+		for (x = 0; x < w; x++)
+			and &= r[x];
 	}
-	memcpy(m->b + m->n, data, len);
-	m->n += len;
-	return CAIRO_STATUS_SUCCESS;
+	return and >> 24 == 0xff;
+}
+
+/* Scan line y (cairo's native-endian ARGB32, premultiplied) as RGB or
+ * RGBA bytes, without the filter byte, into row. */
+static void scan_line(const unsigned char *px, int stride, int w, int y,
+		      int channels, unsigned char *row)
+{
+	const uint32_t *r = (const uint32_t *)(px + (size_t)y * stride);
+	int x, k;
+
+	if (channels == 3) {
+		for (x = 0; x < w; x++, row += 3) {
+			row[0] = (unsigned char)(r[x] >> 16);
+			row[1] = (unsigned char)(r[x] >> 8);
+			row[2] = (unsigned char)r[x];
+		}
+		return;
+	}
+	for (x = 0; x < w; x++, row += 4) {
+		unsigned a = r[x] >> 24;
+
+		for (k = 0; k < 3; k++) {
+			unsigned c = (r[x] >> (16 - 8 * k)) & 0xff;
+
+			row[k] = (unsigned char)(a == 0 ? 0
+					 : a == 0xff ? c
+						     : (c * 255 + a / 2) / a);
+		}
+		row[3] = (unsigned char)a;
+	}
+}
+
+/* Filtered scan lines: Up (PNG 2nd ed. 9.2), each line minus the one
+ * above, byte by byte. */
+static unsigned char *filtered(const unsigned char *px, int stride, int w,
+			       int h, int channels, size_t *len)
+{
+	size_t rl = (size_t)channels * (size_t)w, i;
+	unsigned char *f = malloc((rl + 1) * (size_t)h), *prev = calloc(1, rl),
+		      *cur = malloc(rl), *t;
+	int y;
+
+	if (!f || !prev || !cur) {
+		free(f);
+		f = NULL;
+		goto done;
+	}
+	for (y = 0; y < h; y++) {
+		unsigned char *o = f + (rl + 1) * (size_t)y;
+
+		scan_line(px, stride, w, y, channels, cur);
+		o[0] = PNG_FILTER_UP;
+		for (i = 0; i < rl; i++)
+			o[i + 1] = (unsigned char)(cur[i] - prev[i]);
+		t = prev;
+		prev = cur;
+		cur = t;
+	}
+	*len = (rl + 1) * (size_t)h;
+done:
+	free(prev);
+	free(cur);
+	return f;
 }
 
 static enum ow_status png_encode(struct ow_canvas *cv, unsigned char **bytes,
                                  size_t *len, struct ow_diag *d)
 {
+	static const unsigned char sig[8] = {0x89, 'P', 'N', 'G',
+	                                     '\r', '\n', 0x1a, '\n'};
 	struct png_impl *im = cv->impl;
-	struct membuf m = {NULL, 0, 0};
-	cairo_status_t s;
+	const unsigned char *px;
+	unsigned char *raw = NULL, *out = NULL;
+	size_t n_raw = 0, pos;
+	uLongf n_z;
+	int w, h, stride, channels;
 
 	cairo_surface_flush(im->surf);
-	s = cairo_surface_write_to_png_stream(im->surf, to_mem, &m);
-	if (s != CAIRO_STATUS_SUCCESS) {
-		free(m.b);
-		return ow_diag_set(
-		    d, s == CAIRO_STATUS_NO_MEMORY ? OW_ENOMEM : OW_EIO,
-		    "PNG encoding failed: %s", cairo_status_to_string(s));
+	px = cairo_image_surface_get_data(im->surf);
+	w = cairo_image_surface_get_width(im->surf);
+	h = cairo_image_surface_get_height(im->surf);
+	stride = cairo_image_surface_get_stride(im->surf);
+	if (!px)
+		return ow_diag_set(d, OW_EIO, "PNG encoding: no image");
+	channels = all_opaque(px, w, h, stride) ? 3 : 4;
+	raw = filtered(px, stride, w, h, channels, &n_raw);
+	n_z = raw ? compressBound((uLong)n_raw) : 0;
+	out = raw ? malloc(8 + 25 + 12 + n_z + 12) : NULL;
+	if (!out) {
+		free(raw);
+		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	}
-	*bytes = m.b;
-	*len = m.n;
+	memcpy(out, sig, 8);
+	put32(out + 16, (unsigned long)w); /* IHDR */
+	put32(out + 20, (unsigned long)h);
+	memcpy(out + 24, (unsigned char[]){8, channels == 3 ? 2 : 6, 0, 0, 0},
+	       5);
+	pos = 8 + chunk(out + 8, "IHDR", 13);
+	if (compress2(out + pos + 8, &n_z, raw, (uLong)n_raw, PNG_LEVEL) !=
+	    Z_OK) {
+		free(raw);
+		free(out);
+		return ow_diag_set(d, OW_ENOMEM, "PNG encoding: zlib failed");
+	}
+	pos += chunk(out + pos, "IDAT", n_z);
+	pos += chunk(out + pos, "IEND", 0);
+	free(raw);
+	*bytes = out;
+	*len = pos;
 	return OW_OK;
 }
 

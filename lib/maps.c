@@ -9,6 +9,8 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include <omp.h>
+
 #include "ow_classify.h"
 
 void ow_maps_default(struct ow_maps_options *o)
@@ -17,6 +19,7 @@ void ow_maps_default(struct ow_maps_options *o)
 	o->units = OW_SYS_SI;
 	o->png = 1;
 	o->svg = 1;
+	o->jobs = 1;
 }
 
 double maps_font(const struct ow_maps_options *o)
@@ -594,18 +597,6 @@ static enum ow_status write_one(const struct job *j, const char *dir,
 	return st;
 }
 
-static enum ow_status write_both(const struct job *j, const char *dir,
-                                 const char *stem, struct ow_diag *d)
-{
-	enum ow_status st = OW_OK;
-
-	if (j->o->png)
-		st = write_one(j, dir, stem, OW_CANVAS_PNG, d);
-	if (st == OW_OK && j->o->svg)
-		st = write_one(j, dir, stem, OW_CANVAS_SVG, d);
-	return st;
-}
-
 static char *centre_subtitle(const struct ow_study *s,
                              const struct ow_window *w, enum ow_unit_system u,
                              char *buf, size_t n)
@@ -620,25 +611,151 @@ static char *centre_subtitle(const struct ow_study *s,
 	return buf;
 }
 
-static enum ow_status write_profile(struct job *j, const char *dir,
-                                    struct ow_diag *d)
+/* File k of a folder's images: window, the figure maps, then the
+ * profile (only for a window that is not empty), each in the formats o
+ * asks for, PNG first. */
+static int file_of(const struct ow_window *w, const struct ow_maps_options *o,
+                   int k, struct job *j, const char **stem,
+                   enum ow_canvas_format *fmt)
+{
+	int nf = (o->png != 0) + (o->svg != 0), img;
+
+	if (nf == 0 || k < 0)
+		return 0;
+	img = k / nf;
+	*fmt = o->png && k % nf == 0 ? OW_CANVAS_PNG : OW_CANVAS_SVG;
+	if (img == 0) {
+		j->kind = MAP_WINDOW;
+		*stem = "window";
+	} else if (img <= OW_MAP_COUNT) {
+		j->kind = MAP_FIGURE;
+		j->fig = (enum ow_map_figure)(img - 1);
+		*stem = fig_file[img - 1];
+	} else if (img == OW_MAP_COUNT + 1 && !w->empty) {
+		j->kind = MAP_PROFILE;
+		*stem = "profile";
+	} else {
+		return 0;
+	}
+	return 1;
+}
+
+int ow_maps_file_count(const struct ow_window *w,
+                       const struct ow_maps_options *o)
+{
+	int nf = (o->png != 0) + (o->svg != 0);
+
+	return nf * (OW_MAP_COUNT + 1 + (w->empty ? 0 : 1));
+}
+
+enum ow_status ow_maps_write_file(const struct ow_study *s,
+                                  const struct ow_grid *g,
+                                  const struct ow_window *w,
+                                  const struct ow_maps_options *o,
+                                  const char *dir, int k, struct ow_diag *d)
 {
 	struct ow_profile_row *own = NULL;
+	const char *stem = NULL;
+	enum ow_canvas_format fmt;
+	struct job j;
 	char sub[200];
 	enum ow_status st = OW_OK;
 
-	j->kind = MAP_PROFILE;
-	j->rows = j->o->profile;
-	j->n_rows = j->o->n_profile;
-	if (!j->rows || j->n_rows < 2) {
-		st = ow_maps_centre_profile(j->s, j->w, &own, &j->n_rows, NULL,
-		                            d);
-		j->rows = own;
+	if (!s || !g || !w || !o || !dir)
+		return ow_diag_set(d, OW_EARG, "maps: NULL argument");
+	memset(&j, 0, sizeof j);
+	j.s = s, j.g = g, j.w = w, j.o = o;
+	if (!file_of(w, o, k, &j, &stem, &fmt))
+		return ow_diag_set(d, OW_EARG, "maps: no image file %d", k);
+	if (j.kind == MAP_PROFILE) {
+		j.rows = o->profile;
+		j.n_rows = o->n_profile;
+		if (!j.rows || j.n_rows < 2) {
+			st = ow_maps_centre_profile(s, w, &own, &j.n_rows, NULL,
+			                            d);
+			j.rows = own;
+		}
+		j.subtitle = centre_subtitle(s, w, o->units, sub, sizeof sub);
 	}
-	j->subtitle = centre_subtitle(j->s, j->w, j->o->units, sub, sizeof sub);
 	if (st == OW_OK)
-		st = write_both(j, dir, "profile", d);
+		st = write_one(&j, dir, stem, fmt, d);
 	free(own);
+	return st;
+}
+
+struct all_files {
+	const struct ow_study *s;
+	const struct ow_grid *g;
+	const struct ow_window *w;
+	const struct ow_maps_options *o;
+	const char *dir;
+	enum ow_status (*beside)(void *ctx, struct ow_diag *d);
+	void *ctx;
+};
+
+/* Piece k of the pool: 0 the work beside (when there is one, first so
+ * that the longest piece starts at once), then the files in order. */
+static enum ow_status piece(const struct all_files *a, int k,
+                            struct ow_diag *d)
+{
+	if (a->beside && k == 0)
+		return a->beside(a->ctx, d);
+	return ow_maps_write_file(a->s, a->g, a->w, a->o, a->dir,
+	                          k - (a->beside != NULL), d);
+}
+
+/* Every piece on o->jobs threads, each with its own diagnostics; the
+ * first failure in file order (the work beside last) goes to d. */
+static enum ow_status run_pool(const struct all_files *a, struct ow_diag *d)
+{
+	int nb = a->beside != NULL, n = ow_maps_file_count(a->w, a->o) + nb;
+	int jobs = a->o->jobs > 0 ? a->o->jobs : omp_get_max_threads(), k;
+	struct ow_diag *dk = calloc((size_t)n + 1, sizeof *dk);
+	enum ow_status *st = calloc((size_t)n + 1, sizeof *st);
+	enum ow_status first = OW_OK;
+
+	if (!dk || !st) {
+		free(dk);
+		free(st);
+		return ow_diag_set(d, OW_ENOMEM, "out of memory");
+	}
+#pragma omp parallel for schedule(dynamic) num_threads(jobs)
+	for (k = 0; k < n; k++)
+		st[k] = piece(a, k, &dk[k]);
+	for (k = nb; k < n + nb && first == OW_OK; k++)
+		if (st[k % n] != OW_OK)
+			first = ow_diag_set(d, st[k % n], "%s", dk[k % n].msg);
+	free(dk);
+	free(st);
+	return first;
+}
+
+enum ow_status ow_maps_write_beside(
+    const struct ow_study *s, const struct ow_grid *g,
+    const struct ow_window *w, const struct ow_maps_options *o,
+    const char *dir, enum ow_status (*beside)(void *ctx, struct ow_diag *d),
+    void *ctx, struct ow_diag *d)
+{
+	struct ow_maps_options own;
+	struct ow_profile_row *rows = NULL;
+	struct all_files a = {s, g, w, &own, dir, beside, ctx};
+	enum ow_status st = OW_OK;
+
+	if (!s || !g || !w || !dir)
+		return ow_diag_set(d, OW_EARG, "maps: NULL argument");
+	if (o)
+		own = *o;
+	else
+		ow_maps_default(&own);
+	if (!w->empty && (!own.profile || own.n_profile < 2)) {
+		/* the centre solved once for both formats */
+		st = ow_maps_centre_profile(s, w, &rows, &own.n_profile, NULL,
+		                            d);
+		own.profile = rows;
+	}
+	if (st == OW_OK)
+		st = run_pool(&a, d);
+	free(rows);
 	return st;
 }
 
@@ -648,27 +765,5 @@ enum ow_status ow_maps_write_all(const struct ow_study *s,
                                  const struct ow_maps_options *o,
                                  const char *dir, struct ow_diag *d)
 {
-	struct ow_maps_options def;
-	struct job j;
-	enum ow_status st;
-	int f;
-
-	if (!s || !g || !w || !dir)
-		return ow_diag_set(d, OW_EARG, "maps: NULL argument");
-	if (!o) {
-		ow_maps_default(&def);
-		o = &def;
-	}
-	memset(&j, 0, sizeof j);
-	j.s = s, j.g = g, j.w = w, j.o = o;
-	j.kind = MAP_WINDOW;
-	st = write_both(&j, dir, "window", d);
-	for (f = 0; f < OW_MAP_COUNT && st == OW_OK; f++) {
-		j.kind = MAP_FIGURE;
-		j.fig = (enum ow_map_figure)f;
-		st = write_both(&j, dir, fig_file[f], d);
-	}
-	if (st == OW_OK && !w->empty)
-		st = write_profile(&j, dir, d);
-	return st;
+	return ow_maps_write_beside(s, g, w, o, dir, NULL, NULL, d);
 }

@@ -36,9 +36,11 @@ struct ow_maps_options {
 	 * NULL: ow_maps_write_all solves the centre point itself */
 	const struct ow_profile_row *profile;
 	int n_profile;
+	int jobs;             /* threads drawing files at once; 0: all cores */
 };
 
-/* Defaults: SI, no current point, PNG and SVG, 9 pt, no profile rows. */
+/* Defaults: SI, no current point, PNG and SVG, 9 pt, no profile rows, one
+ * thread. */
 void ow_maps_default(struct ow_maps_options *o);
 
 /* The figure maps, in file order. */
@@ -106,11 +108,34 @@ enum ow_status ow_maps_centre_profile(const struct ow_study *s,
 
 /* Write window.png/.svg, map-*.png/.svg and profile.png/.svg (profiles
  * only when the window is not empty) into the existing folder dir, each
- * file atomically. OW_EIO naming the file on a write failure. */
+ * file atomically, o->jobs files at once (the files are the same for any
+ * count). OW_EIO naming the file on a write failure; with several
+ * failures, the first file's in the order above. */
 enum ow_status ow_maps_write_all(const struct ow_study *s,
                                  const struct ow_grid *g,
                                  const struct ow_window *w,
                                  const struct ow_maps_options *o,
                                  const char *dir, struct ow_diag *d);
+
+/* The same one file at a time, for a caller that draws other things
+ * beside them: ow_maps_file_count files, ow_maps_write_file writes file k
+ * (0 <= k < count, in the order above; without o->profile it solves the
+ * centre itself). */
+int ow_maps_file_count(const struct ow_window *w,
+                       const struct ow_maps_options *o);
+enum ow_status ow_maps_write_file(const struct ow_study *s,
+                                  const struct ow_grid *g,
+                                  const struct ow_window *w,
+                                  const struct ow_maps_options *o,
+                                  const char *dir, int k, struct ow_diag *d);
+
+/* ow_maps_write_all with one more piece of work, beside(ctx, d) (the
+ * report), drawn in the same pool of o->jobs threads as the image files.
+ * Its failure is reported after the files'. */
+enum ow_status ow_maps_write_beside(
+    const struct ow_study *s, const struct ow_grid *g,
+    const struct ow_window *w, const struct ow_maps_options *o,
+    const char *dir, enum ow_status (*beside)(void *ctx, struct ow_diag *d),
+    void *ctx, struct ow_diag *d);
 
 #endif

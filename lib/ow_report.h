@@ -92,4 +92,17 @@ enum ow_status ow_report_write(const struct ow_study *s,
                                const struct ow_report_options *o,
                                const char *pdf_path, struct ow_diag *d);
 
+/* report.pdf and the map images (ow_maps_write_all with mo) into the
+ * existing folder dir, drawn side by side on mo->jobs threads: the report
+ * and every image file are separate pieces of work, and the files are the
+ * same for any thread count. Errors as the two functions give them (an
+ * image's before the report's). */
+struct ow_maps_options;
+enum ow_status ow_report_write_folder(const struct ow_study *s,
+                                      const struct ow_grid *g,
+                                      const struct ow_window *w,
+                                      const struct ow_report_options *o,
+                                      const struct ow_maps_options *mo,
+                                      const char *dir, struct ow_diag *d);
+
 #endif

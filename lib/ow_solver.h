@@ -33,7 +33,9 @@ struct ow_point {
 	double rpm;
 	double set_K[OW_MAX_ZONES];   /* zone set-points used */
 	double output_kg_s;           /* matched throughput G */
-	double discharge_pressure_Pa; /* at the screw tip (= die + screen) */
+	double discharge_pressure_Pa; /* at the screw tip: die + screen at the
+					 matched G (the march's own tip value
+					 differs by the match residual) */
 	double max_pressure_Pa;       /* anywhere on the screw */
 	double max_pressure_at_m;
 	double discharge_bulk_K;      /* flow-weighted mean at the tip */
@@ -85,6 +87,9 @@ struct ow_point {
 					 bed gave up unheated (the book's
 					 shortfall, its residual is about
 					 -unheated_melt_W / power_W) */
+	double match_slope;           /* d(P_tip - P_need)/dG near the answer,
+					 Pa s/kg (secant of the last two
+					 marches; 0 when unknown) */
 	int n_iter;                   /* marches done by the match */
 	unsigned flags;
 };
@@ -117,6 +122,22 @@ void ow_solver_destroy(struct ow_solver *sv);
 enum ow_status ow_solver_run(struct ow_solver *sv, double rpm,
 			     const double *set_K, double warm_kg_s,
 			     struct ow_point *out, struct ow_diag *d);
+
+/* Where the match starts: a predicted throughput and the match function's
+ * slope (a neighbouring point's match_slope), which gives the second trial
+ * by one Newton step instead of a fixed probe. */
+struct ow_solver_start {
+	double g_kg_s; /* > 0: first trial throughput; otherwise a cold start */
+	double slope;  /* < 0: d(P_tip - P_need)/dG, Pa s/kg; otherwise
+			  unknown */
+};
+
+/* ow_solver_run from start (NULL: cold). The answer does not depend on
+ * the start beyond the match tolerance. */
+enum ow_status ow_solver_run_from(struct ow_solver *sv, double rpm,
+				  const double *set_K,
+				  const struct ow_solver_start *start,
+				  struct ow_point *out, struct ow_diag *d);
 
 /* Profile of the last run (stations from hopper to tip); valid until the
  * next run or destroy. */

@@ -3,9 +3,11 @@
  * crosses. Points are stored on a lattice 2^refine times finer than the
  * study's grid; only the coarse points and the refined cells are solved.
  *
- * Parallel over barrel-axis rows with OpenMP; within a row each point is
- * warm-started from the previous speed of the same row, so the results do
- * not depend on the number of threads. */
+ * Parallel over barrel-axis rows with OpenMP; within a row each point
+ * starts from the previous speeds of the same row (continuation: their
+ * throughputs and match slopes extrapolated), a refined point from the
+ * corners of its cell, so the results do not depend on the number of
+ * threads. */
 #ifndef OW_SWEEP_H
 #define OW_SWEEP_H
 
@@ -57,6 +59,15 @@ static inline struct ow_grid_point *ow_grid_at(const struct ow_grid *g,
 {
 	return &g->pts[ia * g->n_rpm + ir];
 }
+
+/* Start of the match at rpm from n (0..OW_SWEEP_PREDICT) solved points of
+ * the same barrel row, prev[0] the nearest: their throughputs per screw
+ * speed (nearly constant: drag flow grows with speed) extrapolated to rpm
+ * along the line through them, the nearest one's match slope. n = 0 gives
+ * a cold start. */
+#define OW_SWEEP_PREDICT 2
+void ow_sweep_predict(const struct ow_point *const *prev, int n, double rpm,
+		      struct ow_solver_start *out);
 
 /* Axis value -> the reference zone's absolute set-point (K). */
 double ow_sweep_set_ref(const struct ow_study *s, double axis_value);

@@ -35,11 +35,15 @@ enum ow_dim {
 
 struct ow_units;
 
-/* Load the UDUNITS-2 database (error messages silenced) into *out. Unit
- * texts are rewritten before UDUNITS sees them: rpm = revolutions per
- * minute (a turn counts 1, so "1 Hz" = 60 rpm and "6.283185 rad/s" = 60
- * rpm), thou = mil, Wh/kWh = W h, hp = 745.69987158227 W exactly.
- * OW_EIO when the database cannot be read. Free with ow_units_destroy. */
+/* A unit reader in *out. The UDUNITS-2 database (error messages
+ * silenced) is read once, at the first unit that needs it: the commonest
+ * units ("mm", "degC", "degF", "in", "MPa", "kJ/(kg K)", "rpm" ...) convert
+ * by their exact factors without it. Unit texts are rewritten before
+ * UDUNITS sees them: rpm = revolutions per minute (a turn counts 1, so
+ * "1 Hz" = 60 rpm and "6.283185 rad/s" = 60 rpm), thou = mil, Wh/kWh =
+ * W h, hp = 745.69987158227 W exactly. OW_ENOMEM only; a database that
+ * cannot be read is OW_EIO from the parse that needed it. Free with
+ * ow_units_destroy. */
 enum ow_status ow_units_create(struct ow_units **out, struct ow_diag *d);
 void ow_units_destroy(struct ow_units *u);
 

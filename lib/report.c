@@ -324,3 +324,41 @@ enum ow_status ow_report_write(const struct ow_study *s,
 	}
 	return rpt_close(&r, pdf_path);
 }
+
+struct folder_report {
+	const struct ow_study *s;
+	const struct ow_grid *g;
+	const struct ow_window *w;
+	const struct ow_report_options *o;
+	const char *path;
+};
+
+static enum ow_status report_piece(void *ctx, struct ow_diag *d)
+{
+	const struct folder_report *f = ctx;
+
+	return ow_report_write(f->s, f->g, f->w, f->o, f->path, d);
+}
+
+enum ow_status ow_report_write_folder(const struct ow_study *s,
+                                      const struct ow_grid *g,
+                                      const struct ow_window *w,
+                                      const struct ow_report_options *o,
+                                      const struct ow_maps_options *mo,
+                                      const char *dir, struct ow_diag *d)
+{
+	struct folder_report f = {s, g, w, o, NULL};
+	size_t n = dir ? strlen(dir) + sizeof "/report.pdf" : 0;
+	char *path = n ? malloc(n) : NULL;
+	enum ow_status st;
+
+	if (!path)
+		return ow_diag_set(d, dir ? OW_ENOMEM : OW_EARG,
+		                   dir ? "out of memory"
+		                       : "ow_report_write_folder: NULL folder");
+	snprintf(path, n, "%s/report.pdf", dir);
+	f.path = path;
+	st = ow_maps_write_beside(s, g, w, mo, dir, report_piece, &f, d);
+	free(path);
+	return st;
+}

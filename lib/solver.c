@@ -3,8 +3,11 @@
  * The pressure the screw builds at its tip falls as the throughput G rises,
  * while the die (plus screen pack) needs more: find G with
  *   f(G) = P_tip(G) - [dP_die(G, T_bulk(G)) + dP_screen] = 0
- * by bracketing and the Illinois variant of regula falsi (Dowell & Jarratt,
- * BIT 11 (1971) 168), a safeguarded root finder that keeps the bracket. */
+ * by secant steps until the root is bracketed, then the Illinois variant of
+ * regula falsi (Dowell & Jarratt, BIT 11 (1971) 168), a safeguarded root
+ * finder that keeps the bracket. A start from neighbouring points (a
+ * predicted G and the slope of f there) makes the second trial one Newton
+ * step; along a sweep row most points then need two marches. */
 #include "solver_impl.h"
 
 #include <math.h>
@@ -15,7 +18,8 @@
 
 #define OW_PI 3.14159265358979323846
 #define MAX_MARCHES 60
-#define G_RTOL 2e-5   /* relative throughput tolerance */
+#define G_RTOL 2e-5   /* relative throughput tolerance (bracket width) */
+#define G_STEP_TOL 2e-5 /* ... and of the Newton step f/k left to take */
 #define P_ATOL 1e3    /* Pa: pressure mismatch accepted ... */
 #define P_RTOL 1e-4   /* ... or this share of the die's need */
 /* Cold start at this share of the metering drag flow: the matched outputs
@@ -24,6 +28,8 @@
  * 6 to 4 per point against a start at one half. */
 #define G_START 0.95
 #define G_PROBE 1.05  /* second trial: a 5 % step gives the first secant */
+#define G_NEWTON_MAX 1.5 /* largest factor of a Newton second trial */
+#define K_DRIFT 1.3   /* largest change of the handed-on slope per point */
 /* Named in the notes above this share of the drive power (the residual
  * the energy book is held to is 1 %). */
 #define UNHEATED_NOTE 1e-3
@@ -90,13 +96,22 @@ struct eval {
 	enum ow_status st;
 };
 
-static void evaluate(struct ow_solver *sv, double g, struct eval *e, int *n)
+/* The match so far: marches done and the last two trials (index 1 the
+ * latest), whose secant is the slope handed on to neighbouring points. */
+struct match {
+	int n;
+	double g[2], f[2];
+	double k0; /* slope of f known from the start (< 0), or 0 */
+};
+
+static void evaluate(struct ow_solver *sv, double g, struct eval *e,
+		     struct match *mt)
 {
 	const struct ow_study *s = sv->s;
 	double dp = 0.0;
 
 	e->g = g;
-	(*n)++;
+	mt->n++;
 	e->st = ow_solver_march(sv, g, &e->m);
 	if (e->st == OW_OK)
 		e->st = ow_die_pressure(&s->line.die, &s->resin, g,
@@ -104,6 +119,21 @@ static void evaluate(struct ow_solver *sv, double g, struct eval *e, int *n)
 	/* die_factor: a calibrated die that needs more or less than ideal */
 	e->need = dp * s->line.die_factor + s->line.screen_pressure_Pa;
 	e->f = e->st == OW_OK ? e->m.tip_Pa - e->need : NAN;
+	mt->g[0] = mt->g[1];
+	mt->f[0] = mt->f[1];
+	mt->g[1] = g;
+	mt->f[1] = e->f;
+}
+
+/* Secant slope of the last two trials; fallback when there is none. */
+static double match_slope(const struct match *mt, double fallback)
+{
+	double k;
+
+	if (mt->n < 2 || mt->g[1] == mt->g[0])
+		return fallback;
+	k = (mt->f[1] - mt->f[0]) / (mt->g[1] - mt->g[0]);
+	return isfinite(k) && k < 0.0 ? k : fallback;
 }
 
 /* Drag-flow capacity of the last conveying section, kg/s: a scale for G. */
@@ -118,27 +148,66 @@ static double drag_scale(const struct ow_solver *sv)
 	       2.0;
 }
 
-static int done(const struct eval *e)
+/* The slope handed on to the next point: this match's last secant, kept
+ * within a factor K_DRIFT of the slope it started from. A secant whose
+ * trials straddle a jump of f (f is continuous only piecewise: a station
+ * changing its stage moves the tip pressure by a step) is far too steep;
+ * the clamp keeps such a slope from spreading, while a slope that truly
+ * changes along a row follows within a few points. */
+static double handed_slope(const struct match *mt)
 {
-	return fabs(e->f) < fmax(P_ATOL, P_RTOL * e->need);
+	double k = match_slope(mt, mt->k0);
+
+	if (mt->k0 < 0.0)
+		k = fmin(fmax(k, mt->k0 * K_DRIFT), mt->k0 / K_DRIFT);
+	return k;
+}
+
+/* Converged when the mismatch is within P_ATOL or P_RTOL of the die's
+ * need, or when the Newton step f/k still to take moves G by less than
+ * G_STEP_TOL of it (k: the secant of this match's last two trials; on the
+ * first trial the start's slope). f is steep: on the demo a 1 % change
+ * of G moves the tip pressure by a third of the die's need. G, and every
+ * figure that varies with G at an elasticity of order one, is then known
+ * far better than the tip pressure of the march, so the discharge
+ * pressure is taken from the die's side (figures()). */
+static int done(const struct eval *e, const struct match *mt)
+{
+	double k = match_slope(mt, mt->k0);
+
+	return fabs(e->f) < fmax(P_ATOL, P_RTOL * e->need) ||
+	       (k < 0.0 && fabs(e->f / k) < G_STEP_TOL * e->g);
+}
+
+/* The second trial: one Newton step from a with a known slope of f (a
+ * neighbour's), kept within a factor G_NEWTON_MAX; without one, a probe
+ * G_PROBE downhill. */
+static double second_trial(const struct eval *a, double slope)
+{
+	double g = a->g - a->f / slope;
+
+	if (!(isfinite(slope) && slope < 0.0 && isfinite(g) && g != a->g))
+		return a->f > 0.0 ? a->g * G_PROBE : a->g / G_PROBE;
+	return fmin(fmax(g, a->g / G_NEWTON_MAX), a->g * G_NEWTON_MAX);
 }
 
 /* Secant steps from a guess until f changes sign (lo: f > 0, hi: f < 0),
  * each step kept within a factor of 3 and in the downhill direction. */
-static int bracket(struct ow_solver *sv, double g0, struct eval *lo,
-		   struct eval *hi, struct eval *best, int *n)
+static int bracket(struct ow_solver *sv, const struct ow_solver_start *s0,
+		   struct eval *lo, struct eval *hi, struct eval *best,
+		   struct match *mt)
 {
 	struct eval a, b;
 
-	evaluate(sv, g0, &a, n);
+	evaluate(sv, s0->g_kg_s, &a, mt);
 	if (a.st != OW_OK)
 		return -1;
 	*best = a;
-	if (done(&a))
+	if (done(&a, mt))
 		return 1;
-	evaluate(sv, a.f > 0.0 ? g0 * G_PROBE : g0 / G_PROBE, &b, n);
-	while (b.st == OW_OK && !done(&b) && (a.f > 0.0) == (b.f > 0.0) &&
-	       *n < MAX_MARCHES / 2) {
+	evaluate(sv, second_trial(&a, s0->slope), &b, mt);
+	while (b.st == OW_OK && !done(&b, mt) && (a.f > 0.0) == (b.f > 0.0) &&
+	       mt->n < MAX_MARCHES / 2) {
 		double g = b.g - b.f * (b.g - a.g) / (b.f - a.f);
 		double up = b.f > 0.0 ? 1.0 : -1.0;
 
@@ -146,12 +215,12 @@ static int bracket(struct ow_solver *sv, double g0, struct eval *lo,
 			g = up > 0.0 ? b.g * 1.5 : b.g / 1.5;
 		g = fmin(fmax(g, b.g / 3.0), b.g * 3.0);
 		a = b;
-		evaluate(sv, g, &b, n);
+		evaluate(sv, g, &b, mt);
 	}
 	if (b.st != OW_OK)
 		return -1;
 	*best = b;
-	if (done(&b))
+	if (done(&b, mt))
 		return 1;
 	if ((a.f > 0.0) == (b.f > 0.0))
 		return -1;
@@ -162,18 +231,18 @@ static int bracket(struct ow_solver *sv, double g0, struct eval *lo,
 
 /* Illinois regula falsi inside [lo, hi]; *best gets the last iterate. */
 static int refine(struct ow_solver *sv, struct eval *lo, struct eval *hi,
-		  struct eval *best, int *n)
+		  struct eval *best, struct match *mt)
 {
 	double flo = lo->f, fhi = hi->f;
 	int side = 0;
 
-	while (*n < MAX_MARCHES) {
+	while (mt->n < MAX_MARCHES) {
 		double g = (lo->g * fhi - hi->g * flo) / (fhi - flo);
 
-		evaluate(sv, g, best, n);
+		evaluate(sv, g, best, mt);
 		if (best->st != OW_OK)
 			return 0;
-		if (done(best) || hi->g - lo->g < G_RTOL * best->g)
+		if (done(best, mt) || hi->g - lo->g < G_RTOL * best->g)
 			return 1;
 		if (best->f > 0.0) {
 			*lo = *best;
@@ -225,11 +294,17 @@ static void figures(const struct ow_solver *sv, const struct eval *e,
 	const struct ow_material *mt = &s->resin;
 	double tf = s->line.feed_temp_K, g = e->g;
 	double h_out, in;
+	int tip_max;
 
 	pt->output_kg_s = g;
-	pt->discharge_pressure_Pa = e->m.tip_Pa;
-	pt->max_pressure_Pa = e->m.max_Pa;
-	pt->max_pressure_at_m = e->m.max_at_m;
+	/* At the match the tip pressure is the die's need; the march's own
+	 * tip value carries the residual f, the need only f's share through
+	 * G, far smaller (see done()). A maximum upstream stays the march's. */
+	tip_max = !(e->m.max_Pa > e->m.tip_Pa && e->m.max_Pa > e->need);
+	pt->discharge_pressure_Pa = e->need;
+	pt->max_pressure_Pa = tip_max ? e->need : e->m.max_Pa;
+	pt->max_pressure_at_m = tip_max ? ow_screw_length(&s->screw)
+					: e->m.max_at_m;
 	pt->discharge_bulk_K = e->m.bulk_K;
 	pt->discharge_peak_K = e->m.peak_tip_K;
 	pt->peak_K = e->m.peak_K;
@@ -287,9 +362,21 @@ enum ow_status ow_solver_run(struct ow_solver *sv, double rpm,
 			     const double *set_K, double warm_kg_s,
 			     struct ow_point *out, struct ow_diag *d)
 {
+	struct ow_solver_start s0 = {warm_kg_s, 0.0};
+
+	return ow_solver_run_from(sv, rpm, set_K, &s0, out, d);
+}
+
+enum ow_status ow_solver_run_from(struct ow_solver *sv, double rpm,
+				  const double *set_K,
+				  const struct ow_solver_start *start,
+				  struct ow_point *out, struct ow_diag *d)
+{
 	const struct ow_line *l = &sv->s->line;
 	struct eval lo = {0}, hi = {0}, best = {0};
-	int n = 0, i, ok, rc;
+	struct ow_solver_start s0 = {0.0, 0.0};
+	struct match mt = {0, {0.0, 0.0}, {0.0, 0.0}, 0.0};
+	int i, ok, rc;
 	enum ow_status st = check_run(sv, rpm, set_K, d);
 
 	if (st != OW_OK)
@@ -304,20 +391,25 @@ enum ow_status ow_solver_run(struct ow_solver *sv, double rpm,
 	}
 	out->rpm = rpm;
 	memcpy(out->set_K, sv->set_K, sizeof out->set_K);
+	if (start)
+		s0 = *start;
+	if (!(isfinite(s0.g_kg_s) && s0.g_kg_s > 0.0))
+		s0.g_kg_s = G_START * drag_scale(sv);
+	mt.k0 = isfinite(s0.slope) && s0.slope < 0.0 ? s0.slope : 0.0;
 	sv->record = 1; /* every march records: the last one is kept */
-	rc = bracket(sv, warm_kg_s > 0.0 ? warm_kg_s : G_START * drag_scale(sv),
-		     &lo, &hi, &best, &n);
-	ok = rc == 1 || (rc == 0 && refine(sv, &lo, &hi, &best, &n));
+	rc = bracket(sv, &s0, &lo, &hi, &best, &mt);
+	ok = rc == 1 || (rc == 0 && refine(sv, &lo, &hi, &best, &mt));
 	if (!ok) {
 		out->flags |= OW_FLAG_NOT_CONVERGED;
 		if (!(best.g > 0.0))
 			best.g = 0.5 * drag_scale(sv);
-		evaluate(sv, best.g, &best, &n); /* its profile */
+		evaluate(sv, best.g, &best, &mt); /* its profile */
 		if (best.st != OW_OK)
 			out->flags |= OW_FLAG_NOT_CONVERGED;
 	}
 	sv->record = 0;
-	out->n_iter = n;
+	out->n_iter = mt.n;
+	out->match_slope = ok ? handed_slope(&mt) : 0.0;
 	figures(sv, &best, out);
 	return OW_OK;
 }

@@ -40,7 +40,7 @@ struct run {
 };
 
 static void solve_point(struct run *r, struct ow_solver *sv, int ir, int ia,
-			double warm)
+			const struct ow_solver_start *start)
 {
 	struct ow_grid_point *gp = ow_grid_at(r->g, ir, ia);
 	double set_K[OW_MAX_ZONES];
@@ -48,7 +48,8 @@ static void solve_point(struct run *r, struct ow_solver *sv, int ir, int ia,
 	int done;
 
 	ow_line_apply_axis(&r->s->line, gp->axis, set_K);
-	if (ow_solver_run(sv, gp->rpm, set_K, warm, &gp->pt, &d) != OW_OK)
+	if (ow_solver_run_from(sv, gp->rpm, set_K, start, &gp->pt, &d) !=
+	    OW_OK)
 		gp->pt.flags |= OW_FLAG_NOT_CONVERGED; /* never stop a sweep */
 	ow_classify(&gp->pt, &r->s->line.limits,
 		    ow_screw_length(&r->s->screw), &gp->v);
@@ -59,15 +60,44 @@ static void solve_point(struct run *r, struct ow_solver *sv, int ir, int ia,
 		r->c->progress(r->c->progress_ctx, done, r->planned);
 }
 
-static double warm_of(const struct ow_grid_point *gp)
+static int usable(const struct ow_grid_point *gp)
 {
-	if (!gp->solved || (gp->pt.flags & OW_FLAG_NOT_CONVERGED))
-		return 0.0;
-	return gp->pt.output_kg_s;
+	return gp->solved == 1 && !(gp->pt.flags & OW_FLAG_NOT_CONVERGED);
 }
 
-/* Coarse rows in parallel; along a row, warm starts from the previous
- * speed, so every thread count gives the same answers. */
+/* Lagrange weight of node k of x[0..n-1] at t. */
+static double lagrange(const double *x, int n, int k, double t)
+{
+	double w = 1.0;
+	int j;
+
+	for (j = 0; j < n; j++)
+		if (j != k)
+			w *= (t - x[j]) / (x[k] - x[j]);
+	return w;
+}
+
+void ow_sweep_predict(const struct ow_point *const *prev, int n, double rpm,
+		      struct ow_solver_start *out)
+{
+	double x[OW_SWEEP_PREDICT], spec = 0.0;
+	int k;
+
+	n = n < OW_SWEEP_PREDICT ? n : OW_SWEEP_PREDICT;
+	for (k = 0; k < n; k++)
+		x[k] = prev[k]->rpm;
+	for (k = 0; k < n; k++)
+		spec += lagrange(x, n, k, rpm) * prev[k]->output_kg_s /
+			prev[k]->rpm;
+	out->g_kg_s = spec * rpm;
+	/* the nearest slope as it is: a secant that straddled a jump of the
+	 * match function is steep, and extrapolated it would run away */
+	out->slope = n > 0 ? prev[0]->match_slope : 0.0;
+}
+
+/* Coarse rows in parallel; along a row, each point starts from the speeds
+ * before it in the same row, so every thread count gives the same
+ * answers. A point that did not converge restarts the continuation. */
 static void coarse_pass(struct run *r, struct ow_solver **svs)
 {
 	struct ow_grid *g = r->g;
@@ -76,12 +106,23 @@ static void coarse_pass(struct run *r, struct ow_solver **svs)
 #pragma omp parallel for schedule(dynamic) num_threads(r->threads)
 	for (k = 0; k < rows; k++) {
 		struct ow_solver *sv = svs[omp_get_thread_num()];
-		int ia = k * g->stride, ir;
-		double warm = 0.0;
+		const struct ow_point *prev[OW_SWEEP_PREDICT];
+		struct ow_solver_start s0;
+		int ia = k * g->stride, ir, n = 0;
 
 		for (ir = 0; ir < g->n_rpm; ir += g->stride) {
-			solve_point(r, sv, ir, ia, warm);
-			warm = warm_of(ow_grid_at(g, ir, ia));
+			struct ow_grid_point *gp = ow_grid_at(g, ir, ia);
+
+			ow_sweep_predict(prev, n, gp->rpm, &s0);
+			solve_point(r, sv, ir, ia, &s0);
+			if (!usable(gp)) {
+				n = 0;
+				continue;
+			}
+			memmove(prev + 1, prev,
+				sizeof prev[0] * (OW_SWEEP_PREDICT - 1));
+			prev[0] = &gp->pt;
+			n += n < OW_SWEEP_PREDICT;
 		}
 	}
 }
@@ -137,6 +178,35 @@ static int cmp_int(const void *a, const void *b)
 	return (x > y) - (x < y);
 }
 
+/* Start of a refined point (ir, ia) of level s: throughput and slope
+ * interpolated bilinearly from the converged corners of its cell, which
+ * were all solved at coarser levels. */
+static void cell_start(const struct ow_grid *g, int ir, int ia, int s,
+		       struct ow_solver_start *out)
+{
+	int i0 = ir - ir % s, j0 = ia - ia % s, k;
+	double tx = (double)(ir - i0) / s, ty = (double)(ia - j0) / s;
+	double wsum = 0.0, gsum = 0.0, ksum = 0.0;
+
+	for (k = 0; k < 4; k++) {
+		int i = i0 + (k & 1) * s, j = j0 + (k >> 1) * s;
+		double w = ((k & 1) ? tx : 1.0 - tx) *
+			   ((k >> 1) ? ty : 1.0 - ty);
+		const struct ow_grid_point *c;
+
+		if (w <= 0.0 || i >= g->n_rpm || j >= g->n_axis)
+			continue;
+		c = ow_grid_at(g, i, j);
+		if (!usable(c) || !(c->pt.match_slope < 0.0))
+			continue;
+		wsum += w;
+		gsum += w * c->pt.output_kg_s;
+		ksum += w * c->pt.match_slope;
+	}
+	out->g_kg_s = wsum > 0.0 ? gsum / wsum : 0.0;
+	out->slope = wsum > 0.0 ? ksum / wsum : 0.0;
+}
+
 static void refine_pass(struct run *r, struct ow_solver **svs, int *list)
 {
 	struct ow_grid *g = r->g;
@@ -149,12 +219,11 @@ static void refine_pass(struct run *r, struct ow_solver **svs, int *list)
 #pragma omp parallel for schedule(dynamic) num_threads(r->threads)
 		for (k = 0; k < n; k++) {
 			int ir = list[k] % g->n_rpm, ia = list[k] / g->n_rpm;
-			/* the cell corner below-left was solved earlier */
-			double warm = warm_of(ow_grid_at(g, ir - ir % s,
-							 ia - ia % s));
+			struct ow_solver_start s0;
 
+			cell_start(g, ir, ia, s, &s0);
 			solve_point(r, svs[omp_get_thread_num()], ir, ia,
-				    warm);
+				    &s0);
 		}
 	}
 }

@@ -49,13 +49,86 @@
 #define ZERO_C_K 273.15          /* 0 degC in K */
 #define TWO_PI 6.28318530717958647692
 
-struct ow_units {
+/* The UDUNITS-2 database, read at the first unit that needs it (reading
+ * it is most of the cost of a short command, and the common units of a
+ * study never need it: see exact_units). */
+struct database {
 	ut_system *sys;
 	ut_unit *si[OW_DIM_COUNT]; /* the SI unit each dimension converts to */
+};
+
+struct ow_units {
+	struct database *db; /* filled on first need (ow_units_parse is not
+				thread-safe anyway) */
 	locale_t c_numeric; /* "C" numbers while UDUNITS-2 reads (it uses
 			       strtod: "0.0254" would read as 0 under a
 			       decimal comma) */
 };
+
+/* Units converted without the database: exact factors (SI prefixes; the
+ * inch, foot, pound and pound-force by definition, NIST SP 811 (2008)
+ * B.8) and offsets (0 degC = 273.15 K, 0 degF = 459.67 degR), matched
+ * on the whole unit text as written. Every other text goes to UDUNITS-2. */
+struct exact_unit {
+	const char *text;
+	enum ow_dim dim;
+	double factor;
+	double offset_K; /* temperatures: SI = factor * (x + offset) */
+};
+
+#define DEGF_OFFSET 459.67 /* degF of 0 K */
+static const struct exact_unit exact_units[] = {
+	{"%", OW_DIM_NONE, 0.01, 0.0},
+	{"m", OW_DIM_LENGTH, 1.0, 0.0},
+	{"mm", OW_DIM_LENGTH, 1e-3, 0.0},
+	{"in", OW_DIM_LENGTH, IN_M, 0.0},
+	{"K", OW_DIM_TEMPERATURE, 1.0, 0.0},
+	{"degC", OW_DIM_TEMPERATURE, 1.0, ZERO_C_K},
+	{"degF", OW_DIM_TEMPERATURE, DEGF_K, DEGF_OFFSET},
+	{"K", OW_DIM_TEMP_DIFF, 1.0, 0.0},
+	{"degC", OW_DIM_TEMP_DIFF, 1.0, 0.0},
+	{"degF", OW_DIM_TEMP_DIFF, DEGF_K, 0.0},
+	{"Pa", OW_DIM_PRESSURE, 1.0, 0.0},
+	{"kPa", OW_DIM_PRESSURE, 1e3, 0.0},
+	{"MPa", OW_DIM_PRESSURE, 1e6, 0.0},
+	{"bar", OW_DIM_PRESSURE, 1e5, 0.0},
+	{"kg/s", OW_DIM_MASS_FLOW, 1.0, 0.0},
+	{"kg/h", OW_DIM_MASS_FLOW, 1.0 / 3600.0, 0.0},
+	{"rpm", OW_DIM_ROT_SPEED, 1.0, 0.0},
+	{"kg/m3", OW_DIM_DENSITY, 1.0, 0.0},
+	{"J/(kg K)", OW_DIM_SPECIFIC_HEAT, 1.0, 0.0},
+	{"kJ/(kg K)", OW_DIM_SPECIFIC_HEAT, 1e3, 0.0},
+	{"W/(m K)", OW_DIM_CONDUCTIVITY, 1.0, 0.0},
+	{"J/kg", OW_DIM_SPECIFIC_ENERGY, 1.0, 0.0},
+	{"kJ/kg", OW_DIM_SPECIFIC_ENERGY, 1e3, 0.0},
+	{"J/mol", OW_DIM_MOLAR_ENERGY, 1.0, 0.0},
+	{"kJ/mol", OW_DIM_MOLAR_ENERGY, 1e3, 0.0},
+	{"Pa s", OW_DIM_VISCOSITY, 1.0, 0.0},
+	{"s", OW_DIM_TIME, 1.0, 0.0},
+	{"W", OW_DIM_POWER, 1.0, 0.0},
+	{"kW", OW_DIM_POWER, 1e3, 0.0},
+	{"N m", OW_DIM_TORQUE, 1.0, 0.0},
+	{"kN m", OW_DIM_TORQUE, 1e3, 0.0},
+	{"1/s", OW_DIM_SHEAR_RATE, 1.0, 0.0},
+	{"W/(m2 K)", OW_DIM_HEAT_TRANSFER, 1.0, 0.0},
+};
+
+/* x in unit (dimension dim) -> *si when the unit is one of exact_units. */
+static int exact_to_si(const char *unit, enum ow_dim dim, double x,
+		       double *si)
+{
+	size_t i;
+
+	for (i = 0; i < sizeof exact_units / sizeof exact_units[0]; i++) {
+		const struct exact_unit *e = &exact_units[i];
+
+		if (e->dim == dim && strcmp(e->text, unit) == 0) {
+			*si = e->factor * (x + e->offset_K);
+			return isfinite(*si);
+		}
+	}
+	return 0;
+}
 
 /* SI unit of each dimension, as UDUNITS text. Screw speed: turns are
  * rewritten to the number 1, so rev/min is 1/min here. Consistency: only
@@ -192,7 +265,8 @@ static enum ow_status reject(const struct req *r, const char *fmt, ...)
 			   r->text, problem, ow_dim_expect(r->dim));
 }
 
-static enum ow_status load_database(struct ow_units *u, struct ow_diag *d);
+static enum ow_status load_database(const struct ow_units *u,
+				    struct ow_diag *d);
 
 enum ow_status ow_units_create(struct ow_units **out, struct ow_diag *d)
 {
@@ -203,17 +277,17 @@ enum ow_status ow_units_create(struct ow_units **out, struct ow_diag *d)
 		return ow_diag_set(d, OW_EARG, "ow_units_create: out is NULL");
 	*out = NULL;
 	u = calloc(1, sizeof *u);
-	if (!u)
+	if (u)
+		u->db = calloc(1, sizeof *u->db);
+	if (!u || !u->db) {
+		free(u);
 		return ow_diag_set(d, OW_ENOMEM, "units: out of memory");
+	}
 	u->c_numeric = newlocale(LC_NUMERIC_MASK, "C", (locale_t)0);
 	if (u->c_numeric == (locale_t)0) {
 		st = ow_diag_set(d, OW_ENOMEM, "units: no C locale");
 		goto fail;
 	}
-	ut_set_error_message_handler(ut_ignore); /* no printing from lib/ */
-	st = load_database(u, d);
-	if (st != OW_OK)
-		goto fail;
 	*out = u;
 	return OW_OK;
 fail:
@@ -222,15 +296,21 @@ fail:
 }
 
 /* Read the XML database and the SI unit of each dimension, with "C"
- * numbers. */
-static enum ow_status load_database(struct ow_units *u, struct ow_diag *d)
+ * numbers, unless that was done already. */
+static enum ow_status load_database(const struct ow_units *u,
+				    struct ow_diag *d)
 {
-	locale_t old = uselocale(u->c_numeric);
+	struct database *db = u->db;
+	locale_t old;
 	enum ow_status st = OW_OK;
 	int i;
 
-	u->sys = ut_read_xml(NULL);
-	if (!u->sys) {
+	if (db->sys)
+		return OW_OK;
+	old = uselocale(u->c_numeric);
+	ut_set_error_message_handler(ut_ignore); /* no printing from lib/ */
+	db->sys = ut_read_xml(NULL);
+	if (!db->sys) {
 		st = ow_diag_set(d, OW_EIO,
 				 "could not read the UDUNITS-2 unit database "
 				 "(status %d; package libudunits2-data, or "
@@ -238,8 +318,8 @@ static enum ow_status load_database(struct ow_units *u, struct ow_diag *d)
 		goto done;
 	}
 	for (i = 0; i < OW_DIM_COUNT; i++) {
-		u->si[i] = ut_parse(u->sys, si_text[i], UT_ASCII);
-		if (!u->si[i]) {
+		db->si[i] = ut_parse(db->sys, si_text[i], UT_ASCII);
+		if (!db->si[i]) {
 			st = ow_diag_set(d, OW_ECOMPUTE,
 					 "UDUNITS-2 does not know \"%s\"",
 					 si_text[i]);
@@ -247,6 +327,14 @@ static enum ow_status load_database(struct ow_units *u, struct ow_diag *d)
 		}
 	}
 done:
+	if (st != OW_OK) { /* nothing half-loaded stays behind */
+		for (i = 0; i < OW_DIM_COUNT; i++) {
+			ut_free(db->si[i]);
+			db->si[i] = NULL;
+		}
+		ut_free_system(db->sys);
+		db->sys = NULL;
+	}
 	uselocale(old);
 	return st;
 }
@@ -257,9 +345,11 @@ void ow_units_destroy(struct ow_units *u)
 
 	if (!u)
 		return;
-	for (i = 0; i < OW_DIM_COUNT; i++)
-		ut_free(u->si[i]);
-	ut_free_system(u->sys);
+	for (i = 0; u->db && i < OW_DIM_COUNT; i++)
+		ut_free(u->db->si[i]);
+	if (u->db)
+		ut_free_system(u->db->sys);
+	free(u->db);
 	if (u->c_numeric != (locale_t)0)
 		freelocale(u->c_numeric);
 	free(u);
@@ -536,6 +626,8 @@ static enum ow_status udunits_to_si(const struct ow_units *u,
 	enum ow_status st = OW_OK;
 	double v;
 
+	if (exact_to_si(unit, dim, x, si))
+		return OW_OK;
 	if (stray_number(unit))
 		return reject(r, "a number inside the unit \"%s\"", unit);
 	/* Signs no unit of ours uses (UDUNITS-2 offsets and timestamps with
@@ -546,17 +638,21 @@ static enum ow_status udunits_to_si(const struct ow_units *u,
 		return reject(r, "unknown unit \"%s\"", unit);
 	if (!rewrite_unit(unit, dim, buf, sizeof buf))
 		return reject(r, "unit too long");
-	from = ut_parse(u->sys, buf, UT_UTF8); /* test the pointer: the
-						  status may say success */
+	st = load_database(u, r->d);
+	if (st != OW_OK)
+		return st;
+	from = ut_parse(u->db->sys, buf, UT_UTF8); /* test the pointer: the
+						      status may say
+						      success */
 	if (!from)
 		return reject(r, "unknown unit \"%s\"%s", unit,
 			      farad_hint(unit));
-	if (!ut_are_convertible(from, u->si[dim])) {
+	if (!ut_are_convertible(from, u->db->si[dim])) {
 		st = reject(r, "unit \"%s\" measures something else%s", unit,
 			    farad_hint(unit));
 		goto done;
 	}
-	cv = ut_get_converter(from, u->si[dim]);
+	cv = ut_get_converter(from, u->db->si[dim]);
 	if (!cv) {
 		st = reject(r, "no conversion from \"%s\"", unit);
 		goto done;

@@ -9,6 +9,7 @@
 #include <hpdf.h>
 #include <stdio.h>
 #include <stdlib.h>
+#include <stdint.h>
 #include <string.h>
 #include <unistd.h>
 
@@ -259,6 +260,38 @@ static void canvas_clip_keeps_paint_inside_and_restore_lifts_it(void **state)
 	ow_canvas_destroy(cv);
 }
 
+/* PNG stores colour without alpha premultiplied (W3C PNG 2nd ed., 2003,
+ * sec. 12.8): half-transparent red is stored as R 255, A 128, which a
+ * decoder into premultiplied ARGB32 (cairo) reads back as R 128; stored
+ * premultiplied it would read back as R 64. */
+static void canvas_png_stores_translucent_colour_unpremultiplied(void **st)
+{
+	struct ow_canvas *cv = NULL;
+	unsigned char *b = NULL;
+	size_t n = 0;
+	cairo_surface_t *s;
+	uint32_t px;
+
+	(void)st;
+	assert_int_equal(
+	    ow_canvas_create_image(OW_CANVAS_PNG, 10, 10, 1.0, &cv, NULL),
+	    OW_OK);
+	ow_canvas_set_colour(cv, ow_rgba_with_alpha(ow_rgb(1, 0, 0), 0.5));
+	ow_canvas_rect(cv, 0, 0, 10, 10);
+	ow_canvas_fill(cv);
+	assert_int_equal(ow_canvas_encode(cv, &b, &n, NULL), OW_OK);
+	s = ow_test_png_decode(b, n);
+	memcpy(&px, cairo_image_surface_get_data(s) +
+			5 * cairo_image_surface_get_stride(s) + 4 * 5,
+	       4);
+	assert_int_equal(px >> 24, 128);
+	assert_in_range((px >> 16) & 0xff, 127, 129);
+	assert_int_equal(px & 0xffff, 0);
+	cairo_surface_destroy(s);
+	free(b);
+	ow_canvas_destroy(cv);
+}
+
 static void canvas_keeps_the_first_error_and_refuses_late_drawing(void **state)
 {
 	struct ow_canvas *cv = NULL;
@@ -442,6 +475,8 @@ int main(void)
 	const struct CMUnitTest tests[] = {
 	    cmocka_unit_test(canvas_png_has_the_size_of_points_times_scale),
 	    cmocka_unit_test(canvas_same_drawing_gives_byte_identical_png),
+	    cmocka_unit_test(
+	        canvas_png_stores_translucent_colour_unpremultiplied),
 	    cmocka_unit_test(canvas_svg_keeps_labels_as_text),
 	    cmocka_unit_test(canvas_svg_escapes_markup_in_text),
 	    cmocka_unit_test(canvas_text_width_scales_with_size_and_weight),

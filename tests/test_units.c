@@ -366,6 +366,51 @@ static void plain_numbers_read_a_point_whatever_the_locale(void **state)
 	assert_rel(lb, 0.45359237, 1e-12); /* NIST SP 811 (2008) B.8 */
 }
 
+/* The commonest units convert by exact factors without the UDUNITS-2
+ * database: each agrees with UDUNITS-2 itself, reached through a spelling
+ * the shortcut does not know, and the inch and degF with NIST SP 811
+ * (2008) B.8 (1 in = 0.0254 m exactly; T/K = (t/degF + 459.67) / 1.8). */
+static void common_units_agree_with_udunits_and_nist(void **state)
+{
+	static const struct {
+		const char *fast, *slow;
+		enum ow_dim dim;
+	} pair[] = {
+	    {"3.5 in", "3.5 inch", OW_DIM_LENGTH},
+	    {"63.5 mm", "63.5 millimeter", OW_DIM_LENGTH},
+	    {"200 degC", "200 °C", OW_DIM_TEMPERATURE},
+	    {"392 degF", "392 °F", OW_DIM_TEMPERATURE},
+	    {"+18 degF", "+18 °F", OW_DIM_TEMP_DIFF},
+	    {"-20 K", "-20 kelvin", OW_DIM_TEMP_DIFF},
+	    {"35 MPa", "35 megapascal", OW_DIM_PRESSURE},
+	    {"2.3 kJ/(kg K)", "2.3 kJ/kg/K", OW_DIM_SPECIFIC_HEAT},
+	    {"0.25 W/(m K)", "0.25 W/m/K", OW_DIM_CONDUCTIVITY},
+	    {"760 kg/m3", "760 kg/m^3", OW_DIM_DENSITY},
+	    {"50 kg/h", "50 kg/hour", OW_DIM_MASS_FLOW},
+	    {"28 kJ/mol", "28 kilojoule/mol", OW_DIM_MOLAR_ENERGY},
+	    {"200 kJ/kg", "200 kilojoule/kg", OW_DIM_SPECIFIC_ENERGY},
+	    {"9000 Pa s", "9000 Pa.s", OW_DIM_VISCOSITY},
+	    {"30 kW", "30 kilowatt", OW_DIM_POWER},
+	    {"4.8 kN m", "4.8 kilonewton m", OW_DIM_TORQUE},
+	    {"0.5 %", "0.5 percent", OW_DIM_NONE},
+	    {"2000 W/(m2 K)", "2000 W/m^2/K", OW_DIM_HEAT_TRANSFER},
+	};
+	size_t i;
+
+	(void)state;
+	for (i = 0; i < sizeof pair / sizeof pair[0]; i++) {
+		double a = si_of(pair[i].fast, pair[i].dim, 0.0);
+		double b = si_of(pair[i].slow, pair[i].dim, 0.0);
+
+		if (fabs(a - b) > 1e-14 * fabs(b))
+			fail_msg("\"%s\" = %.17g but \"%s\" = %.17g",
+				 pair[i].fast, a, pair[i].slow, b);
+	}
+	assert_true(si_of("1 in", OW_DIM_LENGTH, 0.0) == 0.0254);
+	assert_rel(si_of("392 degF", OW_DIM_TEMPERATURE, 0.0),
+		   (392.0 + 459.67) / 1.8, 1e-15);
+}
+
 static void every_example_in_the_expectations_parses(void **state)
 {
 	char ex[128];
@@ -518,6 +563,7 @@ int main(void)
 		cmocka_unit_test(si_display_round_trips_through_its_labels),
 		cmocka_unit_test(us_display_uses_nist_factors),
 		cmocka_unit_test(unit_systems_parse_by_name),
+		cmocka_unit_test(common_units_agree_with_udunits_and_nist),
 	};
 
 	return cmocka_run_group_tests(tests, load_units, free_units);
