@@ -159,6 +159,8 @@ install: all
 	install -m 755 $(OPWIN) $(DESTDIR)$(PREFIX)/bin/opwin
 	install -m 644 $(LIBA) $(DESTDIR)$(PREFIX)/lib/libopwin.a
 	install -m 644 lib/ow_*.h lib/opwin.h $(DESTDIR)$(PREFIX)/include/opwin
+	install -d $(DESTDIR)$(PREFIX)/share/man/man1
+	install -m 644 doc/opwin.1 $(DESTDIR)$(PREFIX)/share/man/man1/opwin.1
 
 -include $(LIB_OBJ:.o=.d) $(CLI_OBJ:.o=.d) $(SUP_OBJ:.o=.d) \
          $(TESTS:=.d) $(BUILD)/tests/bench/bench.d

@@ -90,6 +90,10 @@ void cli_today(char *buf, size_t n);
 /* Make the output folder dir (one level) or say why not: CLI_OUTPUT. */
 int cli_make_dir(const char *cmd, const char *dir);
 
+/* mkdir -p of every missing parent of dir (not dir itself); failures are
+ * left for the folder's own creation to report. */
+void cli_make_parents(const char *dir);
+
 /* A map folder written as a whole (outdir.c). */
 struct cli_outdir {
 	const char *dir;               /* where the folder goes */
@@ -118,11 +122,18 @@ struct cli_progress {
 void cli_progress_start(struct cli_progress *p, const char *name);
 void cli_progress_show(void *ctx, int done, int total);
 
-/* A number in the display system (rpm; degC or degF; K or degF
- * differences), or a text with its unit. */
+/* A number in unit system sys (rpm; degC or degF; K or degF
+ * differences): callers pass the study's own system, so a bare number
+ * means what the study's file means; or a text with its unit ("10 K",
+ * "440 degF"). */
 enum ow_status cli_read_value(const struct ow_units *u, const char *text,
 			      enum ow_dim dim, enum ow_unit_system sys,
 			      double *si, struct ow_diag *d);
+
+/* Tell on stderr how an option's value was read: "opwin point: --set 10
+ * read as 10 K (18 degF): a bare number is in the study's own units, SI". */
+void cli_note_value(const char *cmd, const char *option, const char *text,
+		    enum ow_dim dim, enum ow_unit_system study, double si);
 
 /* Options of the maps and the report (map and report commands). */
 struct cli_render {
@@ -149,9 +160,9 @@ struct cli_render {
 	"  --date YYYY-MM-DD  date of the report (default: today)\n"          \
 	"  --current RPM,SET  the line's current point: screw speed and the " \
 	"set-point\n"                                                         \
-	"                     of the map's axis zone (degC, or degF with "    \
-	"--units us,\n"                                                       \
-	"                     or with a unit: 60,205degC)\n"
+	"                     of the map's axis zone, with a unit "           \
+	"(60,\"205 degC\")\n"                                                 \
+	"                     or bare in the study's own units\n"
 
 /* Defaults: A4, today's date, no current point. */
 void cli_render_init(struct cli_render *r);
@@ -161,10 +172,12 @@ void cli_render_init(struct cli_render *r);
 int cli_render_option(const char *cmd, struct cli_render *r, int id,
 		      const char *arg);
 
-/* Read --current (if given) in unit system sys; also sets the report's
- * unit system. Returns 0 or CLI_USAGE. */
+/* Set the report's unit system sys and read --current (if given), a bare
+ * number in the study's own system `study`, saying how it was read.
+ * Returns 0 or CLI_USAGE. */
 int cli_render_current(const char *cmd, const struct ow_units *u,
-		       struct cli_render *r, enum ow_unit_system sys);
+		       struct cli_render *r, enum ow_unit_system sys,
+		       enum ow_unit_system study);
 
 /* Draw the maps and report.pdf of study s, grid g, window w into dir,
  * r->jobs files at once. */

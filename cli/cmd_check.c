@@ -6,6 +6,7 @@
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
+#include <string.h>
 
 #define OW_PI 3.14159265358979323846
 
@@ -84,6 +85,92 @@ static void print_screw(const struct ow_screw *s, const struct cli_common *c)
 	}
 }
 
+
+/* The limits that are set, one phrasing per kind ("<quantity> at most
+ * <value>"). */
+static void print_limits(const struct ow_study *st, const struct cli_common *c)
+{
+	static const enum ow_dim dims[OW_CK_LIMITS] = {
+		OW_DIM_TEMPERATURE, OW_DIM_NONE,      OW_DIM_PRESSURE,
+		OW_DIM_POWER,       OW_DIM_TORQUE,    OW_DIM_TEMPERATURE,
+		OW_DIM_MASS_FLOW,   OW_DIM_MASS_FLOW, OW_DIM_NONE,
+		OW_DIM_NONE};
+	int k, n = 0;
+
+	for (k = 0; k < OW_CK_LIMITS; k++) {
+		enum ow_check ck = (enum ow_check)k;
+		double v = ow_check_limit(&st->line.limits, ck);
+		int pct = ck == OW_CK_UNMELT || ck == OW_CK_ZONE_CONTROL;
+
+		if (!isfinite(v))
+			continue;
+		printf("%s%s %s %.4g %s", n++ ? "; " : "limits  ",
+		       ow_check_text(ck), ow_check_relation(ck),
+		       pct ? 100.0 * v : disp(c, dims[k], v),
+		       pct ? "%" : lab(c, dims[k]));
+	}
+	printf("%s", n ? "\n" : "limits  none set\n");
+}
+
+/* The sweep: screw speeds, and what the barrel axis does over which
+ * range of the map-axis zone's set-point. */
+static void print_sweep(const struct ow_study *st, const struct cli_common *c)
+{
+	const struct ow_axes *a = &st->line.axes;
+	int z = ow_line_reference_zone(&st->line) + 1;
+	enum ow_dim dim = a->mode == OW_AXIS_SHIFT ? OW_DIM_TEMP_DIFF
+						   : OW_DIM_TEMPERATURE;
+	const char *how = a->mode == OW_AXIS_SHIFT
+				  ? "every zone shifted by"
+				  : (a->mode == OW_AXIS_SET ? "zones from the "
+							      "given one set to"
+							    : "one zone set to");
+
+	if (a->rpm_steps < 2) {
+		printf("sweep   none (point only)\n");
+		return;
+	}
+	printf("sweep   screw speed %g to %g rpm in %d steps; %s %g to %g %s "
+	       "in %d steps (zone %d at %.0f to %.0f %s)\n",
+	       a->rpm_from, a->rpm_to, a->rpm_steps, how,
+	       disp(c, dim, a->axis_from), disp(c, dim, a->axis_to),
+	       lab(c, dim), a->axis_steps, z,
+	       disp(c, OW_DIM_TEMPERATURE, ow_sweep_set_ref(st, a->axis_from)),
+	       disp(c, OW_DIM_TEMPERATURE, ow_sweep_set_ref(st, a->axis_to)),
+	       lab(c, OW_DIM_TEMPERATURE));
+}
+
+/* The study's fields under prefix (and under `also`), as the comparison
+ * lists them: "name value, name value" with units, set ones only. */
+static void print_group(const struct ow_study *st, const struct cli_common *c,
+			const char *lead, const char *prefix, const char *also)
+{
+	struct ow_input_diff f[160];
+	int n = ow_compare_fields(st, st, c->units, 1, f, 160), i, k = 0;
+
+	if (n > 160)
+		n = 160;
+	for (i = 0; i < n; i++) {
+		const char *name = f[i].field;
+		char words[96], *q;
+
+		if (strncmp(name, prefix, strlen(prefix)) &&
+		    !(also && !strncmp(name, also, strlen(also))))
+			continue;
+		if (!strcmp(f[i].a, "-") || !*f[i].a)
+			continue;
+		if (!strncmp(name, prefix, strlen(prefix)))
+			name += strlen(prefix);
+		snprintf(words, sizeof words, "%s", name);
+		for (q = words; *q; q++) /* outer_diameter -> outer diameter */
+			if (*q == '_' || *q == '.')
+				*q = ' ';
+		printf("%s%s %s", k++ ? ", " : lead, words, f[i].a);
+	}
+	if (k)
+		printf("\n");
+}
+
 static void print_line(const struct ow_study *st, const struct cli_common *c)
 {
 	const struct ow_line *l = &st->line;
@@ -100,6 +187,9 @@ static void print_line(const struct ow_study *st, const struct cli_common *c)
 		       l->zones[i].to_m / st->screw.diameter_m);
 	printf("\nfeed    %.0f %s\n", disp(c, OW_DIM_TEMPERATURE, l->feed_temp_K),
 	       lab(c, OW_DIM_TEMPERATURE));
+	print_group(st, c, "die     ", "die.", "screen_pack");
+	print_limits(st, c);
+	print_sweep(st, c);
 }
 
 static void print_warnings(const struct ow_screw *s)

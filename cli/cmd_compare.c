@@ -23,6 +23,8 @@ struct cmp_opts {
 	const char *label[2];
 	const char *date;
 	int rpm_steps, axis_steps, refine;
+	const char *revision, *prepared_by, *approved_by;
+	int paper;
 };
 
 static void help(void)
@@ -31,6 +33,9 @@ static void help(void)
 	       "[--refine K]\n"
 	       "                    [--label-a TEXT] [--label-b TEXT] "
 	       "[--date YYYY-MM-DD]\n"
+	       "                    [--paper a4|letter] [--revision R] "
+	       "[--prepared-by NAME]\n"
+	       "                    [--approved-by NAME]\n"
 	       "                    [--jobs N] [--units si|us] [--quiet]\n\n"
 	       "Sweeps two studies that share their sweep axes (two resins "
 	       "on one screw,\nor a new and a worn screw) on the same grid: "
@@ -48,6 +53,10 @@ static void help(void)
 	       "tables (default A)\n"
 	       "  --label-b TEXT  short name of case B (default B)\n"
 	       "  --date D        date printed on the PDF (default: today)\n"
+	       "  --paper P       a4 (default) or letter\n"
+	       "  --revision R, --prepared-by NAME, --approved-by NAME\n"
+	       "                  the PDF's title block (blank lines to "
+	       "sign otherwise)\n"
 	       "  --jobs N        threads (default: all cores)\n"
 	       "  --quiet         no progress bar, no summary\n"
 	       "exit codes: 0 ok (also for empty windows), 1 inputs rejected "
@@ -122,7 +131,8 @@ static void print_limits(const char *lead, const int *counts)
 	printf("%s", lead);
 	for (c = 0; c < OW_CK_COUNT; c++)
 		if (counts[c]) {
-			printf("%s %s (%d)", any ? "," : "",
+			printf("%s %s (%s): %d points", any ? ";" : "",
+			       ow_check_text((enum ow_check)c),
 			       ow_check_key((enum ow_check)c), counts[c]);
 			any = 1;
 		}
@@ -180,8 +190,12 @@ static void print_point(const struct ow_compare *cmp, enum ow_cmp_at at,
 		       ow_compare_at_text((enum ow_cmp_at)k));
 		return;
 	}
-	printf("\nAt the %s: %.1f rpm, %.1f %s\n  ", ow_compare_at_text(at),
+	printf("\nAt the %s: %.1f rpm, %.1f %s", ow_compare_at_text(at),
 	       p->rpm, SHOW(OW_DIM_TEMPERATURE, p->set_ref_K[0]));
+	if (cmp->by_shift)
+		printf(" (%s at %.1f %s)", o->label[1],
+		       SHOW(OW_DIM_TEMPERATURE, p->set_ref_K[1]));
+	printf("\n  ");
 	snprintf(diff, sizeof diff, "%s − %s", o->label[1], o->label[0]);
 	cell("", 40);
 	cell(o->label[0], -12);
@@ -231,6 +245,15 @@ static void print_summary(const struct ow_compare *cmp,
 	print_window(o->label[0], cmp->win[0], o);
 	print_window(o->label[1], cmp->win[1], o);
 	print_window("common", cmp->common[0], o);
+	{
+		char how[320];
+
+		printf("Barrel set-points: %s%s\n",
+		       ow_compare_alignment(cmp, o->c.units, how, sizeof how),
+		       cmp->by_shift ? "; the common window and the points "
+		                       "below give A's set-points"
+		                     : "");
+	}
 	printf("\nGrid points: safe in both %d, only in %s %d, only in %s %d, "
 	       "in neither %d\n",
 	       cmp->count[OW_CMP_BOTH], o->label[0], cmp->count[OW_CMP_A_ONLY],
@@ -293,6 +316,10 @@ static int write_outputs(const struct ow_compare *cmp, const struct cmp_opts *o)
 	dopt.label[0] = o->label[0];
 	dopt.label[1] = o->label[1];
 	dopt.date = o->date;
+	dopt.revision = o->revision;
+	dopt.prepared_by = o->prepared_by;
+	dopt.approved_by = o->approved_by;
+	dopt.paper = o->paper;
 	st = ow_compare_write_maps(cmp, &dopt, o->dir, &d);
 	snprintf(path, sizeof path, "%s/compare.pdf", o->dir);
 	if (st == OW_OK)
@@ -347,6 +374,10 @@ static int parse(int argc, char **argv, struct cmp_opts *o)
 	    {"label-a", required_argument, NULL, 'A'},
 	    {"label-b", required_argument, NULL, 'B'},
 	    {"date", required_argument, NULL, 'D'},
+	    {"paper", required_argument, NULL, 'p'},
+	    {"revision", required_argument, NULL, 'R'},
+	    {"prepared-by", required_argument, NULL, 'P'},
+	    {"approved-by", required_argument, NULL, 'Y'},
 	    {NULL, 0, NULL, 0},
 	};
 	char *end;
@@ -371,6 +402,24 @@ static int parse(int argc, char **argv, struct cmp_opts *o)
 		case 'B':
 			o->label[1] = optarg;
 			break;
+		case 'R':
+			o->revision = optarg;
+			break;
+		case 'P':
+			o->prepared_by = optarg;
+			break;
+		case 'Y':
+			o->approved_by = optarg;
+			break;
+		case 'p': {
+			enum ow_paper p;
+
+			if (ow_report_paper_parse(optarg, &p))
+				return cli_usage_error("compare", "--paper takes "
+				                                  "a4 or letter");
+			o->paper = (int)p;
+			break;
+		}
 		case 'g':
 			if (cli_parse_grid(optarg, &o->rpm_steps, &o->axis_steps))
 				return cli_usage_error("compare",
@@ -406,7 +455,8 @@ static int parse(int argc, char **argv, struct cmp_opts *o)
 int cmd_compare(int argc, char **argv)
 {
 	struct cmp_opts o = {
-	    {OW_SYS_SI, 0, 0}, "opwin-compare", {"A", "B"}, NULL, 0, 0, 0};
+	    {OW_SYS_SI, 0, 0}, "opwin-compare", {"A", "B"}, NULL, 0, 0, 0,
+	    NULL, NULL, NULL, 0};
 	struct ow_units *u = NULL; /* one unit database for both */
 	struct ow_study *s[2] = {NULL, NULL};
 	char date[16];

@@ -74,8 +74,8 @@ static void print_empty(const struct ow_window *w)
 	printf("No safe operating point in the swept range.\n"
 	       "Limits that exclude the most points:\n");
 	for (i = 0; i < n && i < 4; i++)
-		printf("  %-14s %s (%d points)\n", ow_check_key(order[i]),
-		       ow_check_text(order[i]), w->fail_count[order[i]]);
+		printf("  %s (%s): %d points\n", ow_check_failure(order[i]),
+		       ow_check_key(order[i]), w->fail_count[order[i]]);
 }
 
 /* "lo - hi unit" in the display system; bounds (inward = 1) rounded
@@ -94,30 +94,58 @@ static void range(const struct map_opts *o, enum ow_dim dim, double lo,
 	printf("%s - %s %s", a, b, ow_display_label(o->c.units, dim));
 }
 
+/* What sets one bound and how finely it is located, under its range. */
+static void print_setter(const struct map_opts *o, const struct ow_window *w,
+			 enum ow_window_side side, const char *end)
+{
+	const struct ow_window_bound *b = &w->bound[side];
+	int rpm = side == OW_WB_RPM_MIN || side == OW_WB_RPM_MAX;
+	char why[160];
+
+	ow_window_setter_text(b->check, why, sizeof why);
+	printf("      %s bound: %s", end, why);
+	if (b->check != OW_WINDOW_SWEEP_EDGE) {
+		if (rpm)
+			printf(" (located within %g rpm)", b->resolution);
+		else
+			printf(" (located within %g %s)",
+			       ow_display_value(o->c.units, OW_DIM_TEMP_DIFF,
+						b->resolution),
+			       ow_display_label(o->c.units, OW_DIM_TEMP_DIFF));
+	}
+	printf("\n");
+}
+
 static void print_window(const struct ow_study *s, const struct ow_grid *g,
 			 const struct ow_window *w,
 			 const struct map_opts *o)
 {
-	int z;
+	int z, ref = ow_line_reference_zone(&s->line);
 
 	printf("%s\n", s->title);
 	if (w->empty) {
 		print_empty(w);
 		return;
 	}
-	printf("Recommended window (bounds rounded inwards)\n"
+	printf("Recommended window (bounds on whole rpm and whole degrees, "
+	       "rounded inwards)\n"
 	       "  screw speed       ");
 	range(o, OW_DIM_ROT_SPEED, w->rpm_min, w->rpm_max,
 	      OW_REPORT_RPM_DECIMALS, 1);
 	printf("\n");
+	print_setter(o, w, OW_WB_RPM_MIN, "lower");
+	print_setter(o, w, OW_WB_RPM_MAX, "upper");
 	for (z = 0; z < s->line.n_zones; z++) {
 		printf("  zone %-2d set-point ", z + 1);
 		range(o, OW_DIM_TEMPERATURE, w->zone_min_K[z], w->zone_max_K[z],
 		      OW_REPORT_TEMP_DECIMALS, 1);
-		printf("%s\n", z == ow_line_reference_zone(&s->line)
-				       ? "  (axis reference)" : "");
+		printf("%s\n", z == ref ? "  (the map's set-point axis)" : "");
+		if (z == ref) {
+			print_setter(o, w, OW_WB_SET_MIN, "lower");
+			print_setter(o, w, OW_WB_SET_MAX, "upper");
+		}
 	}
-	printf("  centre point      %.1f rpm at %.1f %s\n", w->centre.rpm,
+	printf("  centre point      %.0f rpm at %.1f %s\n", w->centre.rpm,
 	       SHOW(OW_DIM_TEMPERATURE, w->centre_set_K));
 	printf("  expected output   ");
 	range(o, OW_DIM_MASS_FLOW, w->output_min_kg_s, w->output_max_kg_s, 1, 0);
@@ -127,6 +155,8 @@ static void print_window(const struct ow_study *s, const struct ow_grid *g,
 	       SHOW(OW_DIM_TEMPERATURE, w->peak_max_K));
 	printf("  safe share of the map %.0f %%, %d points solved\n",
 	       100.0 * w->safe_fraction, g->solves);
+	if (w->at_sweep_edge)
+		printf("NOTE: %s\n", OW_WINDOW_SWEEP_EDGE_NOTE);
 }
 
 static int write_outputs(const struct ow_study *s, const struct ow_grid *g,
@@ -269,7 +299,7 @@ int cmd_map(int argc, char **argv)
 		return cli_usage_error("map", "expects one STUDY.json");
 	if ((rc = cli_load_study("map", argv[optind], &u, &s)))
 		return rc;
-	rc = cli_render_current("map", u, &o.r, o.c.units);
+	rc = cli_render_current("map", u, &o.r, o.c.units, s->own_units);
 	if (!rc)
 		rc = cli_outdir_check("map", o.dir);
 	if (!rc)

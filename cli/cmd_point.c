@@ -26,8 +26,10 @@ static void help(void)
 	       "mode: a\n"
 	       "                   temperature (set, zone) or a difference "
 	       "(shift);\n"
-	       "                   without a unit: degC / K (degF with "
-	       "--units us);\n"
+	       "                   with a unit (\"10 K\", \"440 degF\") or "
+	       "bare in the\n"
+	       "                   study's own units (how it was read goes "
+	       "to stderr);\n"
 	       "                   omitted: the study's own set-points\n"
 	       "  --profile FILE   write the axial profile (CSV)\n"
 	       "  --json           print the figures as JSON (SI keys)\n"
@@ -47,7 +49,7 @@ static void print_limit_lines(const struct ow_verdict *v)
 	printf("verdict   UNSAFE:");
 	for (i = 0; i < OW_CK_COUNT; i++)
 		if (v->bits & (1u << i))
-			printf(" %s;", ow_check_text((enum ow_check)i));
+			printf(" %s;", ow_check_failure((enum ow_check)i));
 	printf("\n");
 }
 
@@ -106,9 +108,10 @@ static void print_note(const struct ow_study *s, const struct ow_point *pt,
 		       "unmelted; solid bed ratio in the transition %.2f, "
 		       "plugging number %.2f\n", 100.0 * pt->unmelt_frac,
 		       pt->max_sbr, pt->plug_ratio);
-	printf("drive     %.2f %s, torque %.0f N·m, specific energy %.3f "
-	       "kWh/kg\n", SHOW(OW_DIM_POWER, pt->power_W), pt->torque_Nm,
-	       pt->sec_J_kg / 3.6e6);
+	printf("drive     %.2f %s, torque %.0f %s, specific energy %.4f "
+	       "%s\n", SHOW(OW_DIM_POWER, pt->power_W),
+	       SHOW(OW_DIM_TORQUE, pt->torque_Nm),
+	       SHOW(OW_DIM_SPECIFIC_ENERGY, pt->sec_J_kg));
 	if (isfinite(pt->feed_capacity_kg_s))
 		printf("feed      capacity %.1f %s (Darnell-Mol, no pressure "
 		       "loss): %.0f %% used\n",
@@ -185,15 +188,18 @@ static int solve(const struct ow_units *u, const struct ow_study *s,
 	enum ow_status st;
 	int rc;
 
-	st = cli_read_value(u, o->rpm, OW_DIM_ROT_SPEED, o->c.units, &rpm, &d);
+	enum ow_dim dim = s->line.axes.mode == OW_AXIS_SHIFT
+				  ? OW_DIM_TEMP_DIFF
+				  : OW_DIM_TEMPERATURE;
+
+	st = cli_read_value(u, o->rpm, OW_DIM_ROT_SPEED, s->own_units, &rpm,
+			    &d);
 	if (st == OW_OK && o->set)
-		st = cli_read_value(u, o->set,
-				s->line.axes.mode == OW_AXIS_SHIFT
-					? OW_DIM_TEMP_DIFF
-					: OW_DIM_TEMPERATURE,
-				o->c.units, &v, &d);
+		st = cli_read_value(u, o->set, dim, s->own_units, &v, &d);
 	if (st != OW_OK)
 		return cli_usage_error("point", d.msg);
+	if (o->set)
+		cli_note_value("point", "--set", o->set, dim, s->own_units, v);
 	if (o->set)
 		ow_line_apply_axis(&s->line, v, set_K);
 	st = ow_solver_create(s, &sv, &d);

@@ -7,6 +7,8 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <sys/stat.h>
+#include <time.h>
 
 #include "ow_mapdir.h"
 
@@ -56,6 +58,44 @@ static int parse(int argc, char **argv, struct cli_common *c,
 	return CLI_OK;
 }
 
+/* The previous report.pdf of dir (another revision, perhaps already
+ * signed) is kept in the new folder as report-previous-<its time>.pdf
+ * rather than lost; says so on stderr. */
+static int keep_previous_report(const char *dir, const char *tmp)
+{
+	char from[OW_PATH_LEN + 32], to[OW_PATH_LEN + 96], stamp[32];
+	struct stat sb;
+	struct tm tm;
+	FILE *in, *out;
+	char buf[65536];
+	size_t n;
+	int ok = 1;
+
+	snprintf(from, sizeof from, "%s/report.pdf", dir);
+	if (stat(from, &sb) != 0 || !S_ISREG(sb.st_mode))
+		return CLI_OK;
+	gmtime_r(&sb.st_mtime, &tm);
+	strftime(stamp, sizeof stamp, "%Y-%m-%d-%H%M%S", &tm);
+	snprintf(to, sizeof to, "%s/report-previous-%s.pdf", tmp, stamp);
+	in = fopen(from, "rb");
+	out = in ? fopen(to, "wbx") : NULL;
+	while (in && out && ok && (n = fread(buf, 1, sizeof buf, in)) > 0)
+		ok = fwrite(buf, 1, n, out) == n;
+	ok = ok && in && out && !ferror(in);
+	if (in)
+		fclose(in);
+	if (out && fclose(out) != 0)
+		ok = 0;
+	if (!ok) {
+		fprintf(stderr, "opwin report: %s: cannot keep the previous "
+			"report as %s\n", from, to);
+		return CLI_OUTPUT;
+	}
+	fprintf(stderr, "opwin report: the previous report.pdf is kept as "
+		"report-previous-%s.pdf\n", stamp);
+	return CLI_OK;
+}
+
 /* The drawings are made in a copy of the folder's data that then
  * replaces the folder whole, so an interrupted report leaves it as it was
  * and its manifest always matches. */
@@ -70,8 +110,10 @@ static int render_folder(const struct ow_study *s, const struct ow_grid *g,
 
 	if (!rc) {
 		st = ow_mapdir_copy_data(dir, od.tmp, &d);
-		rc = st == OW_OK ? cli_render("report", s, g, w, r, od.tmp)
+		rc = st == OW_OK ? keep_previous_report(dir, od.tmp)
 				 : cli_fail("report", st, &d);
+		if (!rc)
+			rc = cli_render("report", s, g, w, r, od.tmp);
 	}
 	return cli_outdir_finish("report", &od, rc);
 }
@@ -100,7 +142,8 @@ static int redraw(const struct ow_units *u, const char *dir,
 		r->rep.n_profile = centre.n_rows;
 	}
 	rc = st != OW_OK ? cli_fail("report", st, &d)
-			 : cli_render_current("report", u, r, c->units);
+			 : cli_render_current("report", u, r, c->units,
+					      s->own_units);
 	r->jobs = c->jobs;
 	if (!rc)
 		rc = render_folder(s, g, w, r, dir);

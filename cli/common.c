@@ -144,10 +144,26 @@ void cli_today(char *buf, size_t n)
 	strftime(buf, n, "%Y-%m-%d", &tm);
 }
 
+void cli_make_parents(const char *dir)
+{
+	char p[OW_PATH_LEN];
+	char *s;
+
+	if (snprintf(p, sizeof p, "%s", dir) >= (int)sizeof p)
+		return;
+	for (s = p + 1; *s; s++)
+		if (*s == '/') {
+			*s = '\0';
+			(void)mkdir(p, 0777);
+			*s = '/';
+		}
+}
+
 int cli_make_dir(const char *cmd, const char *dir)
 {
 	struct stat st;
 
+	cli_make_parents(dir);
 	if ((mkdir(dir, 0777) == 0 || errno == EEXIST) &&
 	    stat(dir, &st) == 0 && S_ISDIR(st.st_mode))
 		return CLI_OK;

@@ -27,8 +27,10 @@ static void note_signal(int sig)
 int cli_outdir_check(const char *cmd, const char *dir)
 {
 	struct ow_diag d = {{0}};
-	enum ow_status st = ow_mapdir_check_target(dir, &d);
+	enum ow_status st;
 
+	cli_make_parents(dir); /* -o out/demo with no out/ yet */
+	st = ow_mapdir_check_target(dir, &d);
 	return st == OW_OK ? CLI_OK : cli_fail(cmd, st, &d);
 }
 
@@ -65,7 +67,7 @@ int cli_outdir_finish(const char *cmd, struct cli_outdir *o, int rc)
 	struct ow_diag d = {{0}};
 	char left[OW_PATH_LEN + 32];
 	enum ow_status st = OW_OK;
-	int k, sig;
+	int k, sig, placed = 0;
 
 	if (!rc && !pending_signal && o->tmp[0]) {
 		st = ow_mapdir_seal(o->tmp, &d);
@@ -74,6 +76,7 @@ int cli_outdir_finish(const char *cmd, struct cli_outdir *o, int rc)
 					       sizeof left, &d);
 		if (st == OW_OK) {
 			o->tmp[0] = '\0'; /* in place: tmp was the old one */
+			placed = 1;
 			if (left[0])
 				fprintf(stderr, "opwin %s: the previous %s "
 					"held files that could not be moved "
@@ -90,7 +93,9 @@ int cli_outdir_finish(const char *cmd, struct cli_outdir *o, int rc)
 				"outputs went into %s, now removed)\n",
 				cmd, o->dir, o->tmp);
 	}
-	sig = pending_signal;
+	/* a signal that came once the new folder was in place finds the
+	 * run complete: nothing is undone, so the run ends normally */
+	sig = placed ? 0 : pending_signal;
 	for (k = 0; k < N_CAUGHT; k++)
 		sigaction(caught[k], &o->saved[k], NULL);
 	if (sig) /* end as the signal would have, now that nothing is left */

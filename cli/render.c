@@ -22,6 +22,25 @@ enum ow_status cli_read_value(const struct ow_units *u, const char *text,
 	return ow_units_parse(u, text, dim, 0.0, si, d);
 }
 
+void cli_note_value(const char *cmd, const char *option, const char *text,
+		    enum ow_dim dim, enum ow_unit_system study, double si)
+{
+	double x;
+	int bare = ow_units_parse_number(text, &x, NULL) == OW_OK;
+	enum ow_unit_system other = study == OW_SYS_US ? OW_SYS_SI : OW_SYS_US;
+
+	fprintf(stderr, "opwin %s: %s %s read as %g %s (%g %s)%s\n", cmd,
+		option, text, ow_display_value(study, dim, si),
+		ow_display_label(study, dim), ow_display_value(other, dim, si),
+		ow_display_label(other, dim),
+		bare ? study == OW_SYS_US
+			       ? ": a bare number is in the study's own "
+				 "units, US"
+			       : ": a bare number is in the study's own "
+				 "units, SI"
+		     : "");
+}
+
 void cli_render_init(struct cli_render *r)
 {
 	memset(r, 0, sizeof *r);
@@ -66,7 +85,8 @@ int cli_render_option(const char *cmd, struct cli_render *r, int id,
 }
 
 int cli_render_current(const char *cmd, const struct ow_units *u,
-		       struct cli_render *r, enum ow_unit_system sys)
+		       struct cli_render *r, enum ow_unit_system sys,
+		       enum ow_unit_system study)
 {
 	char buf[128], *comma;
 	struct ow_diag d = {{0}};
@@ -81,13 +101,15 @@ int cli_render_current(const char *cmd, const struct ow_units *u,
 		return cli_usage_error(cmd, "--current takes RPM,SET (e.g. "
 					    "60,205)");
 	*comma = '\0';
-	st = cli_read_value(u, buf, OW_DIM_ROT_SPEED, sys,
+	st = cli_read_value(u, buf, OW_DIM_ROT_SPEED, study,
 			    &r->rep.current_rpm, &d);
 	if (st == OW_OK)
-		st = cli_read_value(u, comma + 1, OW_DIM_TEMPERATURE, sys,
+		st = cli_read_value(u, comma + 1, OW_DIM_TEMPERATURE, study,
 				    &r->rep.current_set_K, &d);
 	if (st != OW_OK)
 		return cli_usage_error(cmd, d.msg);
+	cli_note_value(cmd, "--current set-point", comma + 1,
+		       OW_DIM_TEMPERATURE, study, r->rep.current_set_K);
 	r->rep.has_current = 1;
 	return CLI_OK;
 }

@@ -7,19 +7,36 @@
 #include "ow_classify.h"
 
 #include <math.h>
+#include <stddef.h>
 
 #define TEMP_SCALE_K 50.0
 
 static const char *const keys[] = {
-#define OW_CHECK_KEY(id, key, text) key,
+#define OW_CHECK_KEY(id, key, text, kind) key,
 	OW_CHECK_LIST(OW_CHECK_KEY)
 #undef OW_CHECK_KEY
 };
 
 static const char *const texts[] = {
-#define OW_CHECK_TEXT(id, key, text) text,
+#define OW_CHECK_TEXT(id, key, text, kind) text,
 	OW_CHECK_LIST(OW_CHECK_TEXT)
 #undef OW_CHECK_TEXT
+};
+
+static const char *const failures[] = {
+#define OW_CHECK_FAIL(id, key, text, kind) text OW_CK_FAIL_##kind,
+	OW_CHECK_LIST(OW_CHECK_FAIL)
+#undef OW_CHECK_FAIL
+};
+
+#define OW_CK_REL_MAX "at most"
+#define OW_CK_REL_MIN "at least"
+#define OW_CK_REL_FLAG NULL
+
+static const char *const relations[] = {
+#define OW_CHECK_REL(id, key, text, kind) OW_CK_REL_##kind,
+	OW_CHECK_LIST(OW_CHECK_REL)
+#undef OW_CHECK_REL
 };
 
 const char *ow_check_key(enum ow_check c)
@@ -30,6 +47,16 @@ const char *ow_check_key(enum ow_check c)
 const char *ow_check_text(enum ow_check c)
 {
 	return c < OW_CK_COUNT ? texts[c] : "?";
+}
+
+const char *ow_check_failure(enum ow_check c)
+{
+	return c < OW_CK_COUNT ? failures[c] : "?";
+}
+
+const char *ow_check_relation(enum ow_check c)
+{
+	return c < OW_CK_COUNT ? relations[c] : NULL;
 }
 
 double ow_check_limit(const struct ow_limits *l, enum ow_check c)

@@ -33,7 +33,9 @@ static enum ow_status axes_differ(const struct ow_study *a,
 	return ow_diag_set(d, OW_EINPUT,
 	                   "%s and %s: %s differs (A: %s, B: %s): compare "
 	                   "solves both studies on one lattice, so their "
-	                   "sweeps must be equal",
+	                   "sweeps must be equal: give both studies the same "
+	                   "sweep (to compare resins at their own set-points, "
+	                   "use sweep.barrel.mode \"shift\" in both)",
 	                   a->path, b->path, field, va, vb);
 }
 
@@ -51,29 +53,42 @@ static enum ow_status num_field(const struct ow_study *a,
 	return axes_differ(a, b, field, va, vb, d);
 }
 
-/* The reference zone's absolute set-point at both ends of the axis: with
- * mode shift it depends on each study's own last zone. */
-static enum ow_status reference_zone(const struct ow_study *a,
-                                     const struct ow_study *b,
-                                     struct ow_diag *d)
+/* Do the reference zone's absolute set-points differ at the ends of the
+ * axis? (Only with mode shift, which adds to each study's own zones.) */
+static int references_differ(const struct ow_study *a,
+                             const struct ow_study *b)
 {
 	const struct ow_axes *x = &a->line.axes;
-	char field[64];
-	int za = ow_line_reference_zone(&a->line);
-	double ta = ow_sweep_set_ref(a, x->axis_from);
-	double tb = ow_sweep_set_ref(b, x->axis_from);
 
-	if (same(ta, tb) && same(ow_sweep_set_ref(a, x->axis_to),
-	                         ow_sweep_set_ref(b, x->axis_to)))
-		return OW_OK;
-	snprintf(field, sizeof field,
-	         "barrel.zones[%d].set (the reference "
-	         "zone of the set-point axis)",
-	         za);
-	return num_field(
-	    a, b, field, C_OF_K(a->line.zones[za].set_K),
-	    C_OF_K(b->line.zones[ow_line_reference_zone(&b->line)].set_K),
-	    "degC", d);
+	return !same(ow_sweep_set_ref(a, x->axis_from),
+	             ow_sweep_set_ref(b, x->axis_from)) ||
+	       !same(ow_sweep_set_ref(a, x->axis_to),
+	             ow_sweep_set_ref(b, x->axis_to));
+}
+
+char *ow_compare_alignment(const struct ow_compare *cmp,
+                           enum ow_unit_system sys, char *buf, size_t n)
+{
+	const struct ow_study *a = cmp->study[0], *b = cmp->study[1];
+	int za = ow_line_reference_zone(&a->line);
+	int zb = ow_line_reference_zone(&b->line);
+	const char *u = ow_display_label(sys, OW_DIM_TEMPERATURE);
+
+	if (!cmp->by_shift) {
+		snprintf(buf, n, "both cases at the same barrel set-points");
+		return buf;
+	}
+	snprintf(buf, n,
+	         "each case at its own barrel set-points, every zone shifted "
+	         "by the same amount (A: zone %d at %.0f %s, B: zone %d at "
+	         "%.0f %s before the shift)",
+	         za + 1, ow_display_value(sys, OW_DIM_TEMPERATURE,
+	                                  a->line.zones[za].set_K),
+	         u, zb + 1,
+	         ow_display_value(sys, OW_DIM_TEMPERATURE,
+	                          b->line.zones[zb].set_K),
+	         u);
+	return buf;
 }
 
 static enum ow_status barrel_axis(const struct ow_study *a,
@@ -101,7 +116,7 @@ static enum ow_status barrel_axis(const struct ow_study *a,
 	if (st == OW_OK && x->mode == OW_AXIS_ZONE)
 		st = num_field(a, b, "sweep.barrel.zone", x->zone + 1,
 		               y->zone + 1, "", d);
-	return st == OW_OK ? reference_zone(a, b, d) : st;
+	return st;
 }
 
 enum ow_status ow_compare_check_axes(const struct ow_study *a,
@@ -408,6 +423,7 @@ enum ow_status ow_compare_run(const struct ow_study *a,
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	cmp->study[0] = a;
 	cmp->study[1] = b;
+	cmp->by_shift = references_differ(a, b);
 	st = sweep_both(cmp, c, d);
 	for (k = 0; k < 2 && st == OW_OK; k++)
 		st = common_window(cmp, k, d);

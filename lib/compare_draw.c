@@ -117,6 +117,18 @@ static void fields_free(struct fields *fs)
 	free(fs->z);
 }
 
+/* The map's vertical coordinate of barrel axis value `axis`: the shift in
+ * temperature difference units when the two cases are aligned on the
+ * shift from their own set-points, else the reference zone's set-point
+ * (equal in both cases then). */
+static double y_axis(const struct ow_compare *cmp, enum ow_unit_system u,
+                     double axis)
+{
+	if (cmp->by_shift)
+		return ow_display_value(u, OW_DIM_TEMP_DIFF, axis);
+	return shown_temp(u, ow_sweep_set_ref(cmp->study[0], axis));
+}
+
 static enum ow_status fields_make(const struct ow_compare *cmp,
                                   enum ow_unit_system u, struct fields *fs,
                                   struct ow_diag *d)
@@ -137,8 +149,7 @@ static enum ow_status fields_make(const struct ow_compare *cmp,
 	for (i = 0; i < cmp->n_rpm; i++)
 		fs->x[i] = ow_grid_at(cmp->grid[0], i, 0)->rpm;
 	for (i = 0; i < cmp->n_axis; i++)
-		fs->y[i] =
-		    shown_temp(u, ow_grid_at(cmp->grid[0], 0, i)->set_ref_K);
+		fs->y[i] = y_axis(cmp, u, ow_grid_at(cmp->grid[0], 0, i)->axis);
 	for (k = 0; k < 2; k++)
 		for (i = 0; i < (int)n; i++)
 			fs->e[k][i] = edge_value(&cmp->grid[k]->pts[i],
@@ -194,8 +205,8 @@ static const struct ow_boundary *edge_of(const struct ow_window *w)
 	return NULL;
 }
 
-/* Polyline l of study s in plot data (rpm, shown set-point). */
-static struct ow_pt2 *edge_points(const struct ow_study *s,
+/* Polyline l in plot data (rpm, the map's vertical coordinate). */
+static struct ow_pt2 *edge_points(const struct ow_compare *cmp,
                                   const struct ow_polyline *l,
                                   enum ow_unit_system u)
 {
@@ -203,9 +214,8 @@ static struct ow_pt2 *edge_points(const struct ow_study *s,
 	int i;
 
 	for (i = 0; q && i < l->n; i++)
-		q[i] = (struct ow_pt2){
-		    l->p[i].rpm,
-		    shown_temp(u, ow_sweep_set_ref(s, l->p[i].axis))};
+		q[i] = (struct ow_pt2){l->p[i].rpm,
+		                       y_axis(cmp, u, l->p[i].axis)};
 	return q;
 }
 
@@ -223,7 +233,7 @@ static void draw_edges(const struct ow_plot *p, const struct ow_compare *cmp,
 
 		for (l = 0; b && l < b->n_lines; l++) {
 			struct ow_pt2 *q =
-			    edge_points(cmp->study[k], &b->lines[l], u);
+			    edge_points(cmp, &b->lines[l], u);
 
 			if (!q)
 				continue;
@@ -234,24 +244,24 @@ static void draw_edges(const struct ow_plot *p, const struct ow_compare *cmp,
 	}
 }
 
-static void rect_of(const struct ow_plot *p, const struct ow_window *w,
-                    enum ow_unit_system u, double *x0, double *y0, double *x1,
-                    double *y1)
+static void rect_of(const struct ow_plot *p, const struct ow_compare *cmp,
+                    const struct ow_window *w, enum ow_unit_system u,
+                    double *x0, double *y0, double *x1, double *y1)
 {
 	*x0 = ow_plot_px(p, w->rpm_min);
 	*x1 = ow_plot_px(p, w->rpm_max);
-	*y0 = ow_plot_py(p, shown_temp(u, w->set_max_K));
-	*y1 = ow_plot_py(p, shown_temp(u, w->set_min_K));
+	*y0 = ow_plot_py(p, y_axis(cmp, u, w->axis_max));
+	*y1 = ow_plot_py(p, y_axis(cmp, u, w->axis_min));
 }
 
-static void draw_common(const struct ow_plot *p, const struct ow_window *w,
-                        enum ow_unit_system u)
+static void draw_common(const struct ow_plot *p, const struct ow_compare *cmp,
+                        const struct ow_window *w, enum ow_unit_system u)
 {
 	double x0, y0, x1, y1;
 
 	if (w->empty)
 		return;
-	rect_of(p, w, u, &x0, &y0, &x1, &y1);
+	rect_of(p, cmp, w, u, &x0, &y0, &x1, &y1);
 	ow_canvas_save(p->cv);
 	ow_canvas_set_dash(p->cv, NULL, 0);
 	ow_canvas_rect(p->cv, x0, y0, x1 - x0, y1 - y0);
@@ -271,7 +281,7 @@ static void draw_centres(const struct ow_plot *p, const struct ow_compare *cmp,
 	int k;
 
 	if (!c->empty)
-		ow_plot_marker(p, c->centre.rpm, shown_temp(u, c->centre_set_K),
+		ow_plot_marker(p, c->centre.rpm, y_axis(cmp, u, c->centre.axis),
 		               OW_MARK_DIAMOND, 15.0, ow_rgb(1, 1, 1),
 		               ow_rgb(0, 0, 0));
 	for (k = 0; k < 2; k++) {
@@ -279,7 +289,7 @@ static void draw_centres(const struct ow_plot *p, const struct ow_compare *cmp,
 
 		if (!w->empty)
 			ow_plot_marker(
-			    p, w->centre.rpm, shown_temp(u, w->centre_set_K),
+			    p, w->centre.rpm, y_axis(cmp, u, w->centre.axis),
 			    styles[k].marker, 8.0, ow_rgb(1, 1, 1), ink(k));
 	}
 }
@@ -397,7 +407,7 @@ static void label_edges(const struct ow_plot *p, const struct ow_compare *cmp,
 		for (l = -1; b && best >= 0 && l < b->n_lines && !placed; l++) {
 			int m = l < 0 ? best : l;
 			struct ow_pt2 *q =
-			    edge_points(cmp->study[k], &b->lines[m], o->units);
+			    edge_points(cmp, &b->lines[m], o->units);
 
 			if (q && b->lines[m].n > 1)
 				placed =
@@ -409,22 +419,25 @@ static void label_edges(const struct ow_plot *p, const struct ow_compare *cmp,
 
 /* "common window 20–68 rpm, 188–218 °C" by the rectangle's top-left
  * corner, inside when it fits, else above or below. */
-static void label_common(const struct ow_plot *p, const struct ow_window *w,
-                         enum ow_unit_system u, struct taken *t)
+static void label_common(const struct ow_plot *p, const struct ow_compare *cmp,
+                         const struct ow_window *w, enum ow_unit_system u,
+                         struct taken *t)
 {
 	char a[64], b[64], text[160];
 	double f = p->font_pt, x0, y0, x1, y1, tw, h = 1.4 * f, bx, by;
 
 	if (w->empty)
 		return;
-	rect_of(p, w, u, &x0, &y0, &x1, &y1);
+	rect_of(p, cmp, w, u, &x0, &y0, &x1, &y1);
 	snprintf(text, sizeof text, "common window %s rpm, %s %s",
 	         ow_compare_format_range(a, sizeof a, w->rpm_min, w->rpm_max,
 	                                 OW_REPORT_RPM_DECIMALS),
-	         ow_compare_format_range(
-	             b, sizeof b, shown_temp(u, w->set_min_K),
-	             shown_temp(u, w->set_max_K), OW_REPORT_TEMP_DECIMALS),
-	         ow_display_label(u, OW_DIM_TEMPERATURE));
+	         ow_compare_format_range(b, sizeof b,
+	                                 y_axis(cmp, u, w->axis_min),
+	                                 y_axis(cmp, u, w->axis_max),
+	                                 OW_REPORT_TEMP_DECIMALS),
+	         ow_display_label(u, cmp->by_shift ? OW_DIM_TEMP_DIFF
+	                                           : OW_DIM_TEMPERATURE));
 	ow_canvas_set_font(p->cv, f, 1);
 	tw = ow_canvas_text_width(p->cv, text) + 0.6 * f;
 	bx = fmax(p->area.x, fmin(x0 + 4.0, p->area.x + p->area.w - tw));
@@ -569,11 +582,13 @@ static enum ow_status layout(struct ow_canvas *cv, const struct ow_rect *box,
 	         ow_display_label(o->units, OW_DIM_TEMPERATURE));
 	ly->x = (struct ow_plot_axis){ax->rpm_from, ax->rpm_to,
 	                              "screw speed (rpm)", 0, 9};
-	ly->y = (struct ow_plot_axis){
-	    shown_temp(o->units,
-	               ow_sweep_set_ref(cmp->study[0], ax->axis_from)),
-	    shown_temp(o->units, ow_sweep_set_ref(cmp->study[0], ax->axis_to)),
-	    ly->ytitle, 0, 0};
+	if (cmp->by_shift)
+		snprintf(ly->ytitle, sizeof ly->ytitle,
+		         "every zone shifted from its case's own set-point (%s)",
+		         ow_display_label(o->units, OW_DIM_TEMP_DIFF));
+	ly->y = (struct ow_plot_axis){y_axis(cmp, o->units, ax->axis_from),
+	                              y_axis(cmp, o->units, ax->axis_to),
+	                              ly->ytitle, 0, 0};
 	if (ow_plot_init(&ly->p, cv, &inner, &ly->x, &ly->y, f, lw + 0.8 * f) !=
 	    OW_OK)
 		return ow_diag_set(d, OW_EARG,
@@ -596,9 +611,9 @@ static enum ow_status draw_body(const struct ow_plot *p,
 	if (st != OW_OK)
 		return st;
 	draw_edges(p, cmp, o->units);
-	draw_common(p, cmp->common[0], o->units);
+	draw_common(p, cmp, cmp->common[0], o->units);
 	draw_centres(p, cmp, o->units);
-	label_common(p, cmp->common[0], o->units, &t);
+	label_common(p, cmp, cmp->common[0], o->units, &t);
 	label_edges(p, cmp, o, &t);
 	return OW_OK;
 }
@@ -623,7 +638,7 @@ static double only_notes(struct ow_canvas *cv, double x, double y,
 	y += 1.4 * f;
 	ow_canvas_set_font(cv, f, 0);
 	ow_canvas_set_colour(cv, ow_rgb(0.12, 0.12, 0.12));
-	snprintf(line, sizeof line, "there %s exceeds:", label_of(o, 1 - k));
+	snprintf(line, sizeof line, "there %s fails:", label_of(o, 1 - k));
 	ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
 	y += 1.3 * f;
 	for (c = 0; c < OW_CK_COUNT; c++) {

@@ -218,6 +218,7 @@ static cJSON *point_obj(const struct ow_compare *cmp,
 	o = cJSON_CreateObject();
 	ok = o && put_num(o, "rpm", p->rpm);
 	ok = ok && put_num(o, "axis_value", p->axis);
+	ok = ok && put_num(o, "barrel_setting_K", p->axis);
 	for (k = 0; ok && k < 2; k++) {
 		c = cJSON_AddObjectToObject(o, case_key[k]);
 		ok = c && add_figures(c, cmp->study[k], &p->pt[k], &p->v[k],
@@ -306,6 +307,15 @@ enum ow_status ow_compare_json(const struct ow_compare *cmp, char **out,
 		ok = cJSON_AddItemToObject(r, case_key[k],
 		                           case_window(cmp, k, d));
 	ok = ok && cJSON_AddItemToObject(r, "common", common_window(cmp, d));
+	ok = ok && cJSON_AddBoolToObject(r, "aligned_on_shift", cmp->by_shift);
+	{
+		char how[320];
+
+		ok = ok && cJSON_AddStringToObject(
+		               r, "alignment",
+		               ow_compare_alignment(cmp, OW_SYS_SI, how,
+		                                    sizeof how));
+	}
 	ok = ok && cJSON_AddItemToObject(r, "differences", differences(cmp));
 	ok = ok && cJSON_AddItemToObject(r, "inputs", inputs(cmp));
 	if (ok)
@@ -329,7 +339,7 @@ static void csv_head(struct ow_text *t)
 			ow_text_add(t, ow_results_figure_key(f));
 			ow_text_add(t, k ? "_b" : "_a");
 		}
-	ow_text_add(t, ",status_a,status_b\n");
+	ow_text_add(t, ",barrel_setting_K,set_b_C,status_a,status_b\n");
 }
 
 enum ow_status ow_compare_csv(const struct ow_compare *cmp, char **out,
@@ -354,6 +364,8 @@ enum ow_status ow_compare_csv(const struct ow_compare *cmp, char **out,
 				            ow_results_figure(cmp->study[k],
 				                              &p[k]->pt, f),
 				            1);
+		ow_text_num(&t, p[0]->axis, 1); /* barrel_setting_K */
+		ow_text_num(&t, C_OF_K(p[1]->set_ref_K), 1); /* set_b_C */
 		ow_text_status(&t, &p[0]->v);
 		ow_text_status(&t, &p[1]->v);
 		ow_text_add(&t, "\n");

@@ -59,6 +59,12 @@ static void line_as_is(struct cpdf *r, const char *text, double after)
 /* ---- title block ----------------------------------------------------------
  */
 
+/* A title block entry, or the line to fill it in by hand. */
+static const char *filled(const char *v, const char *blank)
+{
+	return v && *v ? v : blank;
+}
+
 static void title_block(struct cpdf *r)
 {
 	const struct ow_compare *c = r->cmp;
@@ -106,9 +112,11 @@ static void title_block(struct cpdf *r)
 	cells[2] = c->study[1]->resin.name;
 	rpt_table_row(&r->doc, &t, cells, 0);
 	snprintf(line, sizeof line,
-	         "Date %s      Revision ________      "
-	         "Prepared by ______________      Approved by ______________",
-	         r->o->date);
+	         "Date %s      Revision %s      Prepared by %s      "
+	         "Approved by %s",
+	         r->o->date, filled(r->o->revision, "________"),
+	         filled(r->o->prepared_by, "______________"),
+	         filled(r->o->approved_by, "______________"));
 	r->doc.y += 6.0;
 	line_as_is(r, line, 4.0);
 }
@@ -198,13 +206,25 @@ static void windows(struct cpdf *r)
 	window_row(r, &t, "common", c->common[0], both);
 	r->doc.y += 4.0;
 	para(r,
-	     "Each window is the largest rectangle of grid points at "
-	     "which every limit of that study is met. The common window "
-	     "is the largest rectangle of points safe in both cases, and "
-	     "its centre the point of it farthest from any point unsafe "
-	     "in either: the setting to start from when the line must "
-	     "run either case.",
+	     "Each window is the largest rectangle in which every limit of "
+	     "that study is met, its bounds placed where a limit is crossed "
+	     "between the solved points and rounded inwards to whole rpm and "
+	     "whole degrees, as in the single report. The common window is "
+	     "the largest rectangle safe in both cases, and its centre the "
+	     "setting of it farthest from the edge of either window: the "
+	     "setting to start from when the line must run either case.",
 	     RPT_BODY_PT, 0, 4.0);
+	{
+		char how[320], text[400];
+
+		snprintf(text, sizeof text, "Barrel set-points: %s.%s",
+		         ow_compare_alignment(c, r->o->units, how, sizeof how),
+		         c->by_shift ? " The map's vertical axis is that shift; "
+		                       "the common window's set-points are "
+		                       "case A's."
+		                     : "");
+		para(r, text, RPT_BODY_PT, 0, 4.0);
+	}
 }
 
 /* The overlay map at full column width. */
@@ -247,7 +267,7 @@ static void limit_list(const int *counts, char *buf, size_t n)
 	snprintf(buf, n, "%s", m ? "" : "none");
 	for (c = 0; c < m; c++)
 		snprintf(buf + strlen(buf), n - strlen(buf), "%s%s (%d points)",
-		         c ? ", " : "", ow_check_text(order[c]),
+		         c ? ", " : "", ow_check_failure(order[c]),
 		         counts[order[c]]);
 }
 
@@ -369,6 +389,11 @@ static void centre_table(struct cpdf *r, int at)
 	             rpt_shown(&r->doc, OW_DIM_TEMPERATURE, p->set_ref_K[0]),
 	             OW_REPORT_TEMP_DECIMALS + 1, OW_ROUND_NEAREST),
 	         rpt_unit(&r->doc, OW_DIM_TEMPERATURE));
+	if (r->cmp->by_shift)
+		snprintf(title + strlen(title), sizeof title - strlen(title),
+		         " (%s at %.0f %s)", label(r, 1),
+		         rpt_shown(&r->doc, OW_DIM_TEMPERATURE, p->set_ref_K[1]),
+		         rpt_unit(&r->doc, OW_DIM_TEMPERATURE));
 	rpt_need(&r->doc, 12.0 * RPT_SMALL_PT * RPT_LINE + 20.0);
 	para(r, title, RPT_BODY_PT + 1.0, 1, 3.0);
 	rpt_table_head(&r->doc, &t);
@@ -548,7 +573,12 @@ enum ow_status ow_compare_write_pdf(const struct ow_compare *cmp,
 	         "Comparison: %s and %s   ·   %s   ·   "
 	         "opwin %s",
 	         label(&r, 0), label(&r, 1), o->date, OW_VERSION);
-	if (rpt_open(&r.doc, "compare.pdf", OW_PAPER_A4, o->date) == OW_OK) {
+	snprintf(r.doc.foot_line, sizeof r.doc.foot_line,
+	         "inputs CRC-32: %s %08lX, %s %08lX", label(&r, 0),
+	         cmp->study[0]->input_crc, label(&r, 1),
+	         cmp->study[1]->input_crc);
+	if (rpt_open(&r.doc, "compare.pdf", (enum ow_paper)o->paper,
+	             o->date) == OW_OK) {
 		/* a blue-grey header; shaded rows (the differences) in
 		 * amber; tight rows, so both inputs take few pages */
 		r.doc.head_fill = ow_rgb(0.86, 0.88, 0.91);

@@ -926,6 +926,25 @@ static enum ow_status load_parts(const struct ow_jin *j, const cJSON *o,
 	return st;
 }
 
+/* The unit system the study is written in, read from its first barrel
+ * zone's set-point: US when in degrees Fahrenheit ("400 degF", "400 °F"),
+ * else SI. (Bare numbers on the command line are read in it.) */
+static enum ow_unit_system study_units(const cJSON *o)
+{
+	const cJSON *b = cJSON_GetObjectItemCaseSensitive(o, "barrel");
+	const cJSON *z = cJSON_GetArrayItem(
+		cJSON_GetObjectItemCaseSensitive(b, "zones"), 0);
+	const cJSON *set = cJSON_GetObjectItemCaseSensitive(z, "set");
+	const char *t;
+
+	if (cJSON_IsObject(set))
+		set = cJSON_GetObjectItemCaseSensitive(set, "value");
+	t = cJSON_IsString(set) ? set->valuestring : "";
+	return strstr(t, "degF") || strstr(t, "°F") || strstr(t, "deg_F")
+		       ? OW_SYS_US
+		       : OW_SYS_SI;
+}
+
 static enum ow_status parse_study(const struct ow_jin *j, const cJSON *o,
 				  struct ow_study *s)
 {
@@ -945,6 +964,7 @@ static enum ow_status parse_study(const struct ow_jin *j, const cJSON *o,
 		st = load_parts(j, o, s);
 	if (st == OW_OK)
 		st = parse_line(j, o, s->screw.diameter_m, &s->line);
+	s->own_units = study_units(o);
 	if (st == OW_OK)
 		st = checked(ow_line_validate(&s->line,
 					      ow_screw_length(&s->screw), &tmp),

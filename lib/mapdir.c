@@ -140,7 +140,7 @@ static enum ow_status study_text(const struct ow_study *s, char **out,
 	return st;
 }
 
-/* ---- lattice.json ------------------------------------------------------ */
+/* ---- points-si.json ------------------------------------------------------ */
 
 /* Status bits of lattice row ia as hex digits, BIT_DIGITS per point. */
 static char *status_row(const struct ow_grid *g, int ia)
@@ -309,15 +309,15 @@ enum ow_status ow_mapdir_save(const struct ow_study *s, const struct ow_grid *g,
 		st = md_points_csv(g, s->line.n_zones, &pts, d);
 	if (st == OW_OK && has_profile)
 		st = ow_results_profile_csv(s, rows, n_rows, &prof, d);
-	/* lattice.json last: it marks a complete folder */
+	/* points-si.json last: it marks a complete folder */
 	if (st == OW_OK)
 		st = put(dir, "study.json", study, d);
 	if (st == OW_OK)
-		st = put(dir, "lattice.csv", pts, d);
+		st = put(dir, MD_POINTS_CSV, pts, d);
 	if (st == OW_OK && has_profile)
 		st = put(dir, "profile.csv", prof, d);
 	if (st == OW_OK)
-		st = put(dir, "lattice.json", lat, d);
+		st = put(dir, MD_POINTS_JSON, lat, d);
 	free(study);
 	free(lat);
 	free(pts);
@@ -570,7 +570,24 @@ static enum ow_status check_dir(const char *dir, struct ow_diag *d)
 	return OW_OK;
 }
 
-/* The lattice of lattice.json and lattice.csv, points as the sweep left
+/* File `name`, or `old` in a folder written before that name. */
+static enum ow_status read_either(const char *dir, const char *name,
+                                  const char *old, char *path, char **text,
+                                  struct ow_diag *d)
+{
+	char missing[96];
+	struct stat sb;
+	enum ow_status st = md_path(path, OW_PATH_LEN + 32, dir, name, d);
+
+	if (st == OW_OK && stat(path, &sb) != 0 &&
+	    md_path(path, OW_PATH_LEN + 32, dir, old, d) == OW_OK &&
+	    stat(path, &sb) == 0)
+		name = old;
+	snprintf(missing, sizeof missing, "%s is missing", name);
+	return st == OW_OK ? read_in(dir, name, path, text, missing, d) : st;
+}
+
+/* The lattice of points-si.json and points-si.csv, points as the sweep left
  * them. */
 static enum ow_status load_lattice(const struct lattice_doc *L, const char *dir,
                                    const struct ow_study *s,
@@ -585,14 +602,14 @@ static enum ow_status load_lattice(const struct lattice_doc *L, const char *dir,
 	if (st == OW_OK)
 		st = lattice_status(L, *out);
 	if (st == OW_OK)
-		st = read_in(dir, "lattice.csv", path, &text,
-		             "lattice.csv is missing", d);
+		st = read_either(dir, MD_POINTS_CSV, MD_OLD_POINTS_CSV, path,
+		                 &text, d);
 	if (st == OW_OK)
 		st = md_points_read(text, path, s->line.n_zones, *out,
 		                    &n_solved, d);
 	if (st == OW_OK && n_solved != (*out)->solves)
 		st = ow_diag_set(d, OW_EINPUT,
-		                 "%s: %d points, lattice.json "
+		                 "%s: %d points, points-si.json "
 		                 "says %d were solved",
 		                 path, n_solved, (*out)->solves);
 	free(text);
@@ -703,8 +720,8 @@ enum ow_status ow_mapdir_load(const struct ow_units *u, const char *dir,
 		memset(centre, 0, sizeof *centre);
 	st = check_dir(dir, d);
 	if (st == OW_OK)
-		st = read_in(dir, "lattice.json", path, &text,
-		             "lattice.json is missing", d);
+		st = read_either(dir, MD_POINTS_JSON, MD_OLD_POINTS_JSON, path,
+		                 &text, d);
 	if (st == OW_OK && !(doc = cJSON_Parse(text)))
 		st = ow_diag_set(d, OW_EINPUT, "%s: not a JSON text", path);
 	L.o = doc;

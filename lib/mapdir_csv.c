@@ -1,4 +1,4 @@
-/* mapdir_csv.c - the text side of a map folder: lattice.csv (every solved
+/* mapdir_csv.c - the text side of a map folder: points-si.csv (every solved
  * point in SI, exact) and reading profile.csv back. */
 #include "mapdir_impl.h"
 
@@ -73,7 +73,7 @@ enum ow_status md_path(char *out, size_t n, const char *dir, const char *name,
 	return OW_OK;
 }
 
-/* ---- lattice.csv -------------------------------------------------------- */
+/* ---- points-si.csv -------------------------------------------------------- */
 
 /* The figures of struct ow_point kept, by name (the CSV header). */
 #define FIELD(f)                                                               \
@@ -139,7 +139,8 @@ static void points_header(struct ow_buf *t, int n_zones)
 {
 	int k;
 
-	md_add(t, "ir,ia,bits,flags,n_iter");
+	md_add(t, "rpm_index,barrel_index,failed_checks_bitmask,"
+	          "solver_flags_bitmask,iterations");
 	for (k = 0; k < OW_CK_LIMITS; k++)
 		md_addf(t, ",margin_%s", ow_check_key((enum ow_check)k));
 	for (k = 0; k < N_FIELDS; k++)
@@ -281,7 +282,7 @@ static enum ow_status point_read(char **c, const char *file, int line,
 	if (p->v.bits != (unsigned)bits)
 		return bad(d, file, line,
 		           "status bits differ from those in "
-		           "lattice.json");
+		           "points-si.json");
 	p->solved = 1;
 	p->v.bits = (unsigned)bits;
 	p->pt.flags = (unsigned)flags;

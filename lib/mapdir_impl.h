@@ -1,6 +1,6 @@
 /* mapdir_impl.h - internals of the map folder module (not public): a
  * growing text buffer, whole-file reading (both ow_io.h), folder paths, exact number
- * texts, and the lattice.csv writer and reader. */
+ * texts, and the points-si.csv writer and reader. */
 #ifndef OW_MAPDIR_IMPL_H
 #define OW_MAPDIR_IMPL_H
 
@@ -9,8 +9,17 @@
 #include "ow_io.h"
 #include "ow_mapdir.h"
 
+/* The files `opwin report` reads back: every solved point in SI base
+ * units (beside grid.csv, which is in the trade's units), and the grid's
+ * description. Folders written before these names used the old ones,
+ * still read. */
+#define MD_POINTS_CSV      "points-si.csv"
+#define MD_POINTS_JSON     "points-si.json"
+#define MD_OLD_POINTS_CSV  "lattice.csv"
+#define MD_OLD_POINTS_JSON "lattice.json"
+
 /* Largest map folder file read back (a 1000 x 1000 lattice refined
- * twice is some hundreds of MB of lattice.csv). */
+ * twice is some hundreds of MB of points-si.csv). */
 #define MD_MAX_FILE_BYTES ((size_t)1 << 30)
 
 /* Appending to a growing text (struct ow_buf, ow_io.h). */
@@ -36,12 +45,12 @@ int md_n_fields(void);
 const char *md_field_name(int k);
 double *md_field(struct ow_point *p, int k);
 
-/* lattice.csv: one row per solved point (indices, bits, flags, margins,
+/* points-si.csv: one row per solved point (indices, bits, flags, margins,
  * figures in SI). n_zones columns of set-points and zone heats. */
 enum ow_status md_points_csv(const struct ow_grid *g, int n_zones, char **out,
                              struct ow_diag *d);
 
-/* Read lattice.csv text (named file in messages) into the solved points
+/* Read points-si.csv text (named file in messages) into the solved points
  * of g (lattice already sized, rpm and axis set); *n_solved counts rows. */
 enum ow_status md_points_read(char *text, const char *file, int n_zones,
                               struct ow_grid *g, int *n_solved,

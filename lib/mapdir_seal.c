@@ -23,6 +23,7 @@ static int is_output_name(const char *name)
 	static const char *const fixed[] = {
 		MANIFEST,      "grid.csv",    "window.json", "report.pdf",
 		"study.json",  "lattice.json", "lattice.csv", "profile.csv",
+		"points-si.json", "points-si.csv",
 		"window.png",  "window.svg",  "profile.png", "profile.svg"};
 	size_t i, n = strlen(name);
 
@@ -212,7 +213,10 @@ enum ow_status ow_mapdir_check_target(const char *dir, struct ow_diag *d)
 	if (md_path(path, sizeof path, dir, MANIFEST, d) == OW_OK &&
 	    stat(path, &sb) == 0 && S_ISREG(sb.st_mode))
 		return OW_OK;
-	if (md_path(path, sizeof path, dir, "lattice.json", d) == OW_OK &&
+	if (md_path(path, sizeof path, dir, MD_POINTS_JSON, d) == OW_OK &&
+	    stat(path, &sb) == 0 && S_ISREG(sb.st_mode))
+		return OW_OK;
+	if (md_path(path, sizeof path, dir, MD_OLD_POINTS_JSON, d) == OW_OK &&
 	    stat(path, &sb) == 0 && S_ISREG(sb.st_mode))
 		return OW_OK;
 	return ow_diag_set(d, OW_EIO,

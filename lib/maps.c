@@ -28,8 +28,8 @@ double maps_font(const struct ow_maps_options *o)
 }
 
 static const char *const fig_file[OW_MAP_COUNT] = {
-    "map-peak-temp", "map-unmelt", "map-pressure", "map-output", "map-sec",
-    "map-zone-load"};
+    "map-peak-temp", "map-unmelted-solids", "map-pressure", "map-output",
+    "map-specific-energy", "map-zone-load"};
 static const char *const fig_title[OW_MAP_COUNT] = {
     "Peak melt temperature", "Unmelted solids at discharge",
     "Highest pressure on the screw", "Throughput", "Specific energy (drive)",
@@ -108,13 +108,13 @@ char *maps_limit_text(const struct ow_study *s, int check,
 		enum ow_dim dim;
 	} lim[OW_CK_LIMITS] = {
 	    [OW_CK_PEAK_TEMP] = {"peak melt", OW_DIM_TEMPERATURE},
-	    [OW_CK_UNMELT] = {"unmelt", OW_DIM_NONE},
+	    [OW_CK_UNMELT] = {"unmelted", OW_DIM_NONE},
 	    [OW_CK_PRESSURE] = {"pressure", OW_DIM_PRESSURE},
 	    [OW_CK_POWER] = {"power", OW_DIM_POWER},
 	    [OW_CK_TORQUE] = {"torque", OW_DIM_TORQUE},
-	    [OW_CK_MIN_MELT_TEMP] = {"min. melt", OW_DIM_TEMPERATURE},
-	    [OW_CK_MIN_OUTPUT] = {"min. output", OW_DIM_MASS_FLOW},
-	    [OW_CK_MAX_OUTPUT] = {"max. output", OW_DIM_MASS_FLOW},
+	    [OW_CK_MIN_MELT_TEMP] = {"melt at discharge", OW_DIM_TEMPERATURE},
+	    [OW_CK_MIN_OUTPUT] = {"throughput", OW_DIM_MASS_FLOW},
+	    [OW_CK_MAX_OUTPUT] = {"throughput", OW_DIM_MASS_FLOW},
 	    [OW_CK_MAX_SBR] = {"solid bed ratio", OW_DIM_NONE},
 	    [OW_CK_ZONE_CONTROL] = {"zone load", OW_DIM_NONE},
 	};
@@ -125,7 +125,7 @@ char *maps_limit_text(const struct ow_study *s, int check,
 	if (check == OW_CK_PLUGGING)
 		return snprintf(buf, n, "plugging"), buf;
 	if (check == OW_CK_FEED)
-		return snprintf(buf, n, "feed-limited"), buf;
+		return snprintf(buf, n, "starved feed"), buf;
 	if (check == OW_CK_PARTIAL_FILL)
 		return snprintf(buf, n, "partly filled"), buf;
 	if (check == OW_CK_NOCONV || check < 0 || check >= OW_CK_LIMITS)
@@ -319,6 +319,34 @@ void maps_draw_rectangle(const struct ow_plot *p, const struct ow_study *s,
 	ow_canvas_set_line_width(p->cv, width_pt);
 	ow_canvas_rect(p->cv, x0, y1, x1 - x0, y0 - y1);
 	ow_canvas_stroke(p->cv);
+	maps_mark_sweep_edges(p, w, x0, x1, y0, y1, width_pt);
+	ow_canvas_restore(p->cv);
+}
+
+/* Sides of the rectangle on the sweep's edge (no limit there): white gaps
+ * cut into the black line, so they read dashed in colour and grey. */
+void maps_mark_sweep_edges(const struct ow_plot *p, const struct ow_window *w,
+                           double x0, double x1, double y0, double y1,
+                           double width_pt)
+{
+	static const double dash[2] = {4.0, 4.0};
+	const double side[OW_WB_COUNT][4] = {{x0, y0, x0, y1},
+	                                     {x1, y0, x1, y1},
+	                                     {x0, y0, x1, y0},
+	                                     {x0, y1, x1, y1}};
+	int k;
+
+	ow_canvas_save(p->cv);
+	ow_canvas_set_colour(p->cv, ow_rgb(1, 1, 1));
+	ow_canvas_set_line_width(p->cv, 0.7 * width_pt);
+	ow_canvas_set_dash(p->cv, dash, 2);
+	for (k = 0; k < OW_WB_COUNT; k++) {
+		if (w->bound[k].check != OW_WINDOW_SWEEP_EDGE)
+			continue;
+		ow_canvas_move_to(p->cv, side[k][0], side[k][1]);
+		ow_canvas_line_to(p->cv, side[k][2], side[k][3]);
+		ow_canvas_stroke(p->cv);
+	}
 	ow_canvas_restore(p->cv);
 }
 
@@ -371,24 +399,30 @@ static void point_label(const struct ow_plot *p, double bx, double by, double w,
 	ow_canvas_restore(p->cv);
 }
 
-/* A marked point with a label beside it: at the first of four corners
- * that lies inside the plot and clear of other labels; failing that, the
- * first inside the plot; failing that, pushed inside. */
+/* A marked point with a label beside it: at the first of eight places
+ * (the four corners, then the same a line further out) that lies inside
+ * the plot and clear of other labels and markers; failing that, the first
+ * inside the plot; failing that, pushed inside. The marker is taken too,
+ * so a later label does not cover it. */
 static void mark_point(const struct ow_plot *p, double x, double y,
                        enum ow_marker m, const char *text,
                        struct maps_labels *taken)
 {
-	static const double off[4][2] = {{1, -1}, {1, 1}, {-1, -1}, {-1, 1}};
+	static const double off[8][3] = {{1, -1, 0}, {1, 1, 0}, {-1, -1, 0},
+	                                 {-1, 1, 0}, {1, -1, 1}, {1, 1, 1},
+	                                 {-1, -1, 1}, {-1, 1, 1}};
 	double X = ow_plot_px(p, x), Y = ow_plot_py(p, y), f = p->font_pt;
-	double w, h = 1.3 * f, bx[4], by[4];
+	double w, h = 1.3 * f, bx[8], by[8];
 	int k, pick = -1, inside = -1;
 
 	ow_plot_marker(p, x, y, m, 9.0, ow_rgb(1, 1, 1), ow_rgb(0, 0, 0));
 	ow_canvas_set_font(p->cv, 0.95 * f, 1);
 	w = ow_canvas_text_width(p->cv, text) + 0.6 * f;
-	for (k = 0; k < 4 && pick < 0; k++) {
+	for (k = 0; k < 8 && pick < 0; k++) {
+		double far = off[k][2] * 1.2 * h;
+
 		bx[k] = off[k][0] > 0 ? X + 6.0 : X - 6.0 - w;
-		by[k] = off[k][1] < 0 ? Y - 6.0 - h : Y + 6.0;
+		by[k] = off[k][1] < 0 ? Y - 6.0 - h - far : Y + 6.0 + far;
 		if (bx[k] < p->area.x || bx[k] + w > p->area.x + p->area.w ||
 		    by[k] < p->area.y || by[k] + h > p->area.y + p->area.h)
 			continue;
@@ -406,6 +440,7 @@ static void mark_point(const struct ow_plot *p, double x, double y,
 	}
 	point_label(p, bx[pick], by[pick], w, h, text);
 	maps_labels_take(taken, bx[pick], by[pick], bx[pick] + w, by[pick] + h);
+	maps_labels_take(taken, X - 5.0, Y - 5.0, X + 5.0, Y + 5.0);
 }
 
 static void point_text(char *buf, size_t n, const char *what, double rpm,
@@ -438,16 +473,65 @@ void maps_draw_points(const struct ow_plot *p, const struct ow_study *s,
 	if (o->has_current && isfinite(o->current_rpm) &&
 	    isfinite(o->current_set_K)) {
 		double y = maps_temp(o->units, o->current_set_K);
+		double x = o->current_rpm;
+		double x0 = fmin(p->x0, p->x1), x1 = fmax(p->x0, p->x1);
+		double y0 = fmin(p->y0, p->y1), y1 = fmax(p->y0, p->y1);
+		int off = x < x0 || x > x1 || y < y0 || y > y1;
 
-		point_text(buf, sizeof buf, "current", o->current_rpm, y,
-		           o->units);
+		point_text(buf, sizeof buf, "current", x, y, o->units);
 		if (brief)
 			snprintf(buf, sizeof buf, "current");
-		mark_point(p, o->current_rpm, y, OW_MARK_TRIANGLE, buf, taken);
+		if (off) /* drawn on the frame, said so: nothing known there */
+			strncat(buf, " (outside the map)",
+			        sizeof buf - strlen(buf) - 1);
+		mark_point(p, fmin(x1, fmax(x0, x)), fmin(y1, fmax(y0, y)),
+		           OW_MARK_TRIANGLE, buf, taken);
 	}
 }
 
 /* --- frames ----------------------------------------------------------- */
+
+/* The title on one line when it fits; else on two smaller lines broken
+ * between words (the second shortened only when even that is too long),
+ * so a long study title is not cut. */
+static void title_lines(struct ow_canvas *cv, const struct ow_rect *box,
+                        const char *title, double font_pt)
+{
+	double x = box->x + 0.8 * font_pt, w = box->w - 1.6 * font_pt;
+	char line[320], rest[320];
+	size_t cut = 0, k;
+
+	ow_canvas_set_font(cv, 1.25 * font_pt, 1);
+	if (ow_canvas_text_width(cv, title) <= w) {
+		ow_canvas_text(cv, x, box->y + 0.8 * font_pt, title,
+		               OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+		return;
+	}
+	ow_canvas_set_font(cv, 0.9 * font_pt, 1);
+	snprintf(line, sizeof line, "%s", title);
+	for (k = 1; line[k]; k++) { /* the longest first line that fits */
+		char c = line[k];
+
+		if (c != ' ')
+			continue;
+		line[k] = '\0';
+		if (ow_canvas_text_width(cv, line) <= w)
+			cut = k;
+		line[k] = c;
+	}
+	if (!cut) { /* one long word: shorten it */
+		ow_canvas_text(cv, x, box->y + 0.8 * font_pt,
+		               maps_fit_text(cv, title, w, rest, sizeof rest),
+		               OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+		return;
+	}
+	line[cut] = '\0';
+	ow_canvas_text(cv, x, box->y + 0.45 * font_pt, line, OW_ALIGN_LEFT,
+	               OW_VALIGN_TOP, 0);
+	ow_canvas_text(cv, x, box->y + 1.45 * font_pt,
+	               maps_fit_text(cv, title + cut + 1, w, rest, sizeof rest),
+	               OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+}
 
 void maps_paper(struct ow_canvas *cv, const struct ow_rect *box,
                 const char *title, const char *subtitle, double font_pt)
@@ -459,11 +543,7 @@ void maps_paper(struct ow_canvas *cv, const struct ow_rect *box,
 	ow_canvas_set_colour(cv, ow_rgb(1, 1, 1));
 	ow_canvas_fill(cv);
 	ow_canvas_set_colour(cv, ow_rgb(0.1, 0.1, 0.1));
-	ow_canvas_set_font(cv, 1.25 * font_pt, 1);
-	ow_canvas_text(cv, box->x + 0.8 * font_pt, box->y + 0.8 * font_pt,
-	               maps_fit_text(cv, title ? title : "",
-	                             box->w - 1.6 * font_pt, buf, sizeof buf),
-	               OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+	title_lines(cv, box, title ? title : "", font_pt);
 	if (subtitle) {
 		ow_canvas_set_font(cv, 0.95 * font_pt, 0);
 		ow_canvas_set_colour(cv, ow_rgb(0.3, 0.3, 0.3));

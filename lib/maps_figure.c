@@ -311,7 +311,7 @@ static void subtitle_of(enum ow_map_figure f, const struct ow_study *s,
 	snprintf(buf, n,
 	         "%sDashed black: edge of the safe region. Box: "
 	         "recommended window.",
-	         lim ? "Dashed red: the limit. " : "");
+	         lim ? "Bold dashed line with its value: the limit. " : "");
 }
 
 static enum ow_status draw_body(const struct ow_plot *p,

@@ -63,6 +63,12 @@ void maps_labels_take(struct maps_labels *l, double x0, double y0, double x1,
 
 /* The window's recommended rectangle (width_pt; bold on the window map,
  * thin on the figure maps) and, when thin, its safe-region edge. */
+/* Sides of the window's rectangle (plot coordinates x0..x1, y0 bottom of
+ * the lowest set-point, y1 the highest) that lie on the sweep's edge,
+ * marked dashed: they are no limit. */
+void maps_mark_sweep_edges(const struct ow_plot *p, const struct ow_window *w,
+                           double x0, double x1, double y0, double y1,
+                           double width_pt);
 void maps_draw_rectangle(const struct ow_plot *p, const struct ow_study *s,
                          const struct ow_window *w, enum ow_unit_system u,
                          double width_pt);

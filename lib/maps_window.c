@@ -59,6 +59,34 @@ static const struct group *group_of(int c)
 	}
 }
 
+/* Each check its own hatch direction and line style, so two limits of one
+ * colour group stay apart on a map, also printed in grey. */
+static double angle_of(int c)
+{
+	static const double deg[OW_CK_COUNT] = {
+	    [OW_CK_PEAK_TEMP] = 45.0,     [OW_CK_UNMELT] = 135.0,
+	    [OW_CK_PRESSURE] = 90.0,      [OW_CK_POWER] = 0.0,
+	    [OW_CK_TORQUE] = 22.5,        [OW_CK_MIN_MELT_TEMP] = 157.5,
+	    [OW_CK_MIN_OUTPUT] = 67.5,    [OW_CK_MAX_OUTPUT] = 112.5,
+	    [OW_CK_MAX_SBR] = 30.0,       [OW_CK_ZONE_CONTROL] = 150.0,
+	    [OW_CK_PLUGGING] = 120.0,     [OW_CK_FEED] = 60.0,
+	    [OW_CK_PARTIAL_FILL] = 75.0,  [OW_CK_NOCONV] = 105.0};
+
+	return c >= 0 && c < OW_CK_COUNT ? deg[c] : group_of(c)->angle_deg;
+}
+
+static enum ow_dash_style dash_of(int c)
+{
+	static const enum ow_dash_style alt[4] = {
+	    OW_DASH_DOTTED, OW_DASH_LONG, OW_DASH_DASH_DOT, OW_DASH_DASHED};
+	const struct group *g = group_of(c);
+	int k, nth = 0;
+
+	for (k = 0; k < c; k++) /* how many earlier checks share its group */
+		nth += group_of(k) == g;
+	return nth == 0 ? g->dash : alt[(nth - 1 + (int)(g - groups)) % 4];
+}
+
 static struct ow_rgba ink_of(int c)
 {
 	const struct group *g = group_of(c);
@@ -70,7 +98,7 @@ static struct ow_hatch hatch_of(int c)
 {
 	struct ow_hatch h;
 
-	h.angle_deg = group_of(c)->angle_deg;
+	h.angle_deg = angle_of(c);
 	h.spacing_pt = 5.0;
 	h.width_pt = 0.6;
 	h.colour = ow_rgba_with_alpha(ink_of(c), 0.75);
@@ -135,7 +163,7 @@ static void boundary_lines(const struct ow_plot *p, const struct ow_study *s,
 		const struct ow_boundary *bd = boundary_of(w, c);
 		struct ow_line_style halo = {ow_rgb(1, 1, 1), 3.4,
 		                             OW_DASH_SOLID, OW_MARK_NONE};
-		struct ow_line_style ln = {ink_of(c), 1.6, group_of(c)->dash,
+		struct ow_line_style ln = {ink_of(c), 1.6, dash_of(c),
 		                           OW_MARK_NONE};
 
 		if (!bd || !shown(s, w, c))
@@ -239,16 +267,20 @@ static void label_boundary(const struct ow_plot *p, const struct ow_study *s,
 }
 
 /* "recommended 40–90 rpm, 190–215 °C" inside the rectangle's top-left
- * corner if it fits there, else just above or below it. */
+ * corner if it fits there, else just above or below it; a second line
+ * when a side lies on the sweep's edge. */
 static void label_rectangle(const struct ow_plot *p, const struct ow_window *w,
                             enum ow_unit_system u, struct maps_labels *taken)
 {
+	static const char note[] = "dashed side: edge of the sweep, not a "
+	                           "limit: widen the sweep";
 	char a[32], b[32], c[32], e[32], text[160];
 	double f = p->font_pt, x0 = ow_plot_px(p, w->rpm_min);
 	double x1 = ow_plot_px(p, w->rpm_max);
 	double yt = ow_plot_py(p, maps_temp(u, w->set_max_K));
 	double yb = ow_plot_py(p, maps_temp(u, w->set_min_K));
-	double tw, h = 1.35 * f, bx, by;
+	int lines = w->at_sweep_edge ? 2 : 1;
+	double tw, h = 1.35 * f * lines, bx, by;
 
 	snprintf(text, sizeof text, "recommended %s–%s rpm, %s–%s %s",
 	         maps_num(a, sizeof a, w->rpm_min),
@@ -258,6 +290,10 @@ static void label_rectangle(const struct ow_plot *p, const struct ow_window *w,
 	         ow_display_label(u, OW_DIM_TEMPERATURE));
 	ow_canvas_set_font(p->cv, f, 1);
 	tw = ow_canvas_text_width(p->cv, text) + 0.6 * f;
+	if (lines == 2) {
+		ow_canvas_set_font(p->cv, 0.85 * f, 0);
+		tw = fmax(tw, ow_canvas_text_width(p->cv, note) + 0.6 * f);
+	}
 	bx = fmin(x0 + 3.0, p->area.x + p->area.w - tw);
 	by = yt + 3.0;
 	if (tw > x1 - x0 - 6.0 || h > yb - yt - 6.0) {
@@ -270,8 +306,14 @@ static void label_rectangle(const struct ow_plot *p, const struct ow_window *w,
 	ow_canvas_set_colour(p->cv, ow_rgba_with_alpha(ow_rgb(1, 1, 1), 0.9));
 	ow_canvas_fill(p->cv);
 	ow_canvas_set_colour(p->cv, ow_rgb(0, 0, 0));
-	ow_canvas_text(p->cv, bx + 0.3 * f, by + 0.5 * h, text, OW_ALIGN_LEFT,
+	ow_canvas_set_font(p->cv, f, 1);
+	ow_canvas_text(p->cv, bx + 0.3 * f, by + 0.675 * f, text, OW_ALIGN_LEFT,
 	               OW_VALIGN_MIDDLE, 0);
+	if (lines == 2) {
+		ow_canvas_set_font(p->cv, 0.85 * f, 0);
+		ow_canvas_text(p->cv, bx + 0.3 * f, by + 2.025 * f, note,
+		               OW_ALIGN_LEFT, OW_VALIGN_MIDDLE, 0);
+	}
 	ow_canvas_restore(p->cv);
 	maps_labels_take(taken, bx, by, bx + tw, by + h);
 }
@@ -302,7 +344,7 @@ static int legend_entries(const struct ow_study *s, const struct ow_window *w,
 		e[n].hatch = &h[n];
 		e[n].line.colour = ink_of(c);
 		e[n].line.width_pt = 1.4;
-		e[n].line.dash = group_of(c)->dash;
+		e[n].line.dash = dash_of(c);
 		n++;
 	}
 	e[n].label = "safe: every limit met";
@@ -314,7 +356,13 @@ static int legend_entries(const struct ow_study *s, const struct ow_window *w,
 		e[n].label = "recommended window";
 		e[n].line.colour = ow_rgb(0, 0, 0);
 		e[n++].line.width_pt = 2.2;
-		e[n].label = "robust centre";
+		if (w->at_sweep_edge) {
+			e[n].label = "side on the sweep's edge: no limit";
+			e[n].line.colour = ow_rgb(0, 0, 0);
+			e[n].line.dash = OW_DASH_DASHED;
+			e[n++].line.width_pt = 2.2;
+		}
+		e[n].label = "centre point";
 		e[n].marker = OW_MARK_DIAMOND;
 		e[n++].line.colour = ow_rgb(0, 0, 0);
 	}

@@ -8,27 +8,37 @@
 #include "ow_line.h"
 #include "ow_solver.h"
 
-/* One X-macro list of every check: status bit order, names in outputs. */
+/* One X-macro list of every check: status bit order, key in outputs, the
+ * quantity or condition it judges in words, and its kind: MAX (a limit the
+ * quantity must stay at or below), MIN (at or above) or FLAG (a condition
+ * that is always unsafe). Every text people read is made from these by
+ * one phrasing per kind (ow_check_failure, ow_check_relation). */
 #define OW_CHECK_LIST(X)                                                 \
-	X(OW_CK_PEAK_TEMP, "peak_temp", "peak melt temperature")         \
-	X(OW_CK_UNMELT, "unmelt", "unmelted solids at discharge")        \
-	X(OW_CK_PRESSURE, "pressure", "pressure on the screw")           \
-	X(OW_CK_POWER, "power", "drive power")                           \
-	X(OW_CK_TORQUE, "torque", "drive torque")                        \
-	X(OW_CK_MIN_MELT_TEMP, "min_melt_temp", "melt temperature below " \
-						"minimum")                       \
-	X(OW_CK_MIN_OUTPUT, "min_output", "throughput below minimum")    \
-	X(OW_CK_MAX_OUTPUT, "max_output", "throughput above maximum")    \
-	X(OW_CK_MAX_SBR, "max_sbr", "solid bed ratio")                   \
-	X(OW_CK_ZONE_CONTROL, "zone_control", "zone cannot hold set-point") \
-	X(OW_CK_PLUGGING, "plugging", "solid bed plugging")              \
-	X(OW_CK_FEED, "feed_limited", "feed-limited (starved)")          \
-	X(OW_CK_PARTIAL_FILL, "partial_fill", "channel partly filled "   \
-						"(pressure below zero)")         \
-	X(OW_CK_NOCONV, "not_converged", "solution did not converge")
+	X(OW_CK_PEAK_TEMP, "peak_temp", "peak melt temperature", MAX)    \
+	X(OW_CK_UNMELT, "unmelt", "unmelted solids at discharge", MAX)   \
+	X(OW_CK_PRESSURE, "pressure", "pressure on the screw", MAX)      \
+	X(OW_CK_POWER, "power", "drive power", MAX)                      \
+	X(OW_CK_TORQUE, "torque", "drive torque", MAX)                   \
+	X(OW_CK_MIN_MELT_TEMP, "min_melt_temp",                          \
+	  "melt temperature at discharge", MIN)                          \
+	X(OW_CK_MIN_OUTPUT, "min_output", "throughput", MIN)             \
+	X(OW_CK_MAX_OUTPUT, "max_output", "throughput", MAX)             \
+	X(OW_CK_MAX_SBR, "max_sbr", "solid bed ratio", MAX)              \
+	X(OW_CK_ZONE_CONTROL, "zone_control",                            \
+	  "power a barrel zone needs to hold its set-point", MAX)        \
+	X(OW_CK_PLUGGING, "plugging", "solid bed plugging", FLAG)        \
+	X(OW_CK_FEED, "feed_limited", "starved feed", FLAG)              \
+	X(OW_CK_PARTIAL_FILL, "partial_fill",                            \
+	  "partial filling of the channel (pressure below zero)", FLAG)  \
+	X(OW_CK_NOCONV, "not_converged", "non-convergence", FLAG)
+
+/* The failure phrase of each kind, appended to the quantity's words. */
+#define OW_CK_FAIL_MAX " above its limit"
+#define OW_CK_FAIL_MIN " below its limit"
+#define OW_CK_FAIL_FLAG ""
 
 enum ow_check {
-#define OW_CHECK_ENUM(id, key, text) id,
+#define OW_CHECK_ENUM(id, key, text, kind) id,
 	OW_CHECK_LIST(OW_CHECK_ENUM)
 #undef OW_CHECK_ENUM
 	OW_CK_COUNT
@@ -47,9 +57,18 @@ struct ow_verdict {
 void ow_classify(const struct ow_point *pt, const struct ow_limits *lim,
 		 double screw_len_m, struct ow_verdict *v);
 
-/* Key ("peak_temp") and description of a check. */
+/* Key ("peak_temp") of a check, and what it judges in words ("peak melt
+ * temperature", "throughput", "solid bed plugging"). */
 const char *ow_check_key(enum ow_check c);
 const char *ow_check_text(enum ow_check c);
+
+/* A point failing check c in words: "peak melt temperature above its
+ * limit", "throughput below its limit", "solid bed plugging". */
+const char *ow_check_failure(enum ow_check c);
+
+/* How the quantity must relate to the limit: "at most" (MAX), "at least"
+ * (MIN); NULL for a flag. A limit reads "<text> <relation> <value>". */
+const char *ow_check_relation(enum ow_check c);
 
 /* Is the limit of check c set in lim? (flags are always "set") */
 int ow_check_active(const struct ow_limits *lim, enum ow_check c);

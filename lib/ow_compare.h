@@ -66,6 +66,11 @@ struct ow_compare {
 	 * and melt temperature ranges over the common rectangle. */
 	struct ow_grid *common_grid[2];
 	struct ow_window *common[2];
+	/* 1: the cases' reference set-points differ (mode shift): they are
+	 * aligned on the shift from each case's own set-points, the maps'
+	 * vertical axis is that shift, and each case's set-point ranges are
+	 * its own zones' (ow_compare_alignment says so in words). */
+	int by_shift;
 	unsigned char *cls;        /* [ia * n_rpm + ir]: ow_cmp_class */
 	int n_rpm, n_axis;         /* lattice size */
 	int count[OW_CMP_CLASSES]; /* lattice points per class */
@@ -76,12 +81,13 @@ struct ow_compare {
 };
 
 /* Refuse two studies that cannot share one lattice: the screw speed
- * range and steps, the barrel axis mode, range and steps, the zone(s) the
- * axis drives (mode set: zones_from; mode zone: zone), and the absolute
- * reference set-point at both ends of the axis (mode shift adds to each
- * study's own last zone) must be equal. Steps are not compared when the
- * sweep config c overrides them (--grid). OW_EINPUT with "<A file> and
- * <B file>: <field> differs (A: x, B: y): ..." naming the study field. */
+ * range and steps, the barrel axis mode, range and steps and the zone(s)
+ * the axis drives (mode set: zones_from; mode zone: zone) must be equal.
+ * Different set-points (two resins, each at its own) are accepted with
+ * mode shift: the cases are then aligned on the shift from their own
+ * set-points. Steps are not compared when the sweep config c overrides
+ * them (--grid). OW_EINPUT with "<A file> and <B file>: <field> differs
+ * (A: x, B: y): ..." naming the study field and what to change. */
 enum ow_status ow_compare_check_axes(const struct ow_study *a,
                                      const struct ow_study *b,
                                      const struct ow_sweep_config *c,
@@ -112,6 +118,13 @@ enum ow_status ow_compare_run(const struct ow_study *a,
                               const struct ow_sweep_config *c,
                               struct ow_compare **out, struct ow_diag *d);
 void ow_compare_destroy(struct ow_compare *cmp);
+
+/* How the two cases share the barrel axis, in words, into buf: with equal
+ * reference set-points "both cases at the same set-points"; aligned on
+ * the shift, "each case at its own set-points shifted by the same amount
+ * (A: zone 5 at 200 degC, B: 180 degC)" in system sys. Returns buf. */
+char *ow_compare_alignment(const struct ow_compare *cmp,
+                           enum ow_unit_system sys, char *buf, size_t n);
 
 /* Class of lattice point (ir, ia). */
 enum ow_cmp_class ow_compare_class_at(const struct ow_compare *cmp, int ir,
@@ -191,6 +204,10 @@ struct ow_compare_draw_options {
 	const char *label[2];      /* short case names ("A", "B"); NULL: A/B */
 	double font_pt;            /* 0: 9 pt */
 	const char *date;          /* PDF: "YYYY-MM-DD" (required there) */
+	/* PDF title block, as the single report's: NULL or "" leaves a
+	 * line to fill in by hand */
+	const char *revision, *prepared_by, *approved_by;
+	int paper;                 /* enum ow_paper; 0: A4 */
 };
 
 /* "lo–hi" of a window bound pair (already in display units) as the

@@ -41,6 +41,9 @@ struct ow_study {
 	struct ow_source sources[OW_MAX_SOURCES];
 	unsigned long input_crc; /* CRC-32 over the bytes of every input
 				    file read, in reading order */
+	enum ow_unit_system own_units; /* what the study is written in (its
+					  first zone's set-point): bare
+					  numbers on the command line */
 	struct ow_calibration calib; /* the calibration block; its factors
 					are applied to screw, resin and
 					line above */

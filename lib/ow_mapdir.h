@@ -6,18 +6,18 @@
  *                     objects (every {value, source} object kept): a
  *                     self-contained copy of the inputs that loads with
  *                     ow_config_load_study;
- *   DIR/lattice.json  the lattice (size, stride, solves, the rpm and
+ *   DIR/points-si.json the grid (size, stride, solves, the rpm and
  *                     barrel-axis values of every column and row, the
  *                     status bits of every lattice point), the input
  *                     files' names and their CRC-32, the order of the
  *                     status bits;
- *   DIR/lattice.csv   one row per solved point: lattice indices, status
+ *   DIR/points-si.csv  one row per solved point: lattice indices, status
  *                     bits, flags, signed margins and every figure of
  *                     struct ow_point in SI, 17 significant digits (exact
  *                     round trip; "nan" where a figure does not exist);
  *   DIR/profile.csv   the centre point's axial profile
  *                     (ow_results_profile_csv), absent when the window is
- *                     empty; its figures are in lattice.json ("centre").
+ *                     empty; its figures are in points-si.json ("centre").
  *   DIR/manifest.json every other file's size and CRC-32, written last
  *                     (ow_mapdir_seal): a folder without it, or whose
  *                     files do not match it, is not read back.
@@ -62,7 +62,7 @@ enum ow_status ow_mapdir_save(const struct ow_study *s, const struct ow_grid *g,
  * point into *centre (may be NULL when not wanted; free its rows with
  * ow_mapdir_centre_free). Re-extracting the window (ow_window_extract)
  * gives the window of the original run. OW_EINPUT when dir does not exist
- * or is not a map folder ("... is not a map folder: lattice.json is
+ * or is not a map folder ("... is not a map folder: points-si.json is
  * missing"), or a file in it is damaged (the message names the file and
  * the line or key); OW_ENOMEM. */
 enum ow_status ow_mapdir_load(const struct ow_units *u, const char *dir,

@@ -61,7 +61,7 @@ enum ow_status ow_report_paper_parse(const char *s, enum ow_paper *out);
 /* Decimals of the window table: screw speed to 0.1 rpm, set-points to
  * whole degrees (°C or °F), as drives and controllers are set. When the
  * inward rounding below would empty a range, that range gets one more. */
-#define OW_REPORT_RPM_DECIMALS  1
+#define OW_REPORT_RPM_DECIMALS  0
 #define OW_REPORT_TEMP_DECIMALS 0
 
 /* Which way a printed bound is rounded: towards the inside of the window,

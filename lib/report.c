@@ -263,9 +263,17 @@ static void save(struct rpt *r, const char *path)
 	    !r->hpdf_error) /* end of stream is reported as an error */
 		HPDF_ResetError(r->pdf);
 	rpt_check(r);
-	if (r->st == OW_OK)
-		r->st =
-		    ow_io_write_file(path, (const char *)buf, len, r->d);
+	{
+		unsigned char *p = buf;
+		size_t n = len;
+
+		if (r->st == OW_OK)
+			r->st = rpt_fix_to_unicode(&p, &n, r->d);
+		buf = p;
+		if (r->st == OW_OK)
+			r->st = ow_io_write_file(path, (const char *)buf, n,
+						 r->d);
+	}
 	free(buf);
 }
 

@@ -206,7 +206,6 @@ char *rpt_limit_text(struct rpt *r, enum ow_check c, char *buf, size_t n)
 	    OW_DIM_POWER,       OW_DIM_TORQUE,    OW_DIM_TEMPERATURE,
 	    OW_DIM_MASS_FLOW,   OW_DIM_MASS_FLOW, OW_DIM_NONE,
 	    OW_DIM_NONE};
-	int at_least = c == OW_CK_MIN_MELT_TEMP || c == OW_CK_MIN_OUTPUT;
 	double v = ow_check_limit(&r->s->line.limits, c);
 	char q[64];
 
@@ -221,11 +220,11 @@ char *rpt_limit_text(struct rpt *r, enum ow_check c, char *buf, size_t n)
 		rpt_qty(r, q, sizeof q, dims[c], v, 4);
 	}
 	if (c == OW_CK_ZONE_CONTROL) /* the limit is on the zone load */
-		snprintf(buf, n, "zone load ≤ %s of a zone's heating or "
-		         "cooling power", q);
+		snprintf(buf, n, "%s %s %s of its heating or cooling power",
+		         ow_check_text(c), ow_check_relation(c), q);
 	else
 		snprintf(buf, n, "%s %s %s", ow_check_text(c),
-		         at_least ? "≥" : "≤", q);
+		         ow_check_relation(c), q);
 	return buf;
 }
 
@@ -278,6 +277,67 @@ static const char *axis_words(const struct rpt *r, char *buf, size_t n)
 	return buf;
 }
 
+/* One row of the bounds table: which bound, its value as the window table
+ * prints it, what sets it and how finely it is located. */
+static void setter_row(struct rpt *r, const struct rpt_table *t,
+                       const char *what, const char *value,
+                       enum ow_window_side side)
+{
+	const struct ow_window_bound *b = &r->w->bound[side];
+	int rpm = side == OW_WB_RPM_MIN || side == OW_WB_RPM_MAX;
+	char why[300], lim[160], res[48];
+	const char *cells[4] = {what, value, why, res};
+
+	ow_window_setter_text(b->check, why, sizeof why);
+	if (b->check >= 0 && b->check < OW_CK_LIMITS) {
+		rpt_limit_text(r, (enum ow_check)b->check, lim, sizeof lim);
+		snprintf(why + strlen(why), sizeof why - strlen(why), " (%s)",
+		         lim);
+	}
+	if (b->check == OW_WINDOW_SWEEP_EDGE)
+		snprintf(res, sizeof res, "—");
+	else if (rpm)
+		snprintf(res, sizeof res, "%g rpm", b->resolution);
+	else
+		rpt_qty(r, res, sizeof res, OW_DIM_TEMP_DIFF, b->resolution, 2);
+	rpt_table_row(r, t, cells, b->check == OW_WINDOW_SWEEP_EDGE);
+}
+
+/* What sets each bound (shaded: the sweep's edge, not a limit) and, when
+ * the window touches the sweep's edge, the note saying so. */
+static void setters_table(struct rpt *r, const char (*v)[32],
+                          const char (*z)[32])
+{
+	struct rpt_table t = {4,
+	                      {"Bound", "Value", "Set by", "Located within"},
+	                      {0.27, 0.11, 0.46, 0.16},
+	                      {OW_ALIGN_LEFT, OW_ALIGN_RIGHT, OW_ALIGN_LEFT,
+	                       OW_ALIGN_RIGHT},
+	                      8.0,
+	                      0};
+	struct rpt_style st = rpt_body();
+	char a[160], b[160];
+	const char *T = rpt_unit(r, OW_DIM_TEMPERATURE);
+
+	r->y -= 2.0;
+	rpt_table_head(r, &t);
+	snprintf(a, sizeof a, "%s rpm", v[0]);
+	snprintf(b, sizeof b, "%s rpm", v[1]);
+	setter_row(r, &t, "Screw speed, lowest", a, OW_WB_RPM_MIN);
+	setter_row(r, &t, "Screw speed, highest", b, OW_WB_RPM_MAX);
+	snprintf(a, sizeof a, "%s %s", z[0], T);
+	snprintf(b, sizeof b, "%s %s", z[1], T);
+	setter_row(r, &t, "Map-axis set-point, lowest", a, OW_WB_SET_MIN);
+	setter_row(r, &t, "Map-axis set-point, highest", b, OW_WB_SET_MAX);
+	rpt_table_end(r);
+	if (!r->w->at_sweep_edge)
+		return;
+	st.bold = 1;
+	st.colour = ow_rgb(0.55, 0.05, 0.05);
+	st.size_pt = 8.0;
+	rpt_para(r, OW_WINDOW_SWEEP_EDGE_NOTE, &st, 2.0);
+}
+
 static void window_table(struct rpt *r)
 {
 	struct rpt_table t = {5,
@@ -289,7 +349,7 @@ static void window_table(struct rpt *r)
 	                      8.5,
 	                      0};
 	struct rpt_style st = rpt_body();
-	char v[3][32], text[700], ax[300];
+	char v[3][32], z[3][32], text[1100], ax[300];
 
 	rpt_heading(r, "Recommended operating window", 120.0);
 	r->y -= 4.0;
@@ -302,12 +362,18 @@ static void window_table(struct rpt *r)
 	t.first_bold = 0;
 	result_rows(r, &t);
 	rpt_table_end(r);
+	rpt_range(r, OW_DIM_TEMPERATURE, r->w->set_min_K, r->w->set_max_K,
+	          r->w->centre_set_K, OW_REPORT_TEMP_DECIMALS, z);
+	setters_table(r, (const char(*)[32])v, (const char(*)[32])z);
 	snprintf(text, sizeof text,
-	         "Every mapped point inside this window "
-	         "passes every limit (%.0f %% of the swept points do); the "
-	         "bounds are rounded towards its inside. Start at the centre "
-	         "point: of all points in the window it lies farthest from "
-	         "any point that fails. %s",
+	         "Every setting inside this window "
+	         "passes every limit (%.0f %% of the swept points do). Each "
+	         "bound is placed where the limit that sets it is crossed, "
+	         "found between the solved points, and rounded towards the "
+	         "inside to a whole rpm and a whole degree of the map-axis "
+	         "zone, so it does not depend on the grid of the map. Start "
+	         "at the centre point: of the whole-step settings in the "
+	         "window it lies farthest from the window's edge. %s",
 	         100.0 * r->w->safe_fraction, axis_words(r, ax, sizeof ax));
 	st.size_pt = 7.5;
 	rpt_para(r, text, &st, 2.0);
@@ -363,45 +429,41 @@ static void no_window(struct rpt *r)
 
 /* ---- the current operating point ---------------------------------------- */
 
-/* The lattice point nearest (rpm, set) in units of the sweep ranges. */
-static const struct ow_grid_point *nearest(const struct rpt *r, double rpm,
-                                           double set_K)
+/* The verdict at the current point from the margins interpolated between
+ * solved points (never a neighbour's), or that it lies off the map. */
+static void verdict_words(struct rpt *r, double rpm, double set_K, char *buf,
+                          size_t n)
 {
 	const struct ow_grid *g = r->g;
 	const struct ow_grid_point *a = &g->pts[0];
 	const struct ow_grid_point *b = &g->pts[g->n_rpm * g->n_axis - 1];
-	double sr = fabs(b->rpm - a->rpm),
-	       ss = fabs(b->set_ref_K - a->set_ref_K);
-	double best = INFINITY;
-	const struct ow_grid_point *near = NULL;
-	int i;
+	char x[3][32];
+	unsigned bits = 0;
+	int inside = 0, c, k = 0;
 
-	for (i = 0; i < g->n_rpm * g->n_axis; i++) {
-		const struct ow_grid_point *p = &g->pts[i];
-		double dx = (p->rpm - rpm) / (sr > 0 ? sr : 1.0);
-		double dy = (p->set_ref_K - set_K) / (ss > 0 ? ss : 1.0);
-
-		if (dx * dx + dy * dy < best) {
-			best = dx * dx + dy * dy;
-			near = p;
-		}
-	}
-	return near;
-}
-
-static void verdict_words(const struct ow_grid_point *p, char *buf, size_t n)
-{
-	int c, k = 0;
-
-	if (!p->v.bits) {
-		snprintf(buf, n, "the nearest mapped point passes every limit");
+	if (ow_window_verdict_at(r->s, g, rpm, set_K, &inside, &bits, r->d) !=
+	    OW_OK)
+		r->st = OW_ENOMEM;
+	if (!inside) {
+		rpt_range(r, OW_DIM_TEMPERATURE, a->set_ref_K, b->set_ref_K,
+		          a->set_ref_K, OW_REPORT_TEMP_DECIMALS, x);
+		snprintf(buf, n,
+		         "it lies outside the swept range (%.0f–%.0f rpm, "
+		         "%s–%s %s), where the map says nothing: widen the "
+		         "sweep to judge it",
+		         a->rpm, b->rpm, x[0], x[1],
+		         rpt_unit(r, OW_DIM_TEMPERATURE));
 		return;
 	}
-	snprintf(buf, n, "the nearest mapped point fails: ");
+	if (!bits) {
+		snprintf(buf, n, "it passes every limit there");
+		return;
+	}
+	snprintf(buf, n, "there it fails: ");
 	for (c = 0; c < OW_CK_COUNT; c++)
-		if (p->v.bits >> c & 1u) {
+		if (bits >> c & 1u) {
 			strncat(buf, k++ ? ", " : "", n - strlen(buf) - 1);
-			strncat(buf, ow_check_text((enum ow_check)c),
+			strncat(buf, ow_check_failure((enum ow_check)c),
 			        n - strlen(buf) - 1);
 		}
 }
@@ -420,7 +482,7 @@ static void current_point(struct rpt *r)
 	         o->current_rpm <= w->rpm_max + 1e-9 &&
 	         o->current_set_K >= w->set_min_K - 1e-9 &&
 	         o->current_set_K <= w->set_max_K + 1e-9;
-	verdict_words(nearest(r, o->current_rpm, o->current_set_K), verdict,
+	verdict_words(r, o->current_rpm, o->current_set_K, verdict,
 	              sizeof verdict);
 	rpt_exact(rpm, sizeof rpm, o->current_rpm);
 	rpt_exact(set, sizeof set,
@@ -445,12 +507,15 @@ static void window_map(struct rpt *r)
 
 	if (r->st != OW_OK)
 		return;
-	if (r->y1 - r->y - 4.0 < fmin(MAP_MIN_H, h))
+	if (r->y1 - r->y - 4.0 < fmin(MAP_MIN_H, h)) {
+		/* a page of its own: the map fills it, not a third of it */
 		rpt_new_page(r);
+		h = fmax(h, fmin(r->y1 - r->y - 4.0, 1.15 * w));
+	}
 	h = fmin(h, r->y1 - r->y - 4.0);
 	box.x = r->x0;
 	box.y = r->y + 4.0;
-	box.w = fmin(w, h * MAP_ASPECT * 1.08);
+	box.w = fmin(w, fmax(h, w / MAP_ASPECT) * MAP_ASPECT * 1.08);
 	box.x += (w - box.w) / 2.0;
 	box.h = h;
 	rpt_map_options(r, &mo);

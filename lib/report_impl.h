@@ -182,4 +182,11 @@ char *rpt_limit_text(struct rpt *r, enum ow_check c, char *buf, size_t n);
 /* "zone 5" style name of the reference zone ("zone 5 (24–30 D)"). */
 char *rpt_zone_name(const struct rpt *r, int z, char *buf, size_t n);
 
+/* Give the finished PDF in *buf (malloc'd, *len bytes) a valid ToUnicode
+ * map for its fonts by an incremental update (report_unicode.c); *buf
+ * may be reallocated. OW_ENOMEM leaves *buf holding the document as it
+ * was. */
+enum ow_status rpt_fix_to_unicode(unsigned char **buf, size_t *len,
+				  struct ow_diag *d);
+
 #endif

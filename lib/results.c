@@ -384,7 +384,8 @@ enum ow_status ow_results_grid_csv(const struct ow_study *s,
 		snprintf(h, sizeof h, ",zone_%d_demand_kW", f + 1);
 		ow_text_add(&t, h);
 	}
-	ow_text_add(&t, ",status\n");
+	/* the contract's leading columns stay first and status last */
+	ow_text_add(&t, ",barrel_setting_K,status\n");
 	for (i = 0; i < g->n_rpm * g->n_axis; i++) {
 		const struct ow_grid_point *p = &g->pts[i];
 
@@ -397,6 +398,7 @@ enum ow_status ow_results_grid_csv(const struct ow_study *s,
 			ow_text_num(&t, fig(s, &p->pt, f), 1);
 		for (f = 0; f < s->line.n_zones; f++)
 			ow_text_num(&t, p->pt.zone_demand_W[f] * 1e-3, 1);
+		ow_text_num(&t, p->axis, 1); /* barrel_setting_K */
 		ow_text_status(&t, &p->v);
 		ow_text_add(&t, "\n");
 	}
@@ -492,6 +494,58 @@ static int add_binding(cJSON *o, const struct ow_window *w)
 	return ok;
 }
 
+/* One bound: its value, what sets it (a check key or "sweep_edge") and in
+ * words, and how finely it is located (0 at the sweep's edge). */
+static int add_setter(cJSON *o, const char *key, const char *unit,
+		      const char *res_unit, double value,
+		      const struct ow_window_bound *b)
+{
+	cJSON *e = cJSON_AddObjectToObject(o, key);
+	char why[160], k[32];
+	int ok = e != NULL;
+
+	snprintf(k, sizeof k, "value_%s", unit);
+	ok = ok && put_num(e, k, value);
+	ok = ok && cJSON_AddStringToObject(e, "set_by",
+					   ow_window_setter_key(b->check));
+	ok = ok && cJSON_AddStringToObject(
+			   e, "reason",
+			   ow_window_setter_text(b->check, why, sizeof why));
+	ok = ok && cJSON_AddBoolToObject(e, "is_limit",
+					 b->check != OW_WINDOW_SWEEP_EDGE);
+	snprintf(k, sizeof k, "resolution_%s", res_unit);
+	ok = ok && put_num(e, k, b->resolution);
+	return ok;
+}
+
+/* "bounds": what sets each bound; "at_sweep_edge" and its note. */
+static int add_setters(cJSON *r, const struct ow_window *w)
+{
+	cJSON *o;
+	int ok;
+
+	if (w->empty)
+		return cJSON_AddNullToObject(r, "bounds") &&
+		       cJSON_AddBoolToObject(r, "at_sweep_edge", 0);
+	o = cJSON_AddObjectToObject(r, "bounds");
+	ok = o != NULL;
+	ok = ok && add_setter(o, "rpm_min", "rpm", "rpm", w->rpm_min,
+			      &w->bound[OW_WB_RPM_MIN]);
+	ok = ok && add_setter(o, "rpm_max", "rpm", "rpm", w->rpm_max,
+			      &w->bound[OW_WB_RPM_MAX]);
+	ok = ok && add_setter(o, "set_min_C", "C", "K", C_OF_K(w->set_min_K),
+			      &w->bound[OW_WB_SET_MIN]);
+	ok = ok && add_setter(o, "set_max_C", "C", "K", C_OF_K(w->set_max_K),
+			      &w->bound[OW_WB_SET_MAX]);
+	ok = ok && put_num(o, "rpm_step_rpm", w->rpm_step);
+	ok = ok && put_num(o, "set_step_K", w->temp_step_K);
+	ok = ok && cJSON_AddBoolToObject(r, "at_sweep_edge", w->at_sweep_edge);
+	if (ok && w->at_sweep_edge)
+		ok = cJSON_AddStringToObject(r, "sweep_edge_note",
+					     OW_WINDOW_SWEEP_EDGE_NOTE) != NULL;
+	return ok;
+}
+
 static int add_bounds(cJSON *r, const struct ow_window *w)
 {
 	int e = w->empty, ok = 1;
@@ -503,6 +557,8 @@ static int add_bounds(cJSON *r, const struct ow_window *w)
 	ok = ok && put_num(r, "set_max_C", e ? NAN : C_OF_K(w->set_max_K));
 	ok = ok && put_num(r, "axis_min", e ? NAN : w->axis_min);
 	ok = ok && put_num(r, "axis_max", e ? NAN : w->axis_max);
+	ok = ok && put_num(r, "barrel_setting_min_K", e ? NAN : w->axis_min);
+	ok = ok && put_num(r, "barrel_setting_max_K", e ? NAN : w->axis_max);
 	if (e) {
 		ok = ok && cJSON_AddNullToObject(r, "centre");
 	} else {
@@ -510,7 +566,9 @@ static int add_bounds(cJSON *r, const struct ow_window *w)
 		ok = ok && c && put_num(c, "rpm", w->centre.rpm);
 		ok = ok && put_num(c, "set_C", C_OF_K(w->centre_set_K));
 		ok = ok && put_num(c, "axis_value", w->centre.axis);
-		ok = ok && put_num(c, "clearance", w->centre_clearance);
+		ok = ok && put_num(c, "barrel_setting_K", w->centre.axis);
+		ok = ok && put_num(c, "distance_to_edge_fraction",
+				   w->centre_clearance);
 	}
 	ok = ok && put_num(r, "output_kg_h_min",
 			   e ? NAN : w->output_min_kg_s * 3600.0);
@@ -519,7 +577,7 @@ static int add_bounds(cJSON *r, const struct ow_window *w)
 	ok = ok && put_num(r, "melt_temp_C_min", e ? NAN : C_OF_K(w->melt_min_K));
 	ok = ok && put_num(r, "melt_temp_C_max", e ? NAN : C_OF_K(w->melt_max_K));
 	ok = ok && put_num(r, "peak_temp_C_max", e ? NAN : C_OF_K(w->peak_max_K));
-	return ok;
+	return ok && add_setters(r, w);
 }
 
 enum ow_status ow_results_window_json(const struct ow_study *s,
@@ -544,9 +602,11 @@ enum ow_status ow_results_window_json(const struct ow_study *s,
 			   ow_line_reference_zone(&s->line) + 1);
 	ok = ok && put_num(ax, "from", s->line.axes.axis_from);
 	ok = ok && put_num(ax, "to", s->line.axes.axis_to);
+	ok = ok && put_num(ax, "from_K", s->line.axes.axis_from);
+	ok = ok && put_num(ax, "to_K", s->line.axes.axis_to);
 	ok = ok && put_num(r, "solves", g->solves);
-	ok = ok && put_num(r, "lattice_rpm", g->n_rpm);
-	ok = ok && put_num(r, "lattice_axis", g->n_axis);
+	ok = ok && put_num(r, "grid_points_rpm", g->n_rpm);
+	ok = ok && put_num(r, "grid_points_barrel", g->n_axis);
 	ok = ok && add_binding(r, w);
 	ok = ok && add_boundaries(r, s, w);
 	if (ok)

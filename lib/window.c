@@ -1,106 +1,126 @@
-/* window.c - safe set, boundaries, recommended rectangle, robust centre. */
+/* window.c - safe set, boundaries, recommended rectangle and its centre. */
 #include "window_impl.h"
 
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
 
-static int safe_at(const struct ow_grid *g, int ir, int ia)
+/* Distance from (x, y) to segment p-q (normalised coordinates). */
+static double seg_dist(double x, double y, double px, double py, double qx,
+		       double qy)
 {
-	return ow_grid_at(g, ir, ia)->v.bits == 0;
+	double dx = qx - px, dy = qy - py, l2 = dx * dx + dy * dy;
+	double t = l2 > 0.0 ? ((x - px) * dx + (y - py) * dy) / l2 : 0.0;
+
+	t = fmin(1.0, fmax(0.0, t));
+	dx = px + t * dx - x;
+	dy = py + t * dy - y;
+	return sqrt(dx * dx + dy * dy);
 }
 
-/* Largest rectangle of safe lattice points by area in normalised units
- * (spans over the sweep ranges); ties keep the first found. For each pair
- * of rows the columns safe in all of them are AND-ed up, and the longest
- * run of such columns is the widest rectangle of that height. */
-static void largest_rectangle(const struct ow_grid *g, struct ow_window *w,
-			      unsigned char *col)
+struct norm {
+	double r0, rs, a0, as; /* sweep start and span, speed and axis */
+};
+
+/* Distance from (rpm, axis) to the window's edge (the interpolated line
+ * where points stop being safe) and to the edge of the sweep (unknown
+ * beyond), in units of the sweep ranges. */
+static double clearance(const struct ow_window *w, const struct norm *n,
+			double rpm, double axis)
 {
-	double best = -1.0;
-	int a0, a1, ir;
+	double x = (rpm - n->r0) / n->rs, y = (axis - n->a0) / n->as;
+	double dmin = fmin(fmin(x, 1.0 - x), fmin(y, 1.0 - y));
+	int b, l, i;
 
-	for (a0 = 0; a0 < g->n_axis; a0++) {
-		memset(col, 1, (size_t)g->n_rpm);
-		for (a1 = a0; a1 < g->n_axis; a1++) {
-			int run = 0;
+	for (b = 0; b < w->n_boundaries; b++) {
+		if (w->bounds[b].check != OW_WINDOW_EDGE)
+			continue;
+		for (l = 0; l < w->bounds[b].n_lines; l++) {
+			const struct ow_polyline *pl = &w->bounds[b].lines[l];
 
-			for (ir = 0; ir < g->n_rpm; ir++) {
-				double area;
-
-				col[ir] &= (unsigned char)safe_at(g, ir, a1);
-				run = col[ir] ? run + 1 : 0;
-				if (!run)
-					continue;
-				/* area, then point count to break ties */
-				area = (double)(run - 1) * (a1 - a0) +
-				       1e-9 * run * (a1 - a0 + 1);
-				if (area > best) {
-					best = area;
-					w->ir0 = ir - run + 1;
-					w->ir1 = ir;
-					w->ia0 = a0;
-					w->ia1 = a1;
-				}
-			}
+			for (i = 0; i + 1 < pl->n; i++)
+				dmin = fmin(dmin, seg_dist(
+					x, y, (pl->p[i].rpm - n->r0) / n->rs,
+					(pl->p[i].axis - n->a0) / n->as,
+					(pl->p[i + 1].rpm - n->r0) / n->rs,
+					(pl->p[i + 1].axis - n->a0) / n->as));
 		}
 	}
-	w->empty = best < 0.0;
+	return dmin;
 }
 
-/* Unsafe points with a safe neighbour: the only ones that can be nearest. */
-static int frontier(const struct ow_grid *g, int *list)
+/* Whole steps from lo to hi: the first value and how many; the midpoint
+ * alone when no whole step lies inside. */
+static int steps_in(double lo, double hi, double step, double offset,
+		    double *first)
 {
-	static const int nb[4][2] = {{1, 0}, {-1, 0}, {0, 1}, {0, -1}};
-	int n = 0, ir, ia, k;
+	double f = ceil((lo + offset) / step - 1e-9) * step - offset;
+	int n = (int)floor((hi - f) / step + 1e-9) + 1;
 
-	for (ia = 0; ia < g->n_axis; ia++)
-		for (ir = 0; ir < g->n_rpm; ir++) {
-			if (safe_at(g, ir, ia))
-				continue;
-			for (k = 0; k < 4; k++) {
-				int jr = ir + nb[k][0], ja = ia + nb[k][1];
-
-				if (jr >= 0 && ja >= 0 && jr < g->n_rpm &&
-				    ja < g->n_axis && safe_at(g, jr, ja)) {
-					list[n++] = ia * g->n_rpm + ir;
-					break;
-				}
-			}
-		}
+	if (n < 1) {
+		*first = 0.5 * (lo + hi);
+		return 1;
+	}
+	*first = f;
 	return n;
 }
 
-/* Robust centre: the rectangle's lattice point farthest from the nearest
- * unsafe point and from the edge of the sweep (unknown beyond), distances
- * in units of the sweep ranges. */
-static void robust_centre(const struct ow_grid *g, struct ow_window *w,
-			  int *list)
+/* Centre: the setting inside the rectangle, on whole rpm and whole
+ * set-point steps, farthest from the window's edge and from the edge of
+ * the sweep (first found on ties). */
+static void centre(const struct ow_study *s, const struct ow_grid *g,
+		   struct ow_window *w)
 {
-	double sx = 1.0 / (g->n_rpm - 1), sy = 1.0 / (g->n_axis - 1);
-	int n = frontier(g, list), ir, ia, k;
+	const struct ow_grid_point *p0 = ow_grid_at(g, 0, 0);
+	const struct ow_grid_point *p1 =
+		ow_grid_at(g, g->n_rpm - 1, g->n_axis - 1);
+	struct norm n = {p0->rpm, p1->rpm - p0->rpm, p0->axis,
+			 p1->axis - p0->axis};
+	double off = ow_sweep_set_ref(s, 0.0) - OW_ZERO_C_K, r0, a0;
+	int nr = steps_in(w->rpm_min, w->rpm_max, w->rpm_step, 0.0, &r0);
+	int na = steps_in(w->axis_min, w->axis_max, w->temp_step_K, off, &a0);
 	double best = -1.0;
+	int i, j;
 
-	for (ia = w->ia0; ia <= w->ia1; ia++)
-		for (ir = w->ir0; ir <= w->ir1; ir++) {
-			double x = ir * sx, y = ia * sy;
-			double dmin = fmin(fmin(x, 1.0 - x), fmin(y, 1.0 - y));
+	for (j = 0; j < na; j++)
+		for (i = 0; i < nr; i++) {
+			double rpm = r0 + i * w->rpm_step;
+			double axis = a0 + j * w->temp_step_K;
+			double c = clearance(w, &n, rpm, axis);
 
-			for (k = 0; k < n && dmin > best; k++) {
-				double dx = (list[k] % g->n_rpm) * sx - x;
-				double dy = (list[k] / g->n_rpm) * sy - y;
-
-				dmin = fmin(dmin, sqrt(dx * dx + dy * dy));
-			}
-			if (dmin > best) {
-				best = dmin;
-				w->centre.rpm = ow_grid_at(g, ir, ia)->rpm;
-				w->centre.axis = ow_grid_at(g, ir, ia)->axis;
-				w->centre_set_K =
-					ow_grid_at(g, ir, ia)->set_ref_K;
+			if (c > best) {
+				best = c;
+				w->centre.rpm = rpm;
+				w->centre.axis = axis;
 			}
 		}
+	w->centre_set_K = ow_sweep_set_ref(s, w->centre.axis);
 	w->centre_clearance = best;
+}
+
+/* Lattice index range of the points inside the rectangle (widened by half
+ * a lattice step when none lies inside). */
+static void inside(const struct ow_grid *g, struct ow_window *w)
+{
+	const struct ow_grid_point *p0 = ow_grid_at(g, 0, 0);
+	const struct ow_grid_point *p1 =
+		ow_grid_at(g, g->n_rpm - 1, g->n_axis - 1);
+	double dr = (p1->rpm - p0->rpm) / (g->n_rpm - 1);
+	double da = (p1->axis - p0->axis) / (g->n_axis - 1);
+	double tol;
+
+	for (tol = 1e-9; tol < 1.0; tol = 0.5) {
+		w->ir0 = (int)ceil((w->rpm_min - p0->rpm) / dr - tol);
+		w->ir1 = (int)floor((w->rpm_max - p0->rpm) / dr + tol);
+		w->ia0 = (int)ceil((w->axis_min - p0->axis) / da - tol);
+		w->ia1 = (int)floor((w->axis_max - p0->axis) / da + tol);
+		if (w->ir0 <= w->ir1 && w->ia0 <= w->ia1)
+			break;
+	}
+	w->ir0 = w->ir0 < 0 ? 0 : w->ir0;
+	w->ia0 = w->ia0 < 0 ? 0 : w->ia0;
+	w->ir1 = w->ir1 >= g->n_rpm ? g->n_rpm - 1 : w->ir1;
+	w->ia1 = w->ia1 >= g->n_axis ? g->n_axis - 1 : w->ia1;
 }
 
 static void ranges(const struct ow_study *s, const struct ow_grid *g,
@@ -149,6 +169,33 @@ static void counts(const struct ow_grid *g, struct ow_window *w)
 	w->safe_fraction = (double)safe / n;
 }
 
+const char *ow_window_setter_key(int check)
+{
+	return check == OW_WINDOW_SWEEP_EDGE ? "sweep_edge"
+					     : ow_check_key((enum ow_check)check);
+}
+
+char *ow_window_setter_text(int check, char *buf, size_t n)
+{
+	const char *parts[3] = {OW_WINDOW_SWEEP_EDGE_TEXT, "", ""};
+	const char *rel;
+	int k;
+
+	if (!n)
+		return buf;
+	if (check != OW_WINDOW_SWEEP_EDGE) {
+		rel = ow_check_relation((enum ow_check)check);
+		parts[0] = !rel ? "the onset of "
+				: (!strcmp(rel, "at most") ? "the upper limit on "
+							  : "the lower limit on ");
+		parts[1] = ow_check_text((enum ow_check)check);
+	}
+	buf[0] = '\0';
+	for (k = 0; k < 3; k++)
+		strncat(buf, parts[k], n - strlen(buf) - 1);
+	return buf;
+}
+
 int ow_window_binding(const struct ow_window *w, enum ow_check *order)
 {
 	int n = 0, c, i;
@@ -184,38 +231,33 @@ enum ow_status ow_window_extract(const struct ow_study *s,
 				 struct ow_window **out, struct ow_diag *d)
 {
 	struct ow_window *w = calloc(1, sizeof *w);
-	int *list = malloc(sizeof *list * (size_t)g->n_rpm * (size_t)g->n_axis);
-	unsigned char *col = malloc((size_t)g->n_rpm);
 	enum ow_status st = OW_OK;
 
 	*out = NULL;
-	if (!w || !list || !col) {
-		st = ow_diag_set(d, OW_ENOMEM, "out of memory");
-		goto fail;
-	}
+	if (!w)
+		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	counts(g, w);
-	largest_rectangle(g, w, col);
-	if (!w->empty) {
-		const struct ow_grid_point *a = ow_grid_at(g, w->ir0, w->ia0);
-		const struct ow_grid_point *b = ow_grid_at(g, w->ir1, w->ia1);
-
-		w->rpm_min = a->rpm;
-		w->rpm_max = b->rpm;
-		w->axis_min = a->axis;
-		w->axis_max = b->axis;
-		w->set_min_K = fmin(a->set_ref_K, b->set_ref_K);
-		w->set_max_K = fmax(a->set_ref_K, b->set_ref_K);
-		robust_centre(g, w, list);
-		ranges(s, g, w);
+	st = ow_window_locate(s, g, w, d);
+	if (st == OW_OK && !w->empty) {
+		w->rpm_min = w->bound[OW_WB_RPM_MIN].value;
+		w->rpm_max = w->bound[OW_WB_RPM_MAX].value;
+		w->axis_min = w->bound[OW_WB_SET_MIN].value;
+		w->axis_max = w->bound[OW_WB_SET_MAX].value;
+		w->set_min_K = ow_sweep_set_ref(s, w->axis_min);
+		w->set_max_K = ow_sweep_set_ref(s, w->axis_max);
+		inside(g, w);
 	}
-	st = ow_window_boundaries(s, g, w, d);
+	if (st == OW_OK)
+		st = ow_window_boundaries(s, g, w, d);
 	if (st != OW_OK)
 		goto fail;
+	if (!w->empty) {
+		centre(s, g, w);
+		ranges(s, g, w);
+	}
 	*out = w;
 	w = NULL;
 fail:
-	free(list);
-	free(col);
 	ow_window_destroy(w);
 	return st;
 }

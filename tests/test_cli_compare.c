@@ -227,6 +227,7 @@ static void studies_whose_sweeps_differ_are_refused(void **state)
 	        &r);
 	assert_int_equal(r.code, 1);
 	assert_non_null(strstr(r.err, "sweep.barrel.mode"));
+	assert_non_null(strstr(r.err, "give both studies the same sweep"));
 	cli_result_free(&r);
 	/* --grid sets one lattice for both: the steps no longer matter */
 	cli_run("compare " FAST " " OW_TEST_OUT "/cmp-steps.json --grid 6x5 "
@@ -237,6 +238,37 @@ static void studies_whose_sweeps_differ_are_refused(void **state)
 	cli_run("compare " FAST " --quiet", &r);
 	assert_int_equal(r.code, 2);
 	cli_result_free(&r);
+}
+
+/* Two resins at their own set-points (the documented fixture pair: same
+ * screw, die and sweep, LDPE zones 20 K below HDPE's) are compared on the
+ * shift from each one's own set-points, and each case's window is given
+ * in its own zones' temperatures. */
+static void two_resins_at_their_own_set_points_are_compared(void **state)
+{
+	struct cli_result r;
+	cJSON *j;
+	const cJSON *b;
+	(void)state;
+	cli_run("compare fixtures/studies/hdpe-sf.json "
+	        "fixtures/studies/ldpe-sf.json --grid 6x6 --jobs 2 --quiet "
+	        "-o build/tests/cmp-resins",
+	        &r);
+	if (r.code != 0)
+		fprintf(stderr, "%s\n", r.err);
+	assert_int_equal(r.code, 0);
+	cli_result_free(&r);
+	j = cli_read_json("build/tests/cmp-resins/compare.json");
+	assert_true(cJSON_IsTrue(obj(j, "aligned_on_shift")));
+	assert_non_null(strstr(obj(j, "alignment")->valuestring,
+	                       "own barrel set-points"));
+	b = obj(j, "b");
+	if (!cJSON_IsNull(obj(b, "set_min_C"))) {
+		/* B's last zone is 180 degC, swept -20..+30 K */
+		assert_true(cli_json_num(b, "set_min_C") >= 160.0 - 1e-9);
+		assert_true(cli_json_num(b, "set_max_C") <= 210.0 + 1e-9);
+	}
+	cJSON_Delete(j);
 }
 
 static long file_size(const char *path)
@@ -278,6 +310,7 @@ int main(void)
 	    cmocka_unit_test(common_window_is_contained_in_each_case),
 	    cmocka_unit_test(worn_screw_shows_less_output_and_another_window),
 	    cmocka_unit_test(studies_whose_sweeps_differ_are_refused),
+	    cmocka_unit_test(two_resins_at_their_own_set_points_are_compared),
 	    cmocka_unit_test(maps_and_pdf_are_written),
 	};
 

@@ -333,8 +333,8 @@ static void two_runs_into_one_folder_leave_one_whole_run(void **s)
 	assert_int_equal(waitpid(b, &st, 0), b);
 	assert_true(WIFEXITED(st) && WEXITSTATUS(st) == 0);
 	whole(TOP "/two");
-	/* grid.csv and lattice.json come from the same run */
-	lat = cli_read_json(TOP "/two/lattice.json");
+	/* grid.csv and points-si.json come from the same run */
+	lat = cli_read_json(TOP "/two/points-si.json");
 	grid = cli_slurp(TOP "/two/grid.csv");
 	assert_non_null(grid);
 	for (p = grid; (p = strchr(p, '\n')); p++)

@@ -300,7 +300,7 @@ static void mapdir_load_refuses_a_missing_or_foreign_folder(void **state)
 	char dir[] = "/tmp/test_mapdir_empty.XXXXXX";
 
 	expect_refusal(f, "/tmp/no/such/map/folder", "no such folder");
-	expect_refusal(f, "demo", "not a map folder: lattice.json is missing");
+	expect_refusal(f, "demo", "not a map folder: points-si.json is missing");
 	assert_non_null(mkdtemp(dir));
 	expect_refusal(f, dir, "not a map folder");
 	rm_dir(dir);
@@ -325,15 +325,15 @@ static void mapdir_load_refuses_damaged_files_naming_them(void **state)
 	const char *copy = "/tmp/test_mapdir_spoilt";
 
 	/* status bits of the first solved row changed */
-	spoil(f, copy, "lattice.csv",
+	spoil(f, copy, "points-si.csv",
 	      "2s/^\\([0-9]*,[0-9]*\\),[0-9]*,/\\1,4095,/");
-	expect_refusal(f, copy, "lattice.csv: line 2");
-	spoil(f, copy, "lattice.csv", "3s/,[^,]*$/,12x/");
-	expect_refusal(f, copy, "lattice.csv: line 3, column");
-	spoil(f, copy, "lattice.json", "s/\"stride\":.*/\"stride\": 3,/");
-	expect_refusal(f, copy, "lattice.json: stride");
-	spoil(f, copy, "lattice.json", "s/\"peak_temp\"/\"hot\"/");
-	expect_refusal(f, copy, "lattice.json: checks");
+	expect_refusal(f, copy, "points-si.csv: line 2");
+	spoil(f, copy, "points-si.csv", "3s/,[^,]*$/,12x/");
+	expect_refusal(f, copy, "points-si.csv: line 3, column");
+	spoil(f, copy, "points-si.json", "s/\"stride\":.*/\"stride\": 3,/");
+	expect_refusal(f, copy, "points-si.json: stride");
+	spoil(f, copy, "points-si.json", "s/\"peak_temp\"/\"hot\"/");
+	expect_refusal(f, copy, "points-si.json: checks");
 	spoil(f, copy, "study.json", "s/\"title\"/\"tittle\"/");
 	expect_refusal(f, copy, "study.json");
 	rm_dir(copy);
@@ -360,7 +360,7 @@ static void mapdir_save_refuses_inputs_changed_since_loading(void **state)
 	assert_int_equal(ow_mapdir_save(s, f->m.g, NULL, NULL, 0, dir, &d),
 	                 OW_EINPUT);
 	assert_non_null(strstr(d.msg, "changed since they were loaded"));
-	snprintf(path, sizeof path, "%s/lattice.json", dir);
+	snprintf(path, sizeof path, "%s/points-si.json", dir);
 	assert_int_equal(access(path, F_OK), -1); /* nothing half-saved */
 	rm_dir(dir);
 	free(s);

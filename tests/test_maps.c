@@ -122,8 +122,8 @@ static double seconds(void)
 static void maps_write_every_image_at_900_by_650(void **state)
 {
 	static const char *const stems[] = {
-	    "window",     "map-peak-temp", "map-unmelt", "map-pressure",
-	    "map-output", "map-sec",       "profile"};
+	    "window",     "map-peak-temp", "map-unmelted-solids", "map-pressure",
+	    "map-output", "map-specific-energy", "profile"};
 	struct fix *f = *state;
 	struct ow_maps_options o;
 	struct ow_diag d = {{0}};

@@ -330,7 +330,7 @@ static void report_says_plainly_when_no_point_is_safe(void **state)
 	text = ow_test_pdf_text(path);
 	contains(text, "No safe operating point exists in the swept range.");
 	/* the binding limit first, with every point failing it */
-	snprintf(path, sizeof path, "peak melt temperature ≤ 27 °C %d 100 %%",
+	snprintf(path, sizeof path, "peak melt temperature at most 27 °C %d 100 %%",
 	         g.n_rpm * g.n_axis);
 	contains(text, path);
 	contains(text, "Hot melt and pressure can injure.");
@@ -364,7 +364,7 @@ static void cli_report_redraws_a_saved_map_folder(void **state)
 	snprintf(args, sizeof args,
 	         "report '%s' --paper letter --units us "
 	         "--date 2026-03-15 --revision D --approved-by 'Q. Lead' "
-	         "--current 60,400",
+	         "--current '60,400 degF'",
 	         dir);
 	cli_run(args, &r);
 	if (r.code)
