@@ -36,7 +36,7 @@ APT_PKGS := build-essential pkg-config libcjson-dev libudunits2-dev \
 FONT     := /usr/share/fonts/truetype/dejavu/DejaVuSans.ttf
 
 .SECONDARY:
-.PHONY: all deps test check-run demo bench sanitize memcheck lint format clean install \
+.PHONY: all deps test check-run demo bench sanitize memcheck mutate lint format clean install \
         fuzz fuzz-deps fuzz-run
 
 all: $(LIBA) $(OPWIN)
@@ -97,6 +97,13 @@ sanitize: deps
 	@$(MAKE) --no-print-directory BUILD=build-san OPT=-O1 \
 	  SANFLAGS="-fsanitize=address,undefined -fno-omit-frame-pointer -fno-sanitize-recover=undefined" \
 	  check-run
+
+# Mutation run (slow, not part of test): each single mutation of
+# tests/mutate/mutations on a copy of the tree, the named fast test
+# programs run on it (MUTATE_ALL=1: every test program); prints the share
+# caught and the survivors. MUTATE_TREE judges another tree's tests.
+mutate: deps
+	@sh tests/mutate/run.sh $(if $(MUTATE_ALL),--all-tests,) $(MUTATE_TREE)
 
 # libFuzzer targets (tests/fuzz/) with ASan + UBSan, built with clang in
 # build-fuzz/; each runs FUZZ_S seconds from seeds taken from fixtures/,

@@ -24,6 +24,9 @@
 				       (starved, partly filled) */
 #define OW_FLAG_ZONE_FLOAT 0x40u    /* a zone cannot hold its set-point and
 				       runs at the temperature it can hold */
+#define OW_FLAG_UNHEATED_MELT 0x80u /* a plugged bed gave up solids as melt
+				       with no heat to melt them: the energy
+				       book is short by unheated_melt_W */
 
 /* Figures of one operating point, SI. */
 struct ow_point {
@@ -80,6 +83,10 @@ struct ow_point {
 					 pressure energy the melt takes to
 					 the die */
 	double energy_residual;       /* (in - out) / drive power, - */
+	double unheated_melt_W;       /* melting heat of the solids a plugged
+					 bed gave up unheated (the book's
+					 shortfall, its residual is about
+					 -unheated_melt_W / power_W) */
 	double match_slope;           /* d(P_tip - P_need)/dG near the answer,
 					 Pa s/kg (secant of the last two
 					 marches; 0 when unknown) */

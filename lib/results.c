@@ -322,7 +322,8 @@ enum ow_status ow_results_point_json(const struct ow_study *s,
 	n = ow_results_status_names(v, names, OW_CK_COUNT);
 	ok = ok && add_names(root, "status", names, n);
 	n = ow_solver_flag_names(pt->flags & (OW_FLAG_BACKFLOW |
-					      OW_FLAG_NO_MELTING),
+					      OW_FLAG_NO_MELTING |
+					      OW_FLAG_UNHEATED_MELT),
 				 names, 8);
 	ok = ok && add_names(root, "notes", names, n);
 	ok = ok && add_zone_notes(cJSON_GetObjectItem(root, "notes"), s, pt);

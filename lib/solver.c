@@ -30,6 +30,9 @@
 #define G_PROBE 1.05  /* second trial: a 5 % step gives the first secant */
 #define G_NEWTON_MAX 1.5 /* largest factor of a Newton second trial */
 #define K_DRIFT 1.3   /* largest change of the handed-on slope per point */
+/* Named in the notes above this share of the drive power (the residual
+ * the energy book is held to is 1 %). */
+#define UNHEATED_NOTE 1e-3
 
 enum ow_status ow_solver_create(const struct ow_study *s,
 				struct ow_solver **out, struct ow_diag *d)
@@ -332,6 +335,9 @@ static void figures(const struct ow_solver *sv, const struct eval *e,
 	pt->flow_work_W = e->m.flow_work_W;
 	pt->energy_residual = (in - g * h_out - e->m.flow_work_W) /
 			      (fabs(e->m.power_W) > 0.0 ? e->m.power_W : 1.0);
+	pt->unheated_melt_W = e->m.unheated_W;
+	if (e->m.unheated_W > UNHEATED_NOTE * fabs(e->m.power_W))
+		pt->flags |= OW_FLAG_UNHEATED_MELT;
 }
 
 static enum ow_status check_run(const struct ow_solver *sv, double rpm,

@@ -15,6 +15,7 @@ static const struct {
 	{OW_FLAG_NO_MELTING, "no_melting"},
 	{OW_FLAG_PARTIAL_FILL, "partial_fill"},
 	{OW_FLAG_ZONE_FLOAT, "zone_floating"},
+	{OW_FLAG_UNHEATED_MELT, "unheated_melt"},
 };
 
 int ow_solver_flag_names(unsigned flags, const char **names, int max)

@@ -26,6 +26,8 @@ struct march {
 	double barrel_W;      /* heat barrel -> resin */
 	double root_W;        /* heat root -> resin */
 	double flow_work_W;   /* sum of Q dP over the screw */
+	double unheated_W;    /* melting heat of solids a held (plugged) bed
+				 gave up without heat: no stage supplies it */
 	double zone_W[OW_MAX_ZONES];
 	double zone_demand_W[OW_MAX_ZONES]; /* at the set-point */
 	double ctrl_K[OW_MAX_ZONES];  /* control points as run */

@@ -448,6 +448,24 @@ static void mix_into_pool(struct ctx *c, double before, double dm,
 	ow_melt_mix(c->sv->melt, dm / (before + dm), temp_K);
 }
 
+/* A bed held at the channel width (plugging) gives up as melt the solids
+ * the compression squeezes out of it. The film's heat into the bed melts
+ * Q_bed / [C_s (T_m - T_s) + lambda] of them (Tadmor 1966); the rest joins
+ * the pool at the melting point with no heat supplied for it, so the
+ * energy book runs short by that heat: booked here, and named in the
+ * point's notes. */
+static void book_unheated(struct ctx *c, const struct ow_melting_step_out *o)
+{
+	const struct ow_material *mt = c->mat;
+	double heat = mt->solid_cp_J_kgK *
+			      (mt->melt_temp_K - c->melt_in.solid_temp_K) +
+		      mt->fusion_J_kg; /* the bed enters at its T_s */
+	double free_kg_s = o->melted_kg_s - o->bed_heat_W / heat;
+
+	if (free_kg_s > 0.0)
+		c->m->unheated_W += free_kg_s * heat * c->p;
+}
+
 /* Plugging as the trade reads it, where the channel holding the bed gets
  * shallower: the solid bed ratio there, and Tadmor's plugging number, the
  * bed's width demand over its melting. With s = X/W, A = -dH/dz and
@@ -535,6 +553,8 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 		o.melted_at_m = dz;
 	}
 	mix_into_pool(c, melt_before, o.melted_kg_s, mt->melt_temp_K);
+	if (o.plugged)
+		book_unheated(c, &o);
 	c->solid_flow = o.solid_flow_kg_s;
 	q = (c->g - c->solid_flow) / mt->melt_density_kg_m3;
 	st = step_melt_of_bed(c, x + 0.5 * dx, dz, &sb, o.bed_width_m, q,

@@ -149,6 +149,57 @@ static void fit_recovers_carreau_yasuda_with_arrhenius_shift(void **state)
 	ow_fit_data_destroy(data);
 }
 
+/* The residual summary at each temperature, recomputed here from the
+ * fitted model and the data: r = log10(eta_fit/eta_data); mean r, root
+ * mean square sqrt(sum r^2 / n) and largest |r| per temperature, and the
+ * overall sqrt(rss / N) (the usual definitions, e.g. Bevington &
+ * Robinson, Data Reduction and Error Analysis, 3rd ed. 2003, ch. 1).
+ * With 2 % noise the RMS is about 0.0087 in log10, so a square root left
+ * out would show as 1e-4. */
+static void fit_residual_summary_per_temperature(void **state)
+{
+	static const double T[] = {170, 190, 210};
+	struct ow_viscosity v = cy_model(9000, 0.8, 0.4, 0.7, 190, 28e3);
+	struct ow_fit_data *data = generate(&v, T, 3, 0.1, 3000, 12, 0.02, 7);
+	static struct ow_fit_report rep;
+	const struct ow_fit_result *r;
+	double all = 0.0;
+	int t;
+
+	(void)state;
+	r = fit(data, OW_VISC_CARREAU_YASUDA, OW_SHIFT_ARRHENIUS, &rep);
+	assert_int_equal(r->n_temps, 3);
+	for (t = 0; t < 3; t++) {
+		const struct ow_fit_temp *ft = &r->temps[t];
+		double sum = 0.0, sq = 0.0, mx = 0.0;
+		int n = 0;
+
+		for (size_t i = 0; i < data->n; i++) {
+			const struct ow_fit_point *p = &data->points[i];
+			double e;
+
+			if (fabs(p->temp_K - ft->temp_K) > 0.01)
+				continue;
+			e = log10(ow_viscosity_eval(&r->visc, p->shear_rate_1_s,
+						    p->temp_K) /
+				  p->viscosity_Pa_s);
+			sum += e;
+			sq += e * e;
+			mx = fmax(mx, fabs(e));
+			n++;
+		}
+		all += sq;
+		assert_int_equal(ft->n_points, 12);
+		assert_int_equal(n, 12);
+		assert_abs(ft->mean_log10, sum / n, 1e-12);
+		assert_rel(ft->rms_log10, sqrt(sq / n), 1e-9);
+		assert_rel(ft->max_abs_log10, mx, 1e-9);
+		assert_true(ft->rms_log10 > 0.003 && ft->rms_log10 < 0.02);
+	}
+	assert_rel(r->rms_log10, sqrt(all / 36.0), 1e-9);
+	ow_fit_data_destroy(data);
+}
+
 /* Cross model eta = eta0 / [1 + (eta0 gdot / tau*)^(1-n)] (Cross, J.
  * Colloid Sci. 20 (1965) 417, in the tau* form of Tadmor & Gogos 2006,
  * ch. 3) with a polypropylene-like set: E = 45 kJ/mol lies in the
@@ -703,6 +754,7 @@ int main(void)
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(
 			fit_recovers_carreau_yasuda_with_arrhenius_shift),
+		cmocka_unit_test(fit_residual_summary_per_temperature),
 		cmocka_unit_test(fit_recovers_cross_with_arrhenius_shift),
 		cmocka_unit_test(fit_recovers_power_law_with_arrhenius_shift),
 		cmocka_unit_test(fit_recovers_wlf_shift_factors),

@@ -475,6 +475,53 @@ static void station_leak_flow_uses_the_solved_gradients(void **state)
 	ow_melt_destroy(ws);
 }
 
+/* Leakage with a shear-thinning, temperature-dependent melt (the
+ * Carreau-Yasuda resin above): the flight clearance is sheared at
+ * V_b/delta and sits between the barrel and the outer melt band, so its
+ * viscosity is the resin's at that shear rate and at the mean of the two
+ * temperatures. By hand, bands at 455 K under a barrel at 473.15 K:
+ * T_f = 464.075 K, a_T = exp[(E/R)(1/T_f - 1/T_ref)] (Arrhenius; R =
+ * 8.314462618 J/(mol K), CODATA 2018), gdot = pi D N/delta = 1994.9 1/s,
+ * mu_f = a_T eta0 [1 + (lambda a_T gdot)^a]^((n-1)/a) (Carreau-Yasuda,
+ * Bird, Armstrong & Hassager, Dynamics of Polymeric Liquids vol. 1, 2nd
+ * ed. 1987, with time-temperature superposition); the leak flow is then
+ * L_b [V_bx delta/2 + delta^3 (dP/dx W + dP/dz L_b)/(12 mu_f e)] with the
+ * station's own gradients (Tadmor & Klein 1970 ch. 7). */
+static void leak_uses_viscosity_at_clearance_temperature_and_shear(
+	void **state)
+{
+	struct ow_material m = carreau();
+	struct ow_melt_cond c = metering(&m);
+	struct ow_melt_ws *ws = workspace(41, 20, 455.0);
+	double lb = PI * EX_D * cos(ex_phi()), d = 1e-4, e = 0.00635;
+	double tf = 0.5 * (T200 + 455.0), gd = PI * EX_D / d;
+	double at = exp(28e3 / 8.314462618 * (1.0 / tf - 1.0 / 463.15));
+	double mu = at * 9000.0 *
+		    pow(1.0 + pow(0.8 * at * gd, 0.7), (0.4 - 1.0) / 0.7);
+	struct ow_melt_out o;
+
+	(void)state;
+	assert_rel(gd, 1994.9, 1e-4);
+	c.vol_flow_m3_s = 1.2e-5;
+	c.flight_width_m = e;
+	c.leak_bypass_m = lb;
+	c.leak_flight_len_per_z = 1.0;
+	c.clearance_m = d;
+	o = station(ws, &c, 0.0);
+	assert_rel(o.leak_flow_m3_s,
+		   lb * (c.vbx_m_s * d / 2.0 +
+			 d * d * d *
+				 (o.dpdx_Pa_m * c.width_m + o.dpdz_Pa_m * lb) /
+				 (12.0 * mu * e)),
+		   1e-9);
+	/* the clearance heating at the same viscosity: mu_f (V_b/delta)^2
+	 * delta e per flight length (Bird, Stewart & Lightfoot 2002 section
+	 * 10.4), in the power beside the channel's barrel-wall work */
+	assert_rel(ow_melt_leak_heat(c.vb_m_s, d, mu, e),
+		   mu * gd * gd * d * e, 1e-12);
+	ow_melt_destroy(ws);
+}
+
 /* ---- temperature across the depth ----------------------------------- */
 
 static struct ow_melt_out march_to_steady(struct ow_melt_ws *ws,
@@ -1010,6 +1057,7 @@ int main(void)
 			station_flow_matches_gsl_integral_over_the_channel),
 		cmocka_unit_test(leakage_scales_with_the_clearance),
 		cmocka_unit_test(station_leak_flow_uses_the_solved_gradients),
+		cmocka_unit_test(leak_uses_viscosity_at_clearance_temperature_and_shear),
 		cmocka_unit_test(bands_reproduce_couette_heating),
 		cmocka_unit_test(bands_reproduce_powerlaw_couette_heating),
 		cmocka_unit_test(bands_conserve_energy_step_by_step),

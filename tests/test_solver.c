@@ -17,15 +17,7 @@
 static struct ow_point solve(const struct ow_study *s, double rpm,
 			     const double *set_K)
 {
-	struct ow_solver *sv = NULL;
-	struct ow_point pt;
-	struct ow_diag d = {{0}};
-
-	assert_int_equal(ow_solver_create(s, &sv, &d), OW_OK);
-	assert_int_equal(ow_solver_run(sv, rpm, set_K, 0.0, &pt, &d), OW_OK);
-	ow_solver_destroy(sv);
-	assert_false(pt.flags & OW_FLAG_NOT_CONVERGED);
-	return pt;
+	return ow_test_solve(s, rpm, set_K);
 }
 
 /* Melt-fed Newtonian metering section (8 D, H = 3.175 mm, mu = 1000 Pa s,
@@ -810,6 +802,231 @@ static void negligible_leftover_bed_adds_no_step(void **st)
 	free(s);
 }
 
+/* ---- solver extras against hand calculations ------------------------- */
+
+/* Rowell & Finlayson (1922) shape factors as Tadmor & Klein (1970) ch. 7
+ * write them, summed here independently of the library:
+ * F_d = 16/(pi^3 h) sum_odd tanh(i pi h/2)/i^3,
+ * F_p = 1 - 192 h/pi^5 sum_odd tanh(i pi/(2h))/i^5, h = H/W. */
+static double shape_fd(double h)
+{
+	double sum = 0.0;
+
+	for (int i = 1; i < 20001; i += 2)
+		sum += tanh(i * OW_PI * h / 2.0) / ((double)i * i * i);
+	return 16.0 / (OW_PI * OW_PI * OW_PI * h) * sum;
+}
+
+static double shape_fp(double h)
+{
+	double sum = 0.0;
+
+	for (int i = 1; i < 20001; i += 2)
+		sum += tanh(i * OW_PI / (2.0 * h)) / pow(i, 5.0);
+	return 1.0 - 192.0 * h / pow(OW_PI, 5.0) * sum;
+}
+
+/* The melt-fed Newtonian screw (constant depth H, length L, p flights,
+ * clearance delta, land e, viscosity mu in channel and clearance alike)
+ * with a rod die (radius R, length L_d) and a screen pack dP_s, in closed
+ * form. Per channel (Tadmor & Klein 1970 ch. 7, with their leakage over
+ * the flight): Q_c = F_d V_bz W H/2 - F_p W H^3 G/(12 mu) - Q_L,
+ * Q_L = L_b [V_bx delta/2 + delta^3 (G L_b + G_x W)/(12 mu e)], with
+ * L_b = pi D cos(phi)/p the flight length beside one channel
+ * cross-section, G = dP/Z (Z = L/sin phi) and G_x = 6 mu V_bx/H^2 the
+ * cross-channel gradient of zero net cross flow. Whole screw p Q_c; die
+ * Q = pi R^4 dP_die/(8 mu L_d) (Hagen-Poiseuille, Bird, Stewart &
+ * Lightfoot 2002 section 2.3); tip pressure dP_die + dP_s. Linear in the
+ * pressures: q = pA/(K + pB) with A, B the screw's intercept and slope. */
+struct line_cf {
+	double D, Ls, H, L, e, delta, mu, R, Ld, rpm, screen;
+	int p;
+};
+
+static void closed_form(const struct line_cf *l, double *q, double *tip)
+{
+	double phi = atan(l->Ls / (OW_PI * l->D)), vb = OW_PI * l->D * l->rpm / 60.0;
+	double vbz = vb * cos(phi), vbx = vb * sin(phi);
+	double W = l->Ls * cos(phi) / l->p - l->e, H = l->H, d3 = pow(l->delta, 3.0);
+	double lb = OW_PI * l->D * cos(phi) / l->p, Z = l->L / sin(phi);
+	double A = shape_fd(H / W) * vbz * W * H / 2.0 - lb * vbx * l->delta / 2.0 -
+		   lb * d3 * W * vbx / (2.0 * l->e * H * H);
+	double B = (shape_fp(H / W) * W * H * H * H / (12.0 * l->mu) +
+		    lb * lb * d3 / (12.0 * l->mu * l->e)) / Z;
+	double K = OW_PI * pow(l->R, 4.0) / (8.0 * l->mu * l->Ld);
+	double die = l->p * (A - B * l->screen) / (K + l->p * B);
+
+	*q = K * die;
+	*tip = die + l->screen;
+}
+
+/* The rod study's line (tests/data/newtonian-rod.json) in those terms. */
+static struct line_cf rod_line(void)
+{
+	struct line_cf l = {0.0635, 0.0635, 0.003175, 8 * 0.0635, 0.00635,
+			    0.0, 1000.0, 0.0025, 0.020, 60.0, 0.0, 1};
+	return l;
+}
+
+/* First the closed form itself against the published operating point
+ * (Q = 1.42774e-5 m3/s at 18.615 MPa, above); then a 5 MPa screen pack:
+ * the tip must carry die + screen, so the output falls along the screw
+ * characteristic to q = p(A - B dP_s)/(K + pB): 1.3903e-5 m3/s, tip
+ * 23.126 MPa (recomputed by hand from the published Q_d = 1.582355e-5
+ * m3/s and dP_max = 1.9051e8 Pa). */
+static void screen_pack_moves_output_along_the_die_characteristic(void **st)
+{
+	struct ow_study *s = ow_test_study("tests/data/newtonian-rod.json");
+	struct line_cf l = rod_line();
+	struct ow_point a, b;
+	double q, tip;
+	(void)st;
+	closed_form(&l, &q, &tip);
+	assert_rel(q, 1.42774e-5, 1e-4);
+	assert_rel(tip, 1.8615e7, 1e-4);
+	a = solve(s, 60.0, NULL);
+	s->line.screen_pressure_Pa = l.screen = 5e6;
+	closed_form(&l, &q, &tip);
+	assert_rel(q, 1.3903e-5, 2e-4);
+	assert_rel(tip, 2.3126e7, 2e-4);
+	b = solve(s, 60.0, NULL);
+	assert_rel(b.output_kg_s / 760.0, q, 3e-4);
+	assert_rel(b.discharge_pressure_Pa, tip, 3e-4);
+	assert_true(b.output_kg_s < a.output_kg_s);
+	/* drive power from torque, P = 2 pi N T (rotational power; 1000 N m
+	 * at 60 rpm is 6283.2 W) */
+	assert_rel(b.power_W, 2.0 * OW_PI * (60.0 / 60.0) * b.torque_Nm, 1e-12);
+	free(s);
+}
+
+/* The pressure figure classified is the largest anywhere on the screw:
+ * the maximum over the profile's stations and where it is (on the demo
+ * line the pressure peaks before the tip). */
+static void max_pressure_is_the_largest_on_the_profile(void **st)
+{
+	struct ow_study *s = ow_test_study("demo/study-si.json");
+	struct ow_solver *sv = NULL;
+	const struct ow_profile_row *r;
+	struct ow_point pt;
+	double mx = -1.0, at = 0.0;
+	int n, i;
+	(void)st;
+	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, 60.0, NULL, 0.0, &pt, NULL), OW_OK);
+	r = ow_solver_profile(sv, &n);
+	for (i = 0; i < n; i++)
+		if (r[i].pressure_Pa > mx) {
+			mx = r[i].pressure_Pa;
+			at = r[i].axial_m;
+		}
+	/* figures and profile agree to the match's tolerance (the figures
+	 * may take the last Newton step the profile's march did not) */
+	assert_rel(pt.max_pressure_Pa, mx, 1e-3);
+	assert_rel(pt.max_pressure_at_m, at, 1e-12);
+	assert_rel(pt.discharge_pressure_Pa, r[n - 1].pressure_Pa, 1e-3);
+	assert_true(mx > 1.5 * r[n - 1].pressure_Pa); /* peaks before the tip */
+	ow_solver_destroy(sv);
+	free(s);
+}
+
+/* Channel volume of a constant-depth screw: the annulus pi H (D - H)
+ * less the flight lands, p e H / sin(phi_mean) per axial length (the
+ * helical land of normal width e at the mean diameter; Tadmor & Gogos
+ * 2006, ch. 9 channel geometry). */
+static double channel_area(double D, double Ls, double H, double e, int p)
+{
+	double phim = atan(Ls / (OW_PI * (D - H)));
+
+	return OW_PI * H * (D - H) - p * e * H / sin(phim);
+}
+
+/* A two-flight screw with a 0.1 mm clearance (and the single-flight one
+ * with it) against the closed form with leakage: each channel leaks over
+ * its own flight length pi D cos(phi)/p. */
+static void two_flight_leakage_matches_the_closed_form(void **st)
+{
+	struct ow_study *s = ow_test_study("tests/data/newtonian-rod.json");
+	struct line_cf l = rod_line();
+	int p;
+	(void)st;
+	for (p = 1; p <= 2; p++) {
+		struct ow_point pt;
+		double q, tip, q0, tip0;
+
+		s->screw.flights = l.p = p;
+		s->screw.clearance_m = l.delta = 1e-4;
+		assert_int_equal(ow_screw_prepare(&s->screw, NULL), OW_OK);
+		closed_form(&l, &q, &tip);
+		l.delta = 0.0;
+		closed_form(&l, &q0, &tip0);
+		assert_true(q < 0.97 * q0); /* the leak matters here */
+		pt = solve(s, 60.0, NULL);
+		assert_rel(pt.output_kg_s / 760.0, q, 5e-4);
+		assert_rel(pt.discharge_pressure_Pa, tip, 5e-4);
+		/* and the energy book of all p channels closes (first law,
+		 * Tadmor & Gogos 2006 ch. 9); melt-fed, each station's power
+		 * is its dissipation plus Q dP exactly (Tadmor & Klein 1970
+		 * ch. 7), so to round-off, not just 1 % */
+		assert_abs(pt.energy_residual, 0.0, 1e-6);
+		/* the hold-up fills every channel: melt over the channel
+		 * volume of p flights */
+		assert_rel(pt.residence_s,
+			   760.0 * channel_area(0.0635, 0.0635, 0.003175,
+						0.00635, p) *
+				   8 * 0.0635 / pt.output_kg_s,
+			   1e-6);
+	}
+	free(s);
+}
+
+
+/* Mean residence time = hold-up mass / throughput. Melt-fed rod line:
+ * the hold-up is the melt (760 kg/m3) filling the 8 D channel. */
+static void residence_time_is_melt_hold_up_over_throughput(void **st)
+{
+	struct ow_study *s = ow_test_study("tests/data/newtonian-rod.json");
+	struct ow_point pt = solve(s, 60.0, NULL);
+	double vol = channel_area(0.0635, 0.0635, 0.003175, 0.00635, 1) *
+		     8 * 0.0635;
+	(void)st;
+	assert_rel(pt.residence_s, 760.0 * vol / pt.output_kg_s, 1e-6);
+	free(s);
+}
+
+/* The solids ahead of melting are held at the bulk density: with the
+ * first zone below the melting point the bed starts melting past 6 D, and
+ * changing only the bulk density (560 -> 400 kg/m3) changes the hold-up
+ * by the difference times the channel volume up to there, nothing else
+ * (the solids pass G at the feed pressure). */
+static void residence_time_holds_the_feed_at_bulk_density(void **st)
+{
+	struct ow_study *s = ow_test_study("fixtures/studies/hdpe-sf.json");
+	double set[OW_MAX_ZONES], vol, x, dx;
+	struct ow_point a, b;
+	int i;
+	(void)st;
+	for (i = 0; i < s->line.n_zones; i++)
+		set[i] = s->line.zones[i].set_K;
+	set[0] = 393.15; /* 120 degC, below the 130 degC melting point */
+	s->resin.bulk_density_kg_m3 = 560.0;
+	a = solve(s, 60.0, set);
+	s->resin.bulk_density_kg_m3 = 400.0;
+	b = solve(s, 60.0, set);
+	assert_rel(b.output_kg_s, a.output_kg_s, 1e-9);
+	assert_rel(b.melt_start_m, a.melt_start_m, 1e-9);
+	assert_true(a.melt_start_m >= 6 * 0.0635);
+	/* the plug fills every station up to the one in which it starts
+	 * melting (steps of lead / stations per turn, area at mid-step) */
+	dx = 0.0635 / s->line.numerics.stations_per_turn;
+	for (vol = 0.0, x = 0.0; x < a.melt_start_m - 1e-9; x += dx)
+		vol += channel_area(0.0635, 0.0635,
+				    ow_screw_depth(&s->screw, x + 0.5 * dx),
+				    0.00635, 1) * dx;
+	assert_rel(a.residence_s - b.residence_s,
+		   160.0 * vol / a.output_kg_s, 1e-6);
+	free(s);
+}
+
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
@@ -842,6 +1059,11 @@ int main(void)
 		cmocka_unit_test(
 			output_is_smooth_where_a_zone_reaches_its_power),
 		cmocka_unit_test(negligible_leftover_bed_adds_no_step),
+		cmocka_unit_test(screen_pack_moves_output_along_the_die_characteristic),
+		cmocka_unit_test(max_pressure_is_the_largest_on_the_profile),
+		cmocka_unit_test(two_flight_leakage_matches_the_closed_form),
+		cmocka_unit_test(residence_time_is_melt_hold_up_over_throughput),
+		cmocka_unit_test(residence_time_holds_the_feed_at_bulk_density),
 	};
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
 	                              ow_test_units_teardown);

@@ -8,6 +8,7 @@
 #include "ow_config.h"
 #include "ow_material.h"
 #include "ow_screw.h"
+#include "ow_solver.h"
 #include "ow_units.h"
 
 static struct ow_units *units;
@@ -73,6 +74,21 @@ struct ow_study *ow_test_study(const char *path)
 	if (ow_config_load_study(units, path, s, &d) != OW_OK)
 		fail_msg("%s", d.msg);
 	return s;
+}
+
+struct ow_point ow_test_solve(const struct ow_study *s, double rpm,
+			      const double *set_K)
+{
+	struct ow_solver *sv = NULL;
+	struct ow_point pt;
+	struct ow_diag d = {{0}};
+
+	if (ow_solver_create(s, &sv, &d) != OW_OK ||
+	    ow_solver_run(sv, rpm, set_K, 0.0, &pt, &d) != OW_OK)
+		fail_msg("solver: %s", d.msg);
+	ow_solver_destroy(sv);
+	assert_false(pt.flags & OW_FLAG_NOT_CONVERGED);
+	return pt;
 }
 
 struct ow_material ow_test_power_law_melt(double m, double n, double rho)

@@ -46,6 +46,12 @@ int ow_test_units_teardown(void **state);
 struct ow_study;
 struct ow_study *ow_test_study(const char *path);
 
+/* Solve study s at rpm and zone set-points set_K (NULL: the study's own)
+ * from a cold start; the test fails unless the point converged. */
+struct ow_point;
+struct ow_point ow_test_solve(const struct ow_study *s, double rpm,
+			      const double *set_K);
+
 /* A melt-only test resin: power law m (Pa s^n), index n at 200 degC with
  * no temperature dependence (Arrhenius, zero activation energy), melt
  * density rho, cp 2500 J/(kg K), k 0.2 W/(m K). */
