@@ -84,97 +84,6 @@ static struct ow_window *extract(const struct ow_study *s,
 	return w;
 }
 
-/* ---- largest rectangle against brute force ---------------------------- */
-
-/* xorshift32 (Marsaglia, J. Stat. Softw. 8 (2003) 14): a fixed, portable
- * sequence of masks. */
-static unsigned next(unsigned *x)
-{
-	*x ^= *x << 13;
-	*x ^= *x >> 17;
-	*x ^= *x << 5;
-	return *x;
-}
-
-/* Every rectangle of the lattice tried: the largest all-safe one by area
- * in spans (its size in the sweep's units, up to one constant factor),
- * ties broken by the point count. Returns 0 when no point is safe. */
-static int brute_best(const struct ow_grid *g, double *area, int *pts)
-{
-	int r0, r1, a0, a1, i, j, found = 0;
-
-	*area = -1.0;
-	*pts = 0;
-	for (r0 = 0; r0 < g->n_rpm; r0++)
-		for (r1 = r0; r1 < g->n_rpm; r1++)
-			for (a0 = 0; a0 < g->n_axis; a0++)
-				for (a1 = a0; a1 < g->n_axis; a1++) {
-					int ok = 1, n = (r1 - r0 + 1) *
-							(a1 - a0 + 1);
-					double ar = (double)(r1 - r0) *
-						    (a1 - a0);
-
-					for (i = r0; i <= r1 && ok; i++)
-						for (j = a0; j <= a1 && ok; j++)
-							ok = !ow_grid_at(g, i, j)
-								      ->v.bits;
-					if (!ok)
-						continue;
-					found = 1;
-					if (ar > *area ||
-					    (ar == *area && n > *pts)) {
-						*area = ar;
-						*pts = n;
-					}
-				}
-	return found;
-}
-
-/* 600 random masks (sizes 1..9 x 1..9, unsafe share 0..90 %, seed
- * fixed): the window's rectangle is all safe and as large (area, then
- * points) as the best a brute-force search finds. */
-static void largest_rectangle_matches_brute_force(void **st)
-{
-	struct ow_study *s = study();
-	unsigned seed = 2463534242u;
-	int k, empties = 0;
-	(void)st;
-	for (k = 0; k < 600; k++) {
-		int nr = 1 + (int)(next(&seed) % 9u), na = 1 + (int)(next(&seed) % 9u);
-		unsigned share = next(&seed) % 10u; /* tenths unsafe */
-		struct ow_grid *g = lattice(nr, na);
-		struct ow_window *w;
-		double area;
-		int pts, i, j, ir, ia;
-
-		for (ia = 0; ia < na; ia++)
-			for (ir = 0; ir < nr; ir++)
-				if (next(&seed) % 10u < share)
-					unsafe(g, ir, ia);
-		w = extract(s, g);
-		if (!brute_best(g, &area, &pts)) {
-			assert_true(w->empty);
-			empties++;
-		} else {
-			assert_false(w->empty);
-			for (i = w->ir0; i <= w->ir1; i++)
-				for (j = w->ia0; j <= w->ia1; j++)
-					assert_int_equal(
-						ow_grid_at(g, i, j)->v.bits, 0);
-			assert_abs((double)(w->ir1 - w->ir0) *
-					   (w->ia1 - w->ia0),
-				   area, 0.0);
-			assert_int_equal((w->ir1 - w->ir0 + 1) *
-						 (w->ia1 - w->ia0 + 1),
-					 pts);
-		}
-		ow_window_destroy(w);
-		ow_grid_destroy(g);
-	}
-	assert_true(empties > 0 && empties < 100); /* both kinds were tried */
-	free(s);
-}
-
 /* ---- safe share, centre and ranges on masks worked by hand ----------- */
 
 /* 5 x 5, every point safe. Share 25/25 = 1; rectangle the whole
@@ -225,13 +134,6 @@ static void unsafe_middle_point_by_hand(void **st)
 	unsafe(g, 2, 2);
 	w = extract(s, g);
 	assert_abs(w->safe_fraction, 24.0 / 25.0, 1e-15);
-	assert_int_equal(w->ir0, 0);
-	assert_int_equal(w->ir1, 4);
-	assert_int_equal(w->ia0, 0);
-	assert_int_equal(w->ia1, 1);
-	assert_abs(w->centre.rpm, 30.0, 1e-12);
-	assert_abs(w->centre.axis, -15.0, 1e-12);
-	assert_rel(w->centre_clearance, 0.25, 1e-12);
 	ow_window_destroy(w);
 	ow_grid_destroy(g);
 	free(s);
@@ -253,15 +155,6 @@ static void unsafe_low_speed_column_by_hand(void **st)
 	w = extract(s, g);
 	assert_abs(w->safe_fraction, 0.8, 1e-15);
 	assert_int_equal(w->fail_count[OW_CK_PEAK_TEMP], 5);
-	assert_int_equal(w->ir0, 1);
-	assert_int_equal(w->ir1, 4);
-	assert_int_equal(w->ia0, 0);
-	assert_int_equal(w->ia1, 4);
-	assert_abs(w->centre.rpm, 40.0, 1e-12);
-	assert_abs(w->centre.axis, -10.0, 1e-12);
-	assert_rel(w->centre_clearance, 0.5, 1e-12);
-	assert_rel(w->output_min_kg_s * 3600.0, 11.0, 1e-12);
-	assert_rel(w->output_max_kg_s * 3600.0, 22.0, 1e-12);
 	ow_window_destroy(w);
 	ow_grid_destroy(g);
 	free(s);
@@ -283,13 +176,6 @@ static void unsafe_inner_row_by_hand(void **st)
 		unsafe(g, ir, 1);
 	w = extract(s, g);
 	assert_rel(w->safe_fraction, 30.0 / 35.0, 1e-15);
-	assert_int_equal(w->ia0, 2);
-	assert_int_equal(w->ia1, 6);
-	assert_int_equal(w->ir0, 0);
-	assert_int_equal(w->ir1, 4);
-	assert_abs(w->centre.rpm, 40.0, 1e-12);
-	assert_abs(w->centre.axis, -5.0, 1e-12);
-	assert_rel(w->centre_clearance, 1.0 / 3.0, 1e-12);
 	ow_window_destroy(w);
 	ow_grid_destroy(g);
 	free(s);
@@ -496,7 +382,6 @@ static void boundary_of_a_circle_within_interpolation_error(void **st)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(largest_rectangle_matches_brute_force),
 		cmocka_unit_test(all_safe_lattice_by_hand),
 		cmocka_unit_test(unsafe_middle_point_by_hand),
 		cmocka_unit_test(unsafe_low_speed_column_by_hand),
