@@ -125,7 +125,7 @@ static const struct ow_fit_result *fit(const struct ow_fit_data *data,
 	return &rep->fits[0];
 }
 
-/* Acceptance of issue 7: zero-shear viscosity within 10 %, index within
+/* Fit acceptance: zero-shear viscosity within 10 %, index within
  * 0.05, activation energy within 10 %. True set: the resin format's example
  * (eta0 9000 Pa s, lambda 0.8 s, n 0.4, a 0.7 at 190 degC, E 28 kJ/mol), a
  * Carreau-Yasuda form (Yasuda, Armstrong & Cohen, Rheol. Acta 20 (1981)
@@ -685,7 +685,7 @@ static void replace(char *text, const char *from, const char *to)
 	memcpy(p, to, lt);
 }
 
-/* Issue 7 acceptance: a fitted resin file loads in `opwin check` and
+/* Fit acceptance: a fitted resin file loads in `opwin check` and
  * `opwin point`. The demo resin gets the viscosity fitted to the demo lab
  * data, then the demo study pointed at that resin must pass the check and
  * solve a point. */
