@@ -263,6 +263,8 @@ static double nice_step(double range)
 	double p = 1.0;
 	int i;
 
+	if (!isfinite(range) || range <= 1000.0)
+		return 1.0; /* a NaN or infinite span (one-point axis) ends too */
 	for (;;) {
 		for (i = 0; i < 3; i++)
 			if (range / (m[i] * p) <= 1000.0)

@@ -227,6 +227,22 @@ static void all_unsafe_lattice_is_empty(void **st)
 	free(s);
 }
 
+/* A lattice one point wide in an axis (no sweep makes one, but a saved
+ * map folder could carry it) gives an answer or an error, never a hang:
+ * its step is 0/0. */
+static void one_point_wide_lattice_ends(void **st)
+{
+	struct ow_study *s = study();
+	struct ow_grid *g = lattice(4, 1);
+	struct ow_window *w = NULL;
+	(void)st;
+	if (ow_window_extract(s, g, &w, NULL) == OW_OK)
+		assert_non_null(w);
+	ow_window_destroy(w);
+	ow_grid_destroy(g);
+	free(s);
+}
+
 /* ---- boundary crossings against analytic fields --------------------- */
 
 /* Lattice n x n over x = ir/(n-1), y = ia/(n-1) in [0, 1]; the peak
@@ -388,6 +404,7 @@ int main(void)
 		cmocka_unit_test(unsafe_inner_row_by_hand),
 		cmocka_unit_test(corner_block_by_hand),
 		cmocka_unit_test(all_unsafe_lattice_is_empty),
+		cmocka_unit_test(one_point_wide_lattice_ends),
 		cmocka_unit_test(boundary_of_a_plane_is_exact),
 		cmocka_unit_test(boundary_of_a_circle_within_interpolation_error),
 	};
