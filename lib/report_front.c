@@ -21,6 +21,18 @@ void rpt_map_options(const struct rpt *r, struct ow_maps_options *mo)
 	mo->current_set_K = r->o->current_set_K;
 }
 
+struct ow_rect rpt_map_box(const struct rpt *r, double h)
+{
+	double cw = r->x1 - r->x0;
+	struct ow_rect box;
+
+	box.w = fmin(cw, h * MAP_ASPECT);
+	box.h = h;
+	box.x = r->x0 + (cw - box.w) / 2.0;
+	box.y = r->y;
+	return box;
+}
+
 char *rpt_zone_name(const struct rpt *r, int z, char *buf, size_t n)
 {
 	const struct ow_line *l = &r->s->line;

@@ -177,6 +177,9 @@ void rpt_spread_page(struct rpt *r);  /* report_spread.c */
 
 /* The window-map options for the report's units and current point. */
 void rpt_map_options(const struct rpt *r, struct ow_maps_options *mo);
+/* A map box h high at the current line, as wide as the map's aspect
+ * allows, centred in the column. */
+struct ow_rect rpt_map_box(const struct rpt *r, double h);
 /* "peak melt temperature ≤ 240 °C" for check c (a flag: "... (always
  * unsafe)"). */
 char *rpt_limit_text(struct rpt *r, enum ow_check c, char *buf, size_t n);

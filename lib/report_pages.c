@@ -61,15 +61,11 @@ static void caption(struct rpt *r, enum ow_map_figure f)
 static void one_map(struct rpt *r, enum ow_map_figure f, double h)
 {
 	struct ow_maps_options mo;
-	double cw = r->x1 - r->x0;
 	struct ow_rect box;
 
 	if (r->st != OW_OK)
 		return;
-	box.w = fmin(cw, h * MAP_ASPECT);
-	box.h = h;
-	box.x = r->x0 + (cw - box.w) / 2.0;
-	box.y = r->y;
+	box = rpt_map_box(r, h);
 	rpt_map_options(r, &mo);
 	r->st =
 	    ow_maps_draw_figure(r->cv, &box, f, r->s, r->g, r->w, &mo, r->d);

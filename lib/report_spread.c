@@ -140,10 +140,7 @@ static void share_map(struct rpt *r)
 	rpt_need(r, h);
 	if (r->st != OW_OK)
 		return;
-	box.w = fmin(cw, h * MAP_ASPECT);
-	box.h = h;
-	box.x = r->x0 + (cw - box.w) / 2.0;
-	box.y = r->y;
+	box = rpt_map_box(r, h);
 	rpt_map_options(r, &mo);
 	r->st = ow_maps_draw_share(r->cv, &box, r->s, r->g, r->w,
 				   r->o->robust, r->o->spread, &mo, r->d);
