@@ -161,10 +161,11 @@ static void print_group(const struct ow_study *st, const struct cli_common *c,
 			continue;
 		if (!strncmp(name, prefix, strlen(prefix)))
 			name += strlen(prefix);
-		snprintf(words, sizeof words, "%s", name);
-		for (q = words; *q; q++) /* outer_diameter -> outer diameter */
-			if (*q == '_' || *q == '.')
-				*q = ' ';
+		/* outer_diameter -> outer diameter; a bounded copy (not
+		 * snprintf: gcc cannot see that name stays inside field) */
+		for (q = words; *name && q < words + sizeof words - 1; name++)
+			*q++ = (*name == '_' || *name == '.') ? ' ' : *name;
+		*q = '\0';
 		printf("%s%s %s", k++ ? ", " : lead, words, f[i].a);
 	}
 	if (k)
