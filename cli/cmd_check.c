@@ -1,6 +1,7 @@
 /* cmd_check.c - `opwin check STUDY.json`: validate the inputs and print the
  * derived screw data with common-practice warnings. */
 #include "cli.h"
+#include "ow_const.h"
 
 #include <getopt.h>
 #include <math.h>
@@ -8,7 +9,6 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define OW_PI 3.14159265358979323846
 
 static void help(void)
 {

@@ -13,8 +13,8 @@
 
 #include "ow_io.h"
 #include "ow_results.h"
+#include "ow_const.h"
 
-#define OW_PI 3.14159265358979323846
 /* Bezier control distance for a quarter circle, 4/3 (sqrt 2 - 1)
  * (Riskus, "Approximation of a cubic Bezier curve by circular arcs and
  * vice versa", Information Technology and Control 35 (2006)). */

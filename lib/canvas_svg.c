@@ -5,6 +5,7 @@
  * (canvas_cairo.c), so both lay out identically. Numbers are written
  * locale-independently with two decimals. */
 #include "canvas_impl.h"
+#include "ow_const.h"
 
 #include <cairo.h>
 #include <math.h>
@@ -13,7 +14,6 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define OW_PI 3.14159265358979323846
 
 struct svg_impl {
 	char *b;

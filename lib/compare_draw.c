@@ -9,13 +9,13 @@
 
 #include "ow_maps.h"
 #include "ow_report.h"
+#include "ow_const.h"
 
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 
-#define OW_PI      3.14159265358979323846
 #define TINT_ALPHA 0.20
 #define MAX_TAKEN  8
 

@@ -5,11 +5,11 @@
 #include "ow_delay.h"
 
 #include "ow_melting.h"
+#include "ow_const.h"
 
 #include <math.h>
 #include <string.h>
 
-#define PI 3.14159265358979323846
 #define SQRT_PI 1.7724538509055160
 #define FILM_SUBSTEPS 40   /* implicit substeps of the film per step */
 #define FILM_PASSES 3      /* fixed-point passes of a substep */
@@ -79,7 +79,7 @@ static double step_heat(const struct ow_delay *z, double tau)
 	if (!(tau > 0.0))
 		return 0.0;
 	if (!(z->wall_h > 0.0))
-		return 2.0 * e * sqrt(tau / PI);
+		return 2.0 * e * sqrt(tau / OW_PI);
 	b = beta_of(z, tau);
 	return e * e / z->wall_h * (erfcx(b) - 1.0 + 2.0 * b / SQRT_PI);
 }
@@ -98,7 +98,7 @@ static double heat_at(const struct ow_delay *z, double t)
 	if (z->film) {
 		tau = film_age(z, t);
 		return tau > 0.0 ? 2.0 * (z->mat->melt_temp_K - z->feed_K) *
-					   effusivity(z->mat) * sqrt(tau / PI)
+					   effusivity(z->mat) * sqrt(tau / OW_PI)
 				 : 0.0;
 	}
 	for (k = 0; k < z->n; k++)
@@ -186,7 +186,7 @@ static void form_film(struct ow_delay *z)
 	double e = effusivity(z->mat);
 	double dT = z->mat->melt_temp_K - z->feed_K, E = heat_at(z, z->t_s);
 
-	z->age0_s = dT > 0.0 && e > 0.0 ? PI * pow(E / (2.0 * dT * e), 2) : 0.0;
+	z->age0_s = dT > 0.0 && e > 0.0 ? OW_PI * pow(E / (2.0 * dT * e), 2) : 0.0;
 	z->film = 1;
 	z->film_t_s = z->t_s;
 	z->film_m = 0.0;
@@ -200,7 +200,7 @@ static double solid_flux(const struct ow_delay *z, double t)
 
 	if (!(dT > 0.0))
 		return 0.0;
-	return dT * effusivity(z->mat) / sqrt(PI * (age > 0.0 ? age : 1e-30));
+	return dT * effusivity(z->mat) / sqrt(OW_PI * (age > 0.0 ? age : 1e-30));
 }
 
 struct film_step {

@@ -6,8 +6,8 @@
 #include <math.h>
 
 #include "ow_melt.h"
+#include "ow_const.h"
 
-#define PI 3.14159265358979323846
 #define MAX_INDEX_ITER 200
 
 /* ---- pure formulas ------------------------------------------------------ */
@@ -16,7 +16,7 @@
 double ow_die_newtonian_flow_circle(double r, double len, double mu,
 				    double dp)
 {
-	return PI * r * r * r * r * dp / (8.0 * mu * len);
+	return OW_PI * r * r * r * r * dp / (8.0 * mu * len);
 }
 
 /* Plane Poiseuille, Q = W h^3 dp/(12 mu L), times the rectangular-duct
@@ -39,13 +39,13 @@ double ow_die_newtonian_flow_annulus(double ro, double ri, double len,
 	if (!(k > 0.0))
 		return ow_die_newtonian_flow_circle(ro, len, mu, dp);
 	bracket = 1.0 - k2 * k2 - (1.0 - k2) * (1.0 - k2) / -log(k);
-	return PI * dp * ro * ro * ro * ro / (8.0 * mu * len) * bracket;
+	return OW_PI * dp * ro * ro * ro * ro / (8.0 * mu * len) * bracket;
 }
 
 double ow_die_annulus_factor(double kappa)
 {
 	double ro = 1.0, ri = kappa;
-	double slit = ow_die_newtonian_flow_slit(PI * (ro + ri), ro - ri, 1.0,
+	double slit = ow_die_newtonian_flow_slit(OW_PI * (ro + ri), ro - ri, 1.0,
 						 1.0, 1.0, 0);
 
 	return ow_die_newtonian_flow_annulus(ro, ri, 1.0, 1.0, 1.0) / slit;
@@ -56,7 +56,7 @@ double ow_die_annulus_factor(double kappa)
 double ow_die_powerlaw_flow_circle(double r, double len, double m, double n,
 				   double dp)
 {
-	return PI * n * r * r * r / (3.0 * n + 1.0) *
+	return OW_PI * n * r * r * r / (3.0 * n + 1.0) *
 	       pow(r * dp / (2.0 * m * len), 1.0 / n);
 }
 
@@ -209,7 +209,7 @@ static enum ow_status measured(const struct ow_die *die,
 	if (die->diameter_m > 0.0) {
 		double r = 0.5 * die->diameter_m;
 
-		rc = wall_state(v, die->temp_K, 4.0 * qm / (PI * r * r * r), 0,
+		rc = wall_state(v, die->temp_K, 4.0 * qm / (OW_PI * r * r * r), 0,
 				&gm, &tau, d);
 	} else {
 		rc = rate_at_stress(v, die->temp_K,
@@ -240,7 +240,7 @@ static enum ow_status geometric(const struct ow_die *die,
 
 	if (die->type == OW_DIE_CIRCLE) {
 		r = 0.5 * die->diameter_m;
-		rc = wall_state(v, temp_K, 4.0 * q / (PI * r * r * r), 0,
+		rc = wall_state(v, temp_K, 4.0 * q / (OW_PI * r * r * r), 0,
 				&s->gdot_1_s, &tau, d);
 		s->dp_Pa = 2.0 * die->length_m * tau / r;
 		return rc;
@@ -253,7 +253,7 @@ static enum ow_status geometric(const struct ow_die *die,
 		double ro = 0.5 * die->outer_diameter_m;
 		double ri = 0.5 * die->inner_diameter_m;
 
-		w = PI * (ro + ri);
+		w = OW_PI * (ro + ri);
 		h = ro - ri;
 		corr = ow_die_annulus_factor(ri / ro);
 	}

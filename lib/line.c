@@ -1,5 +1,6 @@
 /* line.c - barrel zones, sweep axes, line defaults and consistency checks. */
 #include "ow_line.h"
+#include "ow_const.h"
 
 #include <math.h>
 #include <stddef.h>
@@ -45,7 +46,7 @@ void ow_line_zone_defaults(struct ow_line *l, double diameter_m)
 	for (i = 0; i < l->n_zones && i < OW_MAX_ZONES; i++) {
 		struct ow_zone *z = &l->zones[i];
 		double len = z->to_m - (i ? l->zones[i - 1].to_m : 0.0);
-		double heat = OW_ZONE_HEATING_W_M2 * 3.14159265358979323846 *
+		double heat = OW_ZONE_HEATING_W_M2 * OW_PI *
 			      diameter_m * len;
 
 		if (isnan(z->heating_W)) {
@@ -133,7 +134,7 @@ static enum ow_status check_zones(const struct ow_line *l, double len,
 			return ow_diag_set(d, OW_EINPUT,
 					   "barrel.zones[%d].set: %g degC must "
 					   "lie in -73..527 degC", i,
-					   l->zones[i].set_K - 273.15);
+					   l->zones[i].set_K - OW_ZERO_C_K);
 		if (bad_control(&l->zones[i]))
 			return ow_diag_set(d, OW_EINPUT,
 					   "barrel.zones[%d]: heating_power and "
@@ -280,7 +281,7 @@ static enum ow_status check_feed(const struct ow_line *l, struct ow_diag *d)
 	if (bad_temp(l->feed_temp_K))
 		return ow_diag_set(d, OW_EINPUT,
 				   "feed.temperature: %g degC must lie in "
-				   "-73..527 degC", l->feed_temp_K - 273.15);
+				   "-73..527 degC", l->feed_temp_K - OW_ZERO_C_K);
 	if (!(isfinite(n->feed_pressure_Pa) && n->feed_pressure_Pa > 0.0 &&
 	      n->feed_pressure_Pa < 1e8))
 		return ow_diag_set(d, OW_EINPUT,

@@ -10,8 +10,8 @@
 #include <string.h>
 
 #include "ow_classify.h"
+#include "ow_const.h"
 
-#define ZERO_C_K 273.15
 
 /* ---- small helpers ------------------------------------------------------ */
 
@@ -379,12 +379,12 @@ static int profile_row(char **c, double D, struct ow_profile_row *r)
 			return 0;
 	r->axial_m = v[0] * D;
 	r->pressure_Pa = v[1] * 1e6;
-	r->bulk_K = v[2] + ZERO_C_K;
-	r->peak_K = v[3] + ZERO_C_K;
+	r->bulk_K = v[2] + OW_ZERO_C_K;
+	r->peak_K = v[3] + OW_ZERO_C_K;
 	r->sbr = v[4];
 	r->unmelt_frac = v[5];
 	r->depth_m = v[6] * 1e-3;
-	r->barrel_K = v[7] + ZERO_C_K;
+	r->barrel_K = v[7] + OW_ZERO_C_K;
 	r->shear_max_1_s = v[8];
 	return 1;
 }

@@ -10,6 +10,7 @@
 #include <string.h>
 
 #include "ow_solver.h"
+#include "ow_const.h"
 
 #define MAX_LEVELS 10
 
@@ -158,7 +159,7 @@ static int longest(const struct ow_plot *p, const struct ow_isolines *L,
 static void take_label(const struct ow_plot *p, struct maps_labels *taken,
                        double X, double Y, double ang, const char *text)
 {
-	double a = ang * 3.14159265358979323846 / 180.0, tw, hx, hy;
+	double a = ang * OW_PI / 180.0, tw, hx, hy;
 
 	ow_canvas_set_font(p->cv, 0.9 * p->font_pt, 0);
 	tw = ow_canvas_text_width(p->cv, text) + 0.5 * p->font_pt;

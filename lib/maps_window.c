@@ -5,13 +5,13 @@
  * with the limit's name and value, the recommended rectangle in bold, the
  * robust centre and the current point marked, and a legend. */
 #include "maps_impl.h"
+#include "ow_const.h"
 
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 
-#define OW_PI      3.14159265358979323846
 #define TINT_ALPHA 0.16
 
 struct group {

@@ -72,7 +72,7 @@ enum ow_status ow_melt_create(int depth_nodes, int bands,
 	for (size_t k = 0; k < nb; k++) {
 		/* stream-function levels of the band edges, s_k = cos^2(pi
 		 * (k + 1) / (2K)), the outermost at the walls (0) */
-		double c = cos(OW_MELT_PI * (double)(k + 1) / (2.0 * (double)nb));
+		double c = cos(OW_PI * (double)(k + 1) / (2.0 * (double)nb));
 
 		ws->level[k] = k + 1 == nb ? 0.0 : c * c;
 	}

@@ -6,7 +6,6 @@
 #include <math.h>
 #include <string.h>
 
-#define PI OW_MELT_PI
 #define SUM_ODD_INV3 1.0517997902646450 /* sum_{i odd} i^-3 = (7/8) zeta(3) */
 #define SUM_ODD_INV5 1.0045237627951396 /* sum_{i odd} i^-5 = (31/32) zeta(5) */
 #define MAX_NEWTON 100
@@ -42,11 +41,11 @@ double ow_melt_shape_fd(double h)
 	if (!(h > 0.0) || !isfinite(h))
 		return NAN;
 	if (h <= 1.0)
-		return 1.0 - 16.0 * h / (PI * PI * PI) *
+		return 1.0 - 16.0 * h / (OW_PI * OW_PI * OW_PI) *
 				     (SUM_ODD_INV3 -
-				      tanh_deficit(3.0, PI / (2.0 * h)));
-	return 16.0 / (PI * PI * PI * h) *
-	       (SUM_ODD_INV3 - tanh_deficit(3.0, PI * h / 2.0));
+				      tanh_deficit(3.0, OW_PI / (2.0 * h)));
+	return 16.0 / (OW_PI * OW_PI * OW_PI * h) *
+	       (SUM_ODD_INV3 - tanh_deficit(3.0, OW_PI * h / 2.0));
 }
 
 /* Rowell & Finlayson (1922) pressure factor, Tadmor & Klein (1970) ch. 7:
@@ -55,8 +54,8 @@ double ow_melt_shape_fp(double h)
 {
 	if (!(h > 0.0) || !isfinite(h))
 		return NAN;
-	return 1.0 - 192.0 * h / (PI * PI * PI * PI * PI) *
-			     (SUM_ODD_INV5 - tanh_deficit(5.0, PI / (2.0 * h)));
+	return 1.0 - 192.0 * h / (OW_PI * OW_PI * OW_PI * OW_PI * OW_PI) *
+			     (SUM_ODD_INV5 - tanh_deficit(5.0, OW_PI / (2.0 * h)));
 }
 
 /* A side wall of the channel (height H) sliding down-channel at V_s drags

@@ -24,7 +24,6 @@
 #include <math.h>
 #include <string.h>
 
-#define PI OW_MELT_PI
 #define FLOOR_SHARE 1e-3 /* smallest band flow, share of the mean */
 
 /* ---- stream function, centre of circulation ------------------------- */

@@ -4,9 +4,8 @@
 #ifndef OW_MELT_IMPL_H
 #define OW_MELT_IMPL_H
 
+#include "ow_const.h"
 #include "ow_melt.h"
-
-#define OW_MELT_PI 3.14159265358979323846
 
 /* Fixed data of one station solve (effective infinite-width channel). */
 struct melt_station {

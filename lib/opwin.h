@@ -5,6 +5,7 @@
 
 #define OW_VERSION "0.1.0"
 
+#include "ow_const.h"
 #include "ow_status.h"
 #include "ow_io.h"
 #include "ow_units.h"

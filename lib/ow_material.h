@@ -9,10 +9,8 @@
 #ifndef OW_MATERIAL_H
 #define OW_MATERIAL_H
 
+#include "ow_const.h"
 #include "ow_status.h"
-
-#define OW_GAS_CONSTANT 8.314462618 /* J/(mol K), CODATA 2018 */
-#define OW_ZERO_C_K 273.15
 
 enum ow_visc_model {
 	OW_VISC_POWER_LAW,      /* eta = m gdot^(n-1) */

@@ -2,12 +2,12 @@
  * colour maps, polylines, markers, hatched regions, legends and line
  * charts on an ow_canvas. Contours live in plot_contour.c. */
 #include "ow_plot.h"
+#include "ow_const.h"
 
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
 
-#define OW_PI    3.14159265358979323846
 #define TICK_LEN 4.0 /* pt */
 
 /* --- ticks and numbers ------------------------------------------------ */

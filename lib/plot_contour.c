@@ -9,12 +9,12 @@
  * split removes the saddle ambiguity). A vertex with z >= level counts as
  * inside, so the filled regions {z >= level} and the iso-lines agree. */
 #include "ow_plot.h"
+#include "ow_const.h"
 
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
 
-#define OW_PI 3.14159265358979323846
 
 /* Corner k (0..2) of triangle t (0: lower-right, 1: upper-left) of cell
  * (i, j), as grid indices; counter-clockwise for x right, y up. */

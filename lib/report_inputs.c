@@ -9,8 +9,8 @@
 #include <string.h>
 
 #include "ow_advise.h"
+#include "ow_const.h"
 
-#define OW_PI 3.14159265358979323846
 
 /* A Quantity | Value | Source table. */
 static const struct rpt_table qvs = {

@@ -3,6 +3,7 @@
 #include "ow_results.h"
 #include "text_impl.h"
 #include "ow_io.h"
+#include "ow_const.h"
 
 #include <cjson/cJSON.h>
 #include <math.h>
@@ -10,7 +11,6 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define OW_PI 3.14159265358979323846
 
 char *ow_fmt_double(char *buf, size_t n, double x, int json)
 {
@@ -164,7 +164,7 @@ enum ow_status ow_results_check_json(const struct ow_study *st, char **out,
 
 /* ---- figures of a point ------------------------------------------------ */
 
-#define C_OF_K(k) ((k) - 273.15)
+#define C_OF_K(k) ((k) - OW_ZERO_C_K)
 
 static double per_D(const struct ow_study *s, double x)
 {

@@ -1,11 +1,11 @@
 /* screw.c - screw geometry along the axis (unwound-channel forms of Tadmor &
  * Klein 1970 and Tadmor & Gogos 2006, ch. 9). */
 #include "ow_screw.h"
+#include "ow_const.h"
 
 #include <math.h>
 #include <stddef.h>
 
-#define OW_PI 3.14159265358979323846
 
 static const char *const section_names[] = {"feed", "taper", "metering",
 					    "barrier", "mixer"};
@@ -174,7 +174,7 @@ static enum ow_status check_barrier(const struct ow_section *sec, int i,
 /* Derive start/end/depth_start of one section and check its own values. */
 int ow_screw_default_lands(double diameter_m)
 {
-	double n = floor(3.14159265358979323846 * diameter_m / 0.025 + 0.5);
+	double n = floor(OW_PI * diameter_m / 0.025 + 0.5);
 
 	return n < 2.0 ? 2 : (n > 64.0 ? 64 : (int)n);
 }

@@ -3,11 +3,11 @@
  * Extrusion (1970), ch. 8. Forces on the flights are taken at the mean
  * diameter D_mean = D_b - H; the root at D_s = D_b - 2H. */
 #include "ow_solids.h"
+#include "ow_const.h"
 
 #include <math.h>
 #include <stddef.h>
 
-#define OW_PI 3.14159265358979323846
 
 static enum ow_status check_in(const struct ow_solids_in *in,
 			       struct ow_diag *d)

@@ -15,8 +15,8 @@
 #include <string.h>
 
 #include "ow_die.h"
+#include "ow_const.h"
 
-#define OW_PI 3.14159265358979323846
 #define MAX_MARCHES 60
 #define G_RTOL 2e-5   /* relative throughput tolerance (bracket width) */
 #define G_STEP_TOL 2e-5 /* ... and of the Newton step f/k left to take */

@@ -32,6 +32,7 @@
 #include <udunits2.h>
 
 #include "ow_io.h"
+#include "ow_const.h"
 
 #define TEXT_MAX 256   /* longest accepted input text, bytes */
 #define UNIT_BUF 1024  /* a unit after alias rewriting */
@@ -46,7 +47,6 @@
 #define LBF_N 4.4482216152605    /* pound-force */
 #define BTU_J 1055.05585262      /* British thermal unit (IT) */
 #define DEGF_K (5.0 / 9.0)       /* one degree Fahrenheit interval, K */
-#define ZERO_C_K 273.15          /* 0 degC in K */
 #define TWO_PI 6.28318530717958647692
 
 /* The UDUNITS-2 database, read at the first unit that needs it (reading
@@ -83,7 +83,7 @@ static const struct exact_unit exact_units[] = {
 	{"mm", OW_DIM_LENGTH, 1e-3, 0.0},
 	{"in", OW_DIM_LENGTH, IN_M, 0.0},
 	{"K", OW_DIM_TEMPERATURE, 1.0, 0.0},
-	{"degC", OW_DIM_TEMPERATURE, 1.0, ZERO_C_K},
+	{"degC", OW_DIM_TEMPERATURE, 1.0, OW_ZERO_C_K},
 	{"degF", OW_DIM_TEMPERATURE, DEGF_K, DEGF_OFFSET},
 	{"K", OW_DIM_TEMP_DIFF, 1.0, 0.0},
 	{"degC", OW_DIM_TEMP_DIFF, 1.0, 0.0},
@@ -903,7 +903,7 @@ static const struct shown_unit shown_units[2][OW_DIM_COUNT] = {
 	[OW_SYS_SI] = {
 		[OW_DIM_NONE] = {1.0, 0.0, 0.0, ""},
 		[OW_DIM_LENGTH] = {1e-3, 0.0, 0.0, "mm"},
-		[OW_DIM_TEMPERATURE] = {1.0, ZERO_C_K, 0.0, "°C"},
+		[OW_DIM_TEMPERATURE] = {1.0, OW_ZERO_C_K, 0.0, "°C"},
 		[OW_DIM_TEMP_DIFF] = {1.0, 0.0, 0.0, "K"},
 		[OW_DIM_PRESSURE] = {1e6, 0.0, 0.0, "MPa"},
 		[OW_DIM_MASS_FLOW] = {1.0 / 3600.0, 0.0, 0.0, "kg/h"},
@@ -924,7 +924,7 @@ static const struct shown_unit shown_units[2][OW_DIM_COUNT] = {
 	[OW_SYS_US] = {
 		[OW_DIM_NONE] = {1.0, 0.0, 0.0, ""},
 		[OW_DIM_LENGTH] = {IN_M, 0.0, 0.0, "in"},
-		[OW_DIM_TEMPERATURE] = {DEGF_K, ZERO_C_K, 32.0, "°F"},
+		[OW_DIM_TEMPERATURE] = {DEGF_K, OW_ZERO_C_K, 32.0, "°F"},
 		[OW_DIM_TEMP_DIFF] = {DEGF_K, 0.0, 0.0, "°F"},
 		[OW_DIM_PRESSURE] = {PSI_PA, 0.0, 0.0, "psi"},
 		[OW_DIM_MASS_FLOW] = {LB_KG / 3600.0, 0.0, 0.0, "lb/h"},
