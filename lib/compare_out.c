@@ -5,6 +5,7 @@
 #include "text_impl.h"
 
 #include "ow_results.h"
+#include "json_num.h"
 
 #include <cjson/cJSON.h>
 #include <math.h>
@@ -16,13 +17,6 @@
 #define MAX_DIFFS 200
 
 static const char *const case_key[2] = {"a", "b"};
-
-static int put_num(cJSON *o, const char *key, double v)
-{
-	cJSON *item = isfinite(v) ? cJSON_CreateNumber(v) : cJSON_CreateNull();
-
-	return item && cJSON_AddItemToObject(o, key, item);
-}
 
 /* window.json of (s, g, w) parsed back into a cJSON object, or NULL. */
 static cJSON *window_obj(const struct ow_study *s, const struct ow_grid *g,
@@ -147,7 +141,7 @@ static cJSON *binding(const struct ow_window *w, const char *count_key)
 		ok = e && cJSON_AddItemToArray(arr, e);
 		ok = ok && cJSON_AddStringToObject(e, "limit",
 		                                   ow_check_key(order[i]));
-		ok = ok && put_num(e, count_key, w->fail_count[order[i]]);
+		ok = ok && ow_json_put_num(e, count_key, w->fail_count[order[i]]);
 	}
 	if (!ok) {
 		cJSON_Delete(arr);
@@ -175,12 +169,12 @@ static int add_figures(cJSON *o, const struct ow_study *s,
 {
 	const char *names[OW_CK_COUNT];
 	cJSON *st;
-	int i, n, ok = put_num(o, "set_C", C_OF_K(set_K));
+	int i, n, ok = ow_json_put_num(o, "set_C", C_OF_K(set_K));
 
 	for (i = 0; ok && i < ow_compare_n_figures(); i++) {
 		int f = ow_compare_figure_index(i);
 
-		ok = put_num(o, ow_results_figure_key(f),
+		ok = ow_json_put_num(o, ow_results_figure_key(f),
 		             ow_results_figure(s, pt, f));
 	}
 	st = ok ? cJSON_AddArrayToObject(o, "status") : NULL;
@@ -200,7 +194,7 @@ static int add_delta(cJSON *o, const struct ow_compare *cmp,
 		int f = ow_compare_figure_index(i);
 
 		ok =
-		    put_num(o, ow_results_figure_key(f),
+		    ow_json_put_num(o, ow_results_figure_key(f),
 		            ow_results_figure(cmp->study[1], &p->pt[1], f) -
 		                ow_results_figure(cmp->study[0], &p->pt[0], f));
 	}
@@ -216,9 +210,9 @@ static cJSON *point_obj(const struct ow_compare *cmp,
 	if (!p->valid)
 		return cJSON_CreateNull();
 	o = cJSON_CreateObject();
-	ok = o && put_num(o, "rpm", p->rpm);
-	ok = ok && put_num(o, "axis_value", p->axis);
-	ok = ok && put_num(o, "barrel_setting_K", p->axis);
+	ok = o && ow_json_put_num(o, "rpm", p->rpm);
+	ok = ok && ow_json_put_num(o, "axis_value", p->axis);
+	ok = ok && ow_json_put_num(o, "barrel_setting_K", p->axis);
 	for (k = 0; ok && k < 2; k++) {
 		c = cJSON_AddObjectToObject(o, case_key[k]);
 		ok = c && add_figures(c, cmp->study[k], &p->pt[k], &p->v[k],
@@ -235,12 +229,12 @@ static cJSON *point_obj(const struct ow_compare *cmp,
 
 static int add_counts(cJSON *o, const struct ow_compare *cmp)
 {
-	int ok = put_num(o, "lattice_points", cmp->n_rpm * cmp->n_axis);
+	int ok = ow_json_put_num(o, "lattice_points", cmp->n_rpm * cmp->n_axis);
 
-	ok = ok && put_num(o, "safe_both", cmp->count[OW_CMP_BOTH]);
-	ok = ok && put_num(o, "safe_a_only", cmp->count[OW_CMP_A_ONLY]);
-	ok = ok && put_num(o, "safe_b_only", cmp->count[OW_CMP_B_ONLY]);
-	return ok && put_num(o, "safe_neither", cmp->count[OW_CMP_NEITHER]);
+	ok = ok && ow_json_put_num(o, "safe_both", cmp->count[OW_CMP_BOTH]);
+	ok = ok && ow_json_put_num(o, "safe_a_only", cmp->count[OW_CMP_A_ONLY]);
+	ok = ok && ow_json_put_num(o, "safe_b_only", cmp->count[OW_CMP_B_ONLY]);
+	return ok && ow_json_put_num(o, "safe_neither", cmp->count[OW_CMP_NEITHER]);
 }
 
 static cJSON *differences(const struct ow_compare *cmp)

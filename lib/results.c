@@ -4,6 +4,7 @@
 #include "text_impl.h"
 #include "ow_io.h"
 #include "ow_const.h"
+#include "json_num.h"
 
 #include <cjson/cJSON.h>
 #include <math.h>
@@ -29,13 +30,6 @@ enum ow_status ow_results_write_file(const char *path, const char *text,
 	return ow_io_write_file(path, text, len, d);
 }
 
-static int put_num(cJSON *o, const char *key, double v)
-{
-	cJSON *item = isfinite(v) ? cJSON_CreateNumber(v) : cJSON_CreateNull();
-
-	return item && cJSON_AddItemToObject(o, key, item);
-}
-
 static cJSON *section_json(const struct ow_screw *s, int i)
 {
 	const struct ow_section *sec = &s->sections[i];
@@ -44,26 +38,26 @@ static cJSON *section_json(const struct ow_screw *s, int i)
 	int ok = o && cJSON_AddStringToObject(o, "type",
 					      ow_section_name(sec->type));
 
-	ok = ok && put_num(o, "start_D", sec->start_m / D);
-	ok = ok && put_num(o, "end_D", sec->end_m / D);
+	ok = ok && ow_json_put_num(o, "start_D", sec->start_m / D);
+	ok = ok && ow_json_put_num(o, "end_D", sec->end_m / D);
 	if (sec->type == OW_SEC_MIXER) {
-		ok = ok && put_num(o, "depth_start_mm", sec->gap_m * 1e3);
-		ok = ok && put_num(o, "depth_end_mm", sec->gap_m * 1e3);
-		ok = ok && put_num(o, "lands", sec->lands);
+		ok = ok && ow_json_put_num(o, "depth_start_mm", sec->gap_m * 1e3);
+		ok = ok && ow_json_put_num(o, "depth_end_mm", sec->gap_m * 1e3);
+		ok = ok && ow_json_put_num(o, "lands", sec->lands);
 	} else {
-		ok = ok && put_num(o, "depth_start_mm",
+		ok = ok && ow_json_put_num(o, "depth_start_mm",
 				   sec->depth_start_m * 1e3);
-		ok = ok && put_num(o, "depth_end_mm", sec->depth_m * 1e3);
+		ok = ok && ow_json_put_num(o, "depth_end_mm", sec->depth_m * 1e3);
 	}
 	if (sec->type == OW_SEC_BARRIER) {
-		ok = ok && put_num(o, "melt_depth_start_mm",
+		ok = ok && ow_json_put_num(o, "melt_depth_start_mm",
 				   sec->melt_depth_start_m * 1e3);
-		ok = ok && put_num(o, "melt_depth_end_mm",
+		ok = ok && ow_json_put_num(o, "melt_depth_end_mm",
 				   sec->melt_depth_end_m * 1e3);
-		ok = ok && put_num(o, "melt_share_start", sec->melt_share_start);
-		ok = ok && put_num(o, "melt_share_end", sec->melt_share_end);
+		ok = ok && ow_json_put_num(o, "melt_share_start", sec->melt_share_start);
+		ok = ok && ow_json_put_num(o, "melt_share_end", sec->melt_share_end);
 	}
-	ok = ok && put_num(o, "clearance_mm",
+	ok = ok && ow_json_put_num(o, "clearance_mm",
 			   ow_screw_clearance(s, 0.5 * (sec->start_m +
 							sec->end_m)) * 1e3);
 	if (!ok) {
@@ -121,23 +115,23 @@ static int add_screw_figures(cJSON *r, const struct ow_screw *s)
 	int ok = 1;
 
 	ok = ok && cJSON_AddStringToObject(r, "screw", s->name);
-	ok = ok && put_num(r, "diameter_mm", D * 1e3);
-	ok = ok && put_num(r, "lead_mm", s->lead_m * 1e3);
-	ok = ok && put_num(r, "flights", s->flights);
-	ok = ok && put_num(r, "length_D", ow_screw_ld(s));
-	ok = ok && put_num(r, "helix_angle_deg",
+	ok = ok && ow_json_put_num(r, "diameter_mm", D * 1e3);
+	ok = ok && ow_json_put_num(r, "lead_mm", s->lead_m * 1e3);
+	ok = ok && ow_json_put_num(r, "flights", s->flights);
+	ok = ok && ow_json_put_num(r, "length_D", ow_screw_ld(s));
+	ok = ok && ow_json_put_num(r, "helix_angle_deg",
 			   ow_screw_helix(s, D) * 180.0 / OW_PI);
-	ok = ok && put_num(r, "compression_ratio",
+	ok = ok && ow_json_put_num(r, "compression_ratio",
 			   ow_screw_compression_depth(s));
-	ok = ok && put_num(r, "compression_ratio_area",
+	ok = ok && ow_json_put_num(r, "compression_ratio_area",
 			   ow_screw_compression_area(s));
-	ok = ok && put_num(r, "feed_depth_mm", hf * 1e3);
-	ok = ok && put_num(r, "metering_depth_mm", hm * 1e3);
-	ok = ok && put_num(r, "channel_width_mm", ow_screw_width(s, D) * 1e3);
-	ok = ok && put_num(r, "clearance_mm", s->clearance_m * 1e3);
-	ok = ok && put_num(r, "feed_turn_volume_cm3",
+	ok = ok && ow_json_put_num(r, "feed_depth_mm", hf * 1e3);
+	ok = ok && ow_json_put_num(r, "metering_depth_mm", hm * 1e3);
+	ok = ok && ow_json_put_num(r, "channel_width_mm", ow_screw_width(s, D) * 1e3);
+	ok = ok && ow_json_put_num(r, "clearance_mm", s->clearance_m * 1e3);
+	ok = ok && ow_json_put_num(r, "feed_turn_volume_cm3",
 			   ow_screw_free_area(s, 0.0) * s->lead_m * 1e6);
-	ok = ok && put_num(r, "metering_turn_volume_cm3",
+	ok = ok && ow_json_put_num(r, "metering_turn_volume_cm3",
 			   ow_screw_free_area(s, last_conveying_x(s)) *
 				   s->lead_m * 1e6);
 	return ok;
@@ -260,16 +254,16 @@ static int add_zones(cJSON *o, const struct ow_study *s,
 		cJSON *z = cJSON_CreateObject();
 
 		ok = z && cJSON_AddItemToArray(arr, z);
-		ok = ok && put_num(z, "to_D", per_D(s, s->line.zones[i].to_m));
-		ok = ok && put_num(z, "set_C", C_OF_K(pt->set_K[i]));
-		ok = ok && put_num(z, "heat_kW", pt->zone_heat_W[i] * 1e-3);
-		ok = ok && put_num(z, "demand_kW",
+		ok = ok && ow_json_put_num(z, "to_D", per_D(s, s->line.zones[i].to_m));
+		ok = ok && ow_json_put_num(z, "set_C", C_OF_K(pt->set_K[i]));
+		ok = ok && ow_json_put_num(z, "heat_kW", pt->zone_heat_W[i] * 1e-3);
+		ok = ok && ow_json_put_num(z, "demand_kW",
 				   pt->zone_demand_W[i] * 1e-3);
-		ok = ok && put_num(z, "heating_kW",
+		ok = ok && ow_json_put_num(z, "heating_kW",
 				   s->line.zones[i].heating_W * 1e-3);
-		ok = ok && put_num(z, "cooling_kW",
+		ok = ok && ow_json_put_num(z, "cooling_kW",
 				   s->line.zones[i].cooling_W * 1e-3);
-		ok = ok && put_num(z, "control_C",
+		ok = ok && ow_json_put_num(z, "control_C",
 				   C_OF_K(pt->zone_control_K[i]));
 		ok = ok && cJSON_AddBoolToObject(
 				   z, "holds_set",
@@ -301,7 +295,7 @@ static int add_margins(cJSON *o, const struct ow_verdict *v)
 
 	for (c = 0; ok && c < OW_CK_LIMITS; c++)
 		if (!isnan(v->margin[c]))
-			ok = put_num(m, ow_check_key((enum ow_check)c),
+			ok = ow_json_put_num(m, ow_check_key((enum ow_check)c),
 				     v->margin[c]);
 	return ok;
 }
@@ -316,9 +310,9 @@ enum ow_status ow_results_point_json(const struct ow_study *s,
 	int ok = root != NULL, i, n;
 
 	*out = NULL;
-	ok = ok && put_num(root, "rpm", pt->rpm);
+	ok = ok && ow_json_put_num(root, "rpm", pt->rpm);
 	for (i = 0; ok && i < ow_results_n_figures(); i++)
-		ok = put_num(root, fig_keys[i], fig(s, pt, i));
+		ok = ow_json_put_num(root, fig_keys[i], fig(s, pt, i));
 	n = ow_results_status_names(v, names, OW_CK_COUNT);
 	ok = ok && add_names(root, "status", names, n);
 	n = ow_solver_flag_names(pt->flags & (OW_FLAG_BACKFLOW |
@@ -327,7 +321,7 @@ enum ow_status ow_results_point_json(const struct ow_study *s,
 				 names, 8);
 	ok = ok && add_names(root, "notes", names, n);
 	ok = ok && add_zone_notes(cJSON_GetObjectItem(root, "notes"), s, pt);
-	ok = ok && put_num(root, "iterations", pt->n_iter);
+	ok = ok && ow_json_put_num(root, "iterations", pt->n_iter);
 	ok = ok && add_zones(root, s, pt);
 	ok = ok && add_margins(root, v);
 	if (ok)
@@ -421,11 +415,11 @@ static int add_window_zones(cJSON *o, const struct ow_study *s,
 		cJSON *e = cJSON_CreateObject();
 
 		ok = e && cJSON_AddItemToArray(arr, e);
-		ok = ok && put_num(e, "zone", z + 1);
-		ok = ok && put_num(e, "to_D", per_D(s, s->line.zones[z].to_m));
-		ok = ok && put_num(e, "set_min_C",
+		ok = ok && ow_json_put_num(e, "zone", z + 1);
+		ok = ok && ow_json_put_num(e, "to_D", per_D(s, s->line.zones[z].to_m));
+		ok = ok && ow_json_put_num(e, "set_min_C",
 				   w->empty ? NAN : C_OF_K(w->zone_min_K[z]));
-		ok = ok && put_num(e, "set_max_C",
+		ok = ok && ow_json_put_num(e, "set_max_C",
 				   w->empty ? NAN : C_OF_K(w->zone_max_K[z]));
 	}
 	return ok;
@@ -488,7 +482,7 @@ static int add_binding(cJSON *o, const struct ow_window *w)
 		ok = e && cJSON_AddItemToArray(arr, e);
 		ok = ok && cJSON_AddStringToObject(e, "limit",
 						   ow_check_key(order[i]));
-		ok = ok && put_num(e, "points_excluded",
+		ok = ok && ow_json_put_num(e, "points_excluded",
 				   w->fail_count[order[i]]);
 	}
 	return ok;
@@ -505,7 +499,7 @@ static int add_setter(cJSON *o, const char *key, const char *unit,
 	int ok = e != NULL;
 
 	snprintf(k, sizeof k, "value_%s", unit);
-	ok = ok && put_num(e, k, value);
+	ok = ok && ow_json_put_num(e, k, value);
 	ok = ok && cJSON_AddStringToObject(e, "set_by",
 					   ow_window_setter_key(b->check));
 	ok = ok && cJSON_AddStringToObject(
@@ -514,7 +508,7 @@ static int add_setter(cJSON *o, const char *key, const char *unit,
 	ok = ok && cJSON_AddBoolToObject(e, "is_limit",
 					 b->check != OW_WINDOW_SWEEP_EDGE);
 	snprintf(k, sizeof k, "resolution_%s", res_unit);
-	ok = ok && put_num(e, k, b->resolution);
+	ok = ok && ow_json_put_num(e, k, b->resolution);
 	return ok;
 }
 
@@ -537,8 +531,8 @@ static int add_setters(cJSON *r, const struct ow_window *w)
 			      &w->bound[OW_WB_SET_MIN]);
 	ok = ok && add_setter(o, "set_max_C", "C", "K", C_OF_K(w->set_max_K),
 			      &w->bound[OW_WB_SET_MAX]);
-	ok = ok && put_num(o, "rpm_step_rpm", w->rpm_step);
-	ok = ok && put_num(o, "set_step_K", w->temp_step_K);
+	ok = ok && ow_json_put_num(o, "rpm_step_rpm", w->rpm_step);
+	ok = ok && ow_json_put_num(o, "set_step_K", w->temp_step_K);
 	ok = ok && cJSON_AddBoolToObject(r, "at_sweep_edge", w->at_sweep_edge);
 	if (ok && w->at_sweep_edge)
 		ok = cJSON_AddStringToObject(r, "sweep_edge_note",
@@ -551,32 +545,32 @@ static int add_bounds(cJSON *r, const struct ow_window *w)
 	int e = w->empty, ok = 1;
 	cJSON *c;
 
-	ok = ok && put_num(r, "rpm_min", e ? NAN : w->rpm_min);
-	ok = ok && put_num(r, "rpm_max", e ? NAN : w->rpm_max);
-	ok = ok && put_num(r, "set_min_C", e ? NAN : C_OF_K(w->set_min_K));
-	ok = ok && put_num(r, "set_max_C", e ? NAN : C_OF_K(w->set_max_K));
-	ok = ok && put_num(r, "axis_min", e ? NAN : w->axis_min);
-	ok = ok && put_num(r, "axis_max", e ? NAN : w->axis_max);
-	ok = ok && put_num(r, "barrel_setting_min_K", e ? NAN : w->axis_min);
-	ok = ok && put_num(r, "barrel_setting_max_K", e ? NAN : w->axis_max);
+	ok = ok && ow_json_put_num(r, "rpm_min", e ? NAN : w->rpm_min);
+	ok = ok && ow_json_put_num(r, "rpm_max", e ? NAN : w->rpm_max);
+	ok = ok && ow_json_put_num(r, "set_min_C", e ? NAN : C_OF_K(w->set_min_K));
+	ok = ok && ow_json_put_num(r, "set_max_C", e ? NAN : C_OF_K(w->set_max_K));
+	ok = ok && ow_json_put_num(r, "axis_min", e ? NAN : w->axis_min);
+	ok = ok && ow_json_put_num(r, "axis_max", e ? NAN : w->axis_max);
+	ok = ok && ow_json_put_num(r, "barrel_setting_min_K", e ? NAN : w->axis_min);
+	ok = ok && ow_json_put_num(r, "barrel_setting_max_K", e ? NAN : w->axis_max);
 	if (e) {
 		ok = ok && cJSON_AddNullToObject(r, "centre");
 	} else {
 		c = cJSON_AddObjectToObject(r, "centre");
-		ok = ok && c && put_num(c, "rpm", w->centre.rpm);
-		ok = ok && put_num(c, "set_C", C_OF_K(w->centre_set_K));
-		ok = ok && put_num(c, "axis_value", w->centre.axis);
-		ok = ok && put_num(c, "barrel_setting_K", w->centre.axis);
-		ok = ok && put_num(c, "distance_to_edge_fraction",
+		ok = ok && c && ow_json_put_num(c, "rpm", w->centre.rpm);
+		ok = ok && ow_json_put_num(c, "set_C", C_OF_K(w->centre_set_K));
+		ok = ok && ow_json_put_num(c, "axis_value", w->centre.axis);
+		ok = ok && ow_json_put_num(c, "barrel_setting_K", w->centre.axis);
+		ok = ok && ow_json_put_num(c, "distance_to_edge_fraction",
 				   w->centre_clearance);
 	}
-	ok = ok && put_num(r, "output_kg_h_min",
+	ok = ok && ow_json_put_num(r, "output_kg_h_min",
 			   e ? NAN : w->output_min_kg_s * 3600.0);
-	ok = ok && put_num(r, "output_kg_h_max",
+	ok = ok && ow_json_put_num(r, "output_kg_h_max",
 			   e ? NAN : w->output_max_kg_s * 3600.0);
-	ok = ok && put_num(r, "melt_temp_C_min", e ? NAN : C_OF_K(w->melt_min_K));
-	ok = ok && put_num(r, "melt_temp_C_max", e ? NAN : C_OF_K(w->melt_max_K));
-	ok = ok && put_num(r, "peak_temp_C_max", e ? NAN : C_OF_K(w->peak_max_K));
+	ok = ok && ow_json_put_num(r, "melt_temp_C_min", e ? NAN : C_OF_K(w->melt_min_K));
+	ok = ok && ow_json_put_num(r, "melt_temp_C_max", e ? NAN : C_OF_K(w->melt_max_K));
+	ok = ok && ow_json_put_num(r, "peak_temp_C_max", e ? NAN : C_OF_K(w->peak_max_K));
 	return ok && add_setters(r, w);
 }
 
@@ -592,21 +586,21 @@ enum ow_status ow_results_window_json(const struct ow_study *s,
 	ok = ok && cJSON_AddStringToObject(r, "title", s->title);
 	ok = ok && cJSON_AddBoolToObject(r, "empty", w->empty);
 	ok = ok && add_bounds(r, w);
-	ok = ok && put_num(r, "safe_fraction", w->safe_fraction);
+	ok = ok && ow_json_put_num(r, "safe_fraction", w->safe_fraction);
 	ok = ok && add_window_zones(r, s, w);
 	ax = ok ? cJSON_AddObjectToObject(r, "axis") : NULL;
 	ok = ax != NULL;
 	ok = ok && cJSON_AddStringToObject(ax, "mode",
 					   axis_mode_name(s->line.axes.mode));
-	ok = ok && put_num(ax, "reference_zone",
+	ok = ok && ow_json_put_num(ax, "reference_zone",
 			   ow_line_reference_zone(&s->line) + 1);
-	ok = ok && put_num(ax, "from", s->line.axes.axis_from);
-	ok = ok && put_num(ax, "to", s->line.axes.axis_to);
-	ok = ok && put_num(ax, "from_K", s->line.axes.axis_from);
-	ok = ok && put_num(ax, "to_K", s->line.axes.axis_to);
-	ok = ok && put_num(r, "solves", g->solves);
-	ok = ok && put_num(r, "grid_points_rpm", g->n_rpm);
-	ok = ok && put_num(r, "grid_points_barrel", g->n_axis);
+	ok = ok && ow_json_put_num(ax, "from", s->line.axes.axis_from);
+	ok = ok && ow_json_put_num(ax, "to", s->line.axes.axis_to);
+	ok = ok && ow_json_put_num(ax, "from_K", s->line.axes.axis_from);
+	ok = ok && ow_json_put_num(ax, "to_K", s->line.axes.axis_to);
+	ok = ok && ow_json_put_num(r, "solves", g->solves);
+	ok = ok && ow_json_put_num(r, "grid_points_rpm", g->n_rpm);
+	ok = ok && ow_json_put_num(r, "grid_points_barrel", g->n_axis);
 	ok = ok && add_binding(r, w);
 	ok = ok && add_boundaries(r, s, w);
 	if (ok)

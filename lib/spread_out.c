@@ -14,6 +14,7 @@
 
 #include "ow_results.h"
 #include "text_impl.h"
+#include "json_num.h"
 
 /* Append ",safe_share,worst_margin_<limit>..." to each line of grid.csv
  * (rows are the solved points in lattice order, as the grid writes them). */
@@ -62,12 +63,6 @@ enum ow_status ow_spread_grid_csv(const struct ow_study *s,
 	return ow_text_done(&t, out, d);
 }
 
-static int put_num(cJSON *o, const char *key, double v)
-{
-	return isfinite(v) ? cJSON_AddNumberToObject(o, key, v) != NULL
-			   : cJSON_AddNullToObject(o, key) != NULL;
-}
-
 static int add_inputs(cJSON *o, const struct ow_spread *sp)
 {
 	cJSON *a = cJSON_AddArrayToObject(o, "inputs");
@@ -84,11 +79,11 @@ static int add_inputs(cJSON *o, const struct ow_spread *sp)
 		ok = ok && cJSON_AddStringToObject(e, "distribution",
 						   in->normal ? "normal"
 							      : "uniform");
-		ok = ok && put_num(e, "nominal", in->nominal);
-		ok = ok && put_num(e, "low", lo);
-		ok = ok && put_num(e, "high", hi);
+		ok = ok && ow_json_put_num(e, "nominal", in->nominal);
+		ok = ok && ow_json_put_num(e, "low", lo);
+		ok = ok && ow_json_put_num(e, "high", hi);
 		if (in->normal)
-			ok = ok && put_num(e, "sd", in->hi);
+			ok = ok && ow_json_put_num(e, "sd", in->hi);
 	}
 	return ok;
 }
@@ -105,7 +100,7 @@ static int add_ranking(cJSON *o, const struct ow_spread *sp,
 		ok = e && cJSON_AddItemToArray(a, e);
 		ok = ok && cJSON_AddStringToObject(
 				   e, "input", sp->in[r->rank[i].input].name);
-		ok = ok && put_num(e, "correlation", r->rank[i].corr);
+		ok = ok && ow_json_put_num(e, "correlation", r->rank[i].corr);
 	}
 	return ok;
 }
@@ -116,13 +111,13 @@ static int add_record(cJSON *root, const struct ow_spread *sp,
 	cJSON *o = cJSON_AddObjectToObject(root, "spread");
 	int ok = o != NULL;
 
-	ok = ok && put_num(o, "samples", r->samples);
-	ok = ok && put_num(o, "seed", (double)r->seed);
-	ok = ok && put_num(o, "level", r->level);
+	ok = ok && ow_json_put_num(o, "samples", r->samples);
+	ok = ok && ow_json_put_num(o, "seed", (double)r->seed);
+	ok = ok && ow_json_put_num(o, "level", r->level);
 	ok = ok && cJSON_AddStringToObject(o, "design",
 					   "latin_hypercube") != NULL;
-	ok = ok && put_num(o, "solves", r->solves);
-	ok = ok && put_num(o, "solves_saved", r->solves_saved);
+	ok = ok && ow_json_put_num(o, "solves", r->solves);
+	ok = ok && ow_json_put_num(o, "solves_saved", r->solves_saved);
 	ok = ok && add_inputs(o, sp);
 	ok = ok && add_ranking(o, sp, r);
 	return ok;
@@ -168,7 +163,7 @@ enum ow_status ow_spread_window_json(const struct ow_study *s,
 		if (run_key(e->string))
 			cJSON_DeleteItemFromObject(rw, e->string);
 	}
-	ok = ok && put_num(rw, "level", r->level);
+	ok = ok && ow_json_put_num(rw, "level", r->level);
 	ok = ok && cJSON_AddItemToObject(root, "robust_window", rw);
 	if (!ok)
 		cJSON_Delete(rw);
@@ -192,9 +187,7 @@ static cJSON *num_array(const double *v, int n)
 	int i;
 
 	for (i = 0; a && i < n; i++)
-		if (!cJSON_AddItemToArray(a, isfinite(v[i])
-						     ? cJSON_CreateNumber(v[i])
-						     : cJSON_CreateNull())) {
+		if (!cJSON_AddItemToArray(a, ow_json_num(v[i]))) {
 			cJSON_Delete(a);
 			return NULL;
 		}
@@ -213,7 +206,7 @@ static int save_inputs(cJSON *root, const struct ow_spread *sp)
 
 		ok = e && cJSON_AddItemToArray(a, e);
 		ok = ok && cJSON_AddStringToObject(e, "name", in->name);
-		ok = ok && put_num(e, "nominal", in->nominal);
+		ok = ok && ow_json_put_num(e, "nominal", in->nominal);
 		ok = ok && cJSON_AddItemToObject(e, "def", num_array(v, 5));
 	}
 	return ok;
@@ -255,14 +248,14 @@ enum ow_status ow_spread_save_json(const struct ow_study *s,
 		rank[2 * i + 1] = r->rank[i].corr;
 	}
 	ok = ok && cJSON_AddStringToObject(root, "format", SPREAD_FORMAT);
-	ok = ok && put_num(root, "samples", r->samples);
-	ok = ok && put_num(root, "seed", (double)r->seed);
-	ok = ok && put_num(root, "level", r->level);
-	ok = ok && put_num(root, "solves", r->solves);
-	ok = ok && put_num(root, "solves_saved", r->solves_saved);
-	ok = ok && put_num(root, "probe_solves", r->probe_solves);
-	ok = ok && put_num(root, "lattice_rpm", r->n_rpm);
-	ok = ok && put_num(root, "lattice_axis", r->n_axis);
+	ok = ok && ow_json_put_num(root, "samples", r->samples);
+	ok = ok && ow_json_put_num(root, "seed", (double)r->seed);
+	ok = ok && ow_json_put_num(root, "level", r->level);
+	ok = ok && ow_json_put_num(root, "solves", r->solves);
+	ok = ok && ow_json_put_num(root, "solves_saved", r->solves_saved);
+	ok = ok && ow_json_put_num(root, "probe_solves", r->probe_solves);
+	ok = ok && ow_json_put_num(root, "lattice_rpm", r->n_rpm);
+	ok = ok && ow_json_put_num(root, "lattice_axis", r->n_axis);
 	rk = ok ? num_array(rank, 2 * r->n_rank) : NULL;
 	ok = ok && cJSON_AddItemToObject(root, "rank", rk);
 	ok = ok && save_inputs(root, &s->spread);
