@@ -6,6 +6,7 @@
  * locale-independently with two decimals. */
 #include "canvas_impl.h"
 #include "ow_const.h"
+#include "ow_io.h"
 
 #include <cairo.h>
 #include <math.h>
@@ -16,9 +17,7 @@
 
 
 struct svg_impl {
-	char *b;
-	size_t n, cap;
-	int oom;
+	struct ow_buf out;                /* the document so far */
 	int clips;                        /* clip paths defined so far */
 	int groups[CANVAS_MAX_DEPTH + 1]; /* <g> opened at each save level */
 	cairo_surface_t *msurf;           /* 1 x 1 surface for text measure */
@@ -28,25 +27,7 @@ struct svg_impl {
 
 static void put(struct svg_impl *im, const char *s, size_t len)
 {
-	if (im->oom)
-		return;
-	if (im->n + len + 1 > im->cap) {
-		size_t cap = im->cap ? im->cap : 65536;
-		char *p;
-
-		while (cap < im->n + len + 1)
-			cap *= 2;
-		p = realloc(im->b, cap);
-		if (!p) {
-			im->oom = 1;
-			return;
-		}
-		im->b = p;
-		im->cap = cap;
-	}
-	memcpy(im->b + im->n, s, len);
-	im->n += len;
-	im->b[im->n] = '\0';
+	ow_buf_add(&im->out, s, len);
 }
 
 static void puts_(struct svg_impl *im, const char *s)
@@ -233,17 +214,19 @@ static enum ow_status svg_encode(struct ow_canvas *cv, unsigned char **bytes,
                                  size_t *len, struct ow_diag *d)
 {
 	struct svg_impl *im = cv->impl;
+	enum ow_status st;
+	char *text = NULL;
 
 	for (; im->groups[0] > 0; im->groups[0]--)
 		puts_(im, "</g>\n");
 	puts_(im, "</svg>\n");
-	if (im->oom)
+	if (im->out.oom) {
+		ow_buf_free(&im->out);
 		return ow_diag_set(d, OW_ENOMEM, "SVG: out of memory");
-	*bytes = (unsigned char *)im->b;
-	*len = im->n;
-	im->b = NULL;
-	im->n = im->cap = 0;
-	return OW_OK;
+	}
+	st = ow_buf_take(&im->out, &text, len, d);
+	*bytes = (unsigned char *)text;
+	return st;
 }
 
 static void svg_destroy(struct ow_canvas *cv)
@@ -252,7 +235,7 @@ static void svg_destroy(struct ow_canvas *cv)
 
 	if (!im)
 		return;
-	free(im->b);
+	ow_buf_free(&im->out);
 	if (im->mcr)
 		cairo_destroy(im->mcr);
 	if (im->msurf)
@@ -305,7 +288,7 @@ enum ow_status canvas_svg(double width_pt, double height_pt,
 		goto fail;
 	}
 	header(im, width_pt, height_pt);
-	if (im->oom) {
+	if (im->out.oom) {
 		st = ow_diag_set(d, OW_ENOMEM, "SVG: out of memory");
 		goto fail;
 	}

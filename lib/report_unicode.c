@@ -14,6 +14,8 @@
  * the update are left as they were. */
 #include "report_impl.h"
 
+#include "ow_io.h"
+
 #include <stdarg.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -21,40 +23,10 @@
 
 #define MAX_FONTS 16
 
-struct pbuf {
-	unsigned char *p;
-	size_t n, cap;
-	int oom;
-};
-
-static void put(struct pbuf *b, const void *s, size_t n)
-{
-	if (b->oom)
-		return;
-	if (b->n + n + 1 > b->cap) {
-		size_t cap = (b->n + n + 1) * 2;
-		unsigned char *q = realloc(b->p, cap);
-
-		if (!q) {
-			b->oom = 1;
-			return;
-		}
-		b->p = q;
-		b->cap = cap;
-	}
-	memcpy(b->p + b->n, s, n);
-	b->n += n;
-}
-
-static void puts_(struct pbuf *b, const char *s)
-{
-	put(b, s, strlen(s));
-}
-
-static void putf(struct pbuf *b, const char *fmt, ...)
+static void putf(struct ow_buf *b, const char *fmt, ...)
 	__attribute__((format(printf, 2, 3)));
 
-static void putf(struct pbuf *b, const char *fmt, ...)
+static void putf(struct ow_buf *b, const char *fmt, ...)
 {
 	char tmp[256];
 	va_list ap;
@@ -64,7 +36,7 @@ static void putf(struct pbuf *b, const char *fmt, ...)
 	k = vsnprintf(tmp, sizeof tmp, fmt, ap);
 	va_end(ap);
 	if (k > 0)
-		put(b, tmp, (size_t)k < sizeof tmp ? (size_t)k : sizeof tmp - 1);
+		ow_buf_add(b, tmp, (size_t)k < sizeof tmp ? (size_t)k : sizeof tmp - 1);
 }
 
 /* The last occurrence of needle in the n bytes at h, or NULL. */
@@ -91,11 +63,11 @@ static const unsigned char *find(const unsigned char *h, size_t n,
 }
 
 /* The identity ToUnicode CMap: code point = code, 248 ranges. */
-static void cmap(struct pbuf *b)
+static void cmap(struct ow_buf *b)
 {
 	int h, k = 0, n = 0;
 
-	puts_(b, "/CIDInit /ProcSet findresource begin\n12 dict begin\n"
+	ow_buf_adds(b, "/CIDInit /ProcSet findresource begin\n12 dict begin\n"
 		 "begincmap\n/CIDSystemInfo << /Registry (Adobe) /Ordering "
 		 "(UCS) /Supplement 0 >> def\n/CMapName /Adobe-Identity-UCS "
 		 "def\n/CMapType 2 def\n1 begincodespacerange\n<0000> <FFFF>\n"
@@ -110,11 +82,11 @@ static void cmap(struct pbuf *b)
 		}
 		putf(b, "<%02X00> <%02XFF> <%02X00>\n", h, h, h);
 		if (++k == n) {
-			puts_(b, "endbfrange\n");
+			ow_buf_adds(b, "endbfrange\n");
 			k = 0;
 		}
 	}
-	puts_(b, "endcmap\nCMapName currentdict /CMap defineresource pop\n"
+	ow_buf_adds(b, "endcmap\nCMapName currentdict /CMap defineresource pop\n"
 		 "end\nend\n");
 }
 
@@ -176,7 +148,7 @@ enum ow_status rpt_fix_to_unicode(unsigned char **buf, size_t *len,
 				  struct ow_diag *d)
 {
 	struct font f[MAX_FONTS];
-	struct pbuf b = {*buf, *len, *len, 0};
+	struct ow_buf b = {(char *)*buf, *len, *len, 0};
 	size_t old_len = *len;
 	const unsigned char *tr = last(*buf, *len, "trailer");
 	const unsigned char *sx = last(*buf, *len, "startxref");
@@ -204,37 +176,37 @@ enum ow_status rpt_fix_to_unicode(unsigned char **buf, size_t *len,
 	body = malloc(body_n + 1);
 	if (!body)
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
-	put(&b, "\n", 1); /* b.p may move from here on: offsets only */
-	off[0] = b.n;
+	ow_buf_add(&b, "\n", 1); /* b.data may move from here on: offsets only */
+	off[0] = b.len;
 	{
-		struct pbuf c = {NULL, 0, 0, 0};
+		struct ow_buf c = {0};
 
 		cmap(&c);
-		putf(&b, "%d 0 obj\n<< /Length %zu >>\nstream\n", size, c.n);
+		putf(&b, "%d 0 obj\n<< /Length %zu >>\nstream\n", size, c.len);
 		if (!c.oom)
-			put(&b, c.p, c.n);
+			ow_buf_add(&b, c.data, c.len);
 		b.oom |= c.oom;
-		free(c.p);
-		puts_(&b, "\nendstream\nendobj\n");
+		ow_buf_free(&c);
+		ow_buf_adds(&b, "\nendstream\nendobj\n");
 	}
 	for (k = 0; k < nf; k++) {
 		size_t a = f[k].ref - f[k].dict, z = a + f[k].ref_n;
 
-		off[k + 1] = b.n;
+		off[k + 1] = b.len;
 		putf(&b, "%d 0 obj", f[k].num);
 		if (b.oom)
 			break;
-		/* copied out first: put may move b.p */
-		memcpy(body, b.p + f[k].dict, a);
-		put(&b, body, a);
+		/* copied out first: an add may move b.data */
+		memcpy(body, b.data + f[k].dict, a);
+		ow_buf_add(&b, body, a);
 		putf(&b, "/ToUnicode %d 0 R", size);
 		if (b.oom)
 			break;
-		memcpy(body, b.p + f[k].dict + z, f[k].dict_n - z);
-		put(&b, body, f[k].dict_n - z);
-		puts_(&b, "endobj\n");
+		memcpy(body, b.data + f[k].dict + z, f[k].dict_n - z);
+		ow_buf_add(&b, body, f[k].dict_n - z);
+		ow_buf_adds(&b, "endobj\n");
 	}
-	xref = b.n;
+	xref = b.len;
 	putf(&b, "xref\n%d 1\n%010zu 00000 n\r\n", size, off[0]);
 	for (k = 0; k < nf; k++)
 		putf(&b, "%d 1\n%010zu 00000 n\r\n", f[k].num, off[k + 1]);
@@ -244,12 +216,12 @@ enum ow_status rpt_fix_to_unicode(unsigned char **buf, size_t *len,
 	putf(&b, "/Size %d\n/Prev %d\n>>\nstartxref\n%zu\n%%%%EOF\n",
 	     size + 1, prev, xref);
 	free(body);
-	if (b.oom) { /* b.p still holds the document as it was */
-		*buf = b.p;
+	if (b.oom) { /* b.data still holds the document as it was */
+		*buf = (unsigned char *)b.data;
 		*len = old_len;
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	}
-	*buf = b.p;
-	*len = b.n;
+	*buf = (unsigned char *)b.data;
+	*len = b.len;
 	return OW_OK;
 }

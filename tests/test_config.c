@@ -12,6 +12,7 @@
 
 #include "ow_advise.h"
 #include "ow_config.h"
+#include "ow_io.h"
 
 #define DATA "tests/data/"
 #define BAD "tests/bad/"
@@ -647,14 +648,13 @@ static unsigned long crc_table_update(unsigned long crc, const char *p,
 
 static unsigned long crc_of_file(unsigned long crc, const char *path)
 {
-	static char buf[1 << 16];
-	FILE *fp = fopen(path, "rb");
-	size_t n;
+	char *buf = NULL;
+	size_t n = 0;
 
-	assert_non_null(fp);
-	n = fread(buf, 1, sizeof buf, fp);
-	fclose(fp);
-	return crc_table_update(crc, buf, n);
+	assert_int_equal(ow_io_slurp(path, (size_t)1 << 20, &buf, &n), 0);
+	crc = crc_table_update(crc, buf, n);
+	free(buf);
+	return crc;
 }
 
 static void input_crc_covers_every_file_in_reading_order(void **state)

@@ -16,6 +16,7 @@
 
 #include "ow_config.h"
 #include "ow_fit.h"
+#include "ow_io.h"
 
 #define C_TO_K(c) ((c) + OW_ZERO_C_K)
 
@@ -612,24 +613,18 @@ static void plot_writes_a_png(void **state)
 	struct ow_viscosity v = cy_model(9000, 0.8, 0.4, 0.7, 190, 28e3);
 	struct ow_fit_data *data = generate(&v, T, 3, 0.1, 3000, 12, 0.02, 11);
 	static struct ow_fit_report rep;
-	unsigned char sig[8];
-	char path[128];
+	char path[128], *png = NULL;
 	struct ow_diag d = {{0}};
-	FILE *fp;
-	long size;
+	size_t size = 0;
 
 	fit(data, OW_VISC_CARREAU_YASUDA, OW_SHIFT_ARRHENIUS, &rep);
 	path_in(f, "fit.png", path, sizeof path);
 	if (ow_fit_plot_png(data, &rep.fits[0], OW_SYS_US, path, &d) != OW_OK)
 		fail_msg("plot: %s", d.msg);
-	fp = fopen(path, "rb");
-	assert_non_null(fp);
-	assert_int_equal(fread(sig, 1, 8, fp), 8);
-	fseek(fp, 0, SEEK_END);
-	size = ftell(fp);
-	fclose(fp);
-	assert_memory_equal(sig, "\x89PNG\r\n\x1a\n", 8);
+	assert_int_equal(ow_io_slurp(path, (size_t)1 << 24, &png, &size), 0);
 	assert_true(size > 10000);
+	assert_memory_equal(png, "\x89PNG\r\n\x1a\n", 8);
+	free(png);
 	assert_int_equal(remove(path), 0);
 	path_in(f, "missing/fit.png", path, sizeof path);
 	assert_int_equal(ow_fit_plot_png(data, &rep.fits[0], OW_SYS_SI, path,
@@ -664,13 +659,13 @@ static int run_opwin(const char *const *args)
 
 static char *read_text(const char *path)
 {
-	FILE *fp = fopen(path, "rb");
-	char *buf = calloc(1, 1 << 16);
+	char *buf = NULL;
+	size_t n = 0;
 
-	assert_non_null(fp);
+	assert_int_equal(ow_io_slurp(path, (1 << 16) - 1, &buf, &n), 0);
+	assert_true(n > 0);
+	buf = realloc(buf, 1 << 16); /* room for replace() */
 	assert_non_null(buf);
-	assert_true(fread(buf, 1, (1 << 16) - 1, fp) > 0);
-	fclose(fp);
 	return buf;
 }
 

@@ -15,6 +15,7 @@
 #include <unistd.h>
 
 #include "ow_config.h"
+#include "ow_io.h"
 #include "ow_maps.h"
 #include "ow_sweep.h"
 #include "ow_window.h"
@@ -75,26 +76,13 @@ static int teardown(void **state)
 
 static unsigned char *slurp(const char *path, size_t *n)
 {
-	FILE *fp = fopen(path, "rb");
-	unsigned char *b = NULL;
-	long len;
+	char *b = NULL;
 
-	if (!fp)
+	if (ow_io_slurp(path, (size_t)1 << 30, &b, n) != 0 || *n == 0) {
+		free(b);
 		return NULL;
-	if (fseek(fp, 0, SEEK_END) == 0 && (len = ftell(fp)) > 0 &&
-	    fseek(fp, 0, SEEK_SET) == 0) {
-		b = malloc((size_t)len + 1);
-		if (b && fread(b, 1, (size_t)len, fp) != (size_t)len) {
-			free(b);
-			b = NULL;
-		}
-		if (b) {
-			b[len] = '\0';
-			*n = (size_t)len;
-		}
 	}
-	fclose(fp);
-	return b;
+	return (unsigned char *)b;
 }
 
 static unsigned char *file_in(const char *dir, const char *name, size_t *n)

@@ -2,6 +2,8 @@
 #include "clirun.h"
 #include "testutil.h"
 
+#include "ow_io.h"
+
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -17,35 +19,9 @@ const char *cli_binary(void)
 
 char *cli_slurp(const char *path)
 {
-	FILE *f = fopen(path, "rb");
 	char *buf = NULL;
-	size_t len = 0, cap = 0, n;
-	char chunk[4096];
 
-	if (!f)
-		return NULL;
-	while ((n = fread(chunk, 1, sizeof chunk, f)) > 0) {
-		if (len + n + 1 > cap) {
-			char *nb;
-
-			cap = (len + n + 1) * 2;
-			nb = realloc(buf, cap);
-			if (!nb) {
-				free(buf);
-				fclose(f);
-				return NULL;
-			}
-			buf = nb;
-		}
-		memcpy(buf + len, chunk, n);
-		len += n;
-	}
-	fclose(f);
-	if (!buf)
-		buf = calloc(1, 1);
-	else
-		buf[len] = '\0';
-	return buf;
+	return ow_io_slurp(path, (size_t)1 << 30, &buf, NULL) == 0 ? buf : NULL;
 }
 
 void cli_run(const char *args, struct cli_result *r)

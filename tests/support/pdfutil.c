@@ -3,6 +3,8 @@
 #include "pdfutil.h"
 #include "testutil.h"
 
+#include "ow_io.h"
+
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -10,23 +12,16 @@
 char *ow_test_run(const char *cmd, int *rc)
 {
 	FILE *p = popen(cmd, "r");
-	size_t n = 0, cap = 1 << 16;
-	char *buf = malloc(cap);
+	struct ow_buf b = {0};
+	char chunk[4096], *out = NULL;
 	size_t got;
 
 	assert_non_null(p);
-	assert_non_null(buf);
-	while ((got = fread(buf + n, 1, cap - 1 - n, p)) > 0) {
-		n += got;
-		if (n + 1 == cap) {
-			cap *= 2;
-			buf = realloc(buf, cap);
-			assert_non_null(buf);
-		}
-	}
-	buf[n] = '\0';
+	while ((got = fread(chunk, 1, sizeof chunk, p)) > 0)
+		ow_buf_add(&b, chunk, got);
+	assert_int_equal(ow_buf_take(&b, &out, NULL, NULL), OW_OK);
 	*rc = pclose(p);
-	return buf;
+	return out;
 }
 
 void ow_test_squeeze(char *s)
