@@ -40,7 +40,7 @@ static void help(void)
 static void print_limit_lines(const struct ow_verdict *v)
 {
 	const char *names[OW_CK_COUNT];
-	int n = ow_results_status_names(v, names, OW_CK_COUNT), i;
+	int n = ow_classify_names(v, names, OW_CK_COUNT), i;
 
 	if (!n) {
 		printf("verdict   inside every limit of the study\n");

@@ -12,7 +12,6 @@
 #include <string.h>
 
 #include "ow_io.h"
-#include "ow_results.h"
 #include "ow_const.h"
 
 /* Bezier control distance for a quarter circle, 4/3 (sqrt 2 - 1)

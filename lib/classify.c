@@ -44,6 +44,17 @@ const char *ow_check_key(enum ow_check c)
 	return c < OW_CK_COUNT ? keys[c] : "?";
 }
 
+int ow_classify_names(const struct ow_verdict *v, const char **names,
+		      int max)
+{
+	int c, n = 0;
+
+	for (c = 0; c < OW_CK_COUNT; c++)
+		if ((v->bits & (1u << c)) && n < max)
+			names[n++] = ow_check_key((enum ow_check)c);
+	return n;
+}
+
 const char *ow_check_text(enum ow_check c)
 {
 	return c < OW_CK_COUNT ? texts[c] : "?";

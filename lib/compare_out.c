@@ -179,7 +179,7 @@ static int add_figures(cJSON *o, const struct ow_study *s,
 	}
 	st = ok ? cJSON_AddArrayToObject(o, "status") : NULL;
 	ok = st != NULL;
-	n = ow_results_status_names(v, names, OW_CK_COUNT);
+	n = ow_classify_names(v, names, OW_CK_COUNT);
 	for (i = 0; ok && i < n; i++)
 		ok = cJSON_AddItemToArray(st, cJSON_CreateString(names[i]));
 	return ok;

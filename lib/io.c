@@ -7,6 +7,7 @@
 #include <dirent.h>
 #include <errno.h>
 #include <fcntl.h>
+#include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -552,6 +553,17 @@ done:
 }
 
 /* ---- text ------------------------------------------------------------- */
+
+char *ow_fmt_double(char *buf, size_t n, double x, int json)
+{
+	/* The program never calls setlocale, so printf uses the "C" locale's
+	 * decimal point; 17 significant digits round-trip a double. */
+	if (!isfinite(x))
+		snprintf(buf, n, "%s", json ? "null" : "");
+	else
+		snprintf(buf, n, "%.17g", x);
+	return buf;
+}
 
 /* Well-formed UTF-8 byte sequences, RFC 3629 (2003), section 4 (the
  * "UTF8-octets" grammar): the second byte's range depends on the first. */

@@ -60,6 +60,11 @@ void ow_classify(const struct ow_point *pt, const struct ow_limits *lim,
 /* Key ("peak_temp") of a check, and what it judges in words ("peak melt
  * temperature", "throughput", "solid bed plugging"). */
 const char *ow_check_key(enum ow_check c);
+
+/* Names (ow_check_key) of the checks verdict v fails (violated limits and
+ * unsafe flags) into names[]; returns the count (0: safe). */
+int ow_classify_names(const struct ow_verdict *v, const char **names,
+		      int max);
 const char *ow_check_text(enum ow_check c);
 
 /* A point failing check c in words: "peak melt temperature above its

@@ -112,6 +112,12 @@ char *ow_io_dir_list(const char *dir);
 
 /* ---- text ------------------------------------------------------------- */
 
+/* Write x into buf with "%.17g" semantics (shortest form that round-trips
+ * is not required, but every digit needed is there); "null" for NaN/inf
+ * when json is set, "" otherwise. Independent of the locale (the program
+ * never calls setlocale). Returns buf. */
+char *ow_fmt_double(char *buf, size_t n, double x, int json);
+
 /* Offset of the first byte of p[0..n) that is not well-formed UTF-8
  * (RFC 3629: no overlong forms, no surrogates, nothing above U+10FFFF),
  * or n when all of it is. */

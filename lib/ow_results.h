@@ -15,11 +15,6 @@
 #include "ow_window.h"
 #include "ow_status.h"
 
-/* Write x into buf with "%.17g" semantics (shortest form that round-trips
- * is not required, but every digit needed is there); "null" for NaN/inf
- * when json is set, "" otherwise. Returns buf. */
-char *ow_fmt_double(char *buf, size_t n, double x, int json);
-
 /* `opwin check --json`: length_D, helix_angle_deg, compression_ratio, the
  * sections array and the warnings array (plus further derived data). */
 enum ow_status ow_results_check_json(const struct ow_study *s, char **out,
@@ -31,11 +26,6 @@ int ow_results_n_figures(void);
 const char *ow_results_figure_key(int i);
 double ow_results_figure(const struct ow_study *s, const struct ow_point *pt,
 			 int i);
-
-/* Status names of verdict v (violated limits and unsafe flags) into
- * names[]; returns the count (0: safe). */
-int ow_results_status_names(const struct ow_verdict *v, const char **names,
-			    int max);
 
 /* `opwin point --json`: every figure, status (array of names), notes
  * (informational flags), margins, zone set-points and heats. */
@@ -64,11 +54,5 @@ enum ow_status ow_results_window_json(const struct ow_study *s,
 				      const struct ow_grid *g,
 				      const struct ow_window *w, char **out,
 				      struct ow_diag *d);
-
-/* The same as ow_io_write_file (ow_io.h): a temporary made with mkstemp
- * beside path, then renamed; a failed write never replaces a good file.
- * OW_EIO on failure (message names the path). */
-enum ow_status ow_results_write_file(const char *path, const char *text,
-				     size_t len, struct ow_diag *d);
 
 #endif

@@ -13,23 +13,6 @@
 #include <string.h>
 
 
-char *ow_fmt_double(char *buf, size_t n, double x, int json)
-{
-	/* The program never calls setlocale, so printf uses the "C" locale's
-	 * decimal point; 17 significant digits round-trip a double. */
-	if (!isfinite(x))
-		snprintf(buf, n, "%s", json ? "null" : "");
-	else
-		snprintf(buf, n, "%.17g", x);
-	return buf;
-}
-
-enum ow_status ow_results_write_file(const char *path, const char *text,
-				     size_t len, struct ow_diag *d)
-{
-	return ow_io_write_file(path, text, len, d);
-}
-
 static cJSON *section_json(const struct ow_screw *s, int i)
 {
 	const struct ow_section *sec = &s->sections[i];
@@ -222,17 +205,6 @@ double ow_results_figure(const struct ow_study *s, const struct ow_point *pt,
 	return fig(s, pt, i);
 }
 
-int ow_results_status_names(const struct ow_verdict *v, const char **names,
-			    int max)
-{
-	int c, n = 0;
-
-	for (c = 0; c < OW_CK_COUNT; c++)
-		if ((v->bits & (1u << c)) && n < max)
-			names[n++] = ow_check_key((enum ow_check)c);
-	return n;
-}
-
 static int add_names(cJSON *o, const char *key, const char **names, int n)
 {
 	cJSON *arr = cJSON_AddArrayToObject(o, key);
@@ -313,7 +285,7 @@ enum ow_status ow_results_point_json(const struct ow_study *s,
 	ok = ok && ow_json_put_num(root, "rpm", pt->rpm);
 	for (i = 0; ok && i < ow_results_n_figures(); i++)
 		ok = ow_json_put_num(root, fig_keys[i], fig(s, pt, i));
-	n = ow_results_status_names(v, names, OW_CK_COUNT);
+	n = ow_classify_names(v, names, OW_CK_COUNT);
 	ok = ok && add_names(root, "status", names, n);
 	n = ow_solver_flag_names(pt->flags & (OW_FLAG_BACKFLOW |
 					      OW_FLAG_NO_MELTING |

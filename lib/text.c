@@ -4,8 +4,6 @@
 #include <stdlib.h>
 #include <string.h>
 
-#include "ow_results.h"
-
 void ow_text_add(struct ow_text *t, const char *str)
 {
 	ow_buf_adds(&t->b, str);
@@ -23,7 +21,7 @@ void ow_text_num(struct ow_text *t, double x, int sep)
 void ow_text_status(struct ow_text *t, const struct ow_verdict *v)
 {
 	const char *names[OW_CK_COUNT];
-	int n = ow_results_status_names(v, names, OW_CK_COUNT), k;
+	int n = ow_classify_names(v, names, OW_CK_COUNT), k;
 
 	ow_text_add(t, ",");
 	for (k = 0; k < n; k++) {
