@@ -12,7 +12,7 @@
 #include <stdlib.h>
 #include <string.h>
 
-#include "ow_config.h"
+#include "ow_study.h"
 #include "ow_solver.h"
 
 #define MAX_ITER 60

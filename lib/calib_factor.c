@@ -6,7 +6,7 @@
 #include <math.h>
 #include <string.h>
 
-#include "ow_config.h"
+#include "ow_study.h"
 
 /* Every rate and temperature alike: eta -> f eta. Power law: m -> f m.
  * Cross: eta0 -> f eta0 and tau* -> f tau* keep eta0 gdot / tau*, so

@@ -13,7 +13,7 @@
 #include <stdlib.h>
 #include <string.h>
 
-#include "ow_config.h"
+#include "ow_study.h"
 #include "ow_io.h"
 
 #define MAX_STUDY_BYTES ((size_t)4 << 20) /* as the loader's guard */

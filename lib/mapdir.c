@@ -12,6 +12,7 @@
 #include <sys/stat.h>
 
 #include "ow_classify.h"
+#include "ow_config.h"
 #include "ow_io.h"
 #include "ow_results.h"
 

@@ -21,7 +21,7 @@
 #include "ow_status.h"
 #include "ow_units.h"
 
-struct ow_study;  /* ow_config.h */
+struct ow_study;  /* ow_study.h */
 struct ow_canvas; /* ow_canvas.h */
 
 /* The factors, in table order. */

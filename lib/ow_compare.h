@@ -18,7 +18,7 @@
 #include <stddef.h>
 
 #include "ow_canvas.h"
-#include "ow_config.h"
+#include "ow_study.h"
 #include "ow_plot.h"
 #include "ow_solver.h"
 #include "ow_sweep.h"

@@ -28,7 +28,7 @@
 #ifndef OW_MAPDIR_H
 #define OW_MAPDIR_H
 
-#include "ow_config.h"
+#include "ow_study.h"
 #include "ow_solver.h"
 #include "ow_status.h"
 #include "ow_sweep.h"

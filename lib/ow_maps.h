@@ -13,7 +13,7 @@
 #define OW_MAPS_H
 
 #include "ow_canvas.h"
-#include "ow_config.h"
+#include "ow_study.h"
 #include "ow_plot.h"
 #include "ow_solver.h"
 #include "ow_sweep.h"

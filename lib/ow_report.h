@@ -18,7 +18,7 @@
 
 #include <stddef.h>
 
-#include "ow_config.h"
+#include "ow_study.h"
 #include "ow_solver.h"
 #include "ow_status.h"
 #include "ow_sweep.h"

@@ -10,7 +10,7 @@
 
 #include "ow_advise.h"
 #include "ow_classify.h"
-#include "ow_config.h"
+#include "ow_study.h"
 #include "ow_solver.h"
 #include "ow_window.h"
 #include "ow_status.h"

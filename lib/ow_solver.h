@@ -9,7 +9,7 @@
 #ifndef OW_SOLVER_H
 #define OW_SOLVER_H
 
-#include "ow_config.h"
+#include "ow_study.h"
 #include "ow_status.h"
 
 /* Flags of a solved point (bits). */

@@ -26,10 +26,10 @@
 #include "ow_status.h"
 
 /* Limits with margins (OW_CK_LIMITS of ow_classify.h, which includes this
- * header through ow_config.h; spread_run.c asserts they agree). */
+ * header through ow_study.h; spread_run.c asserts they agree). */
 #define OW_SPREAD_LIMITS 10
 
-struct ow_study; /* ow_config.h */
+struct ow_study; /* ow_study.h */
 struct ow_grid;  /* ow_sweep.h */
 
 /* The inputs a spread may vary. */

@@ -12,7 +12,7 @@
 #define OW_SWEEP_H
 
 #include "ow_classify.h"
-#include "ow_config.h"
+#include "ow_study.h"
 #include "ow_solver.h"
 
 struct ow_sweep_config {

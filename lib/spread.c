@@ -9,7 +9,7 @@
 
 #include <gsl/gsl_cdf.h>
 
-#include "ow_config.h"
+#include "ow_study.h"
 
 #define TRUNC_SD 3.0      /* normal inputs are cut at +-3 sd */
 #define CALIB_MAX_REL 0.3 /* a calibrated factor's relative error used at

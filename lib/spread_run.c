@@ -10,7 +10,7 @@
 #include <stdlib.h>
 #include <string.h>
 
-#include "ow_config.h"
+#include "ow_study.h"
 #include "ow_sweep.h"
 #include "ow_window.h"
 
