@@ -32,7 +32,7 @@ struct ow_rgba ow_rgba_with_alpha(struct ow_rgba c, double a)
 	return c;
 }
 
-struct ow_canvas *canvas_new(const struct canvas_ops *ops, double width_pt,
+struct ow_canvas *ow_canvas_new(const struct canvas_ops *ops, double width_pt,
                              double height_pt)
 {
 	struct ow_canvas *cv = calloc(1, sizeof *cv);
@@ -48,7 +48,7 @@ struct ow_canvas *canvas_new(const struct canvas_ops *ops, double width_pt,
 	return cv;
 }
 
-void canvas_fail(struct ow_canvas *cv, enum ow_status st, const char *fmt, ...)
+void ow_canvas_fail(struct ow_canvas *cv, enum ow_status st, const char *fmt, ...)
 {
 	va_list ap;
 
@@ -81,10 +81,10 @@ enum ow_status ow_canvas_create_image(enum ow_canvas_format fmt,
 			                   "canvas: PNG scale %g "
 			                   "out of range",
 			                   scale);
-		return canvas_cairo_png(width_pt, height_pt, scale, out, d);
+		return ow_canvas_cairo_png(width_pt, height_pt, scale, out, d);
 	}
 	if (fmt == OW_CANVAS_SVG)
-		return canvas_svg(width_pt, height_pt, out, d);
+		return ow_canvas_svg(width_pt, height_pt, out, d);
 	return ow_diag_set(d, OW_EARG, "canvas: unknown image format %d",
 	                   (int)fmt);
 }
@@ -97,15 +97,6 @@ void ow_canvas_destroy(struct ow_canvas *cv)
 		cv->ops->destroy(cv);
 	free(cv->path);
 	free(cv);
-}
-
-void ow_canvas_size(const struct ow_canvas *cv, double *width_pt,
-                    double *height_pt)
-{
-	if (width_pt)
-		*width_pt = cv->width_pt;
-	if (height_pt)
-		*height_pt = cv->height_pt;
 }
 
 enum ow_status ow_canvas_status(const struct ow_canvas *cv, struct ow_diag *d)
@@ -123,7 +114,7 @@ static int live(struct ow_canvas *cv)
 	if (!cv)
 		return 0;
 	if (cv->finished) {
-		canvas_fail(cv, OW_EARG,
+		ow_canvas_fail(cv, OW_EARG,
 		            "canvas: drawing after the image "
 		            "was written");
 		return 0;
@@ -178,7 +169,7 @@ void ow_canvas_save(struct ow_canvas *cv)
 	if (!live(cv))
 		return;
 	if (cv->depth >= CANVAS_MAX_DEPTH) {
-		canvas_fail(cv, OW_EARG, "canvas: save nested deeper than %d",
+		ow_canvas_fail(cv, OW_EARG, "canvas: save nested deeper than %d",
 		            CANVAS_MAX_DEPTH);
 		return;
 	}
@@ -191,7 +182,7 @@ void ow_canvas_restore(struct ow_canvas *cv)
 	if (!live(cv))
 		return;
 	if (cv->depth <= 0) {
-		canvas_fail(cv, OW_EARG, "canvas: restore without save");
+		ow_canvas_fail(cv, OW_EARG, "canvas: restore without save");
 		return;
 	}
 	cv->gs = cv->stack[--cv->depth];
@@ -219,7 +210,7 @@ void ow_canvas_set_line_width(struct ow_canvas *cv, double width_pt)
 	if (!live(cv))
 		return;
 	if (!(width_pt >= 0.0 && width_pt < 1000.0)) {
-		canvas_fail(cv, OW_EARG, "canvas: line width %g pt", width_pt);
+		ow_canvas_fail(cv, OW_EARG, "canvas: line width %g pt", width_pt);
 		return;
 	}
 	cv->gs.line_width = width_pt;
@@ -232,7 +223,7 @@ void ow_canvas_set_dash(struct ow_canvas *cv, const double *lengths_pt, int n)
 	if (!live(cv))
 		return;
 	if (n < 0 || n > CANVAS_MAX_DASH || (n > 0 && !lengths_pt)) {
-		canvas_fail(cv, OW_EARG,
+		ow_canvas_fail(cv, OW_EARG,
 		            "canvas: dash of %d lengths (at most "
 		            "%d)",
 		            n, CANVAS_MAX_DASH);
@@ -240,7 +231,7 @@ void ow_canvas_set_dash(struct ow_canvas *cv, const double *lengths_pt, int n)
 	}
 	for (i = 0; i < n; i++)
 		if (!(lengths_pt[i] > 0.0 && lengths_pt[i] < 1000.0)) {
-			canvas_fail(cv, OW_EARG, "canvas: dash length %g pt",
+			ow_canvas_fail(cv, OW_EARG, "canvas: dash length %g pt",
 			            lengths_pt[i]);
 			return;
 		}
@@ -254,7 +245,7 @@ void ow_canvas_set_font(struct ow_canvas *cv, double size_pt, int bold)
 	if (!live(cv))
 		return;
 	if (!(size_pt > 0.0 && size_pt < 1000.0)) {
-		canvas_fail(cv, OW_EARG, "canvas: font size %g pt", size_pt);
+		ow_canvas_fail(cv, OW_EARG, "canvas: font size %g pt", size_pt);
 		return;
 	}
 	cv->gs.font_pt = size_pt;
@@ -275,7 +266,7 @@ static struct canvas_seg *push(struct ow_canvas *cv, enum canvas_op op)
 		    realloc(cv->path, (size_t)cap * sizeof *p);
 
 		if (!p) {
-			canvas_fail(cv, OW_ENOMEM, "canvas: out of memory");
+			ow_canvas_fail(cv, OW_ENOMEM, "canvas: out of memory");
 			return NULL;
 		}
 		cv->path = p;
@@ -291,7 +282,7 @@ static int finite2(struct ow_canvas *cv, double x, double y)
 	if (isfinite(x) && isfinite(y))
 		return 1;
 	if (cv)
-		canvas_fail(cv, OW_EARG, "canvas: non-finite coordinate");
+		ow_canvas_fail(cv, OW_EARG, "canvas: non-finite coordinate");
 	return 0;
 }
 
@@ -482,7 +473,7 @@ void ow_canvas_hatch(struct ow_canvas *cv, const struct ow_hatch *h)
 		return;
 	if (!h || !(h->spacing_pt >= 0.5) || !(h->width_pt > 0.0) ||
 	    !isfinite(h->angle_deg)) {
-		canvas_fail(cv, OW_EARG,
+		ow_canvas_fail(cv, OW_EARG,
 		            "canvas: hatch needs a spacing of at "
 		            "least 0.5 pt and a positive width");
 		return;

@@ -50,7 +50,7 @@ static void shared_release(void *p)
 	free(sh);
 }
 
-void canvas_ft_close(struct canvas_ft *f)
+void ow_canvas_ft_close(struct canvas_ft *f)
 {
 	int i;
 
@@ -89,7 +89,7 @@ static enum ow_status open_face(struct canvas_ft *f, int i, struct ow_diag *d)
 	return OW_OK;
 }
 
-enum ow_status canvas_ft_open(struct canvas_ft **out, struct ow_diag *d)
+enum ow_status ow_canvas_ft_open(struct canvas_ft **out, struct ow_diag *d)
 {
 	struct canvas_ft *f = calloc(1, sizeof *f);
 	enum ow_status st = OW_OK;
@@ -114,16 +114,16 @@ enum ow_status canvas_ft_open(struct canvas_ft **out, struct ow_diag *d)
 	*out = f;
 	return OW_OK;
 fail:
-	canvas_ft_close(f);
+	ow_canvas_ft_close(f);
 	return st;
 }
 
-void *canvas_ft_face(struct canvas_ft *f, int bold)
+void *ow_canvas_ft_face(struct canvas_ft *f, int bold)
 {
 	return f->cface[bold ? 1 : 0];
 }
 
-void canvas_ft_select(void *cairo_cr, struct canvas_ft *f, int bold,
+void ow_canvas_ft_select(void *cairo_cr, struct canvas_ft *f, int bold,
                       double size)
 {
 	cairo_t *cr = cairo_cr;
@@ -136,7 +136,7 @@ void canvas_ft_select(void *cairo_cr, struct canvas_ft *f, int bold,
 	cairo_font_options_set_antialias(o, CAIRO_ANTIALIAS_GRAY);
 	cairo_set_font_options(cr, o);
 	cairo_font_options_destroy(o);
-	cairo_set_font_face(cr, canvas_ft_face(f, bold));
+	cairo_set_font_face(cr, ow_canvas_ft_face(f, bold));
 	cairo_set_font_size(cr, size);
 }
 
@@ -158,7 +158,7 @@ static void check(struct ow_canvas *cv)
 	cairo_status_t s = cairo_status(cr_of(cv));
 
 	if (s != CAIRO_STATUS_SUCCESS)
-		canvas_fail(cv,
+		ow_canvas_fail(cv,
 		            s == CAIRO_STATUS_NO_MEMORY ? OW_ENOMEM : OW_EIO,
 		            "cairo: %s", cairo_status_to_string(s));
 }
@@ -238,7 +238,7 @@ static void png_text(struct ow_canvas *cv, double x, double y, double angle_rad,
 	cairo_t *cr = im->cr;
 
 	cairo_save(cr);
-	canvas_ft_select(cr, im->ft, cv->gs.bold, cv->gs.font_pt);
+	ow_canvas_ft_select(cr, im->ft, cv->gs.bold, cv->gs.font_pt);
 	source(cr, cv);
 	cairo_translate(cr, x, y);
 	cairo_rotate(cr, -angle_rad); /* y down: counter-clockwise as seen */
@@ -255,7 +255,7 @@ static double png_text_width(struct ow_canvas *cv, const char *s)
 	cairo_text_extents_t e;
 
 	cairo_save(im->cr);
-	canvas_ft_select(im->cr, im->ft, cv->gs.bold, cv->gs.font_pt);
+	ow_canvas_ft_select(im->cr, im->ft, cv->gs.bold, cv->gs.font_pt);
 	cairo_text_extents(im->cr, s, &e);
 	cairo_restore(im->cr);
 	return e.x_advance;
@@ -425,7 +425,7 @@ static void png_destroy(struct ow_canvas *cv)
 		cairo_destroy(im->cr);
 	if (im->surf)
 		cairo_surface_destroy(im->surf);
-	canvas_ft_close(im->ft);
+	ow_canvas_ft_close(im->ft);
 	free(im);
 	cv->impl = NULL;
 }
@@ -435,10 +435,10 @@ static const struct canvas_ops png_ops = {
     png_text_width, png_encode, png_destroy,
 };
 
-enum ow_status canvas_cairo_png(double width_pt, double height_pt, double scale,
+enum ow_status ow_canvas_cairo_png(double width_pt, double height_pt, double scale,
                                 struct ow_canvas **out, struct ow_diag *d)
 {
-	struct ow_canvas *cv = canvas_new(&png_ops, width_pt, height_pt);
+	struct ow_canvas *cv = ow_canvas_new(&png_ops, width_pt, height_pt);
 	struct png_impl *im = calloc(1, sizeof *im);
 	int wpx = (int)ceil(width_pt * scale - 1e-9);
 	int hpx = (int)ceil(height_pt * scale - 1e-9);
@@ -449,7 +449,7 @@ enum ow_status canvas_cairo_png(double width_pt, double height_pt, double scale,
 		goto fail;
 	}
 	cv->impl = im;
-	st = canvas_ft_open(&im->ft, d);
+	st = ow_canvas_ft_open(&im->ft, d);
 	if (st != OW_OK)
 		goto fail;
 	im->surf = cairo_image_surface_create(CAIRO_FORMAT_ARGB32, wpx, hpx);

@@ -32,7 +32,7 @@ static int ok(struct ow_canvas *cv, HPDF_STATUS r, const char *what)
 {
 	if (r == HPDF_OK)
 		return 1;
-	canvas_fail(cv, OW_EIO, "PDF: libharu refused %s (error 0x%04X)", what,
+	ow_canvas_fail(cv, OW_EIO, "PDF: libharu refused %s (error 0x%04X)", what,
 	            (unsigned)r);
 	return 0;
 }
@@ -67,7 +67,7 @@ static HPDF_ExtGState alpha_state(struct ow_canvas *cv, double a)
 	    !ok(cv,
 	        HPDF_ExtGState_SetAlphaStroke(im->alpha_gs[i], (HPDF_REAL)a),
 	        "an alpha")) {
-		canvas_fail(cv, OW_EIO, "PDF: libharu refused an alpha state");
+		ow_canvas_fail(cv, OW_EIO, "PDF: libharu refused an alpha state");
 		im->n_alphas = i; /* do not cache a broken one */
 		return NULL;
 	}
@@ -270,7 +270,7 @@ enum ow_status ow_canvas_create_pdf(void *hpdf_doc, void *hpdf_page,
 		return ow_diag_set(d, OW_EARG,
 		                   "PDF canvas: missing document, "
 		                   "page, fonts, placement or size");
-	cv = canvas_new(&pdf_ops, width_pt, height_pt);
+	cv = ow_canvas_new(&pdf_ops, width_pt, height_pt);
 	im = calloc(1, sizeof *im);
 	if (!cv || !im) {
 		free(cv);

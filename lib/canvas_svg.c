@@ -205,7 +205,7 @@ static double svg_text_width(struct ow_canvas *cv, const char *s)
 	struct svg_impl *im = cv->impl;
 	cairo_text_extents_t e;
 
-	canvas_ft_select(im->mcr, im->ft, cv->gs.bold, cv->gs.font_pt);
+	ow_canvas_ft_select(im->mcr, im->ft, cv->gs.bold, cv->gs.font_pt);
 	cairo_text_extents(im->mcr, s, &e);
 	return e.x_advance;
 }
@@ -240,7 +240,7 @@ static void svg_destroy(struct ow_canvas *cv)
 		cairo_destroy(im->mcr);
 	if (im->msurf)
 		cairo_surface_destroy(im->msurf);
-	canvas_ft_close(im->ft);
+	ow_canvas_ft_close(im->ft);
 	free(im);
 	cv->impl = NULL;
 }
@@ -265,10 +265,10 @@ static void header(struct svg_impl *im, double w, double h)
 	puts_(im, "\" stroke-linejoin=\"round\">\n");
 }
 
-enum ow_status canvas_svg(double width_pt, double height_pt,
+enum ow_status ow_canvas_svg(double width_pt, double height_pt,
                           struct ow_canvas **out, struct ow_diag *d)
 {
-	struct ow_canvas *cv = canvas_new(&svg_ops, width_pt, height_pt);
+	struct ow_canvas *cv = ow_canvas_new(&svg_ops, width_pt, height_pt);
 	struct svg_impl *im = calloc(1, sizeof *im);
 	enum ow_status st;
 
@@ -278,7 +278,7 @@ enum ow_status canvas_svg(double width_pt, double height_pt,
 		goto fail;
 	}
 	cv->impl = im;
-	st = canvas_ft_open(&im->ft, d);
+	st = ow_canvas_ft_open(&im->ft, d);
 	if (st != OW_OK)
 		goto fail;
 	im->msurf = cairo_image_surface_create(CAIRO_FORMAT_A8, 1, 1);

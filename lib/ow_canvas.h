@@ -114,10 +114,6 @@ enum ow_status ow_canvas_create_pdf(void *hpdf_doc, void *hpdf_page,
  * PDF canvas closes any graphics states still open on the page. */
 void ow_canvas_destroy(struct ow_canvas *cv);
 
-/* Size in canvas points. */
-void ow_canvas_size(const struct ow_canvas *cv, double *width_pt,
-                    double *height_pt);
-
 /* The first failure of any drawing call so far (OW_OK if none), its
  * message copied into d. */
 enum ow_status ow_canvas_status(const struct ow_canvas *cv, struct ow_diag *d);

@@ -154,9 +154,6 @@ void ow_plot_axes(const struct ow_plot *p, const struct ow_plot_axis *x,
 /* Clip later drawing to the data area (pair with ow_canvas_restore). */
 void ow_plot_clip(const struct ow_plot *p);
 
-/* A title centred above the data area. */
-void ow_plot_title(const struct ow_plot *p, const char *utf8, int bold);
-
 /* --- fields and contours --------------------------------------------- */
 
 /* Values z on a rectilinear grid: z[j * nx + i] at (x[i], y[j]); x and y

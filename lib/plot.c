@@ -570,19 +570,6 @@ void ow_plot_axes(const struct ow_plot *p, const struct ow_plot_axis *x,
 	ow_canvas_restore(cv);
 }
 
-void ow_plot_title(const struct ow_plot *p, const char *utf8, int bold)
-{
-	if (!utf8)
-		return;
-	ow_canvas_save(p->cv);
-	ow_canvas_set_colour(p->cv, p->ink);
-	ow_canvas_set_font(p->cv, p->font_pt * 1.1, bold);
-	ow_canvas_text(p->cv, p->area.x + 0.5 * p->area.w,
-	               p->area.y - 0.6 * p->font_pt, utf8, OW_ALIGN_CENTRE,
-	               OW_VALIGN_BASELINE, 0);
-	ow_canvas_restore(p->cv);
-}
-
 /* --- lines, markers, regions ------------------------------------------ */
 
 void ow_plot_set_dash(struct ow_canvas *cv, enum ow_dash_style d, double w)
