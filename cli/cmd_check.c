@@ -135,8 +135,8 @@ static void print_sweep(const struct ow_study *st, const struct cli_common *c)
 	       a->rpm_from, a->rpm_to, a->rpm_steps, how,
 	       disp(c, dim, a->axis_from), disp(c, dim, a->axis_to),
 	       lab(c, dim), a->axis_steps, z,
-	       disp(c, OW_DIM_TEMPERATURE, ow_sweep_set_ref(st, a->axis_from)),
-	       disp(c, OW_DIM_TEMPERATURE, ow_sweep_set_ref(st, a->axis_to)),
+	       disp(c, OW_DIM_TEMPERATURE, ow_line_axis_ref_K(&st->line, a->axis_from)),
+	       disp(c, OW_DIM_TEMPERATURE, ow_line_axis_ref_K(&st->line, a->axis_to)),
 	       lab(c, OW_DIM_TEMPERATURE));
 }
 

@@ -60,10 +60,10 @@ static int references_differ(const struct ow_study *a,
 {
 	const struct ow_axes *x = &a->line.axes;
 
-	return !same(ow_sweep_set_ref(a, x->axis_from),
-	             ow_sweep_set_ref(b, x->axis_from)) ||
-	       !same(ow_sweep_set_ref(a, x->axis_to),
-	             ow_sweep_set_ref(b, x->axis_to));
+	return !same(ow_line_axis_ref_K(&a->line, x->axis_from),
+	             ow_line_axis_ref_K(&b->line, x->axis_from)) ||
+	       !same(ow_line_axis_ref_K(&a->line, x->axis_to),
+	             ow_line_axis_ref_K(&b->line, x->axis_to));
 }
 
 char *ow_compare_alignment(const struct ow_compare *cmp,
@@ -296,7 +296,7 @@ static enum ow_status solve_at(struct ow_compare *cmp, struct ow_solver **sv,
 		enum ow_status st;
 
 		ow_line_apply_axis(&s->line, p->axis, set_K);
-		p->set_ref_K[k] = ow_sweep_set_ref(s, p->axis);
+		p->set_ref_K[k] = ow_line_axis_ref_K(&s->line, p->axis);
 		st = ow_solver_run(sv[k], p->rpm, set_K, 0.0, &p->pt[k], d);
 		if (st != OW_OK)
 			return st;

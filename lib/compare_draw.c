@@ -126,7 +126,7 @@ static double y_axis(const struct ow_compare *cmp, enum ow_unit_system u,
 {
 	if (cmp->by_shift)
 		return ow_display_value(u, OW_DIM_TEMP_DIFF, axis);
-	return shown_temp(u, ow_sweep_set_ref(cmp->study[0], axis));
+	return shown_temp(u, ow_line_axis_ref_K(&cmp->study[0]->line, axis));
 }
 
 static enum ow_status fields_make(const struct ow_compare *cmp,

@@ -34,9 +34,12 @@ int ow_line_zone_at(const struct ow_line *l, double x_m)
 	return l->n_zones - 1;
 }
 
-double ow_line_barrel_temp(const struct ow_line *l, double x_m)
+double ow_line_barrel_temp(const struct ow_line *l, const double *set_K,
+			   double x_m)
 {
-	return l->zones[ow_line_zone_at(l, x_m)].set_K;
+	int z = ow_line_zone_at(l, x_m);
+
+	return set_K ? set_K[z] : l->zones[z].set_K;
 }
 
 void ow_line_zone_defaults(struct ow_line *l, double diameter_m)
@@ -79,6 +82,14 @@ void ow_line_apply_axis(const struct ow_line *l, double v, double *set_K)
 			t = v;
 		set_K[i] = t;
 	}
+}
+
+double ow_line_axis_ref_K(const struct ow_line *l, double axis_value)
+{
+	double set_K[OW_MAX_ZONES];
+
+	ow_line_apply_axis(l, axis_value, set_K);
+	return set_K[ow_line_reference_zone(l)];
 }
 
 int ow_line_reference_zone(const struct ow_line *l)

@@ -423,7 +423,7 @@ static enum ow_status lattice_axes(const struct lattice_doc *L,
 
 		if (!cJSON_IsNumber(va))
 			return key_bad(L, "axis", "expected numbers");
-		set_K = ow_sweep_set_ref(s, va->valuedouble);
+		set_K = ow_line_axis_ref_K(&s->line, va->valuedouble);
 		for (ir = 0; ir < g->n_rpm; ir++) {
 			const cJSON *vr = cJSON_GetArrayItem(r, ir);
 			struct ow_grid_point *p = ow_grid_at(g, ir, ia);

@@ -319,7 +319,7 @@ void maps_boundary_points(const struct ow_study *s, const struct ow_polyline *l,
 
 	for (k = 0; k < l->n; k++) {
 		out[k].x = l->p[k].rpm;
-		out[k].y = maps_temp(u, ow_sweep_set_ref(s, l->p[k].axis));
+		out[k].y = maps_temp(u, ow_line_axis_ref_K(&s->line, l->p[k].axis));
 	}
 }
 

@@ -118,12 +118,20 @@ void ow_line_zone_defaults(struct ow_line *l, double diameter_m);
 /* Zone (0-based) that holds axial position x_m. */
 int ow_line_zone_at(const struct ow_line *l, double x_m);
 
-/* Barrel set-point at axial position x_m (the zone that holds x). */
-double ow_line_barrel_temp(const struct ow_line *l, double x_m);
+/* Barrel temperature at axial position x_m: set_K[zone] of the zone that
+ * holds x (set_K NULL: the line's own set-points, zones[].set_K). */
+double ow_line_barrel_temp(const struct ow_line *l, const double *set_K,
+			   double x_m);
 
 /* Zone set-points after applying barrel-axis value v in the line's mode
- * (K absolute, or K difference for shift); writes l->n_zones values. */
+ * (K absolute, or K difference for shift); writes l->n_zones values. This
+ * and ow_line_axis_ref_K are the one place where an axis value becomes
+ * set-points. */
 void ow_line_apply_axis(const struct ow_line *l, double v, double *set_K);
+
+/* Axis value -> the reference zone's absolute set-point (K): what maps,
+ * windows and outputs show on their barrel axis. */
+double ow_line_axis_ref_K(const struct ow_line *l, double axis_value);
 
 /* The axis's reference zone (mode zone: that zone; set: zones_from... the
  * common value; shift: the last zone), 0-based. */

@@ -69,7 +69,4 @@ static inline struct ow_grid_point *ow_grid_at(const struct ow_grid *g,
 void ow_sweep_predict(const struct ow_point *const *prev, int n, double rpm,
 		      struct ow_solver_start *out);
 
-/* Axis value -> the reference zone's absolute set-point (K). */
-double ow_sweep_set_ref(const struct ow_study *s, double axis_value);
-
 #endif

@@ -405,7 +405,7 @@ static cJSON *polyline_json(const struct ow_study *s,
 
 	for (i = 0; ok && i < pl->n; i++) {
 		double v[3] = {pl->p[i].rpm, pl->p[i].axis,
-			       C_OF_K(ow_sweep_set_ref(s, pl->p[i].axis))};
+			       C_OF_K(ow_line_axis_ref_K(&s->line, pl->p[i].axis))};
 		cJSON *pt = cJSON_CreateDoubleArray(v, 3);
 
 		ok = pt && cJSON_AddItemToArray(arr, pt);

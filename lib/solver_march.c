@@ -54,7 +54,7 @@ struct snap {
 
 double ow_solver_barrel(const struct ow_solver *sv, double x_m)
 {
-	return sv->ctrl_K[ow_line_zone_at(&sv->s->line, x_m)];
+	return ow_line_barrel_temp(&sv->s->line, sv->ctrl_K, x_m);
 }
 
 /* Heat-transfer coefficient from the control point to the bore at x,

@@ -12,14 +12,6 @@ void ow_sweep_default(struct ow_sweep_config *c)
 	memset(c, 0, sizeof *c);
 }
 
-double ow_sweep_set_ref(const struct ow_study *s, double axis_value)
-{
-	double set_K[OW_MAX_ZONES];
-
-	ow_line_apply_axis(&s->line, axis_value, set_K);
-	return set_K[ow_line_reference_zone(&s->line)];
-}
-
 void ow_grid_destroy(struct ow_grid *g)
 {
 	if (!g)
@@ -290,7 +282,7 @@ static enum ow_status make_grid(const struct ow_study *s,
 			gp->axis = ax->axis_from +
 				   (ax->axis_to - ax->axis_from) * ia /
 					   (g->n_axis - 1);
-			gp->set_ref_K = ow_sweep_set_ref(s, gp->axis);
+			gp->set_ref_K = ow_line_axis_ref_K(&s->line, gp->axis);
 		}
 	*out = g;
 	return OW_OK;

@@ -76,7 +76,7 @@ static void centre(const struct ow_study *s, const struct ow_grid *g,
 		ow_grid_at(g, g->n_rpm - 1, g->n_axis - 1);
 	struct norm n = {p0->rpm, p1->rpm - p0->rpm, p0->axis,
 			 p1->axis - p0->axis};
-	double off = ow_sweep_set_ref(s, 0.0) - OW_ZERO_C_K, r0, a0;
+	double off = ow_line_axis_ref_K(&s->line, 0.0) - OW_ZERO_C_K, r0, a0;
 	int nr = steps_in(w->rpm_min, w->rpm_max, w->rpm_step, 0.0, &r0);
 	int na = steps_in(w->axis_min, w->axis_max, w->temp_step_K, off, &a0);
 	double best = -1.0;
@@ -94,7 +94,7 @@ static void centre(const struct ow_study *s, const struct ow_grid *g,
 				w->centre.axis = axis;
 			}
 		}
-	w->centre_set_K = ow_sweep_set_ref(s, w->centre.axis);
+	w->centre_set_K = ow_line_axis_ref_K(&s->line, w->centre.axis);
 	w->centre_clearance = best;
 }
 
@@ -243,8 +243,8 @@ enum ow_status ow_window_extract(const struct ow_study *s,
 		w->rpm_max = w->bound[OW_WB_RPM_MAX].value;
 		w->axis_min = w->bound[OW_WB_SET_MIN].value;
 		w->axis_max = w->bound[OW_WB_SET_MAX].value;
-		w->set_min_K = ow_sweep_set_ref(s, w->axis_min);
-		w->set_max_K = ow_sweep_set_ref(s, w->axis_max);
+		w->set_min_K = ow_line_axis_ref_K(&s->line, w->axis_min);
+		w->set_max_K = ow_line_axis_ref_K(&s->line, w->axis_max);
 		inside(g, w);
 	}
 	if (st == OW_OK)

@@ -504,7 +504,7 @@ enum ow_status ow_window_locate(const struct ow_study *s,
 	struct field f = {0};
 	struct rows r = {0};
 	struct best b;
-	double offset = ow_sweep_set_ref(s, 0.0) - OW_ZERO_C_K, span_r, span_a, rstep, tstep;
+	double offset = ow_line_axis_ref_K(&s->line, 0.0) - OW_ZERO_C_K, span_r, span_a, rstep, tstep;
 	enum ow_status st = OW_OK;
 
 	if (field_make(s, g, &f)) {
@@ -563,7 +563,7 @@ enum ow_status ow_window_verdict_at(const struct ow_study *s,
 				    unsigned *bits, struct ow_diag *d)
 {
 	struct field f = {0};
-	double axis = set_K - ow_sweep_set_ref(s, 0.0), v[MAX_CH];
+	double axis = set_K - ow_line_axis_ref_K(&s->line, 0.0), v[MAX_CH];
 	double r1, a1, tol = 1e-9;
 	int k;
 

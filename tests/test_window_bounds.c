@@ -37,7 +37,7 @@ static struct ow_grid *synthetic(const struct ow_study *s, int n,
 				 (ax->rpm_to - ax->rpm_from) * ir / (n - 1);
 			p->axis = ax->axis_from +
 				  (ax->axis_to - ax->axis_from) * ia / (n - 1);
-			p->set_ref_K = ow_sweep_set_ref(s, p->axis);
+			p->set_ref_K = ow_line_axis_ref_K(&s->line, p->axis);
 			for (c = 0; c < OW_CK_LIMITS; c++)
 				p->v.margin[c] =
 					ow_check_active(&s->line.limits,
