@@ -303,44 +303,22 @@ static void zones(struct diffs *x)
 	    a->root_temp_K, b->root_temp_K);
 }
 
-static const char *die_name(enum ow_die_type t)
-{
-	static const char *const names[] = {"circle", "slit", "annulus",
-	                                    "measured"};
-
-	return names[t];
-}
-
 static void die(struct diffs *x)
 {
 	const struct ow_die *a = &x->s[0]->line.die, *b = &x->s[1]->line.die;
-	int is[4][2], t;
+	const struct ow_die_field *f = ow_die_fields();
+	char field[48];
+	int i;
 
-	for (t = 0; t < 4; t++) {
-		is[t][0] = a->type == (enum ow_die_type)t;
-		is[t][1] = b->type == (enum ow_die_type)t;
+	text(x, "die.type", (const int[2]){1, 1}, ow_die_type_name(a->type),
+	     ow_die_type_name(b->type));
+	for (i = 0; i < OW_DIE_FIELDS; i++) {
+		snprintf(field, sizeof field, "die.%s", f[i].key);
+		qty(x, field, f[i].dim,
+		    (const int[2]){ow_die_has(a->type, &f[i]),
+		                   ow_die_has(b->type, &f[i])},
+		    ow_die_value(a, &f[i]), ow_die_value(b, &f[i]));
 	}
-	text(x, "die.type", (const int[2]){1, 1}, die_name(a->type),
-	     die_name(b->type));
-	qty(x, "die.diameter", OW_DIM_LENGTH, is[OW_DIE_CIRCLE], a->diameter_m,
-	    b->diameter_m);
-	qty(x, "die.width", OW_DIM_LENGTH, is[OW_DIE_SLIT], a->width_m,
-	    b->width_m);
-	qty(x, "die.gap", OW_DIM_LENGTH, is[OW_DIE_SLIT], a->gap_m, b->gap_m);
-	qty(x, "die.outer_diameter", OW_DIM_LENGTH, is[OW_DIE_ANNULUS],
-	    a->outer_diameter_m, b->outer_diameter_m);
-	qty(x, "die.inner_diameter", OW_DIM_LENGTH, is[OW_DIE_ANNULUS],
-	    a->inner_diameter_m, b->inner_diameter_m);
-	qty(x, "die.length", OW_DIM_LENGTH,
-	    (const int[2]){a->type != OW_DIE_MEASURED,
-	                   b->type != OW_DIE_MEASURED},
-	    a->length_m, b->length_m);
-	qty(x, "die.pressure", OW_DIM_PRESSURE, is[OW_DIE_MEASURED],
-	    a->pressure_Pa, b->pressure_Pa);
-	qty(x, "die.output", OW_DIM_MASS_FLOW, is[OW_DIE_MEASURED],
-	    a->output_kg_s, b->output_kg_s);
-	qty(x, "die.temperature", OW_DIM_TEMPERATURE, is[OW_DIE_MEASURED],
-	    a->temp_K, b->temp_K);
 }
 
 static void limits(struct diffs *x)

@@ -540,60 +540,37 @@ static enum ow_status parse_barrel(const struct ow_jin *j, const cJSON *o,
 			       &l->root_temp_K);
 }
 
-static const char *const *die_keys(enum ow_die_type t)
-{
-	static const char *const circle[] = {"type", "diameter", "length",
-					     NULL};
-	static const char *const slit[] = {"type", "width", "gap", "length",
-					   NULL};
-	static const char *const annulus[] = {"type", "outer_diameter",
-					      "inner_diameter", "length",
-					      NULL};
-	static const char *const measured[] = {"type", "pressure", "output",
-					       "temperature", NULL};
-	static const char *const *const keys[] = {circle, slit, annulus,
-						  measured};
-
-	return keys[t];
-}
-
+/* The die block: its type, then every field of that type (ow_die_fields),
+ * each required. */
 static enum ow_status parse_die(const struct ow_jin *j, const cJSON *o,
 				struct ow_die *die)
 {
-	static const char *const types[] = {"circle", "slit", "annulus",
-					    "measured", NULL};
-	const struct qty_field f[] = {
-		{"diameter", OW_DIM_LENGTH, &die->diameter_m},
-		{"length", OW_DIM_LENGTH, &die->length_m},
-		{"width", OW_DIM_LENGTH, &die->width_m},
-		{"gap", OW_DIM_LENGTH, &die->gap_m},
-		{"outer_diameter", OW_DIM_LENGTH, &die->outer_diameter_m},
-		{"inner_diameter", OW_DIM_LENGTH, &die->inner_diameter_m},
-		{"pressure", OW_DIM_PRESSURE, &die->pressure_Pa},
-		{"output", OW_DIM_MASS_FLOW, &die->output_kg_s},
-		{"temperature", OW_DIM_TEMPERATURE, &die->temp_K},
-	};
+	const char *types[OW_DIE_TYPES + 1], *keys[OW_DIE_FIELDS + 2];
+	const struct ow_die_field *f = ow_die_fields();
+	int i, k, t;
 	char p[OW_JPATH_LEN];
-	const char *const *keys;
 	const cJSON *d;
-	size_t i, k;
-	int t = 0;
 	enum ow_status st = get_object(j, o, "", "die", NULL, 1, &d, p);
 
+	for (t = 0; t < OW_DIE_TYPES; t++)
+		types[t] = ow_die_type_name((enum ow_die_type)t);
+	types[OW_DIE_TYPES] = NULL;
+	t = 0; /* the choice's index */
 	if (st == OW_OK)
 		st = ow_jin_choice(j, d, p, "type", types, OW_JIN_REQUIRED, &t);
 	if (st != OW_OK)
 		return st;
 	die->type = (enum ow_die_type)t;
-	keys = die_keys(die->type);
+	keys[0] = "type";
+	for (i = 0, k = 1; i < OW_DIE_FIELDS; i++)
+		if (ow_die_has(die->type, &f[i]))
+			keys[k++] = f[i].key;
+	keys[k] = NULL;
 	st = ow_jin_keys(j, d, p, keys);
-	for (i = 0; st == OW_OK && i < sizeof f / sizeof f[0]; i++) {
-		for (k = 1; keys[k] && strcmp(keys[k], f[i].key); k++)
-			;
-		if (keys[k]) /* every field of this die type is required */
+	for (i = 0; st == OW_OK && i < OW_DIE_FIELDS; i++)
+		if (ow_die_has(die->type, &f[i]))
 			st = ow_jin_qty(j, d, p, f[i].key, f[i].dim,
-					OW_JIN_REQUIRED, f[i].out);
-	}
+					OW_JIN_REQUIRED, ow_die_slot(die, &f[i]));
 	return st;
 }
 

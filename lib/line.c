@@ -5,6 +5,62 @@
 #include <math.h>
 #include <stddef.h>
 
+#define D(f) offsetof(struct ow_die, f)
+#define T(t) (1u << OW_DIE_##t)
+
+/* Every field of every die type, in the order the file lists them. */
+static const struct ow_die_field die_fields[] = {
+	{"diameter", "Diameter", OW_DIM_LENGTH, D(diameter_m), T(CIRCLE), 4},
+	{"width", "Width", OW_DIM_LENGTH, D(width_m), T(SLIT), 4},
+	{"gap", "Gap", OW_DIM_LENGTH, D(gap_m), T(SLIT), 4},
+	{"outer_diameter", "Outer diameter", OW_DIM_LENGTH,
+	 D(outer_diameter_m), T(ANNULUS), 5},
+	{"inner_diameter", "Inner diameter", OW_DIM_LENGTH,
+	 D(inner_diameter_m), T(ANNULUS), 5},
+	{"length", "Land length", OW_DIM_LENGTH, D(length_m),
+	 T(CIRCLE) | T(SLIT) | T(ANNULUS), 4},
+	{"pressure", "Measured pressure", OW_DIM_PRESSURE, D(pressure_Pa),
+	 T(MEASURED), 4},
+	{"output", "at throughput", OW_DIM_MASS_FLOW, D(output_kg_s),
+	 T(MEASURED), 4},
+	{"temperature", "and melt temperature", OW_DIM_TEMPERATURE, D(temp_K),
+	 T(MEASURED), 4},
+};
+
+#undef D
+#undef T
+
+_Static_assert(sizeof die_fields / sizeof die_fields[0] == OW_DIE_FIELDS,
+	       "OW_DIE_FIELDS counts the die fields");
+
+const struct ow_die_field *ow_die_fields(void)
+{
+	return die_fields;
+}
+
+int ow_die_has(enum ow_die_type t, const struct ow_die_field *f)
+{
+	return (f->types >> t) & 1u;
+}
+
+double ow_die_value(const struct ow_die *d, const struct ow_die_field *f)
+{
+	return *(const double *)((const char *)d + f->offset);
+}
+
+double *ow_die_slot(struct ow_die *d, const struct ow_die_field *f)
+{
+	return (double *)((char *)d + f->offset);
+}
+
+const char *ow_die_type_name(enum ow_die_type t)
+{
+	static const char *const names[OW_DIE_TYPES] = {"circle", "slit",
+							"annulus", "measured"};
+
+	return (unsigned)t < OW_DIE_TYPES ? names[t] : "?";
+}
+
 void ow_line_default(struct ow_line *l)
 {
 	*l = (struct ow_line){0};

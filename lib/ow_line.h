@@ -4,7 +4,10 @@
 #ifndef OW_LINE_H
 #define OW_LINE_H
 
+#include <stddef.h>
+
 #include "ow_status.h"
+#include "ow_units.h"
 
 #define OW_MAX_ZONES 16
 
@@ -36,12 +39,15 @@ struct ow_zone {
 #define OW_ZONE_COOLING_SHARE 0.4
 #define OW_ZONE_WALL_H 2000.0
 
+/* The die types; which fields each has is said once, in the table of
+ * ow_die_fields (line.c). */
 enum ow_die_type {
 	OW_DIE_CIRCLE,   /* diameter_m, length_m */
 	OW_DIE_SLIT,     /* width_m, gap_m, length_m */
 	OW_DIE_ANNULUS,  /* outer_diameter_m, inner_diameter_m, length_m */
 	OW_DIE_MEASURED, /* pressure_Pa at output_kg_s and temp_K */
 };
+#define OW_DIE_TYPES (OW_DIE_MEASURED + 1)
 
 struct ow_die {
 	enum ow_die_type type;
@@ -50,6 +56,35 @@ struct ow_die {
 	double outer_diameter_m, inner_diameter_m;
 	double pressure_Pa, output_kg_s, temp_K; /* measured point */
 };
+
+/* One input field of a die: the loader, the comparison of two studies and
+ * the report's inputs page all walk this table. */
+struct ow_die_field {
+	const char *key;   /* in the study file's die block ("gap") */
+	const char *label; /* in the report ("Gap") */
+	enum ow_dim dim;   /* what its value is */
+	size_t offset;     /* offsetof(struct ow_die, <field>), a double */
+	unsigned types;    /* 1u << type for each die type that has it */
+	int digits;        /* significant digits the report shows */
+};
+
+/* The OW_DIE_FIELDS die fields in file order (every field of a type is
+ * required). Static storage. */
+#define OW_DIE_FIELDS 9
+const struct ow_die_field *ow_die_fields(void);
+
+/* Does a die of type t have field f? */
+int ow_die_has(enum ow_die_type t, const struct ow_die_field *f);
+
+/* The value of field f of die d (SI). */
+double ow_die_value(const struct ow_die *d, const struct ow_die_field *f);
+
+/* Where field f of die d is stored, for the loader. */
+double *ow_die_slot(struct ow_die *d, const struct ow_die_field *f);
+
+/* The study file's word for die type t ("circle", "slit", "annulus",
+ * "measured"); "?" out of range. */
+const char *ow_die_type_name(enum ow_die_type t);
 
 /* A limit is active when its value is finite; NAN means "not set". */
 struct ow_limits {

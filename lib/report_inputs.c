@@ -413,34 +413,19 @@ static void die(struct inputs *in)
 	static const char *names[] = {"circular", "slit", "annular",
 	                              "measured operating point"};
 	const struct ow_die *d = &in->r->s->line.die;
+	const struct ow_die_field *f = ow_die_fields();
+	char key[48];
+	int i;
 
 	rpt_subheading(in->r, "Die and screen pack", 60.0);
 	rpt_table_head(in->r, &qvs);
 	text_row(in, "Die", names[d->type], NULL);
-	if (d->type == OW_DIE_CIRCLE)
-		qty_row(in, "Diameter", "die.diameter", OW_DIM_LENGTH,
-		        d->diameter_m, 4);
-	if (d->type == OW_DIE_SLIT) {
-		qty_row(in, "Width", "die.width", OW_DIM_LENGTH, d->width_m, 4);
-		qty_row(in, "Gap", "die.gap", OW_DIM_LENGTH, d->gap_m, 4);
-	}
-	if (d->type == OW_DIE_ANNULUS) {
-		qty_row(in, "Outer diameter", "die.outer_diameter",
-		        OW_DIM_LENGTH, d->outer_diameter_m, 5);
-		qty_row(in, "Inner diameter", "die.inner_diameter",
-		        OW_DIM_LENGTH, d->inner_diameter_m, 5);
-	}
-	if (d->type == OW_DIE_MEASURED) {
-		qty_row(in, "Measured pressure", "die.pressure",
-		        OW_DIM_PRESSURE, d->pressure_Pa, 4);
-		qty_row(in, "at throughput", "die.output", OW_DIM_MASS_FLOW,
-		        d->output_kg_s, 4);
-		qty_row(in, "and melt temperature", "die.temperature",
-		        OW_DIM_TEMPERATURE, d->temp_K, 4);
-	} else {
-		qty_row(in, "Land length", "die.length", OW_DIM_LENGTH,
-		        d->length_m, 4);
-	}
+	for (i = 0; i < OW_DIE_FIELDS; i++)
+		if (ow_die_has(d->type, &f[i])) {
+			snprintf(key, sizeof key, "die.%s", f[i].key);
+			qty_row(in, f[i].label, key, f[i].dim,
+			        ow_die_value(d, &f[i]), f[i].digits);
+		}
 	qty_row(in, "Screen pack and adapter pressure drop",
 	        "screen_pack.pressure_drop", OW_DIM_PRESSURE,
 	        in->r->s->line.screen_pressure_Pa, 4);
