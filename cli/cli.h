@@ -63,6 +63,34 @@ int cli_usage_error(const char *cmd, const char *msg);
 /* Print the version line (for --version). */
 void cli_version(void);
 
+struct option; /* <getopt.h> */
+
+/* A subcommand's command line, for cli_options. */
+struct cli_spec {
+	const char *cmd;           /* "calibrate" */
+	const struct option *opts; /* CLI_COMMON_LONGOPTS first, zeros last */
+	const char *shorts;        /* getopt's short options ("ho:q") */
+	void (*help)(void);        /* prints the command's help */
+	/* One of the command's own options (id is getopt_long's value):
+	 * 0 taken, an exit code after printing why, or CLI_NOT_MINE. */
+	int (*option)(void *ctx, int id, const char *arg);
+	int n_args;                /* operands the command needs */
+	const char *expects;       /* the usage error when they are not
+				      there ("expects one STUDY.json") */
+};
+
+#define CLI_GO_ON (-1)    /* cli_options: run the command */
+#define CLI_NOT_MINE (-1) /* cli_spec.option: not one of the command's */
+
+/* Read argv[1..] as sp says: --help and --version print and end the
+ * command (CLI_OK); the options of CLI_COMMON_LONGOPTS fill *c; every other
+ * option goes to sp->option(ctx, ...), and to cli_common_option when it
+ * is not the command's. Then exactly sp->n_args operands must remain:
+ * *args points at the first. Returns CLI_GO_ON when the command is to
+ * run, else its exit code (CLI_USAGE after printing why). */
+int cli_options(const struct cli_spec *sp, int argc, char **argv, void *ctx,
+		struct cli_common *c, char ***args);
+
 /* Handle one of the common long options (id is the getopt_long return
  * value: 'u' units, 'j' jobs, 'q' quiet). Returns 0, or CLI_USAGE after
  * printing why. */

@@ -316,8 +316,10 @@ done:
 	return rc;
 }
 
-static int parse_option(struct cal_args *a, int id, const char *arg)
+static int option(void *ctx, int id, const char *arg)
 {
+	struct cal_args *a = ctx;
+
 	switch (id) {
 	case 'o':
 		a->out = arg;
@@ -334,7 +336,7 @@ static int parse_option(struct cal_args *a, int id, const char *arg)
 		a->sd[a->n_sd++] = arg;
 		return 0;
 	default:
-		return cli_common_option("calibrate", &a->c, id, arg);
+		return CLI_NOT_MINE;
 	}
 }
 
@@ -348,28 +350,19 @@ int cmd_calibrate(int argc, char **argv)
 		{"sd", required_argument, NULL, 'S'},
 		{NULL, 0, NULL, 0},
 	};
+	static const struct cli_spec spec = {
+		"calibrate", opts, "ho:q", help, option, 2,
+		"expects STUDY.json and READINGS.csv"};
 	struct cal_args a;
-	int id, rc;
+	char **args;
+	int rc;
 
 	memset(&a, 0, sizeof a);
 	a.c.units = OW_SYS_SI;
-	optind = 1;
-	while ((id = getopt_long(argc, argv, "ho:q", opts, NULL)) != -1) {
-		if (id == 'h') {
-			help();
-			return CLI_OK;
-		}
-		if (id == 'V') {
-			cli_version();
-			return CLI_OK;
-		}
-		if ((rc = parse_option(&a, id, optarg)))
-			return rc;
-	}
-	if (optind != argc - 2)
-		return cli_usage_error("calibrate", "expects STUDY.json and "
-				       "READINGS.csv");
-	a.study = argv[optind];
-	a.readings = argv[optind + 1];
+	rc = cli_options(&spec, argc, argv, &a, &a.c, &args);
+	if (rc != CLI_GO_ON)
+		return rc;
+	a.study = args[0];
+	a.readings = args[1];
 	return run(&a);
 }

@@ -233,6 +233,15 @@ static int run(const char *path, int json, const struct cli_common *c)
 	return rc;
 }
 
+static int option(void *ctx, int id, const char *arg)
+{
+	(void)arg;
+	if (id != 'J')
+		return CLI_NOT_MINE;
+	*(int *)ctx = 1; /* --json */
+	return 0;
+}
+
 int cmd_check(int argc, char **argv)
 {
 	static const struct option opts[] = {
@@ -240,25 +249,11 @@ int cmd_check(int argc, char **argv)
 		{"json", no_argument, NULL, 'J'},
 		{NULL, 0, NULL, 0},
 	};
+	static const struct cli_spec spec = {"check", opts, "hq", help, option,
+					     1, "expects one STUDY.json"};
 	struct cli_common c = {OW_SYS_SI, 0, 0};
-	int json = 0, id, rc;
+	char **args;
+	int json = 0, rc = cli_options(&spec, argc, argv, &json, &c, &args);
 
-	optind = 1;
-	while ((id = getopt_long(argc, argv, "hq", opts, NULL)) != -1) {
-		if (id == 'h') {
-			help();
-			return CLI_OK;
-		}
-		if (id == 'V') {
-			cli_version();
-			return CLI_OK;
-		}
-		if (id == 'J')
-			json = 1;
-		else if ((rc = cli_common_option("check", &c, id, optarg)))
-			return rc;
-	}
-	if (optind != argc - 1)
-		return cli_usage_error("check", "expects one STUDY.json");
-	return run(argv[optind], json, &c);
+	return rc != CLI_GO_ON ? rc : run(args[0], json, &c);
 }

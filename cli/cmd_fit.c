@@ -325,8 +325,9 @@ done:
 	return rc;
 }
 
-static int parse_option(struct fit_args *a, int id, const char *arg)
+static int option(void *ctx, int id, const char *arg)
 {
+	struct fit_args *a = ctx;
 	enum ow_visc_model m;
 
 	switch (id) {
@@ -351,7 +352,7 @@ static int parse_option(struct fit_args *a, int id, const char *arg)
 		a->plot = arg;
 		return 0;
 	default:
-		return cli_common_option("fit", &a->c, id, arg);
+		return CLI_NOT_MINE;
 	}
 }
 
@@ -366,27 +367,18 @@ int cmd_fit(int argc, char **argv)
 		{"plot", required_argument, NULL, 'p'},
 		{NULL, 0, NULL, 0},
 	};
+	static const struct cli_spec spec = {"fit", opts, "ho:q", help, option,
+					     1, "expects one DATA.csv"};
 	struct fit_args a;
-	int id, rc;
+	char **args;
+	int rc;
 
 	memset(&a, 0, sizeof a);
 	a.c.units = OW_SYS_SI;
 	a.opts = ow_fit_options_default();
-	optind = 1;
-	while ((id = getopt_long(argc, argv, "ho:q", opts, NULL)) != -1) {
-		if (id == 'h') {
-			help();
-			return CLI_OK;
-		}
-		if (id == 'V') {
-			cli_version();
-			return CLI_OK;
-		}
-		if ((rc = parse_option(&a, id, optarg)))
-			return rc;
-	}
-	if (optind != argc - 1)
-		return cli_usage_error("fit", "expects one DATA.csv");
-	a.data = argv[optind];
+	rc = cli_options(&spec, argc, argv, &a, &a.c, &args);
+	if (rc != CLI_GO_ON)
+		return rc;
+	a.data = args[0];
 	return run(&a);
 }

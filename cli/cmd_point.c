@@ -211,6 +211,28 @@ static int solve(const struct ow_units *u, const struct ow_study *s,
 	return rc;
 }
 
+static int option(void *ctx, int id, const char *arg)
+{
+	struct point_opts *o = ctx;
+
+	switch (id) {
+	case 'r':
+		o->rpm = arg;
+		return 0;
+	case 's':
+		o->set = arg;
+		return 0;
+	case 'p':
+		o->profile = arg;
+		return 0;
+	case 'J':
+		o->json = 1;
+		return 0;
+	default:
+		return CLI_NOT_MINE;
+	}
+}
+
 int cmd_point(int argc, char **argv)
 {
 	static const struct option opts[] = {
@@ -221,33 +243,19 @@ int cmd_point(int argc, char **argv)
 		{"json", no_argument, NULL, 'J'},
 		{NULL, 0, NULL, 0},
 	};
+	static const struct cli_spec spec = {"point", opts, "hq", help, option,
+					     1, "expects one STUDY.json"};
 	struct point_opts o = {{OW_SYS_SI, 0, 0}, NULL, NULL, NULL, 0};
 	struct ow_units *u = NULL;
 	struct ow_study *s = NULL;
-	int id, rc;
+	char **args;
+	int rc = cli_options(&spec, argc, argv, &o, &o.c, &args);
 
-	optind = 1;
-	while ((id = getopt_long(argc, argv, "hq", opts, NULL)) != -1) {
-		if (id == 'h' || id == 'V') {
-			id == 'h' ? help() : cli_version();
-			return CLI_OK;
-		}
-		if (id == 'r')
-			o.rpm = optarg;
-		else if (id == 's')
-			o.set = optarg;
-		else if (id == 'p')
-			o.profile = optarg;
-		else if (id == 'J')
-			o.json = 1;
-		else if ((rc = cli_common_option("point", &o.c, id, optarg)))
-			return rc;
-	}
-	if (optind != argc - 1)
-		return cli_usage_error("point", "expects one STUDY.json");
+	if (rc != CLI_GO_ON)
+		return rc;
 	if (!o.rpm)
 		return cli_usage_error("point", "--rpm is required");
-	if ((rc = cli_load_study("point", argv[optind], &u, &s)))
+	if ((rc = cli_load_study("point", args[0], &u, &s)))
 		return rc;
 	rc = solve(u, s, &o);
 	free(s);

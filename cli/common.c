@@ -3,6 +3,7 @@
 #include "cli.h"
 
 #include <errno.h>
+#include <getopt.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -68,6 +69,30 @@ int cli_common_option(const char *cmd, struct cli_common *c, int id,
 	default:
 		return cli_usage_error(cmd, "unknown option");
 	}
+}
+
+int cli_options(const struct cli_spec *sp, int argc, char **argv, void *ctx,
+		struct cli_common *c, char ***args)
+{
+	int id, rc;
+
+	optind = 1;
+	while ((id = getopt_long(argc, argv, sp->shorts, sp->opts, NULL)) !=
+	       -1) {
+		if (id == 'h' || id == 'V') {
+			id == 'h' ? sp->help() : cli_version();
+			return CLI_OK;
+		}
+		rc = sp->option ? sp->option(ctx, id, optarg) : CLI_NOT_MINE;
+		if (rc == CLI_NOT_MINE)
+			rc = cli_common_option(sp->cmd, c, id, optarg);
+		if (rc)
+			return rc;
+	}
+	if (optind != argc - sp->n_args)
+		return cli_usage_error(sp->cmd, sp->expects);
+	*args = argv + optind;
+	return CLI_GO_ON;
 }
 
 int cli_load_study(const char *cmd, const char *path, struct ow_units **u,
