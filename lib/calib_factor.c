@@ -1,7 +1,7 @@
 /* calib_factor.c - the calibration factors: one table entry each (name,
  * bounds, how it multiplies one input of a study), the quantities a line
  * reading may hold and their default uncertainties. */
-#include "ow_calib.h"
+#include "ow_calib_factor.h"
 
 #include <math.h>
 #include <string.h>

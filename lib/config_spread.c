@@ -12,7 +12,7 @@
 #include <string.h>
 
 #include "json_in.h"
-#include "ow_spread.h"
+#include "ow_spread_input.h"
 
 /* Dimension of a range end (absolute) and of a width (plus_minus, sd). */
 static void dims(enum ow_spread_kind k, enum ow_dim *abs, enum ow_dim *wid)

@@ -6,11 +6,11 @@
 #ifndef OW_STUDY_H
 #define OW_STUDY_H
 
-#include "ow_calib.h"
+#include "ow_calib_factor.h"
 #include "ow_line.h"
 #include "ow_material.h"
 #include "ow_screw.h"
-#include "ow_spread.h"
+#include "ow_spread_input.h"
 #include "ow_units.h"
 
 #define OW_PATH_LEN 1024

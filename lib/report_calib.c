@@ -5,6 +5,8 @@
  * prove. Only for a study whose calibration block sets a factor. */
 #include "report_impl.h"
 
+#include "ow_calib.h"
+
 #include <math.h>
 #include <stdio.h>
 #include <string.h>

@@ -1,7 +1,7 @@
 /* spread.c - the varied inputs: names, extents, the inverse distribution
  * functions, how a value moves a copy of the study, and the Latin
  * hypercube each grid point draws its samples from. */
-#include "ow_spread.h"
+#include "ow_spread_input.h"
 
 #include <math.h>
 #include <stdio.h>
