@@ -22,7 +22,6 @@
 #ifndef OW_SPREAD_H
 #define OW_SPREAD_H
 
-#include "ow_calib.h"
 #include "ow_spread_input.h"
 #include "ow_status.h"
 
