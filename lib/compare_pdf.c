@@ -6,7 +6,7 @@
  * M", the date and the program version. */
 #include "report_impl.h"
 
-#include "opwin.h"
+#include "ow_version.h"
 #include "ow_compare.h"
 #include "ow_maps.h"
 #include "ow_report.h"

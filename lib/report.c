@@ -12,7 +12,7 @@
 #include <stdlib.h>
 #include <string.h>
 
-#include "opwin.h"
+#include "ow_version.h"
 #include "ow_io.h"
 #include "ow_results.h"
 
