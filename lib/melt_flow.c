@@ -6,8 +6,9 @@
 #include <math.h>
 #include <string.h>
 
-#define SUM_ODD_INV3 1.0517997902646450 /* sum_{i odd} i^-3 = (7/8) zeta(3) */
-#define SUM_ODD_INV5 1.0045237627951396 /* sum_{i odd} i^-5 = (31/32) zeta(5) */
+/* sum_{i odd} i^-3 = (7/8) zeta(3) and sum_{i odd} i^-5 = (31/32) zeta(5) */
+#define SUM_ODD_INV3 1.0517997902646450
+#define SUM_ODD_INV5 1.0045237627951396
 #define MAX_NEWTON 100
 #define TOL_NEWTON 1e-9 /* scaled wall-speed and flow residuals */
 
