@@ -51,11 +51,6 @@ struct job {
 	struct ow_diag diag;
 };
 
-double ow_calib_resid_sd(const struct ow_calib_resid *e)
-{
-	return (e->modelled - e->measured) / e->sd;
-}
-
 void ow_calib_options_from(const struct ow_calibration *c,
 			   struct ow_calib_options *o)
 {

@@ -138,3 +138,8 @@ int ow_calib_active(const struct ow_calibration *c)
 			return 1;
 	return 0;
 }
+
+double ow_calib_resid_sd(const struct ow_calib_resid *e)
+{
+	return (e->modelled - e->measured) / e->sd;
+}

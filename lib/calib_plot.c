@@ -3,7 +3,7 @@
  * each reading's stated uncertainty as a bar of +-2 standard deviations,
  * readings labelled by their line in the file. Drawn with the plot module
  * on any canvas (image here, a PDF page in the report). */
-#include "ow_calib.h"
+#include "ow_calib_plot.h"
 
 #include <math.h>
 #include <stdio.h>

@@ -13,6 +13,7 @@
 #include "ow_line.h"
 #include "ow_calib.h"
 #include "ow_calib_factor.h"
+#include "ow_calib_plot.h"
 #include "ow_study.h"
 #include "ow_config.h"
 #include "ow_advise.h"

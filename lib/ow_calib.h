@@ -23,7 +23,6 @@
 #include "ow_units.h"
 
 struct ow_study;  /* ow_study.h */
-struct ow_canvas; /* ow_canvas.h */
 
 /* ---- readings --------------------------------------------------------- */
 
@@ -107,9 +106,6 @@ enum ow_status ow_calib_run(const struct ow_study *s,
 void ow_calib_options_from(const struct ow_calibration *c,
 			   struct ow_calib_options *o);
 
-/* Residual of one entry in standard deviations. */
-double ow_calib_resid_sd(const struct ow_calib_resid *e);
-
 /* ---- output ------------------------------------------------------------ */
 
 /* The text of the calibrated study: the study file at s->path with its
@@ -123,22 +119,5 @@ enum ow_status ow_calib_study_text(const struct ow_study *s,
 				   const char *readings_name,
 				   const char *out_path, char **text,
 				   struct ow_diag *d);
-
-/* Modelled against measured per quantity (one panel each, up to three to
- * a row; the 1:1 line; each reading's +-2 sd bar, labelled by its line)
- * into path, PNG or SVG by its extension, in unit system sys, under
- * title. OW_EIO when it cannot be written. */
-enum ow_status ow_calib_plot(const struct ow_calib_resid *e, int n,
-			     enum ow_unit_system sys, const char *title,
-			     const char *path, struct ow_diag *d);
-
-/* The same drawing on canvas cv in the w_pt x h_pt area whose top-left
- * corner is (x_pt, y_pt) (title NULL: none), and the number of panel rows
- * it takes (1 or 2), for a page that places it. */
-void ow_calib_draw(struct ow_canvas *cv, double x_pt, double y_pt,
-		   double w_pt, double h_pt,
-		   const struct ow_calib_resid *e, int n,
-		   enum ow_unit_system sys, const char *title);
-int ow_calib_plot_rows(const struct ow_calib_resid *e, int n);
 
 #endif

@@ -98,4 +98,7 @@ void ow_calib_apply(struct ow_study *s, const double *f);
 /* Any factor other than 1? */
 int ow_calib_active(const struct ow_calibration *c);
 
+/* Residual of one entry in standard deviations. */
+double ow_calib_resid_sd(const struct ow_calib_resid *e);
+
 #endif

@@ -5,7 +5,7 @@
  * prove. Only for a study whose calibration block sets a factor. */
 #include "report_impl.h"
 
-#include "ow_calib.h"
+#include "ow_calib_plot.h"
 
 #include <math.h>
 #include <stdio.h>
