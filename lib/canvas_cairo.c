@@ -118,7 +118,8 @@ fail:
 	return st;
 }
 
-void *ow_canvas_ft_face(struct canvas_ft *f, int bold)
+/* cairo_font_face_t * of the weight (borrowed from f). */
+static void *ft_face(struct canvas_ft *f, int bold)
 {
 	return f->cface[bold ? 1 : 0];
 }
@@ -136,7 +137,7 @@ void ow_canvas_ft_select(void *cairo_cr, struct canvas_ft *f, int bold,
 	cairo_font_options_set_antialias(o, CAIRO_ANTIALIAS_GRAY);
 	cairo_set_font_options(cr, o);
 	cairo_font_options_destroy(o);
-	cairo_set_font_face(cr, ow_canvas_ft_face(f, bold));
+	cairo_set_font_face(cr, ft_face(f, bold));
 	cairo_set_font_size(cr, size);
 }
 

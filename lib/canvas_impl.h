@@ -79,8 +79,6 @@ void ow_canvas_fail(struct ow_canvas *cv, enum ow_status st, const char *fmt, ..
 struct canvas_ft;
 enum ow_status ow_canvas_ft_open(struct canvas_ft **out, struct ow_diag *d);
 void ow_canvas_ft_close(struct canvas_ft *f);
-/* cairo_font_face_t * of the weight (borrowed from f). */
-void *ow_canvas_ft_face(struct canvas_ft *f, int bold);
 /* Select the face and size on a cairo_t (unhinted). */
 void ow_canvas_ft_select(void *cairo_cr, struct canvas_ft *f, int bold,
                       double size);

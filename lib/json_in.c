@@ -36,11 +36,6 @@ const char *ow_jin_index(char *out, const char *parent, int i)
 	return out;
 }
 
-unsigned long ow_jin_crc32(unsigned long crc, const void *p, size_t n)
-{
-	return ow_io_crc32(crc, p, n);
-}
-
 static enum ow_status open_error(const struct ow_jin *j, const char *who,
 				 const char *key, int err)
 {
@@ -128,7 +123,7 @@ enum ow_status ow_jin_load(const struct ow_jin *j, const char *who,
 	err = ow_io_slurp(j->file, MAX_FILE_BYTES, &buf, &len);
 	if (err)
 		return open_error(j, who, key, err);
-	*crc = ow_jin_crc32(*crc, buf, len);
+	*crc = ow_io_crc32(*crc, buf, len);
 	if (strlen(buf) != len) { /* cJSON would stop at the NUL */
 		free(buf);
 		return ow_diag_set(j->d, OW_EINPUT,

@@ -44,10 +44,6 @@ enum ow_status ow_jin_fail(const struct ow_jin *j, const char *path,
 const char *ow_jin_key(char *out, const char *parent, const char *key);
 const char *ow_jin_index(char *out, const char *parent, int i);
 
-/* CRC-32 (IEEE 802.3 polynomial, reflected) continued over n bytes; start
- * from 0. */
-unsigned long ow_jin_crc32(unsigned long crc, const void *p, size_t n);
-
 /* Read and parse file j->file; *crc is continued over its bytes. A file
  * that cannot be opened is reported as "<who>: <key>: cannot open ..." when
  * who is given (the referencing file and key), else under j->file. The
