@@ -5,6 +5,7 @@
 #include "testutil.h"
 
 #include <errno.h>
+#include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -116,6 +117,26 @@ static void utf8_follows_rfc_3629(void **state)
 	for (i = 0; i < sizeof bad / sizeof bad[0]; i++)
 		assert_int_equal(ow_io_utf8_check(bad[i], strlen(bad[i])),
 				 at[i]);
+}
+
+/* Seventeen significant decimal digits are enough for any binary64 value
+ * to read back exactly (IEEE 754-2008, section 5.12.2); JSON has no NaN
+ * or infinity (RFC 8259, section 6), so those print as null there. */
+static void numbers_print_so_that_they_read_back_exactly(void **state)
+{
+	static const double x[] = {0.1, 1.0 / 3.0, -2.5e-300, 4.9e-324,
+				   1.7976931348623157e308, 473.15, 6e-5};
+	char buf[40];
+	size_t i;
+
+	(void)state;
+	for (i = 0; i < sizeof x / sizeof x[0]; i++)
+		assert_true(strtod(ow_fmt_double(buf, sizeof buf, x[i], 1),
+				   NULL) == x[i]);
+	assert_string_equal(ow_fmt_double(buf, sizeof buf, NAN, 1), "null");
+	assert_string_equal(ow_fmt_double(buf, sizeof buf, -INFINITY, 1),
+			    "null");
+	assert_string_equal(ow_fmt_double(buf, sizeof buf, NAN, 0), "");
 }
 
 static void buffer_grows_and_hands_over_a_string(void **state)
@@ -314,6 +335,7 @@ int main(void)
 	const struct CMUnitTest tests[] = {
 	    cmocka_unit_test(crc32_gives_the_published_check_value),
 	    cmocka_unit_test(utf8_follows_rfc_3629),
+	    cmocka_unit_test(numbers_print_so_that_they_read_back_exactly),
 	    cmocka_unit_test(buffer_grows_and_hands_over_a_string),
 	    cmocka_unit_test_setup_teardown(
 		reader_refuses_folders_fifos_and_large_files, setup, teardown),
