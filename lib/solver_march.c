@@ -252,7 +252,11 @@ static enum ow_status check_feed(struct ctx *c)
  * delay zone's heat is counted per kg of plug as it went in (the heat per
  * unit of contact area times the contact area swept per kg there), so a
  * channel that grew shallower since (fewer kg per m^2 of contact) hands
- * over the heat that went in, not more. */
+ * over the heat that went in, not more. (The heat per unit area is the
+ * conduction solution of Carslaw & Jaeger, Conduction of Heat in Solids,
+ * 2nd ed. 1959, sections 2.4 and 2.7; the plug sliding under the barrel
+ * as in Tadmor & Klein, Engineering Principles of Plasticating Extrusion,
+ * 1970.) */
 static void start_melting(struct ctx *c, double x)
 {
 	struct split sp;
