@@ -282,6 +282,9 @@ static void zone_figures(const struct ow_line *l, const struct march *m,
 						       : INFINITY);
 	}
 	pt->zone_floating = m->zone_floating;
+	for (i = 0; i < l->n_zones; i++)
+		pt->zone_slope_W_K[i] = m->zone_floating & (1u << i)
+						? m->zone_k[i] : 0.0;
 	if (m->zone_floating)
 		pt->flags |= OW_FLAG_ZONE_FLOAT;
 }
@@ -358,11 +361,31 @@ static enum ow_status check_run(const struct ow_solver *sv, double rpm,
 	return OW_OK;
 }
 
+/* Zones a neighbour floated start their first march as if the march
+ * before had floated them there (zone_from_last in solver_march.c): a
+ * control point and a slope, but no throughput to predict along. */
+static void start_zones(struct ow_solver *sv,
+			const struct ow_solver_start *s0)
+{
+	int i;
+
+	for (i = 0; i < sv->s->line.n_zones; i++) {
+		double t = s0->zone_K[i], k = s0->zone_slope_W_K[i];
+
+		if (s0->zone_side[i] == 0 || !(k > 0.0 && isfinite(k)) ||
+		    !(t > 200.0 && t < 900.0))
+			continue;
+		sv->last_side[i] = s0->zone_side[i] > 0 ? 1 : -1;
+		sv->last_ctrl_K[i] = t;
+		sv->zone_slope[i] = k;
+	}
+}
+
 enum ow_status ow_solver_run(struct ow_solver *sv, double rpm,
 			     const double *set_K, double warm_kg_s,
 			     struct ow_point *out, struct ow_diag *d)
 {
-	struct ow_solver_start s0 = {warm_kg_s, 0.0};
+	struct ow_solver_start s0 = {.g_kg_s = warm_kg_s};
 
 	return ow_solver_run_from(sv, rpm, set_K, &s0, out, d);
 }
@@ -374,7 +397,7 @@ enum ow_status ow_solver_run_from(struct ow_solver *sv, double rpm,
 {
 	const struct ow_line *l = &sv->s->line;
 	struct eval lo = {0}, hi = {0}, best = {0};
-	struct ow_solver_start s0 = {0.0, 0.0};
+	struct ow_solver_start s0 = {.g_kg_s = 0.0};
 	struct match mt = {0, {0.0, 0.0}, {0.0, 0.0}, 0.0};
 	int i, ok, rc;
 	enum ow_status st = check_run(sv, rpm, set_K, d);
@@ -396,8 +419,10 @@ enum ow_status ow_solver_run_from(struct ow_solver *sv, double rpm,
 	sv->zone_slope_m = 0.0;
 	out->rpm = rpm;
 	memcpy(out->set_K, sv->set_K, sizeof out->set_K);
-	if (start)
+	if (start) {
 		s0 = *start;
+		start_zones(sv, start);
+	}
 	if (!(isfinite(s0.g_kg_s) && s0.g_kg_s > 0.0))
 		s0.g_kg_s = G_START * drag_scale(sv);
 	mt.k0 = isfinite(s0.slope) && s0.slope < 0.0 ? s0.slope : 0.0;

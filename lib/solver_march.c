@@ -918,7 +918,8 @@ static int zone_from_last(struct ctx *c, const struct snap *s0, int z,
 		return 0;
 	/* the control point is smooth in G: predict it linearly from the
 	 * last two marches when they floated this zone too */
-	if (sv->last2_side[z] == sv->last_side[z] && dg != 0.0) {
+	if (sv->last2_side[z] == sv->last_side[z] && dg != 0.0 &&
+	    sv->last_g[z] > 0.0 && sv->last2_g[z] > 0.0) {
 		double dk = (sv->last_k[z] - sv->last2_k[z]) / dg *
 			    (c->g - sv->last_g[z]);
 
@@ -1001,6 +1002,7 @@ done:
 	sv->last_ctrl_K[z] = sv->ctrl_K[z];
 	sv->last_g[z] = c->g;
 	c->m->ctrl_K[z] = sv->ctrl_K[z];
+	c->m->zone_k[z] = sv->last_side[z] != 0 ? sv->zone_slope[z] : 0.0;
 	return st;
 }
 

@@ -77,12 +77,47 @@ static double lagrange(const double *x, int n, int k, double t)
 	return w;
 }
 
+/* The side a point's zone z floated to: 1 short of heating, -1 short of
+ * cooling, 0 held (or no slope to start from). */
+static int zone_side(const struct ow_point *p, int z)
+{
+	if (!(p->zone_floating & (1u << z)) || !(p->zone_slope_W_K[z] > 0.0))
+		return 0;
+	return p->zone_demand_W[z] > 0.0 ? 1 : -1;
+}
+
+/* Zones the nearest point floated: their control points extrapolated
+ * along the points that floated them on the same side, like the
+ * throughput, and the nearest point's slope. */
+static void predict_zones(const struct ow_point *const *prev, int n,
+			  const double *x, double rpm,
+			  struct ow_solver_start *out)
+{
+	int z, k, m;
+
+	for (z = 0; z < OW_MAX_ZONES && n > 0; z++) {
+		int side = zone_side(prev[0], z);
+		double t = 0.0;
+
+		if (side == 0)
+			continue;
+		for (m = 1; m < n && zone_side(prev[m], z) == side; m++)
+			;
+		for (k = 0; k < m; k++)
+			t += lagrange(x, m, k, rpm) * prev[k]->zone_control_K[z];
+		out->zone_side[z] = side;
+		out->zone_K[z] = t;
+		out->zone_slope_W_K[z] = prev[0]->zone_slope_W_K[z];
+	}
+}
+
 void ow_sweep_predict(const struct ow_point *const *prev, int n, double rpm,
 		      struct ow_solver_start *out)
 {
 	double x[OW_SWEEP_PREDICT], spec = 0.0;
 	int k;
 
+	memset(out, 0, sizeof *out);
 	n = n < OW_SWEEP_PREDICT ? n : OW_SWEEP_PREDICT;
 	for (k = 0; k < n; k++)
 		x[k] = prev[k]->rpm;
@@ -93,6 +128,7 @@ void ow_sweep_predict(const struct ow_point *const *prev, int n, double rpm,
 	/* the nearest slope as it is: a secant that straddled a jump of the
 	 * match function is steep, and extrapolated it would run away */
 	out->slope = n > 0 ? prev[0]->match_slope : 0.0;
+	predict_zones(prev, n, x, rpm, out);
 }
 
 /* Coarse rows in parallel; along a row, each point starts from the speeds
@@ -188,6 +224,7 @@ static void cell_start(const struct ow_grid *g, int ir, int ia, int s,
 	double tx = (double)(ir - i0) / s, ty = (double)(ia - j0) / s;
 	double wsum = 0.0, gsum = 0.0, ksum = 0.0;
 
+	memset(out, 0, sizeof *out);
 	for (k = 0; k < 4; k++) {
 		int i = i0 + (k & 1) * s, j = j0 + (k >> 1) * s;
 		double w = ((k & 1) ? tx : 1.0 - tx) *

@@ -511,6 +511,62 @@ static void start_from_neighbouring_speeds_agrees_with_cold(void **st)
 	free(s);
 }
 
+/* Zones a neighbour floated are handed on with the start (control
+ * points extrapolated along the row, the nearer point's slope): at 90
+ * rpm on the demo's set-points, where three of its five zones run out of
+ * cooling, the warm answer is the cold start's to the match
+ * tolerance, with the same zones floating at the same control points to
+ * the zone tolerance. A start that claims a float for every zone (the
+ * zones that hold included) leaves the answer as it is: the float is
+ * only kept where its control point lands on the floating side. The
+ * reference is the cold solve, which starts every zone at its set-point. */
+static void start_with_floating_zones_agrees_with_cold(void **st)
+{
+	struct ow_study *s = ow_test_study("demo/study-si.json");
+	struct ow_solver *sv = NULL;
+	struct ow_point p85, p875, cold, warm, lie;
+	const struct ow_point *prev[2] = {&p875, &p85};
+	struct ow_solver_start s0;
+	double set[OW_MAX_ZONES];
+	int z;
+	(void)st;
+	for (z = 0; z < s->line.n_zones; z++)
+		set[z] = s->line.zones[z].set_K;
+	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, 85.0, set, 0.0, &p85, NULL),
+			 OW_OK);
+	assert_int_equal(ow_solver_run(sv, 87.5, set, 0.0, &p875, NULL),
+			 OW_OK);
+	assert_int_equal(ow_solver_run(sv, 90.0, set, 0.0, &cold, NULL),
+			 OW_OK);
+	assert_true(cold.zone_floating != 0);
+	assert_true(cold.zone_floating != (1u << s->line.n_zones) - 1u);
+	ow_sweep_predict(prev, 2, 90.0, &s0);
+	for (z = 0; z < s->line.n_zones; z++)
+		assert_int_equal(s0.zone_side[z] != 0,
+				 !!(p875.zone_floating & (1u << z)));
+	assert_int_equal(ow_solver_run_from(sv, 90.0, set, &s0, &warm, NULL),
+			 OW_OK);
+	assert_int_equal(warm.zone_floating, cold.zone_floating);
+	assert_rel(warm.output_kg_s, cold.output_kg_s, 3e-5);
+	assert_abs(warm.discharge_bulk_K, cold.discharge_bulk_K, 0.01);
+	for (z = 0; z < s->line.n_zones; z++)
+		assert_abs(warm.zone_control_K[z], cold.zone_control_K[z],
+			   1e-2);
+	for (z = 0; z < s->line.n_zones; z++) {
+		s0.zone_side[z] = -1;
+		s0.zone_K[z] = set[z] + 5.0;
+		s0.zone_slope_W_K[z] = 50.0;
+	}
+	assert_int_equal(ow_solver_run_from(sv, 90.0, set, &s0, &lie, NULL),
+			 OW_OK);
+	assert_int_equal(lie.zone_floating, cold.zone_floating);
+	assert_rel(lie.output_kg_s, cold.output_kg_s, 3e-5);
+	assert_abs(lie.discharge_bulk_K, cold.discharge_bulk_K, 0.01);
+	ow_solver_destroy(sv);
+	free(s);
+}
+
 /* The continuation's prediction is the Lagrange polynomial through the
  * previous points of throughput per speed, exact for G/N linear in N
  * (Burden & Faires, Numerical Analysis, 9th ed., 2011, Theorem 3.2):
@@ -1047,6 +1103,7 @@ int main(void)
 		cmocka_unit_test(abrupt_compression_plugs_and_gradual_does_not),
 		cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
 		cmocka_unit_test(start_from_neighbouring_speeds_agrees_with_cold),
+		cmocka_unit_test(start_with_floating_zones_agrees_with_cold),
 		cmocka_unit_test(
 		    prediction_is_exact_for_specific_output_linear_in_speed),
 		cmocka_unit_test(cold_barrel_returns_a_flagged_point),
