@@ -65,6 +65,9 @@ enum ow_status ow_solver_create(const struct ow_study *s,
 				    &sv->melt_save, d);
 	if (st != OW_OK)
 		goto fail;
+	sv->tol = nm->tol_scale > 0.0 ? nm->tol_scale : 1.0;
+	ow_melt_tolerance(sv->melt, sv->tol);
+	ow_melt_tolerance(sv->melt_save, sv->tol);
 	*out = sv;
 	return OW_OK;
 fail:
@@ -171,12 +174,13 @@ static double handed_slope(const struct match *mt)
  * figure that varies with G at an elasticity of order one, is then known
  * far better than the tip pressure of the march, so the discharge
  * pressure is taken from the die's side (figures()). */
-static int done(const struct eval *e, const struct match *mt)
+static int done(const struct ow_solver *sv, const struct eval *e,
+		const struct match *mt)
 {
 	double k = match_slope(mt, mt->k0);
 
-	return fabs(e->f) < fmax(P_ATOL, P_RTOL * e->need) ||
-	       (k < 0.0 && fabs(e->f / k) < G_STEP_TOL * e->g);
+	return fabs(e->f) < sv->tol * fmax(P_ATOL, P_RTOL * e->need) ||
+	       (k < 0.0 && fabs(e->f / k) < sv->tol * G_STEP_TOL * e->g);
 }
 
 /* The second trial: one Newton step from a with a known slope of f (a
@@ -203,10 +207,10 @@ static int bracket(struct ow_solver *sv, const struct ow_solver_start *s0,
 	if (a.st != OW_OK)
 		return -1;
 	*best = a;
-	if (done(&a, mt))
+	if (done(sv, &a, mt))
 		return 1;
 	evaluate(sv, second_trial(&a, s0->slope), &b, mt);
-	while (b.st == OW_OK && !done(&b, mt) && (a.f > 0.0) == (b.f > 0.0) &&
+	while (b.st == OW_OK && !done(sv, &b, mt) && (a.f > 0.0) == (b.f > 0.0) &&
 	       mt->n < MAX_MARCHES / 2) {
 		double g = b.g - b.f * (b.g - a.g) / (b.f - a.f);
 		double up = b.f > 0.0 ? 1.0 : -1.0;
@@ -220,7 +224,7 @@ static int bracket(struct ow_solver *sv, const struct ow_solver_start *s0,
 	if (b.st != OW_OK)
 		return -1;
 	*best = b;
-	if (done(&b, mt))
+	if (done(sv, &b, mt))
 		return 1;
 	if ((a.f > 0.0) == (b.f > 0.0))
 		return -1;
@@ -242,7 +246,8 @@ static int refine(struct ow_solver *sv, struct eval *lo, struct eval *hi,
 		evaluate(sv, g, best, mt);
 		if (best->st != OW_OK)
 			return 0;
-		if (done(best, mt) || hi->g - lo->g < G_RTOL * best->g)
+		if (done(sv, best, mt) ||
+		    hi->g - lo->g < sv->tol * G_RTOL * best->g)
 			return 1;
 		if (best->f > 0.0) {
 			*lo = *best;

@@ -72,6 +72,7 @@ struct ow_solver {
 	int n_rows;
 	int record;                   /* store the profile during a march */
 	struct ow_diag diag;          /* first failure inside a march */
+	double tol;                   /* tolerance scale (numerics) */
 };
 
 /* March from hopper to tip at throughput g_kg_s; fills *m. Returns OW_OK,

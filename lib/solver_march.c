@@ -864,7 +864,8 @@ static int zone_secant(struct ctx *c, const struct snap *s0, int z,
 		       int from, int to, double target, double t0,
 		       double q0, double t1, double *k, enum ow_status *st)
 {
-	double tol = fmax(ZONE_TOL_W, ZONE_RTOL * fabs(target)), q1;
+	double tol = c->sv->tol * fmax(ZONE_TOL_W, ZONE_RTOL * fabs(target));
+	double q1;
 	int it;
 
 	for (it = 0; it < ZONE_MAXIT; it++) {
@@ -932,7 +933,8 @@ static int zone_from_last(struct ctx *c, const struct snap *s0, int z,
 	*st = zone_try(c, s0, z, from, to, t0, &q0);
 	if (*st != OW_OK)
 		return 0;
-	if (fabs(q0 - target) <= fmax(ZONE_TOL_W, ZONE_RTOL * fabs(target)))
+	if (fabs(q0 - target) <=
+	    sv->tol * fmax(ZONE_TOL_W, ZONE_RTOL * fabs(target)))
 		rc = 1;
 	else
 		rc = zone_secant(c, s0, z, from, to, target, t0, q0,
