@@ -1,11 +1,13 @@
 /* sweep.c - solve, classify and refine the rpm x barrel-axis grid. */
 #include "ow_sweep.h"
 
+#include <math.h>
 #include <omp.h>
 #include <stdlib.h>
 #include <string.h>
 
 #define MAX_REFINE 4
+#define SLOPE_SMOOTH 0.1 /* match slopes this close extrapolate */
 
 void ow_sweep_default(struct ow_sweep_config *c)
 {
@@ -127,9 +129,14 @@ static void predict_along(const struct ow_point *const *prev, int n,
 		sum += lagrange(x, n, k, t) * prev[k]->output_kg_s /
 		       (per_rpm ? prev[k]->rpm : 1.0);
 	out->g_kg_s = sum * (per_rpm ? t : 1.0);
-	/* the nearest slope as it is: a secant that straddled a jump of the
-	 * match function is steep, and extrapolated it would run away */
+	/* the nearest slope, extrapolated where the two nearest agree within
+	 * SLOPE_SMOOTH (a secant that straddled a jump of the match function
+	 * is steep, and extrapolated it would run away) */
 	out->slope = n > 0 ? prev[0]->match_slope : 0.0;
+	if (n > 1 && prev[1]->match_slope < 0.0 && out->slope < 0.0 &&
+	    fabs(out->slope / prev[1]->match_slope - 1.0) < SLOPE_SMOOTH)
+		out->slope += (out->slope - prev[1]->match_slope) *
+			      (t - x[0]) / (x[0] - x[1]);
 	predict_zones(prev, n, x, t, out);
 }
 
