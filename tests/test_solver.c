@@ -607,6 +607,47 @@ static void start_with_floating_zones_agrees_with_cold(void **st)
 	free(s);
 }
 
+/* The sweep's continuation (the lead-in down the barrel axis, rows
+ * started from two solved speeds, floating zones and match slopes handed
+ * on) answers every point of a 6x4 demo grid as a cold solve with every
+ * tolerance 1000 times tighter does: output and maximum pressure within
+ * 1e-4, bulk and peak melt temperatures within 0.01 K, the same zones
+ * floating; and 1 and 2 threads give the same grid to the bit. */
+static void sweep_continuation_matches_tight_cold_solves(void **st)
+{
+	struct ow_study *s = ow_test_study("demo/study-si.json");
+	struct ow_sweep_config c;
+	struct ow_grid *g1 = NULL, *g2 = NULL;
+	int k;
+	(void)st;
+	ow_sweep_default(&c);
+	c.rpm_steps = 6;
+	c.axis_steps = 4;
+	c.jobs = 1;
+	assert_int_equal(ow_sweep_run(s, &c, &g1, NULL), OW_OK);
+	c.jobs = 2;
+	assert_int_equal(ow_sweep_run(s, &c, &g2, NULL), OW_OK);
+	assert_int_equal(g1->solves, 24);
+	s->line.numerics.tol_scale = 1e-3;
+	for (k = 0; k < 24; k++) {
+		const struct ow_grid_point *a = &g1->pts[k];
+		double set[OW_MAX_ZONES];
+		struct ow_point b;
+
+		assert_memory_equal(&a->pt, &g2->pts[k].pt, sizeof a->pt);
+		ow_line_apply_axis(&s->line, a->axis, set);
+		b = solve(s, a->rpm, set);
+		assert_rel(a->pt.output_kg_s, b.output_kg_s, 1e-4);
+		assert_rel(a->pt.max_pressure_Pa, b.max_pressure_Pa, 1e-4);
+		assert_abs(a->pt.discharge_bulk_K, b.discharge_bulk_K, 0.01);
+		assert_abs(a->pt.peak_K, b.peak_K, 0.01);
+		assert_int_equal(a->pt.zone_floating, b.zone_floating);
+	}
+	ow_grid_destroy(g1);
+	ow_grid_destroy(g2);
+	free(s);
+}
+
 /* The continuation's prediction is the Lagrange polynomial through the
  * previous points of throughput per speed, exact for G/N linear in N
  * (Burden & Faires, Numerical Analysis, 9th ed., 2011, Theorem 3.2):
@@ -1145,6 +1186,7 @@ int main(void)
 		cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
 		cmocka_unit_test(start_from_neighbouring_speeds_agrees_with_cold),
 		cmocka_unit_test(start_with_floating_zones_agrees_with_cold),
+		cmocka_unit_test(sweep_continuation_matches_tight_cold_solves),
 		cmocka_unit_test(
 		    prediction_is_exact_for_specific_output_linear_in_speed),
 		cmocka_unit_test(cold_barrel_returns_a_flagged_point),
