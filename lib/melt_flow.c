@@ -20,17 +20,21 @@
 
 /* ---- shape factors ------------------------------------------------------ */
 
-/* sum_{i odd} i^-p (1 - tanh(i x)): the part of the series still missing
- * from the closed sum of i^-p; decays like exp(-2 i x). */
-static double tanh_deficit(double p, double x)
+/* sum_{i odd} i^-p (1 - tanh(i x)) for a whole p: the part of the series
+ * still missing from the closed sum of i^-p; decays like exp(-2 i x).
+ * exp(-2 i x) runs as a product (a few ulp over the terms that count),
+ * i^-p as a product of i. */
+static double tanh_deficit(int p, double x)
 {
-	double sum = 0.0;
-	int i;
+	double sum = 0.0, e1 = exp(-2.0 * x), e2 = e1 * e1, e = e1;
+	int i, k;
 
-	for (i = 1; i < 100000; i += 2) {
-		double e = exp(-2.0 * (double)i * x);
-		double term = 2.0 * e / (1.0 + e) * pow((double)i, -p);
+	for (i = 1; i < 100000; i += 2, e *= e2) {
+		double ip = 1.0, term;
 
+		for (k = 0; k < p; k++)
+			ip *= (double)i;
+		term = 2.0 * e / (1.0 + e) / ip;
 		sum += term;
 		if (term < 1e-18 * (sum + 1e-300) || (double)i * x > 40.0)
 			break;
@@ -50,9 +54,9 @@ double ow_melt_shape_fd(double h)
 	if (h <= 1.0)
 		return 1.0 - 16.0 * h / (PI * PI * PI) *
 				     (SUM_ODD_INV3 -
-				      tanh_deficit(3.0, PI / (2.0 * h)));
+				      tanh_deficit(3, PI / (2.0 * h)));
 	return 16.0 / (PI * PI * PI * h) *
-	       (SUM_ODD_INV3 - tanh_deficit(3.0, PI * h / 2.0));
+	       (SUM_ODD_INV3 - tanh_deficit(3, PI * h / 2.0));
 }
 
 /* Rowell & Finlayson (1922) pressure factor, Tadmor & Klein (1970) ch. 7:
@@ -62,7 +66,7 @@ double ow_melt_shape_fp(double h)
 	if (!(h > 0.0) || !isfinite(h))
 		return NAN;
 	return 1.0 - 192.0 * h / (PI * PI * PI * PI * PI) *
-			     (SUM_ODD_INV5 - tanh_deficit(5.0, PI / (2.0 * h)));
+			     (SUM_ODD_INV5 - tanh_deficit(5, PI / (2.0 * h)));
 }
 
 /* A side wall of the channel (height H) sliding down-channel at V_s drags
@@ -309,9 +313,10 @@ static int solve_p(const struct ow_melt_ws *ws, const struct melt_station *st,
 #define CELL_TOL 1e-9 /* error in u (ln rate) left by the last step */
 #define CELL_SKIP_TOL 1e-10 /* error in u of a prediction taken as is */
 #define CELL_MAX_STEP 20.0
-#define SERIES_MAX 1e-3 /* |x| below which ln(1+x), e^-x go by series */
+#define SERIES_MAX 1e-2 /* |x| below which ln(1+x), e^-x go by series */
 
-/* ln(1 + x) and e^-x for |x| <= SERIES_MAX: five terms leave < 1e-17. */
+/* ln(1 + x) and e^-x for |x| <= SERIES_MAX: the terms left out are below
+ * x^6/6 < 2e-13 and x^6/720 < 2e-15, far below CELL_TOL. */
 static double log1p_small(double x)
 {
 	return x * (1.0 - x * (0.5 - x * (1.0 / 3.0 - x * (0.25 - x / 5.0))));
@@ -619,8 +624,12 @@ enum ow_status ow_melt_solve_velocity(struct ow_melt_ws *ws,
 		if (!isfinite(la))
 			goto bad_visc;
 		if (ws->warm && la != ws->lat[c]) { /* same stress, new T */
-			ws->cur.lnv[c] += la - ws->lat[c];
-			ws->cur.phi[c] = exp(-ws->cur.lnv[c]);
+			double dl = la - ws->lat[c];
+
+			ws->cur.lnv[c] += dl;
+			ws->cur.phi[c] = fabs(dl) <= SERIES_MAX
+					 ? ws->cur.phi[c] * expm_small(dl)
+					 : exp(-ws->cur.lnv[c]);
 		}
 		ws->lat[c] = la;
 	}
