@@ -144,6 +144,12 @@ struct ow_solver_start {
 	double zone_slope_W_K[OW_MAX_ZONES];
 };
 
+/* The start a solved point pt gives a solve near it: its throughput,
+ * match slope and floating zones as they are (a cold start when pt did
+ * not converge). */
+void ow_solver_start_from(const struct ow_point *pt,
+			  struct ow_solver_start *out);
+
 /* ow_solver_run from start (NULL: cold). The answer does not depend on
  * the start beyond the match tolerance. */
 enum ow_status ow_solver_run_from(struct ow_solver *sv, double rpm,

@@ -386,6 +386,26 @@ static void start_zones(struct ow_solver *sv,
 	}
 }
 
+void ow_solver_start_from(const struct ow_point *pt,
+			  struct ow_solver_start *out)
+{
+	int z;
+
+	memset(out, 0, sizeof *out);
+	if (pt->flags & OW_FLAG_NOT_CONVERGED)
+		return;
+	out->g_kg_s = pt->output_kg_s;
+	out->slope = pt->match_slope;
+	for (z = 0; z < OW_MAX_ZONES; z++) {
+		if (!(pt->zone_floating & (1u << z)) ||
+		    !(pt->zone_slope_W_K[z] > 0.0))
+			continue;
+		out->zone_side[z] = pt->zone_demand_W[z] > 0.0 ? 1 : -1;
+		out->zone_K[z] = pt->zone_control_K[z];
+		out->zone_slope_W_K[z] = pt->zone_slope_W_K[z];
+	}
+}
+
 enum ow_status ow_solver_run(struct ow_solver *sv, double rpm,
 			     const double *set_K, double warm_kg_s,
 			     struct ow_point *out, struct ow_diag *d)

@@ -79,38 +79,30 @@ static double lagrange(const double *x, int n, int k, double t)
 	return w;
 }
 
-/* The side a point's zone z floated to: 1 short of heating, -1 short of
- * cooling, 0 held (or no slope to start from). */
-static int zone_side(const struct ow_point *p, int z)
-{
-	if (!(p->zone_floating & (1u << z)) || !(p->zone_slope_W_K[z] > 0.0))
-		return 0;
-	return p->zone_demand_W[z] > 0.0 ? 1 : -1;
-}
-
-/* Zones the nearest point floated: their control points extrapolated
- * along the points that floated them on the same side, like the
- * throughput, and the nearest point's slope. */
+/* Zones the nearest point floated (out holds its start): their control
+ * points extrapolated along the points that floated them on the same
+ * side, like the throughput. */
 static void predict_zones(const struct ow_point *const *prev, int n,
 			  const double *x, double t,
 			  struct ow_solver_start *out)
 {
+	struct ow_solver_start other[OW_SWEEP_PREDICT];
 	int z, k, m;
 
+	for (k = 1; k < n; k++)
+		ow_solver_start_from(prev[k], &other[k]);
 	for (z = 0; z < OW_MAX_ZONES && n > 0; z++) {
-		int side = zone_side(prev[0], z);
 		double tc = 0.0;
 
-		if (side == 0)
+		if (out->zone_side[z] == 0)
 			continue;
-		for (m = 1; m < n && zone_side(prev[m], z) == side; m++)
+		for (m = 1; m < n && other[m].zone_side[z] == out->zone_side[z];
+		     m++)
 			;
 		for (k = 0; k < m; k++)
 			tc += lagrange(x, m, k, t) *
 			      prev[k]->zone_control_K[z];
-		out->zone_side[z] = side;
 		out->zone_K[z] = tc;
-		out->zone_slope_W_K[z] = prev[0]->zone_slope_W_K[z];
 	}
 }
 
@@ -124,7 +116,10 @@ static void predict_along(const struct ow_point *const *prev, int n,
 	double sum = 0.0;
 	int k;
 
-	memset(out, 0, sizeof *out);
+	if (n > 0)
+		ow_solver_start_from(prev[0], out);
+	else
+		memset(out, 0, sizeof *out);
 	for (k = 0; k < n; k++)
 		sum += lagrange(x, n, k, t) * prev[k]->output_kg_s /
 		       (per_rpm ? prev[k]->rpm : 1.0);
@@ -132,7 +127,6 @@ static void predict_along(const struct ow_point *const *prev, int n,
 	/* the nearest slope, extrapolated where the two nearest agree within
 	 * SLOPE_SMOOTH (a secant that straddled a jump of the match function
 	 * is steep, and extrapolated it would run away) */
-	out->slope = n > 0 ? prev[0]->match_slope : 0.0;
 	if (n > 1 && prev[1]->match_slope < 0.0 && out->slope < 0.0 &&
 	    fabs(out->slope / prev[1]->match_slope - 1.0) < SLOPE_SMOOTH)
 		out->slope += (out->slope - prev[1]->match_slope) *
