@@ -13,7 +13,7 @@
 #include <math.h>
 #include <string.h>
 
-#define OW_PI 3.14159265358979323846
+#include "ow_const.h"
 
 enum phase { PH_SOLIDS, PH_MELTING, PH_MELT };
 
