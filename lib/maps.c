@@ -601,52 +601,6 @@ void maps_axes(const struct ow_study *s, const struct ow_grid *g,
 	y->title = maps_y_title(s, u, ytitle, n);
 }
 
-/* --- the centre profile ----------------------------------------------- */
-
-enum ow_status ow_maps_centre_profile(const struct ow_study *s,
-                                      const struct ow_window *w,
-                                      struct ow_profile_row **rows, int *n,
-                                      struct ow_point *pt, struct ow_diag *d)
-{
-	struct ow_solver *sv = NULL;
-	struct ow_point p;
-	double set_K[OW_MAX_ZONES];
-	const struct ow_profile_row *r;
-	enum ow_status st;
-	int m = 0;
-
-	if (!s || !w || !rows || !n)
-		return ow_diag_set(d, OW_EARG, "centre profile: NULL argument");
-	*rows = NULL;
-	*n = 0;
-	if (w->empty)
-		return ow_diag_set(d, OW_EINPUT,
-		                   "centre profile: the window "
-		                   "is empty, there is no centre");
-	st = ow_solver_create(s, &sv, d);
-	if (st != OW_OK)
-		return st;
-	ow_line_apply_axis(&s->line, w->centre.axis, set_K);
-	st = ow_solver_run(sv, w->centre.rpm, set_K, 0.0, &p, d);
-	if (st != OW_OK)
-		goto fail;
-	r = ow_solver_profile(sv, &m);
-	if (m > 0) {
-		*rows = malloc((size_t)m * sizeof **rows);
-		if (!*rows) {
-			st = ow_diag_set(d, OW_ENOMEM, "out of memory");
-			goto fail;
-		}
-		memcpy(*rows, r, (size_t)m * sizeof **rows);
-	}
-	*n = m;
-	if (pt)
-		*pt = p;
-fail:
-	ow_solver_destroy(sv);
-	return st;
-}
-
 /* --- files ------------------------------------------------------------ */
 
 enum map_kind { MAP_WINDOW, MAP_FIGURE, MAP_PROFILE };
@@ -654,12 +608,8 @@ enum map_kind { MAP_WINDOW, MAP_FIGURE, MAP_PROFILE };
 struct job {
 	enum map_kind kind;
 	enum ow_map_figure fig;
-	const struct ow_study *s;
-	const struct ow_grid *g;
-	const struct ow_window *w;
+	const struct ow_map *m;
 	const struct ow_maps_options *o;
-	const struct ow_profile_row *rows;
-	int n_rows;
 	const char *subtitle;
 };
 
@@ -670,13 +620,13 @@ static enum ow_status draw_job(struct ow_canvas *cv, const struct job *j,
 
 	switch (j->kind) {
 	case MAP_WINDOW:
-		return ow_maps_draw_window(cv, &box, j->s, j->g, j->w, j->o, d);
+		return ow_maps_draw_window(cv, &box, j->m, j->o, d);
 	case MAP_FIGURE:
-		return ow_maps_draw_figure(cv, &box, j->fig, j->s, j->g, j->w,
-		                           j->o, d);
+		return ow_maps_draw_figure(cv, &box, j->fig, j->m, j->o, d);
 	case MAP_PROFILE:
-		return ow_maps_draw_profile(cv, &box, j->s, j->rows, j->n_rows,
-		                            j->subtitle, j->o, d);
+		return ow_maps_draw_profile(cv, &box, j->m->study, j->m->profile,
+		                            j->m->n_profile, j->subtitle, j->o,
+		                            d);
 	}
 	return OW_EARG;
 }
@@ -748,53 +698,37 @@ static int file_of(const struct ow_window *w, const struct ow_maps_options *o,
 	return 1;
 }
 
-int ow_maps_file_count(const struct ow_window *w,
+int ow_maps_file_count(const struct ow_map *m,
                        const struct ow_maps_options *o)
 {
 	int nf = (o->png != 0) + (o->svg != 0);
 
-	return nf * (OW_MAP_COUNT + 1 + (w->empty ? 0 : 1));
+	return nf * (OW_MAP_COUNT + 1 + (m->window->empty ? 0 : 1));
 }
 
-enum ow_status ow_maps_write_file(const struct ow_study *s,
-                                  const struct ow_grid *g,
-                                  const struct ow_window *w,
+enum ow_status ow_maps_write_file(const struct ow_map *m,
                                   const struct ow_maps_options *o,
                                   const char *dir, int k, struct ow_diag *d)
 {
-	struct ow_profile_row *own = NULL;
 	const char *stem = NULL;
 	enum ow_canvas_format fmt;
 	struct job j;
 	char sub[200];
-	enum ow_status st = OW_OK;
 
-	if (!s || !g || !w || !o || !dir)
+	if (!m || !m->study || !m->grid || !m->window || !o || !dir)
 		return ow_diag_set(d, OW_EARG, "maps: NULL argument");
 	memset(&j, 0, sizeof j);
-	j.s = s, j.g = g, j.w = w, j.o = o;
-	if (!file_of(w, o, k, &j, &stem, &fmt))
+	j.m = m, j.o = o;
+	if (!file_of(m->window, o, k, &j, &stem, &fmt))
 		return ow_diag_set(d, OW_EARG, "maps: no image file %d", k);
-	if (j.kind == MAP_PROFILE) {
-		j.rows = o->profile;
-		j.n_rows = o->n_profile;
-		if (!j.rows || j.n_rows < 2) {
-			st = ow_maps_centre_profile(s, w, &own, &j.n_rows, NULL,
-			                            d);
-			j.rows = own;
-		}
-		j.subtitle = centre_subtitle(s, w, o->units, sub, sizeof sub);
-	}
-	if (st == OW_OK)
-		st = write_one(&j, dir, stem, fmt, d);
-	free(own);
-	return st;
+	if (j.kind == MAP_PROFILE)
+		j.subtitle = centre_subtitle(m->study, m->window, o->units, sub,
+		                             sizeof sub);
+	return write_one(&j, dir, stem, fmt, d);
 }
 
 struct all_files {
-	const struct ow_study *s;
-	const struct ow_grid *g;
-	const struct ow_window *w;
+	const struct ow_map *m;
 	const struct ow_maps_options *o;
 	const char *dir;
 	enum ow_status (*beside)(void *ctx, struct ow_diag *d);
@@ -808,15 +742,15 @@ static enum ow_status piece(const struct all_files *a, int k,
 {
 	if (a->beside && k == 0)
 		return a->beside(a->ctx, d);
-	return ow_maps_write_file(a->s, a->g, a->w, a->o, a->dir,
-	                          k - (a->beside != NULL), d);
+	return ow_maps_write_file(a->m, a->o, a->dir, k - (a->beside != NULL),
+	                          d);
 }
 
 /* Every piece on o->jobs threads, each with its own diagnostics; the
  * first failure in file order (the work beside last) goes to d. */
 static enum ow_status run_pool(const struct all_files *a, struct ow_diag *d)
 {
-	int nb = a->beside != NULL, n = ow_maps_file_count(a->w, a->o) + nb;
+	int nb = a->beside != NULL, n = ow_maps_file_count(a->m, a->o) + nb;
 	int jobs = a->o->jobs > 0 ? a->o->jobs : omp_get_max_threads(), k;
 	struct ow_diag *dk = calloc((size_t)n + 1, sizeof *dk);
 	enum ow_status *st = calloc((size_t)n + 1, sizeof *st);
@@ -839,39 +773,25 @@ static enum ow_status run_pool(const struct all_files *a, struct ow_diag *d)
 }
 
 enum ow_status ow_maps_write_beside(
-    const struct ow_study *s, const struct ow_grid *g,
-    const struct ow_window *w, const struct ow_maps_options *o,
-    const char *dir, enum ow_status (*beside)(void *ctx, struct ow_diag *d),
-    void *ctx, struct ow_diag *d)
+    const struct ow_map *m, const struct ow_maps_options *o, const char *dir,
+    enum ow_status (*beside)(void *ctx, struct ow_diag *d), void *ctx,
+    struct ow_diag *d)
 {
 	struct ow_maps_options own;
-	struct ow_profile_row *rows = NULL;
-	struct all_files a = {s, g, w, &own, dir, beside, ctx};
-	enum ow_status st = OW_OK;
+	struct all_files a = {m, &own, dir, beside, ctx};
 
-	if (!s || !g || !w || !dir)
+	if (!m || !m->study || !m->grid || !m->window || !dir)
 		return ow_diag_set(d, OW_EARG, "maps: NULL argument");
 	if (o)
 		own = *o;
 	else
 		ow_maps_default(&own);
-	if (!w->empty && (!own.profile || own.n_profile < 2)) {
-		/* the centre solved once for both formats */
-		st = ow_maps_centre_profile(s, w, &rows, &own.n_profile, NULL,
-		                            d);
-		own.profile = rows;
-	}
-	if (st == OW_OK)
-		st = run_pool(&a, d);
-	free(rows);
-	return st;
+	return run_pool(&a, d);
 }
 
-enum ow_status ow_maps_write_all(const struct ow_study *s,
-                                 const struct ow_grid *g,
-                                 const struct ow_window *w,
+enum ow_status ow_maps_write_all(const struct ow_map *m,
                                  const struct ow_maps_options *o,
                                  const char *dir, struct ow_diag *d)
 {
-	return ow_maps_write_beside(s, g, w, o, dir, NULL, NULL, d);
+	return ow_maps_write_beside(m, o, dir, NULL, NULL, d);
 }

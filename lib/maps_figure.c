@@ -348,10 +348,12 @@ static enum ow_status draw_body(const struct ow_plot *p,
 
 enum ow_status
 ow_maps_draw_figure(struct ow_canvas *cv, const struct ow_rect *box,
-                    enum ow_map_figure f, const struct ow_study *s,
-                    const struct ow_grid *g, const struct ow_window *w,
+                    enum ow_map_figure f, const struct ow_map *m,
                     const struct ow_maps_options *o, struct ow_diag *d)
 {
+	const struct ow_study *s = m ? m->study : NULL;
+	const struct ow_grid *g = m ? m->grid : NULL;
+	const struct ow_window *w = m ? m->window : NULL;
 	struct ow_maps_options def;
 	struct maps_field mf;
 	struct fig_ctx ctx;

@@ -2,13 +2,13 @@
  * filled bands of the share in per cent, labelled contour lines at 50, 90
  * and 99 %, the nominal window's rectangle (thin) and the robust one
  * (bold). */
-#include "ow_spread_out.h"
+#include "maps_impl.h"
 
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 
-#include "maps_impl.h"
+#include "ow_spread.h"
 
 struct share_ctx {
 	const struct ow_grid *g;
@@ -65,14 +65,14 @@ static enum ow_status draw_share(const struct ow_plot *p,
 
 enum ow_status ow_maps_draw_share(struct ow_canvas *cv,
 				  const struct ow_rect *box,
-				  const struct ow_study *s,
-				  const struct ow_grid *g,
-				  const struct ow_window *w,
-				  const struct ow_window *rw,
-				  const struct ow_spread_result *r,
+				  const struct ow_map *m,
 				  const struct ow_maps_options *o,
 				  struct ow_diag *d)
 {
+	const struct ow_study *s = m->study;
+	const struct ow_grid *g = m->grid;
+	const struct ow_window *w = m->window, *rw = m->robust;
+	const struct ow_spread_result *r = m->spread;
 	struct share_ctx ctx = {g, r};
 	struct maps_field mf;
 	struct ow_plot_axis x, y;
@@ -80,8 +80,11 @@ enum ow_status ow_maps_draw_share(struct ow_canvas *cv,
 	struct ow_ticks fill, iso;
 	char ytitle[128], sub[256], title[400];
 	double fs = maps_font(o);
-	enum ow_status st = maps_field_create(s, g, o->units, &mf, d);
+	enum ow_status st;
 
+	if (!r || !rw)
+		return ow_diag_set(d, OW_EARG, "share map: no spread");
+	st = maps_field_create(s, g, o->units, &mf, d);
 	if (st != OW_OK)
 		return st;
 	maps_fill(g, share_value, &ctx, mf.z);
@@ -104,11 +107,7 @@ enum ow_status ow_maps_draw_share(struct ow_canvas *cv,
 	return ow_canvas_status(cv, d);
 }
 
-enum ow_status ow_maps_write_share(const struct ow_study *s,
-				   const struct ow_grid *g,
-				   const struct ow_window *w,
-				   const struct ow_window *rw,
-				   const struct ow_spread_result *r,
+enum ow_status ow_maps_write_share(const struct ow_map *m,
 				   const struct ow_maps_options *o,
 				   const char *dir, struct ow_diag *d)
 {
@@ -130,7 +129,7 @@ enum ow_status ow_maps_write_share(const struct ow_study *s,
 					    OW_MAPS_HEIGHT_PT,
 					    OW_MAPS_PNG_SCALE, &cv, d);
 		if (st == OW_OK)
-			st = ow_maps_draw_share(cv, &box, s, g, w, rw, r, o, d);
+			st = ow_maps_draw_share(cv, &box, m, o, d);
 		if (st == OW_OK)
 			st = ow_canvas_write_file(cv, path, d);
 		ow_canvas_destroy(cv);

@@ -540,15 +540,14 @@ window_layout(struct ow_canvas *cv, const struct ow_rect *box,
 
 enum ow_status
 ow_maps_window_frame(struct ow_canvas *cv, const struct ow_rect *box,
-                     const struct ow_study *s, const struct ow_grid *g,
-                     const struct ow_window *w, const struct ow_maps_options *o,
+                     const struct ow_map *m, const struct ow_maps_options *o,
                      struct ow_plot *p, struct ow_diag *d)
 {
 	struct ow_maps_options def;
 	struct wlayout *ly;
 	enum ow_status st;
 
-	if (!cv || !box || !s || !g || !w || !p)
+	if (!cv || !box || !m || !m->study || !m->grid || !m->window || !p)
 		return ow_diag_set(d, OW_EARG, "window frame: NULL argument");
 	if (!o) {
 		ow_maps_default(&def);
@@ -557,7 +556,7 @@ ow_maps_window_frame(struct ow_canvas *cv, const struct ow_rect *box,
 	ly = calloc(1, sizeof *ly);
 	if (!ly)
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
-	st = window_layout(cv, box, s, g, w, o, ly, d);
+	st = window_layout(cv, box, m->study, m->grid, m->window, o, ly, d);
 	if (st == OW_OK)
 		*p = ly->p;
 	free(ly);
@@ -566,10 +565,12 @@ ow_maps_window_frame(struct ow_canvas *cv, const struct ow_rect *box,
 
 enum ow_status
 ow_maps_draw_window(struct ow_canvas *cv, const struct ow_rect *box,
-                    const struct ow_study *s, const struct ow_grid *g,
-                    const struct ow_window *w, const struct ow_maps_options *o,
+                    const struct ow_map *m, const struct ow_maps_options *o,
                     struct ow_diag *d)
 {
+	const struct ow_study *s = m ? m->study : NULL;
+	const struct ow_grid *g = m ? m->grid : NULL;
+	const struct ow_window *w = m ? m->window : NULL;
 	struct ow_maps_options def;
 	struct wlayout *ly;
 	char sub[256];

@@ -293,15 +293,14 @@ enum ow_status rpt_close(struct rpt *r, const char *path)
 	return r->st;
 }
 
-enum ow_status ow_report_write(const struct ow_study *s,
-                               const struct ow_grid *g,
-                               const struct ow_window *w,
+enum ow_status ow_report_write(const struct ow_map *m,
                                const struct ow_report_options *o,
                                const char *pdf_path, struct ow_diag *d)
 {
+	const struct ow_study *s = m ? m->study : NULL;
 	struct rpt r;
 
-	if (!s || !g || !w || !o || !pdf_path)
+	if (!s || !m->grid || !m->window || !o || !pdf_path)
 		return ow_diag_set(d, OW_EARG,
 		                   "ow_report_write: NULL "
 		                   "argument");
@@ -311,9 +310,10 @@ enum ow_status ow_report_write(const struct ow_study *s,
 		                   "YYYY-MM-DD",
 		                   o->date ? o->date : "");
 	memset(&r, 0, sizeof r);
+	r.m = m;
 	r.s = s;
-	r.g = g;
-	r.w = w;
+	r.g = m->grid;
+	r.w = m->window;
 	r.o = o;
 	r.sys = o->units;
 	r.d = d;
@@ -335,9 +335,7 @@ enum ow_status ow_report_write(const struct ow_study *s,
 }
 
 struct folder_report {
-	const struct ow_study *s;
-	const struct ow_grid *g;
-	const struct ow_window *w;
+	const struct ow_map *m;
 	const struct ow_report_options *o;
 	const char *path;
 };
@@ -346,17 +344,15 @@ static enum ow_status report_piece(void *ctx, struct ow_diag *d)
 {
 	const struct folder_report *f = ctx;
 
-	return ow_report_write(f->s, f->g, f->w, f->o, f->path, d);
+	return ow_report_write(f->m, f->o, f->path, d);
 }
 
-enum ow_status ow_report_write_folder(const struct ow_study *s,
-                                      const struct ow_grid *g,
-                                      const struct ow_window *w,
+enum ow_status ow_report_write_folder(const struct ow_map *m,
                                       const struct ow_report_options *o,
                                       const struct ow_maps_options *mo,
                                       const char *dir, struct ow_diag *d)
 {
-	struct folder_report f = {s, g, w, o, NULL};
+	struct folder_report f = {m, o, NULL};
 	size_t n = dir ? strlen(dir) + sizeof "/report.pdf" : 0;
 	char *path = n ? malloc(n) : NULL;
 	enum ow_status st;
@@ -367,7 +363,7 @@ enum ow_status ow_report_write_folder(const struct ow_study *s,
 		                       : "ow_report_write_folder: NULL folder");
 	snprintf(path, n, "%s/report.pdf", dir);
 	f.path = path;
-	st = ow_maps_write_beside(s, g, w, mo, dir, report_piece, &f, d);
+	st = ow_maps_write_beside(m, mo, dir, report_piece, &f, d);
 	free(path);
 	return st;
 }

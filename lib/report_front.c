@@ -112,14 +112,14 @@ static void title_block(struct rpt *r)
 
 /* ---- the window table --------------------------------------------------- */
 
-/* The centre point's figures: as solved by the caller, else the lattice
+/* The centre point's figures: as the map solved it alone, else the lattice
  * point's when the sweep solved it; NULL when neither. */
 static const struct ow_point *centre_point(const struct rpt *r)
 {
 	int i;
 
-	if (r->o->centre_point)
-		return r->o->centre_point;
+	if (r->m->has_centre)
+		return &r->m->centre;
 	for (i = 0; i < r->g->n_rpm * r->g->n_axis; i++) {
 		const struct ow_grid_point *p = &r->g->pts[i];
 
@@ -532,7 +532,7 @@ static void window_map(struct rpt *r)
 	box.h = h;
 	rpt_map_options(r, &mo);
 	if (r->st == OW_OK)
-		r->st = ow_maps_draw_window(r->cv, &box, r->s, r->g, r->w, &mo,
+		r->st = ow_maps_draw_window(r->cv, &box, r->m, &mo,
 		                            r->d);
 	r->y = box.y + box.h + 6.0;
 	rpt_check(r);

@@ -25,7 +25,9 @@
 #define RPT_LINE      1.32 /* line height per point of font size */
 
 struct rpt {
-	/* the report's inputs (NULL in other documents) */
+	/* the report's inputs (NULL in other documents): the map, and its
+	 * study, lattice and window */
+	const struct ow_map *m;
 	const struct ow_study *s;
 	const struct ow_grid *g;
 	const struct ow_window *w;

@@ -68,7 +68,7 @@ static void one_map(struct rpt *r, enum ow_map_figure f, double h)
 	box = rpt_map_box(r, h);
 	rpt_map_options(r, &mo);
 	r->st =
-	    ow_maps_draw_figure(r->cv, &box, f, r->s, r->g, r->w, &mo, r->d);
+	    ow_maps_draw_figure(r->cv, &box, f, r->m, &mo, r->d);
 	r->y += h + 4.0;
 	rpt_check(r);
 	caption(r, f);
@@ -118,7 +118,7 @@ void rpt_profile_page(struct rpt *r)
 
 	if (r->st != OW_OK)
 		return;
-	if (r->w->empty || !r->o->profile || r->o->n_profile < 2) {
+	if (r->w->empty || !r->m->profile || r->m->n_profile < 2) {
 		rpt_heading(r, "Along the screw", 40.0);
 		rpt_para(r,
 		         r->w->empty
@@ -144,8 +144,8 @@ void rpt_profile_page(struct rpt *r)
 	box.w = r->x1 - r->x0;
 	box.h = fmin(r->y1 - r->y, box.w * 1.25);
 	rpt_map_options(r, &mo);
-	r->st = ow_maps_draw_profile(r->cv, &box, r->s, r->o->profile,
-	                             r->o->n_profile, sub, &mo, r->d);
+	r->st = ow_maps_draw_profile(r->cv, &box, r->s, r->m->profile,
+	                             r->m->n_profile, sub, &mo, r->d);
 	r->y = box.y + box.h;
 	rpt_check(r);
 }

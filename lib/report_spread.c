@@ -94,16 +94,16 @@ static void windows_table(struct rpt *r)
 	char name[64];
 
 	snprintf(name, sizeof name, "robust (%.0f %% of samples safe)",
-		 100.0 * r->o->spread->level);
+		 100.0 * r->m->spread->level);
 	rpt_table_head(r, &t);
 	window_row(r, &t, "nominal", r->w);
-	window_row(r, &t, name, r->o->robust);
+	window_row(r, &t, name, r->m->robust);
 	rpt_table_end(r);
 }
 
 static void ranking_words(struct rpt *r)
 {
-	const struct ow_spread_result *res = r->o->spread;
+	const struct ow_spread_result *res = r->m->spread;
 	struct rpt_style st = rpt_body();
 	char text[1200];
 	size_t used;
@@ -142,19 +142,18 @@ static void share_map(struct rpt *r)
 		return;
 	box = rpt_map_box(r, h);
 	rpt_map_options(r, &mo);
-	r->st = ow_maps_draw_share(r->cv, &box, r->s, r->g, r->w,
-				   r->o->robust, r->o->spread, &mo, r->d);
+	r->st = ow_maps_draw_share(r->cv, &box, r->m, &mo, r->d);
 	r->y += h + 6.0;
 	rpt_check(r);
 }
 
 void rpt_spread_page(struct rpt *r)
 {
-	const struct ow_spread_result *res = r->o->spread;
+	const struct ow_spread_result *res = r->m->spread;
 	struct rpt_style st = rpt_body();
 	char text[900];
 
-	if (!res || !r->o->robust || r->st != OW_OK)
+	if (!res || !r->m->robust || r->st != OW_OK)
 		return;
 	rpt_new_page(r);
 	rpt_heading(r, "The window across the spread of the inputs", 200.0);
