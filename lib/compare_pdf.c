@@ -196,8 +196,8 @@ static void windows(struct cpdf *r)
 	rpt_heading(&r->doc, "Recommended windows", 80.0);
 	rpt_table_head(&r->doc, &t);
 	for (k = 0; k < 2; k++) {
-		output_range(r, c->win[k], out[k], sizeof out[k]);
-		window_row(r, &t, label(r, k), c->win[k], out[k]);
+		output_range(r, c->map[k]->window, out[k], sizeof out[k]);
+		window_row(r, &t, label(r, k), c->map[k]->window, out[k]);
 	}
 	output_range(r, c->common[0], out[0], sizeof out[0]);
 	output_range(r, c->common[1], out[1], sizeof out[1]);
@@ -297,7 +297,7 @@ static void why(struct cpdf *r)
 		para(r, text, RPT_BODY_PT, 0, 5.0);
 	}
 	for (k = 0; k < 2; k++) {
-		limit_list(c->win[k]->fail_count, list, sizeof list);
+		limit_list(c->map[k]->window->fail_count, list, sizeof list);
 		snprintf(text, sizeof text,
 		         "Limits that shape %s's window "
 		         "(grid points each excludes): %s.",
