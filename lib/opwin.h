@@ -3,8 +3,7 @@
 #ifndef OPWIN_H
 #define OPWIN_H
 
-#define OW_VERSION "0.1.0"
-
+#include "ow_version.h"
 #include "ow_status.h"
 #include "ow_io.h"
 #include "ow_units.h"

@@ -1,4 +1,4 @@
-/* report_unicode.c - a correct ToUnicode map for the PDF's fonts, so that
+/* doc_unicode.c - a correct ToUnicode map for the PDF's fonts, so that
  * text can be searched and copied (also "°C", "–", "≤").
  *
  * libharu's UTF-8 encoder writes every character as its two-byte Unicode
@@ -12,7 +12,7 @@
  * dictionary again with its /ToUnicode pointing there, a cross-reference
  * section for those objects and a trailer with /Prev. The bytes before
  * the update are left as they were. */
-#include "report_impl.h"
+#include "doc_impl.h"
 
 #include <stdarg.h>
 #include <stdio.h>
@@ -52,7 +52,7 @@ static void puts_(struct pbuf *b, const char *s)
 }
 
 static void putf(struct pbuf *b, const char *fmt, ...)
-	__attribute__((format(printf, 2, 3)));
+    __attribute__((format(printf, 2, 3)));
 
 static void putf(struct pbuf *b, const char *fmt, ...)
 {
@@ -64,12 +64,13 @@ static void putf(struct pbuf *b, const char *fmt, ...)
 	k = vsnprintf(tmp, sizeof tmp, fmt, ap);
 	va_end(ap);
 	if (k > 0)
-		put(b, tmp, (size_t)k < sizeof tmp ? (size_t)k : sizeof tmp - 1);
+		put(b, tmp,
+		    (size_t)k < sizeof tmp ? (size_t)k : sizeof tmp - 1);
 }
 
 /* The last occurrence of needle in the n bytes at h, or NULL. */
 static const unsigned char *last(const unsigned char *h, size_t n,
-				 const char *needle)
+                                 const char *needle)
 {
 	size_t k = strlen(needle), i;
 
@@ -80,7 +81,7 @@ static const unsigned char *last(const unsigned char *h, size_t n,
 }
 
 static const unsigned char *find(const unsigned char *h, size_t n,
-				 const char *needle)
+                                 const char *needle)
 {
 	size_t k = strlen(needle), i;
 
@@ -96,10 +97,10 @@ static void cmap(struct pbuf *b)
 	int h, k = 0, n = 0;
 
 	puts_(b, "/CIDInit /ProcSet findresource begin\n12 dict begin\n"
-		 "begincmap\n/CIDSystemInfo << /Registry (Adobe) /Ordering "
-		 "(UCS) /Supplement 0 >> def\n/CMapName /Adobe-Identity-UCS "
-		 "def\n/CMapType 2 def\n1 begincodespacerange\n<0000> <FFFF>\n"
-		 "endcodespacerange\n");
+	         "begincmap\n/CIDSystemInfo << /Registry (Adobe) /Ordering "
+	         "(UCS) /Supplement 0 >> def\n/CMapName /Adobe-Identity-UCS "
+	         "def\n/CMapType 2 def\n1 begincodespacerange\n<0000> <FFFF>\n"
+	         "endcodespacerange\n");
 	for (h = 0; h < 256; h++) {
 		if (h >= 0xD8 && h <= 0xDF)
 			continue; /* surrogates: no characters */
@@ -115,7 +116,7 @@ static void cmap(struct pbuf *b)
 		}
 	}
 	puts_(b, "endcmap\nCMapName currentdict /CMap defineresource pop\n"
-		 "end\nend\n");
+	         "end\nend\n");
 }
 
 /* Font objects naming a /ToUnicode: their numbers and dictionaries. */
@@ -155,7 +156,7 @@ static int fonts(const unsigned char *p, size_t n, struct font *f)
 
 /* "/Name <digits> 0 R" from the trailer, into out ("" when absent). */
 static void trailer_ref(const unsigned char *t, size_t n, const char *name,
-			char *out, size_t m)
+                        char *out, size_t m)
 {
 	const unsigned char *q = find(t, n, name);
 	size_t k = 0;
@@ -172,8 +173,8 @@ static void trailer_ref(const unsigned char *t, size_t n, const char *name,
 	out[k] = '\0';
 }
 
-enum ow_status rpt_fix_to_unicode(unsigned char **buf, size_t *len,
-				  struct ow_diag *d)
+enum ow_status ow_doc_fix_to_unicode(unsigned char **buf, size_t *len,
+                                     struct ow_diag *d)
 {
 	struct font f[MAX_FONTS];
 	struct pbuf b = {*buf, *len, *len, 0};
@@ -241,8 +242,8 @@ enum ow_status rpt_fix_to_unicode(unsigned char **buf, size_t *len,
 	putf(&b, "trailer\n<<\n/Root %s\n", root);
 	if (*info)
 		putf(&b, "/Info %s\n", info);
-	putf(&b, "/Size %d\n/Prev %d\n>>\nstartxref\n%zu\n%%%%EOF\n",
-	     size + 1, prev, xref);
+	putf(&b, "/Size %d\n/Prev %d\n>>\nstartxref\n%zu\n%%%%EOF\n", size + 1,
+	     prev, xref);
 	free(body);
 	if (b.oom) { /* b.p still holds the document as it was */
 		*buf = b.p;
