@@ -5,14 +5,10 @@
 #include "ow_map.h"
 #include "spread.h"
 
-#include <errno.h>
 #include <getopt.h>
-#include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
-#include <sys/stat.h>
-#include <time.h>
 #include <unistd.h>
 
 struct map_opts {

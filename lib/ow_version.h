@@ -1,5 +1,5 @@
-/* ow_version.h - the version of libopwin and the opwin command, printed
- * by --version and written into every document opwin makes. */
+/* ow_version.h - the version of opwin, which the command prints and the
+ * reports carry. Includes nothing. */
 #ifndef OW_VERSION_H
 #define OW_VERSION_H
 

@@ -9,7 +9,7 @@
 #include <stdio.h>
 #include <string.h>
 
-#include "ow_spread_out.h"
+#include "ow_spread.h"
 
 #define MAP_ASPECT (OW_MAPS_WIDTH_PT / OW_MAPS_HEIGHT_PT)
 
