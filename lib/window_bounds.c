@@ -507,6 +507,10 @@ enum ow_status ow_window_locate(const struct ow_study *s,
 	double offset = ow_sweep_set_ref(s, 0.0) - OW_ZERO_C_K, span_r, span_a, rstep, tstep;
 	enum ow_status st = OW_OK;
 
+	if (g->n_rpm < 2 || g->n_axis < 2) /* no step to interpolate on */
+		return ow_diag_set(d, OW_EINPUT, "the map's lattice has %d x %d "
+				   "points; a window needs at least 2 in each axis",
+				   g->n_rpm, g->n_axis);
 	if (field_make(s, g, &f)) {
 		st = ow_diag_set(d, OW_ENOMEM, "out of memory");
 		goto done;
@@ -568,6 +572,10 @@ enum ow_status ow_window_verdict_at(const struct ow_study *s,
 	int k;
 
 	*bits = 0;
+	if (g->n_rpm < 2 || g->n_axis < 2)
+		return ow_diag_set(d, OW_EINPUT, "the map's lattice has %d x %d "
+				   "points; a verdict needs at least 2 in each axis",
+				   g->n_rpm, g->n_axis);
 	if (field_make(s, g, &f)) {
 		free(f.v);
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");

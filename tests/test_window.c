@@ -228,16 +228,18 @@ static void all_unsafe_lattice_is_empty(void **st)
 }
 
 /* A lattice one point wide in an axis (no sweep makes one, but a saved
- * map folder could carry it) gives an answer or an error, never a hang:
- * its step is 0/0. */
+ * map folder could carry it) has no step to interpolate on (0/0): it is
+ * refused with a message, never a hang or a read past the lattice. */
 static void one_point_wide_lattice_ends(void **st)
 {
 	struct ow_study *s = study();
 	struct ow_grid *g = lattice(4, 1);
 	struct ow_window *w = NULL;
+	struct ow_diag d = {0};
 	(void)st;
-	if (ow_window_extract(s, g, &w, NULL) == OW_OK)
-		assert_non_null(w);
+	assert_int_equal(ow_window_extract(s, g, &w, &d), OW_EINPUT);
+	assert_null(w);
+	assert_non_null(strstr(d.msg, "4 x 1"));
 	ow_window_destroy(w);
 	ow_grid_destroy(g);
 	free(s);
