@@ -15,6 +15,7 @@
 #define FILM_PASSES 3      /* fixed-point passes of a substep */
 #define FILM_MIN_M 1e-9    /* floor on the film for its shear rate */
 #define ROOT_MAXIT 60
+#define BED_MELT_MAX 0.5 /* largest melt share of the plug handed over */
 
 void ow_delay_start(struct ow_delay *z, const struct ow_material *m,
 		    double feed_K)
@@ -376,22 +377,42 @@ enum ow_status ow_delay_advance(struct ow_delay *z, double wall_K,
 	return OW_OK;
 }
 
-void ow_delay_bed(const struct ow_delay *z, double depth_m,
+/* The plug handed over holds heat_J_m2 per unit contact area over a bed
+ * depth_m deep: the film melt (mass share f at melt_K) and the solid left
+ * (at bed_K) hold exactly that heat, per kg f h_m + (1 - f) c_s (T_s -
+ * T_0) = Q, h_m = c_s (T_m - T_0) + lambda + c_m (T_melt - T_m) (the same
+ * enthalpy as the energy book's). A solid that would pass T_m melts more
+ * of itself into the film melt; past the largest share handed over the
+ * film melt is hotter. */
+void ow_delay_bed(const struct ow_delay *z, double depth_m, double heat_J_m2,
 		  double *melt_frac, double *bed_K, double *melt_K)
 {
 	const struct ow_material *m = z->mat;
-	double ms = m->melt_density_kg_m3 * z->film_m; /* film, kg/m^2 */
-	double msolid = m->solid_density_kg_m3 * depth_m;
-	double f = msolid > 0.0 ? fmin(ms / msolid, 0.5) : 0.0;
-	double sens, t;
+	double msolid = m->solid_density_kg_m3 * depth_m; /* kg/m^2 */
+	double cs = m->solid_cp_J_kgK, tm = m->melt_temp_K;
+	double f = msolid > 0.0 ? fmin(m->melt_density_kg_m3 * z->film_m /
+					       msolid, BED_MELT_MAX)
+				: 0.0;
+	double tk = z->film ? z->film_K : tm;
+	double q = msolid > 0.0 ? heat_J_m2 / msolid : 0.0; /* J/kg */
+	double sens = cs * (tm - z->feed_K);
+	double hm = sens + m->fusion_J_kg + m->melt_cp_J_kgK * (tk - tm);
+	double t = cs > 0.0 ? z->feed_K + (q - f * hm) / ((1.0 - f) * cs)
+			    : tm;
 
-	ms = f * msolid;
-	sens = ms * m->solid_cp_J_kgK * (m->melt_temp_K - z->feed_K);
-	t = m->solid_cp_J_kgK > 0.0
-		    ? z->feed_K + (ow_delay_solid_heat(z) - sens) /
-				  ((msolid - ms) * m->solid_cp_J_kgK)
-		    : z->feed_K;
+	if (t > tm) { /* more melts: f hm + (1 - f) sens = q */
+		t = tm;
+		f = hm > sens ? fmin(fmax((q - sens) / (hm - sens), f),
+				     BED_MELT_MAX)
+			      : BED_MELT_MAX;
+		if (f * hm + (1.0 - f) * sens < q && f > 0.0 &&
+		    m->melt_cp_J_kgK > 0.0) { /* the melt takes the rest */
+			hm = (q - (1.0 - f) * sens) / f;
+			tk = tm + (hm - sens - m->fusion_J_kg) /
+					  m->melt_cp_J_kgK;
+		}
+	}
 	*melt_frac = f;
-	*bed_K = fmin(fmax(t, z->feed_K), m->melt_temp_K);
-	*melt_K = z->film ? z->film_K : m->melt_temp_K;
+	*bed_K = t;
+	*melt_K = tk;
 }

@@ -97,11 +97,15 @@ double ow_delay_temp(const struct ow_delay *z, double depth_m);
  * c_s (t - t_k) / pi) (Carslaw & Jaeger section 2.4). */
 double ow_delay_solid_heat(const struct ow_delay *z);
 
-/* The plug handed to the melting stage in a channel depth_m deep: the
- * share of its mass already melt (the film), the mean temperature of the
- * solid left (its heat content spread over its mass, at most T_m) and of
- * the film melt. */
-void ow_delay_bed(const struct ow_delay *z, double depth_m,
+/* The plug handed to the melting stage in a channel depth_m deep holding
+ * heat_J_m2 per unit area of contact (what went into it, per unit mass
+ * times the bed's mass per unit area there: the channel may have become
+ * shallower since the heat went in): the share of its mass already melt
+ * (the film, more where the solid would pass T_m, at most one half), the
+ * mean temperature of the solid left (at most T_m) and of the melt. The
+ * three hold exactly heat_J_m2 (enthalpy from T_0: c_s below T_m, lambda,
+ * c_m above). */
+void ow_delay_bed(const struct ow_delay *z, double depth_m, double heat_J_m2,
 		  double *melt_frac, double *bed_K, double *melt_K);
 
 #endif

@@ -40,6 +40,7 @@ struct ctx {
 	double film_peak_K;
 	double shear;      /* max shear rate at this station */
 	struct ow_delay delay; /* the plug heating up ahead of melting */
+	double delay_J_kg; /* heat into the plug so far per kg of it */
 	int delay_done;    /* the film reached the clearance: melting next */
 	int zone;          /* the zone whose steps are being marched */
 	double film_m, film_mu, film_vj2; /* last melt film: thickness,
@@ -150,6 +151,7 @@ static enum ow_status step_delay(struct ctx *c, double x, double dz,
 		return st;
 	c->m->power_W += o.dissip_J_m2 * rate;
 	book_barrel(c, x, (o.heat_J_m2 - o.dissip_J_m2) * rate);
+	c->delay_J_kg += o.heat_J_m2 * rate / (c->g * c->p);
 	c->film_peak_K = o.peak_K;
 	if (o.done_s >= 0.0)
 		*done = o.done_s / dt;
@@ -246,14 +248,24 @@ static enum ow_status check_feed(struct ctx *c)
 
 /* Tadmor melting takes over from the delay zone: the film melt is the
  * first pool, and the bed enters with the heat the plug took up (its mean
- * temperature as the bed's T_s, which keeps the energy book exact). */
+ * temperature as the bed's T_s, which keeps the energy book exact). The
+ * delay zone's heat is counted per kg of plug as it went in (the heat per
+ * unit of contact area times the contact area swept per kg there), so a
+ * channel that grew shallower since (fewer kg per m^2 of contact) hands
+ * over the heat that went in, not more. (The heat per unit area is the
+ * conduction solution of Carslaw & Jaeger, Conduction of Heat in Solids,
+ * 2nd ed. 1959, sections 2.4 and 2.7; the plug sliding under the barrel
+ * as in Tadmor & Klein, Engineering Principles of Plasticating Extrusion,
+ * 1970.) */
 static void start_melting(struct ctx *c, double x)
 {
 	struct split sp;
 	double f, bed_K, melt_K;
 
 	channel_split(c, x, &sp);
-	ow_delay_bed(&c->delay, sp.bed_h, &f, &bed_K, &melt_K);
+	ow_delay_bed(&c->delay, sp.bed_h,
+		     c->delay_J_kg * c->mat->solid_density_kg_m3 * sp.bed_h,
+		     &f, &bed_K, &melt_K);
 	c->ph = PH_MELTING;
 	c->X = sp.bed_w * (1.0 - f);
 	c->vsz = ow_melting_bed_speed(c->mat, c->g, sp.bed_h, sp.bed_w);

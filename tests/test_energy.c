@@ -74,11 +74,63 @@ static void plugged_point_names_its_unheated_melt(void **st)
 	assert_true(pt.flags & OW_FLAG_PLUGGING);
 	assert_true(pt.flags & OW_FLAG_UNHEATED_MELT);
 	assert_true(pt.unheated_melt_W > 0.05 * pt.power_W);
-	/* the book is short by at least that heat (the 12 D delay zone
-	 * under walls below the melting point ahead of it loses a few % of
-	 * the drive power more, so closure is not asserted here) */
-	assert_true(pt.energy_residual <
-		    -pt.unheated_melt_W / pt.power_W + 0.01);
+	/* the 12 D delay zone under walls below the melting point ahead of
+	 * it hands the bed the heat that went in: the rest of the book
+	 * closes */
+	assert_energy_closed(&pt);
+	free(s);
+}
+
+/* Sweep s on rpm_steps x axis_steps (0: the study's grid) and check the
+ * book at every converged point; returns how many were checked, and in
+ * *late how many start melting past x_m. */
+static int check_map(const struct ow_study *s, int rpm_steps, int axis_steps,
+		     double x_m, int *late)
+{
+	struct ow_sweep_config c;
+	struct ow_grid *g = NULL;
+	int k, checked = 0;
+
+	ow_sweep_default(&c);
+	c.jobs = 2;
+	c.rpm_steps = rpm_steps;
+	c.axis_steps = axis_steps;
+	assert_int_equal(ow_sweep_run(s, &c, &g, NULL), OW_OK);
+	*late = 0;
+	for (k = 0; k < g->n_rpm * g->n_axis; k++) {
+		const struct ow_point *pt = &g->pts[k].pt;
+
+		if (g->pts[k].solved != 1 ||
+		    (pt->flags & OW_FLAG_NOT_CONVERGED))
+			continue;
+		assert_energy_closed(pt);
+		checked++;
+		*late += pt->melt_start_m > x_m;
+	}
+	ow_grid_destroy(g);
+	return checked;
+}
+
+/* Barrel zones far below the study's set-points: the plug slides under
+ * walls below the melting point for many diameters (the delay zone:
+ * conduction into the solid, Carslaw & Jaeger, Conduction of Heat in
+ * Solids, 2nd ed. 1959, sections 2.4 and 2.7; Tadmor & Klein,
+ * Engineering Principles of Plasticating Extrusion, 1970), often into the
+ * taper, where the bed grows shallower than where the heat went in. Over
+ * 20..120 rpm and every zone 40..70 K below the demo's set-points the
+ * first law closes within 1 % at every converged point, flagged or not,
+ * or the point names the heat it could not book (assert_energy_closed). */
+static void energy_closes_with_cold_zones(void **st)
+{
+	struct ow_study *s = ow_test_study("demo/study-si.json");
+	int checked, long_delay;
+	(void)st;
+	s->line.axes.axis_from = -70.0;
+	s->line.axes.axis_to = -40.0;
+	/* melting starts past the feed section's 6 D at most points */
+	checked = check_map(s, 6, 4, 6.0 * s->screw.diameter_m, &long_delay);
+	assert_true(checked >= 20);
+	assert_true(long_delay >= 10);
 	free(s);
 }
 
@@ -99,28 +151,13 @@ static void energy_closes_at_every_point_of_every_fixture_map(void **st)
 		"fixtures/studies/ps-rod.json",
 		"demo/study-si.json"};
 	size_t i;
-	int k, checked = 0;
+	int checked = 0, late;
 	(void)st;
 	for (i = 0; i < sizeof studies / sizeof studies[0]; i++) {
 		struct ow_study *s = ow_test_study(studies[i]);
-		struct ow_sweep_config c;
-		struct ow_grid *g = NULL;
+		int n = strstr(studies[i], "demo") ? 11 : 0;
 
-		ow_sweep_default(&c);
-		c.jobs = 2;
-		if (strstr(studies[i], "demo"))
-			c.rpm_steps = c.axis_steps = 11;
-		assert_int_equal(ow_sweep_run(s, &c, &g, NULL), OW_OK);
-		for (k = 0; k < g->n_rpm * g->n_axis; k++) {
-			const struct ow_point *pt = &g->pts[k].pt;
-
-			if (g->pts[k].solved != 1 ||
-			    (pt->flags & OW_FLAG_NOT_CONVERGED))
-				continue;
-			assert_energy_closed(pt);
-			checked++;
-		}
-		ow_grid_destroy(g);
+		checked += check_map(s, n, n, INFINITY, &late);
 		free(s);
 	}
 	assert_true(checked > 1000);
@@ -131,6 +168,7 @@ int main(void)
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(unmelt_at_the_tip_keeps_the_energy_balance),
 		cmocka_unit_test(plugged_point_names_its_unheated_melt),
+		cmocka_unit_test(energy_closes_with_cold_zones),
 		cmocka_unit_test(energy_closes_at_every_point_of_every_fixture_map),
 	};
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
