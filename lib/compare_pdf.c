@@ -496,9 +496,7 @@ static void inputs(struct cpdf *r)
 
 /* ---- cautions ----------------------------------------------------------- */
 
-static const struct {
-	const char *lead, *text;
-} cautions[] = {
+static const struct ow_doc_caution cautions[] = {
     {"Estimates, not measurements.",
      "Both cases are computed from "
      "published engineering models and the inputs listed above; a "
@@ -525,19 +523,6 @@ static const struct {
      "approval of a qualified engineer, where required, come first."},
 };
 
-static void caution_block(struct cpdf *r)
-{
-	char text[640];
-	size_t k;
-
-	ow_doc_heading(&r->doc, "Cautions", 60.0);
-	for (k = 0; k < sizeof cautions / sizeof cautions[0]; k++) {
-		para(r, cautions[k].lead, OW_DOC_BODY_PT, 1, 1.0);
-		snprintf(text, sizeof text, "%s", cautions[k].text);
-		para(r, text, OW_DOC_BODY_PT, 0, 6.0);
-	}
-}
-
 static void pages(struct cpdf *r)
 {
 	ow_doc_new_page(&r->doc);
@@ -548,7 +533,9 @@ static void pages(struct cpdf *r)
 	why(r);
 	centres(r);
 	inputs(r);
-	caution_block(r);
+	ow_doc_cautions(&r->doc, cautions,
+	                (int)(sizeof cautions / sizeof cautions[0]),
+	                OW_DOC_CAUTIONS_PLAIN);
 }
 
 enum ow_status ow_compare_write_pdf(const struct ow_compare *cmp,

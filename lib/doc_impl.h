@@ -137,6 +137,26 @@ void ow_doc_table_row(struct ow_doc *r, const struct ow_doc_table *t,
 /* Space after a table. */
 void ow_doc_table_end(struct ow_doc *r);
 
+/* ---- cautions (doc_text.c) ---- */
+
+/* One caution: a bold lead sentence and the paragraph after it. */
+struct ow_doc_caution {
+	const char *lead, *text;
+};
+
+/* How a document sets its cautions. */
+enum ow_doc_caution_form {
+	/* indented beside a solid bar (visible in greyscale print), kept
+	 * on one page with it */
+	OW_DOC_CAUTIONS_BARRED,
+	/* flush with the column, each lead close to its paragraph */
+	OW_DOC_CAUTIONS_PLAIN
+};
+
+/* The n cautions c under the heading "Cautions", in the given form. */
+void ow_doc_cautions(struct ow_doc *r, const struct ow_doc_caution *c, int n,
+                     enum ow_doc_caution_form form);
+
 /* ---- numbers in the reader's units (doc_text.c) ---- */
 
 /* v with sig significant digits, trailing zeros dropped, U+2212 minus. */

@@ -386,6 +386,52 @@ void ow_doc_table_end(struct ow_doc *r)
 	r->y += 8.0;
 }
 
+/* ---- cautions --------------------------------------------------------- */
+
+/* Height of n cautions set width wide: each lead one line, its text
+ * wrapped, 7 pt after each. */
+static double cautions_height(struct ow_doc *r, const struct ow_doc_caution *c,
+                              int n, double width)
+{
+	char buf[2048];
+	const char *lines[40];
+	double h = 0.0;
+	int k;
+
+	for (k = 0; k < n; k++) {
+		h += OW_DOC_BODY_PT * OW_DOC_LINE *
+		     (1 + ow_doc_wrap(r, c[k].text, width, OW_DOC_BODY_PT, 0,
+		                      buf, sizeof buf, lines, 40));
+		h += 7.0;
+	}
+	return h;
+}
+
+void ow_doc_cautions(struct ow_doc *r, const struct ow_doc_caution *c, int n,
+                     enum ow_doc_caution_form form)
+{
+	int barred = form == OW_DOC_CAUTIONS_BARRED, k;
+	double indent = barred ? 14.0 : 0.0, top;
+	struct ow_doc_style lead = {OW_DOC_BODY_PT, 1, ow_doc_ink(), indent};
+	struct ow_doc_style st = ow_doc_body();
+
+	st.indent_pt = indent;
+	ow_doc_heading(r, "Cautions", barred ? 0.0 : 60.0);
+	if (barred)
+		ow_doc_need(r,
+		            cautions_height(r, c, n, r->x1 - r->x0 - indent));
+	top = r->y;
+	for (k = 0; k < n; k++) {
+		ow_doc_para(r, c[k].lead, &lead, barred ? 0.0 : 1.0);
+		ow_doc_para(r, c[k].text, &st, barred ? 7.0 : 6.0);
+	}
+	if (!barred || r->st != OW_OK || r->y < top)
+		return; /* no bar, or a page break (text longer than a page) */
+	ow_canvas_set_colour(r->cv, ow_doc_ink());
+	ow_canvas_rect(r->cv, r->x0, top, 4.0, r->y - top - 7.0);
+	ow_canvas_fill(r->cv);
+}
+
 /* ---- numbers ---------------------------------------------------------- */
 
 void ow_doc_trim_zeros(char *s)

@@ -59,9 +59,7 @@ static const char *const left_out[] = {
 };
 
 /* Our own words; each caution is a paragraph with a bold lead. */
-static const struct {
-	const char *lead, *text;
-} cautions[] = {
+static const struct ow_doc_caution cautions[] = {
     {"Hot melt and pressure can injure.",
      "Melt at these temperatures "
      "burns on contact and sticks to skin. Melt can spray from the die, "
@@ -127,48 +125,6 @@ static void leaves_out(struct rpt *r)
 	            &st, 0.0);
 }
 
-/* Height of the cautions, to keep them on one page with their bar. */
-static double cautions_height(struct rpt *r, double width)
-{
-	char buf[2048];
-	const char *lines[40];
-	double h = 0.0;
-	int k;
-
-	for (k = 0; k < N_OF(cautions); k++) {
-		h += OW_DOC_BODY_PT * OW_DOC_LINE *
-		     (1 + ow_doc_wrap(&r->doc, cautions[k].text, width,
-		                      OW_DOC_BODY_PT, 0, buf, sizeof buf, lines,
-		                      40));
-		h += 7.0;
-	}
-	return h;
-}
-
-static void cautions_box(struct rpt *r)
-{
-	struct ow_doc_style lead = {OW_DOC_BODY_PT, 1, ow_doc_ink(), 14.0};
-	struct ow_doc_style st = ow_doc_body();
-	double top, h;
-	int k;
-
-	ow_doc_heading(&r->doc, "Cautions", 0.0);
-	h = cautions_height(r, r->doc.x1 - r->doc.x0 - 14.0);
-	ow_doc_need(&r->doc, h);
-	top = r->doc.y;
-	st.indent_pt = 14.0;
-	for (k = 0; k < N_OF(cautions); k++) {
-		ow_doc_para(&r->doc, cautions[k].lead, &lead, 0.0);
-		ow_doc_para(&r->doc, cautions[k].text, &st, 7.0);
-	}
-	if (r->doc.st != OW_OK || r->doc.y < top)
-		return; /* a page break (text longer than a page) */
-	/* a solid bar beside the cautions: visible in greyscale print */
-	ow_canvas_set_colour(r->doc.cv, ow_doc_ink());
-	ow_canvas_rect(r->doc.cv, r->doc.x0, top, 4.0, r->doc.y - top - 7.0);
-	ow_canvas_fill(r->doc.cv);
-}
-
 void ow_report_basis(struct rpt *r)
 {
 	if (r->doc.st != OW_OK)
@@ -176,6 +132,7 @@ void ow_report_basis(struct rpt *r)
 	ow_doc_need(&r->doc, 200.0);
 	model_basis(r);
 	leaves_out(r);
-	cautions_box(r);
+	ow_doc_cautions(&r->doc, cautions, N_OF(cautions),
+	                OW_DOC_CAUTIONS_BARRED);
 	ow_doc_check(&r->doc);
 }
