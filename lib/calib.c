@@ -39,7 +39,8 @@ struct job {
 	size_t n;               /* entries */
 	struct entry e[OW_CALIB_MAX_RESID];
 	struct ow_point *pts;   /* one per reading, the last solve */
-	double *warm;           /* last output per reading, kg/s */
+	double *warm;           /* 1: pts[i] holds a converged solve of
+				   reading i to start from */
 	int have;               /* cx, cr hold the last residuals asked */
 	double cx[OW_CF_COUNT]; /* ... for these unknowns */
 	double *cr;             /* n residuals */
@@ -92,8 +93,9 @@ static void reading_set(const struct ow_study *s, const struct ow_reading *rd,
 					    : s->line.zones[z].set_K;
 }
 
-/* Solve every reading of j on study j->work, warm-started from the last
- * outputs, on j->threads threads (one solver each). */
+/* Solve every reading of j on study j->work, each started from its last
+ * converged solve (throughput, match slope, floating zones), on
+ * j->threads threads (one solver each). */
 static void solve_all(struct job *j)
 {
 	int n = (int)j->r->n, i;
@@ -107,14 +109,18 @@ static void solve_all(struct job *j)
 #pragma omp for schedule(dynamic)
 		for (i = 0; i < n; i++) {
 			double set_K[OW_MAX_ZONES];
+			struct ow_solver_start s0 = {.g_kg_s = 0.0};
 
 			reading_set(j->work, &j->r->r[i], set_K);
+			if (j->warm[i] > 0.0)
+				ow_solver_start_from(&j->pts[i], &s0);
 			if (st == OW_OK)
-				st = ow_solver_run(sv, j->r->r[i].rpm, set_K,
-						   j->warm[i], &j->pts[i], &dd);
+				st = ow_solver_run_from(sv, j->r->r[i].rpm,
+							set_K, &s0, &j->pts[i],
+							&dd);
 			if (st == OW_OK &&
 			    !(j->pts[i].flags & OW_FLAG_NOT_CONVERGED))
-				j->warm[i] = j->pts[i].output_kg_s;
+				j->warm[i] = 1.0;
 			else if (st != OW_OK)
 				j->pts[i].flags |= OW_FLAG_NOT_CONVERGED;
 		}

@@ -21,6 +21,7 @@ void ow_line_default(struct ow_line *l)
 	l->numerics.stations_per_turn = 6; /* proven by test_solver */
 	l->numerics.depth_nodes = 21;
 	l->numerics.feed_pressure_Pa = 1e4; /* flood-fed hopper, small */
+	l->numerics.tol_scale = 1.0;
 }
 
 int ow_line_zone_at(const struct ow_line *l, double x_m)

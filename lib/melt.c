@@ -78,6 +78,7 @@ enum ow_status ow_melt_create(int depth_nodes, int bands,
 	}
 	ws->seg_hi = ws->seg_lo + 2 * nb;
 	ws->hcache = -1.0;
+	ws->tol = 1.0;
 	*out = ws;
 	return OW_OK;
 fail:
@@ -97,6 +98,12 @@ void ow_melt_destroy(struct ow_melt_ws *ws)
 	free(ws->seg_lo);
 	free(ws->seg_band);
 	free(ws);
+}
+
+void ow_melt_tolerance(struct ow_melt_ws *ws, double scale)
+{
+	if (scale > 0.0)
+		ws->tol = scale;
 }
 
 void ow_melt_reset(struct ow_melt_ws *ws, double temp_K)
@@ -279,6 +286,7 @@ static void station_geometry(struct ow_melt_ws *ws, const struct ow_melt_cond *c
 	}
 	st->vz = c->vbz_m_s * st->fd / st->fp;
 	st->vx = c->vbx_m_s;
+	st->tol = ws->tol;
 }
 
 /* Leakage over the flight (Tadmor & Klein 1970, ch. 7): Q_L = L_b q_f with

@@ -102,7 +102,7 @@ static void find_centre(struct ow_melt_ws *ws)
 	}
 }
 
-#define LEVEL_TOL 1e-14 /* depth error left, share of H */
+#define LEVEL_TOL 1e-12 /* depth error left, share of H */
 
 /* Solve psi(y)/psi* = s for y in [ya, yb] (inside one cell) where the left
  * side runs from fa to fb (bracketing s): Newton on the cell's exact cubic

@@ -24,6 +24,7 @@ struct melt_station {
 	double leak_byp;   /* bypass length, m */
 	double leak_coef;  /* delta^3/(12 mu_f e), m^3/(Pa s) per m of flight */
 	double leak_heat;  /* clearance drag heating per unit length, W/m */
+	double tol;        /* tolerance scale (ow_melt_tolerance) */
 };
 
 /* The viscosity of every cell for one set of stresses; the line search
@@ -71,6 +72,7 @@ struct ow_melt_ws {
 	int warm;        /* cur holds a previous solution */
 	double bulk;     /* flow-weighted band mean, K */
 	double hcache, fdcache, fpcache; /* last shape factors */
+	double tol;      /* tolerance scale, 1 by default */
 };
 
 /* melt_flow.c: Newton solve of the viscosity and stress parameters at one

@@ -88,6 +88,11 @@ struct ow_numerics {
 	int stations_per_turn; /* down-channel steps per screw turn */
 	int depth_nodes;       /* nodes across the channel depth */
 	double feed_pressure_Pa; /* plug pressure under a flood-fed hopper */
+	double tol_scale;      /* multiplies every iteration tolerance of
+				  the solver (match, zones, melt Newton);
+				  1 by default, far smaller to check the
+				  defaults against a tight solve (not read
+				  from files) */
 };
 
 struct ow_line {

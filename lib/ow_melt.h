@@ -124,6 +124,9 @@ enum ow_status ow_melt_create(int depth_nodes, int bands,
 /* Free a workspace; NULL-safe. */
 void ow_melt_destroy(struct ow_melt_ws *ws);
 
+/* Multiply the velocity solve's tolerances by scale > 0 (1 on create). */
+void ow_melt_tolerance(struct ow_melt_ws *ws, double scale);
+
 /* One station of one channel. The lead computes the kinematics from the
  * screw (Tadmor & Klein 1970): V_b = pi D_b N, V_bz = V_b cos phi_b,
  * V_bx = V_b sin phi_b. */

@@ -90,6 +90,10 @@ struct ow_point {
 	double match_slope;           /* d(P_tip - P_need)/dG near the answer,
 					 Pa s/kg (secant of the last two
 					 marches; 0 when unknown) */
+	double zone_slope_W_K[OW_MAX_ZONES]; /* d(zone heat)/d(control
+						temperature) of each zone
+						that floats, W/K (secant of
+						its last tries; 0: holds) */
 	int n_iter;                   /* marches done by the match */
 	unsigned flags;
 };
@@ -130,7 +134,21 @@ struct ow_solver_start {
 	double g_kg_s; /* > 0: first trial throughput; otherwise a cold start */
 	double slope;  /* < 0: d(P_tip - P_need)/dG, Pa s/kg; otherwise
 			  unknown */
+	/* zones a neighbour floated: side[z] 1 short of heating, -1 short of
+	 * cooling (0: held, nothing known), its control point zone_K[z] and
+	 * slope zone_slope_W_K[z] > 0 (a neighbour's zone_slope_W_K): the
+	 * zone's first try of the first march starts there instead of at
+	 * the set-point */
+	int zone_side[OW_MAX_ZONES];
+	double zone_K[OW_MAX_ZONES];
+	double zone_slope_W_K[OW_MAX_ZONES];
 };
+
+/* The start a solved point pt gives a solve near it: its throughput,
+ * match slope and floating zones as they are (a cold start when pt did
+ * not converge). */
+void ow_solver_start_from(const struct ow_point *pt,
+			  struct ow_solver_start *out);
 
 /* ow_solver_run from start (NULL: cold). The answer does not depend on
  * the start beyond the match tolerance. */

@@ -65,6 +65,9 @@ enum ow_status ow_solver_create(const struct ow_study *s,
 				    &sv->melt_save, d);
 	if (st != OW_OK)
 		goto fail;
+	sv->tol = nm->tol_scale > 0.0 ? nm->tol_scale : 1.0;
+	ow_melt_tolerance(sv->melt, sv->tol);
+	ow_melt_tolerance(sv->melt_save, sv->tol);
 	*out = sv;
 	return OW_OK;
 fail:
@@ -171,12 +174,13 @@ static double handed_slope(const struct match *mt)
  * figure that varies with G at an elasticity of order one, is then known
  * far better than the tip pressure of the march, so the discharge
  * pressure is taken from the die's side (figures()). */
-static int done(const struct eval *e, const struct match *mt)
+static int done(const struct ow_solver *sv, const struct eval *e,
+		const struct match *mt)
 {
 	double k = match_slope(mt, mt->k0);
 
-	return fabs(e->f) < fmax(P_ATOL, P_RTOL * e->need) ||
-	       (k < 0.0 && fabs(e->f / k) < G_STEP_TOL * e->g);
+	return fabs(e->f) < sv->tol * fmax(P_ATOL, P_RTOL * e->need) ||
+	       (k < 0.0 && fabs(e->f / k) < sv->tol * G_STEP_TOL * e->g);
 }
 
 /* The second trial: one Newton step from a with a known slope of f (a
@@ -203,10 +207,10 @@ static int bracket(struct ow_solver *sv, const struct ow_solver_start *s0,
 	if (a.st != OW_OK)
 		return -1;
 	*best = a;
-	if (done(&a, mt))
+	if (done(sv, &a, mt))
 		return 1;
 	evaluate(sv, second_trial(&a, s0->slope), &b, mt);
-	while (b.st == OW_OK && !done(&b, mt) && (a.f > 0.0) == (b.f > 0.0) &&
+	while (b.st == OW_OK && !done(sv, &b, mt) && (a.f > 0.0) == (b.f > 0.0) &&
 	       mt->n < MAX_MARCHES / 2) {
 		double g = b.g - b.f * (b.g - a.g) / (b.f - a.f);
 		double up = b.f > 0.0 ? 1.0 : -1.0;
@@ -220,7 +224,7 @@ static int bracket(struct ow_solver *sv, const struct ow_solver_start *s0,
 	if (b.st != OW_OK)
 		return -1;
 	*best = b;
-	if (done(&b, mt))
+	if (done(sv, &b, mt))
 		return 1;
 	if ((a.f > 0.0) == (b.f > 0.0))
 		return -1;
@@ -242,7 +246,8 @@ static int refine(struct ow_solver *sv, struct eval *lo, struct eval *hi,
 		evaluate(sv, g, best, mt);
 		if (best->st != OW_OK)
 			return 0;
-		if (done(best, mt) || hi->g - lo->g < G_RTOL * best->g)
+		if (done(sv, best, mt) ||
+		    hi->g - lo->g < sv->tol * G_RTOL * best->g)
 			return 1;
 		if (best->f > 0.0) {
 			*lo = *best;
@@ -282,6 +287,9 @@ static void zone_figures(const struct ow_line *l, const struct march *m,
 						       : INFINITY);
 	}
 	pt->zone_floating = m->zone_floating;
+	for (i = 0; i < l->n_zones; i++)
+		pt->zone_slope_W_K[i] = m->zone_floating & (1u << i)
+						? m->zone_k[i] : 0.0;
 	if (m->zone_floating)
 		pt->flags |= OW_FLAG_ZONE_FLOAT;
 }
@@ -358,11 +366,51 @@ static enum ow_status check_run(const struct ow_solver *sv, double rpm,
 	return OW_OK;
 }
 
+/* Zones a neighbour floated start their first march as if the march
+ * before had floated them there (zone_from_last in solver_march.c): a
+ * control point and a slope, but no throughput to predict along. */
+static void start_zones(struct ow_solver *sv,
+			const struct ow_solver_start *s0)
+{
+	int i;
+
+	for (i = 0; i < sv->s->line.n_zones; i++) {
+		double t = s0->zone_K[i], k = s0->zone_slope_W_K[i];
+
+		if (s0->zone_side[i] == 0 || !(k > 0.0 && isfinite(k)) ||
+		    !(t > 200.0 && t < 900.0))
+			continue;
+		sv->last_side[i] = s0->zone_side[i] > 0 ? 1 : -1;
+		sv->last_ctrl_K[i] = t;
+		sv->zone_slope[i] = k;
+	}
+}
+
+void ow_solver_start_from(const struct ow_point *pt,
+			  struct ow_solver_start *out)
+{
+	int z;
+
+	memset(out, 0, sizeof *out);
+	if (pt->flags & OW_FLAG_NOT_CONVERGED)
+		return;
+	out->g_kg_s = pt->output_kg_s;
+	out->slope = pt->match_slope;
+	for (z = 0; z < OW_MAX_ZONES; z++) {
+		if (!(pt->zone_floating & (1u << z)) ||
+		    !(pt->zone_slope_W_K[z] > 0.0))
+			continue;
+		out->zone_side[z] = pt->zone_demand_W[z] > 0.0 ? 1 : -1;
+		out->zone_K[z] = pt->zone_control_K[z];
+		out->zone_slope_W_K[z] = pt->zone_slope_W_K[z];
+	}
+}
+
 enum ow_status ow_solver_run(struct ow_solver *sv, double rpm,
 			     const double *set_K, double warm_kg_s,
 			     struct ow_point *out, struct ow_diag *d)
 {
-	struct ow_solver_start s0 = {warm_kg_s, 0.0};
+	struct ow_solver_start s0 = {.g_kg_s = warm_kg_s};
 
 	return ow_solver_run_from(sv, rpm, set_K, &s0, out, d);
 }
@@ -374,7 +422,7 @@ enum ow_status ow_solver_run_from(struct ow_solver *sv, double rpm,
 {
 	const struct ow_line *l = &sv->s->line;
 	struct eval lo = {0}, hi = {0}, best = {0};
-	struct ow_solver_start s0 = {0.0, 0.0};
+	struct ow_solver_start s0 = {.g_kg_s = 0.0};
 	struct match mt = {0, {0.0, 0.0}, {0.0, 0.0}, 0.0};
 	int i, ok, rc;
 	enum ow_status st = check_run(sv, rpm, set_K, d);
@@ -396,8 +444,10 @@ enum ow_status ow_solver_run_from(struct ow_solver *sv, double rpm,
 	sv->zone_slope_m = 0.0;
 	out->rpm = rpm;
 	memcpy(out->set_K, sv->set_K, sizeof out->set_K);
-	if (start)
+	if (start) {
 		s0 = *start;
+		start_zones(sv, start);
+	}
 	if (!(isfinite(s0.g_kg_s) && s0.g_kg_s > 0.0))
 		s0.g_kg_s = G_START * drag_scale(sv);
 	mt.k0 = isfinite(s0.slope) && s0.slope < 0.0 ? s0.slope : 0.0;

@@ -32,6 +32,8 @@ struct march {
 	double zone_demand_W[OW_MAX_ZONES]; /* at the set-point */
 	double ctrl_K[OW_MAX_ZONES];  /* control points as run */
 	unsigned zone_floating;       /* bit per zone */
+	double zone_k[OW_MAX_ZONES];  /* a floating zone's d(heat)/d(control
+					 temperature), W/K (0: none) */
 	double hold_kg;       /* resin held in the channel (residence) */
 	double feed_cap_kg_s; /* feed section capacity (NAN: melt-fed) */
 	unsigned flags;
@@ -70,6 +72,7 @@ struct ow_solver {
 	int n_rows;
 	int record;                   /* store the profile during a march */
 	struct ow_diag diag;          /* first failure inside a march */
+	double tol;                   /* tolerance scale (numerics) */
 };
 
 /* March from hopper to tip at throughput g_kg_s; fills *m. Returns OW_OK,

@@ -876,7 +876,8 @@ static int zone_secant(struct ctx *c, const struct snap *s0, int z,
 		       int from, int to, double target, double t0,
 		       double q0, double t1, double *k, enum ow_status *st)
 {
-	double tol = fmax(ZONE_TOL_W, ZONE_RTOL * fabs(target)), q1;
+	double tol = c->sv->tol * fmax(ZONE_TOL_W, ZONE_RTOL * fabs(target));
+	double q1;
 	int it;
 
 	for (it = 0; it < ZONE_MAXIT; it++) {
@@ -930,7 +931,8 @@ static int zone_from_last(struct ctx *c, const struct snap *s0, int z,
 		return 0;
 	/* the control point is smooth in G: predict it linearly from the
 	 * last two marches when they floated this zone too */
-	if (sv->last2_side[z] == sv->last_side[z] && dg != 0.0) {
+	if (sv->last2_side[z] == sv->last_side[z] && dg != 0.0 &&
+	    sv->last_g[z] > 0.0 && sv->last2_g[z] > 0.0) {
 		double dk = (sv->last_k[z] - sv->last2_k[z]) / dg *
 			    (c->g - sv->last_g[z]);
 
@@ -943,7 +945,8 @@ static int zone_from_last(struct ctx *c, const struct snap *s0, int z,
 	*st = zone_try(c, s0, z, from, to, t0, &q0);
 	if (*st != OW_OK)
 		return 0;
-	if (fabs(q0 - target) <= fmax(ZONE_TOL_W, ZONE_RTOL * fabs(target)))
+	if (fabs(q0 - target) <=
+	    sv->tol * fmax(ZONE_TOL_W, ZONE_RTOL * fabs(target)))
 		rc = 1;
 	else
 		rc = zone_secant(c, s0, z, from, to, target, t0, q0,
@@ -1013,6 +1016,7 @@ done:
 	sv->last_ctrl_K[z] = sv->ctrl_K[z];
 	sv->last_g[z] = c->g;
 	c->m->ctrl_K[z] = sv->ctrl_K[z];
+	c->m->zone_k[z] = sv->last_side[z] != 0 ? sv->zone_slope[z] : 0.0;
 	return st;
 }
 

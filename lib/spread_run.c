@@ -66,19 +66,15 @@ static void move_study(const struct srun *x, struct worker *w,
 		ow_spread_apply(w->s, &x->sp->in[k], vals[k]);
 }
 
-static double warm_of(const struct ow_grid_point *gp)
-{
-	return (gp->pt.flags & OW_FLAG_NOT_CONVERGED) ? 0.0
-						      : gp->pt.output_kg_s;
-}
-
 /* Solve grid point gp for the study moved to vals (a sample equal to the
- * nominal study takes the nominal solve). */
+ * nominal study takes the nominal solve), started from the nominal solve
+ * there (its throughput, match slope and floating zones). */
 static void solve_moved(const struct srun *x, struct worker *w,
 			const struct ow_grid_point *gp, const double *vals,
 			struct ow_verdict *v)
 {
 	double set_K[OW_MAX_ZONES];
+	struct ow_solver_start s0;
 	struct ow_point pt;
 	struct ow_diag d = {{0}};
 	int k, same = 1;
@@ -92,7 +88,8 @@ static void solve_moved(const struct srun *x, struct worker *w,
 	move_study(x, w, vals);
 	w->solves++;
 	ow_line_apply_axis(&w->s->line, gp->axis, set_K);
-	if (ow_solver_run(w->sv, gp->rpm, set_K, warm_of(gp), &pt, &d) != OW_OK)
+	ow_solver_start_from(&gp->pt, &s0);
+	if (ow_solver_run_from(w->sv, gp->rpm, set_K, &s0, &pt, &d) != OW_OK)
 		pt.flags |= OW_FLAG_NOT_CONVERGED; /* never stop a sweep */
 	ow_classify(&pt, &w->s->line.limits, ow_screw_length(&w->s->screw), v);
 }

@@ -1,11 +1,13 @@
 /* sweep.c - solve, classify and refine the rpm x barrel-axis grid. */
 #include "ow_sweep.h"
 
+#include <math.h>
 #include <omp.h>
 #include <stdlib.h>
 #include <string.h>
 
 #define MAX_REFINE 4
+#define SLOPE_SMOOTH 0.1 /* match slopes this close extrapolate */
 
 void ow_sweep_default(struct ow_sweep_config *c)
 {
@@ -77,52 +79,155 @@ static double lagrange(const double *x, int n, int k, double t)
 	return w;
 }
 
+/* Zones the nearest point floated (out holds its start): their control
+ * points extrapolated along the points that floated them on the same
+ * side, like the throughput. */
+static void predict_zones(const struct ow_point *const *prev, int n,
+			  const double *x, double t,
+			  struct ow_solver_start *out)
+{
+	struct ow_solver_start other[OW_SWEEP_PREDICT];
+	int z, k, m;
+
+	for (k = 1; k < n; k++)
+		ow_solver_start_from(prev[k], &other[k]);
+	for (z = 0; z < OW_MAX_ZONES && n > 0; z++) {
+		double tc = 0.0;
+
+		if (out->zone_side[z] == 0)
+			continue;
+		for (m = 1; m < n && other[m].zone_side[z] == out->zone_side[z];
+		     m++)
+			;
+		for (k = 0; k < m; k++)
+			tc += lagrange(x, m, k, t) *
+			      prev[k]->zone_control_K[z];
+		out->zone_K[z] = tc;
+	}
+}
+
+/* The start at t from n points at x[k] along a row (per_rpm: the
+ * throughput per speed extrapolated, x the speeds) or down a column of
+ * one speed (the throughput itself, x the axis values). */
+static void predict_along(const struct ow_point *const *prev, int n,
+			  const double *x, double t, int per_rpm,
+			  struct ow_solver_start *out)
+{
+	double sum = 0.0;
+	int k;
+
+	if (n > 0)
+		ow_solver_start_from(prev[0], out);
+	else
+		memset(out, 0, sizeof *out);
+	for (k = 0; k < n; k++)
+		sum += lagrange(x, n, k, t) * prev[k]->output_kg_s /
+		       (per_rpm ? prev[k]->rpm : 1.0);
+	out->g_kg_s = sum * (per_rpm ? t : 1.0);
+	/* the nearest slope, extrapolated where the two nearest agree within
+	 * SLOPE_SMOOTH (a secant that straddled a jump of the match function
+	 * is steep, and extrapolated it would run away) */
+	if (n > 1 && prev[1]->match_slope < 0.0 && out->slope < 0.0 &&
+	    fabs(out->slope / prev[1]->match_slope - 1.0) < SLOPE_SMOOTH)
+		out->slope += (out->slope - prev[1]->match_slope) *
+			      (t - x[0]) / (x[0] - x[1]);
+	predict_zones(prev, n, x, t, out);
+}
+
 void ow_sweep_predict(const struct ow_point *const *prev, int n, double rpm,
 		      struct ow_solver_start *out)
 {
-	double x[OW_SWEEP_PREDICT], spec = 0.0;
+	double x[OW_SWEEP_PREDICT];
 	int k;
 
 	n = n < OW_SWEEP_PREDICT ? n : OW_SWEEP_PREDICT;
 	for (k = 0; k < n; k++)
 		x[k] = prev[k]->rpm;
-	for (k = 0; k < n; k++)
-		spec += lagrange(x, n, k, rpm) * prev[k]->output_kg_s /
-			prev[k]->rpm;
-	out->g_kg_s = spec * rpm;
-	/* the nearest slope as it is: a secant that straddled a jump of the
-	 * match function is steep, and extrapolated it would run away */
-	out->slope = n > 0 ? prev[0]->match_slope : 0.0;
+	predict_along(prev, n, x, rpm, 1, out);
 }
 
-/* Coarse rows in parallel; along a row, each point starts from the speeds
- * before it in the same row, so every thread count gives the same
- * answers. A point that did not converge restarts the continuation. */
+/* The nearest points of a continuation: prev[0] the latest, at x[0]. */
+struct chain {
+	const struct ow_point *prev[OW_SWEEP_PREDICT];
+	double x[OW_SWEEP_PREDICT];
+	int n;
+};
+
+/* Take point gp (at x along the chain) into the chain if it converged;
+ * one that did not restarts the chain. */
+static void chain_push(struct chain *ch, const struct ow_grid_point *gp,
+		       double x)
+{
+	if (!usable(gp)) {
+		ch->n = 0;
+		return;
+	}
+	memmove(ch->prev + 1, ch->prev,
+		sizeof ch->prev[0] * (OW_SWEEP_PREDICT - 1));
+	memmove(ch->x + 1, ch->x, sizeof ch->x[0] * (OW_SWEEP_PREDICT - 1));
+	ch->prev[0] = &gp->pt;
+	ch->x[0] = x;
+	ch->n += ch->n < OW_SWEEP_PREDICT;
+}
+
+/* The lead-in: the first two speeds of every barrel row, each of the two
+ * columns solved as continuations along the barrel axis (throughput
+ * extrapolated in the axis value), in two chains from the middle row
+ * outwards; so every row starts from two solved speeds instead of a cold
+ * start, and each chain is fixed whatever the thread count. */
+static void lead_in(struct run *r, struct ow_solver **svs)
+{
+	struct ow_grid *g = r->g;
+	int rows = (g->n_axis - 1) / g->stride + 1, mid = rows / 2, k;
+	int cols = g->n_rpm > g->stride ? 2 : 1;
+
+#pragma omp parallel for schedule(dynamic) num_threads(r->threads)
+	for (k = 0; k < 2 * cols; k++) {
+		struct ow_solver *sv = svs[omp_get_thread_num()];
+		struct chain ch = {{NULL}, {0.0}, 0};
+		int ir = k / 2 * g->stride, up = k % 2;
+		int j;
+
+		for (j = up ? mid : mid - 1; j >= 0 && j < rows;
+		     j += up ? 1 : -1) {
+			struct ow_grid_point *gp =
+				ow_grid_at(g, ir, j * g->stride);
+			struct ow_solver_start s0;
+
+			predict_along(ch.prev, ch.n, ch.x, gp->axis, 0, &s0);
+			solve_point(r, sv, ir, j * g->stride, &s0);
+			chain_push(&ch, gp, gp->axis);
+		}
+	}
+}
+
+/* Coarse rows in parallel after the lead-in; along a row, each point
+ * starts from the speeds before it in the same row, so every thread count
+ * gives the same answers. A point that did not converge restarts the
+ * continuation. */
 static void coarse_pass(struct run *r, struct ow_solver **svs)
 {
 	struct ow_grid *g = r->g;
 	int rows = (g->n_axis - 1) / g->stride + 1, k;
 
+	lead_in(r, svs);
 #pragma omp parallel for schedule(dynamic) num_threads(r->threads)
 	for (k = 0; k < rows; k++) {
 		struct ow_solver *sv = svs[omp_get_thread_num()];
-		const struct ow_point *prev[OW_SWEEP_PREDICT];
-		struct ow_solver_start s0;
-		int ia = k * g->stride, ir, n = 0;
+		struct chain ch = {{NULL}, {0.0}, 0};
+		int ia = k * g->stride, ir;
 
 		for (ir = 0; ir < g->n_rpm; ir += g->stride) {
 			struct ow_grid_point *gp = ow_grid_at(g, ir, ia);
 
-			ow_sweep_predict(prev, n, gp->rpm, &s0);
-			solve_point(r, sv, ir, ia, &s0);
-			if (!usable(gp)) {
-				n = 0;
-				continue;
+			if (gp->solved != 1) {
+				struct ow_solver_start s0;
+
+				predict_along(ch.prev, ch.n, ch.x, gp->rpm, 1,
+					      &s0);
+				solve_point(r, sv, ir, ia, &s0);
 			}
-			memmove(prev + 1, prev,
-				sizeof prev[0] * (OW_SWEEP_PREDICT - 1));
-			prev[0] = &gp->pt;
-			n += n < OW_SWEEP_PREDICT;
+			chain_push(&ch, gp, gp->rpm);
 		}
 	}
 }
@@ -188,6 +293,7 @@ static void cell_start(const struct ow_grid *g, int ir, int ia, int s,
 	double tx = (double)(ir - i0) / s, ty = (double)(ia - j0) / s;
 	double wsum = 0.0, gsum = 0.0, ksum = 0.0;
 
+	memset(out, 0, sizeof *out);
 	for (k = 0; k < 4; k++) {
 		int i = i0 + (k & 1) * s, j = j0 + (k >> 1) * s;
 		double w = ((k & 1) ? tx : 1.0 - tx) *

@@ -95,6 +95,46 @@ static void default_resolution_is_converged_on_demo(void **st)
 	free(s);
 }
 
+/* Every iteration tolerance of the solver (the screw-die match, the
+ * floating zones, the melt's Newton solves) at its default against all of
+ * them 1000 times tighter, at the 15 points above: the figures agree
+ * within 1e-4 (relative) and 0.01 K, the resolution a map's figures are
+ * judged at, far inside the discretisation error bounded above; the same
+ * zones float, at the same control points. */
+static void default_tolerances_match_a_tight_solve(void **st)
+{
+	struct ow_study *s = ow_test_study("demo/study-si.json");
+	double rpm[] = {20.0, 45.0, 70.0, 95.0, 120.0};
+	double shift[] = {-20.0, 5.0, 30.0};
+	size_t k, j;
+	int z;
+	(void)st;
+	for (k = 0; k < 5; k++) {
+		for (j = 0; j < 3; j++) {
+			struct ow_point a, b;
+			double set[OW_MAX_ZONES];
+
+			ow_line_apply_axis(&s->line, shift[j], set);
+			a = solve(s, rpm[k], set);
+			s->line.numerics.tol_scale = 1e-3;
+			b = solve(s, rpm[k], set);
+			s->line.numerics.tol_scale = 1.0;
+			assert_rel(a.output_kg_s, b.output_kg_s, 1e-4);
+			assert_rel(a.discharge_pressure_Pa,
+				   b.discharge_pressure_Pa, 1e-4);
+			assert_rel(a.max_pressure_Pa, b.max_pressure_Pa, 1e-4);
+			assert_rel(a.power_W, b.power_W, 1e-4);
+			assert_abs(a.discharge_bulk_K, b.discharge_bulk_K, 0.01);
+			assert_abs(a.peak_K, b.peak_K, 0.01);
+			assert_int_equal(a.zone_floating, b.zone_floating);
+			for (z = 0; z < s->line.n_zones; z++)
+				assert_abs(a.zone_control_K[z],
+					   b.zone_control_K[z], 0.01);
+		}
+	}
+	free(s);
+}
+
 /* Trends of the trade (common practice): output and peak melt temperature
  * rise with screw speed. */
 static void output_and_peak_rise_with_speed(void **st)
@@ -508,6 +548,103 @@ static void start_from_neighbouring_speeds_agrees_with_cold(void **st)
 	assert_abs(warm.discharge_bulk_K, cold.discharge_bulk_K, 0.01);
 	assert_true(warm.n_iter < cold.n_iter);
 	ow_solver_destroy(sv);
+	free(s);
+}
+
+/* Zones a neighbour floated are handed on with the start (control
+ * points extrapolated along the row, the nearer point's slope): at 90
+ * rpm on the demo's set-points, where three of its five zones run out of
+ * cooling, the warm answer is the cold start's to the match
+ * tolerance, with the same zones floating at the same control points to
+ * the zone tolerance. A start that claims a float for every zone (the
+ * zones that hold included) leaves the answer as it is: the float is
+ * only kept where its control point lands on the floating side. The
+ * reference is the cold solve, which starts every zone at its set-point. */
+static void start_with_floating_zones_agrees_with_cold(void **st)
+{
+	struct ow_study *s = ow_test_study("demo/study-si.json");
+	struct ow_solver *sv = NULL;
+	struct ow_point p85, p875, cold, warm, lie;
+	const struct ow_point *prev[2] = {&p875, &p85};
+	struct ow_solver_start s0;
+	double set[OW_MAX_ZONES];
+	int z;
+	(void)st;
+	for (z = 0; z < s->line.n_zones; z++)
+		set[z] = s->line.zones[z].set_K;
+	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, 85.0, set, 0.0, &p85, NULL),
+			 OW_OK);
+	assert_int_equal(ow_solver_run(sv, 87.5, set, 0.0, &p875, NULL),
+			 OW_OK);
+	assert_int_equal(ow_solver_run(sv, 90.0, set, 0.0, &cold, NULL),
+			 OW_OK);
+	assert_true(cold.zone_floating != 0);
+	assert_true(cold.zone_floating != (1u << s->line.n_zones) - 1u);
+	ow_sweep_predict(prev, 2, 90.0, &s0);
+	for (z = 0; z < s->line.n_zones; z++)
+		assert_int_equal(s0.zone_side[z] != 0,
+				 !!(p875.zone_floating & (1u << z)));
+	assert_int_equal(ow_solver_run_from(sv, 90.0, set, &s0, &warm, NULL),
+			 OW_OK);
+	assert_int_equal(warm.zone_floating, cold.zone_floating);
+	assert_rel(warm.output_kg_s, cold.output_kg_s, 3e-5);
+	assert_abs(warm.discharge_bulk_K, cold.discharge_bulk_K, 0.01);
+	for (z = 0; z < s->line.n_zones; z++)
+		assert_abs(warm.zone_control_K[z], cold.zone_control_K[z],
+			   1e-2);
+	for (z = 0; z < s->line.n_zones; z++) {
+		s0.zone_side[z] = -1;
+		s0.zone_K[z] = set[z] + 5.0;
+		s0.zone_slope_W_K[z] = 50.0;
+	}
+	assert_int_equal(ow_solver_run_from(sv, 90.0, set, &s0, &lie, NULL),
+			 OW_OK);
+	assert_int_equal(lie.zone_floating, cold.zone_floating);
+	assert_rel(lie.output_kg_s, cold.output_kg_s, 3e-5);
+	assert_abs(lie.discharge_bulk_K, cold.discharge_bulk_K, 0.01);
+	ow_solver_destroy(sv);
+	free(s);
+}
+
+/* The sweep's continuation (the lead-in down the barrel axis, rows
+ * started from two solved speeds, floating zones and match slopes handed
+ * on) answers every point of a 6x4 demo grid as a cold solve with every
+ * tolerance 1000 times tighter does: output and maximum pressure within
+ * 1e-4, bulk and peak melt temperatures within 0.01 K, the same zones
+ * floating; and 1 and 2 threads give the same grid to the bit. */
+static void sweep_continuation_matches_tight_cold_solves(void **st)
+{
+	struct ow_study *s = ow_test_study("demo/study-si.json");
+	struct ow_sweep_config c;
+	struct ow_grid *g1 = NULL, *g2 = NULL;
+	int k;
+	(void)st;
+	ow_sweep_default(&c);
+	c.rpm_steps = 6;
+	c.axis_steps = 4;
+	c.jobs = 1;
+	assert_int_equal(ow_sweep_run(s, &c, &g1, NULL), OW_OK);
+	c.jobs = 2;
+	assert_int_equal(ow_sweep_run(s, &c, &g2, NULL), OW_OK);
+	assert_int_equal(g1->solves, 24);
+	s->line.numerics.tol_scale = 1e-3;
+	for (k = 0; k < 24; k++) {
+		const struct ow_grid_point *a = &g1->pts[k];
+		double set[OW_MAX_ZONES];
+		struct ow_point b;
+
+		assert_memory_equal(&a->pt, &g2->pts[k].pt, sizeof a->pt);
+		ow_line_apply_axis(&s->line, a->axis, set);
+		b = solve(s, a->rpm, set);
+		assert_rel(a->pt.output_kg_s, b.output_kg_s, 1e-4);
+		assert_rel(a->pt.max_pressure_Pa, b.max_pressure_Pa, 1e-4);
+		assert_abs(a->pt.discharge_bulk_K, b.discharge_bulk_K, 0.01);
+		assert_abs(a->pt.peak_K, b.peak_K, 0.01);
+		assert_int_equal(a->pt.zone_floating, b.zone_floating);
+	}
+	ow_grid_destroy(g1);
+	ow_grid_destroy(g2);
 	free(s);
 }
 
@@ -1033,6 +1170,7 @@ int main(void)
 		cmocka_unit_test(match_reproduces_newtonian_rod_die_operating_point),
 		cmocka_unit_test(energy_closes_on_demo_and_melt_fed_line),
 		cmocka_unit_test(default_resolution_is_converged_on_demo),
+		cmocka_unit_test(default_tolerances_match_a_tight_solve),
 		cmocka_unit_test(output_and_peak_rise_with_speed),
 		cmocka_unit_test(deeper_metering_gives_more_output_and_cooler_melt),
 		cmocka_unit_test(worn_screw_gives_less_output_and_hotter_melt),
@@ -1047,6 +1185,8 @@ int main(void)
 		cmocka_unit_test(abrupt_compression_plugs_and_gradual_does_not),
 		cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
 		cmocka_unit_test(start_from_neighbouring_speeds_agrees_with_cold),
+		cmocka_unit_test(start_with_floating_zones_agrees_with_cold),
+		cmocka_unit_test(sweep_continuation_matches_tight_cold_solves),
 		cmocka_unit_test(
 		    prediction_is_exact_for_specific_output_linear_in_speed),
 		cmocka_unit_test(cold_barrel_returns_a_flagged_point),
