@@ -207,10 +207,4 @@ int cli_render_current(const char *cmd, const struct ow_units *u,
 		       struct cli_render *r, enum ow_unit_system sys,
 		       enum ow_unit_system study);
 
-/* Draw the maps and report.pdf of study s, grid g, window w into dir,
- * r->jobs files at once. */
-int cli_render(const char *cmd, const struct ow_study *s,
-	       const struct ow_grid *g, const struct ow_window *w,
-	       const struct cli_render *r, const char *dir);
-
 #endif

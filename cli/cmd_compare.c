@@ -242,8 +242,8 @@ static void print_summary(const struct ow_compare *cmp,
 			printf("%s: %s\n", o->label[k], cmp->study[k]->title);
 	printf("\nRecommended windows (screw speed, reference zone "
 	       "set-point)\n");
-	print_window(o->label[0], cmp->win[0], o);
-	print_window(o->label[1], cmp->win[1], o);
+	print_window(o->label[0], cmp->map[0]->window, o);
+	print_window(o->label[1], cmp->map[1]->window, o);
 	print_window("common", cmp->common[0], o);
 	{
 		char how[320];
@@ -260,9 +260,9 @@ static void print_summary(const struct ow_compare *cmp,
 	       o->label[1], cmp->count[OW_CMP_B_ONLY],
 	       cmp->count[OW_CMP_NEITHER]);
 	printf("Limits binding %s:", o->label[0]);
-	print_limits("", cmp->win[0]->fail_count);
+	print_limits("", cmp->map[0]->window->fail_count);
 	printf("Limits binding %s:", o->label[1]);
-	print_limits("", cmp->win[1]->fail_count);
+	print_limits("", cmp->map[1]->window->fail_count);
 	if (cmp->count[OW_CMP_A_ONLY]) {
 		printf("Where only %s is safe, %s fails:", o->label[0],
 		       o->label[1]);
@@ -281,36 +281,12 @@ static void print_summary(const struct ow_compare *cmp,
 
 /* ---- outputs ---- */
 
-static int write_text(const char *dir, const char *name, char *text,
-                      enum ow_status st, struct ow_diag *d)
-{
-	char path[OW_PATH_LEN];
-
-	if (st == OW_OK && text) {
-		snprintf(path, sizeof path, "%s/%s", dir, name);
-		st = ow_io_write_file(path, text, strlen(text), d);
-	}
-	free(text);
-	return st == OW_OK ? CLI_OK : cli_fail("compare", st, d);
-}
-
 static int write_outputs(const struct ow_compare *cmp, const struct cmp_opts *o)
 {
 	struct ow_compare_draw_options dopt;
 	struct ow_diag d = {{0}};
-	char *text = NULL, path[OW_PATH_LEN];
 	enum ow_status st;
-	int rc;
 
-	st = ow_compare_json(cmp, &text, &d); /* before text is read */
-	rc = write_text(o->dir, "compare.json", text, st, &d);
-	text = NULL;
-	if (!rc) {
-		st = ow_compare_csv(cmp, &text, &d);
-		rc = write_text(o->dir, "compare.csv", text, st, &d);
-	}
-	if (rc)
-		return rc;
 	ow_compare_draw_default(&dopt);
 	dopt.units = o->c.units;
 	dopt.label[0] = o->label[0];
@@ -320,10 +296,7 @@ static int write_outputs(const struct ow_compare *cmp, const struct cmp_opts *o)
 	dopt.prepared_by = o->prepared_by;
 	dopt.approved_by = o->approved_by;
 	dopt.paper = o->paper;
-	st = ow_compare_write_maps(cmp, &dopt, o->dir, &d);
-	snprintf(path, sizeof path, "%s/compare.pdf", o->dir);
-	if (st == OW_OK)
-		st = ow_compare_write_pdf(cmp, &dopt, path, &d);
+	st = ow_compare_save(cmp, &dopt, o->dir, &d);
 	return st == OW_OK ? CLI_OK : cli_fail("compare", st, &d);
 }
 

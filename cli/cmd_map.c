@@ -2,18 +2,13 @@
  * extract the window, write grid.csv, window.json, the maps and the
  * report, and print the recommended window. */
 #include "cli.h"
-#include "ow_mapdir.h"
-#include "ow_maps.h"
+#include "ow_map.h"
 #include "spread.h"
 
-#include <errno.h>
 #include <getopt.h>
-#include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
-#include <sys/stat.h>
-#include <time.h>
 #include <unistd.h>
 
 struct map_opts {
@@ -53,19 +48,6 @@ static void help(void)
 	       "exit codes: 0 ok (also for an empty window), 1 inputs "
 	       "rejected, 2 usage,\n            3 computation failed, 4 "
 	       "output could not be written\n");
-}
-
-static int write_text(const char *dir, const char *name, char *text,
-		      enum ow_status st, struct ow_diag *d)
-{
-	char path[OW_PATH_LEN];
-
-	if (st == OW_OK) {
-		snprintf(path, sizeof path, "%s/%s", dir, name);
-		st = ow_io_write_file(path, text, strlen(text), d);
-	}
-	free(text);
-	return st == OW_OK ? CLI_OK : cli_fail("map", st, d);
 }
 
 #define SHOW(dim, si) ow_display_value(o->c.units, dim, si), \
@@ -164,112 +146,79 @@ static void print_window(const struct ow_study *s, const struct ow_grid *g,
 		printf("NOTE: %s\n", OW_WINDOW_SWEEP_EDGE_NOTE);
 }
 
-static int write_outputs(const struct ow_study *s, const struct ow_grid *g,
-			 const struct ow_window *w, struct map_opts *o)
-{
-	struct ow_diag d = {{0}};
-	struct ow_profile_row *rows = NULL;
-	struct ow_point centre;
-	char *text = NULL;
-	int rc, n = 0;
-	enum ow_status st = OW_OK;
-
-	st = ow_results_grid_csv(s, g, &text, &d);
-	if (st == OW_OK)
-		st = cli_spread_grid(s, g, &o->sp, &text, &d);
-	rc = write_text(o->dir, "grid.csv", text, st, &d);
-	if (!rc) {
-		st = ow_results_window_json(s, g, w, &text, &d);
-		if (st == OW_OK)
-			st = cli_spread_window(s, &o->sp, &text, &d);
-		rc = write_text(o->dir, "window.json", text, st, &d);
-	}
-	if (rc)
-		return rc;
-	if (!w->empty) /* the centre point, solved alone, with its profile */
-		st = ow_maps_centre_profile(s, w, &rows, &n, &centre, &d);
-	if (st == OW_OK)
-		st = ow_mapdir_save(s, g, w->empty ? NULL : &centre, rows, n,
-				    o->dir, &d);
-	if (st != OW_OK) {
-		free(rows);
-		return cli_fail("map", st, &d);
-	}
-	rc = cli_spread_files(s, g, w, &o->sp, o->c.units, o->dir);
-	if (rc) {
-		free(rows);
-		return rc;
-	}
-	o->r.rep.centre_point = w->empty ? NULL : &centre;
-	o->r.rep.profile = rows;
-	o->r.rep.n_profile = n;
-	o->r.rep.spread = o->sp.r;
-	o->r.rep.robust = o->sp.w;
-	o->r.jobs = o->c.jobs;
-	rc = cli_render("map", s, g, w, &o->r, o->dir);
-	o->r.rep.centre_point = NULL;
-	o->r.rep.profile = NULL;
-	free(rows);
-	return rc;
-}
-
 /* The whole folder or nothing: the outputs go into a sibling temporary
  * folder that replaces o->dir only once everything is written. */
-static int write_folder(const struct ow_study *s, const struct ow_grid *g,
-			const struct ow_window *w, struct map_opts *o)
+static int write_folder(const struct ow_map *m, const struct map_opts *o)
 {
 	struct cli_outdir od;
-	const char *dir = o->dir;
-	int rc = cli_outdir_begin("map", &od, dir);
+	struct ow_diag d = {{0}};
+	enum ow_status st;
+	int rc = cli_outdir_begin("map", &od, o->dir);
 
-	if (rc)
-		return cli_outdir_finish("map", &od, rc);
-	o->dir = od.tmp;
-	rc = write_outputs(s, g, w, o);
-	o->dir = dir;
+	if (!rc) {
+		st = ow_map_save(m, &o->r.rep, o->c.jobs, od.tmp, &d);
+		if (st != OW_OK)
+			rc = cli_fail("map", st, &d);
+	}
 	return cli_outdir_finish("map", &od, rc);
 }
 
-static int sweep(const struct ow_study *s, struct map_opts *o)
+/* Progress bars of the sweep and then of the spread's samples. */
+struct stages {
+	struct cli_progress sweep, spread;
+};
+
+static void sweep_progress(void *ctx, int done, int total)
 {
-	struct ow_sweep_config cfg;
-	struct cli_progress pr;
-	struct ow_grid *g = NULL;
-	struct ow_window *w = NULL;
+	struct stages *p = ctx;
+
+	cli_progress_show(&p->sweep, done, total);
+	if (done >= total) /* the spread's clock starts as the sweep ends */
+		cli_progress_start(&p->spread, "spread");
+}
+
+static void spread_progress(void *ctx, int done, int total)
+{
+	struct stages *p = ctx;
+
+	cli_progress_show(&p->spread, done, total);
+}
+
+static int run(const struct ow_study *s, struct map_opts *o)
+{
+	struct ow_map_config cfg;
+	struct stages pr;
+	struct ow_map *m = NULL;
 	struct ow_diag d = {{0}};
 	enum ow_status st;
 	int rc;
 
-	ow_sweep_default(&cfg);
-	cfg.jobs = o->c.jobs;
-	cfg.refine = o->refine;
-	cfg.rpm_steps = o->rpm_steps;
-	cfg.axis_steps = o->axis_steps;
-	cli_progress_start(&pr, "map");
+	ow_map_default(&cfg);
+	cfg.sweep.jobs = o->c.jobs;
+	cfg.sweep.refine = o->refine;
+	cfg.sweep.rpm_steps = o->rpm_steps;
+	cfg.sweep.axis_steps = o->axis_steps;
+	cfg.spread = o->sp.cfg;
+	cfg.spread.jobs = o->c.jobs;
+	cli_progress_start(&pr.sweep, "map");
+	cli_progress_start(&pr.spread, "spread");
 	if (!o->c.quiet && isatty(STDERR_FILENO)) {
-		cfg.progress = cli_progress_show;
-		cfg.progress_ctx = &pr;
+		cfg.sweep.progress = sweep_progress;
+		cfg.sweep.progress_ctx = &pr;
+		cfg.spread.progress = spread_progress;
+		cfg.spread.progress_ctx = &pr;
 	}
-	st = ow_sweep_run(s, &cfg, &g, &d);
-	if (st == OW_OK)
-		st = ow_window_extract(s, g, &w, &d);
-	if (st != OW_OK) {
-		rc = cli_fail("map", st, &d);
-		goto done;
-	}
-	rc = cli_spread_run(s, g, w, o->c.jobs, o->c.quiet, &o->sp);
-	if (!rc)
-		rc = write_folder(s, g, w, o);
+	st = ow_map_run(s, &cfg, &m, &d);
+	if (st != OW_OK)
+		return cli_fail("map", st, &d);
+	rc = write_folder(m, o);
 	if (!rc && !o->c.quiet) {
-		print_window(s, g, w, o);
-		cli_spread_print(s, w, &o->sp, o->c.units);
+		print_window(s, m->grid, m->window, o);
+		cli_spread_print(m, o->c.units);
 		printf("written to %s/ (grid.csv, window.json, maps, "
 		       "report.pdf)\n", o->dir);
 	}
-done:
-	cli_spread_free(&o->sp);
-	ow_window_destroy(w);
-	ow_grid_destroy(g);
+	ow_map_destroy(m);
 	return rc;
 }
 
@@ -331,7 +280,7 @@ int cmd_map(int argc, char **argv)
 	if (!rc)
 		rc = cli_outdir_check("map", o.dir);
 	if (!rc)
-		rc = sweep(s, &o);
+		rc = run(s, &o);
 	free(s);
 	ow_units_destroy(u);
 	return rc;

@@ -10,8 +10,8 @@
 #include <sys/stat.h>
 #include <time.h>
 
+#include "ow_map.h"
 #include "ow_mapdir.h"
-#include "spread.h"
 
 static void help(void)
 {
@@ -100,9 +100,8 @@ static int keep_previous_report(const char *dir, const char *tmp)
 /* The drawings are made in a copy of the folder's data that then
  * replaces the folder whole, so an interrupted report leaves it as it was
  * and its manifest always matches. */
-static int render_folder(const struct ow_study *s, const struct ow_grid *g,
-			 const struct ow_window *w, const struct cli_render *r,
-			 const struct cli_spread *sp, const char *dir)
+static int render_folder(const struct ow_map *m, const struct cli_render *r,
+			 const char *dir)
 {
 	struct cli_outdir od;
 	struct ow_diag d = {{0}};
@@ -113,11 +112,11 @@ static int render_folder(const struct ow_study *s, const struct ow_grid *g,
 		st = ow_mapdir_copy_data(dir, od.tmp, &d);
 		rc = st == OW_OK ? keep_previous_report(dir, od.tmp)
 				 : cli_fail("report", st, &d);
-		if (!rc)
-			rc = cli_spread_files(s, g, w, sp, r->rep.units,
-					      od.tmp);
-		if (!rc)
-			rc = cli_render("report", s, g, w, r, od.tmp);
+		if (!rc) {
+			st = ow_map_draw(m, &r->rep, r->jobs, od.tmp, &d);
+			if (st != OW_OK)
+				rc = cli_fail("report", st, &d);
+		}
 	}
 	return cli_outdir_finish("report", &od, rc);
 }
@@ -125,48 +124,20 @@ static int render_folder(const struct ow_study *s, const struct ow_grid *g,
 static int redraw(const struct ow_units *u, const char *dir,
 		  const struct cli_common *c, struct cli_render *r)
 {
-	struct ow_study *s = calloc(1, sizeof *s);
-	struct ow_grid *g = NULL;
-	struct ow_window *w = NULL;
-	struct ow_mapdir_centre centre;
-	struct cli_spread sp;
+	struct ow_map *m = NULL;
 	struct ow_diag d = {{0}};
-	enum ow_status st = s ? OW_OK : OW_ENOMEM;
+	enum ow_status st = ow_map_load(u, dir, &m, &d);
 	int rc;
 
-	memset(&centre, 0, sizeof centre);
-	cli_spread_init(&sp);
-	sp.save = 0; /* spread.json is copied with the folder's data */
-	if (st == OW_OK)
-		st = ow_mapdir_verify(dir, &d);
-	if (st == OW_OK)
-		st = ow_mapdir_load(u, dir, s, &g, &centre, &d);
-	if (st == OW_OK)
-		st = ow_window_extract(s, g, &w, &d);
-	if (st == OW_OK && centre.valid) {
-		r->rep.centre_point = &centre.pt;
-		r->rep.profile = centre.rows;
-		r->rep.n_profile = centre.n_rows;
-	}
 	rc = st != OW_OK ? cli_fail("report", st, &d)
 			 : cli_render_current("report", u, r, c->units,
-					      s->own_units);
+					      m->study->own_units);
 	r->jobs = c->jobs;
 	if (!rc)
-		rc = cli_spread_reload(s, g, w, dir, &sp);
-	r->rep.spread = sp.r;
-	r->rep.robust = sp.w;
-	if (!rc)
-		rc = render_folder(s, g, w, r, &sp, dir);
-	r->rep.spread = NULL;
-	r->rep.robust = NULL;
-	cli_spread_free(&sp);
+		rc = render_folder(m, r, dir);
 	if (!rc && !c->quiet)
 		printf("written to %s/ (maps, report.pdf)\n", dir);
-	ow_window_destroy(w);
-	ow_mapdir_centre_free(&centre);
-	ow_grid_destroy(g);
-	free(s);
+	ow_map_destroy(m);
 	return rc;
 }
 

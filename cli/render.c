@@ -1,13 +1,11 @@
 /* render.c - what `opwin map` and `opwin report` share: the report's
- * options (paper, revision, signatures, date, current point) and drawing
- * the maps and report.pdf into a map folder; reading a value typed on the
- * command line with or without its unit. */
+ * options (paper, revision, signatures, date, current point); reading a
+ * value typed on the command line with or without its unit. */
 #include "cli.h"
 
 #include <stdio.h>
 #include <string.h>
 
-#include "ow_maps.h"
 
 enum ow_status cli_read_value(const struct ow_units *u, const char *text,
 			      enum ow_dim dim, enum ow_unit_system sys,
@@ -112,24 +110,4 @@ int cli_render_current(const char *cmd, const struct ow_units *u,
 		       OW_DIM_TEMPERATURE, study, r->rep.current_set_K);
 	r->rep.has_current = 1;
 	return CLI_OK;
-}
-
-int cli_render(const char *cmd, const struct ow_study *s,
-	       const struct ow_grid *g, const struct ow_window *w,
-	       const struct cli_render *r, const char *dir)
-{
-	struct ow_maps_options mo;
-	struct ow_diag d = {{0}};
-	enum ow_status st;
-
-	ow_maps_default(&mo);
-	mo.units = r->rep.units;
-	mo.has_current = r->rep.has_current;
-	mo.current_rpm = r->rep.current_rpm;
-	mo.current_set_K = r->rep.current_set_K;
-	mo.profile = r->rep.profile;
-	mo.n_profile = r->rep.n_profile;
-	mo.jobs = r->jobs;
-	st = ow_report_write_folder(s, g, w, &r->rep, &mo, dir, &d);
-	return st == OW_OK ? CLI_OK : cli_fail(cmd, st, &d);
 }

@@ -7,24 +7,11 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
-#include <unistd.h>
 
 void cli_spread_init(struct cli_spread *sp)
 {
 	memset(sp, 0, sizeof *sp);
 	ow_spread_config_default(&sp->cfg);
-	sp->cmd = "map";
-	sp->save = 1;
-}
-
-void cli_spread_free(struct cli_spread *sp)
-{
-	ow_window_destroy(sp->w);
-	ow_grid_destroy(sp->robust);
-	ow_spread_result_destroy(sp->r);
-	sp->w = NULL;
-	sp->robust = NULL;
-	sp->r = NULL;
 }
 
 int cli_spread_option(struct cli_spread *sp, int id, const char *arg)
@@ -144,64 +131,6 @@ int cli_spread_load(const struct ow_units *u, struct cli_spread *sp,
 	return st == OW_OK ? CLI_OK : cli_fail("map", st, &d);
 }
 
-int cli_spread_run(const struct ow_study *s, const struct ow_grid *g,
-		   const struct ow_window *nominal, int jobs, int quiet,
-		   struct cli_spread *sp)
-{
-	struct cli_progress pr;
-	struct ow_diag d = {{0}};
-	enum ow_status st;
-
-	if (!s->spread.present)
-		return CLI_OK;
-	sp->cfg.jobs = jobs;
-	cli_progress_start(&pr, "spread");
-	if (!quiet && isatty(STDERR_FILENO)) {
-		sp->cfg.progress = cli_progress_show;
-		sp->cfg.progress_ctx = &pr;
-	}
-	st = ow_spread_run(s, g, &sp->cfg, &sp->r, &d);
-	if (st == OW_OK)
-		st = ow_spread_robust_grid(g, sp->r, &sp->robust, &d);
-	if (st == OW_OK)
-		st = ow_window_extract(s, sp->robust, &sp->w, &d);
-	if (st == OW_OK)
-		ow_spread_clip_window(sp->w, nominal);
-	return st == OW_OK ? CLI_OK : cli_fail("map", st, &d);
-}
-
-enum ow_status cli_spread_grid(const struct ow_study *s,
-			       const struct ow_grid *g,
-			       const struct cli_spread *sp, char **text,
-			       struct ow_diag *d)
-{
-	char *out = NULL;
-	enum ow_status st;
-
-	if (!sp->r)
-		return OW_OK;
-	st = ow_spread_grid_csv(s, g, sp->r, *text, &out, d);
-	free(*text);
-	*text = out;
-	return st;
-}
-
-enum ow_status cli_spread_window(const struct ow_study *s,
-				 const struct cli_spread *sp, char **text,
-				 struct ow_diag *d)
-{
-	char *out = NULL;
-	enum ow_status st;
-
-	if (!sp->r)
-		return OW_OK;
-	st = ow_spread_window_json(s, sp->robust, sp->w, sp->r, *text, &out,
-				   d);
-	free(*text);
-	*text = out;
-	return st;
-}
-
 /* "lo - hi unit", rounded inwards as the nominal window's bounds are. */
 static void bounds(enum ow_unit_system units, enum ow_dim dim, double lo,
 		   double hi, int decimals)
@@ -215,18 +144,19 @@ static void bounds(enum ow_unit_system units, enum ow_dim dim, double lo,
 	printf("%s - %s %s", a, b, ow_display_label(units, dim));
 }
 
-void cli_spread_print(const struct ow_study *s, const struct ow_window *nom,
-		      const struct cli_spread *sp, enum ow_unit_system units)
+void cli_spread_print(const struct ow_map *m, enum ow_unit_system units)
 {
-	const struct ow_window *w = sp->w;
+	const struct ow_study *s = m->study;
+	const struct ow_spread_result *r = m->spread;
+	const struct ow_window *w = m->robust;
 	int i;
 
-	if (!sp->r)
+	if (!r)
 		return;
 	printf("Across the spread (%d input%s, %d samples a point, seed %lu):"
 	       "\n", s->spread.n, s->spread.n == 1 ? "" : "s",
-	       sp->r->samples, sp->r->seed);
-	printf("  robust window (%.0f %% of samples safe)", 100.0 * sp->r->level);
+	       r->samples, r->seed);
+	printf("  robust window (%.0f %% of samples safe)", 100.0 * r->level);
 	if (w->empty) {
 		printf(": empty\n");
 	} else {
@@ -239,64 +169,13 @@ void cli_spread_print(const struct ow_study *s, const struct ow_window *nom,
 		printf("\n");
 	}
 	printf("  robust share of the map %.0f %% (nominal %.0f %%)\n",
-	       100.0 * w->safe_fraction, 100.0 * nom->safe_fraction);
-	for (i = 0; i < sp->r->n_rank && i < 4; i++)
+	       100.0 * w->safe_fraction, 100.0 * m->window->safe_fraction);
+	for (i = 0; i < r->n_rank && i < 4; i++)
 		printf("  %-26s moves the margins at the edge, r = %+.2f%s\n",
-		       s->spread.in[sp->r->rank[i].input].name,
-		       sp->r->rank[i].corr,
-		       sp->r->rank[i].corr < 0 ? " (higher shrinks)"
+		       s->spread.in[r->rank[i].input].name,
+		       r->rank[i].corr,
+		       r->rank[i].corr < 0 ? " (higher shrinks)"
 					       : " (lower shrinks)");
 	printf("  %d sample solves, %d saved where every sample agrees\n",
-	       sp->r->solves, sp->r->solves_saved);
-}
-
-int cli_spread_files(const struct ow_study *s, const struct ow_grid *g,
-		     const struct ow_window *w, const struct cli_spread *sp,
-		     enum ow_unit_system units, const char *dir)
-{
-	struct ow_maps_options mo;
-	struct ow_diag d = {{0}};
-	enum ow_status st;
-
-	if (!sp->r)
-		return CLI_OK;
-	ow_maps_default(&mo);
-	mo.units = units;
-	st = ow_maps_write_share(s, g, w, sp->w, sp->r, &mo, dir, &d);
-	if (st == OW_OK && sp->save) {
-		char path[OW_PATH_LEN + 16], *text = NULL;
-
-		snprintf(path, sizeof path, "%s/spread.json", dir);
-		st = ow_spread_save_json(s, sp->r, &text, &d);
-		if (st == OW_OK)
-			st = ow_io_write_file(path, text, strlen(text), &d);
-		free(text);
-	}
-	return st == OW_OK ? CLI_OK : cli_fail(sp->cmd, st, &d);
-}
-
-int cli_spread_reload(struct ow_study *s, const struct ow_grid *g,
-		      const struct ow_window *nominal, const char *dir,
-		      struct cli_spread *sp)
-{
-	char path[OW_PATH_LEN + 16], *text = NULL;
-	struct ow_diag d = {{0}};
-	size_t len;
-	enum ow_status st;
-
-	sp->cmd = "report";
-	snprintf(path, sizeof path, "%s/spread.json", dir);
-	if (access(path, F_OK) != 0)
-		return CLI_OK; /* a map without a spread */
-	st = ow_io_read_file(path, (size_t)1 << 30, &text, &len, &d);
-	if (st == OW_OK)
-		st = ow_spread_load_json(text, path, g, &s->spread, &sp->r, &d);
-	free(text);
-	if (st == OW_OK)
-		st = ow_spread_robust_grid(g, sp->r, &sp->robust, &d);
-	if (st == OW_OK)
-		st = ow_window_extract(s, sp->robust, &sp->w, &d);
-	if (st == OW_OK)
-		ow_spread_clip_window(sp->w, nominal);
-	return st == OW_OK ? CLI_OK : cli_fail("report", st, &d);
+	       r->solves, r->solves_saved);
 }

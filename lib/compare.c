@@ -243,8 +243,8 @@ static void classify_points(struct ow_compare *cmp)
 	int i, c, k, n = cmp->n_rpm * cmp->n_axis;
 
 	for (i = 0; i < n; i++) {
-		unsigned bits[2] = {cmp->grid[0]->pts[i].v.bits,
-		                    cmp->grid[1]->pts[i].v.bits};
+		unsigned bits[2] = {cmp->map[0]->grid->pts[i].v.bits,
+		                    cmp->map[1]->grid->pts[i].v.bits};
 		int cls = (bits[0] == 0) | (bits[1] == 0) << 1;
 
 		cmp->cls[i] = (unsigned char)cls;
@@ -309,8 +309,8 @@ static enum ow_status solve_at(struct ow_compare *cmp, struct ow_solver **sv,
 static enum ow_status solve_centres(struct ow_compare *cmp, struct ow_diag *d)
 {
 	struct ow_solver *sv[2] = {NULL, NULL};
-	const struct ow_window *w[OW_CMP_AT_COUNT] = {cmp->common[0],
-	                                              cmp->win[0], cmp->win[1]};
+	const struct ow_window *w[OW_CMP_AT_COUNT] = {
+	    cmp->common[0], cmp->map[0]->window, cmp->map[1]->window};
 	enum ow_status st = OW_OK;
 	int k;
 
@@ -332,9 +332,8 @@ void ow_compare_destroy(struct ow_compare *cmp)
 	if (!cmp)
 		return;
 	for (k = 0; k < 2; k++) {
-		ow_window_destroy(cmp->win[k]);
+		ow_map_destroy(cmp->map[k]);
 		ow_window_destroy(cmp->common[k]);
-		ow_grid_destroy(cmp->grid[k]);
 		ow_grid_destroy(cmp->common_grid[k]);
 	}
 	free(cmp->cls);
@@ -352,7 +351,7 @@ static enum ow_status common_window(struct ow_compare *cmp, int k,
 
 	if (!m)
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
-	st = ow_compare_combine(cmp->grid[0], cmp->grid[1], k,
+	st = ow_compare_combine(cmp->map[0]->grid, cmp->map[1]->grid, k,
 	                        &cmp->common_grid[k], d);
 	if (st == OW_OK)
 		st = ow_window_extract(m, cmp->common_grid[k], &cmp->common[k],
@@ -381,25 +380,28 @@ static void progress2(void *ctx, int done, int total)
 	}
 }
 
-static enum ow_status sweep_both(struct ow_compare *cmp,
-                                 const struct ow_sweep_config *c,
-                                 struct ow_diag *d)
+/* Each case's map: its lattice and window (the centres are solved for
+ * both cases together, solve_centres). */
+static enum ow_status map_both(struct ow_compare *cmp,
+                               const struct ow_sweep_config *c,
+                               struct ow_diag *d)
 {
-	struct ow_sweep_config each = *c;
+	struct ow_map_config each;
 	struct progress2 pr = {c, 0, 0, 0};
 	enum ow_status st = OW_OK;
 	int k;
 
+	ow_map_default(&each);
+	each.sweep = *c;
+	each.centre = 0;
+	each.spread_run = 0;
 	if (c->progress) {
-		each.progress = progress2;
-		each.progress_ctx = &pr;
+		each.sweep.progress = progress2;
+		each.sweep.progress_ctx = &pr;
 	}
 	for (k = 0; k < 2 && st == OW_OK; k++) {
 		pr.k = k;
-		st = ow_sweep_run(cmp->study[k], &each, &cmp->grid[k], d);
-		if (st == OW_OK)
-			st = ow_window_extract(cmp->study[k], cmp->grid[k],
-			                       &cmp->win[k], d);
+		st = ow_map_run(cmp->study[k], &each, &cmp->map[k], d);
 		pr.offset = pr.total_a;
 	}
 	return st;
@@ -424,13 +426,13 @@ enum ow_status ow_compare_run(const struct ow_study *a,
 	cmp->study[0] = a;
 	cmp->study[1] = b;
 	cmp->by_shift = references_differ(a, b);
-	st = sweep_both(cmp, c, d);
+	st = map_both(cmp, c, d);
 	for (k = 0; k < 2 && st == OW_OK; k++)
 		st = common_window(cmp, k, d);
 	if (st != OW_OK)
 		goto fail;
-	cmp->n_rpm = cmp->grid[0]->n_rpm;
-	cmp->n_axis = cmp->grid[0]->n_axis;
+	cmp->n_rpm = cmp->map[0]->grid->n_rpm;
+	cmp->n_axis = cmp->map[0]->grid->n_axis;
 	cmp->cls = malloc((size_t)cmp->n_rpm * (size_t)cmp->n_axis);
 	if (!cmp->cls) {
 		st = ow_diag_set(d, OW_ENOMEM, "out of memory");

@@ -147,12 +147,13 @@ static enum ow_status fields_make(const struct ow_compare *cmp,
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	}
 	for (i = 0; i < cmp->n_rpm; i++)
-		fs->x[i] = ow_grid_at(cmp->grid[0], i, 0)->rpm;
+		fs->x[i] = ow_grid_at(cmp->map[0]->grid, i, 0)->rpm;
 	for (i = 0; i < cmp->n_axis; i++)
-		fs->y[i] = y_axis(cmp, u, ow_grid_at(cmp->grid[0], 0, i)->axis);
+		fs->y[i] =
+		    y_axis(cmp, u, ow_grid_at(cmp->map[0]->grid, 0, i)->axis);
 	for (k = 0; k < 2; k++)
 		for (i = 0; i < (int)n; i++)
-			fs->e[k][i] = edge_value(&cmp->grid[k]->pts[i],
+			fs->e[k][i] = edge_value(&cmp->map[k]->grid->pts[i],
 			                         &cmp->study[k]->line.limits);
 	fs->f = (struct ow_field){cmp->n_rpm, cmp->n_axis, fs->x, fs->y, fs->z};
 	return OW_OK;
@@ -225,7 +226,7 @@ static void draw_edges(const struct ow_plot *p, const struct ow_compare *cmp,
 	int k, l;
 
 	for (k = 0; k < 2; k++) {
-		const struct ow_boundary *b = edge_of(cmp->win[k]);
+		const struct ow_boundary *b = edge_of(cmp->map[k]->window);
 		struct ow_line_style halo = {ow_rgb(1, 1, 1), 4.2,
 		                             OW_DASH_SOLID, OW_MARK_NONE};
 		struct ow_line_style ln = {ink(k), 2.2, styles[k].dash,
@@ -285,7 +286,7 @@ static void draw_centres(const struct ow_plot *p, const struct ow_compare *cmp,
 		               OW_MARK_DIAMOND, 15.0, ow_rgb(1, 1, 1),
 		               ow_rgb(0, 0, 0));
 	for (k = 0; k < 2; k++) {
-		const struct ow_window *w = cmp->win[k];
+		const struct ow_window *w = cmp->map[k]->window;
 
 		if (!w->empty)
 			ow_plot_marker(
@@ -396,7 +397,7 @@ static void label_edges(const struct ow_plot *p, const struct ow_compare *cmp,
 	int k, l;
 
 	for (k = 0; k < 2; k++) {
-		const struct ow_boundary *b = edge_of(cmp->win[k]);
+		const struct ow_boundary *b = edge_of(cmp->map[k]->window);
 		char text[96];
 		int best = -1, placed = 0;
 
@@ -669,7 +670,7 @@ static void notes(struct ow_canvas *cv, double x, double y,
 	ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
 	y += 1.4 * f;
 	for (k = 0; k < 2; k++)
-		if (cmp->win[k]->empty) {
+		if (cmp->map[k]->window->empty) {
 			snprintf(line, sizeof line, "%s: no safe point at all",
 			         label_of(o, k));
 			ow_canvas_text(cv, x, y, line, OW_ALIGN_LEFT,

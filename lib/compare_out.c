@@ -35,7 +35,8 @@ static cJSON *window_obj(const struct ow_study *s, const struct ow_grid *g,
 static cJSON *case_window(const struct ow_compare *cmp, int k,
                           struct ow_diag *d)
 {
-	cJSON *o = window_obj(cmp->study[k], cmp->grid[k], cmp->win[k], d);
+	cJSON *o = window_obj(cmp->study[k], cmp->map[k]->grid,
+	                      cmp->map[k]->window, d);
 
 	if (o && !cJSON_AddStringToObject(o, "study", cmp->study[k]->path)) {
 		cJSON_Delete(o);
@@ -246,7 +247,8 @@ static cJSON *differences(const struct ow_compare *cmp)
 	ok = b != NULL;
 	for (k = 0; ok && k < 2; k++)
 		ok = cJSON_AddItemToObject(
-		    b, case_key[k], binding(cmp->win[k], "points_excluded"));
+		    b, case_key[k],
+		    binding(cmp->map[k]->window, "points_excluded"));
 	ok = ok && cJSON_AddItemToObject(o, "only_a_safe_b_fails",
 	                                 lost(cmp, OW_CMP_A));
 	ok = ok && cJSON_AddItemToObject(o, "only_b_safe_a_fails",
@@ -344,8 +346,8 @@ enum ow_status ow_compare_csv(const struct ow_compare *cmp, char **out,
 
 	csv_head(&t);
 	for (i = 0; i < n; i++) {
-		const struct ow_grid_point *p[2] = {&cmp->grid[0]->pts[i],
-		                                    &cmp->grid[1]->pts[i]};
+		const struct ow_grid_point *p[2] = {&cmp->map[0]->grid->pts[i],
+		                                    &cmp->map[1]->grid->pts[i]};
 
 		if (p[0]->solved != 1 || p[1]->solved != 1)
 			continue;

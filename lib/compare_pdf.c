@@ -1,15 +1,15 @@
-/* compare_pdf.c - the comparison PDF (A4, laid out with the report's
- * document layer, report_impl.h): a title block naming both studies, the
+/* compare_pdf.c - the comparison PDF (A4, laid out on the document
+ * layer, doc_impl.h): a title block naming both studies, the
  * three windows side by side, the overlay map, where and why the windows
  * differ, both cases at the centre points, the input fields that differ,
  * both inputs side by side, and cautions. Every page carries "page N of
  * M", the date and the program version. */
-#include "report_impl.h"
+#include "doc_impl.h"
 
-#include "ow_version.h"
 #include "ow_compare.h"
 #include "ow_maps.h"
 #include "ow_report.h"
+#include "ow_version.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -20,7 +20,7 @@
 
 /* One comparison being laid out: the document and what it shows. */
 struct cpdf {
-	struct rpt doc;
+	struct ow_doc doc;
 	const struct ow_compare *cmp;
 	const struct ow_compare_draw_options *o;
 };
@@ -37,23 +37,23 @@ static const char *label(const struct cpdf *r, int k)
 static void para(struct cpdf *r, const char *text, double size, int bold,
                  double after)
 {
-	struct rpt_style st = {size, bold, rpt_ink(), 0.0};
+	struct ow_doc_style st = {size, bold, ow_doc_ink(), 0.0};
 
-	rpt_para(&r->doc, text, &st, after);
+	ow_doc_para(&r->doc, text, &st, after);
 }
 
-/* One line as written (rpt_para would fold its runs of spaces), space
+/* One line as written (ow_doc_para would fold its runs of spaces), space
  * after it: after points. */
 static void line_as_is(struct cpdf *r, const char *text, double after)
 {
-	rpt_need(&r->doc, RPT_BODY_PT * RPT_LINE);
+	ow_doc_need(&r->doc, OW_DOC_BODY_PT * OW_DOC_LINE);
 	if (r->doc.st != OW_OK)
 		return;
-	ow_canvas_set_colour(r->doc.cv, rpt_ink());
-	ow_canvas_set_font(r->doc.cv, RPT_BODY_PT, 0);
-	ow_canvas_text(r->doc.cv, r->doc.x0, r->doc.y + RPT_BODY_PT, text,
+	ow_canvas_set_colour(r->doc.cv, ow_doc_ink());
+	ow_canvas_set_font(r->doc.cv, OW_DOC_BODY_PT, 0);
+	ow_canvas_text(r->doc.cv, r->doc.x0, r->doc.y + OW_DOC_BODY_PT, text,
 	               OW_ALIGN_LEFT, OW_VALIGN_BASELINE, 0.0);
-	r->doc.y += RPT_BODY_PT * RPT_LINE + after;
+	r->doc.y += OW_DOC_BODY_PT * OW_DOC_LINE + after;
 }
 
 /* ---- title block ----------------------------------------------------------
@@ -68,12 +68,12 @@ static const char *filled(const char *v, const char *blank)
 static void title_block(struct cpdf *r)
 {
 	const struct ow_compare *c = r->cmp;
-	struct rpt_table t = {3,
-	                      {"", "", ""},
-	                      {0.16, 0.42, 0.42},
-	                      {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT},
-	                      RPT_SMALL_PT,
-	                      1};
+	struct ow_doc_table t = {3,
+	                         {"", "", ""},
+	                         {0.16, 0.42, 0.42},
+	                         {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT},
+	                         OW_DOC_SMALL_PT,
+	                         1};
 	char head[2][96], line[400], axis[96];
 	const char *cells[3];
 	int k;
@@ -94,23 +94,23 @@ static void title_block(struct cpdf *r)
 			         k ? "B" : "A");
 		t.head[k + 1] = head[k];
 	}
-	rpt_table_head(&r->doc, &t);
+	ow_doc_table_head(&r->doc, &t);
 	cells[0] = "study";
 	cells[1] = c->study[0]->title;
 	cells[2] = c->study[1]->title;
-	rpt_table_row(&r->doc, &t, cells, 0);
+	ow_doc_table_row(&r->doc, &t, cells, 0);
 	cells[0] = "file";
 	cells[1] = c->study[0]->path;
 	cells[2] = c->study[1]->path;
-	rpt_table_row(&r->doc, &t, cells, 0);
+	ow_doc_table_row(&r->doc, &t, cells, 0);
 	cells[0] = "screw";
 	cells[1] = c->study[0]->screw.name;
 	cells[2] = c->study[1]->screw.name;
-	rpt_table_row(&r->doc, &t, cells, 0);
+	ow_doc_table_row(&r->doc, &t, cells, 0);
 	cells[0] = "resin";
 	cells[1] = c->study[0]->resin.name;
 	cells[2] = c->study[1]->resin.name;
-	rpt_table_row(&r->doc, &t, cells, 0);
+	ow_doc_table_row(&r->doc, &t, cells, 0);
 	snprintf(line, sizeof line,
 	         "Date %s      Revision %s      Prepared by %s      "
 	         "Approved by %s",
@@ -128,8 +128,8 @@ static void range(char *buf, size_t n, double lo, double hi, int dec)
 {
 	char a[32], b[32];
 
-	snprintf(buf, n, "%s – %s", rpt_fix(a, sizeof a, lo, dec),
-	         rpt_fix(b, sizeof b, hi, dec));
+	snprintf(buf, n, "%s – %s", ow_doc_fix(a, sizeof a, lo, dec),
+	         ow_doc_fix(b, sizeof b, hi, dec));
 }
 
 static void output_range(const struct cpdf *r, const struct ow_window *w,
@@ -141,7 +141,7 @@ static void output_range(const struct cpdf *r, const struct ow_window *w,
 	      ow_display_value(u, OW_DIM_MASS_FLOW, w->output_max_kg_s), 1);
 }
 
-static void window_row(struct cpdf *r, const struct rpt_table *t,
+static void window_row(struct cpdf *r, const struct ow_doc_table *t,
                        const char *name, const struct ow_window *w,
                        const char *output)
 {
@@ -152,15 +152,15 @@ static void window_row(struct cpdf *r, const struct rpt_table *t,
 	if (w->empty) {
 		const char *none[6] = {name, "no safe point", "", "", "", safe};
 
-		rpt_table_row(&r->doc, t, none, 0);
+		ow_doc_table_row(&r->doc, t, none, 0);
 		return;
 	}
 	ow_compare_format_range(rpm, sizeof rpm, w->rpm_min, w->rpm_max,
 	                        OW_REPORT_RPM_DECIMALS);
 	ow_compare_format_range(
 	    set, sizeof set,
-	    rpt_shown(&r->doc, OW_DIM_TEMPERATURE, w->set_min_K),
-	    rpt_shown(&r->doc, OW_DIM_TEMPERATURE, w->set_max_K),
+	    ow_doc_shown(&r->doc, OW_DIM_TEMPERATURE, w->set_min_K),
+	    ow_doc_shown(&r->doc, OW_DIM_TEMPERATURE, w->set_max_K),
 	    OW_REPORT_TEMP_DECIMALS);
 	snprintf(ctr, sizeof ctr, "%s rpm, %s %s",
 	         ow_report_format_bound(a, sizeof a, w->centre.rpm,
@@ -168,36 +168,36 @@ static void window_row(struct cpdf *r, const struct rpt_table *t,
 	                                OW_ROUND_NEAREST),
 	         ow_report_format_bound(
 	             b, sizeof b,
-	             rpt_shown(&r->doc, OW_DIM_TEMPERATURE, w->centre_set_K),
+	             ow_doc_shown(&r->doc, OW_DIM_TEMPERATURE, w->centre_set_K),
 	             OW_REPORT_TEMP_DECIMALS + 1, OW_ROUND_NEAREST),
-	         rpt_unit(&r->doc, OW_DIM_TEMPERATURE));
-	rpt_table_row(&r->doc, t, cells, !strcmp(name, "common"));
+	         ow_doc_unit(&r->doc, OW_DIM_TEMPERATURE));
+	ow_doc_table_row(&r->doc, t, cells, !strcmp(name, "common"));
 }
 
 static void windows(struct cpdf *r)
 {
 	const struct ow_compare *c = r->cmp;
 	char h2[96], h4[64], out[3][64], both[160], axis[64];
-	struct rpt_table t = {
+	struct ow_doc_table t = {
 	    6,
 	    {"", "screw speed, rpm", h2, "centre", h4, "safe share of the map"},
 	    {0.13, 0.15, 0.19, 0.18, 0.20, 0.15},
 	    {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT,
 	     OW_ALIGN_LEFT, OW_ALIGN_LEFT},
-	    RPT_SMALL_PT,
+	    OW_DOC_SMALL_PT,
 	    1};
 	int k;
 
 	snprintf(h2, sizeof h2, "%s, %s",
 	         ow_maps_axis_label(c->study[0], axis, sizeof axis),
-	         rpt_unit(&r->doc, OW_DIM_TEMPERATURE));
+	         ow_doc_unit(&r->doc, OW_DIM_TEMPERATURE));
 	snprintf(h4, sizeof h4, "throughput, %s",
 	         ow_display_label(r->o->units, OW_DIM_MASS_FLOW));
-	rpt_heading(&r->doc, "Recommended windows", 80.0);
-	rpt_table_head(&r->doc, &t);
+	ow_doc_heading(&r->doc, "Recommended windows", 80.0);
+	ow_doc_table_head(&r->doc, &t);
 	for (k = 0; k < 2; k++) {
-		output_range(r, c->win[k], out[k], sizeof out[k]);
-		window_row(r, &t, label(r, k), c->win[k], out[k]);
+		output_range(r, c->map[k]->window, out[k], sizeof out[k]);
+		window_row(r, &t, label(r, k), c->map[k]->window, out[k]);
 	}
 	output_range(r, c->common[0], out[0], sizeof out[0]);
 	output_range(r, c->common[1], out[1], sizeof out[1]);
@@ -213,7 +213,7 @@ static void windows(struct cpdf *r)
 	     "the largest rectangle safe in both cases, and its centre the "
 	     "setting of it farthest from the edge of either window: the "
 	     "setting to start from when the line must run either case.",
-	     RPT_BODY_PT, 0, 4.0);
+	     OW_DOC_BODY_PT, 0, 4.0);
 	{
 		char how[320], text[400];
 
@@ -223,7 +223,7 @@ static void windows(struct cpdf *r)
 		                       "the common window's set-points are "
 		                       "case A's."
 		                     : "");
-		para(r, text, RPT_BODY_PT, 0, 4.0);
+		para(r, text, OW_DOC_BODY_PT, 0, 4.0);
 	}
 }
 
@@ -235,7 +235,7 @@ static void overlay(struct cpdf *r)
 	struct ow_rect box = {0.0, 0.0, OW_MAPS_WIDTH_PT, OW_MAPS_HEIGHT_PT};
 	struct ow_canvas *cv = NULL;
 
-	rpt_need(&r->doc, s * OW_MAPS_HEIGHT_PT + 8.0);
+	ow_doc_need(&r->doc, s * OW_MAPS_HEIGHT_PT + 8.0);
 	if (r->doc.st != OW_OK)
 		return;
 	at = (struct ow_canvas_place){r->doc.x0, r->doc.y + 4.0, s};
@@ -277,7 +277,7 @@ static void why(struct cpdf *r)
 	int n = c->n_rpm * c->n_axis, k;
 	char text[640], list[400];
 
-	rpt_heading(&r->doc, "Where and why the windows differ", 60.0);
+	ow_doc_heading(&r->doc, "Where and why the windows differ", 60.0);
 	snprintf(text, sizeof text,
 	         "Of the %d grid points (%d speeds × %d "
 	         "set-points), both cases are safe at %d, only %s at %d, only "
@@ -285,7 +285,7 @@ static void why(struct cpdf *r)
 	         n, c->n_rpm, c->n_axis, c->count[OW_CMP_BOTH], label(r, 0),
 	         c->count[OW_CMP_A_ONLY], label(r, 1), c->count[OW_CMP_B_ONLY],
 	         c->count[OW_CMP_NEITHER]);
-	para(r, text, RPT_BODY_PT, 0, 5.0);
+	para(r, text, OW_DOC_BODY_PT, 0, 5.0);
 	for (k = 0; k < 2; k++) {
 		if (!c->count[k ? OW_CMP_B_ONLY : OW_CMP_A_ONLY])
 			continue;
@@ -294,15 +294,15 @@ static void why(struct cpdf *r)
 		         "Where only %s is safe, %s exceeds: "
 		         "%s.",
 		         label(r, k), label(r, 1 - k), list);
-		para(r, text, RPT_BODY_PT, 0, 5.0);
+		para(r, text, OW_DOC_BODY_PT, 0, 5.0);
 	}
 	for (k = 0; k < 2; k++) {
-		limit_list(c->win[k]->fail_count, list, sizeof list);
+		limit_list(c->map[k]->window->fail_count, list, sizeof list);
 		snprintf(text, sizeof text,
 		         "Limits that shape %s's window "
 		         "(grid points each excludes): %s.",
 		         label(r, k), list);
-		para(r, text, RPT_BODY_PT, 0, 5.0);
+		para(r, text, OW_DOC_BODY_PT, 0, 5.0);
 	}
 }
 
@@ -314,13 +314,13 @@ static char *signed_fix(char *buf, size_t n, double v, int dec)
 {
 	char tmp[40]; /* leaves room for the sign in any 48-byte buf */
 
-	rpt_fix(tmp, sizeof tmp, v, dec);
+	ow_doc_fix(tmp, sizeof tmp, v, dec);
 	snprintf(buf, n, "%s%s",
 	         v > 0.0 && strspn(tmp, "0.") != strlen(tmp) ? "+" : "", tmp);
 	return buf;
 }
 
-static void figure_row(struct cpdf *r, const struct rpt_table *t,
+static void figure_row(struct cpdf *r, const struct ow_doc_table *t,
                        const struct ow_cmp_point *p, int i)
 {
 	const struct ow_compare *c = r->cmp;
@@ -335,10 +335,10 @@ static void figure_row(struct cpdf *r, const struct rpt_table *t,
 	         *unit ? ", " : "", unit);
 	for (k = 0; k < 2; k++) {
 		x[k] = ow_compare_figure_shown(c->study[k], &p->pt[k], i, u);
-		rpt_fix(v[k], sizeof v[k], x[k], dec);
+		ow_doc_fix(v[k], sizeof v[k], x[k], dec);
 	}
 	signed_fix(v[2], sizeof v[2], x[1] - x[0], dec);
-	rpt_table_row(&r->doc, t, cells, 0);
+	ow_doc_table_row(&r->doc, t, cells, 0);
 }
 
 /* Which earlier point (index) is the same as at, or -1. */
@@ -368,12 +368,12 @@ static void centre_table(struct cpdf *r, int at)
 {
 	const struct ow_cmp_point *p = &r->cmp->at[at];
 	char diff[96], title[200], va[160], vb[160];
-	struct rpt_table t = {
+	struct ow_doc_table t = {
 	    4,
 	    {"", label(r, 0), label(r, 1), diff},
 	    {0.46, 0.18, 0.18, 0.18},
 	    {OW_ALIGN_LEFT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT},
-	    RPT_SMALL_PT,
+	    OW_DOC_SMALL_PT,
 	    1};
 	const char *cells[4] = {"verdict", va, vb, ""};
 	int i;
@@ -386,22 +386,23 @@ static void centre_table(struct cpdf *r, int at)
 	                                OW_ROUND_NEAREST),
 	         ow_report_format_bound(
 	             vb, sizeof vb,
-	             rpt_shown(&r->doc, OW_DIM_TEMPERATURE, p->set_ref_K[0]),
+	             ow_doc_shown(&r->doc, OW_DIM_TEMPERATURE, p->set_ref_K[0]),
 	             OW_REPORT_TEMP_DECIMALS + 1, OW_ROUND_NEAREST),
-	         rpt_unit(&r->doc, OW_DIM_TEMPERATURE));
+	         ow_doc_unit(&r->doc, OW_DIM_TEMPERATURE));
 	if (r->cmp->by_shift)
-		snprintf(title + strlen(title), sizeof title - strlen(title),
-		         " (%s at %.0f %s)", label(r, 1),
-		         rpt_shown(&r->doc, OW_DIM_TEMPERATURE, p->set_ref_K[1]),
-		         rpt_unit(&r->doc, OW_DIM_TEMPERATURE));
-	rpt_need(&r->doc, 12.0 * RPT_SMALL_PT * RPT_LINE + 20.0);
-	para(r, title, RPT_BODY_PT + 1.0, 1, 3.0);
-	rpt_table_head(&r->doc, &t);
+		snprintf(
+		    title + strlen(title), sizeof title - strlen(title),
+		    " (%s at %.0f %s)", label(r, 1),
+		    ow_doc_shown(&r->doc, OW_DIM_TEMPERATURE, p->set_ref_K[1]),
+		    ow_doc_unit(&r->doc, OW_DIM_TEMPERATURE));
+	ow_doc_need(&r->doc, 12.0 * OW_DOC_SMALL_PT * OW_DOC_LINE + 20.0);
+	para(r, title, OW_DOC_BODY_PT + 1.0, 1, 3.0);
+	ow_doc_table_head(&r->doc, &t);
 	for (i = 0; i < ow_compare_n_figures(); i++)
 		figure_row(r, &t, p, i);
 	verdict_cell(&p->v[0], va, sizeof va);
 	verdict_cell(&p->v[1], vb, sizeof vb);
-	rpt_table_row(&r->doc, &t, cells, 0);
+	ow_doc_table_row(&r->doc, &t, cells, 0);
 	r->doc.y += 8.0;
 }
 
@@ -411,11 +412,11 @@ static void centres(struct cpdf *r)
 	char text[200];
 	int at, k;
 
-	rpt_heading(&r->doc, "Both cases at the centre points", 160.0);
+	ow_doc_heading(&r->doc, "Both cases at the centre points", 160.0);
 	para(r,
 	     "Each case solved alone at the point, as a single run "
 	     "there gives it.",
-	     RPT_BODY_PT, 0, 5.0);
+	     OW_DOC_BODY_PT, 0, 5.0);
 	for (at = 0; at < OW_CMP_AT_COUNT; at++) {
 		if (!c->at[at].valid)
 			continue;
@@ -424,7 +425,7 @@ static void centres(struct cpdf *r)
 			snprintf(text, sizeof text, "The %s is the %s.",
 			         ow_compare_at_text((enum ow_cmp_at)at),
 			         ow_compare_at_text((enum ow_cmp_at)k));
-			para(r, text, RPT_BODY_PT, 0, 8.0);
+			para(r, text, OW_DOC_BODY_PT, 0, 8.0);
 			continue;
 		}
 		centre_table(r, at);
@@ -437,22 +438,22 @@ static void centres(struct cpdf *r)
 static void input_table(struct cpdf *r, const struct ow_input_diff *e, int n,
                         const struct ow_input_diff *diff, int n_diff)
 {
-	struct rpt_table t = {3,
-	                      {"input field", label(r, 0), label(r, 1)},
-	                      {0.38, 0.31, 0.31},
-	                      {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT},
-	                      RPT_SMALL_PT,
-	                      1};
+	struct ow_doc_table t = {3,
+	                         {"input field", label(r, 0), label(r, 1)},
+	                         {0.38, 0.31, 0.31},
+	                         {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT},
+	                         OW_DOC_SMALL_PT,
+	                         1};
 	int i, j;
 
-	rpt_table_head(&r->doc, &t);
+	ow_doc_table_head(&r->doc, &t);
 	for (i = 0; i < n && i < MAX_FIELDS; i++) {
 		const char *cells[3] = {e[i].field, e[i].a, e[i].b};
 		int differs = 0;
 
 		for (j = 0; diff && j < n_diff && !differs; j++)
 			differs = !strcmp(diff[j].field, e[i].field);
-		rpt_table_row(&r->doc, &t, cells, differs);
+		ow_doc_table_row(&r->doc, &t, cells, differs);
 	}
 	r->doc.y += 6.0;
 }
@@ -467,27 +468,27 @@ static void inputs(struct cpdf *r)
 	if (!all || !diff) {
 		free(all);
 		free(diff);
-		rpt_fail(&r->doc, OW_ENOMEM, "out of memory");
+		ow_doc_fail(&r->doc, OW_ENOMEM, "out of memory");
 		return;
 	}
 	nd = ow_compare_fields(c->study[0], c->study[1], r->o->units, 0, diff,
 	                       MAX_FIELDS);
 	na = ow_compare_fields(c->study[0], c->study[1], r->o->units, 1, all,
 	                       MAX_FIELDS);
-	rpt_heading(&r->doc, "Input fields that differ", 40.0);
+	ow_doc_heading(&r->doc, "Input fields that differ", 40.0);
 	if (nd)
 		input_table(r, diff, nd, NULL, 0);
 	else
 		para(r, "None: the two studies have the same inputs.",
-		     RPT_BODY_PT, 0, 6.0);
-	rpt_new_page(&r->doc);
-	rpt_heading(&r->doc, "Both inputs", 40.0);
+		     OW_DOC_BODY_PT, 0, 6.0);
+	ow_doc_new_page(&r->doc);
+	ow_doc_heading(&r->doc, "Both inputs", 40.0);
 	para(r,
 	     "Every input of both studies as loaded (in the reader's "
 	     "units; lengths along the screw in its diameters D); "
 	     "shaded rows differ. The sources of the values are named "
 	     "in the study files and in each study's own report.",
-	     RPT_BODY_PT, 0, 5.0);
+	     OW_DOC_BODY_PT, 0, 5.0);
 	input_table(r, all, na, diff, nd);
 	free(all);
 	free(diff);
@@ -495,9 +496,7 @@ static void inputs(struct cpdf *r)
 
 /* ---- cautions ----------------------------------------------------------- */
 
-static const struct {
-	const char *lead, *text;
-} cautions[] = {
+static const struct ow_doc_caution cautions[] = {
     {"Estimates, not measurements.",
      "Both cases are computed from "
      "published engineering models and the inputs listed above; a "
@@ -524,30 +523,19 @@ static const struct {
      "approval of a qualified engineer, where required, come first."},
 };
 
-static void caution_block(struct cpdf *r)
-{
-	char text[640];
-	size_t k;
-
-	rpt_heading(&r->doc, "Cautions", 60.0);
-	for (k = 0; k < sizeof cautions / sizeof cautions[0]; k++) {
-		para(r, cautions[k].lead, RPT_BODY_PT, 1, 1.0);
-		snprintf(text, sizeof text, "%s", cautions[k].text);
-		para(r, text, RPT_BODY_PT, 0, 6.0);
-	}
-}
-
 static void pages(struct cpdf *r)
 {
-	rpt_new_page(&r->doc);
+	ow_doc_new_page(&r->doc);
 	title_block(r);
 	windows(r);
 	overlay(r);
-	rpt_new_page(&r->doc);
+	ow_doc_new_page(&r->doc);
 	why(r);
 	centres(r);
 	inputs(r);
-	caution_block(r);
+	ow_doc_cautions(&r->doc, cautions,
+	                (int)(sizeof cautions / sizeof cautions[0]),
+	                OW_DOC_CAUTIONS_PLAIN);
 }
 
 enum ow_status ow_compare_write_pdf(const struct ow_compare *cmp,
@@ -559,7 +547,7 @@ enum ow_status ow_compare_write_pdf(const struct ow_compare *cmp,
 
 	if (!cmp || !o || !pdf_path)
 		return ow_diag_set(d, OW_EARG, "compare.pdf: NULL argument");
-	if (!rpt_valid_date(o->date))
+	if (!ow_doc_valid_date(o->date))
 		return ow_diag_set(d, OW_EARG,
 		                   "compare.pdf: date \"%s\": "
 		                   "expected YYYY-MM-DD",
@@ -577,8 +565,8 @@ enum ow_status ow_compare_write_pdf(const struct ow_compare *cmp,
 	         "inputs CRC-32: %s %08lX, %s %08lX", label(&r, 0),
 	         cmp->study[0]->input_crc, label(&r, 1),
 	         cmp->study[1]->input_crc);
-	if (rpt_open(&r.doc, "compare.pdf", (enum ow_paper)o->paper,
-	             o->date) == OW_OK) {
+	if (ow_doc_open(&r.doc, "compare.pdf", (enum ow_paper)o->paper,
+	                o->date) == OW_OK) {
 		/* a blue-grey header; shaded rows (the differences) in
 		 * amber; tight rows, so both inputs take few pages */
 		r.doc.head_fill = ow_rgb(0.86, 0.88, 0.91);
@@ -586,7 +574,7 @@ enum ow_status ow_compare_write_pdf(const struct ow_compare *cmp,
 		r.doc.row_pad = 1.5;
 		pages(&r);
 	}
-	st = rpt_close(&r.doc, pdf_path);
+	st = ow_doc_close(&r.doc, pdf_path);
 	if (st != OW_OK)
 		ow_diag_set(d, st, "%s: not written", pdf_path);
 	return st;

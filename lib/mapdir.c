@@ -77,7 +77,7 @@ static enum ow_status read_json(const char *path, unsigned long *crc,
 	char *buf = NULL;
 	size_t len = 0, bom;
 	char eb[128];
-	int err = md_slurp(path, &buf, &len);
+	int err = ow_mapdir_slurp(path, &buf, &len);
 
 	if (err)
 		return ow_diag_set(d, OW_EINPUT,
@@ -229,8 +229,9 @@ static int add_centre(cJSON *o, const struct ow_point *c, int n_zones)
 	j = cJSON_AddObjectToObject(o, "centre");
 	ok = j && cJSON_AddNumberToObject(j, "flags", pt.flags) &&
 	     cJSON_AddNumberToObject(j, "n_iter", pt.n_iter);
-	for (k = 0; ok && k < md_n_fields(); k++)
-		ok = add_num(j, md_field_name(k), *md_field(&pt, k));
+	for (k = 0; ok && k < ow_mapdir_n_fields(); k++)
+		ok = add_num(j, ow_mapdir_field_name(k),
+		             *ow_mapdir_field(&pt, k));
 	return ok && add_zone_array(j, "set_K", pt.set_K, n_zones) &&
 	       add_zone_array(j, "zone_heat_W", pt.zone_heat_W, n_zones);
 }
@@ -286,7 +287,7 @@ static enum ow_status put(const char *dir, const char *name, char *text,
 
 	if (!text)
 		return OW_OK;
-	st = md_path(path, sizeof path, dir, name, d);
+	st = ow_mapdir_path(path, sizeof path, dir, name, d);
 	if (st == OW_OK)
 		st = ow_io_write_file(path, text, strlen(text), d);
 	return st;
@@ -307,7 +308,7 @@ enum ow_status ow_mapdir_save(const struct ow_study *s, const struct ow_grid *g,
 	if (st == OW_OK)
 		st = lattice_text(s, g, centre, has_profile, &lat, d);
 	if (st == OW_OK)
-		st = md_points_csv(g, s->line.n_zones, &pts, d);
+		st = ow_mapdir_points_csv(g, s->line.n_zones, &pts, d);
 	if (st == OW_OK && has_profile)
 		st = ow_results_profile_csv(s, rows, n_rows, &prof, d);
 	/* points-si.json last: it marks a complete folder */
@@ -531,13 +532,14 @@ static enum ow_status read_in(const char *dir, const char *name, char *path,
 {
 	char eb[128];
 	size_t len = 0;
-	enum ow_status st = md_path(path, OW_PATH_LEN + 32, dir, name, d);
+	enum ow_status st =
+	    ow_mapdir_path(path, OW_PATH_LEN + 32, dir, name, d);
 	int err;
 
 	*text = NULL;
 	if (st != OW_OK)
 		return st;
-	err = md_slurp(path, text, &len);
+	err = ow_mapdir_slurp(path, text, &len);
 	if (err == ENOENT && missing)
 		return ow_diag_set(d, OW_EINPUT,
 		                   "%s is not a map folder: %s "
@@ -578,10 +580,11 @@ static enum ow_status read_either(const char *dir, const char *name,
 {
 	char missing[96];
 	struct stat sb;
-	enum ow_status st = md_path(path, OW_PATH_LEN + 32, dir, name, d);
+	enum ow_status st =
+	    ow_mapdir_path(path, OW_PATH_LEN + 32, dir, name, d);
 
 	if (st == OW_OK && stat(path, &sb) != 0 &&
-	    md_path(path, OW_PATH_LEN + 32, dir, old, d) == OW_OK &&
+	    ow_mapdir_path(path, OW_PATH_LEN + 32, dir, old, d) == OW_OK &&
 	    stat(path, &sb) == 0)
 		name = old;
 	snprintf(missing, sizeof missing, "%s is missing", name);
@@ -606,8 +609,8 @@ static enum ow_status load_lattice(const struct lattice_doc *L, const char *dir,
 		st = read_either(dir, MD_POINTS_CSV, MD_OLD_POINTS_CSV, path,
 		                 &text, d);
 	if (st == OW_OK)
-		st = md_points_read(text, path, s->line.n_zones, *out,
-		                    &n_solved, d);
+		st = ow_mapdir_points_read(text, path, s->line.n_zones, *out,
+		                           &n_solved, d);
 	if (st == OW_OK && n_solved != (*out)->solves)
 		st = ow_diag_set(d, OW_EINPUT,
 		                 "%s: %d points, points-si.json "
@@ -660,10 +663,10 @@ static enum ow_status read_centre(const struct lattice_doc *L, int n_zones,
 		return key_bad(L, "centre", "expected the centre point");
 	c->pt.flags = (unsigned)f->valuedouble;
 	c->pt.n_iter = (int)it->valuedouble;
-	for (k = 0; k < md_n_fields(); k++)
-		if (!centre_num(
-		        cJSON_GetObjectItemCaseSensitive(j, md_field_name(k)),
-		        md_field(&c->pt, k)))
+	for (k = 0; k < ow_mapdir_n_fields(); k++)
+		if (!centre_num(cJSON_GetObjectItemCaseSensitive(
+		                    j, ow_mapdir_field_name(k)),
+		                ow_mapdir_field(&c->pt, k)))
 			return key_bad(L, "centre", "a figure is missing");
 	if (!centre_zones(j, "set_K", c->pt.set_K, n_zones) ||
 	    !centre_zones(j, "zone_heat_W", c->pt.zone_heat_W, n_zones))
@@ -690,8 +693,8 @@ static enum ow_status load_centre(const struct lattice_doc *L, const char *dir,
 	st = read_in(dir, "profile.csv", path, &text, "profile.csv is missing",
 	             d);
 	if (st == OW_OK)
-		st = md_profile_read(text, path, s->screw.diameter_m, &c->rows,
-		                     &c->n_rows, d);
+		st = ow_mapdir_profile_read(text, path, s->screw.diameter_m,
+		                            &c->rows, &c->n_rows, d);
 	free(text);
 	return st;
 }
@@ -731,7 +734,7 @@ enum ow_status ow_mapdir_load(const struct ow_units *u, const char *dir,
 	if (st == OW_OK) {
 		char sp[OW_PATH_LEN + 32];
 
-		st = md_path(sp, sizeof sp, dir, "study.json", d);
+		st = ow_mapdir_path(sp, sizeof sp, dir, "study.json", d);
 		if (st == OW_OK)
 			st = ow_config_load_study(u, sp, study, d);
 	}

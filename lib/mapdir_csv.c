@@ -15,12 +15,12 @@
 
 /* ---- small helpers ------------------------------------------------------ */
 
-void md_add(struct ow_buf *t, const char *s)
+void ow_mapdir_add(struct ow_buf *t, const char *s)
 {
 	ow_buf_adds(t, s);
 }
 
-void md_addf(struct ow_buf *t, const char *fmt, ...)
+void ow_mapdir_addf(struct ow_buf *t, const char *fmt, ...)
 {
 	char buf[256];
 	va_list ap;
@@ -28,22 +28,22 @@ void md_addf(struct ow_buf *t, const char *fmt, ...)
 	va_start(ap, fmt);
 	vsnprintf(buf, sizeof buf, fmt, ap);
 	va_end(ap);
-	md_add(t, buf);
+	ow_mapdir_add(t, buf);
 }
 
-void md_num(struct ow_buf *t, double x)
+void ow_mapdir_num(struct ow_buf *t, double x)
 {
 	/* The program never calls setlocale: "%.17g" prints '.' and 17
 	 * significant digits round-trip a double. */
 	if (isnan(x))
-		md_add(t, "nan");
+		ow_mapdir_add(t, "nan");
 	else if (isinf(x))
-		md_add(t, x > 0 ? "inf" : "-inf");
+		ow_mapdir_add(t, x > 0 ? "inf" : "-inf");
 	else
-		md_addf(t, "%.17g", x);
+		ow_mapdir_addf(t, "%.17g", x);
 }
 
-int md_parse_num(const char *text, double *x)
+int ow_mapdir_parse_num(const char *text, double *x)
 {
 	char *end = NULL;
 
@@ -54,13 +54,13 @@ int md_parse_num(const char *text, double *x)
 	return end && !*end && errno != ERANGE;
 }
 
-int md_slurp(const char *path, char **buf, size_t *len)
+int ow_mapdir_slurp(const char *path, char **buf, size_t *len)
 {
 	return ow_io_slurp(path, MD_MAX_FILE_BYTES, buf, len);
 }
 
-enum ow_status md_path(char *out, size_t n, const char *dir, const char *name,
-                       struct ow_diag *d)
+enum ow_status ow_mapdir_path(char *out, size_t n, const char *dir,
+                              const char *name, struct ow_diag *d)
 {
 	size_t l = strlen(dir);
 	const char *sep = l && dir[l - 1] == '/' ? "" : "/";
@@ -120,17 +120,17 @@ static double *field_at(struct ow_point *p, int k)
 	return (double *)(void *)((char *)p + fields[k].off);
 }
 
-int md_n_fields(void)
+int ow_mapdir_n_fields(void)
 {
 	return N_FIELDS;
 }
 
-const char *md_field_name(int k)
+const char *ow_mapdir_field_name(int k)
 {
 	return fields[k].name;
 }
 
-double *md_field(struct ow_point *p, int k)
+double *ow_mapdir_field(struct ow_point *p, int k)
 {
 	return field_at(p, k);
 }
@@ -139,21 +139,21 @@ static void points_header(struct ow_buf *t, int n_zones)
 {
 	int k;
 
-	md_add(t, "rpm_index,barrel_index,failed_checks_bitmask,"
-	          "solver_flags_bitmask,iterations");
+	ow_mapdir_add(t, "rpm_index,barrel_index,failed_checks_bitmask,"
+	                 "solver_flags_bitmask,iterations");
 	for (k = 0; k < OW_CK_LIMITS; k++)
-		md_addf(t, ",margin_%s", ow_check_key((enum ow_check)k));
+		ow_mapdir_addf(t, ",margin_%s", ow_check_key((enum ow_check)k));
 	for (k = 0; k < N_FIELDS; k++)
-		md_addf(t, ",%s", fields[k].name);
+		ow_mapdir_addf(t, ",%s", fields[k].name);
 	for (k = 0; k < n_zones; k++)
-		md_addf(t, ",set_K_%d", k + 1);
+		ow_mapdir_addf(t, ",set_K_%d", k + 1);
 	for (k = 0; k < n_zones; k++)
-		md_addf(t, ",zone_heat_W_%d", k + 1);
+		ow_mapdir_addf(t, ",zone_heat_W_%d", k + 1);
 	for (k = 0; k < n_zones; k++)
-		md_addf(t, ",zone_demand_W_%d", k + 1);
+		ow_mapdir_addf(t, ",zone_demand_W_%d", k + 1);
 	for (k = 0; k < n_zones; k++)
-		md_addf(t, ",zone_control_K_%d", k + 1);
-	md_add(t, "\n");
+		ow_mapdir_addf(t, ",zone_control_K_%d", k + 1);
+	ow_mapdir_add(t, "\n");
 }
 
 static void point_row(struct ow_buf *t, const struct ow_grid *g, int i,
@@ -162,37 +162,37 @@ static void point_row(struct ow_buf *t, const struct ow_grid *g, int i,
 	struct ow_grid_point *p = &g->pts[i];
 	int k;
 
-	md_addf(t, "%d,%d,%u,%u,%d", i % g->n_rpm, i / g->n_rpm, p->v.bits,
-	        p->pt.flags, p->pt.n_iter);
+	ow_mapdir_addf(t, "%d,%d,%u,%u,%d", i % g->n_rpm, i / g->n_rpm,
+	               p->v.bits, p->pt.flags, p->pt.n_iter);
 	for (k = 0; k < OW_CK_LIMITS; k++) {
-		md_add(t, ",");
-		md_num(t, p->v.margin[k]);
+		ow_mapdir_add(t, ",");
+		ow_mapdir_num(t, p->v.margin[k]);
 	}
 	for (k = 0; k < N_FIELDS; k++) {
-		md_add(t, ",");
-		md_num(t, *field_at(&p->pt, k));
+		ow_mapdir_add(t, ",");
+		ow_mapdir_num(t, *field_at(&p->pt, k));
 	}
 	for (k = 0; k < n_zones; k++) {
-		md_add(t, ",");
-		md_num(t, p->pt.set_K[k]);
+		ow_mapdir_add(t, ",");
+		ow_mapdir_num(t, p->pt.set_K[k]);
 	}
 	for (k = 0; k < n_zones; k++) {
-		md_add(t, ",");
-		md_num(t, p->pt.zone_heat_W[k]);
+		ow_mapdir_add(t, ",");
+		ow_mapdir_num(t, p->pt.zone_heat_W[k]);
 	}
 	for (k = 0; k < n_zones; k++) {
-		md_add(t, ",");
-		md_num(t, p->pt.zone_demand_W[k]);
+		ow_mapdir_add(t, ",");
+		ow_mapdir_num(t, p->pt.zone_demand_W[k]);
 	}
 	for (k = 0; k < n_zones; k++) {
-		md_add(t, ",");
-		md_num(t, p->pt.zone_control_K[k]);
+		ow_mapdir_add(t, ",");
+		ow_mapdir_num(t, p->pt.zone_control_K[k]);
 	}
-	md_add(t, "\n");
+	ow_mapdir_add(t, "\n");
 }
 
-enum ow_status md_points_csv(const struct ow_grid *g, int n_zones, char **out,
-                             struct ow_diag *d)
+enum ow_status ow_mapdir_points_csv(const struct ow_grid *g, int n_zones,
+                                    char **out, struct ow_diag *d)
 {
 	struct ow_buf t = {0};
 	int i;
@@ -288,22 +288,22 @@ static enum ow_status point_read(char **c, const char *file, int line,
 	p->pt.flags = (unsigned)flags;
 	p->pt.n_iter = (int)iter;
 	for (k = 0; k < OW_CK_LIMITS; k++)
-		if (!md_parse_num(c[at++], &p->v.margin[k]))
+		if (!ow_mapdir_parse_num(c[at++], &p->v.margin[k]))
 			goto num;
 	for (k = 0; k < N_FIELDS; k++)
-		if (!md_parse_num(c[at++], field_at(&p->pt, k)))
+		if (!ow_mapdir_parse_num(c[at++], field_at(&p->pt, k)))
 			goto num;
 	for (k = 0; k < n_zones; k++)
-		if (!md_parse_num(c[at++], &p->pt.set_K[k]))
+		if (!ow_mapdir_parse_num(c[at++], &p->pt.set_K[k]))
 			goto num;
 	for (k = 0; k < n_zones; k++)
-		if (!md_parse_num(c[at++], &p->pt.zone_heat_W[k]))
+		if (!ow_mapdir_parse_num(c[at++], &p->pt.zone_heat_W[k]))
 			goto num;
 	for (k = 0; k < n_zones; k++)
-		if (!md_parse_num(c[at++], &p->pt.zone_demand_W[k]))
+		if (!ow_mapdir_parse_num(c[at++], &p->pt.zone_demand_W[k]))
 			goto num;
 	for (k = 0; k < n_zones; k++) {
-		if (!md_parse_num(c[at++], &p->pt.zone_control_K[k]))
+		if (!ow_mapdir_parse_num(c[at++], &p->pt.zone_control_K[k]))
 			goto num;
 		if (p->pt.zone_control_K[k] != p->pt.set_K[k])
 			p->pt.zone_floating |= 1u << k;
@@ -316,9 +316,9 @@ num:
 	                   file, line, at, c[at - 1]);
 }
 
-enum ow_status md_points_read(char *text, const char *file, int n_zones,
-                              struct ow_grid *g, int *n_solved,
-                              struct ow_diag *d)
+enum ow_status ow_mapdir_points_read(char *text, const char *file, int n_zones,
+                                     struct ow_grid *g, int *n_solved,
+                                     struct ow_diag *d)
 {
 	int n_cols = 5 + OW_CK_LIMITS + N_FIELDS + 4 * n_zones, line = 0;
 	struct ow_buf want = {0};
@@ -365,7 +365,7 @@ static int cell_or_nan(const char *c, double *x)
 		*x = NAN; /* a figure that does not exist there */
 		return 1;
 	}
-	return md_parse_num(c, x);
+	return ow_mapdir_parse_num(c, x);
 }
 
 /* One row of ow_results_profile_csv back in SI. */
@@ -389,9 +389,10 @@ static int profile_row(char **c, double D, struct ow_profile_row *r)
 	return 1;
 }
 
-enum ow_status md_profile_read(char *text, const char *file, double diameter_m,
-                               struct ow_profile_row **rows, int *n_rows,
-                               struct ow_diag *d)
+enum ow_status ow_mapdir_profile_read(char *text, const char *file,
+                                      double diameter_m,
+                                      struct ow_profile_row **rows, int *n_rows,
+                                      struct ow_diag *d)
 {
 	size_t cap = 1;
 	int line = 0, n = 0;

@@ -51,7 +51,7 @@ static enum ow_status file_entry(const char *dir, const char *name,
 	char path[OW_PATH_LEN + 32], crc[16], *buf = NULL;
 	size_t len = 0;
 	cJSON *e;
-	enum ow_status st = md_path(path, sizeof path, dir, name, d);
+	enum ow_status st = ow_mapdir_path(path, sizeof path, dir, name, d);
 
 	if (st == OW_OK)
 		st = ow_io_read_file(path, MD_MAX_FILE_BYTES, &buf, &len, d);
@@ -94,7 +94,7 @@ enum ow_status ow_mapdir_seal(const char *dir, struct ow_diag *d)
 	if (st == OW_OK && !(text = cJSON_Print(o)))
 		st = ow_diag_set(d, OW_ENOMEM, "out of memory");
 	if (st == OW_OK)
-		st = md_path(path, sizeof path, dir, MANIFEST, d);
+		st = ow_mapdir_path(path, sizeof path, dir, MANIFEST, d);
 	if (st == OW_OK)
 		st = ow_io_write_file(path, text, strlen(text), d);
 done:
@@ -128,9 +128,9 @@ static enum ow_status verify_file(const char *dir, const cJSON *e,
 	if (!cJSON_IsNumber(bytes) || !cJSON_IsString(crc) ||
 	    strchr(e->string, '/') || e->string[0] == '.')
 		return damaged(dir, MANIFEST ": an entry is malformed", d);
-	if (md_path(path, sizeof path, dir, e->string, d) != OW_OK)
+	if (ow_mapdir_path(path, sizeof path, dir, e->string, d) != OW_OK)
 		return OW_EINPUT;
-	err = md_slurp(path, &buf, &len);
+	err = ow_mapdir_slurp(path, &buf, &len);
 	if (err == ENOMEM)
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	if (err) {
@@ -156,7 +156,7 @@ enum ow_status ow_mapdir_verify(const char *dir, struct ow_diag *d)
 	char path[OW_PATH_LEN + 32], *text = NULL, eb[128];
 	const cJSON *f, *v, *files, *e;
 	cJSON *o = NULL;
-	enum ow_status st = md_path(path, sizeof path, dir, MANIFEST, d);
+	enum ow_status st = ow_mapdir_path(path, sizeof path, dir, MANIFEST, d);
 	int err;
 
 	struct stat sb;
@@ -168,7 +168,7 @@ enum ow_status ow_mapdir_verify(const char *dir, struct ow_diag *d)
 		                   stat(dir, &sb) ? "no such folder"
 		                                  : "not a folder (expected the "
 		                                    "output folder of opwin map)");
-	err = md_slurp(path, &text, NULL);
+	err = ow_mapdir_slurp(path, &text, NULL);
 	if (err == ENOENT)
 		return ow_diag_set(d, OW_EINPUT,
 		                   "%s is not a map folder: " MANIFEST
@@ -211,13 +211,15 @@ enum ow_status ow_mapdir_check_target(const char *dir, struct ow_diag *d)
 	n = ow_io_dir_count(dir);
 	if (n == 0)
 		return OW_OK;
-	if (md_path(path, sizeof path, dir, MANIFEST, d) == OW_OK &&
+	if (ow_mapdir_path(path, sizeof path, dir, MANIFEST, d) == OW_OK &&
 	    stat(path, &sb) == 0 && S_ISREG(sb.st_mode))
 		return OW_OK;
-	if (md_path(path, sizeof path, dir, MD_POINTS_JSON, d) == OW_OK &&
+	if (ow_mapdir_path(path, sizeof path, dir, MD_POINTS_JSON, d) ==
+	        OW_OK &&
 	    stat(path, &sb) == 0 && S_ISREG(sb.st_mode))
 		return OW_OK;
-	if (md_path(path, sizeof path, dir, MD_OLD_POINTS_JSON, d) == OW_OK &&
+	if (ow_mapdir_path(path, sizeof path, dir, MD_OLD_POINTS_JSON, d) ==
+	        OW_OK &&
 	    stat(path, &sb) == 0 && S_ISREG(sb.st_mode))
 		return OW_OK;
 	return ow_diag_set(d, OW_EIO,
@@ -268,9 +270,9 @@ enum ow_status ow_mapdir_copy_data(const char *from, const char *to,
 		if (!is_output_name(name) || is_drawing(name) ||
 		    !strcmp(name, MANIFEST))
 			continue;
-		st = md_path(src, sizeof src, from, name, d);
+		st = ow_mapdir_path(src, sizeof src, from, name, d);
 		if (st == OW_OK)
-			st = md_path(dst, sizeof dst, to, name, d);
+			st = ow_mapdir_path(dst, sizeof dst, to, name, d);
 		if (st == OW_OK)
 			st = ow_io_read_file(src, MD_MAX_FILE_BYTES, &buf, &len,
 			                     d);

@@ -22,24 +22,24 @@ void ow_maps_default(struct ow_maps_options *o)
 	o->jobs = 1;
 }
 
-enum ow_status maps_frame(struct ow_canvas *cv, const struct ow_rect *box,
-                          const struct ow_study *s, const struct ow_grid *g,
-                          enum ow_unit_system u, const char *title,
-                          const char *sub, double font_pt, struct ow_plot *p,
-                          struct ow_plot_axis *x, struct ow_plot_axis *y,
-                          char *ytitle, size_t n)
+enum ow_status ow_maps_frame(struct ow_canvas *cv, const struct ow_rect *box,
+                             const struct ow_study *s, const struct ow_grid *g,
+                             enum ow_unit_system u, const char *title,
+                             const char *sub, double font_pt, struct ow_plot *p,
+                             struct ow_plot_axis *x, struct ow_plot_axis *y,
+                             char *ytitle, size_t n)
 {
 	struct ow_rect inner = *box;
 
-	maps_paper(cv, box, title, sub, font_pt);
+	ow_maps_paper(cv, box, title, sub, font_pt);
 	inner.y += 3.4 * font_pt;
 	inner.h -= 3.4 * font_pt;
-	maps_axes(s, g, u, x, y, ytitle, n);
+	ow_maps_axes(s, g, u, x, y, ytitle, n);
 	return ow_plot_init(p, cv, &inner, x, y, font_pt, 7.5 * font_pt);
 }
 
-void maps_colour_bar(const struct ow_plot *p, const struct ow_ticks *lv,
-                     enum ow_cmap map, const char *title, double font_pt)
+void ow_maps_colour_bar(const struct ow_plot *p, const struct ow_ticks *lv,
+                        enum ow_cmap map, const char *title, double font_pt)
 {
 	struct ow_rect bar;
 
@@ -50,7 +50,7 @@ void maps_colour_bar(const struct ow_plot *p, const struct ow_ticks *lv,
 	ow_plot_colour_bar(p->cv, &bar, lv, map, title, font_pt);
 }
 
-double maps_font(const struct ow_maps_options *o)
+double ow_maps_font(const struct ow_maps_options *o)
 {
 	return o && o->font_pt > 0.0 ? o->font_pt : 9.0;
 }
@@ -95,13 +95,13 @@ char *ow_maps_axis_label(const struct ow_study *s, char *buf, size_t n)
 	return buf;
 }
 
-double maps_temp(enum ow_unit_system u, double K)
+double ow_maps_temp(enum ow_unit_system u, double K)
 {
 	return ow_display_value(u, OW_DIM_TEMPERATURE, K);
 }
 
-char *maps_y_title(const struct ow_study *s, enum ow_unit_system u, char *buf,
-                   size_t n)
+char *ow_maps_y_title(const struct ow_study *s, enum ow_unit_system u,
+                      char *buf, size_t n)
 {
 	char lab[96];
 
@@ -110,7 +110,7 @@ char *maps_y_title(const struct ow_study *s, enum ow_unit_system u, char *buf,
 	return buf;
 }
 
-char *maps_num(char *buf, size_t n, double v)
+char *ow_maps_num(char *buf, size_t n, double v)
 {
 	double a = fabs(v);
 	int dec = a >= 100.0 ? 0 : a >= 10.0 ? 1 : a >= 1.0 ? 2 : 3;
@@ -127,9 +127,9 @@ char *maps_num(char *buf, size_t n, double v)
 	return buf;
 }
 
-char *maps_limit_text(const struct ow_study *s, int check,
-                      enum ow_unit_system u, const char *op, char *buf,
-                      size_t n)
+char *ow_maps_limit_text(const struct ow_study *s, int check,
+                         enum ow_unit_system u, const char *op, char *buf,
+                         size_t n)
 {
 	static const struct {
 		const char *name;
@@ -161,23 +161,23 @@ char *maps_limit_text(const struct ow_study *s, int check,
 	v = ow_check_limit(&s->line.limits, (enum ow_check)check);
 	if (check == OW_CK_UNMELT || check == OW_CK_ZONE_CONTROL) {
 		snprintf(buf, n, "%s%s%s %%", lim[check].name, op,
-		         maps_num(num, sizeof num, 100.0 * v));
+		         ow_maps_num(num, sizeof num, 100.0 * v));
 		return buf;
 	}
 	if (lim[check].dim == OW_DIM_NONE) {
 		snprintf(buf, n, "%s%s%s", lim[check].name, op,
-		         maps_num(num, sizeof num, v));
+		         ow_maps_num(num, sizeof num, v));
 		return buf;
 	}
-	snprintf(
-	    buf, n, "%s%s%s %s", lim[check].name, op,
-	    maps_num(num, sizeof num, ow_display_value(u, lim[check].dim, v)),
-	    ow_display_label(u, lim[check].dim));
+	snprintf(buf, n, "%s%s%s %s", lim[check].name, op,
+	         ow_maps_num(num, sizeof num,
+	                     ow_display_value(u, lim[check].dim, v)),
+	         ow_display_label(u, lim[check].dim));
 	return buf;
 }
 
-char *maps_fit_text(struct ow_canvas *cv, const char *text, double max_w,
-                    char *buf, size_t n)
+char *ow_maps_fit_text(struct ow_canvas *cv, const char *text, double max_w,
+                       char *buf, size_t n)
 {
 	size_t len;
 
@@ -202,7 +202,7 @@ char *maps_fit_text(struct ow_canvas *cv, const char *text, double max_w,
 
 /* --- the lattice as a field ------------------------------------------- */
 
-void maps_field_free(struct maps_field *mf)
+void ow_maps_field_free(struct maps_field *mf)
 {
 	free(mf->x);
 	free(mf->y);
@@ -210,9 +210,10 @@ void maps_field_free(struct maps_field *mf)
 	memset(mf, 0, sizeof *mf);
 }
 
-enum ow_status maps_field_create(const struct ow_study *s,
-                                 const struct ow_grid *g, enum ow_unit_system u,
-                                 struct maps_field *mf, struct ow_diag *d)
+enum ow_status ow_maps_field_create(const struct ow_study *s,
+                                    const struct ow_grid *g,
+                                    enum ow_unit_system u,
+                                    struct maps_field *mf, struct ow_diag *d)
 {
 	int i;
 
@@ -226,13 +227,13 @@ enum ow_status maps_field_create(const struct ow_study *s,
 	mf->y = malloc((size_t)g->n_axis * sizeof *mf->y);
 	mf->z = malloc((size_t)g->n_rpm * (size_t)g->n_axis * sizeof *mf->z);
 	if (!mf->x || !mf->y || !mf->z) {
-		maps_field_free(mf);
+		ow_maps_field_free(mf);
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	}
 	for (i = 0; i < g->n_rpm; i++)
 		mf->x[i] = ow_grid_at(g, i, 0)->rpm;
 	for (i = 0; i < g->n_axis; i++)
-		mf->y[i] = maps_temp(u, ow_grid_at(g, 0, i)->set_ref_K);
+		mf->y[i] = ow_maps_temp(u, ow_grid_at(g, 0, i)->set_ref_K);
 	mf->f.nx = g->n_rpm;
 	mf->f.ny = g->n_axis;
 	mf->f.x = mf->x;
@@ -263,8 +264,8 @@ static int from_cell(const struct ow_grid *g, maps_get get, const void *ctx,
 	return 1;
 }
 
-void maps_fill(const struct ow_grid *g, maps_get get, const void *ctx,
-               double *z)
+void ow_maps_fill(const struct ow_grid *g, maps_get get, const void *ctx,
+                  double *z)
 {
 	int ir, ia, s;
 
@@ -286,8 +287,8 @@ void maps_fill(const struct ow_grid *g, maps_get get, const void *ctx,
 
 /* --- labels ----------------------------------------------------------- */
 
-int maps_labels_free(const struct maps_labels *l, double x0, double y0,
-                     double x1, double y1)
+int ow_maps_labels_free(const struct maps_labels *l, double x0, double y0,
+                        double x1, double y1)
 {
 	int k;
 
@@ -298,8 +299,8 @@ int maps_labels_free(const struct maps_labels *l, double x0, double y0,
 	return 1;
 }
 
-void maps_labels_take(struct maps_labels *l, double x0, double y0, double x1,
-                      double y1)
+void ow_maps_labels_take(struct maps_labels *l, double x0, double y0, double x1,
+                         double y1)
 {
 	if (l->n == MAPS_MAX_LABELS)
 		return;
@@ -312,20 +313,21 @@ void maps_labels_take(struct maps_labels *l, double x0, double y0, double x1,
 
 /* --- window overlay --------------------------------------------------- */
 
-void maps_boundary_points(const struct ow_study *s, const struct ow_polyline *l,
-                          enum ow_unit_system u, struct ow_pt2 *out)
+void ow_maps_boundary_points(const struct ow_study *s,
+                             const struct ow_polyline *l, enum ow_unit_system u,
+                             struct ow_pt2 *out)
 {
 	int k;
 
 	for (k = 0; k < l->n; k++) {
 		out[k].x = l->p[k].rpm;
-		out[k].y = maps_temp(u, ow_line_axis_ref_K(&s->line, l->p[k].axis));
+		out[k].y = ow_maps_temp(u, ow_line_axis_ref_K(&s->line, l->p[k].axis));
 	}
 }
 
-void maps_draw_rectangle(const struct ow_plot *p, const struct ow_study *s,
-                         const struct ow_window *w, enum ow_unit_system u,
-                         double width_pt)
+void ow_maps_draw_rectangle(const struct ow_plot *p, const struct ow_study *s,
+                            const struct ow_window *w, enum ow_unit_system u,
+                            double width_pt)
 {
 	double x0, x1, y0, y1;
 
@@ -334,8 +336,8 @@ void maps_draw_rectangle(const struct ow_plot *p, const struct ow_study *s,
 		return;
 	x0 = ow_plot_px(p, w->rpm_min);
 	x1 = ow_plot_px(p, w->rpm_max);
-	y0 = ow_plot_py(p, maps_temp(u, w->set_min_K));
-	y1 = ow_plot_py(p, maps_temp(u, w->set_max_K));
+	y0 = ow_plot_py(p, ow_maps_temp(u, w->set_min_K));
+	y1 = ow_plot_py(p, ow_maps_temp(u, w->set_max_K));
 	ow_plot_clip(p);
 	{ /* a white halo keeps it clear of hatching and dark colours */
 		ow_canvas_set_colour(p->cv, ow_rgb(1, 1, 1));
@@ -347,15 +349,15 @@ void maps_draw_rectangle(const struct ow_plot *p, const struct ow_study *s,
 	ow_canvas_set_line_width(p->cv, width_pt);
 	ow_canvas_rect(p->cv, x0, y1, x1 - x0, y0 - y1);
 	ow_canvas_stroke(p->cv);
-	maps_mark_sweep_edges(p, w, x0, x1, y0, y1, width_pt);
+	ow_maps_mark_sweep_edges(p, w, x0, x1, y0, y1, width_pt);
 	ow_canvas_restore(p->cv);
 }
 
 /* Sides of the rectangle on the sweep's edge (no limit there): white gaps
  * cut into the black line, so they read dashed in colour and grey. */
-void maps_mark_sweep_edges(const struct ow_plot *p, const struct ow_window *w,
-                           double x0, double x1, double y0, double y1,
-                           double width_pt)
+void ow_maps_mark_sweep_edges(const struct ow_plot *p,
+                              const struct ow_window *w, double x0, double x1,
+                              double y0, double y1, double width_pt)
 {
 	static const double dash[2] = {4.0, 4.0};
 	const double side[OW_WB_COUNT][4] = {{x0, y0, x0, y1},
@@ -378,8 +380,8 @@ void maps_mark_sweep_edges(const struct ow_plot *p, const struct ow_window *w,
 	ow_canvas_restore(p->cv);
 }
 
-void maps_draw_edge(const struct ow_plot *p, const struct ow_study *s,
-                    const struct ow_window *w, enum ow_unit_system u)
+void ow_maps_draw_edge(const struct ow_plot *p, const struct ow_study *s,
+                       const struct ow_window *w, enum ow_unit_system u)
 {
 	struct ow_line_style st = {ow_rgb(1, 1, 1), 1.6, OW_DASH_SOLID,
 	                           OW_MARK_NONE};
@@ -396,7 +398,7 @@ void maps_draw_edge(const struct ow_plot *p, const struct ow_study *s,
 
 			if (!pts)
 				continue;
-			maps_boundary_points(s, &bd->lines[k], u, pts);
+			ow_maps_boundary_points(s, &bd->lines[k], u, pts);
 			st.colour = ow_rgb(1, 1, 1);
 			st.width_pt = 2.2;
 			st.dash = OW_DASH_SOLID;
@@ -456,7 +458,8 @@ static void mark_point(const struct ow_plot *p, double x, double y,
 			continue;
 		if (inside < 0)
 			inside = k;
-		if (maps_labels_free(taken, bx[k], by[k], bx[k] + w, by[k] + h))
+		if (ow_maps_labels_free(taken, bx[k], by[k], bx[k] + w,
+		                        by[k] + h))
 			pick = k;
 	}
 	if (pick < 0 && inside >= 0)
@@ -467,8 +470,9 @@ static void mark_point(const struct ow_plot *p, double x, double y,
 		by[0] = fmax(p->area.y, fmin(by[0], p->area.y + p->area.h - h));
 	}
 	point_label(p, bx[pick], by[pick], w, h, text);
-	maps_labels_take(taken, bx[pick], by[pick], bx[pick] + w, by[pick] + h);
-	maps_labels_take(taken, X - 5.0, Y - 5.0, X + 5.0, Y + 5.0);
+	ow_maps_labels_take(taken, bx[pick], by[pick], bx[pick] + w,
+	                    by[pick] + h);
+	ow_maps_labels_take(taken, X - 5.0, Y - 5.0, X + 5.0, Y + 5.0);
 }
 
 static void point_text(char *buf, size_t n, const char *what, double rpm,
@@ -476,21 +480,22 @@ static void point_text(char *buf, size_t n, const char *what, double rpm,
 {
 	char a[32], b[32];
 
-	snprintf(buf, n, "%s %s rpm, %s %s", what, maps_num(a, sizeof a, rpm),
+	snprintf(buf, n, "%s %s rpm, %s %s", what,
+	         ow_maps_num(a, sizeof a, rpm),
 	         ow_plot_format(b, sizeof b, shown, 0),
 	         ow_display_label(u, OW_DIM_TEMPERATURE));
 }
 
-void maps_draw_points(const struct ow_plot *p, const struct ow_study *s,
-                      const struct ow_window *w,
-                      const struct ow_maps_options *o, int brief,
-                      struct maps_labels *taken)
+void ow_maps_draw_points(const struct ow_plot *p, const struct ow_study *s,
+                         const struct ow_window *w,
+                         const struct ow_maps_options *o, int brief,
+                         struct maps_labels *taken)
 {
 	char buf[128];
 
 	(void)s;
 	if (w && !w->empty) {
-		double y = maps_temp(o->units, w->centre_set_K);
+		double y = ow_maps_temp(o->units, w->centre_set_K);
 
 		point_text(buf, sizeof buf, "centre", w->centre.rpm, y,
 		           o->units);
@@ -500,7 +505,7 @@ void maps_draw_points(const struct ow_plot *p, const struct ow_study *s,
 	}
 	if (o->has_current && isfinite(o->current_rpm) &&
 	    isfinite(o->current_set_K)) {
-		double y = maps_temp(o->units, o->current_set_K);
+		double y = ow_maps_temp(o->units, o->current_set_K);
 		double x = o->current_rpm;
 		double x0 = fmin(p->x0, p->x1), x1 = fmax(p->x0, p->x1);
 		double y0 = fmin(p->y0, p->y1), y1 = fmax(p->y0, p->y1);
@@ -548,21 +553,23 @@ static void title_lines(struct ow_canvas *cv, const struct ow_rect *box,
 		line[k] = c;
 	}
 	if (!cut) { /* one long word: shorten it */
-		ow_canvas_text(cv, x, box->y + 0.8 * font_pt,
-		               maps_fit_text(cv, title, w, rest, sizeof rest),
-		               OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+		ow_canvas_text(
+		    cv, x, box->y + 0.8 * font_pt,
+		    ow_maps_fit_text(cv, title, w, rest, sizeof rest),
+		    OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
 		return;
 	}
 	line[cut] = '\0';
 	ow_canvas_text(cv, x, box->y + 0.45 * font_pt, line, OW_ALIGN_LEFT,
 	               OW_VALIGN_TOP, 0);
-	ow_canvas_text(cv, x, box->y + 1.45 * font_pt,
-	               maps_fit_text(cv, title + cut + 1, w, rest, sizeof rest),
-	               OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
+	ow_canvas_text(
+	    cv, x, box->y + 1.45 * font_pt,
+	    ow_maps_fit_text(cv, title + cut + 1, w, rest, sizeof rest),
+	    OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
 }
 
-void maps_paper(struct ow_canvas *cv, const struct ow_rect *box,
-                const char *title, const char *subtitle, double font_pt)
+void ow_maps_paper(struct ow_canvas *cv, const struct ow_rect *box,
+                   const char *title, const char *subtitle, double font_pt)
 {
 	char buf[320];
 
@@ -577,19 +584,19 @@ void maps_paper(struct ow_canvas *cv, const struct ow_rect *box,
 		ow_canvas_set_colour(cv, ow_rgb(0.3, 0.3, 0.3));
 		ow_canvas_text(
 		    cv, box->x + 0.8 * font_pt, box->y + 2.55 * font_pt,
-		    maps_fit_text(cv, subtitle, box->w - 1.6 * font_pt, buf,
-		                  sizeof buf),
+		    ow_maps_fit_text(cv, subtitle, box->w - 1.6 * font_pt, buf,
+		                     sizeof buf),
 		    OW_ALIGN_LEFT, OW_VALIGN_TOP, 0);
 	}
 	ow_canvas_restore(cv);
 }
 
-void maps_axes(const struct ow_study *s, const struct ow_grid *g,
-               enum ow_unit_system u, struct ow_plot_axis *x,
-               struct ow_plot_axis *y, char *ytitle, size_t n)
+void ow_maps_axes(const struct ow_study *s, const struct ow_grid *g,
+                  enum ow_unit_system u, struct ow_plot_axis *x,
+                  struct ow_plot_axis *y, char *ytitle, size_t n)
 {
-	double ya = maps_temp(u, ow_grid_at(g, 0, 0)->set_ref_K);
-	double yb = maps_temp(u, ow_grid_at(g, 0, g->n_axis - 1)->set_ref_K);
+	double ya = ow_maps_temp(u, ow_grid_at(g, 0, 0)->set_ref_K);
+	double yb = ow_maps_temp(u, ow_grid_at(g, 0, g->n_axis - 1)->set_ref_K);
 
 	memset(x, 0, sizeof *x);
 	memset(y, 0, sizeof *y);
@@ -598,53 +605,7 @@ void maps_axes(const struct ow_study *s, const struct ow_grid *g,
 	x->title = "screw speed (rpm)";
 	y->min = fmin(ya, yb);
 	y->max = fmax(ya, yb);
-	y->title = maps_y_title(s, u, ytitle, n);
-}
-
-/* --- the centre profile ----------------------------------------------- */
-
-enum ow_status ow_maps_centre_profile(const struct ow_study *s,
-                                      const struct ow_window *w,
-                                      struct ow_profile_row **rows, int *n,
-                                      struct ow_point *pt, struct ow_diag *d)
-{
-	struct ow_solver *sv = NULL;
-	struct ow_point p;
-	double set_K[OW_MAX_ZONES];
-	const struct ow_profile_row *r;
-	enum ow_status st;
-	int m = 0;
-
-	if (!s || !w || !rows || !n)
-		return ow_diag_set(d, OW_EARG, "centre profile: NULL argument");
-	*rows = NULL;
-	*n = 0;
-	if (w->empty)
-		return ow_diag_set(d, OW_EINPUT,
-		                   "centre profile: the window "
-		                   "is empty, there is no centre");
-	st = ow_solver_create(s, &sv, d);
-	if (st != OW_OK)
-		return st;
-	ow_line_apply_axis(&s->line, w->centre.axis, set_K);
-	st = ow_solver_run(sv, w->centre.rpm, set_K, 0.0, &p, d);
-	if (st != OW_OK)
-		goto fail;
-	r = ow_solver_profile(sv, &m);
-	if (m > 0) {
-		*rows = malloc((size_t)m * sizeof **rows);
-		if (!*rows) {
-			st = ow_diag_set(d, OW_ENOMEM, "out of memory");
-			goto fail;
-		}
-		memcpy(*rows, r, (size_t)m * sizeof **rows);
-	}
-	*n = m;
-	if (pt)
-		*pt = p;
-fail:
-	ow_solver_destroy(sv);
-	return st;
+	y->title = ow_maps_y_title(s, u, ytitle, n);
 }
 
 /* --- files ------------------------------------------------------------ */
@@ -654,12 +615,8 @@ enum map_kind { MAP_WINDOW, MAP_FIGURE, MAP_PROFILE };
 struct job {
 	enum map_kind kind;
 	enum ow_map_figure fig;
-	const struct ow_study *s;
-	const struct ow_grid *g;
-	const struct ow_window *w;
+	const struct ow_map *m;
 	const struct ow_maps_options *o;
-	const struct ow_profile_row *rows;
-	int n_rows;
 	const char *subtitle;
 };
 
@@ -670,13 +627,13 @@ static enum ow_status draw_job(struct ow_canvas *cv, const struct job *j,
 
 	switch (j->kind) {
 	case MAP_WINDOW:
-		return ow_maps_draw_window(cv, &box, j->s, j->g, j->w, j->o, d);
+		return ow_maps_draw_window(cv, &box, j->m, j->o, d);
 	case MAP_FIGURE:
-		return ow_maps_draw_figure(cv, &box, j->fig, j->s, j->g, j->w,
-		                           j->o, d);
+		return ow_maps_draw_figure(cv, &box, j->fig, j->m, j->o, d);
 	case MAP_PROFILE:
-		return ow_maps_draw_profile(cv, &box, j->s, j->rows, j->n_rows,
-		                            j->subtitle, j->o, d);
+		return ow_maps_draw_profile(cv, &box, j->m->study, j->m->profile,
+		                            j->m->n_profile, j->subtitle, j->o,
+		                            d);
 	}
 	return OW_EARG;
 }
@@ -711,11 +668,12 @@ static char *centre_subtitle(const struct ow_study *s,
 {
 	char a[32], b[32], lab[96];
 
-	snprintf(buf, n, "at the window's centre: %s rpm, %s %s %s",
-	         maps_num(a, sizeof a, w->centre.rpm),
-	         ow_maps_axis_label(s, lab, sizeof lab),
-	         ow_plot_format(b, sizeof b, maps_temp(u, w->centre_set_K), 0),
-	         ow_display_label(u, OW_DIM_TEMPERATURE));
+	snprintf(
+	    buf, n, "at the window's centre: %s rpm, %s %s %s",
+	    ow_maps_num(a, sizeof a, w->centre.rpm),
+	    ow_maps_axis_label(s, lab, sizeof lab),
+	    ow_plot_format(b, sizeof b, ow_maps_temp(u, w->centre_set_K), 0),
+	    ow_display_label(u, OW_DIM_TEMPERATURE));
 	return buf;
 }
 
@@ -748,53 +706,37 @@ static int file_of(const struct ow_window *w, const struct ow_maps_options *o,
 	return 1;
 }
 
-int ow_maps_file_count(const struct ow_window *w,
+int ow_maps_file_count(const struct ow_map *m,
                        const struct ow_maps_options *o)
 {
 	int nf = (o->png != 0) + (o->svg != 0);
 
-	return nf * (OW_MAP_COUNT + 1 + (w->empty ? 0 : 1));
+	return nf * (OW_MAP_COUNT + 1 + (m->window->empty ? 0 : 1));
 }
 
-enum ow_status ow_maps_write_file(const struct ow_study *s,
-                                  const struct ow_grid *g,
-                                  const struct ow_window *w,
+enum ow_status ow_maps_write_file(const struct ow_map *m,
                                   const struct ow_maps_options *o,
                                   const char *dir, int k, struct ow_diag *d)
 {
-	struct ow_profile_row *own = NULL;
 	const char *stem = NULL;
 	enum ow_canvas_format fmt;
 	struct job j;
 	char sub[200];
-	enum ow_status st = OW_OK;
 
-	if (!s || !g || !w || !o || !dir)
+	if (!m || !m->study || !m->grid || !m->window || !o || !dir)
 		return ow_diag_set(d, OW_EARG, "maps: NULL argument");
 	memset(&j, 0, sizeof j);
-	j.s = s, j.g = g, j.w = w, j.o = o;
-	if (!file_of(w, o, k, &j, &stem, &fmt))
+	j.m = m, j.o = o;
+	if (!file_of(m->window, o, k, &j, &stem, &fmt))
 		return ow_diag_set(d, OW_EARG, "maps: no image file %d", k);
-	if (j.kind == MAP_PROFILE) {
-		j.rows = o->profile;
-		j.n_rows = o->n_profile;
-		if (!j.rows || j.n_rows < 2) {
-			st = ow_maps_centre_profile(s, w, &own, &j.n_rows, NULL,
-			                            d);
-			j.rows = own;
-		}
-		j.subtitle = centre_subtitle(s, w, o->units, sub, sizeof sub);
-	}
-	if (st == OW_OK)
-		st = write_one(&j, dir, stem, fmt, d);
-	free(own);
-	return st;
+	if (j.kind == MAP_PROFILE)
+		j.subtitle = centre_subtitle(m->study, m->window, o->units, sub,
+		                             sizeof sub);
+	return write_one(&j, dir, stem, fmt, d);
 }
 
 struct all_files {
-	const struct ow_study *s;
-	const struct ow_grid *g;
-	const struct ow_window *w;
+	const struct ow_map *m;
 	const struct ow_maps_options *o;
 	const char *dir;
 	enum ow_status (*beside)(void *ctx, struct ow_diag *d);
@@ -808,15 +750,15 @@ static enum ow_status piece(const struct all_files *a, int k,
 {
 	if (a->beside && k == 0)
 		return a->beside(a->ctx, d);
-	return ow_maps_write_file(a->s, a->g, a->w, a->o, a->dir,
-	                          k - (a->beside != NULL), d);
+	return ow_maps_write_file(a->m, a->o, a->dir, k - (a->beside != NULL),
+	                          d);
 }
 
 /* Every piece on o->jobs threads, each with its own diagnostics; the
  * first failure in file order (the work beside last) goes to d. */
 static enum ow_status run_pool(const struct all_files *a, struct ow_diag *d)
 {
-	int nb = a->beside != NULL, n = ow_maps_file_count(a->w, a->o) + nb;
+	int nb = a->beside != NULL, n = ow_maps_file_count(a->m, a->o) + nb;
 	int jobs = a->o->jobs > 0 ? a->o->jobs : omp_get_max_threads(), k;
 	struct ow_diag *dk = calloc((size_t)n + 1, sizeof *dk);
 	enum ow_status *st = calloc((size_t)n + 1, sizeof *st);
@@ -839,39 +781,25 @@ static enum ow_status run_pool(const struct all_files *a, struct ow_diag *d)
 }
 
 enum ow_status ow_maps_write_beside(
-    const struct ow_study *s, const struct ow_grid *g,
-    const struct ow_window *w, const struct ow_maps_options *o,
-    const char *dir, enum ow_status (*beside)(void *ctx, struct ow_diag *d),
-    void *ctx, struct ow_diag *d)
+    const struct ow_map *m, const struct ow_maps_options *o, const char *dir,
+    enum ow_status (*beside)(void *ctx, struct ow_diag *d), void *ctx,
+    struct ow_diag *d)
 {
 	struct ow_maps_options own;
-	struct ow_profile_row *rows = NULL;
-	struct all_files a = {s, g, w, &own, dir, beside, ctx};
-	enum ow_status st = OW_OK;
+	struct all_files a = {m, &own, dir, beside, ctx};
 
-	if (!s || !g || !w || !dir)
+	if (!m || !m->study || !m->grid || !m->window || !dir)
 		return ow_diag_set(d, OW_EARG, "maps: NULL argument");
 	if (o)
 		own = *o;
 	else
 		ow_maps_default(&own);
-	if (!w->empty && (!own.profile || own.n_profile < 2)) {
-		/* the centre solved once for both formats */
-		st = ow_maps_centre_profile(s, w, &rows, &own.n_profile, NULL,
-		                            d);
-		own.profile = rows;
-	}
-	if (st == OW_OK)
-		st = run_pool(&a, d);
-	free(rows);
-	return st;
+	return run_pool(&a, d);
 }
 
-enum ow_status ow_maps_write_all(const struct ow_study *s,
-                                 const struct ow_grid *g,
-                                 const struct ow_window *w,
+enum ow_status ow_maps_write_all(const struct ow_map *m,
                                  const struct ow_maps_options *o,
                                  const char *dir, struct ow_diag *d)
 {
-	return ow_maps_write_beside(s, g, w, o, dir, NULL, NULL, d);
+	return ow_maps_write_beside(m, o, dir, NULL, NULL, d);
 }

@@ -165,7 +165,7 @@ static void take_label(const struct ow_plot *p, struct maps_labels *taken,
 	tw = ow_canvas_text_width(p->cv, text) + 0.5 * p->font_pt;
 	hx = 0.5 * tw * fabs(cos(a)) + 0.65 * p->font_pt * fabs(sin(a));
 	hy = 0.5 * tw * fabs(sin(a)) + 0.65 * p->font_pt * fabs(cos(a));
-	maps_labels_take(taken, X - hx, Y - hy, X + hx, Y + hy);
+	ow_maps_labels_take(taken, X - hx, Y - hy, X + hx, Y + hy);
 }
 
 /* The figure's limit as a bold red dashed line, labelled with the
@@ -208,7 +208,7 @@ static enum ow_status limit_line(const struct ow_plot *p,
 			Y = y0 + (at - run) / ds * (y1 - y0);
 			ang = atan2(y0 - y1, x1 - x0) * 57.29577951308232;
 			ang = ow_plot_upright(ang);
-			maps_limit_text(s, c, u, NULL, text, sizeof text);
+			ow_maps_limit_text(s, c, u, NULL, text, sizeof text);
 			ow_plot_label_on_line(p->cv, X, Y, ang, text,
 			                      0.9 * p->font_pt, red);
 			take_label(p, taken, X, Y, ang, text);
@@ -287,7 +287,7 @@ static void constant_note(const struct ow_plot *p, const struct ow_field *fd,
 	for (k = 0; k < (long)fd->nx * fd->ny && !isfinite(fd->z[k]); k++)
 		;
 	snprintf(text, sizeof text, "%s %s everywhere on the map",
-	         maps_num(num, sizeof num, fd->z[k]), unit);
+	         ow_maps_num(num, sizeof num, fd->z[k]), unit);
 	ow_canvas_save(p->cv);
 	ow_canvas_set_font(p->cv, 1.1 * f, 1);
 	w = ow_canvas_text_width(p->cv, text) + 1.2 * f;
@@ -339,20 +339,22 @@ static enum ow_status draw_body(const struct ow_plot *p,
 		                      0.5, d);
 	if (st != OW_OK)
 		return st;
-	maps_draw_edge(p, s, w, o->units);
-	maps_draw_rectangle(p, s, w, o->units, 1.2);
+	ow_maps_draw_edge(p, s, w, o->units);
+	ow_maps_draw_rectangle(p, s, w, o->units, 1.2);
 	st = limit_lines(p, s, f, fd, o->units, &taken, d);
 	po.has_current = 0; /* the window map shows it; keep these clear */
-	maps_draw_points(p, s, w, &po, 1, &taken);
+	ow_maps_draw_points(p, s, w, &po, 1, &taken);
 	return st;
 }
 
 enum ow_status
 ow_maps_draw_figure(struct ow_canvas *cv, const struct ow_rect *box,
-                    enum ow_map_figure f, const struct ow_study *s,
-                    const struct ow_grid *g, const struct ow_window *w,
+                    enum ow_map_figure f, const struct ow_map *m,
                     const struct ow_maps_options *o, struct ow_diag *d)
 {
+	const struct ow_study *s = m ? m->study : NULL;
+	const struct ow_grid *g = m ? m->grid : NULL;
+	const struct ow_window *w = m ? m->window : NULL;
 	struct ow_maps_options def;
 	struct maps_field mf;
 	struct fig_ctx ctx;
@@ -370,15 +372,15 @@ ow_maps_draw_figure(struct ow_canvas *cv, const struct ow_rect *box,
 		ow_maps_default(&def);
 		o = &def;
 	}
-	fs = maps_font(o);
-	st = maps_field_create(s, g, o->units, &mf, d);
+	fs = ow_maps_font(o);
+	st = ow_maps_field_create(s, g, o->units, &mf, d);
 	if (st != OW_OK)
 		return st;
 	ctx.fig = f;
 	ctx.u = o->units;
-	maps_fill(g, fig_value, &ctx, mf.z);
+	ow_maps_fill(g, fig_value, &ctx, mf.z);
 	if (levels_of(s, f, o->units, &mf.f, &lv, &constant) != OW_OK) {
-		maps_field_free(&mf);
+		ow_maps_field_free(&mf);
 		return ow_diag_set(d, OW_ECOMPUTE,
 		                   "%s map: no solved point "
 		                   "to draw",
@@ -387,19 +389,19 @@ ow_maps_draw_figure(struct ow_canvas *cv, const struct ow_rect *box,
 	subtitle_of(f, s, sub, sizeof sub);
 	snprintf(title, sizeof title, "%s — %s", ow_maps_figure_title(f),
 	         s->title);
-	if (maps_frame(cv, box, s, g, o->units, title, sub, fs, &p, &x, &y,
-	               ytitle, sizeof ytitle) != OW_OK) {
-		maps_field_free(&mf);
+	if (ow_maps_frame(cv, box, s, g, o->units, title, sub, fs, &p, &x, &y,
+	                  ytitle, sizeof ytitle) != OW_OK) {
+		ow_maps_field_free(&mf);
 		return ow_diag_set(d, OW_EARG, "figure map: box too small");
 	}
 	st = draw_body(&p, s, w, o, f, &mf.f, &lv, d);
 	if (st == OW_OK && constant)
 		constant_note(&p, &mf.f, unit_of(f, o->units));
-	maps_field_free(&mf);
+	ow_maps_field_free(&mf);
 	if (st != OW_OK)
 		return st;
 	ow_plot_axes(&p, &x, &y);
-	maps_colour_bar(&p, &lv, OW_CMAP_VIRIDIS,
-	                bar_title(f, o->units, btitle, sizeof btitle), fs);
+	ow_maps_colour_bar(&p, &lv, OW_CMAP_VIRIDIS,
+	                   bar_title(f, o->units, btitle, sizeof btitle), fs);
 	return ow_canvas_status(cv, d);
 }

@@ -318,9 +318,9 @@ static void titles(struct layout *ly, const struct ow_study *s,
 	snprintf(ly->t_depth, sizeof ly->t_depth, "depth (%s)",
 	         ow_display_label(u, OW_DIM_LENGTH));
 	snprintf(ly->l_pres, sizeof ly->l_pres, "limit: %s",
-	         maps_limit_text(s, OW_CK_PRESSURE, u, NULL, a, sizeof a));
+	         ow_maps_limit_text(s, OW_CK_PRESSURE, u, NULL, a, sizeof a));
 	snprintf(ly->l_temp, sizeof ly->l_temp, "limit: %s",
-	         maps_limit_text(s, OW_CK_PEAK_TEMP, u, NULL, a, sizeof a));
+	         ow_maps_limit_text(s, OW_CK_PEAK_TEMP, u, NULL, a, sizeof a));
 }
 
 static enum ow_status
@@ -382,11 +382,11 @@ enum ow_status ow_maps_draw_profile(
 		ow_maps_default(&def);
 		o = &def;
 	}
-	f = maps_font(o);
+	f = ow_maps_font(o);
 	if (!columns_fill(s, rows, n, o->units, &c))
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
-	maps_paper(cv, box, s->title,
-	           subtitle ? subtitle : "Profiles along the screw", f);
+	ow_maps_paper(cv, box, s->title,
+	              subtitle ? subtitle : "Profiles along the screw", f);
 	st = draw_panels(cv, box, s, &c, o->units, f, d);
 	columns_free(&c);
 	return st;

@@ -2,13 +2,13 @@
  * filled bands of the share in per cent, labelled contour lines at 50, 90
  * and 99 %, the nominal window's rectangle (thin) and the robust one
  * (bold). */
-#include "ow_spread_out.h"
+#include "maps_impl.h"
 
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 
-#include "maps_impl.h"
+#include "ow_spread.h"
 
 struct share_ctx {
 	const struct ow_grid *g;
@@ -58,57 +58,56 @@ static enum ow_status draw_share(const struct ow_plot *p,
 		st = ow_plot_isolines(p, fd, iso, 1, ow_rgb(0, 0, 0), 0.9, d);
 	if (st != OW_OK)
 		return st;
-	maps_draw_rectangle(p, s, w, o->units, 0.8);
-	maps_draw_rectangle(p, s, rw, o->units, 2.2);
+	ow_maps_draw_rectangle(p, s, w, o->units, 0.8);
+	ow_maps_draw_rectangle(p, s, rw, o->units, 2.2);
 	return OW_OK;
 }
 
 enum ow_status ow_maps_draw_share(struct ow_canvas *cv,
 				  const struct ow_rect *box,
-				  const struct ow_study *s,
-				  const struct ow_grid *g,
-				  const struct ow_window *w,
-				  const struct ow_window *rw,
-				  const struct ow_spread_result *r,
+				  const struct ow_map *m,
 				  const struct ow_maps_options *o,
 				  struct ow_diag *d)
 {
+	const struct ow_study *s = m->study;
+	const struct ow_grid *g = m->grid;
+	const struct ow_window *w = m->window, *rw = m->robust;
+	const struct ow_spread_result *r = m->spread;
 	struct share_ctx ctx = {g, r};
 	struct maps_field mf;
 	struct ow_plot_axis x, y;
 	struct ow_plot p;
 	struct ow_ticks fill, iso;
 	char ytitle[128], sub[256], title[400];
-	double fs = maps_font(o);
-	enum ow_status st = maps_field_create(s, g, o->units, &mf, d);
+	double fs = ow_maps_font(o);
+	enum ow_status st;
 
+	if (!r || !rw)
+		return ow_diag_set(d, OW_EARG, "share map: no spread");
+	st = ow_maps_field_create(s, g, o->units, &mf, d);
 	if (st != OW_OK)
 		return st;
-	maps_fill(g, share_value, &ctx, mf.z);
+	ow_maps_fill(g, share_value, &ctx, mf.z);
 	share_levels(&fill, &iso);
 	snprintf(title, sizeof title, "Share of safe samples — %s", s->title);
 	snprintf(sub, sizeof sub, "%d samples a point, seed %lu. Lines: 50, "
 		 "90, 99 %%. Thin box: nominal window; bold: robust (%.0f %%).",
 		 r->samples, r->seed, 100.0 * r->level);
-	if (maps_frame(cv, box, s, g, o->units, title, sub, fs, &p, &x, &y,
-		       ytitle, sizeof ytitle) != OW_OK) {
-		maps_field_free(&mf);
+	if (ow_maps_frame(cv, box, s, g, o->units, title, sub, fs, &p, &x, &y,
+	                  ytitle, sizeof ytitle) != OW_OK) {
+		ow_maps_field_free(&mf);
 		return ow_diag_set(d, OW_EARG, "share map: box too small");
 	}
 	st = draw_share(&p, s, w, rw, o, &mf.f, &fill, &iso, d);
-	maps_field_free(&mf);
+	ow_maps_field_free(&mf);
 	if (st != OW_OK)
 		return st;
 	ow_plot_axes(&p, &x, &y);
-	maps_colour_bar(&p, &fill, OW_CMAP_CIVIDIS, "safe samples (%)", fs);
+	ow_maps_colour_bar(&p, &fill, OW_CMAP_CIVIDIS, "safe samples (%)", fs);
 	return ow_canvas_status(cv, d);
 }
 
-enum ow_status ow_maps_write_share(const struct ow_study *s,
-				   const struct ow_grid *g,
-				   const struct ow_window *w,
-				   const struct ow_window *rw,
-				   const struct ow_spread_result *r,
+enum ow_status ow_maps_write_share(const struct ow_map *m,
 				   const struct ow_maps_options *o,
 				   const char *dir, struct ow_diag *d)
 {
@@ -130,7 +129,7 @@ enum ow_status ow_maps_write_share(const struct ow_study *s,
 					    OW_MAPS_HEIGHT_PT,
 					    OW_MAPS_PNG_SCALE, &cv, d);
 		if (st == OW_OK)
-			st = ow_maps_draw_share(cv, &box, s, g, w, rw, r, o, d);
+			st = ow_maps_draw_share(cv, &box, m, o, d);
 		if (st == OW_OK)
 			st = ow_canvas_write_file(cv, path, d);
 		ow_canvas_destroy(cv);

@@ -136,7 +136,7 @@ static enum ow_status unsafe_regions(const struct ow_plot *p,
 
 		if (!shown(s, w, c))
 			continue;
-		maps_fill(g, fail_value, &c, mf->z);
+		ow_maps_fill(g, fail_value, &c, mf->z);
 		st = ow_plot_field_region(
 		    p, &mf->f, 0.0, ow_rgba_with_alpha(ink_of(c), TINT_ALPHA),
 		    &h, d);
@@ -174,7 +174,7 @@ static void boundary_lines(const struct ow_plot *p, const struct ow_study *s,
 
 			if (!pts)
 				continue;
-			maps_boundary_points(s, &bd->lines[k], u, pts);
+			ow_maps_boundary_points(s, &bd->lines[k], u, pts);
 			ow_plot_polyline(p, pts, bd->lines[k].n, &halo);
 			ow_plot_polyline(p, pts, bd->lines[k].n, &ln);
 			free(pts);
@@ -242,8 +242,8 @@ static void label_boundary(const struct ow_plot *p, const struct ow_study *s,
 	pts = malloc((size_t)n * sizeof *pts);
 	if (!pts)
 		return;
-	maps_boundary_points(s, &bd->lines[b], u, pts);
-	maps_limit_text(s, c, u, NULL, text, sizeof text);
+	ow_maps_boundary_points(s, &bd->lines[b], u, pts);
+	ow_maps_limit_text(s, c, u, NULL, text, sizeof text);
 	ow_canvas_set_font(p->cv, fs, 0);
 	tw = ow_canvas_text_width(p->cv, text) + 0.5 * fs;
 	for (k = 0; k < (int)(sizeof frac / sizeof frac[0]) && !ok; k++) {
@@ -255,9 +255,10 @@ static void label_boundary(const struct ow_plot *p, const struct ow_study *s,
 		hy = 0.5 * tw * fabs(sin(a)) + 0.65 * fs * fabs(cos(a));
 		ok = X - hx >= p->area.x && X + hx <= p->area.x + p->area.w &&
 		     Y - hy >= p->area.y && Y + hy <= p->area.y + p->area.h &&
-		     maps_labels_free(taken, X - hx, Y - hy, X + hx, Y + hy);
+		     ow_maps_labels_free(taken, X - hx, Y - hy, X + hx, Y + hy);
 		if (ok)
-			maps_labels_take(taken, X - hx, Y - hy, X + hx, Y + hy);
+			ow_maps_labels_take(taken, X - hx, Y - hy, X + hx,
+			                    Y + hy);
 	}
 	if (!ok) /* no free place: the middle, so it is labelled anyway */
 		best = along(p, pts, n, 0.5, &X, &Y, &ang);
@@ -277,16 +278,16 @@ static void label_rectangle(const struct ow_plot *p, const struct ow_window *w,
 	char a[32], b[32], c[32], e[32], text[160];
 	double f = p->font_pt, x0 = ow_plot_px(p, w->rpm_min);
 	double x1 = ow_plot_px(p, w->rpm_max);
-	double yt = ow_plot_py(p, maps_temp(u, w->set_max_K));
-	double yb = ow_plot_py(p, maps_temp(u, w->set_min_K));
+	double yt = ow_plot_py(p, ow_maps_temp(u, w->set_max_K));
+	double yb = ow_plot_py(p, ow_maps_temp(u, w->set_min_K));
 	int lines = w->at_sweep_edge ? 2 : 1;
 	double tw, h = 1.35 * f * lines, bx, by;
 
 	snprintf(text, sizeof text, "recommended %s–%s rpm, %s–%s %s",
-	         maps_num(a, sizeof a, w->rpm_min),
-	         maps_num(b, sizeof b, w->rpm_max),
-	         ow_plot_format(c, sizeof c, maps_temp(u, w->set_min_K), 0),
-	         ow_plot_format(e, sizeof e, maps_temp(u, w->set_max_K), 0),
+	         ow_maps_num(a, sizeof a, w->rpm_min),
+	         ow_maps_num(b, sizeof b, w->rpm_max),
+	         ow_plot_format(c, sizeof c, ow_maps_temp(u, w->set_min_K), 0),
+	         ow_plot_format(e, sizeof e, ow_maps_temp(u, w->set_max_K), 0),
 	         ow_display_label(u, OW_DIM_TEMPERATURE));
 	ow_canvas_set_font(p->cv, f, 1);
 	tw = ow_canvas_text_width(p->cv, text) + 0.6 * f;
@@ -315,7 +316,7 @@ static void label_rectangle(const struct ow_plot *p, const struct ow_window *w,
 		               OW_ALIGN_LEFT, OW_VALIGN_MIDDLE, 0);
 	}
 	ow_canvas_restore(p->cv);
-	maps_labels_take(taken, bx, by, bx + tw, by + h);
+	ow_maps_labels_take(taken, bx, by, bx + tw, by + h);
 }
 
 /* Legend entries: each limit that excludes points (most first), then the
@@ -336,8 +337,8 @@ static int legend_entries(const struct ow_study *s, const struct ow_window *w,
 		if (!shown(s, w, c))
 			continue;
 		h[n] = hatch_of(c);
-		maps_limit_text(s, c, o->units, min ? " < " : " > ", text[n],
-		                sizeof text[n]);
+		ow_maps_limit_text(s, c, o->units, min ? " < " : " > ", text[n],
+		                   sizeof text[n]);
 		e[n].label = text[n];
 		e[n].swatch = 1;
 		e[n].fill = ow_rgba_with_alpha(ink_of(c), TINT_ALPHA);
@@ -400,7 +401,7 @@ static void empty_lines(const struct ow_study *s, const struct ow_window *w,
 
 	snprintf(l2, n, "binding limits:");
 	for (k = 0; k < nb && k < 3; k++) {
-		maps_limit_text(s, (int)order[k], u, NULL, one, sizeof one);
+		ow_maps_limit_text(s, (int)order[k], u, NULL, one, sizeof one);
 		snprintf(l2 + strlen(l2), n - strlen(l2), "%s %s", k ? "," : "",
 		         one);
 	}
@@ -417,7 +418,7 @@ static void empty_message(const struct ow_plot *p, const struct ow_study *s,
 	empty_lines(s, w, u, l2, sizeof l2);
 	empty_box(p, l1, l2, &x, &y, &bw, &bh);
 	if (!draw) {
-		maps_labels_take(taken, x, y, x + bw, y + bh);
+		ow_maps_labels_take(taken, x, y, x + bw, y + bh);
 		return;
 	}
 	ow_canvas_save(p->cv);
@@ -432,7 +433,7 @@ static void empty_message(const struct ow_plot *p, const struct ow_study *s,
 	               OW_VALIGN_MIDDLE, 0);
 	ow_canvas_set_font(p->cv, f, 0);
 	ow_canvas_text(p->cv, x + 0.5 * bw, y + 2.6 * f,
-	               maps_fit_text(p->cv, l2, bw - f, fit, sizeof fit),
+	               ow_maps_fit_text(p->cv, l2, bw - f, fit, sizeof fit),
 	               OW_ALIGN_CENTRE, OW_VALIGN_MIDDLE, 0);
 	ow_canvas_restore(p->cv);
 }
@@ -445,7 +446,7 @@ static void subtitle_of(const struct ow_study *s, const struct ow_window *w,
 	snprintf(buf, n,
 	         "White: safe (%s %% of the map). Hatched: a limit is "
 	         "exceeded.%s",
-	         maps_num(pct, sizeof pct, 100.0 * w->safe_fraction),
+	         ow_maps_num(pct, sizeof pct, 100.0 * w->safe_fraction),
 	         s->line.axes.mode == OW_AXIS_SHIFT
 	             ? " All zones shifted together."
 	             : "");
@@ -461,17 +462,17 @@ draw_body(const struct ow_plot *p, const struct ow_study *s,
 	enum ow_status st;
 	int c;
 
-	st = maps_field_create(s, g, o->units, &mf, d);
+	st = ow_maps_field_create(s, g, o->units, &mf, d);
 	if (st != OW_OK)
 		return st;
 	ow_plot_grid(p);
 	st = unsafe_regions(p, s, g, w, &mf, d);
-	maps_field_free(&mf);
+	ow_maps_field_free(&mf);
 	if (st != OW_OK)
 		return st;
 	boundary_lines(p, s, w, o->units);
-	maps_draw_rectangle(p, s, w, o->units, 2.2);
-	maps_draw_points(p, s, w, o, 0, &taken);
+	ow_maps_draw_rectangle(p, s, w, o->units, 2.2);
+	ow_maps_draw_points(p, s, w, o, 0, &taken);
 	if (!w->empty)
 		label_rectangle(p, w, o->units, &taken);
 	else
@@ -502,7 +503,7 @@ window_layout(struct ow_canvas *cv, const struct ow_rect *box,
               const struct ow_window *w, const struct ow_maps_options *o,
               struct wlayout *ly, struct ow_diag *d)
 {
-	double f = maps_font(o), lw, lh, right = 0.0;
+	double f = ow_maps_font(o), lw, lh, right = 0.0;
 	struct ow_rect inner = *box;
 
 	ly->n = legend_entries(s, w, o, ly->e, ly->h, ly->text);
@@ -524,8 +525,8 @@ window_layout(struct ow_canvas *cv, const struct ow_rect *box,
 	} else {
 		right = lw + 0.8 * f;
 	}
-	maps_axes(s, g, o->units, &ly->x, &ly->y, ly->ytitle,
-	          sizeof ly->ytitle);
+	ow_maps_axes(s, g, o->units, &ly->x, &ly->y, ly->ytitle,
+	             sizeof ly->ytitle);
 	if (ow_plot_init(&ly->p, cv, &inner, &ly->x, &ly->y, f, right) != OW_OK)
 		return ow_diag_set(d, OW_EARG,
 		                   "window map: box %.0f x %.0f pt "
@@ -540,15 +541,14 @@ window_layout(struct ow_canvas *cv, const struct ow_rect *box,
 
 enum ow_status
 ow_maps_window_frame(struct ow_canvas *cv, const struct ow_rect *box,
-                     const struct ow_study *s, const struct ow_grid *g,
-                     const struct ow_window *w, const struct ow_maps_options *o,
+                     const struct ow_map *m, const struct ow_maps_options *o,
                      struct ow_plot *p, struct ow_diag *d)
 {
 	struct ow_maps_options def;
 	struct wlayout *ly;
 	enum ow_status st;
 
-	if (!cv || !box || !s || !g || !w || !p)
+	if (!cv || !box || !m || !m->study || !m->grid || !m->window || !p)
 		return ow_diag_set(d, OW_EARG, "window frame: NULL argument");
 	if (!o) {
 		ow_maps_default(&def);
@@ -557,7 +557,7 @@ ow_maps_window_frame(struct ow_canvas *cv, const struct ow_rect *box,
 	ly = calloc(1, sizeof *ly);
 	if (!ly)
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
-	st = window_layout(cv, box, s, g, w, o, ly, d);
+	st = window_layout(cv, box, m->study, m->grid, m->window, o, ly, d);
 	if (st == OW_OK)
 		*p = ly->p;
 	free(ly);
@@ -566,10 +566,12 @@ ow_maps_window_frame(struct ow_canvas *cv, const struct ow_rect *box,
 
 enum ow_status
 ow_maps_draw_window(struct ow_canvas *cv, const struct ow_rect *box,
-                    const struct ow_study *s, const struct ow_grid *g,
-                    const struct ow_window *w, const struct ow_maps_options *o,
+                    const struct ow_map *m, const struct ow_maps_options *o,
                     struct ow_diag *d)
 {
+	const struct ow_study *s = m ? m->study : NULL;
+	const struct ow_grid *g = m ? m->grid : NULL;
+	const struct ow_window *w = m ? m->window : NULL;
 	struct ow_maps_options def;
 	struct wlayout *ly;
 	char sub[256];
@@ -582,14 +584,14 @@ ow_maps_draw_window(struct ow_canvas *cv, const struct ow_rect *box,
 		ow_maps_default(&def);
 		o = &def;
 	}
-	f = maps_font(o);
+	f = ow_maps_font(o);
 	ly = calloc(1, sizeof *ly);
 	if (!ly)
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	st = window_layout(cv, box, s, g, w, o, ly, d);
 	if (st == OW_OK) {
 		subtitle_of(s, w, sub, sizeof sub);
-		maps_paper(cv, box, s->title, sub, f);
+		ow_maps_paper(cv, box, s->title, sub, f);
 		st = draw_body(&ly->p, s, g, w, o, d);
 	}
 	if (st == OW_OK) {

@@ -22,6 +22,7 @@
 #include "ow_classify.h"
 #include "ow_sweep.h"
 #include "ow_window.h"
+#include "ow_map.h"
 #include "ow_fit.h"
 #include "ow_canvas.h"
 #include "ow_plot.h"

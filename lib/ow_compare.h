@@ -19,6 +19,7 @@
 
 #include "ow_canvas.h"
 #include "ow_study.h"
+#include "ow_map.h"
 #include "ow_plot.h"
 #include "ow_solver.h"
 #include "ow_sweep.h"
@@ -58,8 +59,9 @@ struct ow_cmp_point {
 
 struct ow_compare {
 	const struct ow_study *study[2]; /* borrowed: must outlive this */
-	struct ow_grid *grid[2];         /* each case's lattice */
-	struct ow_window *win[2];        /* each case's window */
+	/* each case's map: its lattice and window (ow_map_run without the
+	 * centre solve or a spread: at[] holds both cases at the centres) */
+	struct ow_map *map[2];
 	/* The combined lattice, once with A's and once with B's figures
 	 * (same verdicts, so the same rectangle and centre), and the common
 	 * window extracted from each: common[k] carries case k's throughput
@@ -243,5 +245,14 @@ enum ow_status ow_compare_write_maps(const struct ow_compare *cmp,
 enum ow_status ow_compare_write_pdf(const struct ow_compare *cmp,
                                     const struct ow_compare_draw_options *o,
                                     const char *pdf_path, struct ow_diag *d);
+
+/* ---- the folder (compare_folder.c) ---- */
+
+/* compare.json, compare.csv, compare.png, compare.svg and compare.pdf
+ * into the existing folder dir, each atomically, in that order (a
+ * failure stops there). Errors as the writers above give them. */
+enum ow_status ow_compare_save(const struct ow_compare *cmp,
+                               const struct ow_compare_draw_options *o,
+                               const char *dir, struct ow_diag *d);
 
 #endif

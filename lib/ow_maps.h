@@ -8,17 +8,18 @@
  *
  * Each chart is drawn by a function that takes a canvas and a box, so the
  * same code fills the PNG and SVG files and the PDF report's pages
- * (lib/report). Everything people read is in the options' unit system. */
+ * (lib/report). Every chart of a study takes its map (ow_map.h) as a
+ * const view and only draws: nothing here solves a point. Everything
+ * people read is in the options' unit system. */
 #ifndef OW_MAPS_H
 #define OW_MAPS_H
 
 #include "ow_canvas.h"
 #include "ow_study.h"
+#include "ow_map.h"
 #include "ow_plot.h"
 #include "ow_solver.h"
-#include "ow_sweep.h"
 #include "ow_units.h"
-#include "ow_window.h"
 
 /* The image files: 600 x 433.3 pt, PNG at 1.5 px/pt (900 x 650 px). */
 #define OW_MAPS_WIDTH_PT  600.0
@@ -32,15 +33,10 @@ struct ow_maps_options {
 	double current_set_K; /* reference zone's absolute set-point, K */
 	int png, svg;         /* formats to write (default both) */
 	double font_pt;       /* base text size; 0: 9 pt */
-	/* profile rows of the window's centre (hopper to tip), borrowed;
-	 * NULL: ow_maps_write_all solves the centre point itself */
-	const struct ow_profile_row *profile;
-	int n_profile;
 	int jobs;             /* threads drawing files at once; 0: all cores */
 };
 
-/* Defaults: SI, no current point, PNG and SVG, 9 pt, no profile rows, one
- * thread. */
+/* Defaults: SI, no current point, PNG and SVG, 9 pt, all cores. */
 void ow_maps_default(struct ow_maps_options *o);
 
 /* The figure maps, in file order. */
@@ -64,28 +60,25 @@ const char *ow_maps_figure_title(enum ow_map_figure f);
  * "zone 2 set-point" (zone). Writes into buf, returns it. */
 char *ow_maps_axis_label(const struct ow_study *s, char *buf, size_t n);
 
-/* Draw the window map into box of cv. */
+/* Draw the window map of map m into box of cv. */
 enum ow_status
 ow_maps_draw_window(struct ow_canvas *cv, const struct ow_rect *box,
-                    const struct ow_study *s, const struct ow_grid *g,
-                    const struct ow_window *w, const struct ow_maps_options *o,
+                    const struct ow_map *m, const struct ow_maps_options *o,
                     struct ow_diag *d);
 
 /* The plot frame (data area, ranges) the window map uses in box, without
  * drawing: for placing annotations over it, and for tests. */
 enum ow_status
 ow_maps_window_frame(struct ow_canvas *cv, const struct ow_rect *box,
-                     const struct ow_study *s, const struct ow_grid *g,
-                     const struct ow_window *w, const struct ow_maps_options *o,
+                     const struct ow_map *m, const struct ow_maps_options *o,
                      struct ow_plot *p, struct ow_diag *d);
 
-/* Draw the map of figure f into box of cv (filled contours of the solved
- * coarse grid points, colour bar, labelled iso-lines, the window's
- * rectangle and safe-region boundaries overlaid thinly). */
+/* Draw the map of figure f of map m into box of cv (filled contours of
+ * the solved coarse grid points, colour bar, labelled iso-lines, the
+ * window's rectangle and safe-region boundaries overlaid thinly). */
 enum ow_status
 ow_maps_draw_figure(struct ow_canvas *cv, const struct ow_rect *box,
-                    enum ow_map_figure f, const struct ow_study *s,
-                    const struct ow_grid *g, const struct ow_window *w,
+                    enum ow_map_figure f, const struct ow_map *m,
                     const struct ow_maps_options *o, struct ow_diag *d);
 
 /* Draw the axial profiles of rows (n rows, hopper to tip, as from
@@ -98,34 +91,38 @@ enum ow_status ow_maps_draw_profile(
     const struct ow_profile_row *rows, int n, const char *subtitle,
     const struct ow_maps_options *o, struct ow_diag *d);
 
-/* Solve study s at the window's centre and return a copy of the profile
- * rows in *rows (malloc'd, the caller frees) and their count in *n, with
- * the point in *pt (may be NULL). OW_EINPUT when the window is empty. */
-enum ow_status ow_maps_centre_profile(const struct ow_study *s,
-                                      const struct ow_window *w,
-                                      struct ow_profile_row **rows, int *n,
-                                      struct ow_point *pt, struct ow_diag *d);
+/* The map of the share of safe samples of map m across its spread (bands
+ * in per cent, contour lines at 50, 90 and 99 %, the nominal window thin
+ * and the robust window bold) into box of cv. OW_EARG when m has no
+ * spread. */
+enum ow_status ow_maps_draw_share(struct ow_canvas *cv,
+                                  const struct ow_rect *box,
+                                  const struct ow_map *m,
+                                  const struct ow_maps_options *o,
+                                  struct ow_diag *d);
 
-/* Write window.png/.svg, map-*.png/.svg and profile.png/.svg (profiles
- * only when the window is not empty) into the existing folder dir, each
- * file atomically, o->jobs files at once (the files are the same for any
- * count). OW_EIO naming the file on a write failure; with several
- * failures, the first file's in the order above. */
-enum ow_status ow_maps_write_all(const struct ow_study *s,
-                                 const struct ow_grid *g,
-                                 const struct ow_window *w,
+/* The same map as dir/map-safe-share.png and .svg (as o asks). OW_EIO
+ * naming the file when it cannot be written. */
+enum ow_status ow_maps_write_share(const struct ow_map *m,
+                                   const struct ow_maps_options *o,
+                                   const char *dir, struct ow_diag *d);
+
+/* Write window.png/.svg, map-*.png/.svg and profile.png/.svg (the
+ * profile of m's centre, only when the window is not empty) of map m into
+ * the existing folder dir, each file atomically, o->jobs files at once
+ * (the files are the same for any count). OW_EIO naming the file on a
+ * write failure; with several failures, the first file's in the order
+ * above. */
+enum ow_status ow_maps_write_all(const struct ow_map *m,
                                  const struct ow_maps_options *o,
                                  const char *dir, struct ow_diag *d);
 
 /* The same one file at a time, for a caller that draws other things
  * beside them: ow_maps_file_count files, ow_maps_write_file writes file k
- * (0 <= k < count, in the order above; without o->profile it solves the
- * centre itself). */
-int ow_maps_file_count(const struct ow_window *w,
+ * (0 <= k < count, in the order above). */
+int ow_maps_file_count(const struct ow_map *m,
                        const struct ow_maps_options *o);
-enum ow_status ow_maps_write_file(const struct ow_study *s,
-                                  const struct ow_grid *g,
-                                  const struct ow_window *w,
+enum ow_status ow_maps_write_file(const struct ow_map *m,
                                   const struct ow_maps_options *o,
                                   const char *dir, int k, struct ow_diag *d);
 
@@ -133,9 +130,8 @@ enum ow_status ow_maps_write_file(const struct ow_study *s,
  * report), drawn in the same pool of o->jobs threads as the image files.
  * Its failure is reported after the files'. */
 enum ow_status ow_maps_write_beside(
-    const struct ow_study *s, const struct ow_grid *g,
-    const struct ow_window *w, const struct ow_maps_options *o,
-    const char *dir, enum ow_status (*beside)(void *ctx, struct ow_diag *d),
-    void *ctx, struct ow_diag *d);
+    const struct ow_map *m, const struct ow_maps_options *o, const char *dir,
+    enum ow_status (*beside)(void *ctx, struct ow_diag *d), void *ctx,
+    struct ow_diag *d);
 
 #endif

@@ -18,12 +18,9 @@
 
 #include <stddef.h>
 
-#include "ow_study.h"
-#include "ow_solver.h"
+#include "ow_map.h"
 #include "ow_status.h"
-#include "ow_sweep.h"
 #include "ow_units.h"
-#include "ow_window.h"
 
 enum ow_paper {
 	OW_PAPER_A4,    /* 210 x 297 mm (595.28 x 841.89 pt) */
@@ -41,23 +38,10 @@ struct ow_report_options {
 	int has_current;           /* 1: the line's current operating point */
 	double current_rpm;        /* rev/min */
 	double current_set_K;      /* reference zone's set-point, K */
-	/* the window's centre point as solved (its figures fill the table's
-	 * centre column; NULL: taken from the lattice where it was solved
-	 * there), and its profile rows, hopper to tip (e.g. a copy of
-	 * ow_solver_profile's; NULL or 0: the profile page says none was
-	 * computed). Borrowed. */
-	const struct ow_point *centre_point;
-	const struct ow_profile_row *profile;
-	int n_profile;
-	/* a map run across a spread of inputs (ow_spread.h): its result and
-	 * the robust window, for the page on them; NULL: no such page.
-	 * Borrowed. */
-	const struct ow_spread_result *spread;
-	const struct ow_window *robust;
 };
 
-/* Defaults: A4, SI, no date, blank revision and names, no current point,
- * no centre point, no profile. */
+/* Defaults: A4, SI, no date, blank revision and names, no current
+ * point. */
 void ow_report_default(struct ow_report_options *o);
 
 /* "a4" or "letter" (any case) -> *out; OW_EARG otherwise. */
@@ -84,16 +68,16 @@ enum ow_round {
 char *ow_report_format_bound(char *buf, size_t n, double v, int decimals,
                              enum ow_round dir);
 
-/* Write the report of study s, its lattice g and window w to pdf_path:
+/* Write the report of map m to pdf_path (the centre column and the
+ * profile page from m's centre, taken from the lattice where m has none
+ * and the sweep solved it there; the page on the spread when m has one):
  * built in memory, then written to a temporary file in the same folder
  * and renamed, so a failure leaves nothing behind (and no half-written
  * file in place of a good one). OW_EARG for a missing or malformed date
  * or NULL arguments; OW_EIO naming the path when the file cannot be
  * written, the font files are missing, or libharu fails (its first error
  * code in the message); OW_ENOMEM. */
-enum ow_status ow_report_write(const struct ow_study *s,
-                               const struct ow_grid *g,
-                               const struct ow_window *w,
+enum ow_status ow_report_write(const struct ow_map *m,
                                const struct ow_report_options *o,
                                const char *pdf_path, struct ow_diag *d);
 
@@ -103,9 +87,7 @@ enum ow_status ow_report_write(const struct ow_study *s,
  * same for any thread count. Errors as the two functions give them (an
  * image's before the report's). */
 struct ow_maps_options;
-enum ow_status ow_report_write_folder(const struct ow_study *s,
-                                      const struct ow_grid *g,
-                                      const struct ow_window *w,
+enum ow_status ow_report_write_folder(const struct ow_map *m,
                                       const struct ow_report_options *o,
                                       const struct ow_maps_options *mo,
                                       const char *dir, struct ow_diag *d);

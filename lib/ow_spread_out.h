@@ -5,8 +5,7 @@
 #ifndef OW_SPREAD_OUT_H
 #define OW_SPREAD_OUT_H
 
-#include "ow_canvas.h"
-#include "ow_maps.h"
+#include "ow_config.h"
 #include "ow_spread.h"
 #include "ow_sweep.h"
 #include "ow_window.h"
@@ -46,28 +45,5 @@ enum ow_status ow_spread_load_json(const char *text, const char *name,
 				   struct ow_spread *sp,
 				   struct ow_spread_result **out,
 				   struct ow_diag *d);
-
-/* The map of the share of safe samples (bands in per cent, contour lines
- * at 50, 90 and 99 %, the nominal window w thin and the robust window rw
- * bold) into box of cv; g the nominal grid. */
-enum ow_status ow_maps_draw_share(struct ow_canvas *cv,
-				  const struct ow_rect *box,
-				  const struct ow_study *s,
-				  const struct ow_grid *g,
-				  const struct ow_window *w,
-				  const struct ow_window *rw,
-				  const struct ow_spread_result *r,
-				  const struct ow_maps_options *o,
-				  struct ow_diag *d);
-
-/* The same map as dir/map-safe-share.png and .svg (as o asks). OW_EIO
- * naming the file when it cannot be written. */
-enum ow_status ow_maps_write_share(const struct ow_study *s,
-				   const struct ow_grid *g,
-				   const struct ow_window *w,
-				   const struct ow_window *rw,
-				   const struct ow_spread_result *r,
-				   const struct ow_maps_options *o,
-				   const char *dir, struct ow_diag *d);
 
 #endif

@@ -1,26 +1,17 @@
-/* report.c - the PDF documents (the report and the comparison): set-up
- * (libharu, compressed, DejaVu Sans embedded with the UTF-8 encoder),
- * pages, footers with "page N of M", and writing the file atomically;
- * and the report itself, whose footer carries the inputs' CRC-32. The
- * report's content is in report_front.c, report_pages.c, report_inputs.c
- * and report_basis.c. */
+/* report.c - the single-study report on the document layer (doc.c):
+ * its options, the order of its sections, its footer with the inputs'
+ * CRC-32, its bounds as printed, and the report written beside the map
+ * images. The sections are in report_front.c, report_pages.c,
+ * report_calib.c, report_spread.c, report_inputs.c and report_basis.c. */
 #include "report_impl.h"
 
-#include <ctype.h>
-#include <strings.h>
+#include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <strings.h>
 
 #include "ow_version.h"
-#include "ow_io.h"
-#include "ow_results.h"
-
-/* ISO 216 A4 is 210 x 297 mm; US Letter 8.5 x 11 in; 72 pt per inch. */
-#define MM_PT         (72.0 / 25.4)
-#define MARGIN_X      54.0 /* 0.75 in */
-#define MARGIN_TOP    48.0
-#define MARGIN_BOTTOM 64.0 /* room for the footer */
 
 void ow_report_default(struct ow_report_options *o)
 {
@@ -40,304 +31,83 @@ enum ow_status ow_report_paper_parse(const char *s, enum ow_paper *out)
 	return OW_OK;
 }
 
-struct ow_rgba rpt_ink(void)
+char *ow_report_format_bound(char *buf, size_t n, double v, int decimals,
+                             enum ow_round dir)
 {
-	return ow_rgb(0.08, 0.08, 0.10);
+	double f = pow(10.0, decimals), x = v * f;
+	char tmp[64];
+
+	if (!isfinite(v))
+		return ow_doc_fix(buf, n, v, 0);
+	/* a hair of slack, so 185.0000000001 is not taken up to 186 */
+	if (dir == OW_ROUND_UP)
+		x = ceil(x - 1e-6);
+	else if (dir == OW_ROUND_DOWN)
+		x = floor(x + 1e-6);
+	else
+		x = round(x);
+	snprintf(tmp, sizeof tmp, "%.*f", decimals, x / f);
+	ow_doc_trim_zeros(tmp);
+	return ow_doc_minus(buf, n, tmp);
 }
 
-struct ow_rgba rpt_grey(double level)
-{
-	return ow_rgb(level, level, level);
-}
-
-enum ow_status rpt_fail(struct rpt *r, enum ow_status st, const char *what)
-{
-	if (r->st == OW_OK) {
-		r->st = st;
-		ow_diag_set(r->d, st, "%s: %s", r->name, what);
-	}
-	return r->st;
-}
-
-/* libharu calls this on every failure; errors are sticky in the document,
- * so only the first says what went wrong. */
-static void on_hpdf_error(HPDF_STATUS error_no, HPDF_STATUS detail_no,
-                          void *user_data)
-{
-	struct rpt *r = user_data;
-
-	if (!r->hpdf_error) {
-		r->hpdf_error = error_no;
-		r->hpdf_detail = detail_no;
-	}
-}
-
-void rpt_check(struct rpt *r)
-{
-	char msg[160];
-
-	if (r->cv && r->st == OW_OK)
-		r->st = ow_canvas_status(r->cv, r->d);
-	if (r->hpdf_error && r->st == OW_OK) {
-		snprintf(msg, sizeof msg,
-		         "libharu error 0x%04X (detail %u) "
-		         "while drawing page %d",
-		         (unsigned)r->hpdf_error, (unsigned)r->hpdf_detail,
-		         r->n_pages);
-		rpt_fail(r, OW_EIO, msg);
-	}
-}
-
-static void close_canvas(struct rpt *r)
-{
-	rpt_check(r);
-	ow_canvas_destroy(r->cv);
-	r->cv = NULL;
-}
-
-/* A full-page canvas on page k (y down from the page's top). */
-static void open_canvas(struct rpt *r, int k)
-{
-	struct ow_canvas_place at = {0.0, 0.0, 1.0};
-
-	if (r->st != OW_OK)
-		return;
-	r->st = ow_canvas_create_pdf(r->pdf, r->pages[k], &r->fonts, &at, r->pw,
-	                             r->ph, &r->cv, r->d);
-}
-
-void rpt_new_page(struct rpt *r)
-{
-	HPDF_Page p;
-
-	close_canvas(r);
-	if (r->st != OW_OK)
-		return;
-	if (r->n_pages == RPT_MAX_PAGES) {
-		rpt_fail(r, OW_ECOMPUTE, "too many pages");
-		return;
-	}
-	p = HPDF_AddPage(r->pdf);
-	if (!p || HPDF_Page_SetWidth(p, (HPDF_REAL)r->pw) != HPDF_OK ||
-	    HPDF_Page_SetHeight(p, (HPDF_REAL)r->ph) != HPDF_OK) {
-		rpt_check(r);
-		return;
-	}
-	r->pages[r->n_pages++] = p;
-	open_canvas(r, r->n_pages - 1);
-	r->y = r->y0;
-}
-
-int rpt_need(struct rpt *r, double h)
-{
-	if (r->st != OW_OK || r->y + h <= r->y1)
-		return 0;
-	rpt_new_page(r);
-	return 1;
-}
-
-/* Fit utf8 into width at size, cutting it with an ellipsis. */
-static void fit_text(struct rpt *r, const char *utf8, double width, double size,
-                     char *out, size_t n)
-{
-	size_t len;
-
-	snprintf(out, n, "%s", utf8);
-	len = strlen(out);
-	while (len > 0 && rpt_text_width(r, out, size, 0) > width) {
-		do /* back over one UTF-8 character */
-			len--;
-		while (len > 0 && ((unsigned char)out[len] & 0xC0) == 0x80);
-		while (len > 0 && out[len - 1] == ' ')
-			len--;
-		if (len + 4 > n)
-			break;
-		memcpy(out + len, "…", 4); /* U+2026, 3 bytes + NUL */
-	}
-}
-
-/* The footer of page k of n: a rule, the title and "page k of n", then
- * the second line. */
-static void footer(struct rpt *r, int k, int n)
-{
-	char title[320], page[40];
-	double y = r->ph - MARGIN_BOTTOM + 22.0, w = r->x1 - r->x0;
-
-	open_canvas(r, k);
-	if (r->st != OW_OK)
-		return;
-	snprintf(page, sizeof page, "page %d of %d", k + 1, n);
-	fit_text(r, r->foot_title, w - rpt_text_width(r, page, 7.5, 0) - 24.0,
-	         7.5, title, sizeof title);
-	ow_canvas_set_colour(r->cv, rpt_grey(0.55));
-	ow_canvas_set_line_width(r->cv, 0.5);
-	ow_canvas_move_to(r->cv, r->x0, y);
-	ow_canvas_line_to(r->cv, r->x1, y);
-	ow_canvas_stroke(r->cv);
-	ow_canvas_set_colour(r->cv, rpt_grey(0.25));
-	ow_canvas_set_font(r->cv, 7.5, 0);
-	ow_canvas_text(r->cv, r->x0, y + 11.0, title, OW_ALIGN_LEFT,
-	               OW_VALIGN_BASELINE, 0.0);
-	if (*r->foot_line)
-		ow_canvas_text(r->cv, r->x0, y + 21.0, r->foot_line,
-		               OW_ALIGN_LEFT, OW_VALIGN_BASELINE, 0.0);
-	ow_canvas_set_font(r->cv, 8.0, 1);
-	ow_canvas_text(r->cv, r->x1, y + 11.0, page, OW_ALIGN_RIGHT,
-	               OW_VALIGN_BASELINE, 0.0);
-	close_canvas(r);
-}
-
-int rpt_valid_date(const char *s)
+const char *ow_report_source(const struct rpt *r, const char *key,
+                             unsigned char *shown)
 {
 	int k;
 
-	if (!s || strlen(s) != 10 || s[4] != '-' || s[7] != '-')
-		return 0;
-	for (k = 0; k < 10; k++)
-		if (k != 4 && k != 7 && !isdigit((unsigned char)s[k]))
-			return 0;
-	k = atoi(s + 5);
-	return k >= 1 && k <= 12 && atoi(s + 8) >= 1 && atoi(s + 8) <= 31;
+	for (k = 0; k < r->s->n_sources; k++)
+		if (!strcmp(r->s->sources[k].key, key)) {
+			if (shown)
+				shown[k] = 1;
+			return r->s->sources[k].text;
+		}
+	return NULL;
 }
 
-/* Creator and the given date in the document information. */
-static void doc_info(struct rpt *r, const char *ymd)
-{
-	HPDF_Date date;
-
-	memset(&date, 0, sizeof date);
-	date.year = atoi(ymd);
-	date.month = atoi(ymd + 5);
-	date.day = atoi(ymd + 8);
-	date.ind = 'Z';
-	HPDF_SetInfoAttr(r->pdf, HPDF_INFO_CREATOR, "opwin " OW_VERSION);
-	HPDF_SetInfoDateAttr(r->pdf, HPDF_INFO_CREATION_DATE, date);
-}
-
-enum ow_status rpt_open(struct rpt *r, const char *name, enum ow_paper paper,
-                        const char *date)
-{
-	int a4 = paper == OW_PAPER_A4;
-
-	r->name = name;
-	r->head_fill = rpt_grey(0.90);
-	r->shade_fill = rpt_grey(0.955);
-	r->row_pad = 3.5;
-	r->pdf = HPDF_New(on_hpdf_error, r);
-	if (!r->pdf)
-		return rpt_fail(r, OW_ENOMEM, "out of memory");
-	HPDF_SetCompressionMode(r->pdf, HPDF_COMP_ALL);
-	r->st = ow_canvas_pdf_fonts(r->pdf, &r->fonts, r->d);
-	if (r->st != OW_OK)
-		return r->st;
-	doc_info(r, date);
-	r->pw = a4 ? 210.0 * MM_PT : 8.5 * 72.0;
-	r->ph = a4 ? 297.0 * MM_PT : 11.0 * 72.0;
-	r->x0 = MARGIN_X;
-	r->x1 = r->pw - MARGIN_X;
-	r->y0 = MARGIN_TOP;
-	r->y1 = r->ph - MARGIN_BOTTOM;
-	rpt_check(r);
-	return r->st;
-}
-
-/* The finished document as bytes, written atomically. */
-static void save(struct rpt *r, const char *path)
-{
-	HPDF_UINT32 len;
-	HPDF_BYTE *buf;
-
-	if (r->st != OW_OK)
-		return;
-	if (HPDF_SaveToStream(r->pdf) != HPDF_OK) {
-		rpt_check(r);
-		return;
-	}
-	len = HPDF_GetStreamSize(r->pdf);
-	buf = malloc(len ? len : 1);
-	if (!buf) {
-		rpt_fail(r, OW_ENOMEM, "out of memory");
-		return;
-	}
-	if (HPDF_ReadFromStream(r->pdf, buf, &len) != HPDF_OK &&
-	    !r->hpdf_error) /* end of stream is reported as an error */
-		HPDF_ResetError(r->pdf);
-	rpt_check(r);
-	{
-		unsigned char *p = buf;
-		size_t n = len;
-
-		if (r->st == OW_OK)
-			r->st = rpt_fix_to_unicode(&p, &n, r->d);
-		buf = p;
-		if (r->st == OW_OK)
-			r->st = ow_io_write_file(path, (const char *)buf, n,
-						 r->d);
-	}
-	free(buf);
-}
-
-enum ow_status rpt_close(struct rpt *r, const char *path)
-{
-	int k;
-
-	close_canvas(r);
-	for (k = 0; k < r->n_pages && r->st == OW_OK; k++)
-		footer(r, k, r->n_pages);
-	save(r, path);
-	ow_canvas_destroy(r->cv);
-	r->cv = NULL;
-	if (r->pdf)
-		HPDF_Free(r->pdf);
-	r->pdf = NULL;
-	return r->st;
-}
-
-enum ow_status ow_report_write(const struct ow_study *s,
-                               const struct ow_grid *g,
-                               const struct ow_window *w,
+enum ow_status ow_report_write(const struct ow_map *m,
                                const struct ow_report_options *o,
                                const char *pdf_path, struct ow_diag *d)
 {
+	const struct ow_study *s = m ? m->study : NULL;
 	struct rpt r;
 
-	if (!s || !g || !w || !o || !pdf_path)
+	if (!s || !m->grid || !m->window || !o || !pdf_path)
 		return ow_diag_set(d, OW_EARG,
 		                   "ow_report_write: NULL "
 		                   "argument");
-	if (!rpt_valid_date(o->date))
+	if (!ow_doc_valid_date(o->date))
 		return ow_diag_set(d, OW_EARG,
 		                   "report date \"%s\": expected "
 		                   "YYYY-MM-DD",
 		                   o->date ? o->date : "");
 	memset(&r, 0, sizeof r);
+	r.m = m;
 	r.s = s;
-	r.g = g;
-	r.w = w;
+	r.g = m->grid;
+	r.w = m->window;
 	r.o = o;
-	r.sys = o->units;
-	r.d = d;
-	snprintf(r.foot_title, sizeof r.foot_title, "%s", s->title);
-	snprintf(r.foot_line, sizeof r.foot_line,
+	r.doc.sys = o->units;
+	r.doc.d = d;
+	snprintf(r.doc.foot_title, sizeof r.doc.foot_title, "%s", s->title);
+	snprintf(r.doc.foot_line, sizeof r.doc.foot_line,
 	         "%s   ·   inputs CRC-32 %08lX   ·   "
 	         "opwin %s",
 	         o->date, s->input_crc, OW_VERSION);
-	if (rpt_open(&r, "report", o->paper, o->date) == OW_OK) {
-		rpt_front_page(&r);
-		rpt_map_pages(&r);
-		rpt_profile_page(&r);
-		rpt_calib_page(&r);
-		rpt_spread_page(&r);
-		rpt_inputs(&r);
-		rpt_basis(&r);
+	if (ow_doc_open(&r.doc, "report", o->paper, o->date) == OW_OK) {
+		ow_report_front_page(&r);
+		ow_report_map_pages(&r);
+		ow_report_profile_page(&r);
+		ow_report_calib_page(&r);
+		ow_report_spread_page(&r);
+		ow_report_inputs(&r);
+		ow_report_basis(&r);
 	}
-	return rpt_close(&r, pdf_path);
+	return ow_doc_close(&r.doc, pdf_path);
 }
 
 struct folder_report {
-	const struct ow_study *s;
-	const struct ow_grid *g;
-	const struct ow_window *w;
+	const struct ow_map *m;
 	const struct ow_report_options *o;
 	const char *path;
 };
@@ -346,17 +116,15 @@ static enum ow_status report_piece(void *ctx, struct ow_diag *d)
 {
 	const struct folder_report *f = ctx;
 
-	return ow_report_write(f->s, f->g, f->w, f->o, f->path, d);
+	return ow_report_write(f->m, f->o, f->path, d);
 }
 
-enum ow_status ow_report_write_folder(const struct ow_study *s,
-                                      const struct ow_grid *g,
-                                      const struct ow_window *w,
+enum ow_status ow_report_write_folder(const struct ow_map *m,
                                       const struct ow_report_options *o,
                                       const struct ow_maps_options *mo,
                                       const char *dir, struct ow_diag *d)
 {
-	struct folder_report f = {s, g, w, o, NULL};
+	struct folder_report f = {m, o, NULL};
 	size_t n = dir ? strlen(dir) + sizeof "/report.pdf" : 0;
 	char *path = n ? malloc(n) : NULL;
 	enum ow_status st;
@@ -367,7 +135,7 @@ enum ow_status ow_report_write_folder(const struct ow_study *s,
 		                       : "ow_report_write_folder: NULL folder");
 	snprintf(path, n, "%s/report.pdf", dir);
 	f.path = path;
-	st = ow_maps_write_beside(s, g, w, mo, dir, report_piece, &f, d);
+	st = ow_maps_write_beside(m, mo, dir, report_piece, &f, d);
 	free(path);
 	return st;
 }

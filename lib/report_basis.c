@@ -59,9 +59,7 @@ static const char *const left_out[] = {
 };
 
 /* Our own words; each caution is a paragraph with a bold lead. */
-static const struct {
-	const char *lead, *text;
-} cautions[] = {
+static const struct ow_doc_caution cautions[] = {
     {"Hot melt and pressure can injure.",
      "Melt at these temperatures "
      "burns on contact and sticks to skin. Melt can spray from the die, "
@@ -94,87 +92,47 @@ static const struct {
 
 static void model_basis(struct rpt *r)
 {
-	struct rpt_style st = rpt_body();
+	struct ow_doc_style st = ow_doc_body();
 	int k;
 
-	rpt_heading(r, "Model basis", 80.0);
-	rpt_para(r,
-	         "Each operating point is solved from the hopper to the "
-	         "die with published engineering models:",
-	         &st, 4.0);
+	ow_doc_heading(&r->doc, "Model basis", 80.0);
+	ow_doc_para(&r->doc,
+	            "Each operating point is solved from the hopper to the "
+	            "die with published engineering models:",
+	            &st, 4.0);
 	for (k = 0; k < N_OF(methods); k++)
-		rpt_bullet(r, methods[k], &st);
-	r->y += 4.0;
-	rpt_para(r,
-	         "Rules of thumb in the screw warnings are common practice "
-	         "and are marked so.",
-	         &st, 0.0);
+		ow_doc_bullet(&r->doc, methods[k], &st);
+	r->doc.y += 4.0;
+	ow_doc_para(&r->doc,
+	            "Rules of thumb in the screw warnings are common practice "
+	            "and are marked so.",
+	            &st, 0.0);
 }
 
 static void leaves_out(struct rpt *r)
 {
-	struct rpt_style st = rpt_body();
+	struct ow_doc_style st = ow_doc_body();
 	int k;
 
-	rpt_heading(r, "What the model leaves out", 80.0);
+	ow_doc_heading(&r->doc, "What the model leaves out", 80.0);
 	for (k = 0; k < N_OF(left_out); k++)
-		rpt_bullet(r, left_out[k], &st);
-	r->y += 4.0;
+		ow_doc_bullet(&r->doc, left_out[k], &st);
+	r->doc.y += 4.0;
 	st.bold = 1;
-	rpt_para(r,
-	         "The results are estimates from published engineering "
-	         "models, not measurements. Check them on the line.",
-	         &st, 0.0);
+	ow_doc_para(&r->doc,
+	            "The results are estimates from published engineering "
+	            "models, not measurements. Check them on the line.",
+	            &st, 0.0);
 }
 
-/* Height of the cautions, to keep them on one page with their bar. */
-static double cautions_height(struct rpt *r, double width)
+void ow_report_basis(struct rpt *r)
 {
-	char buf[2048];
-	const char *lines[40];
-	double h = 0.0;
-	int k;
-
-	for (k = 0; k < N_OF(cautions); k++) {
-		h += RPT_BODY_PT * RPT_LINE *
-		     (1 + rpt_wrap(r, cautions[k].text, width, RPT_BODY_PT, 0,
-		                   buf, sizeof buf, lines, 40));
-		h += 7.0;
-	}
-	return h;
-}
-
-static void cautions_box(struct rpt *r)
-{
-	struct rpt_style lead = {RPT_BODY_PT, 1, rpt_ink(), 14.0};
-	struct rpt_style st = rpt_body();
-	double top, h;
-	int k;
-
-	rpt_heading(r, "Cautions", 0.0);
-	h = cautions_height(r, r->x1 - r->x0 - 14.0);
-	rpt_need(r, h);
-	top = r->y;
-	st.indent_pt = 14.0;
-	for (k = 0; k < N_OF(cautions); k++) {
-		rpt_para(r, cautions[k].lead, &lead, 0.0);
-		rpt_para(r, cautions[k].text, &st, 7.0);
-	}
-	if (r->st != OW_OK || r->y < top)
-		return; /* a page break (text longer than a page) */
-	/* a solid bar beside the cautions: visible in greyscale print */
-	ow_canvas_set_colour(r->cv, rpt_ink());
-	ow_canvas_rect(r->cv, r->x0, top, 4.0, r->y - top - 7.0);
-	ow_canvas_fill(r->cv);
-}
-
-void rpt_basis(struct rpt *r)
-{
-	if (r->st != OW_OK)
+	if (r->doc.st != OW_OK)
 		return;
-	rpt_need(r, 200.0);
+	ow_doc_need(&r->doc, 200.0);
 	model_basis(r);
 	leaves_out(r);
-	cautions_box(r);
-	rpt_check(r);
+	ow_doc_cautions(&r->doc, cautions, N_OF(cautions),
+	                OW_DOC_CAUTIONS_BARRED);
+	ow_doc_check(&r->doc);
 }

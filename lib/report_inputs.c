@@ -13,12 +13,12 @@
 
 
 /* A Quantity | Value | Source table. */
-static const struct rpt_table qvs = {
+static const struct ow_doc_table qvs = {
     3,
     {"Quantity", "Value", "Source"},
     {0.27, 0.19, 0.54},
     {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT},
-    RPT_SMALL_PT,
+    OW_DOC_SMALL_PT,
     0};
 
 struct inputs {
@@ -31,25 +31,25 @@ static void qty_row(struct inputs *in, const char *what, const char *key,
                     enum ow_dim dim, double si, int sig)
 {
 	char val[96];
-	const char *src = rpt_source(in->r, key, in->shown);
+	const char *src = ow_report_source(in->r, key, in->shown);
 	const char *cells[3] = {what, val, src ? src : "not given"};
 
-	rpt_qty(in->r, val, sizeof val, dim, si, sig);
-	rpt_table_row(in->r, &qvs, cells, 0);
+	ow_doc_qty(&in->r->doc, val, sizeof val, dim, si, sig);
+	ow_doc_table_row(&in->r->doc, &qvs, cells, 0);
 }
 
 static void text_row(struct inputs *in, const char *what, const char *val,
                      const char *key)
 {
-	const char *src = key ? rpt_source(in->r, key, in->shown) : NULL;
+	const char *src = key ? ow_report_source(in->r, key, in->shown) : NULL;
 	const char *cells[3] = {what, val, src ? src : ""};
 
-	rpt_table_row(in->r, &qvs, cells, 0);
+	ow_doc_table_row(&in->r->doc, &qvs, cells, 0);
 }
 
 static void files(struct rpt *r)
 {
-	struct rpt_style st = rpt_body();
+	struct ow_doc_style st = ow_doc_body();
 	const struct ow_study *s = r->s;
 	char text[3 * OW_PATH_LEN + 200];
 
@@ -60,8 +60,8 @@ static void files(struct rpt *r)
 	         s->path, s->screw_path[0] ? s->screw_path : "in the study",
 	         s->resin_path[0] ? s->resin_path : "in the study",
 	         s->input_crc);
-	st.size_pt = RPT_SMALL_PT;
-	rpt_para(r, text, &st, 4.0);
+	st.size_pt = OW_DOC_SMALL_PT;
+	ow_doc_para(&r->doc, text, &st, 4.0);
 }
 
 /* ---- screw ----------------------------------------------------------------
@@ -73,8 +73,8 @@ static void screw_main(struct inputs *in)
 	char n[16], head[200];
 
 	snprintf(head, sizeof head, "Screw: %s", sc->name);
-	rpt_subheading(in->r, head, 60.0);
-	rpt_table_head(in->r, &qvs);
+	ow_doc_subheading(&in->r->doc, head, 60.0);
+	ow_doc_table_head(&in->r->doc, &qvs);
 	qty_row(in, "Barrel bore (diameter)", "screw.diameter", OW_DIM_LENGTH,
 	        sc->diameter_m, 4);
 	qty_row(in, "Lead", "screw.lead", OW_DIM_LENGTH, sc->lead_m, 4);
@@ -84,7 +84,7 @@ static void screw_main(struct inputs *in)
 	        sc->flight_width_m, 4);
 	qty_row(in, "Radial flight clearance (new)", "screw.clearance",
 	        OW_DIM_LENGTH, sc->clearance_m, 3);
-	rpt_table_end(in->r);
+	ow_doc_table_end(&in->r->doc);
 }
 
 /* Extra words of a mixer or barrier section. */
@@ -95,15 +95,16 @@ static void section_note(struct rpt *r, const struct ow_section *x, char *buf,
 
 	buf[0] = '\0';
 	if (x->type == OW_SEC_MIXER) {
-		rpt_qty(r, a, sizeof a, OW_DIM_LENGTH, x->gap_m, 3);
+		ow_doc_qty(&r->doc, a, sizeof a, OW_DIM_LENGTH, x->gap_m, 3);
 		snprintf(buf, n, "gap over the lands %s, %d lands", a,
 		         x->lands);
 	} else if (x->type == OW_SEC_BARRIER) {
-		rpt_qty(r, a, sizeof a, OW_DIM_LENGTH, x->melt_depth_start_m,
-		        3);
-		rpt_qty(r, b, sizeof b, OW_DIM_LENGTH, x->melt_depth_end_m, 3);
-		rpt_qty(r, c, sizeof c, OW_DIM_LENGTH, x->barrier_clearance_m,
-		        3);
+		ow_doc_qty(&r->doc, a, sizeof a, OW_DIM_LENGTH,
+		           x->melt_depth_start_m, 3);
+		ow_doc_qty(&r->doc, b, sizeof b, OW_DIM_LENGTH,
+		           x->melt_depth_end_m, 3);
+		ow_doc_qty(&r->doc, c, sizeof c, OW_DIM_LENGTH,
+		           x->barrier_clearance_m, 3);
 		snprintf(e, sizeof e, "%.0f–%.0f %%",
 		         100.0 * x->melt_share_start,
 		         100.0 * x->melt_share_end);
@@ -116,21 +117,21 @@ static void section_note(struct rpt *r, const struct ow_section *x, char *buf,
 
 static void sections(struct inputs *in)
 {
-	struct rpt_table t = {7,
-	                      {"#", "Type", "From (D)", "To (D)",
-	                       "Depth at start", "Depth at end", "Notes"},
-	                      {0.05, 0.12, 0.10, 0.10, 0.14, 0.14, 0.35},
-	                      {OW_ALIGN_RIGHT, OW_ALIGN_LEFT, OW_ALIGN_RIGHT,
-	                       OW_ALIGN_RIGHT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT,
-	                       OW_ALIGN_LEFT},
-	                      RPT_SMALL_PT,
-	                      0};
+	struct ow_doc_table t = {7,
+	                         {"#", "Type", "From (D)", "To (D)",
+	                          "Depth at start", "Depth at end", "Notes"},
+	                         {0.05, 0.12, 0.10, 0.10, 0.14, 0.14, 0.35},
+	                         {OW_ALIGN_RIGHT, OW_ALIGN_LEFT, OW_ALIGN_RIGHT,
+	                          OW_ALIGN_RIGHT, OW_ALIGN_RIGHT,
+	                          OW_ALIGN_RIGHT, OW_ALIGN_LEFT},
+	                         OW_DOC_SMALL_PT,
+	                         0};
 	struct rpt *r = in->r;
 	const struct ow_screw *sc = &r->s->screw;
 	char k[16], a[32], b[32], c[48], e[48], note[320];
 	int i;
 
-	rpt_table_head(r, &t);
+	ow_doc_table_head(&r->doc, &t);
 	for (i = 0; i < sc->n_sections; i++) {
 		const struct ow_section *x = &sc->sections[i];
 		int mixer = x->type == OW_SEC_MIXER;
@@ -140,30 +141,30 @@ static void sections(struct inputs *in)
 		    note};
 
 		snprintf(k, sizeof k, "%d", i + 1);
-		rpt_num(a, sizeof a, x->start_m / sc->diameter_m, 4);
-		rpt_num(b, sizeof b, x->end_m / sc->diameter_m, 4);
-		rpt_qty(r, c, sizeof c, OW_DIM_LENGTH,
-		        x->type == OW_SEC_BARRIER ? x->solids_depth_start_m
-		                                  : x->depth_start_m,
-		        4);
-		rpt_qty(r, e, sizeof e, OW_DIM_LENGTH,
-		        x->type == OW_SEC_BARRIER ? x->solids_depth_end_m
-		                                  : x->depth_m,
-		        4);
+		ow_doc_num(a, sizeof a, x->start_m / sc->diameter_m, 4);
+		ow_doc_num(b, sizeof b, x->end_m / sc->diameter_m, 4);
+		ow_doc_qty(&r->doc, c, sizeof c, OW_DIM_LENGTH,
+		           x->type == OW_SEC_BARRIER ? x->solids_depth_start_m
+		                                     : x->depth_start_m,
+		           4);
+		ow_doc_qty(&r->doc, e, sizeof e, OW_DIM_LENGTH,
+		           x->type == OW_SEC_BARRIER ? x->solids_depth_end_m
+		                                     : x->depth_m,
+		           4);
 		section_note(r, x, note, sizeof note);
-		rpt_table_row(r, &t, cells, 0);
+		ow_doc_table_row(&r->doc, &t, cells, 0);
 	}
-	rpt_table_end(r);
+	ow_doc_table_end(&r->doc);
 }
 
 static void wear(struct inputs *in)
 {
-	struct rpt_table t = {
+	struct ow_doc_table t = {
 	    3,
 	    {"Worn from (D)", "To (D)", "Radial clearance there"},
 	    {0.2, 0.2, 0.6},
 	    {OW_ALIGN_RIGHT, OW_ALIGN_RIGHT, OW_ALIGN_LEFT},
-	    RPT_SMALL_PT,
+	    OW_DOC_SMALL_PT,
 	    0};
 	const struct ow_screw *sc = &in->r->s->screw;
 	char a[32], b[32], c[48];
@@ -171,32 +172,32 @@ static void wear(struct inputs *in)
 
 	if (!sc->n_wear)
 		return;
-	rpt_table_head(in->r, &t);
+	ow_doc_table_head(&in->r->doc, &t);
 	for (i = 0; i < sc->n_wear; i++) {
 		const char *cells[3] = {a, b, c};
 
-		rpt_num(a, sizeof a, sc->wear[i].from_m / sc->diameter_m, 4);
-		rpt_num(b, sizeof b, sc->wear[i].to_m / sc->diameter_m, 4);
-		rpt_qty(in->r, c, sizeof c, OW_DIM_LENGTH,
-		        sc->wear[i].clearance_m, 3);
-		rpt_table_row(in->r, &t, cells, 0);
+		ow_doc_num(a, sizeof a, sc->wear[i].from_m / sc->diameter_m, 4);
+		ow_doc_num(b, sizeof b, sc->wear[i].to_m / sc->diameter_m, 4);
+		ow_doc_qty(&in->r->doc, c, sizeof c, OW_DIM_LENGTH,
+		           sc->wear[i].clearance_m, 3);
+		ow_doc_table_row(&in->r->doc, &t, cells, 0);
 	}
-	rpt_table_end(in->r);
+	ow_doc_table_end(&in->r->doc);
 }
 
 /* A Quantity | Value table for derived data. */
-static const struct rpt_table two = {2,
-                                     {"Quantity", "Value"},
-                                     {0.46, 0.54},
-                                     {OW_ALIGN_LEFT, OW_ALIGN_LEFT},
-                                     RPT_SMALL_PT,
-                                     0};
+static const struct ow_doc_table two = {2,
+                                        {"Quantity", "Value"},
+                                        {0.46, 0.54},
+                                        {OW_ALIGN_LEFT, OW_ALIGN_LEFT},
+                                        OW_DOC_SMALL_PT,
+                                        0};
 
 static void two_row(struct rpt *r, const char *what, const char *val)
 {
 	const char *cells[2] = {what, val};
 
-	rpt_table_row(r, &two, cells, 0);
+	ow_doc_table_row(&r->doc, &two, cells, 0);
 }
 
 static void derived(struct inputs *in)
@@ -204,39 +205,41 @@ static void derived(struct inputs *in)
 	struct rpt *r = in->r;
 	const struct ow_screw *sc = &r->s->screw;
 	struct ow_warning warn[OW_MAX_WARNINGS];
-	struct rpt_style st = rpt_body();
+	struct ow_doc_style st = ow_doc_body();
 	char v[96], len[48], ld[24];
 	int n, k;
 
-	rpt_subheading(r, "Derived screw data", 60.0);
-	rpt_table_head(r, &two);
-	rpt_qty(r, len, sizeof len, OW_DIM_LENGTH, ow_screw_length(sc), 4);
+	ow_doc_subheading(&r->doc, "Derived screw data", 60.0);
+	ow_doc_table_head(&r->doc, &two);
+	ow_doc_qty(&r->doc, len, sizeof len, OW_DIM_LENGTH, ow_screw_length(sc),
+	           4);
 	snprintf(v, sizeof v, "%s (L/D %s)", len,
-	         rpt_num(ld, sizeof ld, ow_screw_ld(sc), 4));
+	         ow_doc_num(ld, sizeof ld, ow_screw_ld(sc), 4));
 	two_row(r, "Length", v);
-	rpt_num(v, sizeof v, ow_screw_helix(sc, sc->diameter_m) * 180.0 / OW_PI,
-	        4);
+	ow_doc_num(v, sizeof v,
+	           ow_screw_helix(sc, sc->diameter_m) * 180.0 / OW_PI, 4);
 	strcat(v, "°");
 	two_row(r, "Helix angle at the bore", v);
 	two_row(r, "Channel width at the bore",
-	        rpt_qty(r, v, sizeof v, OW_DIM_LENGTH,
-	                ow_screw_width(sc, sc->diameter_m), 4));
+	        ow_doc_qty(&r->doc, v, sizeof v, OW_DIM_LENGTH,
+	                   ow_screw_width(sc, sc->diameter_m), 4));
 	two_row(r, "Compression ratio (depths)",
-	        rpt_num(v, sizeof v, ow_screw_compression_depth(sc), 3));
+	        ow_doc_num(v, sizeof v, ow_screw_compression_depth(sc), 3));
 	two_row(r, "Compression ratio (cross-sections)",
-	        rpt_num(v, sizeof v, ow_screw_compression_area(sc), 3));
-	rpt_table_end(r);
+	        ow_doc_num(v, sizeof v, ow_screw_compression_area(sc), 3));
+	ow_doc_table_end(&r->doc);
 	n = ow_advise_screw(sc, warn, OW_MAX_WARNINGS);
-	st.size_pt = RPT_SMALL_PT;
-	rpt_para(r,
-	         n ? "Rule-of-thumb warnings (common practice, not "
-	             "published limits):"
-	           : "No rule-of-thumb warnings about "
-	             "this screw (common practice checks of compression, feed "
-	             "depth and clearance).",
-	         &st, 2.0);
+	st.size_pt = OW_DOC_SMALL_PT;
+	ow_doc_para(
+	    &r->doc,
+	    n ? "Rule-of-thumb warnings (common practice, not "
+	        "published limits):"
+	      : "No rule-of-thumb warnings about "
+	        "this screw (common practice checks of compression, feed "
+	        "depth and clearance).",
+	    &st, 2.0);
 	for (k = 0; k < n; k++)
-		rpt_bullet(r, warn[k].text, &st);
+		ow_doc_bullet(&r->doc, warn[k].text, &st);
 }
 
 /* ---- resin ----------------------------------------------------------------
@@ -294,15 +297,16 @@ static void viscosity(struct inputs *in)
  * 1055.05585262 J, 1 lb = 0.45359237 kg: NIST SP 811 (2008) App. B. */
 static void fusion_row(struct inputs *in, double J_kg)
 {
-	const char *src = rpt_source(in->r, "resin.heat_of_fusion", in->shown);
-	int us = in->r->sys == OW_SYS_US;
+	const char *src =
+	    ow_report_source(in->r, "resin.heat_of_fusion", in->shown);
+	int us = in->r->doc.sys == OW_SYS_US;
 	char val[64];
 	const char *cells[3] = {"Heat of fusion", val, src ? src : "not given"};
 
-	rpt_num(val, sizeof val,
-	        us ? J_kg * 0.45359237 / 1055.05585262 : J_kg * 1e-3, 3);
+	ow_doc_num(val, sizeof val,
+	           us ? J_kg * 0.45359237 / 1055.05585262 : J_kg * 1e-3, 3);
 	strcat(val, us ? " BTU/lb" : " kJ/kg");
-	rpt_table_row(in->r, &qvs, cells, 0);
+	ow_doc_table_row(&in->r->doc, &qvs, cells, 0);
 }
 
 static void resin(struct inputs *in)
@@ -312,8 +316,8 @@ static void resin(struct inputs *in)
 	char head[200];
 
 	snprintf(head, sizeof head, "Resin: %s", m->name);
-	rpt_subheading(in->r, head, 60.0);
-	rpt_table_head(in->r, &qvs);
+	ow_doc_subheading(&in->r->doc, head, 60.0);
+	ow_doc_table_head(&in->r->doc, &qvs);
 	qty_row(in, "Solid density", "resin.solid_density", OW_DIM_DENSITY,
 	        m->solid_density_kg_m3, 4);
 	qty_row(in, "Bulk density (hopper)", "resin.bulk_density",
@@ -336,7 +340,7 @@ static void resin(struct inputs *in)
 	qty_row(in, "Friction on the screw", "resin.friction_screw",
 	        OW_DIM_NONE, m->friction_screw, 3);
 	viscosity(in);
-	rpt_table_end(in->r);
+	ow_doc_table_end(&in->r->doc);
 }
 
 /* ---- the line -------------------------------------------------------------
@@ -353,7 +357,7 @@ static void zone_value(struct rpt *r, char *buf, size_t n, enum ow_dim dim,
 		snprintf(buf, n, "unlimited");
 		return;
 	}
-	rpt_qty(r, buf, n, dim, v, 3);
+	ow_doc_qty(&r->doc, buf, n, dim, v, 3);
 	len = strlen(buf);
 	if (defaulted && len < n)
 		snprintf(buf + len, n - len, " (typical)");
@@ -361,29 +365,30 @@ static void zone_value(struct rpt *r, char *buf, size_t n, enum ow_dim dim,
 
 static void barrel(struct inputs *in)
 {
-	struct rpt_table t = {5,
-	                      {"Barrel zone", "Set-point in the study",
-	                       "Heating power", "Cooling power",
-	                       "Control point to bore"},
-	                      {0.24, 0.19, 0.19, 0.19, 0.19},
-	                      {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT,
-	                       OW_ALIGN_LEFT, OW_ALIGN_LEFT},
-	                      RPT_SMALL_PT,
-	                      0};
+	struct ow_doc_table t = {5,
+	                         {"Barrel zone", "Set-point in the study",
+	                          "Heating power", "Cooling power",
+	                          "Control point to bore"},
+	                         {0.24, 0.19, 0.19, 0.19, 0.19},
+	                         {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT,
+	                          OW_ALIGN_LEFT, OW_ALIGN_LEFT},
+	                         OW_DOC_SMALL_PT,
+	                         0};
 	struct rpt *r = in->r;
 	const struct ow_line *l = &r->s->line;
 	char zn[48], v[48], hp[64], cp[64], hw[64];
 	int z;
 
-	rpt_subheading(r, "Barrel and feed", 60.0);
-	rpt_table_head(r, &t);
+	ow_doc_subheading(&r->doc, "Barrel and feed", 60.0);
+	ow_doc_table_head(&r->doc, &t);
 	for (z = 0; z < l->n_zones; z++) {
 		const struct ow_zone *zo = &l->zones[z];
 		const char *cells[5] = {zn, v, hp, cp, hw};
 
-		rpt_zone_name(r, z, zn, sizeof zn);
+		ow_report_zone_name(r, z, zn, sizeof zn);
 		zn[0] = 'Z';
-		rpt_qty(r, v, sizeof v, OW_DIM_TEMPERATURE, zo->set_K, 4);
+		ow_doc_qty(&r->doc, v, sizeof v, OW_DIM_TEMPERATURE, zo->set_K,
+		           4);
 		zone_value(r, hp, sizeof hp, OW_DIM_POWER, zo->heating_W,
 		           zo->defaulted & OW_ZONE_DEF_HEATING);
 		zone_value(r, cp, sizeof cp, OW_DIM_POWER, zo->cooling_W,
@@ -391,10 +396,10 @@ static void barrel(struct inputs *in)
 		zone_value(r, hw, sizeof hw, OW_DIM_HEAT_TRANSFER,
 		           zo->wall_h_W_m2K * l->heat_transfer_factor,
 		           zo->defaulted & OW_ZONE_DEF_WALL);
-		rpt_table_row(r, &t, cells, 0);
+		ow_doc_table_row(&r->doc, &t, cells, 0);
 	}
-	rpt_table_end(r);
-	rpt_table_head(r, &qvs);
+	ow_doc_table_end(&r->doc);
+	ow_doc_table_head(&r->doc, &qvs);
 	qty_row(in, "Feed temperature", "feed.temperature", OW_DIM_TEMPERATURE,
 	        l->feed_temp_K, 4);
 	if (l->root_adiabatic)
@@ -405,7 +410,7 @@ static void barrel(struct inputs *in)
 	else
 		qty_row(in, "Screw root temperature", "barrel.screw_root",
 		        OW_DIM_TEMPERATURE, l->root_temp_K, 4);
-	rpt_table_end(r);
+	ow_doc_table_end(&r->doc);
 }
 
 static void die(struct inputs *in)
@@ -417,8 +422,8 @@ static void die(struct inputs *in)
 	char key[48];
 	int i;
 
-	rpt_subheading(in->r, "Die and screen pack", 60.0);
-	rpt_table_head(in->r, &qvs);
+	ow_doc_subheading(&in->r->doc, "Die and screen pack", 60.0);
+	ow_doc_table_head(&in->r->doc, &qvs);
 	text_row(in, "Die", names[d->type], NULL);
 	for (i = 0; i < OW_DIE_FIELDS; i++)
 		if (ow_die_has(d->type, &f[i])) {
@@ -429,23 +434,23 @@ static void die(struct inputs *in)
 	qty_row(in, "Screen pack and adapter pressure drop",
 	        "screen_pack.pressure_drop", OW_DIM_PRESSURE,
 	        in->r->s->line.screen_pressure_Pa, 4);
-	rpt_table_end(in->r);
+	ow_doc_table_end(&in->r->doc);
 }
 
 static void limits(struct rpt *r)
 {
-	struct rpt_style st = rpt_body();
+	struct ow_doc_style st = ow_doc_body();
 	char text[200];
 	int c;
 
-	rpt_subheading(r, "Limits", 40.0);
-	st.size_pt = RPT_SMALL_PT;
+	ow_doc_subheading(&r->doc, "Limits", 40.0);
+	st.size_pt = OW_DOC_SMALL_PT;
 	for (c = 0; c < OW_CK_COUNT; c++)
 		if (ow_check_active(&r->s->line.limits, (enum ow_check)c))
-			rpt_bullet(r,
-			           rpt_limit_text(r, (enum ow_check)c, text,
-			                          sizeof text),
-			           &st);
+			ow_doc_bullet(&r->doc,
+			              ow_report_limit_text(r, (enum ow_check)c,
+			                                   text, sizeof text),
+			              &st);
 }
 
 static void sweep(struct rpt *r)
@@ -456,14 +461,14 @@ static void sweep(struct rpt *r)
 	const struct ow_axes *a = &r->s->line.axes;
 	enum ow_dim dim =
 	    a->mode == OW_AXIS_SHIFT ? OW_DIM_TEMP_DIFF : OW_DIM_TEMPERATURE;
-	struct rpt_style st = rpt_body();
+	struct ow_doc_style st = ow_doc_body();
 	char lo[48], hi[48], r0[32], r1[32], fine[120], text[700];
 
-	rpt_subheading(r, "Sweep", 40.0);
-	rpt_qty(r, lo, sizeof lo, dim, a->axis_from, 4);
-	rpt_qty(r, hi, sizeof hi, dim, a->axis_to, 4);
-	rpt_exact(r0, sizeof r0, a->rpm_from);
-	rpt_exact(r1, sizeof r1, a->rpm_to);
+	ow_doc_subheading(&r->doc, "Sweep", 40.0);
+	ow_doc_qty(&r->doc, lo, sizeof lo, dim, a->axis_from, 4);
+	ow_doc_qty(&r->doc, hi, sizeof hi, dim, a->axis_to, 4);
+	ow_doc_exact(r0, sizeof r0, a->rpm_from);
+	ow_doc_exact(r1, sizeof r1, a->rpm_to);
 	if (r->g->stride > 1)
 		snprintf(fine, sizeof fine,
 		         ", refined %d times finer where "
@@ -478,19 +483,19 @@ static void sweep(struct rpt *r)
 	         "all gave the same verdict.",
 	         r0, r1, modes[a->mode], lo, hi, r->g->n_rpm, r->g->n_axis,
 	         fine, r->g->solves);
-	st.size_pt = RPT_SMALL_PT;
-	rpt_para(r, text, &st, 4.0);
+	st.size_pt = OW_DOC_SMALL_PT;
+	ow_doc_para(&r->doc, text, &st, 4.0);
 }
 
 /* Every source not yet shown beside its value. */
 static void other_sources(struct inputs *in)
 {
-	struct rpt_table t = {3,
-	                      {"Input", "As written", "Source"},
-	                      {0.27, 0.19, 0.54},
-	                      {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT},
-	                      RPT_SMALL_PT,
-	                      0};
+	struct ow_doc_table t = {3,
+	                         {"Input", "As written", "Source"},
+	                         {0.27, 0.19, 0.54},
+	                         {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT},
+	                         OW_DOC_SMALL_PT,
+	                         0};
 	const struct ow_study *s = in->r->s;
 	int k, head = 0;
 
@@ -501,24 +506,24 @@ static void other_sources(struct inputs *in)
 		if (in->shown[k])
 			continue;
 		if (!head++) {
-			rpt_subheading(in->r, "Other inputs with a source",
-			               40.0);
-			rpt_table_head(in->r, &t);
+			ow_doc_subheading(&in->r->doc,
+			                  "Other inputs with a source", 40.0);
+			ow_doc_table_head(&in->r->doc, &t);
 		}
-		rpt_table_row(in->r, &t, cells, 0);
+		ow_doc_table_row(&in->r->doc, &t, cells, 0);
 	}
 	if (head)
-		rpt_table_end(in->r);
+		ow_doc_table_end(&in->r->doc);
 }
 
-void rpt_inputs(struct rpt *r)
+void ow_report_inputs(struct rpt *r)
 {
 	struct inputs in;
 
 	memset(&in, 0, sizeof in);
 	in.r = r;
-	rpt_new_page(r);
-	rpt_heading(r, "Inputs", 80.0);
+	ow_doc_new_page(&r->doc);
+	ow_doc_heading(&r->doc, "Inputs", 80.0);
 	files(r);
 	screw_main(&in);
 	sections(&in);
@@ -530,5 +535,5 @@ void rpt_inputs(struct rpt *r)
 	limits(r);
 	sweep(r);
 	other_sources(&in);
-	rpt_check(r);
+	ow_doc_check(&r->doc);
 }

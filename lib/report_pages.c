@@ -43,18 +43,18 @@ static const struct {
 
 static void caption(struct rpt *r, enum ow_map_figure f)
 {
-	struct rpt_style st = {CAPTION_PT, 0, {0.2, 0.2, 0.22, 1.0}, 0.0};
+	struct ow_doc_style st = {CAPTION_PT, 0, {0.2, 0.2, 0.22, 1.0}, 0.0};
 	char text[600], lim[200];
 	int c = captions[f].check;
 
 	snprintf(text, sizeof text, "%s", captions[f].says);
 	if (c >= 0 && ow_check_active(&r->s->line.limits, (enum ow_check)c)) {
-		rpt_limit_text(r, (enum ow_check)c, lim, sizeof lim);
+		ow_report_limit_text(r, (enum ow_check)c, lim, sizeof lim);
 		strncat(text, " Limit: ", sizeof text - strlen(text) - 1);
 		strncat(text, lim, sizeof text - strlen(text) - 1);
 		strncat(text, ".", sizeof text - strlen(text) - 1);
 	}
-	rpt_para(r, text, &st, 6.0);
+	ow_doc_para(&r->doc, text, &st, 6.0);
 }
 
 /* One map in a box h high, centred in the column, then its caption. */
@@ -63,30 +63,31 @@ static void one_map(struct rpt *r, enum ow_map_figure f, double h)
 	struct ow_maps_options mo;
 	struct ow_rect box;
 
-	if (r->st != OW_OK)
+	if (r->doc.st != OW_OK)
 		return;
-	box = rpt_map_box(r, h);
-	rpt_map_options(r, &mo);
-	r->st =
-	    ow_maps_draw_figure(r->cv, &box, f, r->s, r->g, r->w, &mo, r->d);
-	r->y += h + 4.0;
-	rpt_check(r);
+	box = ow_report_map_box(r, h);
+	ow_report_map_options(r, &mo);
+	r->doc.st =
+	    ow_maps_draw_figure(r->doc.cv, &box, f, r->m, &mo, r->doc.d);
+	r->doc.y += h + 4.0;
+	ow_doc_check(&r->doc);
 	caption(r, f);
 }
 
-void rpt_map_pages(struct rpt *r)
+void ow_report_map_pages(struct rpt *r)
 {
-	double cw = r->x1 - r->x0, room, h;
+	double cw = r->doc.x1 - r->doc.x0, room, h;
 	int f;
 
-	rpt_new_page(r);
-	rpt_heading(r, "Maps over the swept range", 300.0);
+	ow_doc_new_page(&r->doc);
+	ow_doc_heading(&r->doc, "Maps over the swept range", 300.0);
 	/* two maps and their captions (about 3 lines each) per page */
-	room = r->y1 - r->y - 2.0 * (4.0 + 4.0 * CAPTION_PT * RPT_LINE + 6.0);
+	room = r->doc.y1 - r->doc.y -
+	       2.0 * (4.0 + 4.0 * CAPTION_PT * OW_DOC_LINE + 6.0);
 	h = fmin(cw / MAP_ASPECT, room / 2.0);
-	for (f = 0; f < OW_MAP_COUNT && r->st == OW_OK; f++) {
+	for (f = 0; f < OW_MAP_COUNT && r->doc.st == OW_OK; f++) {
 		if (f && f % 2 == 0)
-			rpt_new_page(r);
+			ow_doc_new_page(&r->doc);
 		one_map(r, (enum ow_map_figure)f, h);
 	}
 }
@@ -101,35 +102,35 @@ static void centre_words(struct rpt *r, char *buf, size_t n)
 	                       OW_REPORT_RPM_DECIMALS, OW_ROUND_NEAREST);
 	ow_report_format_bound(
 	    set, sizeof set,
-	    rpt_shown(r, OW_DIM_TEMPERATURE, r->w->centre_set_K),
+	    ow_doc_shown(&r->doc, OW_DIM_TEMPERATURE, r->w->centre_set_K),
 	    OW_REPORT_TEMP_DECIMALS, OW_ROUND_NEAREST);
 	snprintf(buf, n, "centre: %s rpm, %s at %s %s", rpm,
-	         rpt_zone_name(r, ow_line_reference_zone(&r->s->line), zn,
-	                       sizeof zn),
-	         set, rpt_unit(r, OW_DIM_TEMPERATURE));
+	         ow_report_zone_name(r, ow_line_reference_zone(&r->s->line), zn,
+	                             sizeof zn),
+	         set, ow_doc_unit(&r->doc, OW_DIM_TEMPERATURE));
 }
 
-void rpt_profile_page(struct rpt *r)
+void ow_report_profile_page(struct rpt *r)
 {
-	struct rpt_style st = rpt_body();
+	struct ow_doc_style st = ow_doc_body();
 	struct ow_maps_options mo;
 	struct ow_rect box;
 	char sub[160], text[600];
 
-	if (r->st != OW_OK)
+	if (r->doc.st != OW_OK)
 		return;
-	if (r->w->empty || !r->o->profile || r->o->n_profile < 2) {
-		rpt_heading(r, "Along the screw", 40.0);
-		rpt_para(r,
-		         r->w->empty
-		             ? "No profile: the window is empty, so "
-		               "there is no centre point to show."
-		             : "No profile was computed for this report.",
-		         &st, 4.0);
+	if (r->w->empty || !r->m->profile || r->m->n_profile < 2) {
+		ow_doc_heading(&r->doc, "Along the screw", 40.0);
+		ow_doc_para(&r->doc,
+		            r->w->empty
+		                ? "No profile: the window is empty, so "
+		                  "there is no centre point to show."
+		                : "No profile was computed for this report.",
+		            &st, 4.0);
 		return;
 	}
-	rpt_new_page(r);
-	rpt_heading(r, "Along the screw at the centre point", 400.0);
+	ow_doc_new_page(&r->doc);
+	ow_doc_heading(&r->doc, "Along the screw at the centre point", 400.0);
 	centre_words(r, sub, sizeof sub);
 	snprintf(text, sizeof text,
 	         "Computed at the window's %s. From the "
@@ -138,14 +139,14 @@ void rpt_profile_page(struct rpt *r)
 	         "the channel width) and unmelted fraction; the screw's "
 	         "sections are drawn under the axis.",
 	         sub);
-	rpt_para(r, text, &st, 6.0);
-	box.x = r->x0;
-	box.y = r->y;
-	box.w = r->x1 - r->x0;
-	box.h = fmin(r->y1 - r->y, box.w * 1.25);
-	rpt_map_options(r, &mo);
-	r->st = ow_maps_draw_profile(r->cv, &box, r->s, r->o->profile,
-	                             r->o->n_profile, sub, &mo, r->d);
-	r->y = box.y + box.h;
-	rpt_check(r);
+	ow_doc_para(&r->doc, text, &st, 6.0);
+	box.x = r->doc.x0;
+	box.y = r->doc.y;
+	box.w = r->doc.x1 - r->doc.x0;
+	box.h = fmin(r->doc.y1 - r->doc.y, box.w * 1.25);
+	ow_report_map_options(r, &mo);
+	r->doc.st = ow_maps_draw_profile(r->doc.cv, &box, r->s, r->m->profile,
+	                                 r->m->n_profile, sub, &mo, r->doc.d);
+	r->doc.y = box.y + box.h;
+	ow_doc_check(&r->doc);
 }

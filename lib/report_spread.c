@@ -9,7 +9,7 @@
 #include <stdio.h>
 #include <string.h>
 
-#include "ow_spread_out.h"
+#include "ow_spread.h"
 
 #define MAP_ASPECT (OW_MAPS_WIDTH_PT / OW_MAPS_HEIGHT_PT)
 
@@ -22,45 +22,45 @@ static void input_range(struct rpt *r, const struct ow_spread_input *in,
 
 	ow_spread_extent(in, &lo, &hi);
 	if (in->kind == OW_SK_MELTING || in->kind == OW_SK_FEED_TEMP) {
-		rpt_qty(r, a, sizeof a, OW_DIM_TEMP_DIFF, lo, 3);
-		rpt_qty(r, b, sizeof b, OW_DIM_TEMP_DIFF, hi, 3);
+		ow_doc_qty(&r->doc, a, sizeof a, OW_DIM_TEMP_DIFF, lo, 3);
+		ow_doc_qty(&r->doc, b, sizeof b, OW_DIM_TEMP_DIFF, hi, 3);
 		snprintf(buf, n, "shift %s to %s", a, b);
 	} else if (in->kind == OW_SK_CLEARANCE) {
-		rpt_qty(r, a, sizeof a, OW_DIM_LENGTH, lo, 3);
-		rpt_qty(r, b, sizeof b, OW_DIM_LENGTH, hi, 3);
+		ow_doc_qty(&r->doc, a, sizeof a, OW_DIM_LENGTH, lo, 3);
+		ow_doc_qty(&r->doc, b, sizeof b, OW_DIM_LENGTH, hi, 3);
 		snprintf(buf, n, "%s to %s", a, b);
 	} else {
-		snprintf(buf, n, "x %s to x %s", rpt_num(a, sizeof a, lo, 3),
-			 rpt_num(b, sizeof b, hi, 3));
+		snprintf(buf, n, "x %s to x %s", ow_doc_num(a, sizeof a, lo, 3),
+		         ow_doc_num(b, sizeof b, hi, 3));
 	}
 }
 
 static void inputs_table(struct rpt *r)
 {
 	const struct ow_spread *sp = &r->s->spread;
-	struct rpt_table t = {3,
-			      {"input", "distribution", "range"},
-			      {0.4, 0.25, 0.35},
-			      {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT},
-			      RPT_SMALL_PT,
-			      1};
+	struct ow_doc_table t = {3,
+	                         {"input", "distribution", "range"},
+	                         {0.4, 0.25, 0.35},
+	                         {OW_ALIGN_LEFT, OW_ALIGN_LEFT, OW_ALIGN_LEFT},
+	                         OW_DOC_SMALL_PT,
+	                         1};
 	char range[128], dist[64];
 	int i;
 
-	rpt_table_head(r, &t);
-	for (i = 0; i < sp->n && r->st == OW_OK; i++) {
+	ow_doc_table_head(&r->doc, &t);
+	for (i = 0; i < sp->n && r->doc.st == OW_OK; i++) {
 		const char *cells[3] = {sp->in[i].name, dist, range};
 
 		input_range(r, &sp->in[i], range, sizeof range);
 		snprintf(dist, sizeof dist, "%s",
 			 sp->in[i].normal ? "normal, cut at 3 sd" : "uniform");
-		rpt_table_row(r, &t, cells, 0);
+		ow_doc_table_row(&r->doc, &t, cells, 0);
 	}
-	rpt_table_end(r);
+	ow_doc_table_end(&r->doc);
 }
 
-static void window_row(struct rpt *r, const struct rpt_table *t,
-		       const char *name, const struct ow_window *w)
+static void window_row(struct rpt *r, const struct ow_doc_table *t,
+                       const char *name, const struct ow_window *w)
 {
 	char rpm[3][32], set[3][32], share[32], a[72], b[72];
 	const char *cells[4] = {name, a, b, share};
@@ -69,42 +69,42 @@ static void window_row(struct rpt *r, const struct rpt_table *t,
 	if (w->empty) {
 		cells[1] = cells[2] = "empty";
 	} else {
-		rpt_range(r, OW_DIM_ROT_SPEED, w->rpm_min, w->rpm_max, NAN,
-			  OW_REPORT_RPM_DECIMALS, rpm);
-		rpt_range(r, OW_DIM_TEMPERATURE, w->set_min_K, w->set_max_K,
-			  NAN, OW_REPORT_TEMP_DECIMALS, set);
+		ow_report_range(r, OW_DIM_ROT_SPEED, w->rpm_min, w->rpm_max,
+		                NAN, OW_REPORT_RPM_DECIMALS, rpm);
+		ow_report_range(r, OW_DIM_TEMPERATURE, w->set_min_K,
+		                w->set_max_K, NAN, OW_REPORT_TEMP_DECIMALS,
+		                set);
 		snprintf(a, sizeof a, "%s – %s %s", rpm[0], rpm[1],
-			 rpt_unit(r, OW_DIM_ROT_SPEED));
+		         ow_doc_unit(&r->doc, OW_DIM_ROT_SPEED));
 		snprintf(b, sizeof b, "%s – %s %s", set[0], set[1],
-			 rpt_unit(r, OW_DIM_TEMPERATURE));
+		         ow_doc_unit(&r->doc, OW_DIM_TEMPERATURE));
 	}
-	rpt_table_row(r, t, cells, 0);
+	ow_doc_table_row(&r->doc, t, cells, 0);
 }
 
 static void windows_table(struct rpt *r)
 {
-	struct rpt_table t = {4,
-			      {"window", "screw speed", "axis set-point",
-			       "share of the map"},
-			      {0.3, 0.25, 0.25, 0.2},
-			      {OW_ALIGN_LEFT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT,
-			       OW_ALIGN_RIGHT},
-			      RPT_SMALL_PT,
-			      1};
+	struct ow_doc_table t = {
+	    4,
+	    {"window", "screw speed", "axis set-point", "share of the map"},
+	    {0.3, 0.25, 0.25, 0.2},
+	    {OW_ALIGN_LEFT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT, OW_ALIGN_RIGHT},
+	    OW_DOC_SMALL_PT,
+	    1};
 	char name[64];
 
 	snprintf(name, sizeof name, "robust (%.0f %% of samples safe)",
-		 100.0 * r->o->spread->level);
-	rpt_table_head(r, &t);
+		 100.0 * r->m->spread->level);
+	ow_doc_table_head(&r->doc, &t);
 	window_row(r, &t, "nominal", r->w);
-	window_row(r, &t, name, r->o->robust);
-	rpt_table_end(r);
+	window_row(r, &t, name, r->m->robust);
+	ow_doc_table_end(&r->doc);
 }
 
 static void ranking_words(struct rpt *r)
 {
-	const struct ow_spread_result *res = r->o->spread;
-	struct rpt_style st = rpt_body();
+	const struct ow_spread_result *res = r->m->spread;
+	struct ow_doc_style st = ow_doc_body();
 	char text[1200];
 	size_t used;
 	int i;
@@ -128,36 +128,36 @@ static void ranking_words(struct rpt *r)
 			 " none moves it within the sampled range.");
 	else if (used < sizeof text)
 		snprintf(text + used, sizeof text - used, ".");
-	rpt_para(r, text, &st, 6.0);
+	ow_doc_para(&r->doc, text, &st, 6.0);
 }
 
 static void share_map(struct rpt *r)
 {
 	struct ow_maps_options mo;
-	double cw = r->x1 - r->x0, h = fmin(cw / MAP_ASPECT, 300.0);
+	double cw = r->doc.x1 - r->doc.x0, h = fmin(cw / MAP_ASPECT, 300.0);
 	struct ow_rect box;
 
-	rpt_need(r, h);
-	if (r->st != OW_OK)
+	ow_doc_need(&r->doc, h);
+	if (r->doc.st != OW_OK)
 		return;
-	box = rpt_map_box(r, h);
-	rpt_map_options(r, &mo);
-	r->st = ow_maps_draw_share(r->cv, &box, r->s, r->g, r->w,
-				   r->o->robust, r->o->spread, &mo, r->d);
-	r->y += h + 6.0;
-	rpt_check(r);
+	box = ow_report_map_box(r, h);
+	ow_report_map_options(r, &mo);
+	r->doc.st = ow_maps_draw_share(r->doc.cv, &box, r->m, &mo, r->doc.d);
+	r->doc.y += h + 6.0;
+	ow_doc_check(&r->doc);
 }
 
-void rpt_spread_page(struct rpt *r)
+void ow_report_spread_page(struct rpt *r)
 {
-	const struct ow_spread_result *res = r->o->spread;
-	struct rpt_style st = rpt_body();
+	const struct ow_spread_result *res = r->m->spread;
+	struct ow_doc_style st = ow_doc_body();
 	char text[900];
 
-	if (!res || !r->o->robust || r->st != OW_OK)
+	if (!res || !r->m->robust || r->doc.st != OW_OK)
 		return;
-	rpt_new_page(r);
-	rpt_heading(r, "The window across the spread of the inputs", 200.0);
+	ow_doc_new_page(&r->doc);
+	ow_doc_heading(&r->doc, "The window across the spread of the inputs",
+	               200.0);
 	snprintf(text, sizeof text,
 		 "Each grid point was solved again for %d samples of the "
 		 "inputs below (a Latin hypercube, seed %lu: the same seed "
@@ -168,16 +168,17 @@ void rpt_spread_page(struct rpt *r)
 		 "safe at every point.",
 		 res->samples, res->seed, res->solves_saved,
 		 res->solves_saved + res->solves, 100.0 * res->level);
-	rpt_para(r, text, &st, 6.0);
+	ow_doc_para(&r->doc, text, &st, 6.0);
 	inputs_table(r);
 	windows_table(r);
 	ranking_words(r);
 	share_map(r);
-	rpt_para(r,
-		 "Caution: the samples cover only the inputs listed, over the "
-		 "ranges stated; a resin lot, a worn screw or a season outside "
-		 "them can move the limits further. Hot melt and head "
-		 "pressure can injure: confirm a new setting on the line with "
-		 "the pressure and temperature alarms armed.",
-		 &st, 6.0);
+	ow_doc_para(
+	    &r->doc,
+	    "Caution: the samples cover only the inputs listed, over the "
+	    "ranges stated; a resin lot, a worn screw or a season outside "
+	    "them can move the limits further. Hot melt and head "
+	    "pressure can injure: confirm a new setting on the line with "
+	    "the pressure and temperature alarms armed.",
+	    &st, 6.0);
 }

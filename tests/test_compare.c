@@ -154,8 +154,8 @@ static void check_common_inside_both(const struct ow_compare *cmp)
 	assert_false(w->empty);
 	for (ia = 0; ia < cmp->n_axis; ia++)
 		for (ir = 0; ir < cmp->n_rpm; ir++) {
-			int in = safe(cmp->grid[0], ir, ia) &&
-			         safe(cmp->grid[1], ir, ia);
+			int in = safe(cmp->map[0]->grid, ir, ia) &&
+			         safe(cmp->map[1]->grid, ir, ia);
 
 			assert_int_equal(safe(cmp->common_grid[0], ir, ia), in);
 			both += in;
@@ -167,8 +167,8 @@ static void check_common_inside_both(const struct ow_compare *cmp)
 				assert_true(in);
 		}
 	assert_int_equal(both, cmp->count[OW_CMP_BOTH]);
-	assert_true(w->safe_fraction <= cmp->win[0]->safe_fraction);
-	assert_true(w->safe_fraction <= cmp->win[1]->safe_fraction);
+	assert_true(w->safe_fraction <= cmp->map[0]->window->safe_fraction);
+	assert_true(w->safe_fraction <= cmp->map[1]->window->safe_fraction);
 }
 
 static void common_window_lies_inside_both_safe_sets(void **state)
@@ -217,12 +217,13 @@ static void worn_screw_gives_less_output_and_another_window(void **state)
 {
 	struct ow_study *a = ow_test_study(FAST), *b = ow_test_study(WORN);
 	struct ow_compare *cmp = run(a, b, 0);
-	const struct ow_window *wa = cmp->win[0], *wb = cmp->win[1];
+	const struct ow_window *wa = cmp->map[0]->window;
+	const struct ow_window *wb = cmp->map[1]->window;
 	int i, n = cmp->n_rpm * cmp->n_axis, moved;
 	(void)state;
 	for (i = 0; i < n; i++) {
-		const struct ow_grid_point *p = &cmp->grid[0]->pts[i];
-		const struct ow_grid_point *q = &cmp->grid[1]->pts[i];
+		const struct ow_grid_point *p = &cmp->map[0]->grid->pts[i];
+		const struct ow_grid_point *q = &cmp->map[1]->grid->pts[i];
 
 		assert_abs(p->rpm, q->rpm, 0.0);
 		assert_true(q->pt.output_kg_s < p->pt.output_kg_s);
@@ -271,7 +272,8 @@ static void centre_figures_are_those_of_a_single_solve(void **state)
 	}
 	assert_abs(cmp->at[OW_CMP_AT_COMMON].rpm, cmp->common[0]->centre.rpm,
 	           0.0);
-	assert_abs(cmp->at[OW_CMP_AT_B].axis, cmp->win[1]->centre.axis, 0.0);
+	assert_abs(cmp->at[OW_CMP_AT_B].axis, cmp->map[1]->window->centre.axis,
+	           0.0);
 	ow_compare_destroy(cmp);
 	free(a);
 	free(b);
@@ -285,7 +287,7 @@ static void empty_windows_have_no_centre_points(void **state)
 	(void)state;
 	b->line.limits.pressure_Pa = 1e3; /* no point builds under 1 kPa */
 	cmp = run(a, b, 0);
-	assert_true(cmp->win[1]->empty);
+	assert_true(cmp->map[1]->window->empty);
 	assert_true(cmp->common[0]->empty);
 	assert_false(cmp->at[OW_CMP_AT_COMMON].valid);
 	assert_false(cmp->at[OW_CMP_AT_B].valid);

@@ -16,6 +16,7 @@
 
 #include "ow_config.h"
 #include "ow_io.h"
+#include "ow_map.h"
 #include "ow_maps.h"
 #include "ow_sweep.h"
 #include "ow_window.h"
@@ -25,6 +26,7 @@ struct fix {
 	struct ow_study s;
 	struct ow_grid *g;
 	struct ow_window *w;
+	struct ow_map m; /* a view of s, g, w and the centre's profile */
 	char dir[64];
 };
 
@@ -46,8 +48,14 @@ static int setup(void **state)
 	c.axis_steps = 7;
 	c.refine = 1;
 	if (ow_sweep_run(&f->s, &c, &f->g, &d) != OW_OK ||
-	    ow_window_extract(&f->s, f->g, &f->w, &d) != OW_OK)
+	    ow_window_extract(&f->s, f->g, &f->w, &d) != OW_OK ||
+	    ow_map_centre(&f->s, f->w, &f->m.profile, &f->m.n_profile,
+	                  &f->m.centre, &d) != OW_OK)
 		goto fail;
+	f->m.study = &f->s;
+	f->m.grid = f->g;
+	f->m.window = f->w;
+	f->m.has_centre = 1;
 	snprintf(f->dir, sizeof f->dir, "/tmp/ow_maps_XXXXXX");
 	if (!mkdtemp(f->dir))
 		goto fail;
@@ -67,6 +75,7 @@ static int teardown(void **state)
 	snprintf(cmd, sizeof cmd, "rm -rf %s", f->dir);
 	if (system(cmd) != 0)
 		fprintf(stderr, "could not remove %s\n", f->dir);
+	free(f->m.profile);
 	ow_window_destroy(f->w);
 	ow_grid_destroy(f->g);
 	ow_units_destroy(f->u);
@@ -121,10 +130,10 @@ static void maps_write_every_image_at_900_by_650(void **state)
 	ow_maps_default(&o);
 	assert_false(f->w->empty);
 	t0 = seconds();
-	assert_int_equal(ow_maps_write_all(&f->s, f->g, f->w, &o, f->dir, &d),
+	assert_int_equal(ow_maps_write_all(&f->m, &o, f->dir, &d),
 	                 OW_OK);
 	t1 = seconds();
-	print_message("maps: 7 PNG + 7 SVG (centre point solved) in %.3f s\n",
+	print_message("maps: 7 PNG + 7 SVG in %.3f s\n",
 	              t1 - t0);
 	for (k = 0; k < sizeof stems / sizeof stems[0]; k++) {
 		char name[64];
@@ -159,9 +168,9 @@ static void maps_same_inputs_give_byte_identical_pngs(void **state)
 	o.svg = 0;
 	snprintf(dir2, sizeof dir2, "%s/again", f->dir);
 	assert_int_equal(mkdir(dir2, 0755), 0);
-	assert_int_equal(ow_maps_write_all(&f->s, f->g, f->w, &o, f->dir, NULL),
+	assert_int_equal(ow_maps_write_all(&f->m, &o, f->dir, NULL),
 	                 OW_OK);
-	assert_int_equal(ow_maps_write_all(&f->s, f->g, f->w, &o, dir2, NULL),
+	assert_int_equal(ow_maps_write_all(&f->m, &o, dir2, NULL),
 	                 OW_OK);
 	for (k = 0; k < 3; k++) {
 		size_t na = 0, nb = 0;
@@ -177,20 +186,22 @@ static void maps_same_inputs_give_byte_identical_pngs(void **state)
 	}
 }
 
-static char *draw_svg(struct fix *f, const struct ow_window *w,
+static char *draw_svg(struct fix *f, struct ow_window *w,
                       const struct ow_maps_options *o)
 {
 	struct ow_canvas *cv = NULL;
 	struct ow_rect box = {0, 0, OW_MAPS_WIDTH_PT, OW_MAPS_HEIGHT_PT};
 	struct ow_diag d = {{0}};
+	struct ow_map m = f->m;
 	unsigned char *b = NULL;
 	size_t n = 0;
 	char *s;
 
+	m.window = w;
 	assert_int_equal(
 	    ow_canvas_create_image(OW_CANVAS_SVG, box.w, box.h, 1.0, &cv, NULL),
 	    OW_OK);
-	assert_int_equal(ow_maps_draw_window(cv, &box, &f->s, f->g, w, o, &d),
+	assert_int_equal(ow_maps_draw_window(cv, &box, &m, o, &d),
 	                 OW_OK);
 	assert_int_equal(ow_canvas_encode(cv, &b, &n, NULL), OW_OK);
 	ow_canvas_destroy(cv);
@@ -288,7 +299,7 @@ static void maps_unsafe_region_is_hatched_and_safe_region_clear(void **state)
 	    ow_canvas_create_image(OW_CANVAS_SVG, box.w, box.h, 1.0, &cv, NULL),
 	    OW_OK);
 	assert_int_equal(
-	    ow_maps_window_frame(cv, &box, &f->s, f->g, f->w, &o, &p, NULL),
+	    ow_maps_window_frame(cv, &box, &f->m, &o, &p, NULL),
 	    OW_OK);
 	ow_canvas_destroy(cv);
 	s = png_file(f->dir, "window.png");
@@ -376,7 +387,7 @@ static void maps_profile_shows_the_screw_sections(void **state)
 	char *svg;
 
 	assert_int_equal(
-	    ow_maps_centre_profile(&f->s, f->w, &rows, &m, NULL, NULL), OW_OK);
+	    ow_map_centre(&f->s, f->w, &rows, &m, NULL, NULL), OW_OK);
 	assert_true(m > 20);
 	assert_abs(rows[m - 1].axial_m / f->s.screw.diameter_m, 30.0, 0.5);
 	assert_int_equal(

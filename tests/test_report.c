@@ -28,15 +28,12 @@ struct fx {
 	char *text;   /* its pdftotext, whitespace runs made one space */
 };
 
-static void options(const struct fx *f, struct ow_report_options *o)
+static void options(struct ow_report_options *o)
 {
 	ow_report_default(o);
 	o->date = "2026-03-14";
 	o->revision = "C-7";
 	o->prepared_by = "A. Engineer";
-	o->centre_point = &f->m.centre;
-	o->profile = f->m.rows;
-	o->n_profile = f->m.n_rows;
 }
 
 static void write_report(const struct fx *f, const struct ow_report_options *o,
@@ -44,7 +41,7 @@ static void write_report(const struct fx *f, const struct ow_report_options *o,
 {
 	struct ow_diag d = {{0}};
 	enum ow_status st =
-	    ow_report_write(f->m.s, f->m.g, f->m.w, o, path, &d);
+	    ow_report_write(&f->m.map, o, path, &d);
 
 	if (st != OW_OK)
 		fprintf(stderr, "%s\n", d.msg);
@@ -61,7 +58,7 @@ static int setup(void **state)
 	strcpy(f->dir, "/tmp/test_report.XXXXXX");
 	assert_non_null(mkdtemp(f->dir));
 	snprintf(f->pdf, sizeof f->pdf, "%s/report.pdf", f->dir);
-	options(f, &o);
+	options(&o);
 	o.has_current = 1;
 	o.current_rpm = f->m.w->centre.rpm;
 	o.current_set_K = f->m.w->centre_set_K;
@@ -246,7 +243,7 @@ static void report_comes_in_a4_and_letter(void **state)
 	ow_test_pdf_pages(f->pdf, size, sizeof size);
 	/* ISO 216: 210 x 297 mm = 595.276 x 841.89 pt */
 	assert_non_null(strstr(size, "595.276 x 841.89 pts (A4)"));
-	options(f, &o);
+	options(&o);
 	o.paper = OW_PAPER_LETTER;
 	o.units = OW_SYS_US;
 	snprintf(path, sizeof path, "%s/letter.pdf", f->dir);
@@ -262,7 +259,7 @@ static void report_is_the_same_bytes_for_the_same_inputs(void **state)
 	struct ow_report_options o;
 	char a[128], b[128], cmd[300];
 
-	options(f, &o);
+	options(&o);
 	snprintf(a, sizeof a, "%s/a.pdf", f->dir);
 	snprintf(b, sizeof b, "%s/b.pdf", f->dir);
 	write_report(f, &o, a);
@@ -278,9 +275,9 @@ static void report_leaves_nothing_when_the_folder_is_missing(void **state)
 	struct ow_diag d = {{0}};
 	char path[128];
 
-	options(f, &o);
+	options(&o);
 	snprintf(path, sizeof path, "%s/missing/report.pdf", f->dir);
-	assert_int_equal(ow_report_write(f->m.s, f->m.g, f->m.w, &o, path, &d),
+	assert_int_equal(ow_report_write(&f->m.map, &o, path, &d),
 	                 OW_EIO);
 	assert_non_null(strstr(d.msg, path));
 	snprintf(path, sizeof path, "%s/missing", f->dir);
@@ -293,11 +290,11 @@ static void report_refuses_a_malformed_date(void **state)
 	struct ow_report_options o;
 	char path[128];
 
-	options(f, &o);
+	options(&o);
 	o.date = "14/03/2026";
 	snprintf(path, sizeof path, "%s/dated.pdf", f->dir);
 	assert_int_equal(
-	    ow_report_write(f->m.s, f->m.g, f->m.w, &o, path, NULL), OW_EARG);
+	    ow_report_write(&f->m.map, &o, path, NULL), OW_EARG);
 	assert_int_equal(access(path, F_OK), -1);
 }
 
@@ -309,6 +306,7 @@ static void report_says_plainly_when_no_point_is_safe(void **state)
 	struct ow_study *s = malloc(sizeof *s);
 	struct ow_grid g = *f->m.g;
 	struct ow_window *w = NULL;
+	struct ow_map m = {0};
 	struct ow_report_options o;
 	char path[128], *text;
 	int i;
@@ -326,7 +324,8 @@ static void report_says_plainly_when_no_point_is_safe(void **state)
 	ow_report_default(&o);
 	o.date = "2026-03-14";
 	snprintf(path, sizeof path, "%s/empty.pdf", f->dir);
-	assert_int_equal(ow_report_write(s, &g, w, &o, path, NULL), OW_OK);
+	m.study = s, m.grid = &g, m.window = w;
+	assert_int_equal(ow_report_write(&m, &o, path, NULL), OW_OK);
 	text = ow_test_pdf_text(path);
 	contains(text, "No safe operating point exists in the swept range.");
 	/* the binding limit first, with every point failing it */

@@ -49,6 +49,13 @@ void ow_test_map_make(struct ow_test_map *m, int rpm_steps, int axis_steps,
 	assert_int_equal(ow_window_extract(m->s, m->g, &m->w, &d), OW_OK);
 	assert_false(m->w->empty); /* the demo line has a window */
 	centre_profile(m);
+	m->map.study = m->s;
+	m->map.grid = m->g;
+	m->map.window = m->w;
+	m->map.has_centre = 1;
+	m->map.centre = m->centre;
+	m->map.profile = m->rows;
+	m->map.n_profile = m->n_rows;
 }
 
 void ow_test_map_free(struct ow_test_map *m)

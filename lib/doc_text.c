@@ -1,7 +1,7 @@
-/* report_text.c - flowing text for the report: wrapped paragraphs,
+/* doc_text.c - flowing text for both PDF documents: wrapped paragraphs,
  * bullets, headings and tables that break across pages, and numbers in
  * the reader's units. */
-#include "report_impl.h"
+#include "doc_impl.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -10,14 +10,16 @@
 
 #define MINUS "\xE2\x88\x92" /* U+2212 */
 
-struct rpt_style rpt_body(void)
+struct ow_doc_style ow_doc_body(void)
 {
-	struct rpt_style s = {RPT_BODY_PT, 0, {0.08, 0.08, 0.10, 1.0}, 0.0};
+	struct ow_doc_style s = {
+	    OW_DOC_BODY_PT, 0, {0.08, 0.08, 0.10, 1.0}, 0.0};
 
 	return s;
 }
 
-double rpt_text_width(struct rpt *r, const char *utf8, double size_pt, int bold)
+double ow_doc_text_width(struct ow_doc *r, const char *utf8, double size_pt,
+                         int bold)
 {
 	if (!r->cv)
 		return 0.0;
@@ -39,7 +41,7 @@ static size_t char_len(const char *s)
 
 /* Longest prefix of word (len bytes) that fits width; at least one
  * character. */
-static size_t fit_prefix(struct rpt *r, const char *word, size_t len,
+static size_t fit_prefix(struct ow_doc *r, const char *word, size_t len,
                          double width, double size, int bold, char *tmp)
 {
 	size_t k = 0, next;
@@ -50,7 +52,7 @@ static size_t fit_prefix(struct rpt *r, const char *word, size_t len,
 			return k ? k : len;
 		memcpy(tmp, word, next);
 		tmp[next] = '\0';
-		if (k && rpt_text_width(r, tmp, size, bold) > width)
+		if (k && ow_doc_text_width(r, tmp, size, bold) > width)
 			return k;
 		k = next;
 	}
@@ -93,7 +95,7 @@ static void wrap_put(struct wrap *w, const char *text, size_t len)
 }
 
 /* Would the current line plus word still fit? */
-static int fits(struct rpt *r, struct wrap *w, const char *word, size_t len,
+static int fits(struct ow_doc *r, struct wrap *w, const char *word, size_t len,
                 double width, double size, int bold)
 {
 	char tmp[1024];
@@ -103,19 +105,19 @@ static int fits(struct rpt *r, struct wrap *w, const char *word, size_t len,
 		return 1;
 	k = snprintf(tmp, sizeof tmp, "%s %.*s", w->cur, (int)len, word);
 	return k < (int)sizeof tmp &&
-	       rpt_text_width(r, tmp, size, bold) <= width;
+	       ow_doc_text_width(r, tmp, size, bold) <= width;
 }
 
 /* Width of the first len bytes of word. */
-static double span_width(struct rpt *r, const char *word, size_t len,
+static double span_width(struct ow_doc *r, const char *word, size_t len,
                          double size, int bold, char *tmp)
 {
 	memcpy(tmp, word, len);
 	tmp[len] = '\0';
-	return rpt_text_width(r, tmp, size, bold);
+	return ow_doc_text_width(r, tmp, size, bold);
 }
 
-static void wrap_word(struct rpt *r, struct wrap *w, const char *word,
+static void wrap_word(struct ow_doc *r, struct wrap *w, const char *word,
                       size_t len, double width, double size, int bold)
 {
 	char tmp[1024];
@@ -138,8 +140,9 @@ static void wrap_word(struct rpt *r, struct wrap *w, const char *word,
 		wrap_put(w, word, len);
 }
 
-int rpt_wrap(struct rpt *r, const char *utf8, double width, double size_pt,
-             int bold, char *buf, size_t n, const char **lines, int max)
+int ow_doc_wrap(struct ow_doc *r, const char *utf8, double width,
+                double size_pt, int bold, char *buf, size_t n,
+                const char **lines, int max)
 {
 	struct wrap w = {buf, n, 0, lines, max, 0, NULL};
 	const char *p = utf8 ? utf8 : "";
@@ -166,8 +169,8 @@ int rpt_wrap(struct rpt *r, const char *utf8, double width, double size_pt,
 	return w.count;
 }
 
-static void draw_line(struct rpt *r, double x, double y, const char *text,
-                      const struct rpt_style *st)
+static void draw_line(struct ow_doc *r, double x, double y, const char *text,
+                      const struct ow_doc_style *st)
 {
 	ow_canvas_set_colour(r->cv, st->colour);
 	ow_canvas_set_font(r->cv, st->size_pt, st->bold);
@@ -176,27 +179,27 @@ static void draw_line(struct rpt *r, double x, double y, const char *text,
 }
 
 /* Lines of a wrapped text at x, breaking pages between lines. */
-static void flow(struct rpt *r, const char *utf8, double x, double width,
-                 const struct rpt_style *st)
+static void flow(struct ow_doc *r, const char *utf8, double x, double width,
+                 const struct ow_doc_style *st)
 {
 	char buf[4096];
 	const char *lines[96];
-	double lh = st->size_pt * RPT_LINE;
+	double lh = st->size_pt * OW_DOC_LINE;
 	int n, k;
 
 	if (r->st != OW_OK)
 		return;
-	n = rpt_wrap(r, utf8, width, st->size_pt, st->bold, buf, sizeof buf,
-	             lines, 96);
+	n = ow_doc_wrap(r, utf8, width, st->size_pt, st->bold, buf, sizeof buf,
+	                lines, 96);
 	for (k = 0; k < n && r->st == OW_OK; k++) {
-		rpt_need(r, lh);
+		ow_doc_need(r, lh);
 		draw_line(r, x, r->y + st->size_pt, lines[k], st);
 		r->y += lh;
 	}
 }
 
-void rpt_para(struct rpt *r, const char *utf8, const struct rpt_style *st,
-              double after_pt)
+void ow_doc_para(struct ow_doc *r, const char *utf8,
+                 const struct ow_doc_style *st, double after_pt)
 {
 	double x = r->x0 + st->indent_pt;
 
@@ -204,13 +207,14 @@ void rpt_para(struct rpt *r, const char *utf8, const struct rpt_style *st,
 	r->y += after_pt;
 }
 
-void rpt_bullet(struct rpt *r, const char *utf8, const struct rpt_style *st)
+void ow_doc_bullet(struct ow_doc *r, const char *utf8,
+                   const struct ow_doc_style *st)
 {
-	double x = r->x0 + st->indent_pt, lh = st->size_pt * RPT_LINE;
+	double x = r->x0 + st->indent_pt, lh = st->size_pt * OW_DOC_LINE;
 
 	if (r->st != OW_OK)
 		return;
-	rpt_need(r, lh);
+	ow_doc_need(r, lh);
 	ow_canvas_set_colour(r->cv, st->colour);
 	ow_canvas_circle(r->cv, x + 3.0, r->y + st->size_pt * 0.62, 1.5);
 	ow_canvas_fill(r->cv);
@@ -218,18 +222,18 @@ void rpt_bullet(struct rpt *r, const char *utf8, const struct rpt_style *st)
 	r->y += st->size_pt * 0.35;
 }
 
-void rpt_heading(struct rpt *r, const char *utf8, double min_follow_pt)
+void ow_doc_heading(struct ow_doc *r, const char *utf8, double min_follow_pt)
 {
-	struct rpt_style st = {12.5, 1, rpt_ink(), 0.0};
+	struct ow_doc_style st = {12.5, 1, ow_doc_ink(), 0.0};
 
 	if (r->st != OW_OK)
 		return;
 	if (r->y > r->y0)
 		r->y += 10.0;
-	rpt_need(r, 26.0 + min_follow_pt);
+	ow_doc_need(r, 26.0 + min_follow_pt);
 	draw_line(r, r->x0, r->y + 12.5, utf8, &st);
 	r->y += 18.5;
-	ow_canvas_set_colour(r->cv, rpt_grey(0.35));
+	ow_canvas_set_colour(r->cv, ow_doc_grey(0.35));
 	ow_canvas_set_line_width(r->cv, 0.8);
 	ow_canvas_move_to(r->cv, r->x0, r->y);
 	ow_canvas_line_to(r->cv, r->x1, r->y);
@@ -237,14 +241,14 @@ void rpt_heading(struct rpt *r, const char *utf8, double min_follow_pt)
 	r->y += 8.0;
 }
 
-void rpt_subheading(struct rpt *r, const char *utf8, double min_follow_pt)
+void ow_doc_subheading(struct ow_doc *r, const char *utf8, double min_follow_pt)
 {
-	struct rpt_style st = {10.0, 1, rpt_ink(), 0.0};
+	struct ow_doc_style st = {10.0, 1, ow_doc_ink(), 0.0};
 
 	if (r->st != OW_OK)
 		return;
 	r->y += 5.0;
-	rpt_need(r, 16.0 + min_follow_pt);
+	ow_doc_need(r, 16.0 + min_follow_pt);
 	draw_line(r, r->x0, r->y + 10.0, utf8, &st);
 	r->y += 16.0;
 }
@@ -259,7 +263,7 @@ struct cell_lines {
 	int n;
 };
 
-static double col_x(const struct rpt *r, const struct rpt_table *t, int c)
+static double col_x(const struct ow_doc *r, const struct ow_doc_table *t, int c)
 {
 	double x = r->x0;
 	int k;
@@ -270,14 +274,14 @@ static double col_x(const struct rpt *r, const struct rpt_table *t, int c)
 }
 
 /* Draw wrapped lines of cell c in a row starting at y. */
-static void cell_draw(struct rpt *r, const struct rpt_table *t, int c,
+static void cell_draw(struct ow_doc *r, const struct ow_doc_table *t, int c,
                       const struct cell_lines *cl, double y, int bold)
 {
 	double w = t->frac[c] * (r->x1 - r->x0), x = col_x(r, t, c);
-	double lh = t->size_pt * RPT_LINE;
+	double lh = t->size_pt * OW_DOC_LINE;
 	int k;
 
-	ow_canvas_set_colour(r->cv, rpt_ink());
+	ow_canvas_set_colour(r->cv, ow_doc_ink());
 	ow_canvas_set_font(r->cv, t->size_pt, bold);
 	if (t->align[c] == OW_ALIGN_RIGHT)
 		x += w - CELL_PAD;
@@ -292,7 +296,7 @@ static void cell_draw(struct rpt *r, const struct rpt_table *t, int c,
 }
 
 /* Wrap every cell; returns the row height. */
-static double row_layout(struct rpt *r, const struct rpt_table *t,
+static double row_layout(struct ow_doc *r, const struct ow_doc_table *t,
                          const char *const *cells, struct cell_lines *cl,
                          int head)
 {
@@ -303,15 +307,15 @@ static double row_layout(struct rpt *r, const struct rpt_table *t,
 		double w = t->frac[c] * (r->x1 - r->x0) - 2.0 * CELL_PAD;
 		int bold = head || (c == 0 && t->first_bold);
 
-		cl[c].n =
-		    rpt_wrap(r, cells[c] ? cells[c] : "", w, t->size_pt, bold,
-		             cl[c].buf, sizeof cl[c].buf, cl[c].lines, 40);
-		h = fmax(h, cl[c].n * t->size_pt * RPT_LINE);
+		cl[c].n = ow_doc_wrap(r, cells[c] ? cells[c] : "", w,
+		                      t->size_pt, bold, cl[c].buf,
+		                      sizeof cl[c].buf, cl[c].lines, 40);
+		h = fmax(h, cl[c].n * t->size_pt * OW_DOC_LINE);
 	}
 	return h + 2.0 * r->row_pad;
 }
 
-static void row_draw(struct rpt *r, const struct rpt_table *t,
+static void row_draw(struct ow_doc *r, const struct ow_doc_table *t,
                      const struct cell_lines *cl, double h,
                      const struct ow_rgba *fill, int head)
 {
@@ -326,7 +330,7 @@ static void row_draw(struct rpt *r, const struct rpt_table *t,
 		cell_draw(r, t, c, &cl[c], r->y,
 		          head || (c == 0 && t->first_bold));
 	r->y += h;
-	ow_canvas_set_colour(r->cv, rpt_grey(head ? 0.35 : 0.78));
+	ow_canvas_set_colour(r->cv, ow_doc_grey(head ? 0.35 : 0.78));
 	ow_canvas_set_line_width(r->cv, head ? 0.8 : 0.4);
 	ow_canvas_move_to(r->cv, r->x0, r->y);
 	ow_canvas_line_to(r->cv, r->x1, r->y);
@@ -334,19 +338,19 @@ static void row_draw(struct rpt *r, const struct rpt_table *t,
 }
 
 /* Room for the wrapped cells of one row; NULL after a failure. */
-static struct cell_lines *cells_new(struct rpt *r)
+static struct cell_lines *cells_new(struct ow_doc *r)
 {
 	struct cell_lines *cl;
 
 	if (r->st != OW_OK)
 		return NULL;
-	cl = malloc(sizeof *cl * RPT_MAX_COLS);
+	cl = malloc(sizeof *cl * OW_DOC_MAX_COLS);
 	if (!cl)
-		rpt_fail(r, OW_ENOMEM, "out of memory");
+		ow_doc_fail(r, OW_ENOMEM, "out of memory");
 	return cl;
 }
 
-void rpt_table_head(struct rpt *r, const struct rpt_table *t)
+void ow_doc_table_head(struct ow_doc *r, const struct ow_doc_table *t)
 {
 	struct cell_lines *cl;
 	double h;
@@ -355,13 +359,14 @@ void rpt_table_head(struct rpt *r, const struct rpt_table *t)
 	if (!cl)
 		return;
 	h = row_layout(r, t, t->head, cl, 1);
-	rpt_need(r, h + 2.0 * t->size_pt * RPT_LINE); /* keep with a row */
+	ow_doc_need(r,
+	            h + 2.0 * t->size_pt * OW_DOC_LINE); /* keep with a row */
 	row_draw(r, t, cl, h, &r->head_fill, 1);
 	free(cl);
 }
 
-void rpt_table_row(struct rpt *r, const struct rpt_table *t,
-                   const char *const *cells, int shade)
+void ow_doc_table_row(struct ow_doc *r, const struct ow_doc_table *t,
+                      const char *const *cells, int shade)
 {
 	struct cell_lines *cl;
 	double h;
@@ -370,21 +375,66 @@ void rpt_table_row(struct rpt *r, const struct rpt_table *t,
 	if (!cl)
 		return;
 	h = row_layout(r, t, cells, cl, 0);
-	if (rpt_need(r, h))
-		rpt_table_head(r, t); /* the header again on the new page */
+	if (ow_doc_need(r, h))
+		ow_doc_table_head(r, t); /* the header again on the new page */
 	row_draw(r, t, cl, h, shade ? &r->shade_fill : NULL, 0);
 	free(cl);
 }
 
-void rpt_table_end(struct rpt *r)
+void ow_doc_table_end(struct ow_doc *r)
 {
 	r->y += 8.0;
 }
 
+/* ---- cautions --------------------------------------------------------- */
+
+/* Height of n cautions set width wide: each lead one line, its text
+ * wrapped, 7 pt after each. */
+static double cautions_height(struct ow_doc *r, const struct ow_doc_caution *c,
+                              int n, double width)
+{
+	char buf[2048];
+	const char *lines[40];
+	double h = 0.0;
+	int k;
+
+	for (k = 0; k < n; k++) {
+		h += OW_DOC_BODY_PT * OW_DOC_LINE *
+		     (1 + ow_doc_wrap(r, c[k].text, width, OW_DOC_BODY_PT, 0,
+		                      buf, sizeof buf, lines, 40));
+		h += 7.0;
+	}
+	return h;
+}
+
+void ow_doc_cautions(struct ow_doc *r, const struct ow_doc_caution *c, int n,
+                     enum ow_doc_caution_form form)
+{
+	int barred = form == OW_DOC_CAUTIONS_BARRED, k;
+	double indent = barred ? 14.0 : 0.0, top;
+	struct ow_doc_style lead = {OW_DOC_BODY_PT, 1, ow_doc_ink(), indent};
+	struct ow_doc_style st = ow_doc_body();
+
+	st.indent_pt = indent;
+	ow_doc_heading(r, "Cautions", barred ? 0.0 : 60.0);
+	if (barred)
+		ow_doc_need(r,
+		            cautions_height(r, c, n, r->x1 - r->x0 - indent));
+	top = r->y;
+	for (k = 0; k < n; k++) {
+		ow_doc_para(r, c[k].lead, &lead, barred ? 0.0 : 1.0);
+		ow_doc_para(r, c[k].text, &st, barred ? 7.0 : 6.0);
+	}
+	if (!barred || r->st != OW_OK || r->y < top)
+		return; /* no bar, or a page break (text longer than a page) */
+	ow_canvas_set_colour(r->cv, ow_doc_ink());
+	ow_canvas_rect(r->cv, r->x0, top, 4.0, r->y - top - 7.0);
+	ow_canvas_fill(r->cv);
+}
+
 /* ---- numbers ---------------------------------------------------------- */
 
-/* Drop trailing zeros (and a bare point) of a fixed-point text. */
-static void trim_zeros(char *s)
+void ow_doc_trim_zeros(char *s)
 {
 	char *e;
 
@@ -398,7 +448,7 @@ static void trim_zeros(char *s)
 }
 
 /* "-1.5" -> "−1.5"; "-0" -> "0". */
-static char *minus(char *buf, size_t n, const char *txt)
+char *ow_doc_minus(char *buf, size_t n, const char *txt)
 {
 	if (txt[0] == '-' && strspn(txt + 1, "0.") != strlen(txt + 1))
 		snprintf(buf, n, MINUS "%s", txt + 1);
@@ -407,7 +457,7 @@ static char *minus(char *buf, size_t n, const char *txt)
 	return buf;
 }
 
-char *rpt_fix(char *buf, size_t n, double v, int decimals)
+char *ow_doc_fix(char *buf, size_t n, double v, int decimals)
 {
 	char tmp[64];
 
@@ -416,10 +466,10 @@ char *rpt_fix(char *buf, size_t n, double v, int decimals)
 		return buf;
 	}
 	snprintf(tmp, sizeof tmp, "%.*f", decimals, v);
-	return minus(buf, n, tmp);
+	return ow_doc_minus(buf, n, tmp);
 }
 
-char *rpt_num(char *buf, size_t n, double v, int sig)
+char *ow_doc_num(char *buf, size_t n, double v, int sig)
 {
 	char tmp[64];
 	int dec;
@@ -434,11 +484,11 @@ char *rpt_num(char *buf, size_t n, double v, int sig)
 	if (dec > 12)
 		dec = 12;
 	snprintf(tmp, sizeof tmp, "%.*f", dec, v);
-	trim_zeros(tmp);
-	return minus(buf, n, tmp);
+	ow_doc_trim_zeros(tmp);
+	return ow_doc_minus(buf, n, tmp);
 }
 
-char *rpt_exact(char *buf, size_t n, double v)
+char *ow_doc_exact(char *buf, size_t n, double v)
 {
 	int dec = 0;
 
@@ -446,64 +496,30 @@ char *rpt_exact(char *buf, size_t n, double v)
 	       fabs(v * pow(10.0, dec) - nearbyint(v * pow(10.0, dec))) >
 	           0.0005 * pow(10.0, dec))
 		dec++;
-	return rpt_fix(buf, n, v, dec);
+	return ow_doc_fix(buf, n, v, dec);
 }
 
-char *ow_report_format_bound(char *buf, size_t n, double v, int decimals,
-                             enum ow_round dir)
-{
-	double f = pow(10.0, decimals), x = v * f;
-	char tmp[64];
-
-	if (!isfinite(v))
-		return rpt_fix(buf, n, v, 0);
-	/* a hair of slack, so 185.0000000001 is not taken up to 186 */
-	if (dir == OW_ROUND_UP)
-		x = ceil(x - 1e-6);
-	else if (dir == OW_ROUND_DOWN)
-		x = floor(x + 1e-6);
-	else
-		x = round(x);
-	snprintf(tmp, sizeof tmp, "%.*f", decimals, x / f);
-	trim_zeros(tmp);
-	return minus(buf, n, tmp);
-}
-
-double rpt_shown(const struct rpt *r, enum ow_dim dim, double si)
+double ow_doc_shown(const struct ow_doc *r, enum ow_dim dim, double si)
 {
 	return ow_display_value(r->sys, dim, si);
 }
 
-const char *rpt_unit(const struct rpt *r, enum ow_dim dim)
+const char *ow_doc_unit(const struct ow_doc *r, enum ow_dim dim)
 {
 	return ow_display_label(r->sys, dim);
 }
 
-char *rpt_qty(struct rpt *r, char *buf, size_t n, enum ow_dim dim, double si,
-              int sig)
+char *ow_doc_qty(struct ow_doc *r, char *buf, size_t n, enum ow_dim dim,
+                 double si, int sig)
 {
 	char num[64];
-	const char *u = rpt_unit(r, dim);
+	const char *u = ow_doc_unit(r, dim);
 
 	if (!isfinite(si)) {
 		snprintf(buf, n, "%s", "");
 		return buf;
 	}
-	rpt_num(num, sizeof num, rpt_shown(r, dim, si), sig);
+	ow_doc_num(num, sizeof num, ow_doc_shown(r, dim, si), sig);
 	snprintf(buf, n, "%s%s%s", num, *u ? " " : "", u);
 	return buf;
-}
-
-const char *rpt_source(const struct rpt *r, const char *key,
-                       unsigned char *shown)
-{
-	int k;
-
-	for (k = 0; k < r->s->n_sources; k++)
-		if (!strcmp(r->s->sources[k].key, key)) {
-			if (shown)
-				shown[k] = 1;
-			return r->s->sources[k].text;
-		}
-	return NULL;
 }

@@ -1,4 +1,4 @@
-/* report_unicode.c - a correct ToUnicode map for the PDF's fonts, so that
+/* doc_unicode.c - a correct ToUnicode map for the PDF's fonts, so that
  * text can be searched and copied (also "°C", "–", "≤").
  *
  * libharu's UTF-8 encoder writes every character as its two-byte Unicode
@@ -12,7 +12,7 @@
  * dictionary again with its /ToUnicode pointing there, a cross-reference
  * section for those objects and a trailer with /Prev. The bytes before
  * the update are left as they were. */
-#include "report_impl.h"
+#include "doc_impl.h"
 
 #include "ow_io.h"
 
@@ -41,7 +41,7 @@ static void putf(struct ow_buf *b, const char *fmt, ...)
 
 /* The last occurrence of needle in the n bytes at h, or NULL. */
 static const unsigned char *last(const unsigned char *h, size_t n,
-				 const char *needle)
+                                 const char *needle)
 {
 	size_t k = strlen(needle), i;
 
@@ -52,7 +52,7 @@ static const unsigned char *last(const unsigned char *h, size_t n,
 }
 
 static const unsigned char *find(const unsigned char *h, size_t n,
-				 const char *needle)
+                                 const char *needle)
 {
 	size_t k = strlen(needle), i;
 
@@ -127,7 +127,7 @@ static int fonts(const unsigned char *p, size_t n, struct font *f)
 
 /* "/Name <digits> 0 R" from the trailer, into out ("" when absent). */
 static void trailer_ref(const unsigned char *t, size_t n, const char *name,
-			char *out, size_t m)
+                        char *out, size_t m)
 {
 	const unsigned char *q = find(t, n, name);
 	size_t k = 0;
@@ -144,8 +144,8 @@ static void trailer_ref(const unsigned char *t, size_t n, const char *name,
 	out[k] = '\0';
 }
 
-enum ow_status rpt_fix_to_unicode(unsigned char **buf, size_t *len,
-				  struct ow_diag *d)
+enum ow_status ow_doc_fix_to_unicode(unsigned char **buf, size_t *len,
+                                     struct ow_diag *d)
 {
 	struct font f[MAX_FONTS];
 	struct ow_buf b = {(char *)*buf, *len, *len, 0};
@@ -213,8 +213,8 @@ enum ow_status rpt_fix_to_unicode(unsigned char **buf, size_t *len,
 	putf(&b, "trailer\n<<\n/Root %s\n", root);
 	if (*info)
 		putf(&b, "/Info %s\n", info);
-	putf(&b, "/Size %d\n/Prev %d\n>>\nstartxref\n%zu\n%%%%EOF\n",
-	     size + 1, prev, xref);
+	putf(&b, "/Size %d\n/Prev %d\n>>\nstartxref\n%zu\n%%%%EOF\n", size + 1,
+	     prev, xref);
 	free(body);
 	if (b.oom) { /* b.data still holds the document as it was */
 		*buf = (unsigned char *)b.data;
