@@ -11,14 +11,20 @@ WERROR   ?= $(if $(CI),-Werror,)
 PKGS     := udunits libcjson cairo cairo-ft freetype2 gsl zlib
 WARN     := -Wall -Wextra -Wshadow -Wconversion -Wstrict-prototypes \
             -Wmissing-prototypes -Wno-sign-conversion
-CPPFLAGS += -Ilib -Itests/support -D_POSIX_C_SOURCE=200809L -D_DEFAULT_SOURCE
+# lib/'s folders, lowest layer first: a file may include the headers of its
+# own folder and of those before it, never of one after it (make layers).
+LAYERS   := base model config physics solve window out calib spread map \
+            draw doc fit compare
+LIB_DIRS := $(addprefix lib/,$(LAYERS))
+
+CPPFLAGS += -Ilib $(addprefix -I,$(LIB_DIRS)) -Itests/support -D_POSIX_C_SOURCE=200809L -D_DEFAULT_SOURCE
 CFLAGS   += -std=c11 $(OPT) -g -fopenmp $(WARN) $(WERROR) $(SANFLAGS) -MMD -MP \
             $(shell pkg-config --cflags $(PKGS) 2>/dev/null)
 LDLIBS   += $(shell pkg-config --libs $(PKGS) 2>/dev/null) -lhpdf -lm
 LDFLAGS  += -fopenmp $(SANFLAGS)
 TEST_LIBS := $(shell pkg-config --libs cmocka 2>/dev/null)
 
-LIB_SRC  := $(sort $(wildcard lib/*.c))
+LIB_SRC  := $(sort $(wildcard $(addsuffix /*.c,$(LIB_DIRS))))
 CLI_SRC  := $(sort $(wildcard cli/*.c))
 TEST_SRC := $(sort $(wildcard tests/test_*.c))
 SUP_SRC  := $(sort $(wildcard tests/support/*.c))
@@ -37,6 +43,7 @@ FONT     := /usr/share/fonts/truetype/dejavu/DejaVuSans.ttf
 
 .SECONDARY:
 .PHONY: all deps test check-run demo bench sanitize memcheck mutate lint format clean install \
+        layers format-deps \
         fuzz fuzz-deps fuzz-run
 
 all: $(LIBA) $(OPWIN)
@@ -79,7 +86,7 @@ $(BUILD)/tests/%: $(BUILD)/tests/%.o $(SUP_OBJ) $(LIBA)
 test: deps
 	@$(MAKE) --no-print-directory check-run
 
-check-run: all $(TESTS)
+check-run: all $(TESTS) layers
 	@OPWIN=$(OPWIN) sh tests/run.sh $(TESTS)
 
 demo: deps
@@ -149,10 +156,26 @@ memcheck: deps
 
 lint:
 	cppcheck --quiet --enable=warning,performance,portability \
-	  --error-exitcode=1 --inline-suppr -Ilib lib cli
+	  --error-exitcode=1 --inline-suppr -Ilib $(addprefix -I,$(LIB_DIRS)) \
+	  lib cli
 
-format:
-	clang-format -i lib/*.c lib/*.h cli/*.c cli/*.h tests/*.c
+# No file of lib/ includes a header of a later folder of LAYERS.
+layers:
+	@sh tests/layers.sh $(LAYERS)
+
+# clang-format with the repository's .clang-format over lib, cli and tests
+# (installs clang-format when it is missing, like deps).
+FORMAT_SRC = $(sort $(wildcard lib/*.h lib/*/*.[ch] cli/*.[ch] tests/*.c \
+                               tests/*/*.[ch]))
+
+format-deps:
+	@command -v clang-format >/dev/null || { \
+	  echo "format: installing clang-format"; apt-get update -qq && \
+	  DEBIAN_FRONTEND=noninteractive apt-get install -y -qq \
+	    --no-install-recommends clang-format >/dev/null; }
+
+format: format-deps
+	clang-format -i $(FORMAT_SRC)
 
 clean:
 	rm -rf build build-san build-fuzz lib/libopwin.a
@@ -162,7 +185,7 @@ install: all
 	  $(DESTDIR)$(PREFIX)/include/opwin
 	install -m 755 $(OPWIN) $(DESTDIR)$(PREFIX)/bin/opwin
 	install -m 644 $(LIBA) $(DESTDIR)$(PREFIX)/lib/libopwin.a
-	install -m 644 lib/ow_*.h lib/opwin.h $(DESTDIR)$(PREFIX)/include/opwin
+	install -m 644 lib/*/ow_*.h lib/opwin.h $(DESTDIR)$(PREFIX)/include/opwin
 	install -d $(DESTDIR)$(PREFIX)/share/man/man1
 	install -m 644 doc/opwin.1 $(DESTDIR)$(PREFIX)/share/man/man1/opwin.1
 
