@@ -23,7 +23,7 @@ enum {
 /* Options every command accepts. */
 struct cli_common {
 	enum ow_unit_system units;
-	int jobs;  /* 0: all cores */
+	int jobs; /* 0: all cores */
 	int quiet;
 };
 
@@ -53,12 +53,14 @@ int cli_fail(const char *cmd, enum ow_status st, const struct ow_diag *d);
 int cli_usage_error(const char *cmd, const char *msg);
 
 /* Long options every command takes; put first in its option table. */
-#define CLI_COMMON_LONGOPTS                                   \
-	{"units", required_argument, NULL, 'u'},              \
-	{"jobs", required_argument, NULL, 'j'},               \
-	{"quiet", no_argument, NULL, 'q'},                    \
-	{"help", no_argument, NULL, 'h'},                     \
-	{"version", no_argument, NULL, 'V'}
+#define CLI_COMMON_LONGOPTS                                                    \
+	{"units", required_argument, NULL, 'u'},                               \
+	    {"jobs", required_argument, NULL, 'j'},                            \
+	    {"quiet", no_argument, NULL, 'q'},                                 \
+	    {"help", no_argument, NULL, 'h'},                                  \
+	{                                                                      \
+		"version", no_argument, NULL, 'V'                              \
+	}
 
 /* Print the version line (for --version). */
 void cli_version(void);
@@ -74,12 +76,12 @@ struct cli_spec {
 	/* One of the command's own options (id is getopt_long's value):
 	 * 0 taken, an exit code after printing why, or CLI_NOT_MINE. */
 	int (*option)(void *ctx, int id, const char *arg);
-	int n_args;                /* operands the command needs */
-	const char *expects;       /* the usage error when they are not
-				      there ("expects one STUDY.json") */
+	int n_args;          /* operands the command needs */
+	const char *expects; /* the usage error when they are not
+	                        there ("expects one STUDY.json") */
 };
 
-#define CLI_GO_ON (-1)    /* cli_options: run the command */
+#define CLI_GO_ON    (-1) /* cli_options: run the command */
 #define CLI_NOT_MINE (-1) /* cli_spec.option: not one of the command's */
 
 /* Read argv[1..] as sp says: --help and --version print and end the
@@ -89,13 +91,13 @@ struct cli_spec {
  * *args points at the first. Returns CLI_GO_ON when the command is to
  * run, else its exit code (CLI_USAGE after printing why). */
 int cli_options(const struct cli_spec *sp, int argc, char **argv, void *ctx,
-		struct cli_common *c, char ***args);
+                struct cli_common *c, char ***args);
 
 /* Handle one of the common long options (id is the getopt_long return
  * value: 'u' units, 'j' jobs, 'q' quiet). Returns 0, or CLI_USAGE after
  * printing why. */
 int cli_common_option(const char *cmd, struct cli_common *c, int id,
-		      const char *arg);
+                      const char *arg);
 
 /* Load a study, with the units in *u (NULL: created here, so that a
  * command with two studies reads the unit database once); on failure print
@@ -103,7 +105,7 @@ int cli_common_option(const char *cmd, struct cli_common *c, int id,
  * here are gone again). On success *u and *study are owned by the caller:
  * ow_units_destroy(*u), free(*study). */
 int cli_load_study(const char *cmd, const char *path, struct ow_units **u,
-		   struct ow_study **study);
+                   struct ow_study **study);
 
 /* --grid NxM: 0, or -1 unless both are 2..1000. */
 int cli_parse_grid(const char *s, int *n, int *m);
@@ -124,9 +126,9 @@ void cli_make_parents(const char *dir);
 
 /* A map folder written as a whole (outdir.c). */
 struct cli_outdir {
-	const char *dir;               /* where the folder goes */
-	char tmp[OW_PATH_LEN + 32];    /* the folder being written */
-	struct sigaction saved[3];     /* SIGINT, SIGTERM, SIGHUP before */
+	const char *dir;            /* where the folder goes */
+	char tmp[OW_PATH_LEN + 32]; /* the folder being written */
+	struct sigaction saved[3];  /* SIGINT, SIGTERM, SIGHUP before */
 };
 
 /* Before solving: can a map folder be written at dir (ow_mapdir.h,
@@ -155,41 +157,43 @@ void cli_progress_show(void *ctx, int done, int total);
  * means what the study's file means; or a text with its unit ("10 K",
  * "440 degF"). */
 enum ow_status cli_read_value(const struct ow_units *u, const char *text,
-			      enum ow_dim dim, enum ow_unit_system sys,
-			      double *si, struct ow_diag *d);
+                              enum ow_dim dim, enum ow_unit_system sys,
+                              double *si, struct ow_diag *d);
 
 /* Tell on stderr how an option's value was read: "opwin point: --set 10
  * read as 10 K (18 degF): a bare number is in the study's own units, SI". */
 void cli_note_value(const char *cmd, const char *option, const char *text,
-		    enum ow_dim dim, enum ow_unit_system study, double si);
+                    enum ow_dim dim, enum ow_unit_system study, double si);
 
 /* Options of the maps and the report (map and report commands). */
 struct cli_render {
 	struct ow_report_options rep;
 	const char *current; /* "--current RPM,SET" as typed */
 	char today[16];
-	int jobs;            /* threads drawing (--jobs; 0: all cores) */
+	int jobs; /* threads drawing (--jobs; 0: all cores) */
 };
 
-#define CLI_RENDER_LONGOPTS                                      \
-	{"paper", required_argument, NULL, 'p'},                 \
-	{"revision", required_argument, NULL, 'R'},              \
-	{"prepared-by", required_argument, NULL, 'P'},           \
-	{"approved-by", required_argument, NULL, 'A'},           \
-	{"date", required_argument, NULL, 'D'},                  \
-	{"current", required_argument, NULL, 'C'}
+#define CLI_RENDER_LONGOPTS                                                    \
+	{"paper", required_argument, NULL, 'p'},                               \
+	    {"revision", required_argument, NULL, 'R'},                        \
+	    {"prepared-by", required_argument, NULL, 'P'},                     \
+	    {"approved-by", required_argument, NULL, 'A'},                     \
+	    {"date", required_argument, NULL, 'D'},                            \
+	{                                                                      \
+		"current", required_argument, NULL, 'C'                        \
+	}
 
-#define CLI_RENDER_HELP                                                      \
-	"  --paper P          a4 (default) or letter\n"                       \
-	"  --revision R       revision text in the title block\n"             \
-	"  --prepared-by NAME, --approved-by NAME\n"                          \
-	"                     names in the title block (blank lines to "      \
-	"sign otherwise)\n"                                                   \
-	"  --date YYYY-MM-DD  date of the report (default: today)\n"          \
-	"  --current RPM,SET  the line's current point: screw speed and the " \
-	"set-point\n"                                                         \
-	"                     of the map's axis zone, with a unit "           \
-	"(60,\"205 degC\")\n"                                                 \
+#define CLI_RENDER_HELP                                                        \
+	"  --paper P          a4 (default) or letter\n"                        \
+	"  --revision R       revision text in the title block\n"              \
+	"  --prepared-by NAME, --approved-by NAME\n"                           \
+	"                     names in the title block (blank lines to "       \
+	"sign otherwise)\n"                                                    \
+	"  --date YYYY-MM-DD  date of the report (default: today)\n"           \
+	"  --current RPM,SET  the line's current point: screw speed and the "  \
+	"set-point\n"                                                          \
+	"                     of the map's axis zone, with a unit "            \
+	"(60,\"205 degC\")\n"                                                  \
 	"                     or bare in the study's own units\n"
 
 /* Defaults: A4, today's date, no current point. */
@@ -198,13 +202,13 @@ void cli_render_init(struct cli_render *r);
 /* Handle one of CLI_RENDER_LONGOPTS: 0 done, CLI_USAGE after printing
  * why, -1 not one of them. */
 int cli_render_option(const char *cmd, struct cli_render *r, int id,
-		      const char *arg);
+                      const char *arg);
 
 /* Set the report's unit system sys and read --current (if given), a bare
  * number in the study's own system `study`, saying how it was read.
  * Returns 0 or CLI_USAGE. */
 int cli_render_current(const char *cmd, const struct ow_units *u,
-		       struct cli_render *r, enum ow_unit_system sys,
-		       enum ow_unit_system study);
+                       struct cli_render *r, enum ow_unit_system sys,
+                       enum ow_unit_system study);
 
 #endif

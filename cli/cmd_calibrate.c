@@ -20,8 +20,10 @@ struct cal_args {
 
 static void help(void)
 {
-	printf("usage: opwin calibrate STUDY.json READINGS.csv [-o calibrated.json]\n"
-	       "                 [--free NAME[,NAME...]] [--sd QUANTITY=VALUE]...\n"
+	printf("usage: opwin calibrate STUDY.json READINGS.csv [-o "
+	       "calibrated.json]\n"
+	       "                 [--free NAME[,NAME...]] [--sd "
+	       "QUANTITY=VALUE]...\n"
 	       "                 [--plot residuals.png|.svg] [--units si|us] "
 	       "[--jobs N] [--quiet]\n\n"
 	       "Fits model factors so that the model reproduces what the line "
@@ -63,8 +65,7 @@ static void help(void)
 /* ---- printing ---------------------------------------------------------- */
 
 static const char *const labels[OW_CQ_COUNT] = {
-	"output", "head pressure", "melt temperature", "drive power",
-	"torque"};
+    "output", "head pressure", "melt temperature", "drive power", "torque"};
 
 static double shown(enum ow_unit_system sys, enum ow_calib_qty q, double si)
 {
@@ -73,7 +74,7 @@ static double shown(enum ow_unit_system sys, enum ow_calib_qty q, double si)
 
 /* A difference of quantity q in display units. */
 static double shown_diff(enum ow_unit_system sys, enum ow_calib_qty q,
-			 double si)
+                         double si)
 {
 	if (q == OW_CQ_MELT)
 		return ow_display_value(sys, OW_DIM_TEMP_DIFF, si);
@@ -85,8 +86,7 @@ static const char *unit_of(enum ow_unit_system sys, enum ow_calib_qty q)
 	return ow_display_label(sys, ow_calib_qty_dim(q));
 }
 
-static void print_sd(const struct ow_calib_options *o,
-		     enum ow_unit_system sys)
+static void print_sd(const struct ow_calib_options *o, enum ow_unit_system sys)
 {
 	int q;
 
@@ -100,8 +100,8 @@ static void print_sd(const struct ow_calib_options *o,
 			printf(" %s %.3g %s", labels[q],
 			       shown_diff(sys, e, o->sd_abs[q]),
 			       e == OW_CQ_MELT
-				       ? ow_display_label(sys, OW_DIM_TEMP_DIFF)
-				       : unit_of(sys, e));
+			           ? ow_display_label(sys, OW_DIM_TEMP_DIFF)
+			           : unit_of(sys, e));
 		printf("%s", q + 1 < OW_CQ_COUNT ? "," : "\n");
 	}
 }
@@ -134,7 +134,7 @@ static void print_factors(const struct ow_calib_result *r)
 }
 
 static void print_residuals(const struct ow_calib_result *r,
-			    enum ow_unit_system sys)
+                            enum ow_unit_system sys)
 {
 	int i;
 
@@ -145,7 +145,7 @@ static void print_residuals(const struct ow_calib_result *r,
 		char what[48];
 
 		snprintf(what, sizeof what, "%s (%s)", labels[e->qty],
-			 unit_of(sys, e->qty));
+		         unit_of(sys, e->qty));
 		printf("%5d %7.1f  %-24s %11.4g %11.4g %+11.3g %+8.2f\n",
 		       e->line, e->rpm, what, shown(sys, e->qty, e->measured),
 		       shown(sys, e->qty, e->modelled),
@@ -155,12 +155,13 @@ static void print_residuals(const struct ow_calib_result *r,
 }
 
 static void print_fit(const struct cal_args *a, const struct ow_study *s,
-		      const struct ow_readings *rd,
-		      const struct ow_calib_options *o,
-		      const struct ow_calib_result *r)
+                      const struct ow_readings *rd,
+                      const struct ow_calib_options *o,
+                      const struct ow_calib_result *r)
 {
 	printf("calibration of \"%s\" to %s: %zu readings, %d measured "
-	       "values\n", s->title, a->readings, rd->n, r->n_resid);
+	       "values\n",
+	       s->title, a->readings, rd->n, r->n_resid);
 	print_sd(o, a->c.units);
 	if (r->n_free == 0)
 		printf("\nNo factor is free (--free NAME, or calibration.free "
@@ -169,13 +170,12 @@ static void print_fit(const struct cal_args *a, const struct ow_study *s,
 		       "readings:\n");
 	else
 		print_factors(r);
-	printf("\nchi-square %.2f for %d degrees of freedom", r->chi2,
-	       r->dof);
+	printf("\nchi-square %.2f for %d degrees of freedom", r->chi2, r->dof);
 	if (r->n_free > 0)
 		printf(" (%.2f at the study's own factors)%s", r->chi2_start,
 		       r->err_scale > 1.0 ? "; standard errors scaled by "
-					    "sqrt(chi-square/dof)"
-					  : "");
+		                            "sqrt(chi-square/dof)"
+		                          : "");
 	printf("\n");
 	print_residuals(r, a->c.units);
 	if (r->n_free > 0)
@@ -196,17 +196,18 @@ static int parse_free(const char *cmd, const char *list, unsigned *mask)
 	     tok = strtok_r(NULL, ",", &save)) {
 		k = ow_calib_factor_find(tok);
 		if (k < 0)
-			return cli_usage_error(cmd, "--free takes "
-					       "viscosity_scale, friction, "
-					       "die_factor, heat_transfer "
-					       "(comma-separated)");
+			return cli_usage_error(cmd,
+			                       "--free takes "
+			                       "viscosity_scale, friction, "
+			                       "die_factor, heat_transfer "
+			                       "(comma-separated)");
 		*mask |= 1u << k;
 	}
 	return 0;
 }
 
 static int parse_sd(const struct ow_units *u, const char *spec,
-		    struct ow_calib_options *o)
+                    struct ow_calib_options *o)
 {
 	const char *eq = strchr(spec, '=');
 	struct ow_diag d = {{0}};
@@ -216,23 +217,25 @@ static int parse_sd(const struct ow_units *u, const char *spec,
 
 	for (q = 0; eq && q < OW_CQ_COUNT; q++)
 		if (strlen(ow_calib_qty_name((enum ow_calib_qty)q)) ==
-			    (size_t)(eq - spec) &&
+		        (size_t)(eq - spec) &&
 		    !strncmp(spec, ow_calib_qty_name((enum ow_calib_qty)q),
-			     (size_t)(eq - spec)))
+		             (size_t)(eq - spec)))
 			break;
 	if (!eq || q == OW_CQ_COUNT)
-		return cli_usage_error("calibrate", "--sd takes QUANTITY=VALUE "
-				       "with QUANTITY one of output, "
-				       "head_pressure, melt_temp, drive_power, "
-				       "torque");
+		return cli_usage_error("calibrate",
+		                       "--sd takes QUANTITY=VALUE "
+		                       "with QUANTITY one of output, "
+		                       "head_pressure, melt_temp, drive_power, "
+		                       "torque");
 	rel = strchr(eq, '%') != NULL;
 	dim = rel ? OW_DIM_NONE : ow_calib_qty_dim((enum ow_calib_qty)q);
 	if (dim == OW_DIM_TEMPERATURE)
 		dim = OW_DIM_TEMP_DIFF;
 	if (ow_units_parse(u, eq + 1, dim, 0.0, &v, &d) != OW_OK || !(v > 0))
-		return cli_usage_error("calibrate", "--sd: the value must be "
-				       "a positive percentage ('2%') or a "
-				       "quantity with its unit ('0.5 MPa')");
+		return cli_usage_error("calibrate",
+		                       "--sd: the value must be "
+		                       "a positive percentage ('2%') or a "
+		                       "quantity with its unit ('0.5 MPa')");
 	o->sd_rel[q] = rel ? v : NAN;
 	o->sd_abs[q] = rel ? NAN : v;
 	return 0;
@@ -241,8 +244,8 @@ static int parse_sd(const struct ow_units *u, const char *spec,
 /* ---- run --------------------------------------------------------------- */
 
 static int write_outputs(const struct cal_args *a, const struct ow_study *s,
-			 const struct ow_calib_options *o,
-			 const struct ow_calib_result *r)
+                         const struct ow_calib_options *o,
+                         const struct ow_calib_result *r)
 {
 	struct ow_diag d = {{0}};
 	enum ow_status st = OW_OK;
@@ -250,9 +253,9 @@ static int write_outputs(const struct cal_args *a, const struct ow_study *s,
 
 	if (a->plot) {
 		snprintf(title, sizeof title, "Calibration of %.120s to %.150s",
-			 s->title, a->readings);
+		         s->title, a->readings);
 		st = ow_calib_plot(r->resid, r->n_resid, a->c.units, title,
-				   a->plot, &d);
+		                   a->plot, &d);
 		if (st == OW_OK && !a->c.quiet)
 			printf("plot: %s\n", a->plot);
 	}
@@ -260,10 +263,9 @@ static int write_outputs(const struct cal_args *a, const struct ow_study *s,
 		printf("%s not written: nothing changed\n", a->out);
 	if (st == OW_OK && a->out && r->n_free > 0) {
 		st = ow_calib_study_text(s, o, r, a->readings, a->out, &text,
-					 &d);
+		                         &d);
 		if (st == OW_OK)
-			st = ow_io_write_file(a->out, text, strlen(text),
-					      &d);
+			st = ow_io_write_file(a->out, text, strlen(text), &d);
 		if (st == OW_OK && !a->c.quiet)
 			printf("calibrated study: %s\n", a->out);
 	}
@@ -343,16 +345,21 @@ static int option(void *ctx, int id, const char *arg)
 int cmd_calibrate(int argc, char **argv)
 {
 	static const struct option opts[] = {
-		CLI_COMMON_LONGOPTS,
-		{"output", required_argument, NULL, 'o'},
-		{"plot", required_argument, NULL, 'p'},
-		{"free", required_argument, NULL, 'F'},
-		{"sd", required_argument, NULL, 'S'},
-		{NULL, 0, NULL, 0},
+	    CLI_COMMON_LONGOPTS,
+	    {"output", required_argument, NULL, 'o'},
+	    {"plot", required_argument, NULL, 'p'},
+	    {"free", required_argument, NULL, 'F'},
+	    {"sd", required_argument, NULL, 'S'},
+	    {NULL, 0, NULL, 0},
 	};
 	static const struct cli_spec spec = {
-		"calibrate", opts, "ho:q", help, option, 2,
-		"expects STUDY.json and READINGS.csv"};
+	    "calibrate",
+	    opts,
+	    "ho:q",
+	    help,
+	    option,
+	    2,
+	    "expects STUDY.json and READINGS.csv"};
 	struct cal_args a;
 	char **args;
 	int rc;

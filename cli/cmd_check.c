@@ -9,7 +9,6 @@
 #include <stdlib.h>
 #include <string.h>
 
-
 static void help(void)
 {
 	printf("usage: opwin check STUDY.json [--json] [--units si|us]\n\n"
@@ -53,8 +52,8 @@ static void print_screw(const struct ow_screw *s, const struct cli_common *c)
 	int dp = c->units == OW_SYS_US ? 3 : 2, i;
 
 	printf("screw   %s\n", s->name);
-	printf("  diameter %.*f %s, lead %.*f %s, %d flight(s), L/D %.2f\n",
-	       dp, disp(c, OW_DIM_LENGTH, D), lab(c, OW_DIM_LENGTH), dp,
+	printf("  diameter %.*f %s, lead %.*f %s, %d flight(s), L/D %.2f\n", dp,
+	       disp(c, OW_DIM_LENGTH, D), lab(c, OW_DIM_LENGTH), dp,
 	       disp(c, OW_DIM_LENGTH, s->lead_m), lab(c, OW_DIM_LENGTH),
 	       s->flights, ow_screw_ld(s));
 	printf("  helix angle %.4f deg at the barrel, channel width %.*f %s\n",
@@ -64,37 +63,37 @@ static void print_screw(const struct ow_screw *s, const struct cli_common *c)
 	printf("  compression ratio %.3f (depth), %.3f (cross-section)\n",
 	       ow_screw_compression_depth(s), ow_screw_compression_area(s));
 	printf("  flight clearance %.*f %s (new), channel volume of the first "
-	       "turn %.1f %s\n", dp + 1, disp(c, OW_DIM_LENGTH, s->clearance_m),
+	       "turn %.1f %s\n",
+	       dp + 1, disp(c, OW_DIM_LENGTH, s->clearance_m),
 	       lab(c, OW_DIM_LENGTH), turn_volume(s, c), vol_label(c));
-	printf("\n  %-2s %-9s %7s %7s %9s %9s %9s\n", "#", "section",
-	       "from D", "to D", "depth in", "depth out", "clearance");
+	printf("\n  %-2s %-9s %7s %7s %9s %9s %9s\n", "#", "section", "from D",
+	       "to D", "depth in", "depth out", "clearance");
 	for (i = 0; i < s->n_sections; i++) {
 		const struct ow_section *sec = &s->sections[i];
 		int mix = sec->type == OW_SEC_MIXER;
 		double mid = 0.5 * (sec->start_m + sec->end_m);
 
-		printf("  %-2d %-9s %7.2f %7.2f %9.*f %9.*f %9.*f %s\n", i + 1,
-		       ow_section_name(sec->type), sec->start_m / D,
-		       sec->end_m / D, dp,
-		       disp(c, OW_DIM_LENGTH,
-			    mix ? sec->gap_m : sec->depth_start_m),
-		       dp,
-		       disp(c, OW_DIM_LENGTH, mix ? sec->gap_m : sec->depth_m),
-		       dp + 1, disp(c, OW_DIM_LENGTH, ow_screw_clearance(s, mid)),
-		       lab(c, OW_DIM_LENGTH));
+		printf(
+		    "  %-2d %-9s %7.2f %7.2f %9.*f %9.*f %9.*f %s\n", i + 1,
+		    ow_section_name(sec->type), sec->start_m / D,
+		    sec->end_m / D, dp,
+		    disp(c, OW_DIM_LENGTH,
+		         mix ? sec->gap_m : sec->depth_start_m),
+		    dp, disp(c, OW_DIM_LENGTH, mix ? sec->gap_m : sec->depth_m),
+		    dp + 1, disp(c, OW_DIM_LENGTH, ow_screw_clearance(s, mid)),
+		    lab(c, OW_DIM_LENGTH));
 	}
 }
-
 
 /* The limits that are set, one phrasing per kind ("<quantity> at most
  * <value>"). */
 static void print_limits(const struct ow_study *st, const struct cli_common *c)
 {
 	static const enum ow_dim dims[OW_CK_LIMITS] = {
-		OW_DIM_TEMPERATURE, OW_DIM_NONE,      OW_DIM_PRESSURE,
-		OW_DIM_POWER,       OW_DIM_TORQUE,    OW_DIM_TEMPERATURE,
-		OW_DIM_MASS_FLOW,   OW_DIM_MASS_FLOW, OW_DIM_NONE,
-		OW_DIM_NONE};
+	    OW_DIM_TEMPERATURE, OW_DIM_NONE,      OW_DIM_PRESSURE,
+	    OW_DIM_POWER,       OW_DIM_TORQUE,    OW_DIM_TEMPERATURE,
+	    OW_DIM_MASS_FLOW,   OW_DIM_MASS_FLOW, OW_DIM_NONE,
+	    OW_DIM_NONE};
 	int k, n = 0;
 
 	for (k = 0; k < OW_CK_LIMITS; k++) {
@@ -118,13 +117,13 @@ static void print_sweep(const struct ow_study *st, const struct cli_common *c)
 {
 	const struct ow_axes *a = &st->line.axes;
 	int z = ow_line_reference_zone(&st->line) + 1;
-	enum ow_dim dim = a->mode == OW_AXIS_SHIFT ? OW_DIM_TEMP_DIFF
-						   : OW_DIM_TEMPERATURE;
+	enum ow_dim dim =
+	    a->mode == OW_AXIS_SHIFT ? OW_DIM_TEMP_DIFF : OW_DIM_TEMPERATURE;
 	const char *how = a->mode == OW_AXIS_SHIFT
-				  ? "every zone shifted by"
-				  : (a->mode == OW_AXIS_SET ? "zones from the "
-							      "given one set to"
-							    : "one zone set to");
+	                      ? "every zone shifted by"
+	                      : (a->mode == OW_AXIS_SET ? "zones from the "
+	                                                  "given one set to"
+	                                                : "one zone set to");
 
 	if (a->rpm_steps < 2) {
 		printf("sweep   none (point only)\n");
@@ -135,15 +134,17 @@ static void print_sweep(const struct ow_study *st, const struct cli_common *c)
 	       a->rpm_from, a->rpm_to, a->rpm_steps, how,
 	       disp(c, dim, a->axis_from), disp(c, dim, a->axis_to),
 	       lab(c, dim), a->axis_steps, z,
-	       disp(c, OW_DIM_TEMPERATURE, ow_line_axis_ref_K(&st->line, a->axis_from)),
-	       disp(c, OW_DIM_TEMPERATURE, ow_line_axis_ref_K(&st->line, a->axis_to)),
+	       disp(c, OW_DIM_TEMPERATURE,
+	            ow_line_axis_ref_K(&st->line, a->axis_from)),
+	       disp(c, OW_DIM_TEMPERATURE,
+	            ow_line_axis_ref_K(&st->line, a->axis_to)),
 	       lab(c, OW_DIM_TEMPERATURE));
 }
 
 /* The study's fields under prefix (and under `also`), as the comparison
  * lists them: "name value, name value" with units, set ones only. */
 static void print_group(const struct ow_study *st, const struct cli_common *c,
-			const char *lead, const char *prefix, const char *also)
+                        const char *lead, const char *prefix, const char *also)
 {
 	struct ow_input_diff f[160];
 	int n = ow_compare_fields(st, st, c->units, 1, f, 160), i, k = 0;
@@ -186,7 +187,8 @@ static void print_line(const struct ow_study *st, const struct cli_common *c)
 		       disp(c, OW_DIM_TEMPERATURE, l->zones[i].set_K),
 		       lab(c, OW_DIM_TEMPERATURE),
 		       l->zones[i].to_m / st->screw.diameter_m);
-	printf("\nfeed    %.0f %s\n", disp(c, OW_DIM_TEMPERATURE, l->feed_temp_K),
+	printf("\nfeed    %.0f %s\n",
+	       disp(c, OW_DIM_TEMPERATURE, l->feed_temp_K),
 	       lab(c, OW_DIM_TEMPERATURE));
 	print_group(st, c, "die     ", "die.", "screen_pack");
 	print_limits(st, c);
@@ -198,8 +200,9 @@ static void print_warnings(const struct ow_screw *s)
 	struct ow_warning w[OW_MAX_WARNINGS];
 	int n = ow_advise_screw(s, w, OW_MAX_WARNINGS), i;
 
-	printf("\n%s\n", n ? "warnings:" : "no warnings from the rules of "
-					    "thumb");
+	printf("\n%s\n", n ? "warnings:"
+	                   : "no warnings from the rules of "
+	                     "thumb");
 	for (i = 0; i < n; i++)
 		printf("  - %s\n", w[i].text);
 }
@@ -245,12 +248,12 @@ static int option(void *ctx, int id, const char *arg)
 int cmd_check(int argc, char **argv)
 {
 	static const struct option opts[] = {
-		CLI_COMMON_LONGOPTS,
-		{"json", no_argument, NULL, 'J'},
-		{NULL, 0, NULL, 0},
+	    CLI_COMMON_LONGOPTS,
+	    {"json", no_argument, NULL, 'J'},
+	    {NULL, 0, NULL, 0},
 	};
-	static const struct cli_spec spec = {"check", opts, "hq", help, option,
-					     1, "expects one STUDY.json"};
+	static const struct cli_spec spec = {
+	    "check", opts, "hq", help, option, 1, "expects one STUDY.json"};
 	struct cli_common c = {OW_SYS_SI, 0, 0};
 	char **args;
 	int json = 0, rc = cli_options(&spec, argc, argv, &json, &c, &args);

@@ -190,8 +190,8 @@ static void print_point(const struct ow_compare *cmp, enum ow_cmp_at at,
 		       ow_compare_at_text((enum ow_cmp_at)k));
 		return;
 	}
-	printf("\nAt the %s: %.1f rpm, %.1f %s", ow_compare_at_text(at),
-	       p->rpm, SHOW(OW_DIM_TEMPERATURE, p->set_ref_K[0]));
+	printf("\nAt the %s: %.1f rpm, %.1f %s", ow_compare_at_text(at), p->rpm,
+	       SHOW(OW_DIM_TEMPERATURE, p->set_ref_K[0]));
 	if (cmp->by_shift)
 		printf(" (%s at %.1f %s)", o->label[1],
 		       SHOW(OW_DIM_TEMPERATURE, p->set_ref_K[1]));
@@ -388,13 +388,15 @@ static int parse(int argc, char **argv, struct cmp_opts *o)
 			enum ow_paper p;
 
 			if (ow_report_paper_parse(optarg, &p))
-				return cli_usage_error("compare", "--paper takes "
-				                                  "a4 or letter");
+				return cli_usage_error("compare",
+				                       "--paper takes "
+				                       "a4 or letter");
 			o->paper = (int)p;
 			break;
 		}
 		case 'g':
-			if (cli_parse_grid(optarg, &o->rpm_steps, &o->axis_steps))
+			if (cli_parse_grid(optarg, &o->rpm_steps,
+			                   &o->axis_steps))
 				return cli_usage_error("compare",
 				                       "--grid takes "
 				                       "NxM, 2..1000 each");
@@ -427,9 +429,17 @@ static int parse(int argc, char **argv, struct cmp_opts *o)
 
 int cmd_compare(int argc, char **argv)
 {
-	struct cmp_opts o = {
-	    {OW_SYS_SI, 0, 0}, "opwin-compare", {"A", "B"}, NULL, 0, 0, 0,
-	    NULL, NULL, NULL, 0};
+	struct cmp_opts o = {{OW_SYS_SI, 0, 0},
+	                     "opwin-compare",
+	                     {"A", "B"},
+	                     NULL,
+	                     0,
+	                     0,
+	                     0,
+	                     NULL,
+	                     NULL,
+	                     NULL,
+	                     0};
 	struct ow_units *u = NULL; /* one unit database for both */
 	struct ow_study *s[2] = {NULL, NULL};
 	char date[16];

@@ -68,14 +68,13 @@ static void pad(FILE *f, const char *s, int width)
 }
 
 /* "value ± error unit" with the error to two significant digits. */
-static void fmt_pm(char *buf, size_t len, double v, double se,
-		   const char *unit)
+static void fmt_pm(char *buf, size_t len, double v, double se, const char *unit)
 {
 	int dec;
 
 	if (!isfinite(se) || se > 10.0 * fabs(v)) {
 		snprintf(buf, len, "%.4g %s (not determined by the data)", v,
-			 unit);
+		         unit);
 		return;
 	}
 	dec = se > 0 ? 1 - (int)floor(log10(se)) : 4;
@@ -85,8 +84,8 @@ static void fmt_pm(char *buf, size_t len, double v, double se,
 
 /* A parameter in the units people read: label, scale to display. */
 static void param_display(const char *key, enum ow_unit_system sys,
-			  const char **label, const char **unit,
-			  double *scale, double *offset)
+                          const char **label, const char **unit, double *scale,
+                          double *offset)
 {
 	*scale = 1.0;
 	*offset = 0.0;
@@ -103,8 +102,8 @@ static void param_display(const char *key, enum ow_unit_system sys,
 		*label = "critical stress";
 		*unit = sys == OW_SYS_US ? "psi" : "kPa";
 		*scale = sys == OW_SYS_US
-				 ? ow_display_value(sys, OW_DIM_PRESSURE, 1.0)
-				 : 1e-3;
+		             ? ow_display_value(sys, OW_DIM_PRESSURE, 1.0)
+		             : 1e-3;
 	} else if (!strcmp(key, "time_constant")) {
 		*label = "time constant";
 		*unit = "s";
@@ -124,7 +123,7 @@ static void param_display(const char *key, enum ow_unit_system sys,
 }
 
 static void print_params(FILE *f, const struct ow_fit_result *r,
-			 enum ow_unit_system sys)
+                         enum ow_unit_system sys)
 {
 	char buf[160];
 	int k;
@@ -143,72 +142,76 @@ static void print_params(FILE *f, const struct ow_fit_result *r,
 			fprintf(f, " (%.1f %%)", 100.0 * p->rel_error);
 		fputc('\n', f);
 	}
-	fprintf(f, "  RMS error %.4f in log10 viscosity (about %.1f %%), "
-		   "BIC %.1f, AIC %.1f\n", r->rms_log10,
-		100.0 * (pow(10.0, r->rms_log10) - 1.0), r->bic, r->aic);
+	fprintf(f,
+	        "  RMS error %.4f in log10 viscosity (about %.1f %%), "
+	        "BIC %.1f, AIC %.1f\n",
+	        r->rms_log10, 100.0 * (pow(10.0, r->rms_log10) - 1.0), r->bic,
+	        r->aic);
 }
 
 /* A temperature in the units people read, without a needless ".0". */
-static void fmt_temp(char *buf, size_t len, double T_K,
-		     enum ow_unit_system sys, int unit)
+static void fmt_temp(char *buf, size_t len, double T_K, enum ow_unit_system sys,
+                     int unit)
 {
 	double t = ow_display_value(sys, OW_DIM_TEMPERATURE, T_K);
 
 	snprintf(buf, len, "%.*f%s%s", fabs(t - round(t)) < 0.05 ? 0 : 1, t,
-		 unit ? " " : "",
-		 unit ? ow_display_label(sys, OW_DIM_TEMPERATURE) : "");
+	         unit ? " " : "",
+	         unit ? ow_display_label(sys, OW_DIM_TEMPERATURE) : "");
 }
 
 static void print_residuals(FILE *f, const struct ow_fit_result *r,
-			    enum ow_unit_system sys)
+                            enum ow_unit_system sys)
 {
 	int k;
 
-	fprintf(f, "  residuals log10(fit/data) by temperature:\n"
-		   "    %-12s %6s  %-20s %8s %8s %8s\n", "temperature",
-		"points", "shear rate (1/s)", "mean", "RMS", "max");
+	fprintf(f,
+	        "  residuals log10(fit/data) by temperature:\n"
+	        "    %-12s %6s  %-20s %8s %8s %8s\n",
+	        "temperature", "points", "shear rate (1/s)", "mean", "RMS",
+	        "max");
 	for (k = 0; k < r->n_temps; k++) {
 		const struct ow_fit_temp *t = &r->temps[k];
 		char temp[32], rates[40];
 
 		fmt_temp(temp, sizeof temp, t->temp_K, sys, 1);
 		snprintf(rates, sizeof rates, "%g .. %g", t->min_rate_1_s,
-			 t->max_rate_1_s);
+		         t->max_rate_1_s);
 		fputs("    ", f);
 		pad(f, temp, 12);
 		fprintf(f, " %6d  %-20s %+8.4f %8.4f %8.4f\n", t->n_points,
-			rates, t->mean_log10, t->rms_log10, t->max_abs_log10);
+		        rates, t->mean_log10, t->rms_log10, t->max_abs_log10);
 	}
 }
 
 static void print_data(FILE *f, const struct ow_fit_data *data,
-		       const struct ow_fit_report *rep,
-		       enum ow_unit_system sys)
+                       const struct ow_fit_report *rep, enum ow_unit_system sys)
 {
 	const char *tl = ow_display_label(sys, OW_DIM_TEMPERATURE);
 	char t[32];
 	int k;
 
 	fprintf(f, "data    %s: %zu points at %d temperatures (", data->source,
-		data->n, rep->n_temps);
+	        data->n, rep->n_temps);
 	for (k = 0; k < rep->n_temps; k++) {
 		fmt_temp(t, sizeof t, rep->temps_K[k], sys, 0);
 		fprintf(f, "%s%s", k ? ", " : "", t);
 	}
 	fprintf(f, " %s),\n        shear rate %g .. %g 1/s\n", tl,
-		rep->min_rate_1_s, rep->max_rate_1_s);
+	        rep->min_rate_1_s, rep->max_rate_1_s);
 	if (data->cox_merz)
 		fprintf(f, "        oscillatory data: complex viscosity at "
-			   "angular frequency w taken as\n        "
-			   "steady-shear viscosity at shear rate w (Cox-Merz "
-			   "rule)\n");
+		           "angular frequency w taken as\n        "
+		           "steady-shear viscosity at shear rate w (Cox-Merz "
+		           "rule)\n");
 	fmt_temp(t, sizeof t, rep->ref_temp_K, sys, 1);
-	fprintf(f, "fit     least squares on log10 viscosity, model and %s "
-		   "shift together;\n        reference temperature %s%s\n",
-		rep->opts.shift == OW_SHIFT_WLF ? "WLF" : "Arrhenius", t,
-		isfinite(rep->opts.ref_temp_K) ? ""
-					       : " (the middle data "
-						 "temperature)");
+	fprintf(f,
+	        "fit     least squares on log10 viscosity, model and %s "
+	        "shift together;\n        reference temperature %s%s\n",
+	        rep->opts.shift == OW_SHIFT_WLF ? "WLF" : "Arrhenius", t,
+	        isfinite(rep->opts.ref_temp_K) ? ""
+	                                       : " (the middle data "
+	                                         "temperature)");
 }
 
 static void print_warnings(FILE *f, const struct ow_fit_report *rep)
@@ -228,8 +231,8 @@ static void print_warnings(FILE *f, const struct ow_fit_report *rep)
 }
 
 static void print_summary(FILE *f, const struct ow_fit_data *data,
-			  const struct ow_fit_report *rep,
-			  enum ow_unit_system sys)
+                          const struct ow_fit_report *rep,
+                          enum ow_unit_system sys)
 {
 	int i, k;
 
@@ -243,8 +246,8 @@ static void print_summary(FILE *f, const struct ow_fit_data *data,
 			continue;
 		}
 		fprintf(f, "\n%s (%d parameters)%s\n", name, r->n_params,
-			i == rep->best && rep->n_fits > 1 ? ": recommended"
-							   : "");
+		        i == rep->best && rep->n_fits > 1 ? ": recommended"
+		                                          : "");
 		print_params(f, r, sys);
 		if (i == rep->best)
 			print_residuals(f, r, sys);
@@ -259,8 +262,8 @@ static void print_summary(FILE *f, const struct ow_fit_data *data,
 /* Write the block where asked; a merged resin file is loaded back to show
  * it is ready for `opwin check`. */
 static int write_outputs(const struct fit_args *a, struct ow_units *u,
-			 const struct ow_fit_data *data,
-			 const struct ow_fit_report *rep, FILE *info)
+                         const struct ow_fit_data *data,
+                         const struct ow_fit_report *rep, FILE *info)
 {
 	const struct ow_fit_result *b = &rep->fits[rep->best];
 	struct ow_diag d = {{0}}, why = {{0}};
@@ -268,10 +271,11 @@ static int write_outputs(const struct fit_args *a, struct ow_units *u,
 	char notes[600], *text = NULL;
 	enum ow_status st = OW_OK;
 
-	snprintf(notes, sizeof notes, "viscosity fitted by opwin fit to %s: "
-		 "%s model, %s shift, RMS error %.4f in log10 viscosity",
-		 data->source, ow_fit_model_name(b->visc.model),
-		 ow_fit_shift_name(b->visc.shift), b->rms_log10);
+	snprintf(notes, sizeof notes,
+	         "viscosity fitted by opwin fit to %s: "
+	         "%s model, %s shift, RMS error %.4f in log10 viscosity",
+	         data->source, ow_fit_model_name(b->visc.model),
+	         ow_fit_shift_name(b->visc.shift), b->rms_log10);
 	if (!a->out && !a->into) {
 		st = ow_fit_block_text(&b->visc, notes, &text, &d);
 		if (st == OW_OK)
@@ -285,10 +289,12 @@ static int write_outputs(const struct fit_args *a, struct ow_units *u,
 	if (st == OW_OK && a->into &&
 	    (st = ow_fit_merge_into(&b->visc, a->into, &d)) == OW_OK && info) {
 		fprintf(info, "\nmerged the viscosity block into %s\n",
-			a->into);
+		        a->into);
 		if (ow_config_load_resin(u, a->into, &m, &why) != OW_OK)
-			fprintf(info, "  but that file does not load as a "
-				      "resin yet: %s\n", why.msg);
+			fprintf(info,
+			        "  but that file does not load as a "
+			        "resin yet: %s\n",
+			        why.msg);
 	}
 	if (st == OW_OK && a->plot &&
 	    (st = ow_fit_plot_png(data, b, a->c.units, a->plot, &d)) == OW_OK &&
@@ -333,14 +339,15 @@ static int option(void *ctx, int id, const char *arg)
 	switch (id) {
 	case 'm':
 		if (ow_fit_model_parse(arg, &m) != OW_OK)
-			return cli_usage_error("fit", "--model takes cross, "
-					       "carreau-yasuda or power-law");
+			return cli_usage_error("fit",
+			                       "--model takes cross, "
+			                       "carreau-yasuda or power-law");
 		a->opts.model = (int)m;
 		return 0;
 	case 's':
 		if (ow_fit_shift_parse(arg, &a->opts.shift) != OW_OK)
 			return cli_usage_error("fit", "--shift takes arrhenius "
-						      "or wlf");
+			                              "or wlf");
 		return 0;
 	case 'o':
 		a->out = arg;
@@ -359,16 +366,16 @@ static int option(void *ctx, int id, const char *arg)
 int cmd_fit(int argc, char **argv)
 {
 	static const struct option opts[] = {
-		CLI_COMMON_LONGOPTS,
-		{"model", required_argument, NULL, 'm'},
-		{"shift", required_argument, NULL, 's'},
-		{"output", required_argument, NULL, 'o'},
-		{"into", required_argument, NULL, 'I'},
-		{"plot", required_argument, NULL, 'p'},
-		{NULL, 0, NULL, 0},
+	    CLI_COMMON_LONGOPTS,
+	    {"model", required_argument, NULL, 'm'},
+	    {"shift", required_argument, NULL, 's'},
+	    {"output", required_argument, NULL, 'o'},
+	    {"into", required_argument, NULL, 'I'},
+	    {"plot", required_argument, NULL, 'p'},
+	    {NULL, 0, NULL, 0},
 	};
-	static const struct cli_spec spec = {"fit", opts, "ho:q", help, option,
-					     1, "expects one DATA.csv"};
+	static const struct cli_spec spec = {
+	    "fit", opts, "ho:q", help, option, 1, "expects one DATA.csv"};
 	struct fit_args a;
 	char **args;
 	int rc;

@@ -21,37 +21,37 @@ struct map_opts {
 
 static void help(void)
 {
-	printf("usage: opwin map STUDY.json [-o DIR] [--grid NxM] [--refine K]\n"
-	       "                [--jobs N] [--units si|us] [--quiet]\n"
-	       "                [--paper a4|letter] [--revision R] "
-	       "[--prepared-by NAME]\n"
-	       "                [--approved-by NAME] [--date YYYY-MM-DD] "
-	       "[--current RPM,SET]\n"
-	       "                [--spread SPEC] [--samples N] [--seed S] "
-	       "[--level P]\n\n"
-	       "Sweeps screw speed x barrel set-point, classifies every point "
-	       "against the\nstudy's limits, extracts the recommended window "
-	       "and writes grid.csv,\nwindow.json, the maps and report.pdf "
-	       "into DIR (default: opwin-map).\n\n"
-	       "  -o DIR        output folder, written whole: a previous map "
-	       "folder there\n                is replaced once the new one "
-	       "is complete\n"
-	       "  --grid NxM    N speeds x M barrel values (default: the "
-	       "study's sweep)\n"
-	       "  --refine K    re-solve cells a boundary crosses, K levels "
-	       "of halving (0..4)\n"
-	       "  --jobs N      threads (default: all cores)\n"
-	       "  --quiet       no progress bar, no summary\n"
-	       "  --units si|us units of the maps, report and summary\n"
-	       CLI_RENDER_HELP
-	       CLI_SPREAD_HELP
-	       "exit codes: 0 ok (also for an empty window), 1 inputs "
-	       "rejected, 2 usage,\n            3 computation failed, 4 "
-	       "output could not be written\n");
+	printf(
+	    "usage: opwin map STUDY.json [-o DIR] [--grid NxM] [--refine K]\n"
+	    "                [--jobs N] [--units si|us] [--quiet]\n"
+	    "                [--paper a4|letter] [--revision R] "
+	    "[--prepared-by NAME]\n"
+	    "                [--approved-by NAME] [--date YYYY-MM-DD] "
+	    "[--current RPM,SET]\n"
+	    "                [--spread SPEC] [--samples N] [--seed S] "
+	    "[--level P]\n\n"
+	    "Sweeps screw speed x barrel set-point, classifies every point "
+	    "against the\nstudy's limits, extracts the recommended window "
+	    "and writes grid.csv,\nwindow.json, the maps and report.pdf "
+	    "into DIR (default: opwin-map).\n\n"
+	    "  -o DIR        output folder, written whole: a previous map "
+	    "folder there\n                is replaced once the new one "
+	    "is complete\n"
+	    "  --grid NxM    N speeds x M barrel values (default: the "
+	    "study's sweep)\n"
+	    "  --refine K    re-solve cells a boundary crosses, K levels "
+	    "of halving (0..4)\n"
+	    "  --jobs N      threads (default: all cores)\n"
+	    "  --quiet       no progress bar, no summary\n"
+	    "  --units si|us units of the maps, report and "
+	    "summary\n" CLI_RENDER_HELP CLI_SPREAD_HELP
+	    "exit codes: 0 ok (also for an empty window), 1 inputs "
+	    "rejected, 2 usage,\n            3 computation failed, 4 "
+	    "output could not be written\n");
 }
 
-#define SHOW(dim, si) ow_display_value(o->c.units, dim, si), \
-		      ow_display_label(o->c.units, dim)
+#define SHOW(dim, si)                                                          \
+	ow_display_value(o->c.units, dim, si), ow_display_label(o->c.units, dim)
 
 static void print_empty(const struct ow_window *w)
 {
@@ -69,21 +69,22 @@ static void print_empty(const struct ow_window *w)
  * towards the inside of the range as the report prints them, so a bound
  * written down stays safe; expected ranges to the nearest. */
 static void range(const struct map_opts *o, enum ow_dim dim, double lo,
-		  double hi, int decimals, int inward)
+                  double hi, int decimals, int inward)
 {
 	char a[32], b[32];
 
-	ow_report_format_bound(a, sizeof a, ow_display_value(o->c.units, dim, lo),
-			       decimals, inward ? OW_ROUND_UP : OW_ROUND_NEAREST);
-	ow_report_format_bound(b, sizeof b, ow_display_value(o->c.units, dim, hi),
-			       decimals,
-			       inward ? OW_ROUND_DOWN : OW_ROUND_NEAREST);
+	ow_report_format_bound(a, sizeof a,
+	                       ow_display_value(o->c.units, dim, lo), decimals,
+	                       inward ? OW_ROUND_UP : OW_ROUND_NEAREST);
+	ow_report_format_bound(b, sizeof b,
+	                       ow_display_value(o->c.units, dim, hi), decimals,
+	                       inward ? OW_ROUND_DOWN : OW_ROUND_NEAREST);
 	printf("%s - %s %s", a, b, ow_display_label(o->c.units, dim));
 }
 
 /* What sets one bound and how finely it is located, under its range. */
 static void print_setter(const struct map_opts *o, const struct ow_window *w,
-			 enum ow_window_side side, const char *end)
+                         enum ow_window_side side, const char *end)
 {
 	const struct ow_window_bound *b = &w->bound[side];
 	int rpm = side == OW_WB_RPM_MIN || side == OW_WB_RPM_MAX;
@@ -97,15 +98,14 @@ static void print_setter(const struct map_opts *o, const struct ow_window *w,
 		else
 			printf(" (located within %g %s)",
 			       ow_display_value(o->c.units, OW_DIM_TEMP_DIFF,
-						b->resolution),
+			                        b->resolution),
 			       ow_display_label(o->c.units, OW_DIM_TEMP_DIFF));
 	}
 	printf("\n");
 }
 
 static void print_window(const struct ow_study *s, const struct ow_grid *g,
-			 const struct ow_window *w,
-			 const struct map_opts *o)
+                         const struct ow_window *w, const struct map_opts *o)
 {
 	int z, ref = ow_line_reference_zone(&s->line);
 
@@ -135,7 +135,8 @@ static void print_window(const struct ow_study *s, const struct ow_grid *g,
 	printf("  centre point      %.0f rpm at %.1f %s\n", w->centre.rpm,
 	       SHOW(OW_DIM_TEMPERATURE, w->centre_set_K));
 	printf("  expected output   ");
-	range(o, OW_DIM_MASS_FLOW, w->output_min_kg_s, w->output_max_kg_s, 1, 0);
+	range(o, OW_DIM_MASS_FLOW, w->output_min_kg_s, w->output_max_kg_s, 1,
+	      0);
 	printf("\n  melt temperature  ");
 	range(o, OW_DIM_TEMPERATURE, w->melt_min_K, w->melt_max_K, 0, 0);
 	printf(" bulk at discharge, hottest peak %.1f %s\n",
@@ -216,7 +217,8 @@ static int run(const struct ow_study *s, struct map_opts *o)
 		print_window(s, m->grid, m->window, o);
 		cli_spread_print(m, o->c.units);
 		printf("written to %s/ (grid.csv, window.json, maps, "
-		       "report.pdf)\n", o->dir);
+		       "report.pdf)\n",
+		       o->dir);
 	}
 	ow_map_destroy(m);
 	return rc;
@@ -225,13 +227,13 @@ static int run(const struct ow_study *s, struct map_opts *o)
 int cmd_map(int argc, char **argv)
 {
 	static const struct option opts[] = {
-		CLI_COMMON_LONGOPTS,
-		CLI_RENDER_LONGOPTS,
-		{"output", required_argument, NULL, 'o'},
-		{"grid", required_argument, NULL, 'g'},
-		{"refine", required_argument, NULL, 'r'},
-		CLI_SPREAD_LONGOPTS,
-		{NULL, 0, NULL, 0},
+	    CLI_COMMON_LONGOPTS,
+	    CLI_RENDER_LONGOPTS,
+	    {"output", required_argument, NULL, 'o'},
+	    {"grid", required_argument, NULL, 'g'},
+	    {"refine", required_argument, NULL, 'r'},
+	    CLI_SPREAD_LONGOPTS,
+	    {NULL, 0, NULL, 0},
 	};
 	struct map_opts o = {.c = {OW_SYS_SI, 0, 0}, .dir = "opwin-map"};
 	struct ow_units *u = NULL;
@@ -251,21 +253,22 @@ int cmd_map(int argc, char **argv)
 			o.dir = optarg;
 		} else if (id == 'g') {
 			if (cli_parse_grid(optarg, &o.rpm_steps, &o.axis_steps))
-				return cli_usage_error("map", "--grid takes NxM, "
-							      "2..1000 each");
+				return cli_usage_error("map",
+				                       "--grid takes NxM, "
+				                       "2..1000 each");
 		} else if (id == 'r') {
 			long k = strtol(optarg, &end, 10);
 
 			if (*end || !*optarg || k < 0 || k > 4)
 				return cli_usage_error("map",
-						       "--refine takes 0..4");
+				                       "--refine takes 0..4");
 			o.refine = (int)k;
 		} else if ((rc = cli_spread_option(&o.sp, id, optarg)) >= 0) {
 			if (rc)
 				return rc;
 		} else if ((rc = cli_render_option("map", &o.r, id, optarg))) {
-			if (rc > 0 || (rc = cli_common_option("map", &o.c, id,
-							      optarg)))
+			if (rc > 0 ||
+			    (rc = cli_common_option("map", &o.c, id, optarg)))
 				return rc;
 		}
 	}
@@ -275,8 +278,8 @@ int cmd_map(int argc, char **argv)
 		return rc;
 	rc = cli_spread_load(u, &o.sp, s);
 	if (!rc)
-		rc = cli_render_current("map", u, &o.r, o.c.units,
-					s->own_units);
+		rc =
+		    cli_render_current("map", u, &o.r, o.c.units, s->own_units);
 	if (!rc)
 		rc = cli_outdir_check("map", o.dir);
 	if (!rc)

@@ -53,12 +53,12 @@ static void print_limit_lines(const struct ow_verdict *v)
 	printf("\n");
 }
 
-#define SHOW(dim, si) ow_display_value(o->c.units, dim, si), \
-		      ow_display_label(o->c.units, dim)
+#define SHOW(dim, si)                                                          \
+	ow_display_value(o->c.units, dim, si), ow_display_label(o->c.units, dim)
 
 /* A line for each zone that cannot hold its set-point. */
 static void print_zones(const struct ow_study *s, const struct ow_point *pt,
-			const struct point_opts *o)
+                        const struct point_opts *o)
 {
 	int i;
 
@@ -69,18 +69,17 @@ static void print_zones(const struct ow_study *s, const struct ow_point *pt,
 		if (!(pt->zone_floating & (1u << i)))
 			continue;
 		printf("zone %-4d cannot hold set-point: needs %.2f %s of %s, "
-		       "has %.2f %s; runs at %.1f %s\n", i + 1,
-		       SHOW(OW_DIM_POWER, fabs(need)),
+		       "has %.2f %s; runs at %.1f %s\n",
+		       i + 1, SHOW(OW_DIM_POWER, fabs(need)),
 		       need < 0.0 ? "cooling" : "heating",
 		       SHOW(OW_DIM_POWER,
-			    need < 0.0 ? z->cooling_W : z->heating_W),
+		            need < 0.0 ? z->cooling_W : z->heating_W),
 		       SHOW(OW_DIM_TEMPERATURE, pt->zone_control_K[i]));
 	}
 }
 
 static void print_note(const struct ow_study *s, const struct ow_point *pt,
-		       const struct ow_verdict *v,
-		       const struct point_opts *o)
+                       const struct ow_verdict *v, const struct point_opts *o)
 {
 	double D = s->screw.diameter_m;
 
@@ -106,10 +105,11 @@ static void print_note(const struct ow_study *s, const struct ow_point *pt,
 	else
 		printf("melting   NOT complete: %.2f %% of the mass leaves "
 		       "unmelted; solid bed ratio in the transition %.2f, "
-		       "plugging number %.2f\n", 100.0 * pt->unmelt_frac,
-		       pt->max_sbr, pt->plug_ratio);
+		       "plugging number %.2f\n",
+		       100.0 * pt->unmelt_frac, pt->max_sbr, pt->plug_ratio);
 	printf("drive     %.2f %s, torque %.0f %s, specific energy %.4f "
-	       "%s\n", SHOW(OW_DIM_POWER, pt->power_W),
+	       "%s\n",
+	       SHOW(OW_DIM_POWER, pt->power_W),
 	       SHOW(OW_DIM_TORQUE, pt->torque_Nm),
 	       SHOW(OW_DIM_SPECIFIC_ENERGY, pt->sec_J_kg));
 	if (isfinite(pt->feed_capacity_kg_s))
@@ -125,8 +125,7 @@ static void print_note(const struct ow_study *s, const struct ow_point *pt,
 	       ow_display_value(o->c.units, OW_DIM_POWER, pt->power_W),
 	       ow_display_value(o->c.units, OW_DIM_POWER, pt->barrel_heat_W),
 	       ow_display_value(o->c.units, OW_DIM_POWER, pt->root_heat_W),
-	       ow_display_value(o->c.units, OW_DIM_POWER,
-				pt->enthalpy_rise_W),
+	       ow_display_value(o->c.units, OW_DIM_POWER, pt->enthalpy_rise_W),
 	       SHOW(OW_DIM_POWER, pt->flow_work_W));
 	print_limit_lines(v);
 	if (pt->flags & OW_FLAG_NOT_CONVERGED)
@@ -135,7 +134,7 @@ static void print_note(const struct ow_study *s, const struct ow_point *pt,
 }
 
 static int write_profile(const struct ow_study *s, const struct ow_solver *sv,
-			 const char *path)
+                         const char *path)
 {
 	struct ow_diag d = {{0}};
 	const struct ow_profile_row *rows;
@@ -152,7 +151,7 @@ static int write_profile(const struct ow_study *s, const struct ow_solver *sv,
 }
 
 static int report(const struct ow_study *s, const struct ow_solver *sv,
-		  const struct ow_point *pt, const struct point_opts *o)
+                  const struct ow_point *pt, const struct point_opts *o)
 {
 	struct ow_verdict v;
 	struct ow_diag d = {{0}};
@@ -179,7 +178,7 @@ static int report(const struct ow_study *s, const struct ow_solver *sv,
 }
 
 static int solve(const struct ow_units *u, const struct ow_study *s,
-		 const struct point_opts *o)
+                 const struct point_opts *o)
 {
 	struct ow_diag d = {{0}};
 	struct ow_solver *sv = NULL;
@@ -189,11 +188,11 @@ static int solve(const struct ow_units *u, const struct ow_study *s,
 	int rc;
 
 	enum ow_dim dim = s->line.axes.mode == OW_AXIS_SHIFT
-				  ? OW_DIM_TEMP_DIFF
-				  : OW_DIM_TEMPERATURE;
+	                      ? OW_DIM_TEMP_DIFF
+	                      : OW_DIM_TEMPERATURE;
 
-	st = cli_read_value(u, o->rpm, OW_DIM_ROT_SPEED, s->own_units, &rpm,
-			    &d);
+	st =
+	    cli_read_value(u, o->rpm, OW_DIM_ROT_SPEED, s->own_units, &rpm, &d);
 	if (st == OW_OK && o->set)
 		st = cli_read_value(u, o->set, dim, s->own_units, &v, &d);
 	if (st != OW_OK)
@@ -204,8 +203,8 @@ static int solve(const struct ow_units *u, const struct ow_study *s,
 		ow_line_apply_axis(&s->line, v, set_K);
 	st = ow_solver_create(s, &sv, &d);
 	if (st == OW_OK)
-		st = ow_solver_run(sv, rpm, o->set ? set_K : NULL, 0.0, &pt,
-				   &d);
+		st =
+		    ow_solver_run(sv, rpm, o->set ? set_K : NULL, 0.0, &pt, &d);
 	rc = st == OW_OK ? report(s, sv, &pt, o) : cli_fail("point", st, &d);
 	ow_solver_destroy(sv);
 	return rc;
@@ -236,15 +235,15 @@ static int option(void *ctx, int id, const char *arg)
 int cmd_point(int argc, char **argv)
 {
 	static const struct option opts[] = {
-		CLI_COMMON_LONGOPTS,
-		{"rpm", required_argument, NULL, 'r'},
-		{"set", required_argument, NULL, 's'},
-		{"profile", required_argument, NULL, 'p'},
-		{"json", no_argument, NULL, 'J'},
-		{NULL, 0, NULL, 0},
+	    CLI_COMMON_LONGOPTS,
+	    {"rpm", required_argument, NULL, 'r'},
+	    {"set", required_argument, NULL, 's'},
+	    {"profile", required_argument, NULL, 'p'},
+	    {"json", no_argument, NULL, 'J'},
+	    {NULL, 0, NULL, 0},
 	};
-	static const struct cli_spec spec = {"point", opts, "hq", help, option,
-					     1, "expects one STUDY.json"};
+	static const struct cli_spec spec = {
+	    "point", opts, "hq", help, option, 1, "expects one STUDY.json"};
 	struct point_opts o = {{OW_SYS_SI, 0, 0}, NULL, NULL, NULL, 0};
 	struct ow_units *u = NULL;
 	struct ow_study *s = NULL;

@@ -22,8 +22,8 @@ static void help(void)
 	       "Draws the maps and report.pdf again from the map folder DIR "
 	       "written by\n`opwin map STUDY.json -o DIR`, without solving "
 	       "any point.\n\n"
-	       "  --units U          si (default) or us: units people read\n"
-	       CLI_RENDER_HELP
+	       "  --units U          si (default) or us: units people "
+	       "read\n" CLI_RENDER_HELP
 	       "DIR must be whole as `opwin map` wrote it (its manifest.json "
 	       "lists every\nfile's size and checksum); it is replaced whole "
 	       "once the drawings are done.\n\n"
@@ -32,12 +32,12 @@ static void help(void)
 }
 
 static int parse(int argc, char **argv, struct cli_common *c,
-		 struct cli_render *r, const char **dir)
+                 struct cli_render *r, const char **dir)
 {
 	static const struct option opts[] = {
-		CLI_COMMON_LONGOPTS,
-		CLI_RENDER_LONGOPTS,
-		{NULL, 0, NULL, 0},
+	    CLI_COMMON_LONGOPTS,
+	    CLI_RENDER_LONGOPTS,
+	    {NULL, 0, NULL, 0},
 	};
 	int id, rc;
 
@@ -88,12 +88,16 @@ static int keep_previous_report(const char *dir, const char *tmp)
 	if (out && fclose(out) != 0)
 		ok = 0;
 	if (!ok) {
-		fprintf(stderr, "opwin report: %s: cannot keep the previous "
-			"report as %s\n", from, to);
+		fprintf(stderr,
+		        "opwin report: %s: cannot keep the previous "
+		        "report as %s\n",
+		        from, to);
 		return CLI_OUTPUT;
 	}
-	fprintf(stderr, "opwin report: the previous report.pdf is kept as "
-		"report-previous-%s.pdf\n", stamp);
+	fprintf(stderr,
+	        "opwin report: the previous report.pdf is kept as "
+	        "report-previous-%s.pdf\n",
+	        stamp);
 	return CLI_OK;
 }
 
@@ -101,7 +105,7 @@ static int keep_previous_report(const char *dir, const char *tmp)
  * replaces the folder whole, so an interrupted report leaves it as it was
  * and its manifest always matches. */
 static int render_folder(const struct ow_map *m, const struct cli_render *r,
-			 const char *dir)
+                         const char *dir)
 {
 	struct cli_outdir od;
 	struct ow_diag d = {{0}};
@@ -111,7 +115,7 @@ static int render_folder(const struct ow_map *m, const struct cli_render *r,
 	if (!rc) {
 		st = ow_mapdir_copy_data(dir, od.tmp, &d);
 		rc = st == OW_OK ? keep_previous_report(dir, od.tmp)
-				 : cli_fail("report", st, &d);
+		                 : cli_fail("report", st, &d);
 		if (!rc) {
 			st = ow_map_draw(m, &r->rep, r->jobs, od.tmp, &d);
 			if (st != OW_OK)
@@ -122,7 +126,7 @@ static int render_folder(const struct ow_map *m, const struct cli_render *r,
 }
 
 static int redraw(const struct ow_units *u, const char *dir,
-		  const struct cli_common *c, struct cli_render *r)
+                  const struct cli_common *c, struct cli_render *r)
 {
 	struct ow_map *m = NULL;
 	struct ow_diag d = {{0}};
@@ -130,8 +134,8 @@ static int redraw(const struct ow_units *u, const char *dir,
 	int rc;
 
 	rc = st != OW_OK ? cli_fail("report", st, &d)
-			 : cli_render_current("report", u, r, c->units,
-					      m->study->own_units);
+	                 : cli_render_current("report", u, r, c->units,
+	                                      m->study->own_units);
 	r->jobs = c->jobs;
 	if (!rc)
 		rc = render_folder(m, r, dir);

@@ -29,14 +29,14 @@ int cli_exit_code(enum ow_status st)
 int cli_fail(const char *cmd, enum ow_status st, const struct ow_diag *d)
 {
 	fprintf(stderr, "opwin %s: %s\n", cmd,
-		d && d->msg[0] ? d->msg : ow_strerror(st));
+	        d && d->msg[0] ? d->msg : ow_strerror(st));
 	return cli_exit_code(st);
 }
 
 int cli_usage_error(const char *cmd, const char *msg)
 {
 	fprintf(stderr, "opwin %s: %s\nTry 'opwin %s --help'.\n", cmd, msg,
-		cmd);
+	        cmd);
 	return CLI_USAGE;
 }
 
@@ -46,7 +46,7 @@ void cli_version(void)
 }
 
 int cli_common_option(const char *cmd, struct cli_common *c, int id,
-		      const char *arg)
+                      const char *arg)
 {
 	char *end = NULL;
 	long j;
@@ -60,7 +60,7 @@ int cli_common_option(const char *cmd, struct cli_common *c, int id,
 		j = strtol(arg, &end, 10);
 		if (!*arg || *end || j < 0 || j > 1024)
 			return cli_usage_error(cmd, "--jobs takes a count "
-						    "0..1024 (0: all cores)");
+			                            "0..1024 (0: all cores)");
 		c->jobs = (int)j;
 		return 0;
 	case 'q':
@@ -72,7 +72,7 @@ int cli_common_option(const char *cmd, struct cli_common *c, int id,
 }
 
 int cli_options(const struct cli_spec *sp, int argc, char **argv, void *ctx,
-		struct cli_common *c, char ***args)
+                struct cli_common *c, char ***args)
 {
 	int id, rc;
 
@@ -96,7 +96,7 @@ int cli_options(const struct cli_spec *sp, int argc, char **argv, void *ctx,
 }
 
 int cli_load_study(const char *cmd, const char *path, struct ow_units **u,
-		   struct ow_study **study)
+                   struct ow_study **study)
 {
 	struct ow_diag d = {{0}};
 	int own = *u == NULL;
@@ -139,7 +139,7 @@ int cli_parse_grid(const char *s, int *n, int *m)
 static int month_days(int y, int m)
 {
 	static const int days[12] = {31, 28, 31, 30, 31, 30,
-				     31, 31, 30, 31, 30, 31};
+	                             31, 31, 30, 31, 30, 31};
 	int leap = (y % 4 == 0 && y % 100 != 0) || y % 400 == 0;
 
 	return days[m - 1] + (m == 2 && leap);
@@ -150,12 +150,11 @@ int cli_valid_date(const char *s)
 	int y, m, d, n = 0, i;
 
 	for (i = 0; i < 10; i++) /* digits and dashes only: no signs, spaces */
-		if (!s[i] || (i == 4 || i == 7 ? s[i] != '-'
-					       : s[i] < '0' || s[i] > '9'))
+		if (!s[i] ||
+		    (i == 4 || i == 7 ? s[i] != '-' : s[i] < '0' || s[i] > '9'))
 			return 0;
-	return !s[10] &&
-	       sscanf(s, "%4d-%2d-%2d%n", &y, &m, &d, &n) == 3 && n == 10 &&
-	       y >= 1 && m >= 1 && m <= 12 && d >= 1 &&
+	return !s[10] && sscanf(s, "%4d-%2d-%2d%n", &y, &m, &d, &n) == 3 &&
+	       n == 10 && y >= 1 && m >= 1 && m <= 12 && d >= 1 &&
 	       d <= month_days(y, m);
 }
 
@@ -189,12 +188,12 @@ int cli_make_dir(const char *cmd, const char *dir)
 	struct stat st;
 
 	cli_make_parents(dir);
-	if ((mkdir(dir, 0777) == 0 || errno == EEXIST) &&
-	    stat(dir, &st) == 0 && S_ISDIR(st.st_mode))
+	if ((mkdir(dir, 0777) == 0 || errno == EEXIST) && stat(dir, &st) == 0 &&
+	    S_ISDIR(st.st_mode))
 		return CLI_OK;
 	fprintf(stderr, "opwin %s: %s: cannot create the output folder: %s\n",
-		cmd, dir, errno == EEXIST ? "a file has that name"
-					  : strerror(errno));
+	        cmd, dir,
+	        errno == EEXIST ? "a file has that name" : strerror(errno));
 	return CLI_OUTPUT;
 }
 
@@ -223,9 +222,9 @@ void cli_progress_show(void *ctx, int done, int total)
 	memset(bar, '#', (size_t)fill);
 	memset(bar + fill, '.', (size_t)(width - fill));
 	bar[width] = '\0';
-	fprintf(stderr, "\r%s [%s] %d/%d points, %.0f/s, %.0f s left ",
-		p->name, bar, done, total, rate,
-		rate > 0.0 ? (total - done) / rate : 0.0);
+	fprintf(stderr, "\r%s [%s] %d/%d points, %.0f/s, %.0f s left ", p->name,
+	        bar, done, total, rate,
+	        rate > 0.0 ? (total - done) / rate : 0.0);
 	if (done >= total)
 		fprintf(stderr, "\n");
 }

@@ -8,14 +8,14 @@ static int cmd_help(int argc, char **argv);
 
 /* Sorted by name. */
 static const struct cli_command commands[] = {
-	{"calibrate", cmd_calibrate, "fit model factors to line readings"},
-	{"check", cmd_check, "validate inputs; print derived screw data"},
-	{"compare", cmd_compare, "two studies on one grid, common window"},
-	{"fit", cmd_fit, "fit a viscosity model to lab data"},
-	{"help", cmd_help, "help on a command: opwin help COMMAND"},
-	{"map", cmd_map, "sweep, classify, window, maps and report"},
-	{"point", cmd_point, "solve one operating point"},
-	{"report", cmd_report, "redraw maps and report from a map folder"},
+    {"calibrate", cmd_calibrate, "fit model factors to line readings"},
+    {"check", cmd_check, "validate inputs; print derived screw data"},
+    {"compare", cmd_compare, "two studies on one grid, common window"},
+    {"fit", cmd_fit, "fit a viscosity model to lab data"},
+    {"help", cmd_help, "help on a command: opwin help COMMAND"},
+    {"map", cmd_map, "sweep, classify, window, maps and report"},
+    {"point", cmd_point, "solve one operating point"},
+    {"report", cmd_report, "redraw maps and report from a map folder"},
 };
 
 #define N_COMMANDS (sizeof commands / sizeof commands[0])
@@ -35,13 +35,13 @@ static void usage(FILE *f)
 	size_t i;
 
 	fprintf(f, "usage: opwin COMMAND [options] ...\n\n"
-		   "Maps the safe operating window of a single-screw "
-		   "extruder.\n\ncommands:\n");
+	           "Maps the safe operating window of a single-screw "
+	           "extruder.\n\ncommands:\n");
 	for (i = 0; i < N_COMMANDS; i++)
 		fprintf(f, "  %-9s %s\n", commands[i].name,
-			commands[i].summary);
+		        commands[i].summary);
 	fprintf(f, "\ncommon options: --units si|us, --jobs N, --quiet, "
-		   "--help, --version\n");
+	           "--help, --version\n");
 }
 
 /* `opwin help X` is `opwin X --help`. */

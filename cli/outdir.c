@@ -73,15 +73,16 @@ int cli_outdir_finish(const char *cmd, struct cli_outdir *o, int rc)
 		st = ow_mapdir_seal(o->tmp, &d);
 		if (st == OW_OK && !pending_signal)
 			st = ow_mapdir_replace(o->tmp, o->dir, left,
-					       sizeof left, &d);
+			                       sizeof left, &d);
 		if (st == OW_OK) {
 			o->tmp[0] = '\0'; /* in place: tmp was the old one */
 			placed = 1;
 			if (left[0])
-				fprintf(stderr, "opwin %s: the previous %s "
-					"held files that could not be moved "
-					"or removed; they are in %s\n", cmd,
-					o->dir, left);
+				fprintf(stderr,
+				        "opwin %s: the previous %s "
+				        "held files that could not be moved "
+				        "or removed; they are in %s\n",
+				        cmd, o->dir, left);
 		}
 		if (st != OW_OK)
 			rc = cli_fail(cmd, st, &d);
@@ -89,9 +90,10 @@ int cli_outdir_finish(const char *cmd, struct cli_outdir *o, int rc)
 	if (o->tmp[0]) { /* not put in place: discard it whole */
 		ow_io_dir_remove(o->tmp, NULL, NULL, NULL);
 		if (rc)
-			fprintf(stderr, "opwin %s: %s: left as it was (the "
-				"outputs went into %s, now removed)\n",
-				cmd, o->dir, o->tmp);
+			fprintf(stderr,
+			        "opwin %s: %s: left as it was (the "
+			        "outputs went into %s, now removed)\n",
+			        cmd, o->dir, o->tmp);
 	}
 	/* a signal that came once the new folder was in place finds the
 	 * run complete: nothing is undone, so the run ends normally */

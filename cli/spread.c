@@ -28,15 +28,14 @@ int cli_spread_option(struct cli_spread *sp, int id, const char *arg)
 		if (*end || !*arg || v != floor(v) || v < 2 ||
 		    v > OW_SPREAD_MAX_SAMPLES)
 			return cli_usage_error("map", "--samples takes "
-						      "2..1024");
+			                              "2..1024");
 		sp->cfg.samples = (int)v;
 		return 0;
 	case CLI_SP_SEED:
 		v = strtod(arg, &end);
-		if (*end || !*arg || v != floor(v) || v < 0 ||
-		    v > 4294967295.0)
+		if (*end || !*arg || v != floor(v) || v < 0 || v > 4294967295.0)
 			return cli_usage_error("map", "--seed takes an "
-						      "integer 0..4294967295");
+			                              "integer 0..4294967295");
 		sp->cfg.seed = (long)v;
 		return 0;
 	case CLI_SP_LEVEL:
@@ -45,7 +44,7 @@ int cli_spread_option(struct cli_spread *sp, int id, const char *arg)
 			v /= 100.0, end++;
 		if (*end || !*arg || !(v > 0.0 && v <= 1.0))
 			return cli_usage_error("map", "--level takes a share "
-						      "in (0, 1] or (0, 100]%");
+			                              "in (0, 1] or (0, 100]%");
 		sp->cfg.level = v;
 		return 0;
 	default:
@@ -65,15 +64,23 @@ static int short_item(const char *item, char *out, size_t n)
 	len = (int)(eq - item);
 	v = eq + 1;
 	if ((dots = strstr(v, "..")))
-		return snprintf(out, n, "\"%.*s\":{\"from\":\"%.*s\",\"to\":"
-				"\"%s\"}", len, item, (int)(dots - v), v,
-				dots + 2) < (int)n ? 0 : -1;
+		return snprintf(out, n,
+		                "\"%.*s\":{\"from\":\"%.*s\",\"to\":"
+		                "\"%s\"}",
+		                len, item, (int)(dots - v), v,
+		                dots + 2) < (int)n
+		           ? 0
+		           : -1;
 	if (strncmp(v, "+-", 2) == 0)
 		return snprintf(out, n, "\"%.*s\":{\"plus_minus\":\"%s\"}", len,
-				item, v + 2) < (int)n ? 0 : -1;
+		                item, v + 2) < (int)n
+		           ? 0
+		           : -1;
 	if (strncmp(v, "sd ", 3) == 0)
 		return snprintf(out, n, "\"%.*s\":{\"sd\":\"%s\"}", len, item,
-				v + 3) < (int)n ? 0 : -1;
+		                v + 3) < (int)n
+		           ? 0
+		           : -1;
 	return -1;
 }
 
@@ -108,7 +115,7 @@ static char *short_json(const char *spec)
 }
 
 int cli_spread_load(const struct ow_units *u, struct cli_spread *sp,
-		    struct ow_study *s)
+                    struct ow_study *s)
 {
 	struct ow_diag d = {{0}};
 	char *json;
@@ -116,16 +123,18 @@ int cli_spread_load(const struct ow_units *u, struct cli_spread *sp,
 
 	if (!sp->spec && !s->spread.present &&
 	    (sp->cfg.samples > 0 || sp->cfg.seed >= 0 || sp->cfg.level > 0))
-		return cli_usage_error("map", "--samples, --seed and --level "
-				       "need a spread (the study's spread "
-				       "block or --spread)");
+		return cli_usage_error("map",
+		                       "--samples, --seed and --level "
+		                       "need a spread (the study's spread "
+		                       "block or --spread)");
 	if (!sp->spec)
 		return CLI_OK;
 	json = sp->spec[0] == '{' ? strdup(sp->spec) : short_json(sp->spec);
 	if (!json)
-		return cli_usage_error("map", "--spread takes the spread block "
-				       "as JSON or name=FROM..TO, name=+-W, "
-				       "name=sd W joined by commas");
+		return cli_usage_error("map",
+		                       "--spread takes the spread block "
+		                       "as JSON or name=FROM..TO, name=+-W, "
+		                       "name=sd W joined by commas");
 	st = ow_config_spread_text(u, json, "--spread", s, &d);
 	free(json);
 	return st == OW_OK ? CLI_OK : cli_fail("map", st, &d);
@@ -133,14 +142,14 @@ int cli_spread_load(const struct ow_units *u, struct cli_spread *sp,
 
 /* "lo - hi unit", rounded inwards as the nominal window's bounds are. */
 static void bounds(enum ow_unit_system units, enum ow_dim dim, double lo,
-		   double hi, int decimals)
+                   double hi, int decimals)
 {
 	char a[32], b[32];
 
 	ow_report_format_bound(a, sizeof a, ow_display_value(units, dim, lo),
-			       decimals, OW_ROUND_UP);
+	                       decimals, OW_ROUND_UP);
 	ow_report_format_bound(b, sizeof b, ow_display_value(units, dim, hi),
-			       decimals, OW_ROUND_DOWN);
+	                       decimals, OW_ROUND_DOWN);
 	printf("%s - %s %s", a, b, ow_display_label(units, dim));
 }
 
@@ -154,8 +163,8 @@ void cli_spread_print(const struct ow_map *m, enum ow_unit_system units)
 	if (!r)
 		return;
 	printf("Across the spread (%d input%s, %d samples a point, seed %lu):"
-	       "\n", s->spread.n, s->spread.n == 1 ? "" : "s",
-	       r->samples, r->seed);
+	       "\n",
+	       s->spread.n, s->spread.n == 1 ? "" : "s", r->samples, r->seed);
 	printf("  robust window (%.0f %% of samples safe)", 100.0 * r->level);
 	if (w->empty) {
 		printf(": empty\n");
@@ -172,10 +181,9 @@ void cli_spread_print(const struct ow_map *m, enum ow_unit_system units)
 	       100.0 * w->safe_fraction, 100.0 * m->window->safe_fraction);
 	for (i = 0; i < r->n_rank && i < 4; i++)
 		printf("  %-26s moves the margins at the edge, r = %+.2f%s\n",
-		       s->spread.in[r->rank[i].input].name,
-		       r->rank[i].corr,
+		       s->spread.in[r->rank[i].input].name, r->rank[i].corr,
 		       r->rank[i].corr < 0 ? " (higher shrinks)"
-					       : " (lower shrinks)");
+		                           : " (lower shrinks)");
 	printf("  %d sample solves, %d saved where every sample agrees\n",
 	       r->solves, r->solves_saved);
 }

@@ -41,15 +41,15 @@ struct setting {
 };
 
 static const struct setting six[6] = {{40, -10}, {60, 0},  {80, 10},
-				      {100, 0},  {60, 20}, {90, -5}};
+                                      {100, 0},  {60, 20}, {90, -5}};
 
 /* Readings "measured" on the model with factors f applied: each quantity
  * of mask solved at the settings, times (1 + noise) for output, pressure
  * and power, plus noise * 100 K for the melt temperature; noise drawn
  * from a Gaussian of standard deviation rel (GSL, seed fixed). */
 static char *make_readings(const struct ow_study *s0, const double *f,
-			   const struct setting *set, int n, unsigned mask,
-			   double rel, unsigned long seed)
+                           const struct setting *set, int n, unsigned mask,
+                           double rel, unsigned long seed)
 {
 	struct ow_study *s = malloc(sizeof *s);
 	struct ow_solver *sv = NULL;
@@ -65,42 +65,46 @@ static char *make_readings(const struct ow_study *s0, const double *f,
 	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
 	len += (size_t)snprintf(t + len, cap - len, "screw_speed_rpm");
 	for (z = 0; z < s->line.n_zones; z++)
-		len += (size_t)snprintf(t + len, cap - len, ",zone%d_degC",
-					z + 1);
+		len +=
+		    (size_t)snprintf(t + len, cap - len, ",zone%d_degC", z + 1);
 	len += (size_t)snprintf(t + len, cap - len, "%s%s%s%s,notes\n",
-				mask & 1 ? ",output_kg/h" : "",
-				mask & 2 ? ",head_pressure_MPa" : "",
-				mask & 4 ? ",melt_temp_degC" : "",
-				mask & 8 ? ",drive_power_kW" : "");
+	                        mask & 1 ? ",output_kg/h" : "",
+	                        mask & 2 ? ",head_pressure_MPa" : "",
+	                        mask & 4 ? ",melt_temp_degC" : "",
+	                        mask & 8 ? ",drive_power_kW" : "");
 	for (i = 0; i < n; i++) {
 		double set_K[OW_MAX_ZONES];
 		struct ow_point pt;
 
 		for (z = 0; z < s->line.n_zones; z++)
 			set_K[z] = s->line.zones[z].set_K + set[i].shift_K;
-		assert_int_equal(ow_solver_run(sv, set[i].rpm, set_K, 0, &pt,
-					       NULL), OW_OK);
+		assert_int_equal(
+		    ow_solver_run(sv, set[i].rpm, set_K, 0, &pt, NULL), OW_OK);
 		assert_false(pt.flags & OW_FLAG_NOT_CONVERGED);
 		len += (size_t)snprintf(t + len, cap - len, "%g", set[i].rpm);
 		for (z = 0; z < s->line.n_zones; z++)
 			len += (size_t)snprintf(t + len, cap - len, ",%.2f",
-						set_K[z] - OW_ZERO_C_K);
+			                        set_K[z] - OW_ZERO_C_K);
 		if (mask & 1)
-			len += (size_t)snprintf(t + len, cap - len, ",%.4f",
-				pt.output_kg_s * 3600 *
-					(1 + gsl_ran_gaussian(rng, rel)));
+			len += (size_t)snprintf(
+			    t + len, cap - len, ",%.4f",
+			    pt.output_kg_s * 3600 *
+			        (1 + gsl_ran_gaussian(rng, rel)));
 		if (mask & 2)
-			len += (size_t)snprintf(t + len, cap - len, ",%.4f",
-				pt.discharge_pressure_Pa * 1e-6 *
-					(1 + gsl_ran_gaussian(rng, rel)));
+			len += (size_t)snprintf(
+			    t + len, cap - len, ",%.4f",
+			    pt.discharge_pressure_Pa * 1e-6 *
+			        (1 + gsl_ran_gaussian(rng, rel)));
 		if (mask & 4)
-			len += (size_t)snprintf(t + len, cap - len, ",%.3f",
-				pt.discharge_bulk_K - OW_ZERO_C_K +
-					100 * gsl_ran_gaussian(rng, rel));
+			len += (size_t)snprintf(
+			    t + len, cap - len, ",%.3f",
+			    pt.discharge_bulk_K - OW_ZERO_C_K +
+			        100 * gsl_ran_gaussian(rng, rel));
 		if (mask & 8)
-			len += (size_t)snprintf(t + len, cap - len, ",%.4f",
-				pt.power_W * 1e-3 *
-					(1 + gsl_ran_gaussian(rng, rel)));
+			len += (size_t)snprintf(
+			    t + len, cap - len, ",%.4f",
+			    pt.power_W * 1e-3 *
+			        (1 + gsl_ran_gaussian(rng, rel)));
 		len += (size_t)snprintf(t + len, cap - len, ",generated\n");
 	}
 	ow_solver_destroy(sv);
@@ -128,7 +132,7 @@ static struct ow_calib_options options(unsigned free_mask, double rel)
 /* Fit the free factors to readings generated with truth; each within 2
  * standard errors of the truth. */
 static void recover(const char *study, const double *truth, unsigned mask,
-		    unsigned qty)
+                    unsigned qty)
 {
 	struct ow_study *s = ow_test_study(study);
 	struct ow_readings *r = NULL;
@@ -140,9 +144,9 @@ static void recover(const char *study, const double *truth, unsigned mask,
 	int k;
 
 	assert_int_equal(ow_calib_readings_parse(ow_test_units, text,
-						 strlen(text), "gen.csv",
-						 s->line.n_zones, &r, &d),
-			 OW_OK);
+	                                         strlen(text), "gen.csv",
+	                                         s->line.n_zones, &r, &d),
+	                 OW_OK);
 	st = ow_calib_run(s, r, &o, res, &d);
 	if (st != OW_OK)
 		fail_msg("%s: %s", study, d.msg);
@@ -150,11 +154,11 @@ static void recover(const char *study, const double *truth, unsigned mask,
 		if (!(mask & (1u << k)))
 			continue;
 		printf("    %s %s: true %.3f fitted %.4f +- %.4f (chi2 %.1f, "
-		       "%d solves)\n", study, ow_calib_factor(k)->name,
-		       truth[k], res->value[k], res->std_error[k], res->chi2,
-		       res->solves);
+		       "%d solves)\n",
+		       study, ow_calib_factor(k)->name, truth[k], res->value[k],
+		       res->std_error[k], res->chi2, res->solves);
 		assert_true(fabs(res->value[k] - truth[k]) <
-			    2 * res->std_error[k]);
+		            2 * res->std_error[k]);
 	}
 	free(text);
 	free(r);
@@ -168,18 +172,21 @@ static void recovers_viscosity_die_and_heat_transfer_on_melt_fed(void **state)
 
 	(void)state;
 	recover("fixtures/studies/melt-fed.json", truth,
-		(1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE) |
-			(1u << OW_CF_HEAT), 15);
+	        (1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE) |
+	            (1u << OW_CF_HEAT),
+	        15);
 }
 
-static void recovers_viscosity_die_and_heat_transfer_on_plasticating(void **state)
+static void
+recovers_viscosity_die_and_heat_transfer_on_plasticating(void **state)
 {
 	const double truth[OW_CF_COUNT] = {1.25, 1.0, 0.8, 0.6};
 
 	(void)state;
 	recover("fixtures/studies/hdpe-sf.json", truth,
-		(1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE) |
-			(1u << OW_CF_HEAT), 15);
+	        (1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE) |
+	            (1u << OW_CF_HEAT),
+	        15);
 }
 
 static void recovers_viscosity_and_die_on_barrier(void **state)
@@ -191,14 +198,14 @@ static void recovers_viscosity_and_die_on_barrier(void **state)
 	 * power and floats, and the fit stops on such a step */
 	(void)state;
 	recover("fixtures/studies/hdpe-barrier.json", truth,
-		(1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE), 15);
+	        (1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE), 15);
 }
 
 /* Fit with free_mask to readings text on study path; returns the status
  * and the message in d. */
 static enum ow_status fit_text(const char *path, const char *text,
-			       unsigned free_mask, struct ow_calib_result *res,
-			       struct ow_diag *d)
+                               unsigned free_mask, struct ow_calib_result *res,
+                               struct ow_diag *d)
 {
 	struct ow_study *s = ow_test_study(path);
 	struct ow_readings *r = NULL;
@@ -208,7 +215,7 @@ static enum ow_status fit_text(const char *path, const char *text,
 	ow_calib_options_from(&s->calib, &o);
 	o.free_mask = free_mask;
 	st = ow_calib_readings_parse(ow_test_units, text, strlen(text),
-				     "line.csv", s->line.n_zones, &r, d);
+	                             "line.csv", s->line.n_zones, &r, d);
 	if (st == OW_OK)
 		st = ow_calib_run(s, r, &o, res, d);
 	free(r);
@@ -217,7 +224,7 @@ static enum ow_status fit_text(const char *path, const char *text,
 }
 
 static void expect_refusal(const char *path, const char *text,
-			   unsigned free_mask, const char *says)
+                           unsigned free_mask, const char *says)
 {
 	struct ow_calib_result *res = malloc(sizeof *res);
 	struct ow_diag d = {{0}};
@@ -258,8 +265,8 @@ static void fewer_values_than_factors_are_refused(void **state)
 {
 	(void)state;
 	expect_refusal(HDPE, "screw_speed_rpm,output_kg/h\n60,40\n",
-		       (1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE),
-		       "cannot determine 2 free factors");
+	               (1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE),
+	               "cannot determine 2 free factors");
 }
 
 /* The plug is taken as melt-controlled, so output and pressure do not
@@ -268,9 +275,9 @@ static void a_factor_no_reading_moves_is_refused(void **state)
 {
 	(void)state;
 	expect_refusal(FAST,
-		       "screw_speed_rpm,output_kg/h,head_pressure_MPa\n"
-		       "40,30,8\n80,60,10\n",
-		       1u << OW_CF_FRICTION, "do not determine friction");
+	               "screw_speed_rpm,output_kg/h,head_pressure_MPa\n"
+	               "40,30,8\n80,60,10\n",
+	               1u << OW_CF_FRICTION, "do not determine friction");
 }
 
 /* Output alone cannot fix the viscosity of a power-law melt fed into a
@@ -282,9 +289,9 @@ static void output_alone_cannot_fix_the_viscosity(void **state)
 {
 	(void)state;
 	expect_refusal(FAST,
-		       "screw_speed_rpm,output_kg/h\n40,30\n60,45\n80,60\n",
-		       (1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE),
-		       "do not determine viscosity_scale");
+	               "screw_speed_rpm,output_kg/h\n40,30\n60,45\n80,60\n",
+	               (1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE),
+	               "do not determine viscosity_scale");
 }
 
 /* The same setting logged twice with outputs 40 % apart. */
@@ -292,10 +299,10 @@ static void contradictory_readings_are_refused(void **state)
 {
 	(void)state;
 	expect_refusal(FAST,
-		       "screw_speed_rpm,output_kg/h,head_pressure_MPa\n"
-		       "60,30,9\n60,42,9\n60,30,9.2\n",
-		       (1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE),
-		       "contradict");
+	               "screw_speed_rpm,output_kg/h,head_pressure_MPa\n"
+	               "60,30,9\n60,42,9\n60,30,9.2\n",
+	               (1u << OW_CF_VISCOSITY) | (1u << OW_CF_DIE),
+	               "contradict");
 }
 
 /* A melt colder than the feed and every set-point names its line. */
@@ -303,9 +310,9 @@ static void an_unreachable_reading_is_named(void **state)
 {
 	(void)state;
 	expect_refusal(HDPE,
-		       "screw_speed_rpm,melt_temp_degC,notes\n"
-		       "60,225,ok\n80,20,thermocouple off\n",
-		       1u << OW_CF_VISCOSITY, "line.csv: line 3: melt");
+	               "screw_speed_rpm,melt_temp_degC,notes\n"
+	               "60,225,ok\n80,20,thermocouple off\n",
+	               1u << OW_CF_VISCOSITY, "line.csv: line 3: melt");
 }
 
 /* Units in the header as everywhere else; notes kept; an empty cell is
@@ -315,41 +322,43 @@ static void an_unreachable_reading_is_named(void **state)
 static void readings_are_read_in_their_units(void **state)
 {
 	const char *text =
-		"screw_speed_rpm,zone5_degF,output_lb/h,head_pressure_psi,"
-		"notes\n60,392,100,1000,first shift\n80,,,1200,\n";
+	    "screw_speed_rpm,zone5_degF,output_lb/h,head_pressure_psi,"
+	    "notes\n60,392,100,1000,first shift\n80,,,1200,\n";
 	struct ow_readings *r = NULL;
 	struct ow_diag d = {{0}};
 
 	(void)state;
 	assert_int_equal(ow_calib_readings_parse(ow_test_units, text,
-						 strlen(text), "r.csv", 5, &r,
-						 &d), OW_OK);
+	                                         strlen(text), "r.csv", 5, &r,
+	                                         &d),
+	                 OW_OK);
 	assert_int_equal((int)r->n, 2);
 	assert_rel(r->r[0].set_K[4], 473.15, 1e-9);
 	assert_true(r->r[0].set_given[4] && !r->r[1].set_given[4]);
 	assert_false(r->r[0].set_given[0]);
-	assert_rel(r->r[0].value[OW_CQ_OUTPUT], 100 * 0.45359237 / 3600,
-		   1e-9);
+	assert_rel(r->r[0].value[OW_CQ_OUTPUT], 100 * 0.45359237 / 3600, 1e-9);
 	assert_rel(r->r[1].value[OW_CQ_PRESSURE], 1200 * 6894.757, 1e-6);
 	assert_true(isnan(r->r[1].value[OW_CQ_OUTPUT]));
 	assert_string_equal(r->r[0].notes, "first shift");
 	assert_int_equal(r->r[1].line, 3);
 	free(r);
 	assert_int_equal(ow_calib_readings_parse(ow_test_units, text,
-						 strlen(text), "r.csv", 4, &r,
-						 &d), OW_EINPUT);
+	                                         strlen(text), "r.csv", 4, &r,
+	                                         &d),
+	                 OW_EINPUT);
 	assert_non_null(strstr(d.msg, "column 2 (zone5_degF)"));
 	text = "screw_speed_rpm,output_kg/h,speed_m/s\n60,40,1\n";
 	memset(&d, 0, sizeof d); /* a diag keeps its first message */
 	assert_int_equal(ow_calib_readings_parse(ow_test_units, text,
-						 strlen(text), "r.csv", 4, &r,
-						 &d), OW_EINPUT);
+	                                         strlen(text), "r.csv", 4, &r,
+	                                         &d),
+	                 OW_EINPUT);
 	assert_non_null(strstr(d.msg, "column 3 (speed_m/s): unknown column"));
 }
 
 /* Write text to dir/name; the path into out. */
-static void put(const char *dir, const char *name, const char *text,
-		char *out, size_t n)
+static void put(const char *dir, const char *name, const char *text, char *out,
+                size_t n)
 {
 	FILE *f;
 
@@ -384,7 +393,7 @@ static double factor_of(const cJSON *study, const char *name)
 /* Calibrating the calibrated study again to the same readings starts
  * from its factors and ends where the first fit did. */
 static void recalibrate(const char *cal, const char *csv, const char *dir,
-			const cJSON *first)
+                        const cJSON *first)
 {
 	char args[512], again[96];
 	struct cli_result r;
@@ -392,16 +401,16 @@ static void recalibrate(const char *cal, const char *csv, const char *dir,
 
 	snprintf(again, sizeof again, "%s/again.json", dir);
 	snprintf(args, sizeof args, "calibrate %s %s -o %s --quiet", cal, csv,
-		 again);
+	         again);
 	cli_run(args, &r);
 	if (r.code != 0)
 		fail_msg("calibrate again: %s", r.err);
 	cli_result_free(&r);
 	doc = cli_read_json(again);
 	assert_rel(factor_of(doc, "viscosity_scale"),
-		   factor_of(first, "viscosity_scale"), 2e-3);
-	assert_rel(factor_of(doc, "die_factor"),
-		   factor_of(first, "die_factor"), 2e-3);
+	           factor_of(first, "viscosity_scale"), 2e-3);
+	assert_rel(factor_of(doc, "die_factor"), factor_of(first, "die_factor"),
+	           2e-3);
 	cJSON_Delete(doc);
 }
 
@@ -412,8 +421,8 @@ static void map_of_calibrated_study_equals_hand_edited(void **state)
 {
 	const double truth[OW_CF_COUNT] = {1.3, 1.0, 0.7, 1.0};
 	struct ow_study *s = ow_test_study(FAST);
-	char dir[] = OW_TEST_OUT "/calib-XXXXXX", csv[96], cal[96],
-	     hand[96], args[512], *text, *a, *b;
+	char dir[] = OW_TEST_OUT "/calib-XXXXXX", csv[96], cal[96], hand[96],
+	     args[512], *text, *a, *b;
 	struct cli_result r;
 	cJSON *doc;
 
@@ -423,9 +432,10 @@ static void map_of_calibrated_study_equals_hand_edited(void **state)
 	put(dir, "line.csv", text, csv, sizeof csv);
 	free(text);
 	snprintf(cal, sizeof cal, "%s/cal.json", dir);
-	snprintf(args, sizeof args, "calibrate %s %s --free "
-		 "viscosity_scale,die_factor -o %s --plot %s/res.svg", FAST,
-		 csv, cal, dir);
+	snprintf(args, sizeof args,
+	         "calibrate %s %s --free "
+	         "viscosity_scale,die_factor -o %s --plot %s/res.svg",
+	         FAST, csv, cal, dir);
 	cli_run(args, &r);
 	if (r.code != 0)
 		fail_msg("calibrate: %s", r.err);
@@ -433,14 +443,15 @@ static void map_of_calibrated_study_equals_hand_edited(void **state)
 	cli_result_free(&r);
 	doc = cli_read_json(cal);
 	text = hand_study(factor_of(doc, "viscosity_scale"),
-			  factor_of(doc, "die_factor"));
+	                  factor_of(doc, "die_factor"));
 	recalibrate(cal, csv, dir, doc);
 	cJSON_Delete(doc);
 	put(dir, "hand.json", text, hand, sizeof hand);
 	free(text);
-	snprintf(args, sizeof args, "map %s -o %s/m1 --grid 5x4 --quiet && "
-		 "%s map %s -o %s/m2 --grid 5x4 --quiet", cal, dir,
-		 cli_binary(), hand, dir);
+	snprintf(args, sizeof args,
+	         "map %s -o %s/m1 --grid 5x4 --quiet && "
+	         "%s map %s -o %s/m2 --grid 5x4 --quiet",
+	         cal, dir, cli_binary(), hand, dir);
 	cli_run(args, &r);
 	assert_int_equal(r.code, 0);
 	cli_result_free(&r);
@@ -481,7 +492,7 @@ static void heat_transfer_factor_is_the_barrel_multiplier(void **state)
 	free(text);
 	cJSON_DeleteItemFromObject(doc, "calibration");
 	cJSON_AddNumberToObject(cJSON_GetObjectItem(doc, "barrel"),
-				"heat_transfer_factor", 0.6);
+	                        "heat_transfer_factor", 0.6);
 	text = cJSON_Print(doc);
 	put(dir, "b.json", text, b, sizeof b);
 	free(text);
@@ -491,11 +502,11 @@ static void heat_transfer_factor_is_the_barrel_multiplier(void **state)
 	snprintf(args, sizeof args, "point %s --rpm 70 --json", b);
 	pb = cli_run_json(args);
 	assert_true(cli_json_num(pa, "output_kg_h") ==
-		    cli_json_num(pb, "output_kg_h"));
+	            cli_json_num(pb, "output_kg_h"));
 	assert_true(cli_json_num(pa, "discharge_bulk_temp_C") ==
-		    cli_json_num(pb, "discharge_bulk_temp_C"));
+	            cli_json_num(pb, "discharge_bulk_temp_C"));
 	assert_true(cli_json_num(pa, "barrel_heat_kW") ==
-		    cli_json_num(pb, "barrel_heat_kW"));
+	            cli_json_num(pb, "barrel_heat_kW"));
 	cJSON_Delete(pa);
 	cJSON_Delete(pb);
 	snprintf(args, sizeof args, "rm -rf %s", dir);
@@ -513,12 +524,12 @@ static void calibrate_with_nothing_free_says_so(void **state)
 	assert_non_null(mkdtemp(dir));
 	put(dir, "line.csv", "screw_speed_rpm,output_kg/h\n60,40\n", csv,
 	    sizeof csv);
-	snprintf(args, sizeof args, "calibrate %s %s -o %s/out.json", FAST,
-		 csv, dir);
+	snprintf(args, sizeof args, "calibrate %s %s -o %s/out.json", FAST, csv,
+	         dir);
 	cli_run(args, &r);
 	assert_int_equal(r.code, 0);
 	assert_non_null(strstr(r.out, "nothing to fit, the model is "
-				      "unchanged"));
+	                              "unchanged"));
 	assert_non_null(strstr(r.out, "not written: nothing changed"));
 	cli_result_free(&r);
 	snprintf(args, sizeof args, "%s/out.json", dir);
@@ -543,7 +554,7 @@ static void calibration_block_is_checked(void **state)
 	cli_run(args, &r);
 	assert_int_equal(r.code, 1);
 	assert_non_null(strstr(r.err, "calibration.viscosity_scale: 9: "
-				      "expected a factor in 0.2..5"));
+	                              "expected a factor in 0.2..5"));
 	cli_result_free(&r);
 	snprintf(args, sizeof args, "rm -rf %s", dir);
 	assert_int_equal(system(args), 0);
@@ -552,20 +563,22 @@ static void calibration_block_is_checked(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(recovers_viscosity_die_and_heat_transfer_on_melt_fed),
-		cmocka_unit_test(recovers_viscosity_die_and_heat_transfer_on_plasticating),
-		cmocka_unit_test(recovers_viscosity_and_die_on_barrier),
-		cmocka_unit_test(no_free_factor_changes_nothing),
-		cmocka_unit_test(fewer_values_than_factors_are_refused),
-		cmocka_unit_test(a_factor_no_reading_moves_is_refused),
-		cmocka_unit_test(output_alone_cannot_fix_the_viscosity),
-		cmocka_unit_test(contradictory_readings_are_refused),
-		cmocka_unit_test(an_unreachable_reading_is_named),
-		cmocka_unit_test(readings_are_read_in_their_units),
-		cmocka_unit_test(map_of_calibrated_study_equals_hand_edited),
-		cmocka_unit_test(heat_transfer_factor_is_the_barrel_multiplier),
-		cmocka_unit_test(calibrate_with_nothing_free_says_so),
-		cmocka_unit_test(calibration_block_is_checked),
+	    cmocka_unit_test(
+	        recovers_viscosity_die_and_heat_transfer_on_melt_fed),
+	    cmocka_unit_test(
+	        recovers_viscosity_die_and_heat_transfer_on_plasticating),
+	    cmocka_unit_test(recovers_viscosity_and_die_on_barrier),
+	    cmocka_unit_test(no_free_factor_changes_nothing),
+	    cmocka_unit_test(fewer_values_than_factors_are_refused),
+	    cmocka_unit_test(a_factor_no_reading_moves_is_refused),
+	    cmocka_unit_test(output_alone_cannot_fix_the_viscosity),
+	    cmocka_unit_test(contradictory_readings_are_refused),
+	    cmocka_unit_test(an_unreachable_reading_is_named),
+	    cmocka_unit_test(readings_are_read_in_their_units),
+	    cmocka_unit_test(map_of_calibrated_study_equals_hand_edited),
+	    cmocka_unit_test(heat_transfer_factor_is_the_barrel_multiplier),
+	    cmocka_unit_test(calibrate_with_nothing_free_says_so),
+	    cmocka_unit_test(calibration_block_is_checked),
 	};
 
 	return cmocka_run_group_tests(tests, setup, teardown);

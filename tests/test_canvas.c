@@ -281,8 +281,9 @@ static void canvas_png_stores_translucent_colour_unpremultiplied(void **st)
 	ow_canvas_fill(cv);
 	assert_int_equal(ow_canvas_encode(cv, &b, &n, NULL), OW_OK);
 	s = ow_test_png_decode(b, n);
-	memcpy(&px, cairo_image_surface_get_data(s) +
-			5 * cairo_image_surface_get_stride(s) + 4 * 5,
+	memcpy(&px,
+	       cairo_image_surface_get_data(s) +
+	           5 * cairo_image_surface_get_stride(s) + 4 * 5,
 	       4);
 	assert_int_equal(px >> 24, 128);
 	assert_in_range((px >> 16) & 0xff, 127, 129);

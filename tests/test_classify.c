@@ -15,8 +15,8 @@
 #include "ow_classify.h"
 #include "ow_solver.h"
 
-#define C0 273.15     /* K at 0 degC */
-#define LEN_M 0.508   /* screw length used by the unmelt margin (8 D) */
+#define C0    273.15 /* K at 0 degC */
+#define LEN_M 0.508  /* screw length used by the unmelt margin (8 D) */
 
 /* A point comfortably inside every limit of limits-all.json (hand-picked:
  * each figure 10-50 % away from its limit), with distinct figures where
@@ -28,19 +28,19 @@ static struct ow_point inside_point(void)
 
 	memset(&p, 0, sizeof p);
 	p.rpm = 60.0;
-	p.output_kg_s = 60.0 / 3600.0;          /* 60 kg/h in 30..90 */
-	p.discharge_pressure_Pa = 12e6;         /* tip 12 MPa */
-	p.max_pressure_Pa = 25e6;               /* 25 MPa < 35 */
-	p.discharge_bulk_K = C0 + 210.0;        /* 210 degC > 190 */
+	p.output_kg_s = 60.0 / 3600.0;   /* 60 kg/h in 30..90 */
+	p.discharge_pressure_Pa = 12e6;  /* tip 12 MPa */
+	p.max_pressure_Pa = 25e6;        /* 25 MPa < 35 */
+	p.discharge_bulk_K = C0 + 210.0; /* 210 degC > 190 */
 	p.discharge_peak_K = C0 + 215.0;
-	p.peak_K = C0 + 225.0;                  /* 225 degC < 240 */
-	p.unmelt_frac = 0.002;                  /* 0.2 % < 0.5 % */
+	p.peak_K = C0 + 225.0; /* 225 degC < 240 */
+	p.unmelt_frac = 0.002; /* 0.2 % < 0.5 % */
 	p.melt_start_m = 0.1;
-	p.melt_complete_m = NAN;                /* solids reach the tip */
-	p.max_sbr = 0.6;                        /* < 0.8 */
-	p.power_W = 20e3;                       /* 20 kW < 40 */
-	p.torque_Nm = 3183.1;                   /* 20 kW at 60 rpm < 5000 */
-	p.zone_load = 0.5;                      /* half a zone's power < 90 % */
+	p.melt_complete_m = NAN; /* solids reach the tip */
+	p.max_sbr = 0.6;         /* < 0.8 */
+	p.power_W = 20e3;        /* 20 kW < 40 */
+	p.torque_Nm = 3183.1;    /* 20 kW at 60 rpm < 5000 */
+	p.zone_load = 0.5;       /* half a zone's power < 90 % */
 	return p;
 }
 
@@ -50,7 +50,7 @@ static struct ow_study *all_limits(void)
 }
 
 static unsigned verdict(const struct ow_study *s, const struct ow_point *p,
-			struct ow_verdict *v)
+                        struct ow_verdict *v)
 {
 	ow_classify(p, &s->line.limits, LEN_M, v);
 	return v->bits;
@@ -93,22 +93,47 @@ static void point_inside_every_limit_is_safe(void **st)
 
 /* One figure of the comfortable point moved to a value. */
 enum fig {
-	F_PEAK, F_UNMELT, F_PMAX, F_POWER, F_TORQUE, F_BULK, F_OUTPUT, F_SBR,
+	F_PEAK,
+	F_UNMELT,
+	F_PMAX,
+	F_POWER,
+	F_TORQUE,
+	F_BULK,
+	F_OUTPUT,
+	F_SBR,
 	F_ZONE
 };
 
 static void set_fig(struct ow_point *p, enum fig f, double x)
 {
 	switch (f) {
-	case F_PEAK: p->peak_K = x; break;
-	case F_UNMELT: p->unmelt_frac = x; break;
-	case F_PMAX: p->max_pressure_Pa = x; break;
-	case F_POWER: p->power_W = x; break;
-	case F_TORQUE: p->torque_Nm = x; break;
-	case F_BULK: p->discharge_bulk_K = x; break;
-	case F_OUTPUT: p->output_kg_s = x; break;
-	case F_SBR: p->max_sbr = x; break;
-	case F_ZONE: p->zone_load = x; break;
+	case F_PEAK:
+		p->peak_K = x;
+		break;
+	case F_UNMELT:
+		p->unmelt_frac = x;
+		break;
+	case F_PMAX:
+		p->max_pressure_Pa = x;
+		break;
+	case F_POWER:
+		p->power_W = x;
+		break;
+	case F_TORQUE:
+		p->torque_Nm = x;
+		break;
+	case F_BULK:
+		p->discharge_bulk_K = x;
+		break;
+	case F_OUTPUT:
+		p->output_kg_s = x;
+		break;
+	case F_SBR:
+		p->max_sbr = x;
+		break;
+	case F_ZONE:
+		p->zone_load = x;
+		break;
 	}
 }
 
@@ -144,8 +169,8 @@ static void peak_temperature_limit_has_three_sides(void **st)
 {
 	/* 240 degC: 239.9 inside, 240.0 on, 240.1 outside (the bulk stays
 	 * at 210 degC: the peak, not the bulk, is checked) */
-	struct side_case k = {OW_CK_PEAK_TEMP, F_PEAK, C0 + 239.9,
-			      C0 + 240.0, C0 + 240.1};
+	struct side_case k = {OW_CK_PEAK_TEMP, F_PEAK, C0 + 239.9, C0 + 240.0,
+	                      C0 + 240.1};
 	(void)st;
 	check_sides(&k);
 }
@@ -161,8 +186,7 @@ static void unmelt_limit_has_three_sides(void **st)
 static void pressure_limit_has_three_sides(void **st)
 {
 	/* 35 MPa on the maximum anywhere (the tip stays at 12 MPa) */
-	struct side_case k = {OW_CK_PRESSURE, F_PMAX, 34.99e6, 35e6,
-			      35.01e6};
+	struct side_case k = {OW_CK_PRESSURE, F_PMAX, 34.99e6, 35e6, 35.01e6};
 	(void)st;
 	check_sides(&k);
 }
@@ -188,7 +212,7 @@ static void minimum_melt_temperature_has_three_sides(void **st)
 {
 	/* 190 degC on the bulk at discharge: 190.1, 190, 189.9 */
 	struct side_case k = {OW_CK_MIN_MELT_TEMP, F_BULK, C0 + 190.1,
-			      C0 + 190.0, C0 + 189.9};
+	                      C0 + 190.0, C0 + 189.9};
 	(void)st;
 	check_sides(&k);
 }
@@ -197,7 +221,7 @@ static void minimum_output_has_three_sides(void **st)
 {
 	/* 30 kg/h: 30.01, 30, 29.99 kg/h */
 	struct side_case k = {OW_CK_MIN_OUTPUT, F_OUTPUT, 30.01 / 3600.0,
-			      30.0 / 3600.0, 29.99 / 3600.0};
+	                      30.0 / 3600.0, 29.99 / 3600.0};
 	(void)st;
 	check_sides(&k);
 }
@@ -206,7 +230,7 @@ static void maximum_output_has_three_sides(void **st)
 {
 	/* 90 kg/h: 89.99, 90, 90.01 kg/h */
 	struct side_case k = {OW_CK_MAX_OUTPUT, F_OUTPUT, 89.99 / 3600.0,
-			      90.0 / 3600.0, 90.01 / 3600.0};
+	                      90.0 / 3600.0, 90.01 / 3600.0};
 	(void)st;
 	check_sides(&k);
 }
@@ -272,9 +296,8 @@ static void flags_are_always_unsafe(void **st)
 {
 	struct ow_study *s = all_limits();
 	const unsigned flag[] = {OW_FLAG_PLUGGING, OW_FLAG_FEED_LIMITED,
-				 OW_FLAG_NOT_CONVERGED};
-	const enum ow_check bit[] = {OW_CK_PLUGGING, OW_CK_FEED,
-				     OW_CK_NOCONV};
+	                         OW_FLAG_NOT_CONVERGED};
+	const enum ow_check bit[] = {OW_CK_PLUGGING, OW_CK_FEED, OW_CK_NOCONV};
 	size_t i;
 	(void)st;
 	for (i = 0; i < 3; i++) {
@@ -304,7 +327,7 @@ static void a_point_without_figures_fails_every_limit_set(void **st)
 	s->line.limits.max_sbr = NAN; /* not set: neither checked */
 	s->line.limits.torque_Nm = NAN;
 	assert_int_equal(verdict(s, &p, &v),
-			 all & ~(1u << OW_CK_MAX_SBR) & ~(1u << OW_CK_TORQUE));
+	                 all & ~(1u << OW_CK_MAX_SBR) & ~(1u << OW_CK_TORQUE));
 	assert_true(isnan(v.margin[OW_CK_MAX_SBR]));
 	assert_false(ow_check_active(&s->line.limits, OW_CK_MAX_SBR));
 	assert_true(ow_check_active(&s->line.limits, OW_CK_PLUGGING));
@@ -346,24 +369,25 @@ static void limits_around_a_closed_form_operating_point(void **st)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(study_limits_load_in_si),
-		cmocka_unit_test(point_inside_every_limit_is_safe),
-		cmocka_unit_test(peak_temperature_limit_has_three_sides),
-		cmocka_unit_test(unmelt_limit_has_three_sides),
-		cmocka_unit_test(pressure_limit_has_three_sides),
-		cmocka_unit_test(power_limit_has_three_sides),
-		cmocka_unit_test(torque_limit_has_three_sides),
-		cmocka_unit_test(minimum_melt_temperature_has_three_sides),
-		cmocka_unit_test(minimum_output_has_three_sides),
-		cmocka_unit_test(maximum_output_has_three_sides),
-		cmocka_unit_test(solid_bed_ratio_limit_has_three_sides),
-		cmocka_unit_test(zone_control_limit_has_three_sides),
-		cmocka_unit_test(margins_are_the_documented_normalised_distances),
-		cmocka_unit_test(unmelt_margin_grows_with_the_screw_left_after_melting),
-		cmocka_unit_test(flags_are_always_unsafe),
-		cmocka_unit_test(a_point_without_figures_fails_every_limit_set),
-		cmocka_unit_test(limits_around_a_closed_form_operating_point),
+	    cmocka_unit_test(study_limits_load_in_si),
+	    cmocka_unit_test(point_inside_every_limit_is_safe),
+	    cmocka_unit_test(peak_temperature_limit_has_three_sides),
+	    cmocka_unit_test(unmelt_limit_has_three_sides),
+	    cmocka_unit_test(pressure_limit_has_three_sides),
+	    cmocka_unit_test(power_limit_has_three_sides),
+	    cmocka_unit_test(torque_limit_has_three_sides),
+	    cmocka_unit_test(minimum_melt_temperature_has_three_sides),
+	    cmocka_unit_test(minimum_output_has_three_sides),
+	    cmocka_unit_test(maximum_output_has_three_sides),
+	    cmocka_unit_test(solid_bed_ratio_limit_has_three_sides),
+	    cmocka_unit_test(zone_control_limit_has_three_sides),
+	    cmocka_unit_test(margins_are_the_documented_normalised_distances),
+	    cmocka_unit_test(
+	        unmelt_margin_grows_with_the_screw_left_after_melting),
+	    cmocka_unit_test(flags_are_always_unsafe),
+	    cmocka_unit_test(a_point_without_figures_fails_every_limit_set),
+	    cmocka_unit_test(limits_around_a_closed_form_operating_point),
 	};
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
-				      ow_test_units_teardown);
+	                              ow_test_units_teardown);
 }

@@ -59,7 +59,7 @@ static void check_json_has_contract_keys(void **state)
 	assert_true(cJSON_IsArray(secs));
 	s0 = cJSON_GetArrayItem(secs, 0);
 	assert_string_equal(cJSON_GetObjectItem(s0, "type")->valuestring,
-			    "feed");
+	                    "feed");
 	assert_abs(cli_json_num(s0, "start_D"), 0.0, 1e-12);
 	assert_true(cli_json_num(s0, "depth_start_mm") > 0.0);
 	(void)cli_json_num(s0, "end_D");
@@ -104,13 +104,13 @@ static void bad_inputs_are_rejected_with_file_and_path(void **state)
 		text = strtok(NULL, "\t\n");
 		unlink(out);
 		snprintf(args, sizeof args,
-			 "point tests/bad/%s --rpm 60 --profile %s", file, out);
+		         "point tests/bad/%s --rpm 60 --profile %s", file, out);
 		cli_run(args, &r);
 		if (r.code != 1 || !strstr(r.err, file) ||
 		    (strcmp(path, "-") && !strstr(r.err, path)) ||
 		    !strstr(r.err, text))
 			fprintf(stderr, "case %s: code %d: %s", file, r.code,
-				r.err);
+			        r.err);
 		assert_int_equal(r.code, 1);
 		assert_non_null(strstr(r.err, file));
 		if (strcmp(path, "-"))
@@ -143,11 +143,11 @@ static void usage_errors_exit_two(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(check_demo_same_in_us_and_si_units),
-		cmocka_unit_test(check_json_has_contract_keys),
-		cmocka_unit_test(check_warns_on_abrupt_and_worn_screws),
-		cmocka_unit_test(bad_inputs_are_rejected_with_file_and_path),
-		cmocka_unit_test(usage_errors_exit_two),
+	    cmocka_unit_test(check_demo_same_in_us_and_si_units),
+	    cmocka_unit_test(check_json_has_contract_keys),
+	    cmocka_unit_test(check_warns_on_abrupt_and_worn_screws),
+	    cmocka_unit_test(bad_inputs_are_rejected_with_file_and_path),
+	    cmocka_unit_test(usage_errors_exit_two),
 	};
 	return cmocka_run_group_tests(tests, NULL, NULL);
 }

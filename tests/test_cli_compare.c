@@ -208,9 +208,10 @@ static void studies_whose_sweeps_differ_are_refused(void **state)
 {
 	struct cli_result r;
 	(void)state;
-	variant(OW_TEST_OUT "/cmp-steps.json", "\"steps\": 11", "\"steps\": 21");
-	cli_run("compare " FAST " " OW_TEST_OUT "/cmp-steps.json -o "
-	        OW_TEST_OUT "/cmp-refused --quiet",
+	variant(OW_TEST_OUT "/cmp-steps.json", "\"steps\": 11",
+	        "\"steps\": 21");
+	cli_run("compare " FAST " " OW_TEST_OUT
+	        "/cmp-steps.json -o " OW_TEST_OUT "/cmp-refused --quiet",
 	        &r);
 	assert_int_equal(r.code, 1);
 	assert_non_null(strstr(r.err, "sweep.rpm.steps"));
@@ -222,8 +223,8 @@ static void studies_whose_sweeps_differ_are_refused(void **state)
 	        "      \"to\": \"30 K\"",
 	        "\"mode\": \"zone\", \"zone\": 2, \"from\": \"170 degC\", "
 	        "\"to\": \"230 degC\"");
-	cli_run("compare " OW_TEST_OUT "/cmp-mode.json " FAST " --quiet -o "
-	        OW_TEST_OUT "/cmp-refused",
+	cli_run("compare " OW_TEST_OUT "/cmp-mode.json " FAST
+	        " --quiet -o " OW_TEST_OUT "/cmp-refused",
 	        &r);
 	assert_int_equal(r.code, 1);
 	assert_non_null(strstr(r.err, "sweep.barrel.mode"));
@@ -260,8 +261,8 @@ static void two_resins_at_their_own_set_points_are_compared(void **state)
 	cli_result_free(&r);
 	j = cli_read_json("build/tests/cmp-resins/compare.json");
 	assert_true(cJSON_IsTrue(obj(j, "aligned_on_shift")));
-	assert_non_null(strstr(obj(j, "alignment")->valuestring,
-	                       "own barrel set-points"));
+	assert_non_null(
+	    strstr(obj(j, "alignment")->valuestring, "own barrel set-points"));
 	b = obj(j, "b");
 	if (!cJSON_IsNull(obj(b, "set_min_C"))) {
 		/* B's last zone is 180 degC, swept -20..+30 K */

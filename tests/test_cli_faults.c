@@ -56,7 +56,7 @@ static void expect(int want, const char *args, const char *words)
 	cli_run(args, &r);
 	if (r.code != want || (words && !strstr(r.err, words)))
 		fail_msg("opwin %s: exit %d (want %d), stderr: %s", args,
-			 r.code, want, r.err);
+		         r.code, want, r.err);
 	cli_result_free(&r);
 }
 
@@ -87,8 +87,8 @@ static void map_into(const char *dir, int n)
 {
 	char args[512];
 
-	snprintf(args, sizeof args, "map %s -o %s --grid %dx%d --quiet",
-		 FAST, dir, n, n);
+	snprintf(args, sizeof args, "map %s -o %s --grid %dx%d --quiet", FAST,
+	         dir, n, n);
 	expect(0, args, NULL);
 }
 
@@ -154,9 +154,9 @@ static void a_read_only_folder_is_refused_before_solving(void **s)
 		as = "setpriv --reuid=65534 --regid=65534 --clear-groups ";
 	}
 	snprintf(args, sizeof args,
-		 "%s%s map %s -o %s/ro/out --grid 3x3 --quiet 2>&1 | "
-		 "grep -q 'cannot create the folder'",
-		 as, cli_binary(), FAST, TOP);
+	         "%s%s map %s -o %s/ro/out --grid 3x3 --quiet 2>&1 | "
+	         "grep -q 'cannot create the folder'",
+	         as, cli_binary(), FAST, TOP);
 	if (system(args) != 0)
 		fail_msg("not refused with its reason: %s", args);
 	assert_false(exists(TOP "/ro/out"));
@@ -165,8 +165,7 @@ static void a_read_only_folder_is_refused_before_solving(void **s)
 static void a_study_without_sweep_leaves_no_folder(void **s)
 {
 	(void)s;
-	sh("sed '/^  \"sweep\": {/,/^  },/d' %s > %s/nosweep.json", FAST,
-	   TOP);
+	sh("sed '/^  \"sweep\": {/,/^  },/d' %s > %s/nosweep.json", FAST, TOP);
 	expect(0, "check " TOP "/nosweep.json", NULL); /* a valid study */
 	expect(1, "map " TOP "/nosweep.json -o " TOP "/ns --quiet", "sweep");
 	assert_false(exists(TOP "/ns"));
@@ -188,13 +187,13 @@ static void a_planted_link_or_fifo_is_never_written_through(void **s)
 {
 	(void)s;
 	sh("printf secret > %s/victim && ln -s victim %s/p.csv && "
-	   "mkfifo %s/p.fifo", TOP, TOP, TOP);
+	   "mkfifo %s/p.fifo",
+	   TOP, TOP, TOP);
 	expect(4, "point " FAST " --rpm 60 --profile " TOP "/p.csv",
 	       "symbolic link");
 	holds(TOP "/victim", "secret");
 	/* nobody reads the FIFO: refused at once, never waited on */
-	expect(4, "point " FAST " --rpm 60 --profile " TOP "/p.fifo",
-	       "FIFO");
+	expect(4, "point " FAST " --rpm 60 --profile " TOP "/p.fifo", "FIFO");
 	sh("test -p %s/p.fifo", TOP);
 	/* a device is written in place, never replaced (ENOSPC here) */
 	expect(4, "point " FAST " --rpm 60 --profile /dev/full", "/dev/full");
@@ -340,7 +339,7 @@ static void two_runs_into_one_folder_leave_one_whole_run(void **s)
 	for (p = grid; (p = strchr(p, '\n')); p++)
 		rows++;
 	assert_int_equal(rows - 1, (int)(cli_json_num(lat, "n_rpm") *
-					 cli_json_num(lat, "n_axis")));
+	                                 cli_json_num(lat, "n_axis")));
 	free(grid);
 	cJSON_Delete(lat);
 	assert_int_equal(temporaries(), 0);
@@ -370,8 +369,9 @@ static void fit_into_rewrites_only_a_resin_file(void **s)
 	(void)s;
 	sh("cp %s %s/study.json && cp %s/study.json %s/study.orig", FAST, TOP,
 	   TOP, TOP);
-	expect(1, "fit tests/bad/lab/base.csv --into " TOP "/study.json "
-		  "--quiet",
+	expect(1,
+	       "fit tests/bad/lab/base.csv --into " TOP "/study.json "
+	       "--quiet",
 	       "not a key of a resin file");
 	same_text(TOP "/study.json", TOP "/study.orig");
 	expect(1, "fit " TOP " --quiet", "is a folder");
@@ -395,11 +395,14 @@ static void every_lab_table_case_is_refused_at_its_cell(void **s)
 			continue;
 		assert_non_null(want);
 		snprintf(args, sizeof args,
-			 "fit tests/bad/lab/%s --model power-law --quiet", file);
+		         "fit tests/bad/lab/%s --model power-law --quiet",
+		         file);
 		cli_run(args, &r);
-		if (r.code != 1 || !strstr(r.err, where) || !strstr(r.err, want))
+		if (r.code != 1 || !strstr(r.err, where) ||
+		    !strstr(r.err, want))
 			fail_msg("%s: exit %d, \"%s\" should name \"%s\" and "
-				 "say \"%s\"", file, r.code, r.err, where, want);
+			         "say \"%s\"",
+			         file, r.code, r.err, where, want);
 		cli_result_free(&r);
 		n++;
 	}
@@ -411,7 +414,7 @@ int main(void)
 {
 	const struct CMUnitTest tests[] = {
 	    cmocka_unit_test(
-		output_folders_that_cannot_be_written_are_refused_first),
+	        output_folders_that_cannot_be_written_are_refused_first),
 	    cmocka_unit_test(a_read_only_folder_is_refused_before_solving),
 	    cmocka_unit_test(a_study_without_sweep_leaves_no_folder),
 	    cmocka_unit_test(an_impossible_date_is_a_usage_error),
@@ -419,9 +422,9 @@ int main(void)
 	    cmocka_unit_test(a_link_planted_in_a_map_folder_is_not_followed),
 	    cmocka_unit_test(a_full_disk_leaves_the_previous_folder_whole),
 	    cmocka_unit_test(
-		sigterm_while_solving_leaves_the_previous_folder_whole),
+	        sigterm_while_solving_leaves_the_previous_folder_whole),
 	    cmocka_unit_test(
-		sigterm_while_writing_leaves_the_previous_folder_whole),
+	        sigterm_while_writing_leaves_the_previous_folder_whole),
 	    cmocka_unit_test(two_runs_into_one_folder_leave_one_whole_run),
 	    cmocka_unit_test(report_refuses_a_folder_changed_since_written),
 	    cmocka_unit_test(fit_into_rewrites_only_a_resin_file),

@@ -17,7 +17,7 @@ static void map(const char *study, const char *dir, const char *extra)
 	char args[512];
 
 	snprintf(args, sizeof args, "map %s -o %s --quiet %s", study, dir,
-		 extra);
+	         extra);
 	cli_run(args, &r);
 	if (r.code != 0)
 		fprintf(stderr, "%s\n", r.err);
@@ -29,12 +29,14 @@ static void map(const char *study, const char *dir, const char *extra)
 static void point_json_and_profile_follow_the_contract(void **state)
 {
 	static const char *keys[] = {
-		"output_kg_h", "discharge_pressure_MPa", "max_pressure_MPa",
-		"discharge_bulk_temp_C", "peak_temp_C", "unmelt_fraction",
-		"max_sbr", "power_kW", "torque_Nm", "sec_kWh_kg",
-		"barrel_heat_kW"};
+	    "output_kg_h",      "discharge_pressure_MPa",
+	    "max_pressure_MPa", "discharge_bulk_temp_C",
+	    "peak_temp_C",      "unmelt_fraction",
+	    "max_sbr",          "power_kW",
+	    "torque_Nm",        "sec_kWh_kg",
+	    "barrel_heat_kW"};
 	cJSON *j = cli_run_json("point demo/study-si.json --rpm 50 --json "
-			    "--profile " OW_TEST_OUT "/profile.csv");
+	                        "--profile " OW_TEST_OUT "/profile.csv");
 	char *csv = cli_slurp(OW_TEST_OUT "/profile.csv");
 	size_t i;
 	(void)state;
@@ -45,16 +47,15 @@ static void point_json_and_profile_follow_the_contract(void **state)
 	/* drive power from torque: P = 2 pi N T (rotational power, any
 	 * mechanics text) */
 	assert_rel(cli_json_num(j, "power_kW") * 1e3,
-		   2.0 * OW_PI * 50.0 / 60.0 * cli_json_num(j, "torque_Nm"),
-		   1e-9);
+	           2.0 * OW_PI * 50.0 / 60.0 * cli_json_num(j, "torque_Nm"),
+	           1e-9);
 	/* specific energy = power / output: kWh/kg = kW / (kg/h) */
 	assert_rel(cli_json_num(j, "sec_kWh_kg"),
-		   cli_json_num(j, "power_kW") /
-		       cli_json_num(j, "output_kg_h"),
-		   1e-9);
+	           cli_json_num(j, "power_kW") / cli_json_num(j, "output_kg_h"),
+	           1e-9);
 	assert_non_null(csv);
 	assert_non_null(strstr(csv, "axial_D,pressure_MPa,bulk_temp_C,"
-				    "peak_temp_C,sbr,unmelt_fraction"));
+	                            "peak_temp_C,sbr,unmelt_fraction"));
 	free(csv);
 	cJSON_Delete(j);
 }
@@ -81,8 +82,8 @@ static void point_note_speaks_the_chosen_units(void **state)
 	kg_h = atof(strstr(si.out, "output") + 6);
 	lb_h = atof(strstr(us.out, "output") + 6);
 	assert_rel(lb_h * 0.45359237, kg_h, 2e-3); /* printed to 0.01 */
-	assert_rel(cli_json_num(a, "output_kg_h"), cli_json_num(b, "output_kg_h"),
-		   1e-12);
+	assert_rel(cli_json_num(a, "output_kg_h"),
+	           cli_json_num(b, "output_kg_h"), 1e-12);
 	cli_result_free(&si);
 	cli_result_free(&us);
 	cJSON_Delete(a);
@@ -95,15 +96,15 @@ static void point_set_reads_units(void **state)
 {
 	cJSON *a = cli_run_json("point " FAST " --rpm 60 --set 10 --json");
 	cJSON *b = cli_run_json("point " FAST " --rpm 60 --set '18 degF' "
-				"--json");
+	                        "--json");
 	/* a bare number is in the study's own units (here SI), not --units */
 	cJSON *c = cli_run_json("point " FAST " --rpm 60 --set 10 --units us "
-				"--json");
+	                        "--json");
 	(void)state;
 	assert_rel(cli_json_num(a, "output_kg_h"),
-		   cli_json_num(b, "output_kg_h"), 1e-9);
+	           cli_json_num(b, "output_kg_h"), 1e-9);
 	assert_rel(cli_json_num(a, "peak_temp_C"),
-		   cli_json_num(c, "peak_temp_C"), 1e-9);
+	           cli_json_num(c, "peak_temp_C"), 1e-9);
 	cJSON_Delete(a);
 	cJSON_Delete(b);
 	cJSON_Delete(c);
@@ -115,8 +116,10 @@ static int safe_point(double rpm, double axis)
 	cJSON *j, *st;
 	int n;
 
-	snprintf(args, sizeof args, "point %s --rpm %.17g --set '%.17g K' "
-		 "--json", FAST, rpm, axis);
+	snprintf(args, sizeof args,
+	         "point %s --rpm %.17g --set '%.17g K' "
+	         "--json",
+	         FAST, rpm, axis);
 	j = cli_run_json(args);
 	st = cJSON_GetObjectItem(j, "status");
 	n = cJSON_GetArraySize(st);
@@ -142,8 +145,8 @@ static void window_corners_and_centre_are_safe(void **state)
 	assert_true(r1 > r0 && a1 > a0);
 	assert_true(safe_point(r0, a0) && safe_point(r0, a1));
 	assert_true(safe_point(r1, a0) && safe_point(r1, a1));
-	assert_true(safe_point(cli_json_num(c, "rpm"),
-			       cli_json_num(c, "axis_value")));
+	assert_true(
+	    safe_point(cli_json_num(c, "rpm"), cli_json_num(c, "axis_value")));
 	grid = cli_slurp(OW_TEST_OUT "/map-a/grid.csv");
 	for (line = strtok(strchr(grid, '\n') + 1, "\n"); line;
 	     line = strtok(NULL, "\n")) {
@@ -175,7 +178,7 @@ static void grid_is_identical_for_any_thread_count(void **state)
 
 /* Distance from p to segment ab in fine-lattice cells. */
 static double seg_dist(const double *p, const double *a, const double *b,
-		       double sx, double sy)
+                       double sx, double sy)
 {
 	double ax = (a[0] - p[0]) / sx, ay = (a[1] - p[1]) / sy;
 	double bx = (b[0] - p[0]) / sx, by = (b[1] - p[1]) / sy;
@@ -186,22 +189,23 @@ static double seg_dist(const double *p, const double *a, const double *b,
 	return hypot(ax + t * dx, ay + t * dy);
 }
 
-static double nearest(const double *p, const cJSON *lines, double sx,
-		      double sy)
+static double nearest(const double *p, const cJSON *lines, double sx, double sy)
 {
 	const cJSON *l, *q;
 	double best = INFINITY;
 
-	cJSON_ArrayForEach(l, lines) {
+	cJSON_ArrayForEach(l, lines)
+	{
 		const cJSON *prev = NULL;
 
-		cJSON_ArrayForEach(q, l) {
+		cJSON_ArrayForEach(q, l)
+		{
 			double b[2] = {cJSON_GetArrayItem(q, 0)->valuedouble,
-				       cJSON_GetArrayItem(q, 1)->valuedouble};
+			               cJSON_GetArrayItem(q, 1)->valuedouble};
 			if (prev) {
 				double a[2] = {
-					cJSON_GetArrayItem(prev, 0)->valuedouble,
-					cJSON_GetArrayItem(prev, 1)->valuedouble};
+				    cJSON_GetArrayItem(prev, 0)->valuedouble,
+				    cJSON_GetArrayItem(prev, 1)->valuedouble};
 				best = fmin(best, seg_dist(p, a, b, sx, sy));
 			}
 			prev = q;
@@ -214,9 +218,9 @@ static const cJSON *lines_of(const cJSON *w, const char *limit)
 {
 	const cJSON *b;
 
-	cJSON_ArrayForEach(b, cJSON_GetObjectItem(w, "boundaries"))
-		if (!strcmp(cJSON_GetObjectItem(b, "limit")->valuestring, limit))
-			return cJSON_GetObjectItem(b, "lines");
+	cJSON_ArrayForEach(b, cJSON_GetObjectItem(w, "boundaries")) if (
+	    !strcmp(cJSON_GetObjectItem(b, "limit")->valuestring,
+	            limit)) return cJSON_GetObjectItem(b, "lines");
 	fail_msg("no boundary for %s", limit);
 	return NULL;
 }
@@ -242,9 +246,10 @@ static void refinement_matches_fine_grid_with_fewer_solves(void **state)
 		const cJSON *l, *q;
 		int n = 0;
 
-		cJSON_ArrayForEach(l, lr) cJSON_ArrayForEach(q, l) {
+		cJSON_ArrayForEach(l, lr) cJSON_ArrayForEach(q, l)
+		{
 			double p[2] = {cJSON_GetArrayItem(q, 0)->valuedouble,
-				       cJSON_GetArrayItem(q, 1)->valuedouble};
+			               cJSON_GetArrayItem(q, 1)->valuedouble};
 			assert_true(nearest(p, lf, sx, sy) <= 1.0);
 			n++;
 		}
@@ -272,7 +277,8 @@ static void impossible_limits_give_an_empty_window(void **state)
 	free(text);
 	/* the study file's relative paths: none (embedded) */
 	cli_run("map " OW_TEST_OUT "/empty.json -o " OW_TEST_OUT "/map-empty "
-		"--grid 5x5", &r);
+	        "--grid 5x5",
+	        &r);
 	assert_int_equal(r.code, 0);
 	assert_non_null(strstr(r.out, "No safe operating point"));
 	assert_non_null(strstr(r.out, "peak_temp"));
@@ -293,7 +299,7 @@ static void unwritable_output_exits_four(void **state)
 	fputs("x", f);
 	fclose(f);
 	cli_run("map " FAST " -o " OW_TEST_OUT "/not-a-dir --grid 3x3 --quiet",
-		&r);
+	        &r);
 	assert_int_equal(r.code, 4);
 	cli_result_free(&r);
 }
@@ -318,36 +324,34 @@ static void energy_balance_closes_from_the_printed_figures(void **state)
 		double g, t, h, in, out, sum = 0.0;
 
 		snprintf(args, sizeof args,
-			 "point demo/study-si.json --rpm %g --set 10 --json",
-			 rpm[i]);
+		         "point demo/study-si.json --rpm %g --set 10 --json",
+		         rpm[i]);
 		j = cli_run_json(args);
 		assert_abs(cli_json_num(j, "unmelt_fraction"), 0.0, 0.0);
 		g = cli_json_num(j, "output_kg_h") / 3600.0;
 		t = cli_json_num(j, "discharge_bulk_temp_C");
 		h = 2300.0 * (130.0 - 25.0) + 200e3 + 2700.0 * (t - 130.0);
 		assert_rel(cli_json_num(j, "enthalpy_rise_kW"), g * h * 1e-3,
-			   1e-9);
+		           1e-9);
 		in = cli_json_num(j, "power_kW") +
 		     cli_json_num(j, "barrel_heat_kW") +
 		     cli_json_num(j, "root_heat_kW");
 		out = g * h * 1e-3 + cli_json_num(j, "flow_work_kW");
 		assert_abs(in - out, 0.0, 1e-3 * cli_json_num(j, "power_kW"));
 		zones = cJSON_GetObjectItem(j, "zones");
-		cJSON_ArrayForEach(z, zones)
-			sum += cli_json_num(z, "heat_kW");
+		cJSON_ArrayForEach(z, zones) sum += cli_json_num(z, "heat_kW");
 		assert_rel(sum, cli_json_num(j, "barrel_heat_kW"), 1e-9);
 		cJSON_Delete(j);
 	}
 	{
 		cJSON *j = cli_run_json("point tests/data/newtonian-rod.json "
-					"--rpm 60 --json");
+		                        "--rpm 60 --json");
 
-		assert_rel(cli_json_num(j, "flow_work_kW") * 1e3,
-			   cli_json_num(j, "output_kg_h") / 3600.0 / 760.0 *
-				   (cli_json_num(j, "discharge_pressure_MPa") *
-					    1e6 -
-				    1.0),
-			   1e-6);
+		assert_rel(
+		    cli_json_num(j, "flow_work_kW") * 1e3,
+		    cli_json_num(j, "output_kg_h") / 3600.0 / 760.0 *
+		        (cli_json_num(j, "discharge_pressure_MPa") * 1e6 - 1.0),
+		    1e-6);
 		cJSON_Delete(j);
 	}
 }
@@ -355,16 +359,15 @@ static void energy_balance_closes_from_the_printed_figures(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(point_json_and_profile_follow_the_contract),
-		cmocka_unit_test(
-			energy_balance_closes_from_the_printed_figures),
-		cmocka_unit_test(point_set_reads_units),
-		cmocka_unit_test(point_note_speaks_the_chosen_units),
-		cmocka_unit_test(window_corners_and_centre_are_safe),
-		cmocka_unit_test(grid_is_identical_for_any_thread_count),
-		cmocka_unit_test(refinement_matches_fine_grid_with_fewer_solves),
-		cmocka_unit_test(impossible_limits_give_an_empty_window),
-		cmocka_unit_test(unwritable_output_exits_four),
+	    cmocka_unit_test(point_json_and_profile_follow_the_contract),
+	    cmocka_unit_test(energy_balance_closes_from_the_printed_figures),
+	    cmocka_unit_test(point_set_reads_units),
+	    cmocka_unit_test(point_note_speaks_the_chosen_units),
+	    cmocka_unit_test(window_corners_and_centre_are_safe),
+	    cmocka_unit_test(grid_is_identical_for_any_thread_count),
+	    cmocka_unit_test(refinement_matches_fine_grid_with_fewer_solves),
+	    cmocka_unit_test(impossible_limits_give_an_empty_window),
+	    cmocka_unit_test(unwritable_output_exits_four),
 	};
 	return cmocka_run_group_tests(tests, NULL, NULL);
 }

@@ -21,7 +21,8 @@ static void small_map(const char *dir, const char *extra)
 	char args[256];
 
 	snprintf(args, sizeof args,
-	         "map " FAST " -o build/tests/%s --quiet --jobs 2 --grid 6x5 %s",
+	         "map " FAST
+	         " -o build/tests/%s --quiet --jobs 2 --grid 6x5 %s",
 	         dir, extra);
 	cli_run(args, &r);
 	if (r.code != 0)
@@ -63,7 +64,8 @@ static void readme_commands_run_as_written(void **state)
 			strncat(cmd, "\n", sizeof cmd - strlen(cmd) - 1);
 			strncat(cmd, line, sizeof cmd - strlen(cmd) - 1);
 		}
-		strncat(cmd, "\n) >/dev/null 2>&1", sizeof cmd - strlen(cmd) - 1);
+		strncat(cmd, "\n) >/dev/null 2>&1",
+		        sizeof cmd - strlen(cmd) - 1);
 		line = cmd + strlen(dir) + 9; /* for the message */
 		rc = system(cmd);
 		if (rc != 0)
@@ -165,7 +167,8 @@ static void every_written_key_is_in_the_readme(void **state)
 				snprintf(key, sizeof key, "`%s`", o->string);
 				if (!strstr(readme, key))
 					fail_msg("window.json %s.%s is not in "
-					         "README", e->string, o->string);
+					         "README",
+					         e->string, o->string);
 			}
 	}
 	cJSON_Delete(w);
@@ -234,12 +237,12 @@ static void report_text_can_be_searched(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(a_bare_set_is_read_in_the_study_units),
-		cmocka_unit_test(a_current_point_off_the_map_is_said_so),
-		cmocka_unit_test(check_shows_die_limits_and_sweep),
-		cmocka_unit_test(report_text_can_be_searched),
-		cmocka_unit_test(every_written_key_is_in_the_readme),
-		cmocka_unit_test(readme_commands_run_as_written),
+	    cmocka_unit_test(a_bare_set_is_read_in_the_study_units),
+	    cmocka_unit_test(a_current_point_off_the_map_is_said_so),
+	    cmocka_unit_test(check_shows_die_limits_and_sweep),
+	    cmocka_unit_test(report_text_can_be_searched),
+	    cmocka_unit_test(every_written_key_is_in_the_readme),
+	    cmocka_unit_test(readme_commands_run_as_written),
 	};
 
 	return cmocka_run_group_tests(tests, NULL, NULL);

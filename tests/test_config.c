@@ -15,11 +15,11 @@
 #include "ow_io.h"
 
 #define DATA "tests/data/"
-#define BAD "tests/bad/"
+#define BAD  "tests/bad/"
 
 /* Exact factors of NIST Special Publication 811 (2008), appendix B. */
-#define IN_M 0.0254
-#define LB_KG 0.45359237
+#define IN_M   0.0254
+#define LB_KG  0.45359237
 #define PSI_PA (LB_KG * 9.80665 / (IN_M * IN_M))
 
 struct fixture {
@@ -67,7 +67,7 @@ static void load_bad(struct fixture *f, const char *path)
 {
 	ow_diag_clear(&f->d);
 	assert_int_equal(ow_config_load_study(f->u, path, f->a, &f->d),
-			 OW_EINPUT);
+	                 OW_EINPUT);
 	assert_true(f->d.msg[0] != '\0');
 }
 
@@ -77,8 +77,7 @@ static void message_has(const struct fixture *f, const char *text)
 		fail_msg("message \"%s\" lacks \"%s\"", f->d.msg, text);
 }
 
-static const struct ow_source *source(const struct ow_study *s,
-				      const char *key)
+static const struct ow_source *source(const struct ow_study *s, const char *key)
 {
 	int i;
 
@@ -97,11 +96,11 @@ static void full_study_loads_screw_in_si(void **state)
 
 	load_ok(f, DATA "study-full.json", f->a);
 	assert_string_equal(f->a->title,
-			    "Full study: 63.5 mm screw, HDPE, annular die");
+	                    "Full study: 63.5 mm screw, HDPE, annular die");
 	assert_string_equal(f->a->screw_path, DATA "parts/screw-sf63.json");
 	assert_string_equal(f->a->resin_path, DATA "parts/resin-hdpe.json");
 	assert_rel(s->diameter_m, 0.0635, 1e-12);
-	assert_rel(s->lead_m, 0.0635, 1e-12);        /* "1 D" */
+	assert_rel(s->lead_m, 0.0635, 1e-12);          /* "1 D" */
 	assert_rel(s->flight_width_m, 0.00635, 1e-12); /* "0.1 D" */
 	assert_rel(s->clearance_m, 0.08e-3, 1e-12);
 	assert_int_equal(s->flights, 1);
@@ -202,12 +201,12 @@ static void full_study_loads_line_in_si(void **state)
 	assert_rel(l->zones[1].wall_h_W_m2K, 1500.0, 1e-12);
 	assert_int_equal(l->zones[1].defaulted, 0);
 	assert_rel(l->zones[0].heating_W, 50e3 * OW_PI * 0.0635 * 6 * 0.0635,
-		   1e-12);
+	           1e-12);
 	assert_rel(l->zones[0].cooling_W, 0.4 * l->zones[0].heating_W, 1e-12);
 	assert_rel(l->zones[2].wall_h_W_m2K, 2000.0, 1e-12);
 	assert_int_equal(l->zones[2].defaulted, OW_ZONE_DEF_HEATING |
-						OW_ZONE_DEF_COOLING |
-						OW_ZONE_DEF_WALL);
+	                                            OW_ZONE_DEF_COOLING |
+	                                            OW_ZONE_DEF_WALL);
 	assert_rel(l->heat_transfer_factor, 1.25, 1e-12);
 }
 
@@ -227,7 +226,7 @@ static void full_study_loads_limits_sweep_and_numerics(void **state)
 	assert_rel(l->limits.max_output_kg_s, 150.0 / 3600.0, 1e-12);
 	assert_rel(l->limits.max_sbr, 0.9, 1e-12);
 	assert_rel(l->limits.zone_load, 0.9, 1e-12); /* "90 %" */
-	assert_rel(l->axes.rpm_from, 20.0, 1e-12); /* rev/min inside */
+	assert_rel(l->axes.rpm_from, 20.0, 1e-12);   /* rev/min inside */
 	assert_rel(l->axes.rpm_to, 120.0, 1e-12);
 	assert_int_equal(l->axes.rpm_steps, 41);
 	assert_int_equal(l->axes.mode, OW_AXIS_SET);
@@ -278,7 +277,7 @@ static void absent_optional_parts_take_their_defaults(void **state)
 	load_ok(f, DATA "sub/study-relative.json", f->a);
 	l = &f->a->line;
 	ow_line_default(&def);
-	assert_rel(l->feed_temp_K, 298.15, 1e-12); /* 25 degC */
+	assert_rel(l->feed_temp_K, 298.15, 1e-12);            /* 25 degC */
 	assert_rel(l->numerics.feed_pressure_Pa, 1e4, 1e-12); /* 0.01 MPa */
 	assert_int_equal(l->root_adiabatic, 1);
 	assert_rel(l->screen_pressure_Pa, 0.0, 0.0);
@@ -288,7 +287,7 @@ static void absent_optional_parts_take_their_defaults(void **state)
 	assert_rel(l->heat_transfer_factor, 1.0, 0.0);
 	assert_int_equal(l->axes.rpm_steps, 0); /* no sweep */
 	assert_int_equal(l->numerics.stations_per_turn,
-			 def.numerics.stations_per_turn);
+	                 def.numerics.stations_per_turn);
 	assert_int_equal(l->numerics.depth_nodes, def.numerics.depth_nodes);
 	assert_int_equal(f->a->n_sources, 6); /* all from the part files */
 }
@@ -299,9 +298,9 @@ static void relative_paths_resolve_from_the_referencing_folder(void **state)
 
 	load_ok(f, DATA "sub/study-relative.json", f->a);
 	assert_string_equal(f->a->screw_path,
-			    DATA "sub/../parts/screw-sf63.json");
+	                    DATA "sub/../parts/screw-sf63.json");
 	assert_string_equal(f->a->resin_path,
-			    DATA "sub/../parts/resin-hdpe.json");
+	                    DATA "sub/../parts/resin-hdpe.json");
 	load_ok(f, DATA "study-full.json", f->b);
 	assert_memory_equal(&f->a->screw, &f->b->screw, sizeof f->a->screw);
 	assert_memory_equal(&f->a->resin, &f->b->resin, sizeof f->a->resin);
@@ -346,7 +345,7 @@ static void same_screw(const struct ow_screw *a, const struct ow_screw *b)
 	assert_int_equal(a->n_sections, b->n_sections);
 	for (i = 0; i < a->n_sections; i++) {
 		const struct ow_section *s = &a->sections[i],
-					 *t = &b->sections[i];
+		                        *t = &b->sections[i];
 
 		assert_int_equal(s->type, t->type);
 		same(s->length_m, t->length_m, "section length");
@@ -357,8 +356,7 @@ static void same_screw(const struct ow_screw *a, const struct ow_screw *b)
 	}
 }
 
-static void same_resin(const struct ow_material *a,
-		       const struct ow_material *b)
+static void same_resin(const struct ow_material *a, const struct ow_material *b)
 {
 	same(a->solid_density_kg_m3, b->solid_density_kg_m3, "solid_density");
 	same(a->bulk_density_kg_m3, b->bulk_density_kg_m3, "bulk_density");
@@ -438,7 +436,7 @@ static void us_units_convert_with_exact_factors(void **state)
 	assert_rel(s->line.zones[1].set_K, 473.15, 1e-12);     /* 392 degF */
 	assert_rel(s->line.limits.pressure_Pa, 5000.0 * PSI_PA, 1e-12);
 	assert_rel(s->line.limits.min_output_kg_s, 44.0 * LB_KG / 3600.0,
-		   1e-12);
+	           1e-12);
 	assert_rel(s->line.axes.axis_from, -10.0, 1e-12); /* -18 degF */
 	assert_rel(s->resin.visc.consistency_Pa_sn, 2.9 * PSI_PA, 1e-12);
 	/* 1 Btu_IT/(lb degF) = 4186.8 J/(kg K) exactly (NIST SP 811) */
@@ -455,7 +453,7 @@ static void barrier_screw_file_loads_its_channels(void **state)
 
 	ow_diag_clear(&f->d);
 	if (ow_config_load_screw(f->u, DATA "parts/screw-barrier.json", &s,
-				 &f->d) != OW_OK)
+	                         &f->d) != OW_OK)
 		fail_msg("%s", f->d.msg);
 	assert_int_equal(b->type, OW_SEC_BARRIER);
 	assert_rel(b->solids_depth_start_m, 9.5e-3, 1e-12);
@@ -475,7 +473,7 @@ static void cross_resin_file_loads_its_model(void **state)
 
 	ow_diag_clear(&f->d);
 	if (ow_config_load_resin(f->u, DATA "parts/resin-cross.json", &m,
-				 &f->d) != OW_OK)
+	                         &f->d) != OW_OK)
 		fail_msg("%s", f->d.msg);
 	assert_int_equal(m.visc.model, OW_VISC_CROSS);
 	assert_rel(m.visc.zero_shear_Pa_s, 3000.0, 1e-12);
@@ -540,10 +538,10 @@ static void tmp_close(struct tmpdir *t)
 }
 
 static const char screw_text[] =
-	"{ \"diameter\": \"63.5 mm\", \"lead\": \"1 D\", \"flight_width\": "
-	"\"0.1 D\", \"clearance\": \"0.1 mm\",\n"
-	"  \"sections\": [ { \"type\": \"feed\", \"length\": \"24 D\", "
-	"\"depth\": \"%s\" } ] }\n";
+    "{ \"diameter\": \"63.5 mm\", \"lead\": \"1 D\", \"flight_width\": "
+    "\"0.1 D\", \"clearance\": \"0.1 mm\",\n"
+    "  \"sections\": [ { \"type\": \"feed\", \"length\": \"24 D\", "
+    "\"depth\": \"%s\" } ] }\n";
 
 /* A fault inside a referenced file is reported under that file's name,
  * with the path inside it. */
@@ -558,12 +556,13 @@ static void faults_in_part_files_name_the_part_file(void **state)
 	/* the resin path climbs out of the temporary folder to the data */
 	assert_non_null(getcwd(want, sizeof want));
 	snprintf(text, sizeof text,
-		 "{ \"title\": \"t\", \"screw\": \"parts/s.json\",\n"
-		 "  \"resin\": \"%s/" DATA "parts/resin-hdpe.json\",\n"
-		 "  \"barrel\": { \"zones\": [ { \"to\": \"24 D\", \"set\": "
-		 "\"200 degC\" } ] },\n"
-		 "  \"die\": { \"type\": \"circle\", \"diameter\": \"5 mm\", "
-		 "\"length\": \"20 mm\" } }\n", want);
+	         "{ \"title\": \"t\", \"screw\": \"parts/s.json\",\n"
+	         "  \"resin\": \"%s/" DATA "parts/resin-hdpe.json\",\n"
+	         "  \"barrel\": { \"zones\": [ { \"to\": \"24 D\", \"set\": "
+	         "\"200 degC\" } ] },\n"
+	         "  \"die\": { \"type\": \"circle\", \"diameter\": \"5 mm\", "
+	         "\"length\": \"20 mm\" } }\n",
+	         want);
 	study = put(&t, "study.json", text);
 	snprintf(text, sizeof text, screw_text, "-3 mm");
 	screw = put(&t, "parts/s.json", text);
@@ -591,8 +590,7 @@ static void malformed_json_names_line_and_column(void **state)
 	/* the parser stops at the comma of line 3, column 12 */
 	p = put(&t, "bad.json", "{\n  \"title\": \"x\",\n  \"screw\": ,\n}\n");
 	load_bad(f, p);
-	snprintf(want, sizeof want, "%s: line 3, column 12: malformed JSON",
-		 p);
+	snprintf(want, sizeof want, "%s: line 3, column 12: malformed JSON", p);
 	if (strncmp(f->d.msg, want, strlen(want)))
 		fail_msg("\"%s\" does not start with \"%s\"", f->d.msg, want);
 	tmp_close(&t);
@@ -619,16 +617,16 @@ static void missing_study_file_is_an_input_error(void **state)
 	load_bad(f, DATA "no-such-study.json");
 	message_has(f, DATA "no-such-study.json: cannot open");
 	/* no diag buffer: same status, nothing written anywhere */
-	assert_int_equal(ow_config_load_study(f->u, BAD "key-duplicate.json",
-					      f->a, NULL),
-			 OW_EINPUT);
+	assert_int_equal(
+	    ow_config_load_study(f->u, BAD "key-duplicate.json", f->a, NULL),
+	    OW_EINPUT);
 }
 
 /* Table-driven CRC-32 (the textbook form, independent of the library's
  * bitwise one); check value CRC("123456789") = 0xCBF43926 from Williams,
  * "A painless guide to CRC error detection algorithms" (1993), ch. 17. */
 static unsigned long crc_table_update(unsigned long crc, const char *p,
-				      size_t n)
+                                      size_t n)
 {
 	unsigned long table[256];
 	unsigned long c;
@@ -693,12 +691,13 @@ static int corpus_case(struct fixture *f, char *line)
 		snprintf(head, sizeof head, "%s: ", full);
 	if (strncmp(f->d.msg, head, strlen(head)) || !strstr(f->d.msg, want))
 		fail_msg("%s: message \"%s\" should start \"%s\" and contain "
-			 "\"%s\"", full, f->d.msg, head, want);
+		         "\"%s\"",
+		         full, f->d.msg, head, want);
 	return 1;
 }
 
-static void every_corpus_case_is_rejected_with_file_path_and_reason(
-	void **state)
+static void
+every_corpus_case_is_rejected_with_file_path_and_reason(void **state)
 {
 	struct fixture *f = *state;
 	FILE *m = fopen(BAD "MANIFEST", "r");
@@ -727,28 +726,28 @@ static void corpus_base_studies_are_valid(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(full_study_loads_screw_in_si),
-		cmocka_unit_test(full_study_loads_resin_in_si),
-		cmocka_unit_test(mixer_without_lands_takes_the_stated_default),
-		cmocka_unit_test(full_study_loads_line_in_si),
-		cmocka_unit_test(full_study_loads_limits_sweep_and_numerics),
-		cmocka_unit_test(value_source_objects_record_their_sources),
-		cmocka_unit_test(absent_optional_parts_take_their_defaults),
-		cmocka_unit_test(
-			relative_paths_resolve_from_the_referencing_folder),
-		cmocka_unit_test(embedded_screw_and_resin_load_from_the_study),
-		cmocka_unit_test(us_and_si_versions_give_the_same_structs),
-		cmocka_unit_test(us_units_convert_with_exact_factors),
-		cmocka_unit_test(barrier_screw_file_loads_its_channels),
-		cmocka_unit_test(cross_resin_file_loads_its_model),
-		cmocka_unit_test(faults_in_part_files_name_the_part_file),
-		cmocka_unit_test(malformed_json_names_line_and_column),
-		cmocka_unit_test(byte_order_mark_is_skipped),
-		cmocka_unit_test(missing_study_file_is_an_input_error),
-		cmocka_unit_test(input_crc_covers_every_file_in_reading_order),
-		cmocka_unit_test(
-			every_corpus_case_is_rejected_with_file_path_and_reason),
-		cmocka_unit_test(corpus_base_studies_are_valid),
+	    cmocka_unit_test(full_study_loads_screw_in_si),
+	    cmocka_unit_test(full_study_loads_resin_in_si),
+	    cmocka_unit_test(mixer_without_lands_takes_the_stated_default),
+	    cmocka_unit_test(full_study_loads_line_in_si),
+	    cmocka_unit_test(full_study_loads_limits_sweep_and_numerics),
+	    cmocka_unit_test(value_source_objects_record_their_sources),
+	    cmocka_unit_test(absent_optional_parts_take_their_defaults),
+	    cmocka_unit_test(
+	        relative_paths_resolve_from_the_referencing_folder),
+	    cmocka_unit_test(embedded_screw_and_resin_load_from_the_study),
+	    cmocka_unit_test(us_and_si_versions_give_the_same_structs),
+	    cmocka_unit_test(us_units_convert_with_exact_factors),
+	    cmocka_unit_test(barrier_screw_file_loads_its_channels),
+	    cmocka_unit_test(cross_resin_file_loads_its_model),
+	    cmocka_unit_test(faults_in_part_files_name_the_part_file),
+	    cmocka_unit_test(malformed_json_names_line_and_column),
+	    cmocka_unit_test(byte_order_mark_is_skipped),
+	    cmocka_unit_test(missing_study_file_is_an_input_error),
+	    cmocka_unit_test(input_crc_covers_every_file_in_reading_order),
+	    cmocka_unit_test(
+	        every_corpus_case_is_rejected_with_file_path_and_reason),
+	    cmocka_unit_test(corpus_base_studies_are_valid),
 	};
 
 	return cmocka_run_group_tests(tests, setup, teardown);

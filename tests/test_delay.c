@@ -72,7 +72,9 @@ static double fd_solve(const struct fd_run *r, double *T, double *dy_out)
 		for (i = 0; i < n; i++) {
 			double cap = (i == 0 || i == n - 1) ? 0.5 : 1.0;
 
-			gsl_vector_set(diag, (size_t)i, cap + a * (i == 0 || i == n - 1 ? 1.0 : 2.0) / rc);
+			gsl_vector_set(
+			    diag, (size_t)i,
+			    cap + a * (i == 0 || i == n - 1 ? 1.0 : 2.0) / rc);
 			gsl_vector_set(rhs, (size_t)i, cap * T[i]);
 			if (i < n - 1) {
 				gsl_vector_set(up, (size_t)i, -a / rc);
@@ -95,7 +97,7 @@ static double fd_solve(const struct fd_run *r, double *T, double *dy_out)
 	}
 	for (i = 0; i < n; i++) /* heat held: finite volumes */
 		heat += rc * (T[i] - r->t0_K) * dy *
-			(i == 0 || i == n - 1 ? 0.5 : 1.0);
+		        (i == 0 || i == n - 1 ? 0.5 : 1.0);
 	gsl_vector_free(diag);
 	gsl_vector_free(up);
 	gsl_vector_free(lo);
@@ -115,7 +117,7 @@ static double wall_two_steps(double t)
 /* Advance the plug in equal steps of dt up to t_end under wall(t) (taken
  * at each step's end, as the march does). */
 static void run_plug(struct ow_delay *z, const struct fd_run *r, double h,
-		     int steps)
+                     int steps)
 {
 	struct ow_delay_out o;
 	double dt = r->t_end / steps;
@@ -123,8 +125,8 @@ static void run_plug(struct ow_delay *z, const struct fd_run *r, double h,
 
 	for (s = 0; s < steps; s++)
 		assert_int_equal(ow_delay_advance(z, r->wall((s + 1) * dt), h,
-						  0.2, 1e-3, dt, &o, NULL),
-				 OW_OK);
+		                                  0.2, 1e-3, dt, &o, NULL),
+		                 OW_OK);
 }
 
 /* Under an ideal wall the plug is a semi-infinite solid whose surface
@@ -135,8 +137,8 @@ static void run_plug(struct ow_delay *z, const struct fd_run *r, double h,
 static void plug_follows_the_erfc_solution_of_a_wall_step(void **st)
 {
 	struct ow_material m = hdpe();
-	struct fd_run r = {&m, C2K(25.0), 0.0, 40.0, 0.012, wall_two_steps,
-			   1201, 8000};
+	struct fd_run r = {&m,    C2K(25.0),      0.0,  40.0,
+	                   0.012, wall_two_steps, 1201, 8000};
 	double *T = malloc(sizeof *T * (size_t)r.n), dy, heat;
 	double y[] = {0.0, 0.5e-3, 1e-3, 2e-3, 3e-3};
 	struct ow_delay z;
@@ -147,8 +149,8 @@ static void plug_follows_the_erfc_solution_of_a_wall_step(void **st)
 	ow_delay_start(&z, &m, r.t0_K);
 	run_plug(&z, &r, 0.0, 40);
 	for (i = 0; i < sizeof y / sizeof y[0]; i++)
-		assert_abs(ow_delay_temp(&z, y[i]),
-			   T[(int)(y[i] / dy + 0.5)], 0.01);
+		assert_abs(ow_delay_temp(&z, y[i]), T[(int)(y[i] / dy + 0.5)],
+		           0.01);
 	assert_abs(ow_delay_surface(&z), C2K(125.0), 1e-9);
 	assert_rel(ow_delay_solid_heat(&z), heat, 2e-3);
 	free(T);
@@ -161,8 +163,8 @@ static void plug_follows_the_erfc_solution_of_a_wall_step(void **st)
 static void plug_surface_rises_through_a_wall_coefficient(void **st)
 {
 	struct ow_material m = hdpe();
-	struct fd_run r = {&m, C2K(25.0), 500.0, 40.0, 0.012, wall_two_steps,
-			   1201, 8000};
+	struct fd_run r = {&m,    C2K(25.0),      500.0, 40.0,
+	                   0.012, wall_two_steps, 1201,  8000};
 	double *T = malloc(sizeof *T * (size_t)r.n), dy, heat;
 	struct ow_delay z;
 	(void)st;
@@ -213,8 +215,8 @@ static void film_grows_as_neumann_melting(void **st)
 	ow_delay_start(&z, &m, m.melt_temp_K); /* no subcooling */
 	for (s = 0; s < 50; s++) {
 		assert_int_equal(ow_delay_advance(&z, m.melt_temp_K + dT, 0.0,
-						  0.0, 1.0, 0.1, &o, NULL),
-				 OW_OK);
+		                                  0.0, 1.0, 0.1, &o, NULL),
+		                 OW_OK);
 		t += 0.1;
 		assert_true(o.done_s < 0.0);
 	}
@@ -235,8 +237,8 @@ static double time_to_clearance(double wall_K, double feed_K)
 	ow_delay_start(&z, &m, feed_K);
 	for (s = 0; s < 10000; s++) {
 		assert_int_equal(ow_delay_advance(&z, wall_K, 0.0, 0.2, 0.3e-3,
-						  0.01, &o, NULL),
-				 OW_OK);
+		                                  0.01, &o, NULL),
+		                 OW_OK);
 		if (o.done_s >= 0.0)
 			return t + o.done_s;
 		t += 0.01;
@@ -258,7 +260,7 @@ static void film_reaches_the_clearance_sooner_when_hotter(void **st)
  * its film reaches a 0.3 mm clearance: returns the heat that went in,
  * J/m^2, and the film's dissipation in *diss. */
 static double melt_to_the_clearance(const struct ow_material *m,
-				    struct ow_delay *z, double *diss)
+                                    struct ow_delay *z, double *diss)
 {
 	struct ow_delay_out o;
 	double in = 0.0;
@@ -268,8 +270,8 @@ static double melt_to_the_clearance(const struct ow_material *m,
 	ow_delay_start(z, m, C2K(25.0));
 	for (s = 0; s < 400; s++) {
 		assert_int_equal(ow_delay_advance(z, C2K(175.0), 0.0, 0.2,
-						  0.3e-3, 0.005, &o, NULL),
-				 OW_OK);
+		                                  0.3e-3, 0.005, &o, NULL),
+		                 OW_OK);
 		in += o.heat_J_m2;
 		*diss += o.dissip_J_m2;
 		if (o.done_s >= 0.0)
@@ -283,13 +285,13 @@ static double melt_to_the_clearance(const struct ow_material *m,
  * melt_K, the solid at bed_K, enthalpy from T_0 (c_s below T_m, lambda,
  * c_m above). */
 static double held_heat(const struct ow_material *m, double H, double f,
-			double bed_K, double melt_K)
+                        double bed_K, double melt_K)
 {
 	return m->solid_density_kg_m3 * H *
 	       (f * (m->solid_cp_J_kgK * (m->melt_temp_K - C2K(25.0)) +
-		     m->fusion_J_kg +
-		     m->melt_cp_J_kgK * (melt_K - m->melt_temp_K)) +
-		(1.0 - f) * m->solid_cp_J_kgK * (bed_K - C2K(25.0)));
+	             m->fusion_J_kg +
+	             m->melt_cp_J_kgK * (melt_K - m->melt_temp_K)) +
+	        (1.0 - f) * m->solid_cp_J_kgK * (bed_K - C2K(25.0)));
 }
 
 /* The plug handed to melting keeps the heat it took up: film mass at the
@@ -338,12 +340,12 @@ static void hand_over_of_more_heat_than_the_solid_holds(void **st)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(plug_follows_the_erfc_solution_of_a_wall_step),
-		cmocka_unit_test(plug_surface_rises_through_a_wall_coefficient),
-		cmocka_unit_test(film_grows_as_neumann_melting),
-		cmocka_unit_test(film_reaches_the_clearance_sooner_when_hotter),
-		cmocka_unit_test(hand_over_keeps_the_heat),
-		cmocka_unit_test(hand_over_of_more_heat_than_the_solid_holds),
+	    cmocka_unit_test(plug_follows_the_erfc_solution_of_a_wall_step),
+	    cmocka_unit_test(plug_surface_rises_through_a_wall_coefficient),
+	    cmocka_unit_test(film_grows_as_neumann_melting),
+	    cmocka_unit_test(film_reaches_the_clearance_sooner_when_hotter),
+	    cmocka_unit_test(hand_over_keeps_the_heat),
+	    cmocka_unit_test(hand_over_of_more_heat_than_the_solid_holds),
 	};
 
 	return cmocka_run_group_tests(tests, NULL, NULL);

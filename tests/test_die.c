@@ -13,9 +13,9 @@
 #include "ow_die.h"
 #include "ow_melt.h"
 
-#define PI OW_PI
+#define PI   OW_PI
 #define T200 473.15 /* 200 degC */
-#define RHO 1000.0  /* melt density of the test resins: m3/s = t/s */
+#define RHO  1000.0 /* melt density of the test resins: m3/s = t/s */
 
 static struct ow_material power_law(double m, double n)
 {
@@ -49,7 +49,7 @@ static struct ow_die circle(double d_m, double len_m)
 }
 
 static double die_dp(const struct ow_die *die, const struct ow_material *m,
-		     double q_m3_s, double temp_K)
+                     double q_m3_s, double temp_K)
 {
 	double dp = NAN;
 	struct ow_diag d = {""};
@@ -69,18 +69,18 @@ static double die_dp(const struct ow_die *die, const struct ow_material *m,
  * 1.00004 (all recomputed). */
 static void newtonian_formulas_match_check_values(void **state)
 {
-	static const double ann[][2] = {{0.5, 1.00787}, {0.8, 1.00083},
-					{0.9, 1.00018}, {0.95, 1.00004}};
+	static const double ann[][2] = {
+	    {0.5, 1.00787}, {0.8, 1.00083}, {0.9, 1.00018}, {0.95, 1.00004}};
 	(void)state;
 	assert_rel(ow_die_newtonian_flow_circle(2.5e-3, 0.02, 1000, 1e7),
-		   7.66990e-6, 1e-5);
+	           7.66990e-6, 1e-5);
 	assert_rel(ow_die_newtonian_flow_slit(0.2, 1.5e-3, 0.02, 1000, 1e7, 0),
-		   2.8125e-5, 1e-12);
+	           2.8125e-5, 1e-12);
 	for (int i = 0; i < 4; i++)
 		assert_abs(ow_die_annulus_factor(ann[i][0]), ann[i][1], 6e-6);
 	/* an annulus with a vanishing core is the tube */
 	assert_rel(ow_die_newtonian_flow_annulus(2.5e-3, 0.0, 0.02, 1000, 1e7),
-		   7.66990e-6, 1e-5);
+	           7.66990e-6, 1e-5);
 }
 
 /* Power-law tube and slit (Bird, Armstrong & Hassager, Dynamics of
@@ -94,18 +94,18 @@ static void powerlaw_formulas_match_and_invert(void **state)
 
 	(void)state;
 	assert_rel(ow_die_powerlaw_flow_circle(2.5e-3, 0.02, 1e4, 0.5, 1e7),
-		   3.83495e-5, 1e-5);
+	           3.83495e-5, 1e-5);
 	assert_rel(ow_die_powerlaw_flow_slit(0.2, 1.5e-3, 0.02, 1e4, 0.5, 1e7),
-		   7.91016e-5, 1e-5);
+	           7.91016e-5, 1e-5);
 	assert_rel(die_dp(&d, &m, 3.83495e-5, T200), 1e7, 1e-5);
 	d.type = OW_DIE_SLIT;
 	d.width_m = 0.2;
 	d.gap_m = 1.5e-3;
 	/* wide slit formula with the flow over F_p(h/W), Rowell & Finlayson
 	 * (1922) finite-width factor */
-	assert_rel(die_dp(&d, &m,
-			  7.91016e-5 * ow_melt_shape_fp(1.5e-3 / 0.2), T200),
-		   1e7, 1e-5);
+	assert_rel(
+	    die_dp(&d, &m, 7.91016e-5 * ow_melt_shape_fp(1.5e-3 / 0.2), T200),
+	    1e7, 1e-5);
 }
 
 /* The die pressure of a Newtonian melt is exact for every shape: tube,
@@ -132,7 +132,7 @@ static void newtonian_die_pressure_is_exact(void **state)
 		d.outer_diameter_m = 0.02;
 		d.inner_diameter_m = 0.02 * kap[i];
 		q = ow_die_newtonian_flow_annulus(0.01, 0.01 * kap[i], 0.02,
-						  1000, 1e7);
+		                                  1000, 1e7);
 		assert_rel(die_dp(&d, &m, q, T200), 1e7, 1e-10);
 	}
 }
@@ -157,11 +157,11 @@ static void die_wall_viscosity_matches_rao_ldpe_example(void **state)
 	(void)state;
 	assert_abs(eta, 373.1, 0.05);
 	assert_rel(ow_viscosity_eval(&m.visc, 500.0, T200), eta, 1e-12);
-	assert_int_equal(ow_die_wall_shear_rate(&d, &m, q * RHO, T200, &g, NULL),
-			 OW_OK);
+	assert_int_equal(
+	    ow_die_wall_shear_rate(&d, &m, q * RHO, T200, &g, NULL), OW_OK);
 	assert_rel(g, 500.0, 1e-9);
 	assert_rel(die_dp(&d, &m, q, T200), 2.0 * len / r * 373.1 * 500.0,
-		   2e-4);
+	           2e-4);
 }
 
 /* For a Carreau-Yasuda resin the wall state is self-consistent: the true
@@ -179,10 +179,13 @@ static void die_wall_state_is_self_consistent(void **state)
 
 		ow_die_wall_shear_rate(&d, &m, q * RHO, T200, &g, NULL);
 		n = ow_melt_local_index(&m.visc, g, T200);
-		assert_rel(g, (3.0 * n + 1.0) / (4.0 * n) * 4.0 * q /
-				      (PI * r * r * r), 1e-8);
-		assert_rel(dp, 2.0 * 0.02 * ow_viscosity_eval(&m.visc, g, T200) *
-				       g / r, 1e-12);
+		assert_rel(
+		    g, (3.0 * n + 1.0) / (4.0 * n) * 4.0 * q / (PI * r * r * r),
+		    1e-8);
+		assert_rel(dp,
+		           2.0 * 0.02 * ow_viscosity_eval(&m.visc, g, T200) *
+		               g / r,
+		           1e-12);
 	}
 }
 
@@ -229,10 +232,11 @@ static void die_flow_is_close_to_exact_generalised_newtonian_tube(void **st)
 	(void)st;
 	gsl_set_error_handler_off();
 	for (double q = 1e-8; q < 1e-4; q *= 10.0) {
-		double tw = die_dp(&d, &m, q, T200) * r / (2.0 * 0.02), val, err;
+		double tw = die_dp(&d, &m, q, T200) * r / (2.0 * 0.02), val,
+		       err;
 
 		gsl_integration_qags(&f, 0.0, tw, 0.0, 1e-10, 1000, ws, &val,
-				     &err);
+		                     &err);
 		assert_rel(PI * r * r * r / (tw * tw * tw) * val, q, 0.025);
 	}
 	gsl_integration_workspace_free(ws);
@@ -272,7 +276,7 @@ static void measured_die_scales_with_the_rheology(void **state)
 	for (int k = 0; k < 2; k++) {
 		d.diameter_m = k ? 4e-3 : 0.0;
 		assert_rel(die_dp(&d, &pl, 3e-5, 503.15),
-			   12e6 * pow(1.5 * at / atm, 0.41), 1e-9);
+		           12e6 * pow(1.5 * at / atm, 0.41), 1e-9);
 	}
 	/* rising flow needs more pressure, a hotter melt less */
 	assert_true(die_dp(&d, &cy, 3e-5, 483.15) > 12e6);
@@ -297,8 +301,7 @@ static double mismatch(double q, void *p)
 	mt->c.vol_flow_m3_s = q;
 	if (ow_melt_step(mt->ws, &mt->c, 0.0, &o, NULL) != OW_OK)
 		return NAN;
-	return o.dpdz_Pa_m * mt->length_m -
-	       die_dp(mt->die, mt->c.mat, q, T200);
+	return o.dpdz_Pa_m * mt->length_m - die_dp(mt->die, mt->c.mat, q, T200);
 }
 
 /* Brent's method (GSL) on [0, q_hi]; returns the matched flow. */
@@ -367,10 +370,10 @@ static void operating_point_of_newtonian_screw_and_rod_die(void **state)
  * example, inputs from memory, results recomputed; second row: an
  * end-of-chapter problem statement, results recomputed. */
 static const double groover[][12] = {
-	{0.075, 1.0, 0.006, 20.0, 1.9, 100.0, 0.0065, 0.020, 5.3528e-5,
-	 20.50e6, 2.1833e6, 4.7827e-5},
-	{0.120, 1.0, 0.0065, 17.0, 2.8, 200.0, 0.0035, 0.0125, 1.29145e-4,
-	 98.06e6, 46.29e6, 6.81891e-5},
+    {0.075, 1.0, 0.006, 20.0, 1.9, 100.0, 0.0065, 0.020, 5.3528e-5, 20.50e6,
+     2.1833e6, 4.7827e-5},
+    {0.120, 1.0, 0.0065, 17.0, 2.8, 200.0, 0.0035, 0.0125, 1.29145e-4, 98.06e6,
+     46.29e6, 6.81891e-5},
 };
 
 static void operating_points_of_groover_examples(void **state)
@@ -399,10 +402,12 @@ static void operating_points_of_groover_examples(void **state)
 		mt.die = &die;
 		mt.length_m = g[4] / sin(A);
 		mt.c.vol_flow_m3_s = 0.0; /* closed discharge: p_max */
-		assert_int_equal(ow_melt_step(mt.ws, &mt.c, 0.0, &o, NULL), OW_OK);
+		assert_int_equal(ow_melt_step(mt.ws, &mt.c, 0.0, &o, NULL),
+		                 OW_OK);
 		assert_rel(o.dpdz_Pa_m * mt.length_m, g[9], 1e-3);
 		mt.c.vol_flow_m3_s = g[8]; /* open discharge: Q_max */
-		assert_int_equal(ow_melt_step(mt.ws, &mt.c, 0.0, &o, NULL), OW_OK);
+		assert_int_equal(ow_melt_step(mt.ws, &mt.c, 0.0, &o, NULL),
+		                 OW_OK);
 		assert_abs(o.dpdz_Pa_m * mt.length_m, 0.0, 1e-3 * g[9]);
 		q = operating_flow(&mt, g[8]);
 		assert_rel(q, g[11], 1e-3);
@@ -458,7 +463,7 @@ static void bad_dies_are_rejected_and_flow_sign_is_kept(void **state)
 	d.outer_diameter_m = 0.02;
 	d.inner_diameter_m = 0.03;
 	assert_int_equal(ow_die_pressure(&d, &m, 1e-3, T200, &dp, &diag),
-			 OW_EINPUT);
+	                 OW_EINPUT);
 	assert_non_null(strstr(diag.msg, "inner_diameter"));
 	d = circle(5e-3, 0.0);
 	assert_int_equal(ow_die_check(&d, NULL), OW_EINPUT);
@@ -469,18 +474,18 @@ static void bad_dies_are_rejected_and_flow_sign_is_kept(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(newtonian_formulas_match_check_values),
-		cmocka_unit_test(powerlaw_formulas_match_and_invert),
-		cmocka_unit_test(newtonian_die_pressure_is_exact),
-		cmocka_unit_test(die_wall_viscosity_matches_rao_ldpe_example),
-		cmocka_unit_test(die_wall_state_is_self_consistent),
-		cmocka_unit_test(
-			die_flow_is_close_to_exact_generalised_newtonian_tube),
-		cmocka_unit_test(measured_die_scales_with_the_rheology),
-		cmocka_unit_test(operating_point_of_newtonian_screw_and_rod_die),
-		cmocka_unit_test(operating_points_of_groover_examples),
-		cmocka_unit_test(groover_screw_characteristic_at_seven_megapascal),
-		cmocka_unit_test(bad_dies_are_rejected_and_flow_sign_is_kept),
+	    cmocka_unit_test(newtonian_formulas_match_check_values),
+	    cmocka_unit_test(powerlaw_formulas_match_and_invert),
+	    cmocka_unit_test(newtonian_die_pressure_is_exact),
+	    cmocka_unit_test(die_wall_viscosity_matches_rao_ldpe_example),
+	    cmocka_unit_test(die_wall_state_is_self_consistent),
+	    cmocka_unit_test(
+	        die_flow_is_close_to_exact_generalised_newtonian_tube),
+	    cmocka_unit_test(measured_die_scales_with_the_rheology),
+	    cmocka_unit_test(operating_point_of_newtonian_screw_and_rod_die),
+	    cmocka_unit_test(operating_points_of_groover_examples),
+	    cmocka_unit_test(groover_screw_characteristic_at_seven_megapascal),
+	    cmocka_unit_test(bad_dies_are_rejected_and_flow_sign_is_kept),
 	};
 
 	return cmocka_run_group_tests(tests, NULL, NULL);

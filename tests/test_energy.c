@@ -13,16 +13,16 @@
 #include "ow_sweep.h"
 
 static struct ow_point solve(const struct ow_study *s, double rpm,
-			     const double *set_K)
+                             const double *set_K)
 {
 	return ow_test_solve(s, rpm, set_K);
 }
 
 /* A screw too short to melt the bed (tests/data/unmelt-short.json) leaves
- * solids at the tip, with one flight or two; they leave at the feed temperature, so the energy
- * book counts G (1 - unmelt) (h_out - h_feed) and still closes within 1 %
- * (first law for the open system hopper -> tip, Tadmor & Gogos 2006
- * ch. 9). */
+ * solids at the tip, with one flight or two; they leave at the feed
+ * temperature, so the energy book counts G (1 - unmelt) (h_out - h_feed) and
+ * still closes within 1 % (first law for the open system hopper -> tip, Tadmor
+ * & Gogos 2006 ch. 9). */
 static void unmelt_at_the_tip_keeps_the_energy_balance(void **st)
 {
 	struct ow_study *s = ow_test_study("tests/data/unmelt-short.json");
@@ -85,7 +85,7 @@ static void plugged_point_names_its_unheated_melt(void **st)
  * book at every converged point; returns how many were checked, and in
  * *late how many start melting past x_m. */
 static int check_map(const struct ow_study *s, int rpm_steps, int axis_steps,
-		     double x_m, int *late)
+                     double x_m, int *late)
 {
 	struct ow_sweep_config c;
 	struct ow_grid *g = NULL;
@@ -139,17 +139,16 @@ static void energy_closes_with_cold_zones(void **st)
  * book. */
 static void energy_closes_at_every_point_of_every_fixture_map(void **st)
 {
-	const char *studies[] = {
-		"fixtures/studies/hdpe-abrupt.json",
-		"fixtures/studies/hdpe-barrier.json",
-		"fixtures/studies/hdpe-deep.json",
-		"fixtures/studies/hdpe-sf.json",
-		"fixtures/studies/hdpe-worn.json",
-		"fixtures/studies/ldpe-sf.json",
-		"fixtures/studies/melt-fed.json",
-		"fixtures/studies/pp-sheet.json",
-		"fixtures/studies/ps-rod.json",
-		"demo/study-si.json"};
+	const char *studies[] = {"fixtures/studies/hdpe-abrupt.json",
+	                         "fixtures/studies/hdpe-barrier.json",
+	                         "fixtures/studies/hdpe-deep.json",
+	                         "fixtures/studies/hdpe-sf.json",
+	                         "fixtures/studies/hdpe-worn.json",
+	                         "fixtures/studies/ldpe-sf.json",
+	                         "fixtures/studies/melt-fed.json",
+	                         "fixtures/studies/pp-sheet.json",
+	                         "fixtures/studies/ps-rod.json",
+	                         "demo/study-si.json"};
 	size_t i;
 	int checked = 0, late;
 	(void)st;
@@ -166,11 +165,11 @@ static void energy_closes_at_every_point_of_every_fixture_map(void **st)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(unmelt_at_the_tip_keeps_the_energy_balance),
-		cmocka_unit_test(plugged_point_names_its_unheated_melt),
-		cmocka_unit_test(energy_closes_with_cold_zones),
-		cmocka_unit_test(energy_closes_at_every_point_of_every_fixture_map),
+	    cmocka_unit_test(unmelt_at_the_tip_keeps_the_energy_balance),
+	    cmocka_unit_test(plugged_point_names_its_unheated_melt),
+	    cmocka_unit_test(energy_closes_with_cold_zones),
+	    cmocka_unit_test(energy_closes_at_every_point_of_every_fixture_map),
 	};
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
-				      ow_test_units_teardown);
+	                              ow_test_units_teardown);
 }

@@ -52,14 +52,14 @@ static int teardown(void **state)
 }
 
 static char *path_in(const struct fixture *f, const char *name, char *buf,
-		     size_t len)
+                     size_t len)
 {
 	snprintf(buf, len, "%s/%s", f->dir, name);
 	return buf;
 }
 
 static struct ow_viscosity cy_model(double eta0, double lambda, double n,
-				   double a, double tref_C, double E)
+                                    double a, double tref_C, double E)
 {
 	struct ow_viscosity v;
 
@@ -79,29 +79,28 @@ static struct ow_viscosity cy_model(double eta0, double lambda, double n,
  * to hi, each viscosity times (1 + noise g), g standard normal from a fixed
  * seed: "2 % multiplicative noise" is noise = 0.02. */
 static struct ow_fit_data *generate(const struct ow_viscosity *v,
-				    const double *temps_C, int nt, double lo,
-				    double hi, int nr, double noise,
-				    unsigned long seed)
+                                    const double *temps_C, int nt, double lo,
+                                    double hi, int nr, double noise,
+                                    unsigned long seed)
 {
 	struct ow_fit_data *data = NULL;
 	gsl_rng *r = gsl_rng_alloc(gsl_rng_mt19937);
 	int t, k;
 
 	gsl_rng_set(r, seed);
-	assert_int_equal(ow_fit_data_create((size_t)(nt * nr), "generated",
-					    &data, NULL),
-			 OW_OK);
+	assert_int_equal(
+	    ow_fit_data_create((size_t)(nt * nr), "generated", &data, NULL),
+	    OW_OK);
 	for (t = 0; t < nt; t++)
 		for (k = 0; k < nr; k++) {
 			struct ow_fit_point *p = &data->points[t * nr + k];
 
 			p->temp_K = C_TO_K(temps_C[t]);
 			p->shear_rate_1_s =
-				lo * pow(hi / lo, k / (double)(nr - 1));
+			    lo * pow(hi / lo, k / (double)(nr - 1));
 			p->viscosity_Pa_s =
-				ow_viscosity_eval(v, p->shear_rate_1_s,
-						  p->temp_K) *
-				(1.0 + noise * gsl_ran_gaussian(r, 1.0));
+			    ow_viscosity_eval(v, p->shear_rate_1_s, p->temp_K) *
+			    (1.0 + noise * gsl_ran_gaussian(r, 1.0));
 		}
 	gsl_rng_free(r);
 	return data;
@@ -109,8 +108,8 @@ static struct ow_fit_data *generate(const struct ow_viscosity *v,
 
 /* Fit one model; the run must succeed. */
 static const struct ow_fit_result *fit(const struct ow_fit_data *data,
-				       int model, enum ow_shift_type shift,
-				       struct ow_fit_report *rep)
+                                       int model, enum ow_shift_type shift,
+                                       struct ow_fit_report *rep)
 {
 	struct ow_fit_options o = ow_fit_options_default();
 	struct ow_diag d = {{0}};
@@ -182,8 +181,8 @@ static void fit_residual_summary_per_temperature(void **state)
 			if (fabs(p->temp_K - ft->temp_K) > 0.01)
 				continue;
 			e = log10(ow_viscosity_eval(&r->visc, p->shear_rate_1_s,
-						    p->temp_K) /
-				  p->viscosity_Pa_s);
+			                            p->temp_K) /
+			          p->viscosity_Pa_s);
 			sum += e;
 			sq += e * e;
 			mx = fmax(mx, fabs(e));
@@ -273,7 +272,7 @@ static void fit_recovers_wlf_shift_factors(void **state)
 	assert_abs(r->visc.index, 0.3, 0.05);
 	for (k = 0; k < 4; k++)
 		assert_rel(ow_viscosity_shift(&r->visc, C_TO_K(T[k])),
-			   ow_viscosity_shift(&v, C_TO_K(T[k])), 0.05);
+		           ow_viscosity_shift(&v, C_TO_K(T[k])), 0.05);
 	ow_fit_data_destroy(data);
 }
 
@@ -394,13 +393,13 @@ static void fit_flags_a_poorly_determined_parameter(void **state)
 	(void)state;
 	r = fit(high, OW_VISC_CARREAU_YASUDA, OW_SHIFT_ARRHENIUS, &rep);
 	assert_true(r->params[0].rel_error > 0.5);
-	assert_true(has_warning((char (*)[OW_FIT_WARN_LEN])r->warnings,
-				r->n_warnings,
-				"zero_shear is poorly determined"));
+	assert_true(has_warning((char(*)[OW_FIT_WARN_LEN])r->warnings,
+	                        r->n_warnings,
+	                        "zero_shear is poorly determined"));
 	r = fit(all, OW_VISC_CARREAU_YASUDA, OW_SHIFT_ARRHENIUS, &rep);
 	assert_true(r->params[0].rel_error < 0.1);
-	assert_false(has_warning((char (*)[OW_FIT_WARN_LEN])r->warnings,
-				 r->n_warnings, "zero_shear is poorly"));
+	assert_false(has_warning((char(*)[OW_FIT_WARN_LEN])r->warnings,
+	                         r->n_warnings, "zero_shear is poorly"));
 	ow_fit_data_destroy(high);
 	ow_fit_data_destroy(all);
 }
@@ -412,21 +411,21 @@ static void data_header_units_convert_to_si(void **state)
 {
 	struct fixture *f = *state;
 	static const char text[] =
-		"\"shear_rate_rad/s\",viscosity_kPa s,temperature_degF\r\n"
-		"10,1.5,392\r\n"
-		"\r\n"
-		"100, 0.5 ,392\r\n";
+	    "\"shear_rate_rad/s\",viscosity_kPa s,temperature_degF\r\n"
+	    "10,1.5,392\r\n"
+	    "\r\n"
+	    "100, 0.5 ,392\r\n";
 	static const char plain[] = "temperature_K,shear_rate_1/s,"
-				    "viscosity_Pa.s\n450,10,1200\n";
+	                            "viscosity_Pa.s\n450,10,1200\n";
 	static const char osc[] = "temperature_degC,angular_frequency_rad/s,"
-				  "complex_viscosity_Pa s,storage_modulus_Pa\n"
-				  "190,1,5000,1200\n";
+	                          "complex_viscosity_Pa s,storage_modulus_Pa\n"
+	                          "190,1,5000,1200\n";
 	struct ow_fit_data *d = NULL;
 	struct ow_diag dg = {{0}};
 
-	assert_int_equal(ow_fit_data_parse(f->u, text, strlen(text), "t.csv",
-					   &d, &dg),
-			 OW_OK);
+	assert_int_equal(
+	    ow_fit_data_parse(f->u, text, strlen(text), "t.csv", &d, &dg),
+	    OW_OK);
 	assert_int_equal(d->n, 2);
 	assert_true(d->cox_merz);
 	assert_rel(d->points[0].temp_K, 473.15, 1e-9);
@@ -434,16 +433,15 @@ static void data_header_units_convert_to_si(void **state)
 	assert_rel(d->points[1].viscosity_Pa_s, 500, 1e-12);
 	assert_int_equal(d->points[1].line, 4);
 	ow_fit_data_destroy(d);
-	assert_int_equal(ow_fit_data_parse(f->u, plain, strlen(plain),
-					   "p.csv", &d, &dg),
-			 OW_OK);
+	assert_int_equal(
+	    ow_fit_data_parse(f->u, plain, strlen(plain), "p.csv", &d, &dg),
+	    OW_OK);
 	assert_false(d->cox_merz);
 	assert_rel(d->points[0].viscosity_Pa_s, 1200, 1e-12);
 	ow_fit_data_destroy(d);
 	/* oscillatory names; an extra column is ignored */
-	assert_int_equal(ow_fit_data_parse(f->u, osc, strlen(osc), "o.csv",
-					   &d, &dg),
-			 OW_OK);
+	assert_int_equal(
+	    ow_fit_data_parse(f->u, osc, strlen(osc), "o.csv", &d, &dg), OW_OK);
 	assert_true(d->cox_merz);
 	assert_rel(d->points[0].viscosity_Pa_s, 5000, 1e-12);
 	assert_rel(d->points[0].shear_rate_1_s, 1, 1e-12);
@@ -453,7 +451,7 @@ static void data_header_units_convert_to_si(void **state)
 /* A malformed table is OW_EINPUT with the file, the line and each given
  * fragment in the message. */
 static void expect_rejected(const struct fixture *f, const char *text,
-			    const char *frag1, const char *frag2)
+                            const char *frag1, const char *frag2)
 {
 	struct ow_fit_data *d = NULL;
 	struct ow_diag dg = {{0}};
@@ -471,7 +469,7 @@ static void expect_rejected(const struct fixture *f, const char *text,
 	if (st != OW_EINPUT || !strstr(dg.msg, "lab.csv: line") ||
 	    !strstr(dg.msg, frag1) || (frag2 && !strstr(dg.msg, frag2)))
 		fail_msg("status %d, message \"%s\", wanted \"%s\"", (int)st,
-			 dg.msg, frag1);
+		         dg.msg, frag1);
 }
 
 #define HEAD "temperature_degC,shear_rate_1/s,viscosity_Pa s\n"
@@ -481,26 +479,33 @@ static void malformed_data_is_rejected_with_file_and_line(void **state)
 	struct fixture *f = *state;
 
 	expect_rejected(f, "temperature_degC,shear_rate_1/s\n190,10\n",
-			"line 1", "no viscosity column");
+	                "line 1", "no viscosity column");
 	expect_rejected(f, HEAD "190,10,1000\n190,100,-5\n", "line 3",
-			"must be positive");
+	                "must be positive");
 	expect_rejected(f, HEAD "190,0,1000\n", "line 2, column 2", "positive");
-	expect_rejected(f, "temperature_degC,shear_rate_1/s,viscosity_furlongs"
-			   "\n190,10,1000\n", "line 1, column 3", "furlongs");
-	expect_rejected(f, "temperature,shear_rate_1/s,viscosity_Pa s\n"
-			   "190,10,1000\n", "line 1, column 1", "unit");
+	expect_rejected(f,
+	                "temperature_degC,shear_rate_1/s,viscosity_furlongs"
+	                "\n190,10,1000\n",
+	                "line 1, column 3", "furlongs");
+	expect_rejected(f,
+	                "temperature,shear_rate_1/s,viscosity_Pa s\n"
+	                "190,10,1000\n",
+	                "line 1, column 1", "unit");
 	expect_rejected(f, HEAD "190,10,1000\n190,ten,900\n",
-			"line 3, column 2", "not a finite number");
+	                "line 3, column 2", "not a finite number");
 	expect_rejected(f, HEAD "190,10,1000\n190,100\n", "line 3", "cells");
 	expect_rejected(f, HEAD "190,10,1000\n", "line", NULL);
 	/* one temperature, a shift asked for */
-	expect_rejected(f, HEAD "190,1,3000\n190,10,2000\n190,100,700\n"
-			   "190,1000,150\n190,3000,70\n190,5,2500\n"
-			   "190,50,1000\n190,500,250\n",
-			"lines 2..9", "at least 2");
+	expect_rejected(f,
+	                HEAD "190,1,3000\n190,10,2000\n190,100,700\n"
+	                     "190,1000,150\n190,3000,70\n190,5,2500\n"
+	                     "190,50,1000\n190,500,250\n",
+	                "lines 2..9", "at least 2");
 	/* too few points for five parameters */
-	expect_rejected(f, HEAD "170,10,2000\n190,10,1500\n210,100,500\n"
-			   "190,1000,100\n", "lines 2..5", "too few");
+	expect_rejected(f,
+	                HEAD "170,10,2000\n190,10,1500\n210,100,500\n"
+	                     "190,1000,100\n",
+	                "lines 2..5", "too few");
 	expect_rejected(f, HEAD "-300,10,1000\n", "line 2", "outside");
 	expect_rejected(f, HEAD, "line 1", "no data rows");
 }
@@ -509,23 +514,23 @@ static void malformed_data_is_rejected_with_file_and_line(void **state)
  * values are the resin format's example (typical HDPE, from memory); only
  * their loading matters here. */
 static const char base_resin[] =
-	"{\n"
-	"  \"name\": \"resin for the fit test\",\n"
-	"  \"notes\": \"kept by the merge\",\n"
-	"  \"solid_density\": \"950 kg/m3\", \"bulk_density\": \"560 kg/m3\",\n"
-	"  \"melt_density\": \"760 kg/m3\",\n"
-	"  \"solid_heat_capacity\": \"2.3 kJ/(kg K)\",\n"
-	"  \"melt_heat_capacity\": \"2.6 kJ/(kg K)\",\n"
-	"  \"solid_conductivity\": \"0.35 W/(m K)\",\n"
-	"  \"melt_conductivity\": \"0.25 W/(m K)\",\n"
-	"  \"melting_point\": \"130 degC\", \"heat_of_fusion\": \"200 kJ/kg\",\n"
-	"  \"friction_barrel\": 0.45, \"friction_screw\": 0.25,\n"
-	"  \"viscosity\": { \"model\": \"power-law\",\n"
-	"    \"consistency\": \"20000 Pa s^0.41\", \"index\": 0.41,\n"
-	"    \"reference_temperature\": \"180 degC\",\n"
-	"    \"shift\": { \"type\": \"arrhenius\",\n"
-	"                 \"activation_energy\": \"28 kJ/mol\" } }\n"
-	"}\n";
+    "{\n"
+    "  \"name\": \"resin for the fit test\",\n"
+    "  \"notes\": \"kept by the merge\",\n"
+    "  \"solid_density\": \"950 kg/m3\", \"bulk_density\": \"560 kg/m3\",\n"
+    "  \"melt_density\": \"760 kg/m3\",\n"
+    "  \"solid_heat_capacity\": \"2.3 kJ/(kg K)\",\n"
+    "  \"melt_heat_capacity\": \"2.6 kJ/(kg K)\",\n"
+    "  \"solid_conductivity\": \"0.35 W/(m K)\",\n"
+    "  \"melt_conductivity\": \"0.25 W/(m K)\",\n"
+    "  \"melting_point\": \"130 degC\", \"heat_of_fusion\": \"200 kJ/kg\",\n"
+    "  \"friction_barrel\": 0.45, \"friction_screw\": 0.25,\n"
+    "  \"viscosity\": { \"model\": \"power-law\",\n"
+    "    \"consistency\": \"20000 Pa s^0.41\", \"index\": 0.41,\n"
+    "    \"reference_temperature\": \"180 degC\",\n"
+    "    \"shift\": { \"type\": \"arrhenius\",\n"
+    "                 \"activation_energy\": \"28 kJ/mol\" } }\n"
+    "}\n";
 
 static void write_text(const char *path, const char *text)
 {
@@ -540,9 +545,10 @@ static void write_text(const char *path, const char *text)
  * viscosity at any rate and temperature (values are written to 6
  * significant digits: 1e-4 relative covers the rounding). */
 static void merge_and_reload(const struct fixture *f,
-			     const struct ow_viscosity *v)
+                             const struct ow_viscosity *v)
 {
-	static const double rates[] = {0.1, 10, 1000}, temps[] = {160, 200, 240};
+	static const double rates[] = {0.1, 10, 1000},
+	                    temps[] = {160, 200, 240};
 	char path[128];
 	struct ow_material m;
 	struct ow_diag d = {{0}};
@@ -558,11 +564,11 @@ static void merge_and_reload(const struct fixture *f,
 	assert_int_equal(m.visc.model, v->model);
 	for (i = 0; i < 3; i++)
 		for (k = 0; k < 3; k++)
-			assert_rel(ow_viscosity_eval(&m.visc, rates[i],
-						     C_TO_K(temps[k])),
-				   ow_viscosity_eval(v, rates[i],
-						     C_TO_K(temps[k])),
-				   1e-4);
+			assert_rel(
+			    ow_viscosity_eval(&m.visc, rates[i],
+			                      C_TO_K(temps[k])),
+			    ow_viscosity_eval(v, rates[i], C_TO_K(temps[k])),
+			    1e-4);
 	assert_int_equal(remove(path), 0);
 }
 
@@ -574,12 +580,12 @@ static void fitted_block_loads_back_as_the_same_viscosity(void **state)
 	static struct ow_fit_report rep;
 	struct ow_fit_data *data = generate(&v, T, 3, 0.1, 3000, 12, 0.02, 10);
 	static const int models[] = {OW_VISC_CARREAU_YASUDA, OW_VISC_CROSS,
-				     OW_VISC_POWER_LAW};
+	                             OW_VISC_POWER_LAW};
 	int i;
 
 	for (i = 0; i < 3; i++) {
-		fit(data, models[i],
-		    i == 1 ? OW_SHIFT_WLF : OW_SHIFT_ARRHENIUS, &rep);
+		fit(data, models[i], i == 1 ? OW_SHIFT_WLF : OW_SHIFT_ARRHENIUS,
+		    &rep);
 		merge_and_reload(f, &rep.fits[0].visc);
 	}
 	ow_fit_data_destroy(data);
@@ -627,9 +633,8 @@ static void plot_writes_a_png(void **state)
 	free(png);
 	assert_int_equal(remove(path), 0);
 	path_in(f, "missing/fit.png", path, sizeof path);
-	assert_int_equal(ow_fit_plot_png(data, &rep.fits[0], OW_SYS_SI, path,
-					 NULL),
-			 OW_EIO);
+	assert_int_equal(
+	    ow_fit_plot_png(data, &rep.fits[0], OW_SYS_SI, path, NULL), OW_EIO);
 	ow_fit_data_destroy(data);
 }
 
@@ -688,12 +693,13 @@ static void cli_fitted_resin_passes_opwin_check(void **state)
 {
 	struct fixture *f = *state;
 	char resin[128], study[128], png[128], screw[4096], *text;
-	const char *fit_args[] = {"fit", "demo/lab/hdpe-pipe-lab.csv",
-				  "--into", resin, "--plot", png,
-				  "--quiet", NULL};
+	const char *fit_args[] = {"fit",     "demo/lab/hdpe-pipe-lab.csv",
+	                          "--into",  resin,
+	                          "--plot",  png,
+	                          "--quiet", NULL};
 	const char *check_args[] = {"check", study, NULL};
-	const char *point_args[] = {"point", study, "--rpm", "60", "--json",
-				    NULL};
+	const char *point_args[] = {"point", study,    "--rpm",
+	                            "60",    "--json", NULL};
 
 	if (!getenv("OPWIN"))
 		skip();
@@ -728,9 +734,9 @@ static void cli_fit_exit_codes(void **state)
 	const char *rejected[] = {"fit", bad, NULL};
 	const char *no_data[] = {"fit", NULL};
 	const char *bad_model[] = {"fit", "demo/lab/hdpe-pipe-lab.csv",
-				   "--model", "spline", NULL};
+	                           "--model", "spline", NULL};
 	const char *unwritable[] = {"fit", "demo/lab/hdpe-pipe-lab.csv", "-o",
-				    out, NULL};
+	                            out, NULL};
 
 	if (!getenv("OPWIN"))
 		skip();
@@ -747,26 +753,23 @@ static void cli_fit_exit_codes(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(
-			fit_recovers_carreau_yasuda_with_arrhenius_shift),
-		cmocka_unit_test(fit_residual_summary_per_temperature),
-		cmocka_unit_test(fit_recovers_cross_with_arrhenius_shift),
-		cmocka_unit_test(fit_recovers_power_law_with_arrhenius_shift),
-		cmocka_unit_test(fit_recovers_wlf_shift_factors),
-		cmocka_unit_test(fit_recovers_rao_schumacher_ldpe_carreau),
-		cmocka_unit_test(
-			fit_recommends_fewest_parameters_when_fits_tie),
-		cmocka_unit_test(
-			fit_recommends_a_plateau_model_for_plateau_data),
-		cmocka_unit_test(fit_warns_when_data_miss_channel_shear_rates),
-		cmocka_unit_test(fit_flags_a_poorly_determined_parameter),
-		cmocka_unit_test(data_header_units_convert_to_si),
-		cmocka_unit_test(malformed_data_is_rejected_with_file_and_line),
-		cmocka_unit_test(fitted_block_loads_back_as_the_same_viscosity),
-		cmocka_unit_test(writing_fails_cleanly),
-		cmocka_unit_test(plot_writes_a_png),
-		cmocka_unit_test(cli_fitted_resin_passes_opwin_check),
-		cmocka_unit_test(cli_fit_exit_codes),
+	    cmocka_unit_test(fit_recovers_carreau_yasuda_with_arrhenius_shift),
+	    cmocka_unit_test(fit_residual_summary_per_temperature),
+	    cmocka_unit_test(fit_recovers_cross_with_arrhenius_shift),
+	    cmocka_unit_test(fit_recovers_power_law_with_arrhenius_shift),
+	    cmocka_unit_test(fit_recovers_wlf_shift_factors),
+	    cmocka_unit_test(fit_recovers_rao_schumacher_ldpe_carreau),
+	    cmocka_unit_test(fit_recommends_fewest_parameters_when_fits_tie),
+	    cmocka_unit_test(fit_recommends_a_plateau_model_for_plateau_data),
+	    cmocka_unit_test(fit_warns_when_data_miss_channel_shear_rates),
+	    cmocka_unit_test(fit_flags_a_poorly_determined_parameter),
+	    cmocka_unit_test(data_header_units_convert_to_si),
+	    cmocka_unit_test(malformed_data_is_rejected_with_file_and_line),
+	    cmocka_unit_test(fitted_block_loads_back_as_the_same_viscosity),
+	    cmocka_unit_test(writing_fails_cleanly),
+	    cmocka_unit_test(plot_writes_a_png),
+	    cmocka_unit_test(cli_fitted_resin_passes_opwin_check),
+	    cmocka_unit_test(cli_fit_exit_codes),
 	};
 
 	return cmocka_run_group_tests(tests, setup, teardown);

@@ -88,35 +88,35 @@ static void crc32_gives_the_published_check_value(void **state)
 	assert_int_equal(ow_io_crc32(0, "123456789", 9), 0xCBF43926UL);
 	/* continued over two pieces: the same sum */
 	assert_int_equal(ow_io_crc32(ow_io_crc32(0, "1234", 4), "56789", 5),
-			 0xCBF43926UL);
+	                 0xCBF43926UL);
 }
 
 static void utf8_follows_rfc_3629(void **state)
 {
 	/* valid: the examples of RFC 3629, section 7 */
 	static const char *const good[] = {
-	    "\x41\xE2\x89\xA2\xCE\x91\x2E",             /* A<NOT IDENTICAL TO><ALPHA>. */
-	    "\xED\x95\x9C\xEA\xB5\xAD\xEC\x96\xB4",     /* Korean "hangugeo" */
-	    "\xE6\x97\xA5\xE6\x9C\xAC\xE8\xAA\x9E",     /* Japanese "nihongo" */
-	    "\xEF\xBB\xBF\xF0\xA3\x8E\xB4",             /* BOM, U+233B4 */
-	    "\xF4\x8F\xBF\xBF"};                        /* U+10FFFF, the last */
+	    "\x41\xE2\x89\xA2\xCE\x91\x2E", /* A<NOT IDENTICAL TO><ALPHA>. */
+	    "\xED\x95\x9C\xEA\xB5\xAD\xEC\x96\xB4", /* Korean "hangugeo" */
+	    "\xE6\x97\xA5\xE6\x9C\xAC\xE8\xAA\x9E", /* Japanese "nihongo" */
+	    "\xEF\xBB\xBF\xF0\xA3\x8E\xB4",         /* BOM, U+233B4 */
+	    "\xF4\x8F\xBF\xBF"};                    /* U+10FFFF, the last */
 	/* ill-formed per RFC 3629 sections 3 and 10: an overlong "/", a
 	 * surrogate, beyond U+10FFFF, a lone continuation byte, a cut
 	 * sequence, bytes never used (C0, F5..FF) */
-	static const char *const bad[] = {"\xC0\xAF", "a\xED\xA0\x80",
-					  "ab\xF4\x90\x80\x80", "abc\x80",
-					  "\xE2\x89", "\xF5\x80\x80\x80",
-					  "\xFF"};
+	static const char *const bad[] = {
+	    "\xC0\xAF", "a\xED\xA0\x80", "ab\xF4\x90\x80\x80",
+	    "abc\x80",  "\xE2\x89",      "\xF5\x80\x80\x80",
+	    "\xFF"};
 	static const size_t at[] = {0, 1, 2, 3, 0, 0, 0};
 	size_t i;
 
 	(void)state;
 	for (i = 0; i < sizeof good / sizeof good[0]; i++)
 		assert_int_equal(ow_io_utf8_check(good[i], strlen(good[i])),
-				 strlen(good[i]));
+		                 strlen(good[i]));
 	for (i = 0; i < sizeof bad / sizeof bad[0]; i++)
 		assert_int_equal(ow_io_utf8_check(bad[i], strlen(bad[i])),
-				 at[i]);
+		                 at[i]);
 }
 
 /* Seventeen significant decimal digits are enough for any binary64 value
@@ -124,18 +124,19 @@ static void utf8_follows_rfc_3629(void **state)
  * or infinity (RFC 8259, section 6), so those print as null there. */
 static void numbers_print_so_that_they_read_back_exactly(void **state)
 {
-	static const double x[] = {0.1, 1.0 / 3.0, -2.5e-300, 4.9e-324,
-				   1.7976931348623157e308, 473.15, 6e-5};
+	static const double x[] = {
+	    0.1,    1.0 / 3.0, -2.5e-300, 4.9e-324, 1.7976931348623157e308,
+	    473.15, 6e-5};
 	char buf[40];
 	size_t i;
 
 	(void)state;
 	for (i = 0; i < sizeof x / sizeof x[0]; i++)
 		assert_true(strtod(ow_fmt_double(buf, sizeof buf, x[i], 1),
-				   NULL) == x[i]);
+		                   NULL) == x[i]);
 	assert_string_equal(ow_fmt_double(buf, sizeof buf, NAN, 1), "null");
 	assert_string_equal(ow_fmt_double(buf, sizeof buf, -INFINITY, 1),
-			    "null");
+	                    "null");
 	assert_string_equal(ow_fmt_double(buf, sizeof buf, NAN, 0), "");
 }
 
@@ -178,7 +179,7 @@ static void reader_refuses_folders_fifos_and_large_files(void **state)
 	assert_int_equal(ow_io_slurp(f->path, 100, &text, NULL), EINVAL);
 	assert_int_equal(ow_io_slurp(in(f, "a.txt"), 4, &text, NULL), EFBIG);
 	assert_int_equal(ow_io_read_file(in(f, "none"), 4, &text, NULL, &d),
-			 OW_EINPUT);
+	                 OW_EINPUT);
 	/* the system's reason, as strerror gives it */
 	assert_non_null(strstr(d.msg, "none: cannot be read"));
 	assert_non_null(strstr(d.msg, strerror(ENOENT)));
@@ -241,7 +242,7 @@ static void writer_into_a_missing_folder_fails_cleanly(void **state)
 	struct ow_diag d = {{0}};
 
 	assert_int_equal(ow_io_write_file(in(f, "no/such/x"), "x", 1, &d),
-			 OW_EIO);
+	                 OW_EIO);
 	assert_non_null(strstr(d.msg, "no/such/x"));
 	assert_int_equal(dotfiles(f->dir), 0);
 }
@@ -271,8 +272,8 @@ static void holds_in(const char *dir, const char *name, const char *want)
 
 /* A new folder with a.csv holding text, put in place of dir; *old says
  * whether a previous folder was there (then now at tmp). */
-static void new_folder(const char *dir, char *tmp, size_t n,
-		       const char *text, int *old)
+static void new_folder(const char *dir, char *tmp, size_t n, const char *text,
+                       int *old)
 {
 	assert_int_equal(ow_io_dir_begin(dir, tmp, n, NULL), OW_OK);
 	put_in(tmp, "a.csv", text);
@@ -338,20 +339,20 @@ int main(void)
 	    cmocka_unit_test(numbers_print_so_that_they_read_back_exactly),
 	    cmocka_unit_test(buffer_grows_and_hands_over_a_string),
 	    cmocka_unit_test_setup_teardown(
-		reader_refuses_folders_fifos_and_large_files, setup, teardown),
+	        reader_refuses_folders_fifos_and_large_files, setup, teardown),
 	    cmocka_unit_test_setup_teardown(
-		writer_replaces_a_file_keeping_its_mode, setup, teardown),
+	        writer_replaces_a_file_keeping_its_mode, setup, teardown),
 	    cmocka_unit_test_setup_teardown(
-		writer_never_follows_or_replaces_a_link, setup, teardown),
+	        writer_never_follows_or_replaces_a_link, setup, teardown),
 	    cmocka_unit_test_setup_teardown(
-		writer_writes_devices_in_place_and_refuses_idle_fifos, setup,
-		teardown),
+	        writer_writes_devices_in_place_and_refuses_idle_fifos, setup,
+	        teardown),
 	    cmocka_unit_test_setup_teardown(
-		writer_into_a_missing_folder_fails_cleanly, setup, teardown),
+	        writer_into_a_missing_folder_fails_cleanly, setup, teardown),
 	    cmocka_unit_test_setup_teardown(a_folder_is_put_in_place_whole,
-					    setup, teardown),
+	                                    setup, teardown),
 	    cmocka_unit_test_setup_teardown(
-		a_folder_check_names_what_is_in_the_way, setup, teardown),
+	        a_folder_check_names_what_is_in_the_way, setup, teardown),
 	};
 
 	return cmocka_run_group_tests(tests, NULL, NULL);

@@ -300,7 +300,8 @@ static void mapdir_load_refuses_a_missing_or_foreign_folder(void **state)
 	char dir[] = "/tmp/test_mapdir_empty.XXXXXX";
 
 	expect_refusal(f, "/tmp/no/such/map/folder", "no such folder");
-	expect_refusal(f, "demo", "not a map folder: points-si.json is missing");
+	expect_refusal(f, "demo",
+	               "not a map folder: points-si.json is missing");
 	assert_non_null(mkdtemp(dir));
 	expect_refusal(f, dir, "not a map folder");
 	rm_dir(dir);

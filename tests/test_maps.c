@@ -119,8 +119,9 @@ static double seconds(void)
 static void maps_write_every_image_at_900_by_650(void **state)
 {
 	static const char *const stems[] = {
-	    "window",     "map-peak-temp", "map-unmelted-solids", "map-pressure",
-	    "map-output", "map-specific-energy", "profile"};
+	    "window",       "map-peak-temp", "map-unmelted-solids",
+	    "map-pressure", "map-output",    "map-specific-energy",
+	    "profile"};
 	struct fix *f = *state;
 	struct ow_maps_options o;
 	struct ow_diag d = {{0}};
@@ -130,11 +131,9 @@ static void maps_write_every_image_at_900_by_650(void **state)
 	ow_maps_default(&o);
 	assert_false(f->w->empty);
 	t0 = seconds();
-	assert_int_equal(ow_maps_write_all(&f->m, &o, f->dir, &d),
-	                 OW_OK);
+	assert_int_equal(ow_maps_write_all(&f->m, &o, f->dir, &d), OW_OK);
 	t1 = seconds();
-	print_message("maps: 7 PNG + 7 SVG in %.3f s\n",
-	              t1 - t0);
+	print_message("maps: 7 PNG + 7 SVG in %.3f s\n", t1 - t0);
 	for (k = 0; k < sizeof stems / sizeof stems[0]; k++) {
 		char name[64];
 		size_t n = 0;
@@ -168,10 +167,8 @@ static void maps_same_inputs_give_byte_identical_pngs(void **state)
 	o.svg = 0;
 	snprintf(dir2, sizeof dir2, "%s/again", f->dir);
 	assert_int_equal(mkdir(dir2, 0755), 0);
-	assert_int_equal(ow_maps_write_all(&f->m, &o, f->dir, NULL),
-	                 OW_OK);
-	assert_int_equal(ow_maps_write_all(&f->m, &o, dir2, NULL),
-	                 OW_OK);
+	assert_int_equal(ow_maps_write_all(&f->m, &o, f->dir, NULL), OW_OK);
+	assert_int_equal(ow_maps_write_all(&f->m, &o, dir2, NULL), OW_OK);
 	for (k = 0; k < 3; k++) {
 		size_t na = 0, nb = 0;
 		unsigned char *a = file_in(f->dir, names[k], &na);
@@ -201,8 +198,7 @@ static char *draw_svg(struct fix *f, struct ow_window *w,
 	assert_int_equal(
 	    ow_canvas_create_image(OW_CANVAS_SVG, box.w, box.h, 1.0, &cv, NULL),
 	    OW_OK);
-	assert_int_equal(ow_maps_draw_window(cv, &box, &m, o, &d),
-	                 OW_OK);
+	assert_int_equal(ow_maps_draw_window(cv, &box, &m, o, &d), OW_OK);
 	assert_int_equal(ow_canvas_encode(cv, &b, &n, NULL), OW_OK);
 	ow_canvas_destroy(cv);
 	s = realloc(b, n + 1);
@@ -298,9 +294,8 @@ static void maps_unsafe_region_is_hatched_and_safe_region_clear(void **state)
 	assert_int_equal(
 	    ow_canvas_create_image(OW_CANVAS_SVG, box.w, box.h, 1.0, &cv, NULL),
 	    OW_OK);
-	assert_int_equal(
-	    ow_maps_window_frame(cv, &box, &f->m, &o, &p, NULL),
-	    OW_OK);
+	assert_int_equal(ow_maps_window_frame(cv, &box, &f->m, &o, &p, NULL),
+	                 OW_OK);
 	ow_canvas_destroy(cv);
 	s = png_file(f->dir, "window.png");
 	X = sc * (p.area.x + p.area.w) - 30.0;
@@ -386,8 +381,8 @@ static void maps_profile_shows_the_screw_sections(void **state)
 	int m = 0;
 	char *svg;
 
-	assert_int_equal(
-	    ow_map_centre(&f->s, f->w, &rows, &m, NULL, NULL), OW_OK);
+	assert_int_equal(ow_map_centre(&f->s, f->w, &rows, &m, NULL, NULL),
+	                 OW_OK);
 	assert_true(m > 20);
 	assert_abs(rows[m - 1].axial_m / f->s.screw.diameter_m, 30.0, 0.5);
 	assert_int_equal(
@@ -421,7 +416,8 @@ static void maps_figure_maps_carry_colour_bar_titles_with_units(void **state)
 	static const char *const want[OW_MAP_COUNT] = {
 	    ">peak melt temperature (°C)</text>",
 	    ">unmelted fraction at discharge (%)</text>",
-	    ">highest pressure (MPa)</text>", ">throughput (kg/h)</text>",
+	    ">highest pressure (MPa)</text>",
+	    ">throughput (kg/h)</text>",
 	    ">specific energy (kWh/kg)</text>",
 	    ">highest zone load (% of its heating or cooling power)</text>"};
 	struct fix *f = *state;

@@ -103,7 +103,7 @@ static void power_law_shifts_as_at_to_the_n(void **state)
 	v.consistency_Pa_sn = 2e4;
 	aT = ow_viscosity_shift(&v, 503.15);
 	assert_rel(ow_viscosity_eval(&v, 100.0, 503.15),
-		   2e4 * pow(aT, 0.41) * pow(100.0, 0.41 - 1.0), 1e-12);
+	           2e4 * pow(aT, 0.41) * pow(100.0, 0.41 - 1.0), 1e-12);
 	/* 2e4 Pa s^n, n = 0.41 at 100 1/s: 1320 Pa s (indicative HDPE set,
 	 * from memory; value recomputed) */
 	assert_abs(ow_viscosity_ref(&v, 100.0), 1320, 5.0); /* table rounds */
@@ -133,19 +133,19 @@ static void material_rejects_implausible_values(void **state)
 	assert_int_equal(ow_material_validate(&m, NULL), OW_OK);
 	/* enthalpy: solid cp to Tm, latent heat, melt cp above */
 	assert_rel(ow_material_enthalpy(&m, 473.15, 298.15),
-		   2300 * 105 + 2e5 + 2600 * 70, 1e-12);
+	           2300 * 105 + 2e5 + 2600 * 70, 1e-12);
 }
 
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(carreau_yasuda_matches_closed_form),
-		cmocka_unit_test(arrhenius_shift_of_forty_kj),
-		cmocka_unit_test(wlf_universal_constants),
-		cmocka_unit_test(rao_ldpe_carreau_example),
-		cmocka_unit_test(cross_model_value),
-		cmocka_unit_test(power_law_shifts_as_at_to_the_n),
-		cmocka_unit_test(material_rejects_implausible_values),
+	    cmocka_unit_test(carreau_yasuda_matches_closed_form),
+	    cmocka_unit_test(arrhenius_shift_of_forty_kj),
+	    cmocka_unit_test(wlf_universal_constants),
+	    cmocka_unit_test(rao_ldpe_carreau_example),
+	    cmocka_unit_test(cross_model_value),
+	    cmocka_unit_test(power_law_shifts_as_at_to_the_n),
+	    cmocka_unit_test(material_rejects_implausible_values),
 	};
 	return cmocka_run_group_tests(tests, NULL, NULL);
 }

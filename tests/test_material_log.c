@@ -29,7 +29,7 @@ static struct ow_viscosity model(enum ow_visc_model m)
 static void log_viscosity_equals_the_direct_form(void **state)
 {
 	enum ow_visc_model ms[] = {OW_VISC_POWER_LAW, OW_VISC_CROSS,
-				   OW_VISC_CARREAU_YASUDA};
+	                           OW_VISC_CARREAU_YASUDA};
 	(void)state;
 	for (int k = 0; k < 4; k++) {
 		struct ow_viscosity v = model(ms[k < 3 ? k : 2]);
@@ -45,7 +45,7 @@ static void log_viscosity_equals_the_direct_form(void **state)
 			double direct = ow_viscosity_ref(&v, exp(lg));
 
 			assert_rel(exp(ow_viscosity_log_ref(&lv, lg, NULL)),
-				   direct, 1e-12);
+			           direct, 1e-12);
 		}
 	}
 }
@@ -55,7 +55,7 @@ static void log_viscosity_equals_the_direct_form(void **state)
 static void log_slope_is_the_local_index_minus_one(void **state)
 {
 	enum ow_visc_model ms[] = {OW_VISC_POWER_LAW, OW_VISC_CROSS,
-				   OW_VISC_CARREAU_YASUDA};
+	                           OW_VISC_CARREAU_YASUDA};
 	const double h = 1e-4;
 	(void)state;
 	for (int k = 0; k < 3; k++) {
@@ -66,15 +66,15 @@ static void log_slope_is_the_local_index_minus_one(void **state)
 		ow_viscosity_log_init(&v, &lv);
 		for (double lg = -18.0; lg < 12.0; lg += 0.05) {
 			double fd = (log(ow_viscosity_ref(&v, exp(lg + h))) -
-				     log(ow_viscosity_ref(&v, exp(lg - h)))) /
-				    (2.0 * h);
+			             log(ow_viscosity_ref(&v, exp(lg - h)))) /
+			            (2.0 * h);
 
 			ow_viscosity_log_ref(&lv, lg, &s);
 			assert_abs(s, fd, 1e-7);
 			assert_true(s <= 0.0 && s >= v.index - 1.0);
 			if (!isnan(prev))
 				assert_true(fabs(s - prev) <=
-					    lv.curv * 0.05 * (1.0 + 1e-9));
+				            lv.curv * 0.05 * (1.0 + 1e-9));
 			prev = s;
 		}
 		ow_viscosity_log_ref(&lv, lv.ln_gmin - 1.0, &sp);
@@ -89,22 +89,22 @@ static void log_shift_equals_the_log_of_the_direct_shift(void **state)
 	(void)state;
 	for (double t = 380.0; t < 620.0; t += 3.7)
 		assert_abs(ow_viscosity_log_shift(&v, t),
-			   log(ow_viscosity_shift(&v, t)), 1e-14);
+		           log(ow_viscosity_shift(&v, t)), 1e-14);
 	v.shift = OW_SHIFT_WLF;
-	v.wlf_c1 = 17.44; /* universal constants (Williams, Landel & Ferry */
+	v.wlf_c1 = 17.44;  /* universal constants (Williams, Landel & Ferry */
 	v.wlf_c2_K = 51.6; /* 1955), as test_material uses them */
 	for (double t = 410.0; t < 620.0; t += 3.7)
 		assert_abs(ow_viscosity_log_shift(&v, t),
-			   log(ow_viscosity_shift(&v, t)), 1e-13);
+		           log(ow_viscosity_shift(&v, t)), 1e-13);
 	assert_true(isinf(ow_viscosity_log_shift(&v, 453.15 - 51.6)));
 }
 
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(log_viscosity_equals_the_direct_form),
-		cmocka_unit_test(log_slope_is_the_local_index_minus_one),
-		cmocka_unit_test(log_shift_equals_the_log_of_the_direct_shift),
+	    cmocka_unit_test(log_viscosity_equals_the_direct_form),
+	    cmocka_unit_test(log_slope_is_the_local_index_minus_one),
+	    cmocka_unit_test(log_shift_equals_the_log_of_the_direct_shift),
 	};
 	return cmocka_run_group_tests(tests, NULL, NULL);
 }

@@ -14,7 +14,7 @@
 
 #include "ow_melt.h"
 
-#define PI OW_PI
+#define PI   OW_PI
 #define T200 473.15 /* 200 degC */
 
 /* ---- fixtures ----------------------------------------------------------- */
@@ -48,9 +48,18 @@ static struct ow_material carreau(void)
  * kinematics: V_b = pi D N, V_bz = V_b cos phi, V_bx = V_b sin phi). */
 #define EX_D 0.0635
 #define EX_H 0.003175
-static double ex_phi(void) { return atan(1.0 / PI); }
-static double ex_width(void) { return EX_D * cos(ex_phi()) - 0.00635; }
-static double ex_length(void) { return 8.0 * EX_D / sin(ex_phi()); }
+static double ex_phi(void)
+{
+	return atan(1.0 / PI);
+}
+static double ex_width(void)
+{
+	return EX_D * cos(ex_phi()) - 0.00635;
+}
+static double ex_length(void)
+{
+	return 8.0 * EX_D / sin(ex_phi());
+}
 
 static struct ow_melt_cond metering(const struct ow_material *m)
 {
@@ -97,7 +106,7 @@ static struct ow_melt_ws *workspace(int nodes, int bands, double temp_K)
 }
 
 static struct ow_melt_out station(struct ow_melt_ws *ws,
-				  const struct ow_melt_cond *c, double dz)
+                                  const struct ow_melt_cond *c, double dz)
 {
 	struct ow_melt_out o;
 	struct ow_diag d = {""};
@@ -117,10 +126,10 @@ static void shape_factors_follow_rowell_finlayson_series(void **state)
 	 * a 200-term sum still misses about 8e-5 and 1.6e-5 there (the
 	 * tail of sum i^-3), as the small-h slope below confirms. */
 	static const double t[][3] = {
-		{0.01, 0.99457, 0.99370}, {0.05, 0.97286, 0.96849},
-		{0.10, 0.94572, 0.93698}, {0.20, 0.89145, 0.87395},
-		{0.30, 0.83718, 0.81094}, {0.50, 0.72958, 0.68605},
-		{1.00, 0.50000, 0.42173},
+	    {0.01, 0.99457, 0.99370}, {0.05, 0.97286, 0.96849},
+	    {0.10, 0.94572, 0.93698}, {0.20, 0.89145, 0.87395},
+	    {0.30, 0.83718, 0.81094}, {0.50, 0.72958, 0.68605},
+	    {1.00, 0.50000, 0.42173},
 	};
 	(void)state;
 	for (size_t i = 0; i < sizeof t / sizeof t[0]; i++) {
@@ -143,7 +152,7 @@ static void shape_factors_tend_to_one_for_shallow_channels(void **state)
 	assert_rel((1.0 - ow_melt_shape_fd(h)) / h, 0.542754, 1e-4);
 	assert_rel((1.0 - ow_melt_shape_fp(h)) / h, 0.630249, 1e-5);
 	assert_abs(ow_melt_shape_fd(1.0 - 1e-9), ow_melt_shape_fd(1.0 + 1e-9),
-		   1e-9);
+	           1e-9);
 	assert_true(isnan(ow_melt_shape_fd(0.0)));
 	assert_true(isnan(ow_melt_shape_fp(-1.0)));
 }
@@ -155,10 +164,10 @@ static void shape_factors_tend_to_one_for_shallow_channels(void **state)
  * an independent shooting method): rows n, qhat at Lambda = 0, 1, 2, 4, 6,
  * and Lambda at closed discharge. */
 static const double pl_table[][7] = {
-	{1.00, 0.50000, 0.41667, 0.33333, 0.16667, 0.00000, 6.00000},
-	{0.75, 0.50000, 0.39008, 0.29007, 0.09063, -0.16793, 4.74406},
-	{0.50, 0.50000, 0.34043, 0.22646, -0.05947, -0.65250, 3.71934},
-	{0.30, 0.50000, 0.25958, 0.15332, -0.50145, -3.16565, 3.02202},
+    {1.00, 0.50000, 0.41667, 0.33333, 0.16667, 0.00000, 6.00000},
+    {0.75, 0.50000, 0.39008, 0.29007, 0.09063, -0.16793, 4.74406},
+    {0.50, 0.50000, 0.34043, 0.22646, -0.05947, -0.65250, 3.71934},
+    {0.30, 0.50000, 0.25958, 0.15332, -0.50145, -3.16565, 3.02202},
 };
 static const double pl_lambda[5] = {0.0, 1.0, 2.0, 4.0, 6.0};
 
@@ -171,9 +180,9 @@ static void powerlaw_flow_matches_exact_table(void **state)
 		double n = pl_table[i][0];
 
 		for (int j = 0; j < 5; j++) {
-			assert_int_equal(ow_melt_powerlaw_qhat(n, pl_lambda[j],
-							       &q, NULL),
-					 OW_OK);
+			assert_int_equal(
+			    ow_melt_powerlaw_qhat(n, pl_lambda[j], &q, NULL),
+			    OW_OK);
 			assert_abs(q, pl_table[i][1 + j], 6e-6);
 			/* reflection q(-L) = 1 - q(L) (same source) */
 			ow_melt_powerlaw_qhat(n, -pl_lambda[j], &q, &t0);
@@ -191,8 +200,8 @@ static void powerlaw_flow_matches_exact_table(void **state)
  * also across the switch between closed form and quadrature near 0. */
 static void powerlaw_flow_reduces_to_newtonian_line(void **state)
 {
-	static const double lam[] = {-3.0, -0.0499, -1e-6, 0.0,
-				     1e-6, 0.0499, 0.0501, 7.5};
+	static const double lam[] = {-3.0, -0.0499, -1e-6,  0.0,
+	                             1e-6, 0.0499,  0.0501, 7.5};
 	(void)state;
 	for (size_t i = 0; i < sizeof lam / sizeof lam[0]; i++) {
 		double q;
@@ -231,10 +240,12 @@ static void powerlaw_flow_agrees_with_gsl_quadrature(void **state)
 
 		ow_melt_powerlaw_qhat(0.4, lam[i], &q, &p.t0);
 		f.params = &p;
-		gsl_integration_qags(&f, 0, 1, 1e-13, 1e-12, 1000, w, &val, &err);
+		gsl_integration_qags(&f, 0, 1, 1e-13, 1e-12, 1000, w, &val,
+		                     &err);
 		assert_abs(val, 1.0, 1e-10);
 		p.weight = 1.0;
-		gsl_integration_qags(&f, 0, 1, 1e-13, 1e-12, 1000, w, &val, &err);
+		gsl_integration_qags(&f, 0, 1, 1e-13, 1e-12, 1000, w, &val,
+		                     &err);
 		assert_abs(val, q, 1e-10);
 	}
 	gsl_integration_workspace_free(w);
@@ -248,8 +259,10 @@ static void powerlaw_flow_agrees_with_gsl_quadrature(void **state)
 static void station_reproduces_newtonian_screw_characteristic(void **state)
 {
 	static const double t[][2] = {
-		{1.540825e-5, 5e6}, {1.4992942e-5, 1e7}, {1.416233e-5, 2e7},
-		{0.0, 1.9051e8}, /* closed discharge */
+	    {1.540825e-5, 5e6},
+	    {1.4992942e-5, 1e7},
+	    {1.416233e-5, 2e7},
+	    {0.0, 1.9051e8}, /* closed discharge */
 	};
 	struct ow_material m = power_law(1000.0, 1.0); /* mu = 1000 Pa s */
 	struct ow_melt_cond c = metering(&m);
@@ -327,8 +340,8 @@ static void station_reproduces_powerlaw_table(void **state)
 /* Identity power = dissipation + Q dP/dz holds for a shear-thinning,
  * temperature-dependent resin with cross flow and leakage (discrete
  * identity of the lubrication equations, Tadmor & Klein 1970 ch. 7). */
-static void station_power_identity_holds_with_cross_flow_and_leakage(
-	void **state)
+static void
+station_power_identity_holds_with_cross_flow_and_leakage(void **state)
 {
 	struct ow_material m = carreau();
 	struct ow_melt_cond c = metering(&m);
@@ -345,8 +358,8 @@ static void station_power_identity_holds_with_cross_flow_and_leakage(
 
 		c.vol_flow_m3_s = q[i];
 		o = station(ws, &c, 0.01);
-		assert_rel(o.power_W_m,
-			   o.dissipation_W_m + q[i] * o.dpdz_Pa_m, 1e-10);
+		assert_rel(o.power_W_m, o.dissipation_W_m + q[i] * o.dpdz_Pa_m,
+		           1e-10);
 		assert_rel(o.channel_flow_m3_s, q[i] + o.leak_flow_m3_s, 1e-12);
 		assert_true(o.leak_flow_m3_s > 0.0);
 	}
@@ -412,7 +425,7 @@ static void station_flow_matches_gsl_integral_over_the_channel(void **state)
 		c.vol_flow_m3_s = q[i];
 		d.G = station(ws, &c, 0.0).dpdz_Pa_m;
 		gsl_integration_qags(&f, 0.0, d.W, 1e-15, 1e-10, 500, w, &val,
-				     &err);
+		                     &err);
 		assert_rel(val, q[i], 1e-7);
 	}
 	gsl_integration_workspace_free(w);
@@ -434,13 +447,15 @@ static void leakage_scales_with_the_clearance(void **state)
 	assert_abs(ow_melt_leak_flux(vbx, 0.0, 1e7, mu, e), 0.0, 0.0);
 	assert_abs(ow_melt_leak_flux(vbx, 1e-9, 1e7, mu, e), 0.0, 1e-10);
 	drag = ow_melt_leak_flux(vbx, d, 0.0, mu, e);
-	assert_rel(ow_melt_leak_flux(vbx, 2 * d, 0.0, mu, e), 2.0 * drag, 1e-14);
+	assert_rel(ow_melt_leak_flux(vbx, 2 * d, 0.0, mu, e), 2.0 * drag,
+	           1e-14);
 	pres = ow_melt_leak_flux(0.0, d, 1e7, mu, e);
-	assert_rel(ow_melt_leak_flux(0.0, 2 * d, 1e7, mu, e), 8.0 * pres, 1e-14);
+	assert_rel(ow_melt_leak_flux(0.0, 2 * d, 1e7, mu, e), 8.0 * pres,
+	           1e-14);
 	assert_rel(ow_melt_leak_flux(vbx, d, 1e7, mu, e), drag + pres, 1e-14);
 	assert_rel(drag * PI * EX_D * cos(ex_phi()), 3.652e-7, 2e-4);
 	assert_rel(ow_melt_leak_heat(0.2, 2 * d, mu, e),
-		   0.5 * ow_melt_leak_heat(0.2, d, mu, e), 1e-14);
+	           0.5 * ow_melt_leak_heat(0.2, d, mu, e), 1e-14);
 	assert_abs(ow_melt_leak_heat(0.2, 0.0, mu, e), 0.0, 0.0);
 }
 
@@ -463,12 +478,12 @@ static void station_leak_flow_uses_the_solved_gradients(void **state)
 	c.clearance_m = 1e-4;
 	o = station(ws, &c, 0.0);
 	mu_f = 1000.0; /* Newtonian: any clearance shear rate */
-	assert_rel(o.leak_flow_m3_s,
-		   lb * ow_melt_leak_flux(c.vbx_m_s, 1e-4,
-					  o.dpdx_Pa_m * c.width_m +
-						  o.dpdz_Pa_m * lb,
-					  mu_f, 0.00635),
-		   1e-12);
+	assert_rel(
+	    o.leak_flow_m3_s,
+	    lb * ow_melt_leak_flux(c.vbx_m_s, 1e-4,
+	                           o.dpdx_Pa_m * c.width_m + o.dpdz_Pa_m * lb,
+	                           mu_f, 0.00635),
+	    1e-12);
 	c.clearance_m = 1e-7;
 	o = station(ws, &c, 0.0);
 	assert_abs(o.leak_flow_m3_s, 0.0, 1e-3 * c.vol_flow_m3_s);
@@ -487,8 +502,7 @@ static void station_leak_flow_uses_the_solved_gradients(void **state)
  * ed. 1987, with time-temperature superposition); the leak flow is then
  * L_b [V_bx delta/2 + delta^3 (dP/dx W + dP/dz L_b)/(12 mu_f e)] with the
  * station's own gradients (Tadmor & Klein 1970 ch. 7). */
-static void leak_uses_viscosity_at_clearance_temperature_and_shear(
-	void **state)
+static void leak_uses_viscosity_at_clearance_temperature_and_shear(void **state)
 {
 	struct ow_material m = carreau();
 	struct ow_melt_cond c = metering(&m);
@@ -496,8 +510,8 @@ static void leak_uses_viscosity_at_clearance_temperature_and_shear(
 	double lb = PI * EX_D * cos(ex_phi()), d = 1e-4, e = 0.00635;
 	double tf = 0.5 * (T200 + 455.0), gd = PI * EX_D / d;
 	double at = exp(28e3 / 8.314462618 * (1.0 / tf - 1.0 / 463.15));
-	double mu = at * 9000.0 *
-		    pow(1.0 + pow(0.8 * at * gd, 0.7), (0.4 - 1.0) / 0.7);
+	double mu =
+	    at * 9000.0 * pow(1.0 + pow(0.8 * at * gd, 0.7), (0.4 - 1.0) / 0.7);
 	struct ow_melt_out o;
 
 	(void)state;
@@ -508,24 +522,24 @@ static void leak_uses_viscosity_at_clearance_temperature_and_shear(
 	c.leak_flight_len_per_z = 1.0;
 	c.clearance_m = d;
 	o = station(ws, &c, 0.0);
-	assert_rel(o.leak_flow_m3_s,
-		   lb * (c.vbx_m_s * d / 2.0 +
-			 d * d * d *
-				 (o.dpdx_Pa_m * c.width_m + o.dpdz_Pa_m * lb) /
-				 (12.0 * mu * e)),
-		   1e-9);
+	assert_rel(
+	    o.leak_flow_m3_s,
+	    lb * (c.vbx_m_s * d / 2.0 +
+	          d * d * d * (o.dpdx_Pa_m * c.width_m + o.dpdz_Pa_m * lb) /
+	              (12.0 * mu * e)),
+	    1e-9);
 	/* the clearance heating at the same viscosity: mu_f (V_b/delta)^2
 	 * delta e per flight length (Bird, Stewart & Lightfoot 2002 section
 	 * 10.4), in the power beside the channel's barrel-wall work */
-	assert_rel(ow_melt_leak_heat(c.vb_m_s, d, mu, e),
-		   mu * gd * gd * d * e, 1e-12);
+	assert_rel(ow_melt_leak_heat(c.vb_m_s, d, mu, e), mu * gd * gd * d * e,
+	           1e-12);
 	ow_melt_destroy(ws);
 }
 
 /* ---- temperature across the depth ----------------------------------- */
 
 static struct ow_melt_out march_to_steady(struct ow_melt_ws *ws,
-					  const struct ow_melt_cond *c)
+                                          const struct ow_melt_cond *c)
 {
 	struct ow_melt_out o;
 
@@ -604,9 +618,9 @@ static void bands_conserve_energy_step_by_step(void **state)
 		o = station(ws, &c, dz);
 		assert_true(o.circulating);
 		assert_abs(rc * (o.bulk_K - prev) / dz,
-			   o.dissipation_W_m + o.barrel_heat_W_m +
-				   o.root_heat_W_m,
-			   1e-9 * o.dissipation_W_m);
+		           o.dissipation_W_m + o.barrel_heat_W_m +
+		               o.root_heat_W_m,
+		           1e-9 * o.dissipation_W_m);
 		assert_rel(o.bulk_K, ow_melt_bulk(ws), 1e-15);
 		assert_true(o.peak_K >= o.bulk_K);
 		prev = o.bulk_K;
@@ -658,7 +672,8 @@ static void mixing_and_uniform_heating_keep_the_enthalpy_flux(void **state)
 	o = station(ws, &c, dz);
 	rc = m.melt_density_kg_m3 * m.melt_cp_J_kgK * c.vol_flow_m3_s;
 	assert_abs(rc * (o.bulk_K - before) / dz,
-		   o.dissipation_W_m + o.barrel_heat_W_m, 1e-9 * o.dissipation_W_m);
+	           o.dissipation_W_m + o.barrel_heat_W_m,
+	           1e-9 * o.dissipation_W_m);
 	ow_melt_destroy(ws);
 }
 
@@ -671,8 +686,8 @@ static void mixing_and_uniform_heating_keep_the_enthalpy_flux(void **state)
  * a pressure gradient because the cross flow decouples. */
 static void bands_pair_layers_on_one_streamline(void **state)
 {
-	static const double t[][2] = {{0.7, 0.63218}, {0.8, 0.51231},
-				      {0.9, 0.35414}};
+	static const double t[][2] = {
+	    {0.7, 0.63218}, {0.8, 0.51231}, {0.9, 0.35414}};
 	struct ow_material m = power_law(1000.0, 1.0);
 	struct ow_melt_cond c = metering(&m);
 	struct ow_melt_ws *ws = workspace(41, 20, T200);
@@ -686,8 +701,8 @@ static void bands_pair_layers_on_one_streamline(void **state)
 		for (int i = 0; i < 3; i++) {
 			double yc, y;
 
-			assert_int_equal(ow_melt_partner(ws, t[i][0] * EX_H, &yc),
-					 OW_OK);
+			assert_int_equal(
+			    ow_melt_partner(ws, t[i][0] * EX_H, &yc), OW_OK);
 			assert_abs(yc / EX_H, t[i][1], 6e-6);
 			ow_melt_partner(ws, yc, &y); /* and back */
 			assert_abs(y / EX_H, t[i][0], 1e-9);
@@ -801,7 +816,6 @@ static void failures_return_a_status(void **state)
 	ow_melt_destroy(ws);
 }
 
-
 /* ---- fluted mixer and barrel wall -------------------------------------- */
 
 /* Plane Couette-Poiseuille flow across a 1 mm gap under a wall at V with
@@ -824,7 +838,7 @@ static double land_integrand(double y, void *p)
 }
 
 static void land_agrees_with_gsl_over_the_gap(const struct ow_mixer_land *o,
-					      double Q, double nL, double V)
+                                              double Q, double nL, double V)
 {
 	gsl_integration_workspace *w = gsl_integration_workspace_alloc(100);
 	struct land_gap l = {V, o->dp_Pa / 6.35e-3, 1e-3, 500.0, 0};
@@ -854,7 +868,7 @@ static void mixer_land_follows_couette_poiseuille_land_flow(void **state)
 	/* pure drag: no pressure change, Couette heating mu V^2/g per unit
 	 * land area (Bird, Stewart & Lightfoot 2002, section 10.4) */
 	ow_melt_mixer_land(V * 1e-3 / 2.0 * nL, 8.0, 0.127, 1e-3, 6.35e-3, V,
-			   500.0, &o);
+	                   500.0, &o);
 	assert_abs(o.dp_Pa, 0.0, 1e-6);
 	assert_rel(o.heat_W, 228.22441722, 1e-9);
 	assert_rel(o.power_W, o.heat_W, 1e-12);
@@ -920,8 +934,8 @@ static void mixer_step_keeps_the_energy_book_with_the_barrel(void **state)
 	b0 = ow_melt_bulk(ws);
 	assert_int_equal(ow_melt_mixer_step(ws, &c, dz, heat, &o, NULL), OW_OK);
 	assert_rel(rc * (o.bulk_K - b0) / dz,
-		   o.dissipation_W_m + o.barrel_heat_W_m + o.root_heat_W_m,
-		   1e-9);
+	           o.dissipation_W_m + o.barrel_heat_W_m + o.root_heat_W_m,
+	           1e-9);
 	assert_true(o.barrel_heat_W_m < 0.0); /* melt now above the wall */
 	assert_rel(o.peak_K - 500.0, o.bulk_K - 500.0, 0.5);
 	c.barrel_K = 470.0;
@@ -930,11 +944,11 @@ static void mixer_step_keeps_the_energy_book_with_the_barrel(void **state)
 	c.wall_h_W_m2K = 500.0;
 	ow_melt_copy(ws, cp);
 	assert_int_equal(ow_melt_mixer_step(ws, &c, dz, heat, &oh, NULL),
-			 OW_OK);
+	                 OW_OK);
 	assert_true(o.barrel_heat_W_m < oh.barrel_heat_W_m);
 	assert_true(oh.barrel_heat_W_m < 0.0);
 	assert_rel(rc * (oh.bulk_K - b0) / dz,
-		   oh.dissipation_W_m + oh.barrel_heat_W_m, 1e-9);
+	           oh.dissipation_W_m + oh.barrel_heat_W_m, 1e-9);
 	ow_melt_destroy(ws);
 	ow_melt_destroy(cp);
 }
@@ -973,7 +987,8 @@ static double circ_integrand(double xu, void *p)
 {
 	const struct circ_case *c = p;
 	double xc = partner_of(xu);
-	double au = fabs(xu * (3.0 * xu - 2.0)), ac = fabs(xc * (3.0 * xc - 2.0));
+	double au = fabs(xu * (3.0 * xu - 2.0)),
+	       ac = fabs(xc * (3.0 * xc - 2.0));
 
 	if (!(au + ac > 0.0))
 		return 0.0;
@@ -1007,14 +1022,14 @@ static void circulating_couette_peak_matches_the_streamline_limit(void **st)
 	for (int i = 0; i < 2; i++) {
 		double vb = PI * EX_D * rpm[i] / 60.0, ref, err, bsl;
 		struct circ_case cc = {1000.0, 0.2, EX_H, vb * cos(phi),
-				       vb * sin(phi)};
+		                       vb * sin(phi)};
 		gsl_function f = {circ_integrand, &cc};
 		struct ow_melt_cond c = couette(&m);
 		struct ow_melt_ws *ws = workspace(21, 10, T200);
 		struct ow_melt_out o;
 
 		gsl_integration_qags(&f, 2.0 / 3.0, 1.0, 1e-12, 1e-10, 1000, w,
-				     &ref, &err);
+		                     &ref, &err);
 		bsl = 1000.0 * vb * vb / (8.0 * 0.2);
 		assert_rel(ref / bsl, 0.91515, 1e-4);
 		c.depth_m = EX_H;
@@ -1041,41 +1056,38 @@ static void circulating_couette_peak_matches_the_streamline_limit(void **st)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(shape_factors_follow_rowell_finlayson_series),
-		cmocka_unit_test(shape_factors_tend_to_one_for_shallow_channels),
-		cmocka_unit_test(powerlaw_flow_matches_exact_table),
-		cmocka_unit_test(powerlaw_flow_reduces_to_newtonian_line),
-		cmocka_unit_test(powerlaw_flow_agrees_with_gsl_quadrature),
-		cmocka_unit_test(
-			station_reproduces_newtonian_screw_characteristic),
-		cmocka_unit_test(
-			station_power_splits_into_flow_work_and_dissipation),
-		cmocka_unit_test(station_reproduces_powerlaw_table),
-		cmocka_unit_test(
-			station_power_identity_holds_with_cross_flow_and_leakage),
-		cmocka_unit_test(
-			station_flow_matches_gsl_integral_over_the_channel),
-		cmocka_unit_test(leakage_scales_with_the_clearance),
-		cmocka_unit_test(station_leak_flow_uses_the_solved_gradients),
-		cmocka_unit_test(leak_uses_viscosity_at_clearance_temperature_and_shear),
-		cmocka_unit_test(bands_reproduce_couette_heating),
-		cmocka_unit_test(bands_reproduce_powerlaw_couette_heating),
-		cmocka_unit_test(bands_conserve_energy_step_by_step),
-		cmocka_unit_test(zero_step_leaves_temperatures_alone),
-		cmocka_unit_test(
-			mixing_and_uniform_heating_keep_the_enthalpy_flux),
-		cmocka_unit_test(bands_pair_layers_on_one_streamline),
-		cmocka_unit_test(band_legs_tile_the_depth_on_streamlines),
-		cmocka_unit_test(default_resolution_is_converged),
-		cmocka_unit_test(failures_return_a_status),
-		cmocka_unit_test(
-			mixer_land_follows_couette_poiseuille_land_flow),
-		cmocka_unit_test(
-			finite_wall_adds_its_resistance_to_the_couette_rise),
-		cmocka_unit_test(
-			mixer_step_keeps_the_energy_book_with_the_barrel),
-		cmocka_unit_test(
-			circulating_couette_peak_matches_the_streamline_limit),
+	    cmocka_unit_test(shape_factors_follow_rowell_finlayson_series),
+	    cmocka_unit_test(shape_factors_tend_to_one_for_shallow_channels),
+	    cmocka_unit_test(powerlaw_flow_matches_exact_table),
+	    cmocka_unit_test(powerlaw_flow_reduces_to_newtonian_line),
+	    cmocka_unit_test(powerlaw_flow_agrees_with_gsl_quadrature),
+	    cmocka_unit_test(station_reproduces_newtonian_screw_characteristic),
+	    cmocka_unit_test(
+	        station_power_splits_into_flow_work_and_dissipation),
+	    cmocka_unit_test(station_reproduces_powerlaw_table),
+	    cmocka_unit_test(
+	        station_power_identity_holds_with_cross_flow_and_leakage),
+	    cmocka_unit_test(
+	        station_flow_matches_gsl_integral_over_the_channel),
+	    cmocka_unit_test(leakage_scales_with_the_clearance),
+	    cmocka_unit_test(station_leak_flow_uses_the_solved_gradients),
+	    cmocka_unit_test(
+	        leak_uses_viscosity_at_clearance_temperature_and_shear),
+	    cmocka_unit_test(bands_reproduce_couette_heating),
+	    cmocka_unit_test(bands_reproduce_powerlaw_couette_heating),
+	    cmocka_unit_test(bands_conserve_energy_step_by_step),
+	    cmocka_unit_test(zero_step_leaves_temperatures_alone),
+	    cmocka_unit_test(mixing_and_uniform_heating_keep_the_enthalpy_flux),
+	    cmocka_unit_test(bands_pair_layers_on_one_streamline),
+	    cmocka_unit_test(band_legs_tile_the_depth_on_streamlines),
+	    cmocka_unit_test(default_resolution_is_converged),
+	    cmocka_unit_test(failures_return_a_status),
+	    cmocka_unit_test(mixer_land_follows_couette_poiseuille_land_flow),
+	    cmocka_unit_test(
+	        finite_wall_adds_its_resistance_to_the_couette_rise),
+	    cmocka_unit_test(mixer_step_keeps_the_energy_book_with_the_barrel),
+	    cmocka_unit_test(
+	        circulating_couette_peak_matches_the_streamline_limit),
 	};
 
 	return cmocka_run_group_tests(tests, NULL, NULL);

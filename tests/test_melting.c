@@ -18,8 +18,8 @@
 #include "ow_melting.h"
 
 #define C2K(c) ((c) + 273.15)
-#define H1 9.4e-3
-#define H2 3.2e-3
+#define H1     9.4e-3
+#define H2     3.2e-3
 
 static double helix(void)
 {
@@ -58,8 +58,7 @@ static struct ow_melting_in example_in(const struct ow_material *m)
 	in.mat = m;
 	in.barrel_speed_m_s = OW_PI * 0.0635 * 1.0; /* 60 rpm */
 	in.helix_rad = helix();
-	in.bed_speed_m_s = ow_melting_bed_speed(m, 50.0 / 3600.0, H1,
-						width());
+	in.bed_speed_m_s = ow_melting_bed_speed(m, 50.0 / 3600.0, H1, width());
 	in.solid_temp_K = C2K(25.0);
 	in.film_visc_Pa_s = 100.0;
 	return in;
@@ -89,8 +88,9 @@ static struct ow_melting_station station(const struct course *c, double z)
 {
 	struct ow_melting_station s;
 
-	s.depth_m = c->zt <= 0.0 ? H1 : z < c->zt ?
-		    H1 - (H1 - H2) * z / c->zt : H2;
+	s.depth_m = c->zt <= 0.0 ? H1
+	            : z < c->zt  ? H1 - (H1 - H2) * z / c->zt
+	                         : H2;
 	s.width_m = c->w ? c->w(z) : width();
 	s.barrel_temp_K = c->tb ? c->tb(z) : C2K(180.0);
 	return s;
@@ -99,7 +99,7 @@ static struct ow_melting_station station(const struct course *c, double z)
 /* March n steps of dz from the bed filling the channel; returns X/W at the
  * end, the position where the bed vanished (or -1) and any plugging. */
 static double march(const struct ow_melting_in *in, const struct course *c,
-		    double dz, int n, double *gone_at, int *plugged)
+                    double dz, int n, double *gone_at, int *plugged)
 {
 	struct ow_melting_step_out o;
 	double x = width(), z = 0.0, sbr = 1.0;
@@ -112,7 +112,7 @@ static double march(const struct ow_melting_in *in, const struct course *c,
 		struct ow_melting_station b = station(c, z + dz);
 
 		assert_int_equal(ow_melting_step(in, &a, &b, dz, x, &o, NULL),
-				 OW_OK);
+		                 OW_OK);
 		*plugged |= o.plugged;
 		if (o.melted_at_m >= 0.0 && *gone_at < 0.0)
 			*gone_at = z + o.melted_at_m;
@@ -138,7 +138,7 @@ static void film_reproduces_tadmor_worked_example(void **state)
 	assert_rel(vbx, 0.06051, 1e-4);
 	assert_rel(in.bed_speed_m_s, 0.02982, 2e-4);
 	assert_int_equal(ow_melting_film(&in, C2K(180.0), width(), &f, NULL),
-			 OW_OK);
+	                 OW_OK);
 	assert_rel(f.slip_speed_m_s, 0.17132, 1e-4);
 	assert_rel(f.phi, 0.031937, 1e-4);
 	assert_rel(f.film_m, 0.315e-3, 2e-3);
@@ -162,8 +162,7 @@ static void melting_solid_bed_follows_tadmor_constant_depth(void **state)
 
 	(void)state;
 	ow_melting_film(&in, C2K(180.0), width(), &f, NULL);
-	psi = ow_melting_psi_const(f.phi, 915.0, in.bed_speed_m_s, H1,
-				   width());
+	psi = ow_melting_psi_const(f.phi, 915.0, in.bed_speed_m_s, H1, width());
 	assert_rel(psi, 0.53511, 1e-4);
 	assert_rel(ow_melting_length_const(psi, 1.0), 3.7376, 1e-4);
 	assert_rel(ow_melting_sbr_const(psi, 1.0, 1.0), 0.53648, 1e-4);
@@ -203,9 +202,9 @@ static void melting_solid_bed_follows_tadmor_linear_taper(void **state)
 	assert_rel(ow_melting_length_taper(psi, a, 1.0, H1), 2.3622, 1e-4);
 	/* the march over the taper (stations every zt/200) */
 	assert_rel(march(&in, &c, zt / n, n / 4, &gone, &plugged),
-		   ow_melting_sbr_taper(psi, a, 1.0, H1, zt / 4), 1e-8);
+	           ow_melting_sbr_taper(psi, a, 1.0, H1, zt / 4), 1e-8);
 	assert_rel(march(&in, &c, zt / n, n, &gone, &plugged),
-		   ow_melting_sbr_taper(psi, a, 1.0, H1, zt), 1e-8);
+	           ow_melting_sbr_taper(psi, a, 1.0, H1, zt), 1e-8);
 	assert_false(plugged);
 }
 
@@ -223,8 +222,7 @@ static void melting_completes_in_metering_after_taper(void **state)
 	(void)state;
 	ow_melting_film(&in, C2K(180.0), width(), &f, NULL);
 	pt = ow_melting_psi_taper(f.phi, 915.0, in.bed_speed_m_s, width());
-	pc = ow_melting_psi_const(f.phi, 915.0, in.bed_speed_m_s, H2,
-				  width());
+	pc = ow_melting_psi_const(f.phi, 915.0, in.bed_speed_m_s, H2, width());
 	sbr = ow_melting_sbr_taper(pt, a, 1.0, H1, zt);
 	assert_rel(ow_melting_length_const(pc, sbr), 0.9465, 1e-4);
 	assert_rel(zt + ow_melting_length_const(pc, sbr), 2.6213, 1e-4);
@@ -247,8 +245,7 @@ static void bed_vanishes_inside_taper_where_closed_form_says(void **state)
 	int plugged;
 
 	(void)state;
-	in.bed_speed_m_s = ow_melting_bed_speed(&m, 15.0 / 3600.0, H1,
-						width());
+	in.bed_speed_m_s = ow_melting_bed_speed(&m, 15.0 / 3600.0, H1, width());
 	ow_melting_film(&in, C2K(180.0), width(), &f, NULL);
 	pt = ow_melting_psi_taper(f.phi, 915.0, in.bed_speed_m_s, width());
 	zm = ow_melting_length_taper(pt, a, 1.0, H1);
@@ -265,9 +262,9 @@ static void bed_vanishes_inside_taper_where_closed_form_says(void **state)
 static void melting_rate_grows_slowly_with_barrel_temperature(void **state)
 {
 	static const double row[][3] = {
-		{160.0, 0.02755, 2.4845}, {180.0, 0.03194, 2.3622},
-		{200.0, 0.03579, 2.2400}, {220.0, 0.03927, 2.1300},
-		{240.0, 0.04246, 2.0331},
+	    {160.0, 0.02755, 2.4845}, {180.0, 0.03194, 2.3622},
+	    {200.0, 0.03579, 2.2400}, {220.0, 0.03927, 2.1300},
+	    {240.0, 0.04246, 2.0331},
 	};
 	struct ow_material m = ldpe();
 	struct ow_melting_in in = example_in(&m);
@@ -279,13 +276,14 @@ static void melting_rate_grows_slowly_with_barrel_temperature(void **state)
 		struct ow_melting_film f;
 		double pt;
 
-		assert_int_equal(ow_melting_film(&in, C2K(row[i][0]), width(),
-						 &f, NULL), OW_OK);
+		assert_int_equal(
+		    ow_melting_film(&in, C2K(row[i][0]), width(), &f, NULL),
+		    OW_OK);
 		assert_rel(f.phi, row[i][1], 2e-4);
 		pt = ow_melting_psi_taper(f.phi, 915.0, in.bed_speed_m_s,
-					  width());
+		                          width());
 		assert_rel(ow_melting_length_taper(pt, a, 1.0, H1), row[i][2],
-			   1e-4);
+		           1e-4);
 	}
 }
 
@@ -311,10 +309,11 @@ static void steep_taper_plugs_and_gentle_taper_does_not(void **state)
 	assert_true(ow_melting_taper_plugs(pt, a));
 	assert_true(ow_melting_sbr_taper(pt, a, 1.0, H1, 0.1) > 1.0);
 	assert_true(isinf(ow_melting_length_taper(pt, a, 1.0, H1)));
-	assert_int_equal(ow_melting_step(&in, &s0, &s1, zt / 100.0, width(),
-					 &o, NULL), OW_OK);
+	assert_int_equal(
+	    ow_melting_step(&in, &s0, &s1, zt / 100.0, width(), &o, NULL),
+	    OW_OK);
 	assert_true(o.plugged);
-	assert_abs(o.sbr, 1.0, 0.0);           /* held at the channel width */
+	assert_abs(o.sbr, 1.0, 0.0); /* held at the channel width */
 	march(&in, &steep, zt / 100.0, 50, &gone, &plugged);
 	assert_true(plugged);
 	march(&in, &gentle, gentle.zt / 100.0, 100, &gone, &plugged);
@@ -341,11 +340,11 @@ static void sbr_counts_against_solids_channel_width(void **state)
 
 	(void)state;
 	assert_int_equal(ow_melting_step(&in, &a, &b, 0.01, x, &o, NULL),
-			 OW_OK);
+	                 OW_OK);
 	assert_false(o.plugged);
 	assert_rel(o.sbr, o.bed_width_m / b.width_m, 1e-15);
 	sbr = march(&in, &c, 0.01, 100, &gone, &plugged);
-	assert_true(plugged);  /* 1 - 0.5 z narrows faster than X shrinks */
+	assert_true(plugged); /* 1 - 0.5 z narrows faster than X shrinks */
 	assert_abs(sbr, 1.0, 0.0);
 }
 
@@ -361,7 +360,7 @@ static void cold_barrel_does_not_melt(void **state)
 
 	(void)state;
 	assert_int_equal(ow_melting_step(&in, &a, &b, 0.05, 0.03, &o, NULL),
-			 OW_OK);
+	                 OW_OK);
 	assert_abs(o.bed_width_m, 0.03, 1e-15);
 	assert_abs(o.film.phi, 0.0, 0.0);
 	assert_abs(o.melted_kg_s, 0.0, 1e-18);
@@ -379,8 +378,8 @@ static void film_peak_matches_couette_heating_profile(void **state)
 	int j;
 
 	(void)state;
-	assert_abs(ow_melting_film_peak(400.0, 400.0, 1000.0, 0.2, 0.2),
-		   425.0, 1e-12);
+	assert_abs(ow_melting_film_peak(400.0, 400.0, 1000.0, 0.2, 0.2), 425.0,
+	           1e-12);
 	for (i = 0; i < sizeof dts / sizeof dts[0]; i++) {
 		double tmax = -INFINITY, b = 1000.0 * 0.04 / 0.4;
 
@@ -391,7 +390,8 @@ static void film_peak_matches_couette_heating_profile(void **state)
 			tmax = t > tmax ? t : tmax;
 		}
 		assert_abs(ow_melting_film_peak(400.0, 400.0 + dts[i], 1000.0,
-						0.2, 0.2), tmax, 1e-6);
+		                                0.2, 0.2),
+		           tmax, 1e-6);
 	}
 }
 
@@ -411,14 +411,13 @@ static void film_energy_balances_heat_into_bed(void **state)
 	(void)state;
 	ow_melting_film(&in, C2K(180.0), x, &f, NULL);
 	assert_rel(f.barrel_heat_W_m + f.dissipation_W_m, f.bed_heat_W_m,
-		   1e-12);
+	           1e-12);
 	assert_rel(f.bed_heat_W_m, f.melt_rate_kg_sm * heat, 1e-12);
 	/* drive - dissipation = shear work pushing the bed down-channel */
 	assert_rel(f.drive_power_W_m - f.dissipation_W_m,
-		   x * 100.0 * vs * (vb * cos(in.helix_rad) - vs) / f.film_m,
-		   1e-9);
-	assert_int_equal(ow_melting_step(&in, &a, &a, 0.2, x, &o, NULL),
-			 OW_OK);
+	           x * 100.0 * vs * (vb * cos(in.helix_rad) - vs) / f.film_m,
+	           1e-9);
+	assert_int_equal(ow_melting_step(&in, &a, &a, 0.2, x, &o, NULL), OW_OK);
 	assert_rel(o.bed_heat_W, o.melted_kg_s * heat, 1e-10);
 	assert_rel(o.barrel_heat_W + o.dissipation_W, o.bed_heat_W, 1e-12);
 }
@@ -443,10 +442,10 @@ static void model_film_viscosity_is_self_consistent(void **state)
 	m.visc.activation_J_mol = 50e3;
 	in.film_visc_Pa_s = 0.0;
 	assert_int_equal(ow_melting_film(&in, C2K(200.0), 0.03, &f, NULL),
-			 OW_OK);
+	                 OW_OK);
 	assert_rel(f.visc_Pa_s,
-		   ow_viscosity_eval(&m.visc, f.slip_speed_m_s / f.film_m, tf),
-		   1e-10);
+	           ow_viscosity_eval(&m.visc, f.slip_speed_m_s / f.film_m, tf),
+	           1e-10);
 	in.film_visc_Pa_s = f.visc_Pa_s; /* fixed at that value: same film */
 	{
 		struct ow_melting_film g;
@@ -510,16 +509,17 @@ static void march_agrees_with_gsl_rk8pd_for_variable_properties(void **st)
 	in.film_visc_Pa_s = 0.0;
 	gsl_set_error_handler_off();
 	drv = gsl_odeiv2_driver_alloc_y_new(&sys, gsl_odeiv2_step_rk8pd, 1e-5,
-					    1e-12, 1e-12);
+	                                    1e-12, 1e-12);
 	assert_non_null(drv);
 	for (k = 1; k <= 10; k++) { /* compare every 0.2 m to 2 m */
 		double zk = 0.2 * k, sbr;
 
 		assert_int_equal(gsl_odeiv2_driver_apply(drv, &z, zk, y),
-				 GSL_SUCCESS);
+		                 GSL_SUCCESS);
 		sbr = march(&in, &c, dz, 20 * k, &gone, &plugged);
 		if (y[0] / width() < 0.02)
-			break; /* sqrt(X) singular near X = 0 for the reference */
+			break; /* sqrt(X) singular near X = 0 for the reference
+			        */
 		assert_rel(sbr, y[0] / width(), 1e-3);
 		checked++;
 	}
@@ -534,7 +534,7 @@ static void march_agrees_with_gsl_rk8pd_for_variable_properties(void **st)
  * grades), across bed widths down to a vanishing bed and barrel
  * temperatures from just above T_m. A whole march agrees as well. */
 static void check_log_film(struct ow_melting_in *in,
-			   const struct ow_visc_log *lv)
+                           const struct ow_visc_log *lv)
 {
 	static const double tb_c[] = {111.0, 150.0, 200.0, 260.0};
 	static const double xw[] = {1.0, 0.5, 1e-2, 1e-6, 0.0};
@@ -546,19 +546,20 @@ static void check_log_film(struct ow_melting_in *in,
 			double x = xw[j] * width();
 
 			in->visc_log = NULL;
-			assert_int_equal(ow_melting_film(in, C2K(tb_c[i]), x,
-							 &a, NULL), OW_OK);
+			assert_int_equal(
+			    ow_melting_film(in, C2K(tb_c[i]), x, &a, NULL),
+			    OW_OK);
 			in->visc_log = lv;
-			assert_int_equal(ow_melting_film(in, C2K(tb_c[i]), x,
-							 &b, NULL), OW_OK);
+			assert_int_equal(
+			    ow_melting_film(in, C2K(tb_c[i]), x, &b, NULL),
+			    OW_OK);
 			assert_rel(b.visc_Pa_s, a.visc_Pa_s, 1e-10);
 			assert_rel(b.film_m, a.film_m, 1e-10);
 			assert_rel(b.phi, a.phi, 1e-10);
-			assert_rel(b.melt_rate_kg_sm, a.melt_rate_kg_sm,
-				   1e-10);
+			assert_rel(b.melt_rate_kg_sm, a.melt_rate_kg_sm, 1e-10);
 			assert_abs(b.peak_temp_K, a.peak_temp_K, 1e-9);
 			assert_rel(b.dissipation_W_m + 1.0,
-				   a.dissipation_W_m + 1.0, 1e-10);
+			           a.dissipation_W_m + 1.0, 1e-10);
 		}
 }
 
@@ -613,37 +614,34 @@ static void bad_steps_are_rejected(void **state)
 
 	(void)state;
 	assert_int_equal(ow_melting_step(&in, &a, &a, 0.0, 0.01, &o, &d),
-			 OW_EARG);
+	                 OW_EARG);
 	assert_non_null(strstr(d.msg, "step"));
 	in.solid_temp_K = C2K(120.0); /* above T_m */
 	ow_diag_clear(&d);
 	assert_int_equal(ow_melting_step(&in, &a, &a, 0.01, 0.01, &o, &d),
-			 OW_EINPUT);
+	                 OW_EINPUT);
 	assert_non_null(strstr(d.msg, "melting point"));
 }
 
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(film_reproduces_tadmor_worked_example),
-		cmocka_unit_test(
-			melting_solid_bed_follows_tadmor_constant_depth),
-		cmocka_unit_test(melting_solid_bed_follows_tadmor_linear_taper),
-		cmocka_unit_test(melting_completes_in_metering_after_taper),
-		cmocka_unit_test(
-			bed_vanishes_inside_taper_where_closed_form_says),
-		cmocka_unit_test(
-			melting_rate_grows_slowly_with_barrel_temperature),
-		cmocka_unit_test(steep_taper_plugs_and_gentle_taper_does_not),
-		cmocka_unit_test(sbr_counts_against_solids_channel_width),
-		cmocka_unit_test(cold_barrel_does_not_melt),
-		cmocka_unit_test(film_peak_matches_couette_heating_profile),
-		cmocka_unit_test(film_energy_balances_heat_into_bed),
-		cmocka_unit_test(model_film_viscosity_is_self_consistent),
-		cmocka_unit_test(
-			march_agrees_with_gsl_rk8pd_for_variable_properties),
-		cmocka_unit_test(log_viscosity_path_gives_the_same_film),
-		cmocka_unit_test(bad_steps_are_rejected),
+	    cmocka_unit_test(film_reproduces_tadmor_worked_example),
+	    cmocka_unit_test(melting_solid_bed_follows_tadmor_constant_depth),
+	    cmocka_unit_test(melting_solid_bed_follows_tadmor_linear_taper),
+	    cmocka_unit_test(melting_completes_in_metering_after_taper),
+	    cmocka_unit_test(bed_vanishes_inside_taper_where_closed_form_says),
+	    cmocka_unit_test(melting_rate_grows_slowly_with_barrel_temperature),
+	    cmocka_unit_test(steep_taper_plugs_and_gentle_taper_does_not),
+	    cmocka_unit_test(sbr_counts_against_solids_channel_width),
+	    cmocka_unit_test(cold_barrel_does_not_melt),
+	    cmocka_unit_test(film_peak_matches_couette_heating_profile),
+	    cmocka_unit_test(film_energy_balances_heat_into_bed),
+	    cmocka_unit_test(model_film_viscosity_is_self_consistent),
+	    cmocka_unit_test(
+	        march_agrees_with_gsl_rk8pd_for_variable_properties),
+	    cmocka_unit_test(log_viscosity_path_gives_the_same_film),
+	    cmocka_unit_test(bad_steps_are_rejected),
 	};
 
 	return cmocka_run_group_tests(tests, NULL, NULL);

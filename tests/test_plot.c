@@ -440,8 +440,8 @@ static void plot_log_axes_map_values_through_log10(void **state)
 	assert_abs(ow_plot_px(&p, 100.0), p.area.x + 0.5 * p.area.w, 1e-9);
 	assert_abs(ow_plot_px(&p, 1e4), p.area.x + p.area.w, 1e-9);
 	/* log10 2 = 0.30103 of one decade of four */
-	assert_abs(ow_plot_px(&p, 2.0),
-	           p.area.x + 0.30103 / 4.0 * p.area.w, 1e-4);
+	assert_abs(ow_plot_px(&p, 2.0), p.area.x + 0.30103 / 4.0 * p.area.w,
+	           1e-4);
 	/* 1000 Pa·s is two decades of four above 10 */
 	assert_abs(ow_plot_py(&p, 1000.0), p.area.y + 0.5 * p.area.h, 1e-9);
 	assert_abs(ow_plot_py(&p, 5000.0),
@@ -454,10 +454,10 @@ static void plot_log_axes_map_values_through_log10(void **state)
 		struct ow_plot_axis nx = {230, 780, NULL, 0, 0};
 		struct ow_plot_axis ny = {3.1, 42, NULL, 0, 0};
 
-		assert_int_equal(ow_plot_init_log(&q, cv, &box, &nx, &ny, 9.0,
-		                                  0.0, OW_PLOT_LOG_X |
-		                                           OW_PLOT_LOG_Y),
-		                 OW_OK);
+		assert_int_equal(
+		    ow_plot_init_log(&q, cv, &box, &nx, &ny, 9.0, 0.0,
+		                     OW_PLOT_LOG_X | OW_PLOT_LOG_Y),
+		    OW_OK);
 		assert_int_equal(q.xt.n, 5); /* 300, 400, ..., 700 */
 		assert_abs(q.xt.v[0], 300.0, 1e-9);
 		assert_abs(q.xt.v[4], 700.0, 1e-9);

@@ -40,8 +40,7 @@ static void write_report(const struct fx *f, const struct ow_report_options *o,
                          const char *path)
 {
 	struct ow_diag d = {{0}};
-	enum ow_status st =
-	    ow_report_write(&f->m.map, o, path, &d);
+	enum ow_status st = ow_report_write(&f->m.map, o, path, &d);
 
 	if (st != OW_OK)
 		fprintf(stderr, "%s\n", d.msg);
@@ -277,8 +276,7 @@ static void report_leaves_nothing_when_the_folder_is_missing(void **state)
 
 	options(&o);
 	snprintf(path, sizeof path, "%s/missing/report.pdf", f->dir);
-	assert_int_equal(ow_report_write(&f->m.map, &o, path, &d),
-	                 OW_EIO);
+	assert_int_equal(ow_report_write(&f->m.map, &o, path, &d), OW_EIO);
 	assert_non_null(strstr(d.msg, path));
 	snprintf(path, sizeof path, "%s/missing", f->dir);
 	assert_int_equal(access(path, F_OK), -1);
@@ -293,8 +291,7 @@ static void report_refuses_a_malformed_date(void **state)
 	options(&o);
 	o.date = "14/03/2026";
 	snprintf(path, sizeof path, "%s/dated.pdf", f->dir);
-	assert_int_equal(
-	    ow_report_write(&f->m.map, &o, path, NULL), OW_EARG);
+	assert_int_equal(ow_report_write(&f->m.map, &o, path, NULL), OW_EARG);
 	assert_int_equal(access(path, F_OK), -1);
 }
 
@@ -329,7 +326,8 @@ static void report_says_plainly_when_no_point_is_safe(void **state)
 	text = ow_test_pdf_text(path);
 	contains(text, "No safe operating point exists in the swept range.");
 	/* the binding limit first, with every point failing it */
-	snprintf(path, sizeof path, "peak melt temperature at most 27 °C %d 100 %%",
+	snprintf(path, sizeof path,
+	         "peak melt temperature at most 27 °C %d 100 %%",
 	         g.n_rpm * g.n_axis);
 	contains(text, path);
 	contains(text, "Hot melt and pressure can injure.");

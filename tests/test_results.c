@@ -70,10 +70,11 @@ static int readme_grid_columns(char tok[MAXTOK][48])
 		assert_non_null(q);
 		len = (size_t)(q - p - 1);
 		assert_true(len < 48 && n < MAXTOK);
-		if (len && strspn(p + 1, "abcdefghijklmnopqrstuvwxyz"
-					 "ABCDEFGHIJKLMNOPQRSTUVWXYZ_0123456789") ==
-				   len) { /* a column name, not "point --json"
-					     or the ";" of the status */
+		if (len &&
+		    strspn(p + 1, "abcdefghijklmnopqrstuvwxyz"
+		                  "ABCDEFGHIJKLMNOPQRSTUVWXYZ_0123456789") ==
+		        len) { /* a column name, not "point --json"
+			          or the ";" of the status */
 			memcpy(tok[n], p + 1, len);
 			tok[n++][len] = '\0';
 		}
@@ -221,7 +222,7 @@ static void grid_csv_has_the_readme_columns_and_units(void **st)
 			if (c)
 				strcat(status, ";");
 			assert_true(strlen(status) + strlen(names[c]) <
-				    sizeof status);
+			            sizeof status);
 			strcat(status, names[c]);
 		}
 		assert_string_equal(f[nf - 1], status);
@@ -229,7 +230,7 @@ static void grid_csv_has_the_readme_columns_and_units(void **st)
 		for (c = 0; c < OW_CK_COUNT; c++)
 			if (p->v.bits & (1u << c))
 				assert_non_null(strstr(
-					status, ow_check_key((enum ow_check)c)));
+				    status, ow_check_key((enum ow_check)c)));
 	}
 	assert_null(strtok_r(NULL, "\n", &save));
 	assert_int_equal(rows, g->solves);
@@ -257,8 +258,8 @@ static void outputs_round_trip_through_a_map_folder(void **st)
 	char *a = NULL, *b = NULL;
 	(void)st;
 	assert_non_null(mkdtemp(dir));
-	if (ow_mapdir_save(map.s, map.g, &map.centre, map.rows, map.n_rows,
-			   dir, &d) != OW_OK ||
+	if (ow_mapdir_save(map.s, map.g, &map.centre, map.rows, map.n_rows, dir,
+	                   &d) != OW_OK ||
 	    ow_mapdir_load(map.u, dir, &s2, &g2, NULL, &d) != OW_OK)
 		fail_msg("map folder: %s", d.msg);
 	assert_int_equal(ow_results_grid_csv(map.s, map.g, &a, NULL), OW_OK);
@@ -268,7 +269,7 @@ static void outputs_round_trip_through_a_map_folder(void **st)
 	free(b);
 	assert_int_equal(ow_window_extract(&s2, g2, &w2, NULL), OW_OK);
 	assert_int_equal(ow_results_window_json(map.s, map.g, map.w, &a, NULL),
-			 OW_OK);
+	                 OW_OK);
 	assert_int_equal(ow_results_window_json(&s2, g2, w2, &b, NULL), OW_OK);
 	assert_string_equal(b, a);
 	free(a);
@@ -281,9 +282,9 @@ static void outputs_round_trip_through_a_map_folder(void **st)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(figures_are_the_readme_list),
-		cmocka_unit_test(grid_csv_has_the_readme_columns_and_units),
-		cmocka_unit_test(outputs_round_trip_through_a_map_folder),
+	    cmocka_unit_test(figures_are_the_readme_list),
+	    cmocka_unit_test(grid_csv_has_the_readme_columns_and_units),
+	    cmocka_unit_test(outputs_round_trip_through_a_map_folder),
 	};
 
 	return cmocka_run_group_tests(tests, setup, teardown);

@@ -6,7 +6,10 @@
 #include "ow_advise.h"
 #include "ow_screw.h"
 
-static double deg(double rad) { return rad * 180.0 / OW_PI; }
+static double deg(double rad)
+{
+	return rad * 180.0 / OW_PI;
+}
 
 /* Square pitch: tan(phi) = L_s/(pi D) = 1/pi -> 17.6568 deg (Tadmor &
  * Gogos 2006, ch. 9 geometry; "standard" screws quoted at 17.66 deg as
@@ -36,7 +39,7 @@ static void screw_width_identity_holds_at_any_diameter(void **state)
 	for (D = 0.03; D <= 0.0635; D += 0.005) {
 		double phi = ow_screw_helix(&s, D);
 		assert_rel(ow_screw_width(&s, D),
-			   OW_PI * D * sin(phi) - s.flight_width_m, 1e-12);
+		           OW_PI * D * sin(phi) - s.flight_width_m, 1e-12);
 	}
 }
 
@@ -59,15 +62,13 @@ static void three_section_screw(struct ow_screw *s, double taper_D)
 	double D = 0.0635;
 	ow_test_square_pitch_screw(s, 0.0094);
 	s->n_sections = 3;
-	s->sections[0] = (struct ow_section){.type = OW_SEC_FEED,
-					     .length_m = 6 * D,
-					     .depth_m = 0.0094};
-	s->sections[1] = (struct ow_section){.type = OW_SEC_TAPER,
-					     .length_m = taper_D * D,
-					     .depth_m = 0.003175};
+	s->sections[0] = (struct ow_section){
+	    .type = OW_SEC_FEED, .length_m = 6 * D, .depth_m = 0.0094};
+	s->sections[1] = (struct ow_section){
+	    .type = OW_SEC_TAPER, .length_m = taper_D * D, .depth_m = 0.003175};
 	s->sections[2] = (struct ow_section){.type = OW_SEC_METERING,
-					     .length_m = (24 - taper_D) * D,
-					     .depth_m = 0.003175};
+	                                     .length_m = (24 - taper_D) * D,
+	                                     .depth_m = 0.003175};
 	assert_int_equal(ow_screw_prepare(s, NULL), OW_OK);
 }
 
@@ -83,7 +84,7 @@ static void screw_compression_ratios_and_taper_depth(void **state)
 	assert_abs(ow_screw_compression_depth(&s), 2.9606, 1e-4);
 	assert_abs(ow_screw_compression_area(&s), 2.6551, 1e-4);
 	assert_rel(ow_screw_depth(&s, 10 * D), 0.5 * (0.0094 + 0.003175),
-		   1e-12);
+	           1e-12);
 	assert_rel(ow_screw_depth(&s, 3 * D), 0.0094, 1e-12);
 	assert_rel(ow_screw_depth(&s, 20 * D), 0.003175, 1e-12);
 	assert_rel(ow_screw_ld(&s), 30.0, 1e-12);
@@ -171,14 +172,14 @@ static void advise_flags_abrupt_compression_and_wear(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(screw_helix_and_widths_follow_unwound_channel),
-		cmocka_unit_test(screw_width_identity_holds_at_any_diameter),
-		cmocka_unit_test(screw_down_channel_length_of_24_turns),
-		cmocka_unit_test(screw_compression_ratios_and_taper_depth),
-		cmocka_unit_test(screw_free_area_of_feed_channel),
-		cmocka_unit_test(screw_wear_raises_clearance_only_where_worn),
-		cmocka_unit_test(screw_rejects_impossible_geometry),
-		cmocka_unit_test(advise_flags_abrupt_compression_and_wear),
+	    cmocka_unit_test(screw_helix_and_widths_follow_unwound_channel),
+	    cmocka_unit_test(screw_width_identity_holds_at_any_diameter),
+	    cmocka_unit_test(screw_down_channel_length_of_24_turns),
+	    cmocka_unit_test(screw_compression_ratios_and_taper_depth),
+	    cmocka_unit_test(screw_free_area_of_feed_channel),
+	    cmocka_unit_test(screw_wear_raises_clearance_only_where_worn),
+	    cmocka_unit_test(screw_rejects_impossible_geometry),
+	    cmocka_unit_test(advise_flags_abrupt_compression_and_wear),
 	};
 	return cmocka_run_group_tests(tests, NULL, NULL);
 }

@@ -11,7 +11,7 @@
 
 #include "ow_solids.h"
 
-#define PI OW_PI
+#define PI  OW_PI
 #define DEG (PI / 180.0)
 
 /* 63.5 mm square pitch, e = 6.35 mm (land 0.1 D, common practice) */
@@ -35,7 +35,7 @@ static struct ow_material resin(double fb, double fs)
 }
 
 static void prepare(const struct ow_screw *sc, const struct ow_material *m,
-		    struct ow_solids *s)
+                    struct ow_solids *s)
 {
 	struct ow_solids_in in = {sc, 9.4e-3, 1.0, m};
 
@@ -45,11 +45,11 @@ static void prepare(const struct ow_screw *sc, const struct ow_material *m,
 /* Table rows: f_b, f_s, K, M, theta (deg), V_pl (m/s), G (kg/h).
  * Tadmor & Klein (1970) ch. 8 form of Darnell & Mol (1956), recomputed. */
 static const double table[][7] = {
-	{0.50, 0.00, 0.31831, 0.0, 72.3432, 0.05766, 148.1},
-	{0.50, 0.25, 0.58604, 0.45997, 36.247, 0.04428, 113.7},
-	{0.45, 0.25, 0.58604, 0.51108, 33.464, 0.04286, 110.1},
-	{0.30, 0.30, 0.64635, 0.94369, 4.699, 0.01303, 33.5},
-	{0.50, 0.50, 0.91528, 1.04959, -3.204, 0.0, 0.0},
+    {0.50, 0.00, 0.31831, 0.0, 72.3432, 0.05766, 148.1},
+    {0.50, 0.25, 0.58604, 0.45997, 36.247, 0.04428, 113.7},
+    {0.45, 0.25, 0.58604, 0.51108, 33.464, 0.04286, 110.1},
+    {0.30, 0.30, 0.64635, 0.94369, 4.699, 0.01303, 33.5},
+    {0.50, 0.50, 0.91528, 1.04959, -3.204, 0.0, 0.0},
 };
 
 static void conveying_angle_and_output_follow_darnell_mol_table(void **state)
@@ -69,14 +69,13 @@ static void conveying_angle_and_output_follow_darnell_mol_table(void **state)
 			assert_rel(s.m1, table[i][3], 2e-5);
 		else
 			assert_abs(s.m1, 0.0, 1e-15);
-		assert_int_equal(ow_solids_theta_free(&s, &theta, NULL),
-				 OW_OK);
+		assert_int_equal(ow_solids_theta_free(&s, &theta, NULL), OW_OK);
 		assert_abs(theta / DEG, table[i][4], 1e-3);
 		if (table[i][6] > 0.0) {
 			assert_rel(ow_solids_plug_speed(&s, theta), table[i][5],
-			     1e-3);
+			           1e-3);
 			assert_rel(ow_solids_mass_flow(&s, theta) * 3600.0,
-			     table[i][6], 1e-3);
+			           table[i][6], 1e-3);
 		} else { /* theta < 0: the plug does not convey */
 			assert_true(ow_solids_mass_flow(&s, theta) == 0.0);
 			assert_true(ow_solids_max_flow(&s) == 0.0);
@@ -100,7 +99,8 @@ static void frictionless_screw_gives_theta_ninety_minus_helix(void **state)
 	assert_int_equal(ow_solids_theta_free(&s, &theta, NULL), OW_OK);
 	assert_abs(theta, (PI / 2.0 - phi), 1e-12);
 	assert_abs(theta / DEG, 72.3432, 1e-4); /* recomputed */
-	assert_rel(ow_solids_plug_speed(&s, theta), vb * sin(phi) * cos(phi), 1e-12);
+	assert_rel(ow_solids_plug_speed(&s, theta), vb * sin(phi) * cos(phi),
+	           1e-12);
 	assert_rel(ow_solids_slip_speed(&s, theta), vb * sin(phi), 1e-12);
 }
 
@@ -140,7 +140,7 @@ static void pressure_rises_exponentially_below_free_angle(void **state)
 	assert_rel(exp(beta * zb), 8.04, 1e-3);
 	/* the angle equation with that rise returns the same angle */
 	assert_int_equal(ow_solids_theta(&s, beta * zb, zb, &back, NULL),
-			 OW_OK);
+	                 OW_OK);
 	assert_abs(back, theta, 1e-12);
 	assert_abs(ow_solids_beta(&s, theta0), 0.0, 1e-12);
 }
@@ -156,14 +156,14 @@ static void theta_for_inverts_the_mass_flow(void **state)
 	prepare(&sc, &m, &s);
 	for (g = 0.0; g < 0.04; g += 0.0037) { /* up to 144 kg/h */
 		assert_int_equal(ow_solids_theta_for(&s, g, &theta, NULL),
-				 OW_OK);
+		                 OW_OK);
 		assert_abs(ow_solids_mass_flow(&s, theta), g, 1e-12);
 	}
 	/* the table's 33.5 kg/h row at f_b = f_s = 0.3 reversed */
 	m = resin(0.3, 0.3);
 	prepare(&sc, &m, &s);
-	assert_int_equal(ow_solids_theta_for(&s, 33.475 / 3600.0, &theta,
-					     NULL), OW_OK);
+	assert_int_equal(ow_solids_theta_for(&s, 33.475 / 3600.0, &theta, NULL),
+	                 OW_OK);
 	assert_abs(theta / DEG, 4.699, 2e-3);
 }
 
@@ -194,7 +194,7 @@ static void feed_limit_flags_flows_above_zero_gradient(void **state)
 	assert_true(o.feed_limited);
 	assert_abs(o.theta_rad, PI / 2.0, 1e-15);
 	assert_int_equal(ow_solids_theta_for(&s, 1.0, &o.theta_rad, NULL),
-			 OW_ECOMPUTE);
+	                 OW_ECOMPUTE);
 }
 
 /* Slip power f_b P W_b V_slip; a plug at rest slips at the full V_b. */
@@ -212,10 +212,10 @@ static void barrel_friction_power_uses_slip_speed(void **state)
 	vpl = ow_solids_plug_speed(&s, theta);
 	vsz = vpl / sin(s.helix_rad);
 	vslip = sqrt(s.barrel_speed_m_s * s.barrel_speed_m_s + vsz * vsz -
-		     2.0 * s.barrel_speed_m_s * vsz * cos(s.helix_rad));
+	             2.0 * s.barrel_speed_m_s * vsz * cos(s.helix_rad));
 	assert_rel(ow_solids_slip_speed(&s, theta), vslip, 1e-12);
 	assert_rel(ow_solids_barrel_power(&s, theta, 1e6),
-	     0.5 * 1e6 * s.width_m * vslip, 1e-12);
+	           0.5 * 1e6 * s.width_m * vslip, 1e-12);
 	assert_rel(ow_solids_slip_speed(&s, 0.0), s.barrel_speed_m_s, 1e-15);
 }
 
@@ -244,17 +244,15 @@ static void bad_inputs_are_rejected_with_the_field_named(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(
-			conveying_angle_and_output_follow_darnell_mol_table),
-		cmocka_unit_test(
-			frictionless_screw_gives_theta_ninety_minus_helix),
-		cmocka_unit_test(free_area_matches_darnell_mol_geometry),
-		cmocka_unit_test(
-			pressure_rises_exponentially_below_free_angle),
-		cmocka_unit_test(theta_for_inverts_the_mass_flow),
-		cmocka_unit_test(feed_limit_flags_flows_above_zero_gradient),
-		cmocka_unit_test(barrel_friction_power_uses_slip_speed),
-		cmocka_unit_test(bad_inputs_are_rejected_with_the_field_named),
+	    cmocka_unit_test(
+	        conveying_angle_and_output_follow_darnell_mol_table),
+	    cmocka_unit_test(frictionless_screw_gives_theta_ninety_minus_helix),
+	    cmocka_unit_test(free_area_matches_darnell_mol_geometry),
+	    cmocka_unit_test(pressure_rises_exponentially_below_free_angle),
+	    cmocka_unit_test(theta_for_inverts_the_mass_flow),
+	    cmocka_unit_test(feed_limit_flags_flows_above_zero_gradient),
+	    cmocka_unit_test(barrel_friction_power_uses_slip_speed),
+	    cmocka_unit_test(bad_inputs_are_rejected_with_the_field_named),
 	};
 
 	return cmocka_run_group_tests(tests, NULL, NULL);

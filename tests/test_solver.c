@@ -15,7 +15,7 @@
 #include "ow_units.h"
 
 static struct ow_point solve(const struct ow_study *s, double rpm,
-			     const double *set_K)
+                             const double *set_K)
 {
 	return ow_test_solve(s, rpm, set_K);
 }
@@ -43,8 +43,8 @@ static void match_reproduces_newtonian_rod_die_operating_point(void **st)
 static void energy_closes_on_demo_and_melt_fed_line(void **st)
 {
 	const char *studies[] = {"demo/study-si.json",
-				 "fixtures/studies/melt-fed.json",
-				 "fixtures/studies/hdpe-barrier.json"};
+	                         "fixtures/studies/melt-fed.json",
+	                         "fixtures/studies/hdpe-barrier.json"};
 	double rpm[] = {30.0, 90.0};
 	size_t i, k;
 	(void)st;
@@ -85,7 +85,7 @@ static void default_resolution_is_converged_on_demo(void **st)
 			a = solve(s, rpm[k], set);
 			s->line.numerics.stations_per_turn *= 2;
 			s->line.numerics.depth_nodes =
-				2 * (s->line.numerics.depth_nodes - 1) + 1;
+			    2 * (s->line.numerics.depth_nodes - 1) + 1;
 			b = solve(s, rpm[k], set);
 			s->line.numerics = keep;
 			assert_abs(a.peak_K, b.peak_K, 0.5);
@@ -121,15 +121,16 @@ static void default_tolerances_match_a_tight_solve(void **st)
 			s->line.numerics.tol_scale = 1.0;
 			assert_rel(a.output_kg_s, b.output_kg_s, 1e-4);
 			assert_rel(a.discharge_pressure_Pa,
-				   b.discharge_pressure_Pa, 1e-4);
+			           b.discharge_pressure_Pa, 1e-4);
 			assert_rel(a.max_pressure_Pa, b.max_pressure_Pa, 1e-4);
 			assert_rel(a.power_W, b.power_W, 1e-4);
-			assert_abs(a.discharge_bulk_K, b.discharge_bulk_K, 0.01);
+			assert_abs(a.discharge_bulk_K, b.discharge_bulk_K,
+			           0.01);
 			assert_abs(a.peak_K, b.peak_K, 0.01);
 			assert_int_equal(a.zone_floating, b.zone_floating);
 			for (z = 0; z < s->line.n_zones; z++)
 				assert_abs(a.zone_control_K[z],
-					   b.zone_control_K[z], 0.01);
+				           b.zone_control_K[z], 0.01);
 		}
 	}
 	free(s);
@@ -199,7 +200,7 @@ static void worn_screw_gives_less_output_and_hotter_melt(void **st)
 /* Solve s at rpm with its own set-points and copy the profile into *rows
  * (malloc'd, the caller frees it). */
 static struct ow_point solve_profile(const struct ow_study *s, double rpm,
-				     struct ow_profile_row **rows, int *n)
+                                     struct ow_profile_row **rows, int *n)
 {
 	struct ow_solver *sv = NULL;
 	struct ow_point pt;
@@ -227,7 +228,7 @@ static struct ow_point solve_profile(const struct ow_study *s, double rpm,
 static void melt_pool_conveys_at_its_own_width(void **st)
 {
 	struct ow_study *s =
-		ow_test_study("tests/data/newtonian-plasticating.json");
+	    ow_test_study("tests/data/newtonian-plasticating.json");
 	const struct ow_screw *sc = &s->screw;
 	struct ow_profile_row *r;
 	int n, i, checked = 0;
@@ -246,8 +247,10 @@ static void melt_pool_conveys_at_its_own_width(void **st)
 			continue;
 		q = pt.output_kg_s * (1.0 - r[i].unmelt_frac) / 760.0;
 		g = 12.0 * mu *
-		    ((ow_melt_shape_fd(h) * vbz + ow_melt_shape_fd(1.0 / h) *
-		      vsz) * w * H / 2.0 - q) /
+		    ((ow_melt_shape_fd(h) * vbz +
+		      ow_melt_shape_fd(1.0 / h) * vsz) *
+		         w * H / 2.0 -
+		     q) /
 		    (ow_melt_shape_fp(h) * w * H * H * H);
 		dpdz = (r[i].pressure_Pa - r[i - 1].pressure_Pa) /
 		       (r[i].axial_m - r[i - 1].axial_m) * sin(phi);
@@ -267,7 +270,7 @@ static void melt_pool_conveys_at_its_own_width(void **st)
 static void pressure_peaks_where_taper_drag_equals_throughput(void **st)
 {
 	struct ow_study *s =
-		ow_test_study("tests/data/newtonian-plasticating.json");
+	    ow_test_study("tests/data/newtonian-plasticating.json");
 	const struct ow_screw *sc = &s->screw;
 	struct ow_profile_row *r;
 	int n, it;
@@ -297,7 +300,7 @@ static void pressure_peaks_where_taper_drag_equals_throughput(void **st)
 /* Drag capacity A = F_d V_bz W H/2 and pressure conductance B = F_p W H^3
  * / (12 mu) of a Newtonian channel (Tadmor & Klein 1970, ch. 7). */
 static void channel_ab(double vbz, double w, double h, double mu, double *a,
-		       double *b)
+                       double *b)
 {
 	*a = ow_melt_shape_fd(h / w) * vbz * w * h / 2.0;
 	*b = ow_melt_shape_fp(h / w) * w * h * h * h / (12.0 * mu);
@@ -327,8 +330,8 @@ static void barrier_channels_share_one_gradient(void **st)
 
 		if (f <= 0.0 || f >= 1.0)
 			continue;
-		channel_ab(vbz, W * (1.0 - share), 7.0e-3 - 5.5e-3 * f, mu,
-			   &a1, &b1);
+		channel_ab(vbz, W * (1.0 - share), 7.0e-3 - 5.5e-3 * f, mu, &a1,
+		           &b1);
 		channel_ab(vbz, W * share, 2.0e-3 + 2.0e-3 * f, mu, &a2, &b2);
 		g = (a1 + a2 - q) / (b1 + b2);
 		assert_true(a1 - b1 * g > 0.0 && a2 - b2 * g > 0.0);
@@ -376,7 +379,8 @@ static void negative_pressure_flags_a_partly_filled_channel(void **st)
  * zero anywhere. */
 static void barrier_screw_keeps_pace_with_single_flight(void **st)
 {
-	struct ow_study *a = ow_test_study("fixtures/studies/hdpe-barrier.json");
+	struct ow_study *a =
+	    ow_test_study("fixtures/studies/hdpe-barrier.json");
 	struct ow_study *b = ow_test_study("fixtures/studies/hdpe-sf.json");
 	double rpm[] = {40.0, 80.0};
 	int k;
@@ -407,11 +411,11 @@ static void plugging_is_read_in_the_transition(void **st)
 	(void)st;
 	assert_true(pa.max_sbr > 0.0 && pa.max_sbr < 1.0);
 	assert_true(pa.max_sbr_at_m > 12.0 * D &&
-		    pa.max_sbr_at_m <= 12.75 * D + D / 6.0); /* one station */
+	            pa.max_sbr_at_m <= 12.75 * D + D / 6.0); /* one station */
 	assert_true(pa.plug_ratio >= 1.0);
 	assert_true(pb.max_sbr > 0.0 && pb.max_sbr < 1.0);
 	assert_true(pb.max_sbr_at_m > 6.0 * D &&
-		    pb.max_sbr_at_m <= 14.0 * D + D / 6.0);
+	            pb.max_sbr_at_m <= 14.0 * D + D / 6.0);
 	assert_true(pb.plug_ratio > 0.0 && pb.plug_ratio < 1.0);
 	free(a);
 	free(b);
@@ -510,8 +514,9 @@ static void solver_is_repeatable_and_warm_start_agrees(void **st)
 	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
 	assert_int_equal(ow_solver_run(sv, 70.0, NULL, 0.0, &a, NULL), OW_OK);
 	assert_int_equal(ow_solver_run(sv, 70.0, NULL, 0.0, &b, NULL), OW_OK);
-	assert_int_equal(ow_solver_run(sv, 70.0, NULL, a.output_kg_s * 0.9,
-				       &c, NULL), OW_OK);
+	assert_int_equal(
+	    ow_solver_run(sv, 70.0, NULL, a.output_kg_s * 0.9, &c, NULL),
+	    OW_OK);
 	assert_memory_equal(&a, &b, sizeof a);
 	assert_rel(c.output_kg_s, a.output_kg_s, 1e-3);
 	ow_solver_destroy(sv);
@@ -534,17 +539,17 @@ static void start_from_neighbouring_speeds_agrees_with_cold(void **st)
 	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
 	assert_int_equal(ow_solver_run(sv, 40.0, NULL, 0.0, &p40, NULL), OW_OK);
 	assert_int_equal(ow_solver_run(sv, 42.5, NULL, 0.0, &p425, NULL),
-			 OW_OK);
+	                 OW_OK);
 	assert_int_equal(ow_solver_run(sv, 45.0, NULL, 0.0, &cold, NULL),
-			 OW_OK);
+	                 OW_OK);
 	assert_true(p425.match_slope < 0.0);
 	ow_sweep_predict(prev, 2, 45.0, &s0);
 	assert_int_equal(ow_solver_run_from(sv, 45.0, NULL, &s0, &warm, NULL),
-			 OW_OK);
+	                 OW_OK);
 	assert_false(warm.flags & OW_FLAG_NOT_CONVERGED);
 	assert_rel(warm.output_kg_s, cold.output_kg_s, 3e-5);
 	assert_rel(warm.discharge_pressure_Pa, cold.discharge_pressure_Pa,
-		   3e-5);
+	           3e-5);
 	assert_abs(warm.discharge_bulk_K, cold.discharge_bulk_K, 0.01);
 	assert_true(warm.n_iter < cold.n_iter);
 	ow_solver_destroy(sv);
@@ -573,33 +578,30 @@ static void start_with_floating_zones_agrees_with_cold(void **st)
 	for (z = 0; z < s->line.n_zones; z++)
 		set[z] = s->line.zones[z].set_K;
 	assert_int_equal(ow_solver_create(s, &sv, NULL), OW_OK);
-	assert_int_equal(ow_solver_run(sv, 85.0, set, 0.0, &p85, NULL),
-			 OW_OK);
-	assert_int_equal(ow_solver_run(sv, 87.5, set, 0.0, &p875, NULL),
-			 OW_OK);
-	assert_int_equal(ow_solver_run(sv, 90.0, set, 0.0, &cold, NULL),
-			 OW_OK);
+	assert_int_equal(ow_solver_run(sv, 85.0, set, 0.0, &p85, NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, 87.5, set, 0.0, &p875, NULL), OW_OK);
+	assert_int_equal(ow_solver_run(sv, 90.0, set, 0.0, &cold, NULL), OW_OK);
 	assert_true(cold.zone_floating != 0);
 	assert_true(cold.zone_floating != (1u << s->line.n_zones) - 1u);
 	ow_sweep_predict(prev, 2, 90.0, &s0);
 	for (z = 0; z < s->line.n_zones; z++)
 		assert_int_equal(s0.zone_side[z] != 0,
-				 !!(p875.zone_floating & (1u << z)));
+		                 !!(p875.zone_floating & (1u << z)));
 	assert_int_equal(ow_solver_run_from(sv, 90.0, set, &s0, &warm, NULL),
-			 OW_OK);
+	                 OW_OK);
 	assert_int_equal(warm.zone_floating, cold.zone_floating);
 	assert_rel(warm.output_kg_s, cold.output_kg_s, 3e-5);
 	assert_abs(warm.discharge_bulk_K, cold.discharge_bulk_K, 0.01);
 	for (z = 0; z < s->line.n_zones; z++)
 		assert_abs(warm.zone_control_K[z], cold.zone_control_K[z],
-			   1e-2);
+		           1e-2);
 	for (z = 0; z < s->line.n_zones; z++) {
 		s0.zone_side[z] = -1;
 		s0.zone_K[z] = set[z] + 5.0;
 		s0.zone_slope_W_K[z] = 50.0;
 	}
 	assert_int_equal(ow_solver_run_from(sv, 90.0, set, &s0, &lie, NULL),
-			 OW_OK);
+	                 OW_OK);
 	assert_int_equal(lie.zone_floating, cold.zone_floating);
 	assert_rel(lie.output_kg_s, cold.output_kg_s, 3e-5);
 	assert_abs(lie.discharge_bulk_K, cold.discharge_bulk_K, 0.01);
@@ -775,13 +777,14 @@ static void zone_out_of_cooling_floats_to_the_heat_it_can_remove(void **st)
 
 		if (!(pt.zone_floating & (1u << i))) {
 			assert_rel(pt.zone_control_K[i], pt.set_K[i], 1e-12);
-			assert_abs(pt.zone_heat_W[i], pt.zone_demand_W[i], 1e-6);
+			assert_abs(pt.zone_heat_W[i], pt.zone_demand_W[i],
+			           1e-6);
 			continue;
 		}
 		floating++;
 		assert_true(pt.zone_demand_W[i] < -z->cooling_W);
 		assert_abs(pt.zone_heat_W[i], -z->cooling_W,
-			   1e-5 * z->cooling_W + 1e-2);
+		           1e-5 * z->cooling_W + 1e-2);
 		assert_true(pt.zone_control_K[i] > pt.set_K[i] + 1.0);
 	}
 	assert_true(floating >= 1);
@@ -836,8 +839,8 @@ static void heat_transfer_factor_scales_the_wall(void **st)
 
 /* The largest second difference of the output over n speeds h apart from
  * r0, relative to the output. */
-static double output_d2(const struct ow_study *s, double r0, double h,
-			int n, unsigned *floating)
+static double output_d2(const struct ow_study *s, double r0, double h, int n,
+                        unsigned *floating)
 {
 	double g[16], worst = 0.0;
 	int i;
@@ -849,8 +852,8 @@ static double output_d2(const struct ow_study *s, double r0, double h,
 		floating[i] = pt.zone_floating;
 	}
 	for (i = 1; i + 1 < n; i++)
-		worst = fmax(worst, fabs(g[i - 1] - 2.0 * g[i] + g[i + 1]) /
-					    g[i]);
+		worst =
+		    fmax(worst, fabs(g[i - 1] - 2.0 * g[i] + g[i + 1]) / g[i]);
 	return worst;
 }
 
@@ -891,7 +894,7 @@ static void output_is_smooth_where_a_zone_reaches_its_power(void **st)
 		struct ow_point pt = solve(s, hi + 0.3, NULL);
 
 		assert_abs(pt.zone_heat_W[2], -s->line.zones[2].cooling_W,
-			   1e-5 * s->line.zones[2].cooling_W + 1e-2);
+		           1e-5 * s->line.zones[2].cooling_W + 1e-2);
 	}
 	free(s);
 }
@@ -919,7 +922,7 @@ static void negligible_leftover_bed_adds_no_step(void **st)
 
 		assert_int_equal(ow_solver_create(s, &sv, &d), OW_OK);
 		assert_int_equal(ow_solver_run(sv, lo, NULL, 0.0, &pt, &d),
-				 OW_OK);
+		                 OW_OK);
 		ow_solver_profile(sv, &n);
 		dx = ow_screw_length(&s->screw) / (n - 1);
 		ow_solver_destroy(sv);
@@ -982,14 +985,18 @@ struct line_cf {
 
 static void closed_form(const struct line_cf *l, double *q, double *tip)
 {
-	double phi = atan(l->Ls / (OW_PI * l->D)), vb = OW_PI * l->D * l->rpm / 60.0;
+	double phi = atan(l->Ls / (OW_PI * l->D)),
+	       vb = OW_PI * l->D * l->rpm / 60.0;
 	double vbz = vb * cos(phi), vbx = vb * sin(phi);
-	double W = l->Ls * cos(phi) / l->p - l->e, H = l->H, d3 = pow(l->delta, 3.0);
+	double W = l->Ls * cos(phi) / l->p - l->e, H = l->H,
+	       d3 = pow(l->delta, 3.0);
 	double lb = OW_PI * l->D * cos(phi) / l->p, Z = l->L / sin(phi);
-	double A = shape_fd(H / W) * vbz * W * H / 2.0 - lb * vbx * l->delta / 2.0 -
-		   lb * d3 * W * vbx / (2.0 * l->e * H * H);
+	double A = shape_fd(H / W) * vbz * W * H / 2.0 -
+	           lb * vbx * l->delta / 2.0 -
+	           lb * d3 * W * vbx / (2.0 * l->e * H * H);
 	double B = (shape_fp(H / W) * W * H * H * H / (12.0 * l->mu) +
-		    lb * lb * d3 / (12.0 * l->mu * l->e)) / Z;
+	            lb * lb * d3 / (12.0 * l->mu * l->e)) /
+	           Z;
 	double K = OW_PI * pow(l->R, 4.0) / (8.0 * l->mu * l->Ld);
 	double die = l->p * (A - B * l->screen) / (K + l->p * B);
 
@@ -1000,8 +1007,8 @@ static void closed_form(const struct line_cf *l, double *q, double *tip)
 /* The rod study's line (tests/data/newtonian-rod.json) in those terms. */
 static struct line_cf rod_line(void)
 {
-	struct line_cf l = {0.0635, 0.0635, 0.003175, 8 * 0.0635, 0.00635,
-			    0.0, 1000.0, 0.0025, 0.020, 60.0, 0.0, 1};
+	struct line_cf l = {0.0635, 0.0635, 0.003175, 8 * 0.0635, 0.00635, 0.0,
+	                    1000.0, 0.0025, 0.020,    60.0,       0.0,     1};
 	return l;
 }
 
@@ -1107,15 +1114,14 @@ static void two_flight_leakage_matches_the_closed_form(void **st)
 		assert_abs(pt.energy_residual, 0.0, 1e-6);
 		/* the hold-up fills every channel: melt over the channel
 		 * volume of p flights */
-		assert_rel(pt.residence_s,
-			   760.0 * channel_area(0.0635, 0.0635, 0.003175,
-						0.00635, p) *
-				   8 * 0.0635 / pt.output_kg_s,
-			   1e-6);
+		assert_rel(
+		    pt.residence_s,
+		    760.0 * channel_area(0.0635, 0.0635, 0.003175, 0.00635, p) *
+		        8 * 0.0635 / pt.output_kg_s,
+		    1e-6);
 	}
 	free(s);
 }
-
 
 /* Mean residence time = hold-up mass / throughput. Melt-fed rod line:
  * the hold-up is the melt (760 kg/m3) filling the 8 D channel. */
@@ -1123,8 +1129,8 @@ static void residence_time_is_melt_hold_up_over_throughput(void **st)
 {
 	struct ow_study *s = ow_test_study("tests/data/newtonian-rod.json");
 	struct ow_point pt = solve(s, 60.0, NULL);
-	double vol = channel_area(0.0635, 0.0635, 0.003175, 0.00635, 1) *
-		     8 * 0.0635;
+	double vol =
+	    channel_area(0.0635, 0.0635, 0.003175, 0.00635, 1) * 8 * 0.0635;
 	(void)st;
 	assert_rel(pt.residence_s, 760.0 * vol / pt.output_kg_s, 1e-6);
 	free(s);
@@ -1157,53 +1163,54 @@ static void residence_time_holds_the_feed_at_bulk_density(void **st)
 	dx = 0.0635 / s->line.numerics.stations_per_turn;
 	for (vol = 0.0, x = 0.0; x < a.melt_start_m - 1e-9; x += dx)
 		vol += channel_area(0.0635, 0.0635,
-				    ow_screw_depth(&s->screw, x + 0.5 * dx),
-				    0.00635, 1) * dx;
-	assert_rel(a.residence_s - b.residence_s,
-		   160.0 * vol / a.output_kg_s, 1e-6);
+		                    ow_screw_depth(&s->screw, x + 0.5 * dx),
+		                    0.00635, 1) *
+		       dx;
+	assert_rel(a.residence_s - b.residence_s, 160.0 * vol / a.output_kg_s,
+	           1e-6);
 	free(s);
 }
 
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(match_reproduces_newtonian_rod_die_operating_point),
-		cmocka_unit_test(energy_closes_on_demo_and_melt_fed_line),
-		cmocka_unit_test(default_resolution_is_converged_on_demo),
-		cmocka_unit_test(default_tolerances_match_a_tight_solve),
-		cmocka_unit_test(output_and_peak_rise_with_speed),
-		cmocka_unit_test(deeper_metering_gives_more_output_and_cooler_melt),
-		cmocka_unit_test(worn_screw_gives_less_output_and_hotter_melt),
-		cmocka_unit_test(melt_pool_conveys_at_its_own_width),
-		cmocka_unit_test(pressure_peaks_where_taper_drag_equals_throughput),
-		cmocka_unit_test(barrier_channels_share_one_gradient),
-		cmocka_unit_test(negative_pressure_flags_a_partly_filled_channel),
-		cmocka_unit_test(barrier_screw_keeps_pace_with_single_flight),
-		cmocka_unit_test(plugging_is_read_in_the_transition),
-		cmocka_unit_test(delay_zone_follows_speed_wall_and_feed),
-		cmocka_unit_test(bed_reaching_the_transition_whole_fires_max_sbr),
-		cmocka_unit_test(abrupt_compression_plugs_and_gradual_does_not),
-		cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
-		cmocka_unit_test(start_from_neighbouring_speeds_agrees_with_cold),
-		cmocka_unit_test(start_with_floating_zones_agrees_with_cold),
-		cmocka_unit_test(sweep_continuation_matches_tight_cold_solves),
-		cmocka_unit_test(
-		    prediction_is_exact_for_specific_output_linear_in_speed),
-		cmocka_unit_test(cold_barrel_returns_a_flagged_point),
-		cmocka_unit_test(feed_capacity_follows_darnell_mol),
-		cmocka_unit_test(
-			mixer_pressure_follows_the_land_flow_closed_form),
-		cmocka_unit_test(
-			zone_out_of_cooling_floats_to_the_heat_it_can_remove),
-		cmocka_unit_test(heat_transfer_factor_scales_the_wall),
-		cmocka_unit_test(
-			output_is_smooth_where_a_zone_reaches_its_power),
-		cmocka_unit_test(negligible_leftover_bed_adds_no_step),
-		cmocka_unit_test(screen_pack_moves_output_along_the_die_characteristic),
-		cmocka_unit_test(max_pressure_is_the_largest_on_the_profile),
-		cmocka_unit_test(two_flight_leakage_matches_the_closed_form),
-		cmocka_unit_test(residence_time_is_melt_hold_up_over_throughput),
-		cmocka_unit_test(residence_time_holds_the_feed_at_bulk_density),
+	    cmocka_unit_test(
+	        match_reproduces_newtonian_rod_die_operating_point),
+	    cmocka_unit_test(energy_closes_on_demo_and_melt_fed_line),
+	    cmocka_unit_test(default_resolution_is_converged_on_demo),
+	    cmocka_unit_test(default_tolerances_match_a_tight_solve),
+	    cmocka_unit_test(output_and_peak_rise_with_speed),
+	    cmocka_unit_test(deeper_metering_gives_more_output_and_cooler_melt),
+	    cmocka_unit_test(worn_screw_gives_less_output_and_hotter_melt),
+	    cmocka_unit_test(melt_pool_conveys_at_its_own_width),
+	    cmocka_unit_test(pressure_peaks_where_taper_drag_equals_throughput),
+	    cmocka_unit_test(barrier_channels_share_one_gradient),
+	    cmocka_unit_test(negative_pressure_flags_a_partly_filled_channel),
+	    cmocka_unit_test(barrier_screw_keeps_pace_with_single_flight),
+	    cmocka_unit_test(plugging_is_read_in_the_transition),
+	    cmocka_unit_test(delay_zone_follows_speed_wall_and_feed),
+	    cmocka_unit_test(bed_reaching_the_transition_whole_fires_max_sbr),
+	    cmocka_unit_test(abrupt_compression_plugs_and_gradual_does_not),
+	    cmocka_unit_test(solver_is_repeatable_and_warm_start_agrees),
+	    cmocka_unit_test(start_from_neighbouring_speeds_agrees_with_cold),
+	    cmocka_unit_test(start_with_floating_zones_agrees_with_cold),
+	    cmocka_unit_test(sweep_continuation_matches_tight_cold_solves),
+	    cmocka_unit_test(
+	        prediction_is_exact_for_specific_output_linear_in_speed),
+	    cmocka_unit_test(cold_barrel_returns_a_flagged_point),
+	    cmocka_unit_test(feed_capacity_follows_darnell_mol),
+	    cmocka_unit_test(mixer_pressure_follows_the_land_flow_closed_form),
+	    cmocka_unit_test(
+	        zone_out_of_cooling_floats_to_the_heat_it_can_remove),
+	    cmocka_unit_test(heat_transfer_factor_scales_the_wall),
+	    cmocka_unit_test(output_is_smooth_where_a_zone_reaches_its_power),
+	    cmocka_unit_test(negligible_leftover_bed_adds_no_step),
+	    cmocka_unit_test(
+	        screen_pack_moves_output_along_the_die_characteristic),
+	    cmocka_unit_test(max_pressure_is_the_largest_on_the_profile),
+	    cmocka_unit_test(two_flight_leakage_matches_the_closed_form),
+	    cmocka_unit_test(residence_time_is_melt_hold_up_over_throughput),
+	    cmocka_unit_test(residence_time_holds_the_feed_at_bulk_density),
 	};
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
 	                              ow_test_units_teardown);

@@ -22,7 +22,7 @@ struct run {
 };
 
 static void run(const struct ow_study *s, int nr, int na, int samples,
-		struct run *x)
+                struct run *x)
 {
 	struct ow_sweep_config sc;
 	struct ow_spread_config pc;
@@ -40,7 +40,7 @@ static void run(const struct ow_study *s, int nr, int na, int samples,
 	if (ow_spread_run(s, x->g, &pc, &x->r, &d) != OW_OK)
 		fail_msg("%s", d.msg);
 	assert_int_equal(ow_spread_robust_grid(x->g, x->r, &x->robust, &d),
-			 OW_OK);
+	                 OW_OK);
 	assert_int_equal(ow_window_extract(s, x->robust, &x->rw, &d), OW_OK);
 	ow_spread_clip_window(x->rw, x->w);
 }
@@ -73,13 +73,14 @@ static void newtonian_share_matches_the_closed_form_probability(void **st)
 	assert_int_equal(x.r->samples, 40);
 	for (ia = 0; ia < x.g->n_axis; ia++)
 		for (ir = 0; ir < x.g->n_rpm; ir++) {
-			const struct ow_grid_point *gp = ow_grid_at(x.g, ir, ia);
+			const struct ow_grid_point *gp =
+			    ow_grid_at(x.g, ir, ia);
 			double p_head = 1.8615e7 * gp->rpm / 60.0;
 			double p = (25e6 / p_head - 0.8) / 0.4;
 
 			p = p < 0.0 ? 0.0 : (p > 1.0 ? 1.0 : p);
 			assert_abs(x.r->pts[ia * x.g->n_rpm + ir].share, p,
-				   1.0 / 40.0 + 1e-9);
+			           1.0 / 40.0 + 1e-9);
 		}
 	run_free(&x);
 	free(s);
@@ -87,7 +88,7 @@ static void newtonian_share_matches_the_closed_form_probability(void **st)
 
 /* Set every input of the study's spread to width scale * its own. */
 static void scale_spread(struct ow_study *s, const struct ow_spread *base,
-			 double scale)
+                         double scale)
 {
 	int i;
 
@@ -105,21 +106,22 @@ static void scale_spread(struct ow_study *s, const struct ow_spread *base,
 }
 
 static void assert_inside(const struct ow_window *in,
-			  const struct ow_window *out)
+                          const struct ow_window *out)
 {
 	if (in->empty)
 		return;
 	assert_false(out->empty);
 	assert_true(in->rpm_min >= out->rpm_min && in->rpm_max <= out->rpm_max);
 	assert_true(in->set_min_K >= out->set_min_K &&
-		    in->set_max_K <= out->set_max_K);
+	            in->set_max_K <= out->set_max_K);
 	assert_true(in->safe_fraction <= out->safe_fraction);
 }
 
 static double area(const struct ow_window *w)
 {
-	return w->empty ? 0.0
-			: (w->rpm_max - w->rpm_min) * (w->set_max_K - w->set_min_K);
+	return w->empty
+	           ? 0.0
+	           : (w->rpm_max - w->rpm_min) * (w->set_max_K - w->set_min_K);
 }
 
 /* Every point safe on robust grid a is safe on b. */
@@ -142,9 +144,8 @@ static void assert_nested(const struct ow_grid *a, const struct ow_grid *b)
  * the melt-fed line and the single-flight HDPE line. */
 static void robust_window_shrinks_as_the_spread_widens(void **st)
 {
-	static const char *const studies[] = {
-		"fixtures/studies/melt-fed.json",
-		"fixtures/studies/hdpe-sf.json"};
+	static const char *const studies[] = {"fixtures/studies/melt-fed.json",
+	                                      "fixtures/studies/hdpe-sf.json"};
 	static const double widths[] = {0.0, 0.5, 1.0, 2.0};
 	struct ow_units *u = NULL;
 	size_t f, k;
@@ -157,13 +158,13 @@ static void robust_window_shrinks_as_the_spread_widens(void **st)
 		struct ow_spread base;
 		struct run prev = {0};
 
-		assert_int_equal(
-			ow_config_spread_text(u,
-					      "{\"viscosity_scale\": {\"plus_minus\": "
-					      "\"10 %\"}, \"melting_point\": "
-					      "{\"plus_minus\": \"3 K\"}}",
-					      "test", s, &d),
-			OW_OK);
+		assert_int_equal(ow_config_spread_text(
+		                     u,
+		                     "{\"viscosity_scale\": {\"plus_minus\": "
+		                     "\"10 %\"}, \"melting_point\": "
+		                     "{\"plus_minus\": \"3 K\"}}",
+		                     "test", s, &d),
+		                 OW_OK);
 		base = s->spread;
 		for (k = 0; k < sizeof widths / sizeof *widths; k++) {
 			struct run x = {0};
@@ -174,11 +175,11 @@ static void robust_window_shrinks_as_the_spread_widens(void **st)
 			if (k == 0) {
 				assert_int_equal(x.rw->empty, x.w->empty);
 				assert_true(x.rw->rpm_min == x.w->rpm_min &&
-					    x.rw->rpm_max == x.w->rpm_max &&
-					    x.rw->set_min_K == x.w->set_min_K &&
-					    x.rw->set_max_K == x.w->set_max_K &&
-					    x.rw->safe_fraction ==
-						    x.w->safe_fraction);
+				            x.rw->rpm_max == x.w->rpm_max &&
+				            x.rw->set_min_K == x.w->set_min_K &&
+				            x.rw->set_max_K == x.w->set_max_K &&
+				            x.rw->safe_fraction ==
+				                x.w->safe_fraction);
 				assert_int_equal(x.r->solves, 0);
 			} else {
 				assert_nested(x.robust, prev.robust);
@@ -199,7 +200,7 @@ static void same_seed_gives_the_same_files_for_any_jobs(void **st)
 {
 	static const char *const files[] = {"grid.csv", "window.json"};
 	const char *spec = "--spread 'viscosity_scale=0.8..1.2,"
-			   "feed_temperature=+-5 K' --samples 6 --grid 5x3";
+	                   "feed_temperature=+-5 K' --samples 6 --grid 5x3";
 	char args[512], a[256], b[256];
 	struct cli_result r;
 	size_t i;
@@ -207,9 +208,9 @@ static void same_seed_gives_the_same_files_for_any_jobs(void **st)
 	(void)st;
 	for (j = 1; j <= 3; j++) {
 		snprintf(args, sizeof args,
-			 "map tests/data/map-fast.json -o %s/spread-%d --quiet "
-			 "--jobs %d --seed %d %s",
-			 OW_TEST_OUT, j, j == 3 ? 1 : j, j == 3 ? 99 : 5, spec);
+		         "map tests/data/map-fast.json -o %s/spread-%d --quiet "
+		         "--jobs %d --seed %d %s",
+		         OW_TEST_OUT, j, j == 3 ? 1 : j, j == 3 ? 99 : 5, spec);
 		cli_run(args, &r);
 		if (r.code)
 			fprintf(stderr, "%s\n", r.err);
@@ -244,10 +245,10 @@ static void same_seed_gives_the_same_files_for_any_jobs(void **st)
 static void spread_outputs_follow_the_contract(void **st)
 {
 	static const char *const keys[] = {
-		"empty", "rpm_min", "rpm_max", "set_min_C", "set_max_C",
-		"axis_min", "axis_max", "centre", "output_kg_h_min",
-		"output_kg_h_max", "safe_fraction", "zones", "binding",
-		"boundaries"};
+	    "empty",           "rpm_min",         "rpm_max",       "set_min_C",
+	    "set_max_C",       "axis_min",        "axis_max",      "centre",
+	    "output_kg_h_min", "output_kg_h_max", "safe_fraction", "zones",
+	    "binding",         "boundaries"};
 	char path[256], *csv, *line;
 	const char *c0;
 	cJSON *w, *rw, *sp;
@@ -276,14 +277,13 @@ static void spread_outputs_follow_the_contract(void **st)
 	line = strchr(csv, '\n');
 	assert_non_null(line);
 	*line = '\0';
-	for (i = 0, c0 = csv; c0; i++, c0 = strchr(c0, ',') ? strchr(c0, ',') + 1
-							: NULL)
+	for (i = 0, c0 = csv; c0;
+	     i++, c0 = strchr(c0, ',') ? strchr(c0, ',') + 1 : NULL)
 		if (!strncmp(c0, "safe_share", 10) &&
 		    (c0[10] == ',' || c0[10] == '\0'))
 			col = i;
 	assert_true(col >= 0);
-	for (; line && line[1];
-	     line = strchr(line + 1, '\n')) {
+	for (; line && line[1]; line = strchr(line + 1, '\n')) {
 		const char *c = line + 1;
 		double v;
 
@@ -296,7 +296,7 @@ static void spread_outputs_follow_the_contract(void **st)
 	assert_int_equal(rows, 15); /* 5 x 3 grid */
 	free(csv);
 	snprintf(path, sizeof path, "%s/spread-1/map-safe-share.png",
-		 OW_TEST_OUT);
+	         OW_TEST_OUT);
 	csv = cli_slurp(path);
 	assert_non_null(csv);
 	free(csv);
@@ -321,7 +321,7 @@ static void report_redraws_the_spread_from_the_folder(void **st)
 	assert_non_null(after);
 	assert_string_equal(before, after);
 	snprintf(path, sizeof path, "%s/spread-2/map-safe-share.png",
-		 OW_TEST_OUT);
+	         OW_TEST_OUT);
 	png = cli_slurp(path);
 	assert_non_null(png);
 	free(png);
@@ -335,16 +335,15 @@ static void bad_spread_block_names_file_and_path(void **st)
 	static const struct {
 		const char *json, *want;
 	} cases[] = {
-		{"{\"viscosity_scale\": {\"from\": 1.2, \"to\": 0.8}}",
-		 "test: spread.viscosity_scale: to: expected >= from"},
-		{"{\"melting_point\": {\"plus_minus\": \"3 K\", \"sd\": "
-		 "\"1 K\"}}",
-		 "test: spread.melting_point: expected one of"},
-		{"{\"clearance\": {\"from\": \"0 mm\", \"to\": \"9 mm\"}}",
-		 "test: spread.clearance: at its upper end"},
-		{"{\"viscosity\": {\"plus_minus\": 0.1}}",
-		 "test: spread"},
-		{"{\"samples\": 1}", "test: spread.samples"},
+	    {"{\"viscosity_scale\": {\"from\": 1.2, \"to\": 0.8}}",
+	     "test: spread.viscosity_scale: to: expected >= from"},
+	    {"{\"melting_point\": {\"plus_minus\": \"3 K\", \"sd\": "
+	     "\"1 K\"}}",
+	     "test: spread.melting_point: expected one of"},
+	    {"{\"clearance\": {\"from\": \"0 mm\", \"to\": \"9 mm\"}}",
+	     "test: spread.clearance: at its upper end"},
+	    {"{\"viscosity\": {\"plus_minus\": 0.1}}", "test: spread"},
+	    {"{\"samples\": 1}", "test: spread.samples"},
 	};
 	struct ow_units *u = NULL;
 	struct ow_study *s = ow_test_study("fixtures/studies/hdpe-sf.json");
@@ -355,9 +354,9 @@ static void bad_spread_block_names_file_and_path(void **st)
 	for (i = 0; i < sizeof cases / sizeof *cases; i++) {
 		struct ow_diag d = {{0}};
 
-		assert_int_equal(ow_config_spread_text(u, cases[i].json, "test",
-						       s, &d),
-				 OW_EINPUT);
+		assert_int_equal(
+		    ow_config_spread_text(u, cases[i].json, "test", s, &d),
+		    OW_EINPUT);
 		if (!strstr(d.msg, cases[i].want))
 			fail_msg("'%s' lacks '%s'", d.msg, cases[i].want);
 	}
@@ -405,16 +404,16 @@ static void calibrated_factors_vary_within_their_standard_errors(void **st)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(
-			newtonian_share_matches_the_closed_form_probability),
-		cmocka_unit_test(robust_window_shrinks_as_the_spread_widens),
-		cmocka_unit_test(same_seed_gives_the_same_files_for_any_jobs),
-		cmocka_unit_test(spread_outputs_follow_the_contract),
-		cmocka_unit_test(report_redraws_the_spread_from_the_folder),
-		cmocka_unit_test(bad_spread_block_names_file_and_path),
-		cmocka_unit_test(
-			calibrated_factors_vary_within_their_standard_errors),
+	    cmocka_unit_test(
+	        newtonian_share_matches_the_closed_form_probability),
+	    cmocka_unit_test(robust_window_shrinks_as_the_spread_widens),
+	    cmocka_unit_test(same_seed_gives_the_same_files_for_any_jobs),
+	    cmocka_unit_test(spread_outputs_follow_the_contract),
+	    cmocka_unit_test(report_redraws_the_spread_from_the_folder),
+	    cmocka_unit_test(bad_spread_block_names_file_and_path),
+	    cmocka_unit_test(
+	        calibrated_factors_vary_within_their_standard_errors),
 	};
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
-				      ow_test_units_teardown);
+	                              ow_test_units_teardown);
 }

@@ -17,7 +17,7 @@
 #define STUDY "tests/data/map-fast.json"
 
 static struct ow_grid *sweep(const struct ow_study *s, int nr, int na,
-			     int refine, int jobs)
+                             int refine, int jobs)
 {
 	struct ow_sweep_config c;
 	struct ow_grid *g = NULL;
@@ -57,9 +57,9 @@ static void lattice_is_the_readme_sweep(void **st)
 			if (p->solved == 1) {
 				assert_abs(p->pt.rpm, p->rpm, 1e-9);
 				assert_abs(p->pt.set_K[0], 473.15 + p->axis,
-					   1e-9);
+				           1e-9);
 				assert_abs(p->pt.set_K[1], 473.15 + p->axis,
-					   1e-9);
+				           1e-9);
 			}
 		}
 	ow_grid_destroy(g);
@@ -123,22 +123,22 @@ static void refine_solves_the_cells_the_window_edge_crosses(void **st)
 	assert_int_equal(g->solves, n);
 	for (ia = 0; ia + 2 < g->n_axis; ia += 2)
 		for (ir = 0; ir + 2 < g->n_rpm; ir += 2) {
-			int a = safe(g, ir, ia), mixed =
-				safe(g, ir + 2, ia) != a ||
-				safe(g, ir, ia + 2) != a ||
-				safe(g, ir + 2, ia + 2) != a;
+			int a = safe(g, ir, ia),
+			    mixed = safe(g, ir + 2, ia) != a ||
+			            safe(g, ir, ia + 2) != a ||
+			            safe(g, ir + 2, ia + 2) != a;
 			int i, j;
 
 			for (j = 0; j <= 2; j++)
 				for (i = 0; i <= 2; i++) {
 					const struct ow_grid_point *p =
-						ow_grid_at(g, ir + i, ia + j);
+					    ow_grid_at(g, ir + i, ia + j);
 
 					if (mixed)
 						assert_int_equal(p->solved, 1);
 					else if (p->solved != 1)
-						assert_int_equal(
-							p->v.bits == 0, a);
+						assert_int_equal(p->v.bits == 0,
+						                 a);
 				}
 			refined += mixed;
 			skipped += !mixed;
@@ -210,7 +210,7 @@ static void any_thread_count_gives_the_same_grid(void **st)
 			assert_int_equal(a->pt.flags, b->pt.flags);
 			for (i = 0; i < ow_results_n_figures(); i++)
 				same_double(ow_results_figure(s, &b->pt, i),
-					    ow_results_figure(s, &a->pt, i));
+				            ow_results_figure(s, &a->pt, i));
 			for (i = 0; i < OW_CK_LIMITS; i++)
 				same_double(b->v.margin[i], a->v.margin[i]);
 		}
@@ -243,12 +243,12 @@ static void a_point_the_solver_refuses_is_marked(void **st)
 				continue;
 			if (refused) {
 				assert_true(p->pt.flags &
-					    OW_FLAG_NOT_CONVERGED);
+				            OW_FLAG_NOT_CONVERGED);
 				assert_true(p->v.bits & (1u << OW_CK_NOCONV));
 				bad++;
 			} else {
 				assert_false(p->pt.flags &
-					     OW_FLAG_NOT_CONVERGED);
+				             OW_FLAG_NOT_CONVERGED);
 				assert_true(p->pt.output_kg_s > 0.0);
 				good++;
 			}
@@ -262,14 +262,14 @@ static void a_point_the_solver_refuses_is_marked(void **st)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(lattice_is_the_readme_sweep),
-		cmocka_unit_test(bad_grids_are_refused),
-		cmocka_unit_test(refine_solves_the_cells_the_window_edge_crosses),
-		cmocka_unit_test(refined_points_match_points_solved_alone),
-		cmocka_unit_test(any_thread_count_gives_the_same_grid),
-		cmocka_unit_test(a_point_the_solver_refuses_is_marked),
+	    cmocka_unit_test(lattice_is_the_readme_sweep),
+	    cmocka_unit_test(bad_grids_are_refused),
+	    cmocka_unit_test(refine_solves_the_cells_the_window_edge_crosses),
+	    cmocka_unit_test(refined_points_match_points_solved_alone),
+	    cmocka_unit_test(any_thread_count_gives_the_same_grid),
+	    cmocka_unit_test(a_point_the_solver_refuses_is_marked),
 	};
 
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
-				      ow_test_units_teardown);
+	                              ow_test_units_teardown);
 }

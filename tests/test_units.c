@@ -50,7 +50,7 @@ static void rejected(const char *text, enum ow_dim dim, const char *want)
 		fail_msg("\"%s\" accepted as %g", text, si);
 	if (!strstr(d.msg, want))
 		fail_msg("message for \"%s\" lacks \"%s\": %s", text, want,
-			 d.msg);
+		         d.msg);
 	assert_true(si == 12345.0); /* the output is left alone */
 }
 
@@ -76,14 +76,14 @@ static void fahrenheit_and_celsius_convert_with_their_offsets(void **state)
 	 * 200 degF = 366.483 K (recomputed) */
 	assert_rel(si_of("200 degF", OW_DIM_TEMPERATURE, 0.0), 366.483, 1e-6);
 	assert_rel(si_of("200 °F", OW_DIM_TEMPERATURE, 0.0),
-		   (200.0 + 459.67) / 1.8, 1e-12);
+	           (200.0 + 459.67) / 1.8, 1e-12);
 	/* NIST SP 811 (2008) B.9: T/K = t/degC + 273.15 */
 	assert_rel(si_of("200 degC", OW_DIM_TEMPERATURE, 0.0), 473.15, 1e-12);
 	assert_rel(si_of("200 °C", OW_DIM_TEMPERATURE, 0.0), 473.15, 1e-12);
 	assert_rel(si_of("473.15 K", OW_DIM_TEMPERATURE, 0.0), 473.15, 1e-12);
 	/* NIST SP 811 (2008) B.8: degree Rankine = 5/9 K */
 	assert_rel(si_of("851.67 degR", OW_DIM_TEMPERATURE, 0.0), 473.15,
-		   1e-12);
+	           1e-12);
 }
 
 static void temperature_differences_drop_the_offset(void **state)
@@ -118,9 +118,9 @@ static void diameters_need_the_screw_diameter(void **state)
 	assert_rel(si_of("8 D", OW_DIM_LENGTH, 0.0635), 0.508, 1e-12);
 	assert_rel(si_of("8D", OW_DIM_LENGTH, 0.0635), 0.508, 1e-12);
 	rejected("8 D", OW_DIM_LENGTH, "needs the screw diameter");
-	assert_int_equal(ow_units_convert(units, 8.0, "D", OW_DIM_LENGTH, &si,
-					  &d),
-			 OW_EINPUT);
+	assert_int_equal(
+	    ow_units_convert(units, 8.0, "D", OW_DIM_LENGTH, &si, &d),
+	    OW_EINPUT);
 	/* "D" is a diameter only for lengths */
 	rejected("8 D", OW_DIM_PRESSURE, "unknown unit");
 }
@@ -134,15 +134,15 @@ static void pressures_and_flows_convert_from_trade_units(void **state)
 	/* exact: 1 psi = 0.45359237 kg x 9.80665 m/s2 / (0.0254 m)^2,
 	 * NIST SP 811 (2008) B.8 (pound, standard gravity, inch) */
 	assert_rel(si_of("1 psi", OW_DIM_PRESSURE, 0.0),
-		   0.45359237 * 9.80665 / (0.0254 * 0.0254), 1e-9);
+	           0.45359237 * 9.80665 / (0.0254 * 0.0254), 1e-9);
 	assert_rel(si_of("350 bar", OW_DIM_PRESSURE, 0.0), 35e6, 1e-12);
 	/* NIST SP 811 (2008) B.8: 1 lb = 0.45359237 kg; 800 lb/h =
 	 * 0.100798 kg/s (recomputed; to half a unit of its last digit) */
 	assert_rel(si_of("800 lb/h", OW_DIM_MASS_FLOW, 0.0), 0.100798, 5e-6);
 	assert_rel(si_of("800 lbs/h", OW_DIM_MASS_FLOW, 0.0),
-		   800.0 * 0.45359237 / 3600.0, 1e-9);
+	           800.0 * 0.45359237 / 3600.0, 1e-9);
 	assert_rel(si_of("50 kg/h", OW_DIM_MASS_FLOW, 0.0), 50.0 / 3600.0,
-		   1e-12);
+	           1e-12);
 }
 
 static void material_properties_take_compound_units(void **state)
@@ -150,19 +150,19 @@ static void material_properties_take_compound_units(void **state)
 	(void)state;
 	/* SI prefixes (BIPM SI Brochure, 9th ed., 2019, table 7) */
 	assert_rel(si_of("2.3 kJ/(kg K)", OW_DIM_SPECIFIC_HEAT, 0.0), 2300.0,
-		   1e-12);
+	           1e-12);
 	assert_rel(si_of("28 kJ/mol", OW_DIM_MOLAR_ENERGY, 0.0), 28000.0,
-		   1e-12);
+	           1e-12);
 	assert_rel(si_of("9000 Pa s", OW_DIM_VISCOSITY, 0.0), 9000.0, 1e-12);
 	assert_rel(si_of("760 kg/m3", OW_DIM_DENSITY, 0.0), 760.0, 1e-12);
 	assert_rel(si_of("0.18 W/(m K)", OW_DIM_CONDUCTIVITY, 0.0), 0.18,
-		   1e-12);
+	           1e-12);
 	/* NIST SP 811 (2008) B.8: Btu_IT/(lb degF) = 4.1868e3 J/(kg K),
 	 * exact; a degree in a compound unit is an interval */
-	assert_rel(si_of("1 BTU/(lb degF)", OW_DIM_SPECIFIC_HEAT, 0.0),
-		   4186.8, 1e-9);
+	assert_rel(si_of("1 BTU/(lb degF)", OW_DIM_SPECIFIC_HEAT, 0.0), 4186.8,
+	           1e-9);
 	assert_rel(si_of("1 kJ/(kg degC)", OW_DIM_SPECIFIC_HEAT, 0.0), 1000.0,
-		   1e-12);
+	           1e-12);
 	assert_rel(si_of("100 1/s", OW_DIM_SHEAR_RATE, 0.0), 100.0, 1e-12);
 	assert_rel(si_of("2 min", OW_DIM_TIME, 0.0), 120.0, 1e-12);
 }
@@ -173,16 +173,15 @@ static void kilowatt_hours_are_energies(void **state)
 	/* NIST SP 811 (2008) B.8: kW h = 3.6e6 J exactly: 0.2 kWh/kg =
 	 * 720000 J/kg (recomputed) */
 	assert_rel(si_of("0.2 kWh/kg", OW_DIM_SPECIFIC_ENERGY, 0.0), 720000.0,
-		   1e-9);
-	assert_rel(si_of("1 Wh/kg", OW_DIM_SPECIFIC_ENERGY, 0.0), 3600.0,
-		   1e-9);
+	           1e-9);
+	assert_rel(si_of("1 Wh/kg", OW_DIM_SPECIFIC_ENERGY, 0.0), 3600.0, 1e-9);
 	/* torque and energy share a dimension: N m and J both accepted */
 	assert_rel(si_of("4.8 kN m", OW_DIM_TORQUE, 0.0), 4800.0, 1e-12);
 	assert_rel(si_of("1 kWh", OW_DIM_TORQUE, 0.0), 3.6e6, 1e-9);
 	/* NIST SP 811 (2008) B.8: horsepower (550 ft lbf/s) = 745.69987... W;
 	 * exact from ft = 0.3048 m and lbf = 4.4482216152605 N */
 	assert_rel(si_of("1 hp", OW_DIM_POWER, 0.0),
-		   550.0 * 0.3048 * 4.4482216152605, 1e-9);
+	           550.0 * 0.3048 * 4.4482216152605, 1e-9);
 	/* NIST SP 811 (2008) B.8: pound-force foot = 1.355818 N m */
 	assert_rel(si_of("1 lbf ft", OW_DIM_TORQUE, 0.0), 1.355818, 1e-6);
 }
@@ -203,20 +202,20 @@ static void consistency_takes_a_pressure_times_seconds_to_the_n(void **state)
 	/* power law tau = K gdot^n (Ostwald 1925; de Waele 1923): K in
 	 * Pa s^n; kPa = 1000 Pa (SI prefix) */
 	assert_rel(si_of("20 kPa s^0.4", OW_DIM_CONSISTENCY, 0.0), 20000.0,
-		   1e-12);
+	           1e-12);
 	assert_rel(si_of("20000 Pa s^0.41", OW_DIM_CONSISTENCY, 0.0), 20000.0,
-		   1e-12);
+	           1e-12);
 	assert_rel(si_of("20 kPa s^n", OW_DIM_CONSISTENCY, 0.0), 20000.0,
-		   1e-12);
+	           1e-12);
 	assert_rel(si_of("20000 Pa.s^n", OW_DIM_CONSISTENCY, 0.0), 20000.0,
-		   1e-12);
+	           1e-12);
 	assert_rel(si_of("20000 Pa·sⁿ", OW_DIM_CONSISTENCY, 0.0), 20000.0,
-		   1e-12);
-	assert_rel(si_of("20 kPa*s**(0.35)", OW_DIM_CONSISTENCY, 0.0),
-		   20000.0, 1e-12);
+	           1e-12);
+	assert_rel(si_of("20 kPa*s**(0.35)", OW_DIM_CONSISTENCY, 0.0), 20000.0,
+	           1e-12);
 	/* 1 psi = 6894.757293168 Pa (NIST SP 811 (2008) B.8, exact) */
 	assert_rel(si_of("2 psi s^n", OW_DIM_CONSISTENCY, 0.0),
-		   2.0 * 6894.757293168, 1e-9);
+	           2.0 * 6894.757293168, 1e-9);
 	rejected("20 kPa min^n", OW_DIM_CONSISTENCY, "must be seconds");
 	rejected("20 kPa s^x", OW_DIM_CONSISTENCY, "power of s");
 	rejected("20 kg s^n", OW_DIM_CONSISTENCY, "measures something else");
@@ -230,8 +229,7 @@ static void consistency_power_is_read_from_the_unit(void **state)
 	(void)state;
 	assert_int_equal(ow_units_consistency_power("20000 Pa s^0.41", &n), 1);
 	assert_rel(n, 0.41, 1e-15);
-	assert_int_equal(ow_units_consistency_power("20 kPa*s**(0.35)", &n),
-			 1);
+	assert_int_equal(ow_units_consistency_power("20 kPa*s**(0.35)", &n), 1);
 	assert_rel(n, 0.35, 1e-15);
 	assert_int_equal(ow_units_consistency_power("8000 Pa s", &n), 1);
 	assert_rel(n, 1.0, 1e-15); /* tau = K gdot: the first power */
@@ -272,9 +270,9 @@ static void units_of_the_wrong_kind_say_what_was_expected(void **state)
 {
 	(void)state;
 	rejected("12 furlongs/fortnight", OW_DIM_PRESSURE,
-		 "expected a pressure such as \"35 MPa\" or \"5000 psi\"");
+	         "expected a pressure such as \"35 MPa\" or \"5000 psi\"");
 	rejected("63.5 kg", OW_DIM_LENGTH,
-		 "expected a length such as \"63.5 mm\"");
+	         "expected a length such as \"63.5 mm\"");
 	rejected("200 mm", OW_DIM_TEMPERATURE, "measures something else");
 	rejected("1 K", OW_DIM_SPECIFIC_HEAT, "specific heat");
 }
@@ -306,22 +304,22 @@ static void convert_applies_the_same_rules_to_a_number(void **state)
 	(void)state;
 	/* NIST SP 811 (2008) B.9; 200 degF = 366.483 K (recomputed) */
 	assert_int_equal(ow_units_convert(units, 200.0, " degF ",
-					  OW_DIM_TEMPERATURE, &si, &d),
-			 OW_OK);
+	                                  OW_DIM_TEMPERATURE, &si, &d),
+	                 OW_OK);
 	assert_rel(si, 366.483, 1e-6);
-	assert_int_equal(ow_units_convert(units, 1.0, "", OW_DIM_LENGTH, &si,
-					  &d),
-			 OW_EINPUT);
+	assert_int_equal(
+	    ow_units_convert(units, 1.0, "", OW_DIM_LENGTH, &si, &d),
+	    OW_EINPUT);
 	assert_non_null(strstr(d.msg, "missing unit"));
-	assert_int_equal(ow_units_convert(units, NAN, "mm", OW_DIM_LENGTH,
-					  &si, NULL),
-			 OW_EINPUT);
-	assert_int_equal(ow_units_convert(units, 1.0, "mm", OW_DIM_COUNT, &si,
-					  NULL),
-			 OW_EARG);
-	assert_int_equal(ow_units_parse(NULL, "1 mm", OW_DIM_LENGTH, 0.0, &si,
-					NULL),
-			 OW_EARG);
+	assert_int_equal(
+	    ow_units_convert(units, NAN, "mm", OW_DIM_LENGTH, &si, NULL),
+	    OW_EINPUT);
+	assert_int_equal(
+	    ow_units_convert(units, 1.0, "mm", OW_DIM_COUNT, &si, NULL),
+	    OW_EARG);
+	assert_int_equal(
+	    ow_units_parse(NULL, "1 mm", OW_DIM_LENGTH, 0.0, &si, NULL),
+	    OW_EARG);
 }
 
 static int back_to_c_locale(void **state)
@@ -355,14 +353,14 @@ static void plain_numbers_read_a_point_whatever_the_locale(void **state)
 	/* and so does its database ("0.45359237 kg" for the pound) */
 	assert_int_equal(ow_units_create(&other, NULL), OW_OK);
 	st = ow_units_parse(other, "3600 lb/h", OW_DIM_MASS_FLOW, 0.0, &lb,
-			    NULL);
+	                    NULL);
 	ow_units_destroy(other);
 	assert_int_equal(st, OW_OK);
 	setlocale(LC_NUMERIC, "C");
 	assert_rel(x, 0.45, 1e-15);
 	/* NIST SP 811 (2008) B.8: hp = 550 ft lbf/s, ft = 0.3048 m */
 	assert_rel(hp, 1.5 * 550.0 * 0.3048 * 4.4482216152605, 1e-9);
-	assert_rel(rad, 60.0, 1e-6); /* one turn = 2 pi rad */
+	assert_rel(rad, 60.0, 1e-6);       /* one turn = 2 pi rad */
 	assert_rel(lb, 0.45359237, 1e-12); /* NIST SP 811 (2008) B.8 */
 }
 
@@ -404,11 +402,11 @@ static void common_units_agree_with_udunits_and_nist(void **state)
 
 		if (fabs(a - b) > 1e-14 * fabs(b))
 			fail_msg("\"%s\" = %.17g but \"%s\" = %.17g",
-				 pair[i].fast, a, pair[i].slow, b);
+			         pair[i].fast, a, pair[i].slow, b);
 	}
 	assert_true(si_of("1 in", OW_DIM_LENGTH, 0.0) == 0.0254);
 	assert_rel(si_of("392 degF", OW_DIM_TEMPERATURE, 0.0),
-		   (392.0 + 459.67) / 1.8, 1e-15);
+	           (392.0 + 459.67) / 1.8, 1e-15);
 }
 
 static void every_example_in_the_expectations_parses(void **state)
@@ -422,9 +420,10 @@ static void every_example_in_the_expectations_parses(void **state)
 		p = ow_dim_expect((enum ow_dim)dim);
 		for (n = 0; (p = strchr(p, '"')) && (q = strchr(p + 1, '"'));
 		     n++, p = q + 1) {
-			snprintf(ex, sizeof ex, "%.*s", (int)(q - p - 1), p + 1);
-			assert_true(isfinite(si_of(ex, (enum ow_dim)dim,
-						   0.0635)));
+			snprintf(ex, sizeof ex, "%.*s", (int)(q - p - 1),
+			         p + 1);
+			assert_true(
+			    isfinite(si_of(ex, (enum ow_dim)dim, 0.0635)));
 		}
 		assert_true(n >= 1);
 	}
@@ -432,25 +431,25 @@ static void every_example_in_the_expectations_parses(void **state)
 
 /* A representative SI value of each dimension (a 63.5 mm extruder). */
 static const double sample_si[OW_DIM_COUNT] = {
-	[OW_DIM_NONE] = 0.45,
-	[OW_DIM_LENGTH] = 0.0635,
-	[OW_DIM_TEMPERATURE] = 473.15,
-	[OW_DIM_TEMP_DIFF] = 10.0,
-	[OW_DIM_PRESSURE] = 35e6,
-	[OW_DIM_MASS_FLOW] = 0.0139,
-	[OW_DIM_ROT_SPEED] = 60.0,
-	[OW_DIM_DENSITY] = 760.0,
-	[OW_DIM_SPECIFIC_HEAT] = 2300.0,
-	[OW_DIM_CONDUCTIVITY] = 0.18,
-	[OW_DIM_SPECIFIC_ENERGY] = 720000.0,
-	[OW_DIM_MOLAR_ENERGY] = 28000.0,
-	[OW_DIM_VISCOSITY] = 9000.0,
-	[OW_DIM_TIME] = 30.0,
-	[OW_DIM_POWER] = 30000.0,
-	[OW_DIM_TORQUE] = 4800.0,
-	[OW_DIM_SHEAR_RATE] = 100.0,
-	[OW_DIM_CONSISTENCY] = 20000.0,
-	[OW_DIM_HEAT_TRANSFER] = 2000.0,
+    [OW_DIM_NONE] = 0.45,
+    [OW_DIM_LENGTH] = 0.0635,
+    [OW_DIM_TEMPERATURE] = 473.15,
+    [OW_DIM_TEMP_DIFF] = 10.0,
+    [OW_DIM_PRESSURE] = 35e6,
+    [OW_DIM_MASS_FLOW] = 0.0139,
+    [OW_DIM_ROT_SPEED] = 60.0,
+    [OW_DIM_DENSITY] = 760.0,
+    [OW_DIM_SPECIFIC_HEAT] = 2300.0,
+    [OW_DIM_CONDUCTIVITY] = 0.18,
+    [OW_DIM_SPECIFIC_ENERGY] = 720000.0,
+    [OW_DIM_MOLAR_ENERGY] = 28000.0,
+    [OW_DIM_VISCOSITY] = 9000.0,
+    [OW_DIM_TIME] = 30.0,
+    [OW_DIM_POWER] = 30000.0,
+    [OW_DIM_TORQUE] = 4800.0,
+    [OW_DIM_SHEAR_RATE] = 100.0,
+    [OW_DIM_CONSISTENCY] = 20000.0,
+    [OW_DIM_HEAT_TRANSFER] = 2000.0,
 };
 
 static void round_trip(enum ow_unit_system sys)
@@ -463,10 +462,10 @@ static void round_trip(enum ow_unit_system sys)
 		si = sample_si[dim];
 		shown = ow_display_value(sys, (enum ow_dim)dim, si);
 		assert_rel(ow_display_to_si(sys, (enum ow_dim)dim, shown), si,
-			   1e-12);
+		           1e-12);
 		/* the label itself parses back to the same SI value */
 		snprintf(text, sizeof text, "%.17g %s", shown,
-			 ow_display_label(sys, (enum ow_dim)dim));
+		         ow_display_label(sys, (enum ow_dim)dim));
 		assert_rel(si_of(text, (enum ow_dim)dim, 0.0), si, 1e-9);
 	}
 }
@@ -476,16 +475,16 @@ static void si_display_round_trips_through_its_labels(void **state)
 	(void)state;
 	round_trip(OW_SYS_SI);
 	assert_string_equal(ow_display_label(OW_SYS_SI, OW_DIM_TEMPERATURE),
-			    "°C");
+	                    "°C");
 	assert_string_equal(ow_display_label(OW_SYS_SI, OW_DIM_DENSITY),
-			    "kg/m³");
+	                    "kg/m³");
 	/* T/degC = T/K - 273.15 (NIST SP 811 (2008) B.9) */
 	assert_rel(ow_display_value(OW_SYS_SI, OW_DIM_TEMPERATURE, 473.15),
-		   200.0, 1e-12);
-	assert_rel(ow_display_value(OW_SYS_SI, OW_DIM_MASS_FLOW, 0.0139),
-		   50.04, 1e-12);
+	           200.0, 1e-12);
+	assert_rel(ow_display_value(OW_SYS_SI, OW_DIM_MASS_FLOW, 0.0139), 50.04,
+	           1e-12);
 	assert_rel(ow_display_value(OW_SYS_SI, OW_DIM_PRESSURE, 35e6), 35.0,
-		   1e-12);
+	           1e-12);
 }
 
 static void us_display_uses_nist_factors(void **state)
@@ -494,30 +493,30 @@ static void us_display_uses_nist_factors(void **state)
 	round_trip(OW_SYS_US);
 	/* NIST SP 811 (2008) B.8 / B.9, each 1 shown unit in SI: */
 	assert_rel(ow_display_to_si(OW_SYS_US, OW_DIM_LENGTH, 1.0), 0.0254,
-		   1e-12); /* in, exact */
-	assert_rel(ow_display_to_si(OW_SYS_US, OW_DIM_PRESSURE, 1.0),
-		   6894.757, 1e-6); /* psi = 6.894757e3 Pa */
+	           1e-12); /* in, exact */
+	assert_rel(ow_display_to_si(OW_SYS_US, OW_DIM_PRESSURE, 1.0), 6894.757,
+	           1e-6); /* psi = 6.894757e3 Pa */
 	assert_rel(ow_display_to_si(OW_SYS_US, OW_DIM_MASS_FLOW, 3600.0),
-		   0.45359237, 1e-12); /* lb/h; lb exact */
+	           0.45359237, 1e-12); /* lb/h; lb exact */
 	assert_rel(ow_display_to_si(OW_SYS_US, OW_DIM_POWER, 1.0), 745.6999,
-		   1e-6); /* hp = 7.456999e2 W */
+	           1e-6); /* hp = 7.456999e2 W */
 	assert_rel(ow_display_to_si(OW_SYS_US, OW_DIM_TORQUE, 1.0), 1.355818,
-		   1e-6); /* lbf ft = 1.355818 N m */
+	           1e-6); /* lbf ft = 1.355818 N m */
 	assert_rel(ow_display_to_si(OW_SYS_US, OW_DIM_DENSITY, 1.0), 16.01846,
-		   1e-6); /* lb/ft3 = 1.601846e1 kg/m3 */
+	           1e-6); /* lb/ft3 = 1.601846e1 kg/m3 */
 	assert_rel(ow_display_to_si(OW_SYS_US, OW_DIM_SPECIFIC_HEAT, 1.0),
-		   4186.8, 1e-9); /* Btu_IT/(lb degF) = 4.1868e3, exact */
+	           4186.8, 1e-9); /* Btu_IT/(lb degF) = 4.1868e3, exact */
 	assert_rel(ow_display_to_si(OW_SYS_US, OW_DIM_CONDUCTIVITY, 1.0),
-		   1.730735, 1e-6); /* Btu_IT/(h ft degF) = 1.730735 W/(m K) */
+	           1.730735, 1e-6); /* Btu_IT/(h ft degF) = 1.730735 W/(m K) */
 	/* t/degF = 1.8 t/degC + 32 (B.9): 473.15 K = 392 degF */
 	assert_rel(ow_display_value(OW_SYS_US, OW_DIM_TEMPERATURE, 473.15),
-		   392.0, 1e-12);
+	           392.0, 1e-12);
 	assert_rel(ow_display_value(OW_SYS_US, OW_DIM_TEMP_DIFF, 10.0), 18.0,
-		   1e-12);
+	           1e-12);
 	assert_string_equal(ow_display_label(OW_SYS_US, OW_DIM_TEMPERATURE),
-			    "°F");
+	                    "°F");
 	assert_string_equal(ow_display_label(OW_SYS_US, OW_DIM_PRESSURE),
-			    "psi");
+	                    "psi");
 }
 
 static void unit_systems_parse_by_name(void **state)
@@ -530,8 +529,8 @@ static void unit_systems_parse_by_name(void **state)
 	assert_int_equal(ow_unit_system_parse("us", &sys), OW_OK);
 	assert_int_equal(sys, OW_SYS_US);
 	assert_int_equal(ow_unit_system_parse("imperial", &sys), OW_EARG);
-	assert_true(isnan(ow_display_value((enum ow_unit_system)7,
-					   OW_DIM_LENGTH, 1.0)));
+	assert_true(isnan(
+	    ow_display_value((enum ow_unit_system)7, OW_DIM_LENGTH, 1.0)));
 	assert_string_equal(ow_display_label(OW_SYS_SI, OW_DIM_COUNT), "");
 	ow_units_destroy(NULL); /* NULL-safe */
 }
@@ -539,31 +538,32 @@ static void unit_systems_parse_by_name(void **state)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(rpm_means_revolutions_per_minute),
-		cmocka_unit_test(fahrenheit_and_celsius_convert_with_their_offsets),
-		cmocka_unit_test(temperature_differences_drop_the_offset),
-		cmocka_unit_test(inches_thou_and_micrometres_are_lengths),
-		cmocka_unit_test(diameters_need_the_screw_diameter),
-		cmocka_unit_test(pressures_and_flows_convert_from_trade_units),
-		cmocka_unit_test(material_properties_take_compound_units),
-		cmocka_unit_test(kilowatt_hours_are_energies),
-		cmocka_unit_test(percent_is_a_fraction),
-		cmocka_unit_test(consistency_takes_a_pressure_times_seconds_to_the_n),
-		cmocka_unit_test(consistency_power_is_read_from_the_unit),
-		cmocka_unit_test(a_text_as_long_as_the_buffer_is_read_within_it),
-		cmocka_unit_test(inputs_without_a_unit_or_number_are_refused),
-		cmocka_unit_test(units_of_the_wrong_kind_say_what_was_expected),
-		cmocka_unit_test(non_finite_numbers_are_refused),
-		cmocka_unit_test(farad_and_coulomb_point_to_degf_and_degc),
-		cmocka_unit_test(convert_applies_the_same_rules_to_a_number),
-		cmocka_unit_test_teardown(
-			plain_numbers_read_a_point_whatever_the_locale,
-			back_to_c_locale),
-		cmocka_unit_test(every_example_in_the_expectations_parses),
-		cmocka_unit_test(si_display_round_trips_through_its_labels),
-		cmocka_unit_test(us_display_uses_nist_factors),
-		cmocka_unit_test(unit_systems_parse_by_name),
-		cmocka_unit_test(common_units_agree_with_udunits_and_nist),
+	    cmocka_unit_test(rpm_means_revolutions_per_minute),
+	    cmocka_unit_test(fahrenheit_and_celsius_convert_with_their_offsets),
+	    cmocka_unit_test(temperature_differences_drop_the_offset),
+	    cmocka_unit_test(inches_thou_and_micrometres_are_lengths),
+	    cmocka_unit_test(diameters_need_the_screw_diameter),
+	    cmocka_unit_test(pressures_and_flows_convert_from_trade_units),
+	    cmocka_unit_test(material_properties_take_compound_units),
+	    cmocka_unit_test(kilowatt_hours_are_energies),
+	    cmocka_unit_test(percent_is_a_fraction),
+	    cmocka_unit_test(
+	        consistency_takes_a_pressure_times_seconds_to_the_n),
+	    cmocka_unit_test(consistency_power_is_read_from_the_unit),
+	    cmocka_unit_test(a_text_as_long_as_the_buffer_is_read_within_it),
+	    cmocka_unit_test(inputs_without_a_unit_or_number_are_refused),
+	    cmocka_unit_test(units_of_the_wrong_kind_say_what_was_expected),
+	    cmocka_unit_test(non_finite_numbers_are_refused),
+	    cmocka_unit_test(farad_and_coulomb_point_to_degf_and_degc),
+	    cmocka_unit_test(convert_applies_the_same_rules_to_a_number),
+	    cmocka_unit_test_teardown(
+	        plain_numbers_read_a_point_whatever_the_locale,
+	        back_to_c_locale),
+	    cmocka_unit_test(every_example_in_the_expectations_parses),
+	    cmocka_unit_test(si_display_round_trips_through_its_labels),
+	    cmocka_unit_test(us_display_uses_nist_factors),
+	    cmocka_unit_test(unit_systems_parse_by_name),
+	    cmocka_unit_test(common_units_agree_with_udunits_and_nist),
 	};
 
 	return cmocka_run_group_tests(tests, load_units, free_units);

@@ -13,10 +13,10 @@
 
 #include "ow_window.h"
 
-#define RPM0 20.0   /* lattice: rpm = RPM0 + RPM_STEP ir */
+#define RPM0     20.0 /* lattice: rpm = RPM0 + RPM_STEP ir */
 #define RPM_STEP 10.0
-#define AX0 (-20.0) /* axis = AX0 + AX_STEP ia (K, shift mode) */
-#define AX_STEP 5.0
+#define AX0      (-20.0) /* axis = AX0 + AX_STEP ia (K, shift mode) */
+#define AX_STEP  5.0
 
 /* A study with only the peak temperature limit set (so the window's edge
  * is that limit's margin) and the rod line's one zone. */
@@ -74,7 +74,7 @@ static void unsafe(struct ow_grid *g, int ir, int ia)
 }
 
 static struct ow_window *extract(const struct ow_study *s,
-				 const struct ow_grid *g)
+                                 const struct ow_grid *g)
 {
 	struct ow_window *w = NULL;
 	struct ow_diag d = {{0}};
@@ -339,8 +339,12 @@ static void boundary_of_a_plane_is_exact(void **st)
 		x1 = xr(&pl->p[pl->n - 1], n);
 		y1 = ya(&pl->p[pl->n - 1], n);
 		if (y0 > y1) { /* either direction */
-			double t = x0; x0 = x1; x1 = t;
-			t = y0; y0 = y1; y1 = t;
+			double t = x0;
+			x0 = x1;
+			x1 = t;
+			t = y0;
+			y0 = y1;
+			y1 = t;
 		}
 		assert_abs(x0, 0.826, 1e-12);
 		assert_abs(y0, 0.0, 1e-12);
@@ -391,7 +395,7 @@ static void boundary_of_a_circle_within_interpolation_error(void **st)
 	 * (n - 1)^2 = 456 of them (Gauss's circle problem: off by a few
 	 * times the radius in lattice steps, 12) */
 	assert_abs(w->safe_fraction * n * n,
-		   OW_PI * CR * CR * (n - 1) * (n - 1), 36.0);
+	           OW_PI * CR * CR * (n - 1) * (n - 1), 36.0);
 	ow_window_destroy(w);
 	ow_grid_destroy(g);
 	free(s);
@@ -400,16 +404,16 @@ static void boundary_of_a_circle_within_interpolation_error(void **st)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(all_safe_lattice_by_hand),
-		cmocka_unit_test(unsafe_middle_point_by_hand),
-		cmocka_unit_test(unsafe_low_speed_column_by_hand),
-		cmocka_unit_test(unsafe_inner_row_by_hand),
-		cmocka_unit_test(corner_block_by_hand),
-		cmocka_unit_test(all_unsafe_lattice_is_empty),
-		cmocka_unit_test(one_point_wide_lattice_ends),
-		cmocka_unit_test(boundary_of_a_plane_is_exact),
-		cmocka_unit_test(boundary_of_a_circle_within_interpolation_error),
+	    cmocka_unit_test(all_safe_lattice_by_hand),
+	    cmocka_unit_test(unsafe_middle_point_by_hand),
+	    cmocka_unit_test(unsafe_low_speed_column_by_hand),
+	    cmocka_unit_test(unsafe_inner_row_by_hand),
+	    cmocka_unit_test(corner_block_by_hand),
+	    cmocka_unit_test(all_unsafe_lattice_is_empty),
+	    cmocka_unit_test(one_point_wide_lattice_ends),
+	    cmocka_unit_test(boundary_of_a_plane_is_exact),
+	    cmocka_unit_test(boundary_of_a_circle_within_interpolation_error),
 	};
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
-				      ow_test_units_teardown);
+	                              ow_test_units_teardown);
 }

@@ -16,8 +16,7 @@
  * given by fn (set-point in degC); every other limit passes. */
 typedef void (*margins_fn)(double rpm, double set_C, double *m);
 
-static struct ow_grid *synthetic(const struct ow_study *s, int n,
-				 margins_fn fn)
+static struct ow_grid *synthetic(const struct ow_study *s, int n, margins_fn fn)
 {
 	const struct ow_axes *ax = &s->line.axes;
 	struct ow_grid *g = calloc(1, sizeof *g);
@@ -34,16 +33,16 @@ static struct ow_grid *synthetic(const struct ow_study *s, int n,
 
 			p->solved = 1;
 			p->rpm = ax->rpm_from +
-				 (ax->rpm_to - ax->rpm_from) * ir / (n - 1);
+			         (ax->rpm_to - ax->rpm_from) * ir / (n - 1);
 			p->axis = ax->axis_from +
-				  (ax->axis_to - ax->axis_from) * ia / (n - 1);
+			          (ax->axis_to - ax->axis_from) * ia / (n - 1);
 			p->set_ref_K = ow_line_axis_ref_K(&s->line, p->axis);
 			for (c = 0; c < OW_CK_LIMITS; c++)
 				p->v.margin[c] =
-					ow_check_active(&s->line.limits,
-							(enum ow_check)c)
-						? 1.0
-						: NAN;
+				    ow_check_active(&s->line.limits,
+				                    (enum ow_check)c)
+				        ? 1.0
+				        : NAN;
 			fn(p->rpm, p->set_ref_K - OW_ZERO_C_K, p->v.margin);
 			for (c = 0; c < OW_CK_LIMITS; c++)
 				if (p->v.margin[c] < 0.0)
@@ -54,7 +53,7 @@ static struct ow_grid *synthetic(const struct ow_study *s, int n,
 }
 
 static struct ow_window *window_of(const struct ow_study *s, int n,
-				   margins_fn fn)
+                                   margins_fn fn)
 {
 	struct ow_grid *g = synthetic(s, n, fn);
 	struct ow_window *w = NULL;
@@ -93,19 +92,18 @@ static void a_speed_limit_is_found_between_points_on_any_grid(void **state)
 		 * (Press et al., Numerical Recipes, 3rd ed., 3.1): the
 		 * crossing at 57.3 rpm, rounded inward to whole rpm */
 		assert_abs(w->rpm_max, 57.0, 1e-9);
-		assert_int_equal(w->bound[OW_WB_RPM_MAX].check,
-				 OW_CK_PRESSURE);
+		assert_int_equal(w->bound[OW_WB_RPM_MAX].check, OW_CK_PRESSURE);
 		assert_abs(w->bound[OW_WB_RPM_MAX].resolution, 1.0, 1e-12);
 		/* the other three sides are the sweep's edges, said so */
 		assert_abs(w->rpm_min, 20.0, 1e-9);
 		assert_abs(set_C(w, 0), 180.0, 1e-9);
 		assert_abs(set_C(w, 1), 230.0, 1e-9);
 		assert_int_equal(w->bound[OW_WB_RPM_MIN].check,
-				 OW_WINDOW_SWEEP_EDGE);
+		                 OW_WINDOW_SWEEP_EDGE);
 		assert_int_equal(w->bound[OW_WB_SET_MIN].check,
-				 OW_WINDOW_SWEEP_EDGE);
+		                 OW_WINDOW_SWEEP_EDGE);
 		assert_int_equal(w->bound[OW_WB_SET_MAX].check,
-				 OW_WINDOW_SWEEP_EDGE);
+		                 OW_WINDOW_SWEEP_EDGE);
 		assert_true(w->at_sweep_edge);
 		ow_window_destroy(w);
 	}
@@ -127,8 +125,8 @@ static void a_sloping_limit_gives_the_same_corner_on_any_grid(void **state)
 
 	(void)state;
 	for (k = 0; k < 3; k++) {
-		struct ow_window *w = window_of(s, sizes[k],
-						peak_on_a_diagonal);
+		struct ow_window *w =
+		    window_of(s, sizes[k], peak_on_a_diagonal);
 
 		/* The largest rectangle x y under x/a + y/b = 1 has its
 		 * corner at (a/2, b/2) (Stewart, Calculus, 8th ed., 4.7,
@@ -139,9 +137,9 @@ static void a_sloping_limit_gives_the_same_corner_on_any_grid(void **state)
 		assert_abs(set_C(w, 1), 201.0, 1e-9);
 		assert_abs(w->rpm_max, 60.0, 1e-9);
 		assert_int_equal(w->bound[OW_WB_SET_MAX].check,
-				 OW_CK_PEAK_TEMP);
+		                 OW_CK_PEAK_TEMP);
 		assert_int_equal(w->bound[OW_WB_RPM_MAX].check,
-				 OW_CK_PEAK_TEMP);
+		                 OW_CK_PEAK_TEMP);
 		assert_abs(w->rpm_min, 20.0, 1e-9);
 		assert_abs(set_C(w, 0), 180.0, 1e-9);
 		ow_window_destroy(w);
@@ -170,7 +168,7 @@ static void a_map_safe_everywhere_is_bounded_only_by_the_sweep(void **state)
 		ow_window_setter_text(w->bound[k].check, why, sizeof why);
 		assert_string_equal(why, OW_WINDOW_SWEEP_EDGE_TEXT);
 		assert_string_equal(ow_window_setter_key(w->bound[k].check),
-				    "sweep_edge");
+		                    "sweep_edge");
 	}
 	assert_true(w->at_sweep_edge);
 	ow_window_destroy(w);
@@ -197,7 +195,7 @@ static void the_demo_bounds_do_not_move_with_the_grid(void **state)
 
 			assert_int_equal(x->check, y->check);
 			assert_abs(x->value, y->value,
-				   fmax(x->resolution, y->resolution) + 1e-9);
+			           fmax(x->resolution, y->resolution) + 1e-9);
 		}
 	for (k = 0; k < 3; k++)
 		ow_test_map_free(&m[k]);
@@ -228,20 +226,21 @@ static void every_limit_reads_one_way(void **state)
 		}
 		assert_string_equal(rel, lower ? "at least" : "at most");
 		assert_non_null(strstr(fail, lower ? " below its limit"
-						   : " above its limit"));
+		                                   : " above its limit"));
 	}
 }
 
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(a_speed_limit_is_found_between_points_on_any_grid),
-		cmocka_unit_test(a_sloping_limit_gives_the_same_corner_on_any_grid),
-		cmocka_unit_test(a_map_safe_everywhere_is_bounded_only_by_the_sweep),
-		cmocka_unit_test(every_limit_reads_one_way),
-		cmocka_unit_test(the_demo_bounds_do_not_move_with_the_grid),
+	    cmocka_unit_test(a_speed_limit_is_found_between_points_on_any_grid),
+	    cmocka_unit_test(a_sloping_limit_gives_the_same_corner_on_any_grid),
+	    cmocka_unit_test(
+	        a_map_safe_everywhere_is_bounded_only_by_the_sweep),
+	    cmocka_unit_test(every_limit_reads_one_way),
+	    cmocka_unit_test(the_demo_bounds_do_not_move_with_the_grid),
 	};
 
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
-				      ow_test_units_teardown);
+	                              ow_test_units_teardown);
 }

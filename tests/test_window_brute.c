@@ -27,9 +27,9 @@
 #include "ow_sweep.h"
 #include "ow_window.h"
 
-#define STUDY "fixtures/studies/hdpe-sf.json" /* 4 limits set */
+#define STUDY   "fixtures/studies/hdpe-sf.json" /* 4 limits set */
 #define SAMPLES 1200 /* speed samples over the swept range */
-#define MAXCH OW_CK_COUNT
+#define MAXCH   OW_CK_COUNT
 #define MAXROWS 128 /* candidate and lattice rows of one lattice */
 
 /* Deterministic generator (Park & Miller, Comm. ACM 31 (1988) 1192,
@@ -52,10 +52,10 @@ static int uniform_int(int lo, int hi)
 /* The lattice as the brute force sees it. */
 struct lat {
 	int nr, na, nch;
-	int ch[MAXCH];     /* check of each channel */
+	int ch[MAXCH]; /* check of each channel */
 	double r0, r1, a0, a1;
-	double *v;         /* [(ia * nr + ir) * nch + k] */
-	double offset_C;   /* reference set-point in degC at axis value 0 */
+	double *v;       /* [(ia * nr + ir) * nch + k] */
+	double offset_C; /* reference set-point in degC at axis value 0 */
 	double rstep, tstep;
 };
 
@@ -89,7 +89,7 @@ static double value(const struct lat *L, int k, double rpm, double axis)
  * set-points [A0, A1] at speed rpm: on its ends and the lattice rows
  * strictly inside. */
 static double band_min(const struct lat *L, int k, double rpm, double A0,
-		       double A1)
+                       double A1)
 {
 	double m = INFINITY, da = (L->a1 - L->a0) / (L->na - 1);
 	int j, c;
@@ -109,7 +109,7 @@ static double band_min(const struct lat *L, int k, double rpm, double A0,
 /* Where band_min(k) crosses zero between a safe x_in and an unsafe x_out
  * (bisection to 1e-10 of the range). */
 static double crossing(const struct lat *L, int k, double A0, double A1,
-		       double x_in, double x_out)
+                       double x_in, double x_out)
 {
 	while (fabs(x_out - x_in) > 1e-10 * (L->r1 - L->r0)) {
 		double m = 0.5 * (x_in + x_out);
@@ -164,8 +164,8 @@ struct rect {
 };
 
 /* The channel lowest just beyond x (the one that crossed there). */
-static int lowest_beyond(const struct lat *L, double x, double dir,
-			 double A0, double A1)
+static int lowest_beyond(const struct lat *L, double x, double dir, double A0,
+                         double A1)
 {
 	double xo = x + dir * 1e-7 * (L->r1 - L->r0), low = INFINITY;
 	int k, best = -1;
@@ -184,7 +184,7 @@ static int lowest_beyond(const struct lat *L, double x, double dir,
 /* The runs of safe samples in g (band [A0, A1]) as rectangles; the
  * largest kept in *pr. */
 static void runs(const struct lat *L, const double *g, double A0, double A1,
-		 struct rect *pr)
+                 struct rect *pr)
 {
 	double sr = L->r1 - L->r0, h = (A1 - A0) / (L->a1 - L->a0);
 	int s, e;
@@ -199,12 +199,12 @@ static void runs(const struct lat *L, const double *g, double A0, double A1,
 		while (e < SAMPLES && g[e + 1] >= 0.0)
 			e++;
 		lo = s == 0 ? L->r0
-			    : crossing(L, -1, A0, A1, L->r0 + sr * s / SAMPLES,
-				       L->r0 + sr * (s - 1) / SAMPLES);
+		            : crossing(L, -1, A0, A1, L->r0 + sr * s / SAMPLES,
+		                       L->r0 + sr * (s - 1) / SAMPLES);
 		hi = e == SAMPLES
-			     ? L->r1
-			     : crossing(L, -1, A0, A1, L->r0 + sr * e / SAMPLES,
-					L->r0 + sr * (e + 1) / SAMPLES);
+		         ? L->r1
+		         : crossing(L, -1, A0, A1, L->r0 + sr * e / SAMPLES,
+		                    L->r0 + sr * (e + 1) / SAMPLES);
 		sc = (hi - lo) / sr * h;
 		if (sc > pr->score) {
 			pr->score = sc;
@@ -212,9 +212,11 @@ static void runs(const struct lat *L, const double *g, double A0, double A1,
 			pr->hi = hi;
 			pr->A0 = A0;
 			pr->A1 = A1;
-			pr->lo_k = s == 0 ? -1 : lowest_beyond(L, lo, -1.0, A0, A1);
-			pr->hi_k = e == SAMPLES ? -1
-						: lowest_beyond(L, hi, 1.0, A0, A1);
+			pr->lo_k =
+			    s == 0 ? -1 : lowest_beyond(L, lo, -1.0, A0, A1);
+			pr->hi_k = e == SAMPLES
+			               ? -1
+			               : lowest_beyond(L, hi, 1.0, A0, A1);
 		}
 	}
 }
@@ -246,8 +248,8 @@ static void brute(const struct lat *L, struct rect *best, double *second)
 	for (i = 0; i < nc; i++)
 		rows[n++] = (struct row){cand[i], 1};
 	for (i = 1; i + 1 < L->na; i++)
-		rows[n++] = (struct row){
-			L->a0 + (L->a1 - L->a0) * i / (L->na - 1), 0};
+		rows[n++] =
+		    (struct row){L->a0 + (L->a1 - L->a0) * i / (L->na - 1), 0};
 	qsort(rows, (size_t)n, sizeof *rows, cmp_row);
 	for (i = 0; i < n; i++)
 		for (s = 0; s <= SAMPLES; s++) {
@@ -314,8 +316,8 @@ static struct ow_grid *grid_of(const struct ow_study *s, struct lat *L)
 	for (ia = 0; ia < L->na; ia++)
 		for (ir = 0; ir < L->nr; ir++) {
 			struct ow_grid_point *p = ow_grid_at(g, ir, ia);
-			const double *v = &L->v[((size_t)ia * L->nr + ir) *
-						L->nch];
+			const double *v =
+			    &L->v[((size_t)ia * L->nr + ir) * L->nch];
 
 			p->solved = 1;
 			p->rpm = L->r0 + (L->r1 - L->r0) * ir / (L->nr - 1);
@@ -394,12 +396,12 @@ static void random_smooth(struct lat *L)
 				double x = (double)ir / (L->nr - 1);
 				double y = (double)ia / (L->na - 1);
 				double m = c0 + cx * (x - 0.5) +
-					   cy * (y - 0.5) +
-					   cw * sin(2 * OW_PI * (fx * x + px)) *
-						   cos(2 * OW_PI * (fy * y + py));
+				           cy * (y - 0.5) +
+				           cw * sin(2 * OW_PI * (fx * x + px)) *
+				               cos(2 * OW_PI * (fy * y + py));
 
 				L->v[((size_t)ia * L->nr + ir) * L->nch + k] =
-					flag ? 1.0 : m;
+				    flag ? 1.0 : m;
 			}
 	}
 }
@@ -427,7 +429,7 @@ static int channel_of(const struct lat *L, int c)
  * along the bound within the step beyond it (the bound is rounded
  * inward from the crossing) and within the stated resolution. */
 static void check_speed_bound(const struct lat *L, const struct ow_window *w,
-			      int side)
+                              int side)
 {
 	const struct ow_window_bound *b = &w->bound[side];
 	double dir = side == OW_WB_RPM_MAX ? 1.0 : -1.0, x_out = NAN, xc;
@@ -440,11 +442,10 @@ static void check_speed_bound(const struct lat *L, const struct ow_window *w,
 	}
 	k = channel_of(L, b->check);
 	assert_abs(b->resolution,
-		   L->ch[k] >= OW_CK_LIMITS
-			   ? fmax(L->rstep,
-				  0.5 * (L->r1 - L->r0) / (L->nr - 1))
-			   : L->rstep,
-		   1e-9);
+	           L->ch[k] >= OW_CK_LIMITS
+	               ? fmax(L->rstep, 0.5 * (L->r1 - L->r0) / (L->nr - 1))
+	               : L->rstep,
+	           1e-9);
 	if (w->rpm_max - w->rpm_min >= L->rstep)
 		assert_true(is_whole_step(b->value, L->rstep));
 	/* first setting beyond the bound where the setter fails */
@@ -460,7 +461,8 @@ static void check_speed_bound(const struct lat *L, const struct ow_window *w,
 	}
 	if (isnan(x_out))
 		fail_msg("speed bound %g rpm (check %d): the check does not "
-			 "fail within a step beyond it", b->value, b->check);
+		         "fail within a step beyond it",
+		         b->value, b->check);
 	xc = crossing(L, k, w->axis_min, w->axis_max, b->value, x_out);
 	assert_true(fabs(xc - b->value) <= b->resolution + 1e-9);
 }
@@ -469,7 +471,7 @@ static void check_speed_bound(const struct lat *L, const struct ow_window *w,
  * fails between it and the next candidate beyond, over the speeds the
  * rectangle held before rounding (within a step of its bounds). */
 static void check_set_bound(const struct lat *L, const struct ow_window *w,
-			    int side)
+                            int side)
 {
 	const struct ow_window_bound *b = &w->bound[side];
 	double cand[2048], next, lo, hi, low = INFINITY;
@@ -494,19 +496,20 @@ static void check_set_bound(const struct lat *L, const struct ow_window *w,
 	 * [lo, hi] is at an end or on a column */
 	for (i = -1; i <= L->nr; i++) {
 		double x = i < 0 ? lo
-			   : i == L->nr ? hi
-					: L->r0 + (L->r1 - L->r0) * i / (L->nr - 1);
+		           : i == L->nr
+		               ? hi
+		               : L->r0 + (L->r1 - L->r0) * i / (L->nr - 1);
 
 		if (x >= lo && x <= hi)
 			low = fmin(low, band_min(L, k, x, fmin(b->value, next),
-						 fmax(b->value, next)));
+			                         fmax(b->value, next)));
 	}
 	assert_true(low < 0.0);
 }
 
 /* Distance from (x, y) to the segment p-q. */
 static double to_segment(double x, double y, double px, double py, double qx,
-			 double qy)
+                         double qy)
 {
 	double dx = qx - px, dy = qy - py, l2 = dx * dx + dy * dy, t;
 
@@ -518,7 +521,7 @@ static double to_segment(double x, double y, double px, double py, double qx,
 /* Clearance of (rpm, axis) in units of the swept ranges: to the sweep's
  * edges and to every piece of the window's edge lines. */
 static double clearance(const struct lat *L, const struct ow_window *w,
-			double rpm, double axis)
+                        double rpm, double axis)
 {
 	double sr = L->r1 - L->r0, sa = L->a1 - L->a0;
 	double x = (rpm - L->r0) / sr, y = (axis - L->a0) / sa;
@@ -532,11 +535,13 @@ static double clearance(const struct lat *L, const struct ow_window *w,
 			const struct ow_polyline *pl = &w->bounds[b].lines[l];
 
 			for (i = 1; i < pl->n; i++)
-				d = fmin(d, to_segment(
-					x, y, (pl->p[i - 1].rpm - L->r0) / sr,
-					(pl->p[i - 1].axis - L->a0) / sa,
-					(pl->p[i].rpm - L->r0) / sr,
-					(pl->p[i].axis - L->a0) / sa));
+				d = fmin(
+				    d,
+				    to_segment(x, y,
+				               (pl->p[i - 1].rpm - L->r0) / sr,
+				               (pl->p[i - 1].axis - L->a0) / sa,
+				               (pl->p[i].rpm - L->r0) / sr,
+				               (pl->p[i].axis - L->a0) / sa));
 		}
 	}
 	return d;
@@ -545,14 +550,14 @@ static double clearance(const struct lat *L, const struct ow_window *w,
 /* Whole steps in [lo, hi] (value + offset a multiple of step): n of them
  * from *first; the midpoint alone when none. */
 static int whole_steps(double lo, double hi, double step, double offset,
-		       double *first)
+                       double *first)
 {
 	int n = 0;
 	double v;
 
 	*first = NAN;
-	for (v = ceil((lo + offset) / step - 1e-7) * step; v - offset <= hi + 1e-7;
-	     v += step) {
+	for (v = ceil((lo + offset) / step - 1e-7) * step;
+	     v - offset <= hi + 1e-7; v += step) {
 		if (!n)
 			*first = v - offset;
 		n++;
@@ -569,13 +574,14 @@ static void check_centre(const struct lat *L, const struct ow_window *w)
 {
 	double r0, a0, best = -1.0, br = NAN, ba = NAN;
 	int nr = whole_steps(w->rpm_min, w->rpm_max, L->rstep, 0.0, &r0);
-	int na = whole_steps(w->axis_min, w->axis_max, L->tstep, L->offset_C,
-			     &a0);
+	int na =
+	    whole_steps(w->axis_min, w->axis_max, L->tstep, L->offset_C, &a0);
 	int i, j;
 
 	for (j = 0; j < na; j++)
 		for (i = 0; i < nr; i++) {
-			double rpm = r0 + i * L->rstep, axis = a0 + j * L->tstep;
+			double rpm = r0 + i * L->rstep,
+			       axis = a0 + j * L->tstep;
 			double c = clearance(L, w, rpm, axis);
 
 			if (c > best + 1e-9) {
@@ -613,7 +619,7 @@ static int compare(const struct ow_study *s, struct lat *L, int smooth)
 		double x = w->rpm_min + (w->rpm_max - w->rpm_min) * k / 200.0;
 
 		assert_true(band_min(L, -1, x, w->axis_min, w->axis_max) >=
-			    -1e-9);
+		            -1e-9);
 	}
 	/* as large as the largest, less what rounding each speed bound
 	 * inward to a whole step may cost */
@@ -629,20 +635,21 @@ static int compare(const struct ow_study *s, struct lat *L, int smooth)
 	/* a clear optimum (no other pair of rows within 1e-3 of the area):
 	 * the same set-point rows, speeds within the stated resolution of
 	 * the brute-force crossings, set by the same checks */
-	if (smooth && bf.score - second > 1e-3 && bf.hi - bf.lo > 2 * L->rstep) {
+	if (smooth && bf.score - second > 1e-3 &&
+	    bf.hi - bf.lo > 2 * L->rstep) {
 		clear = 1;
 		assert_abs(w->axis_min, bf.A0, 1e-7);
 		assert_abs(w->axis_max, bf.A1, 1e-7);
 		assert_true(fabs(w->rpm_min - bf.lo) <=
-			    w->bound[OW_WB_RPM_MIN].resolution + 1e-7);
+		            w->bound[OW_WB_RPM_MIN].resolution + 1e-7);
 		assert_true(fabs(w->rpm_max - bf.hi) <=
-			    w->bound[OW_WB_RPM_MAX].resolution + 1e-7);
+		            w->bound[OW_WB_RPM_MAX].resolution + 1e-7);
 		assert_int_equal(w->bound[OW_WB_RPM_MIN].check,
-				 bf.lo_k < 0 ? OW_WINDOW_SWEEP_EDGE
-					     : L->ch[bf.lo_k]);
+		                 bf.lo_k < 0 ? OW_WINDOW_SWEEP_EDGE
+		                             : L->ch[bf.lo_k]);
 		assert_int_equal(w->bound[OW_WB_RPM_MAX].check,
-				 bf.hi_k < 0 ? OW_WINDOW_SWEEP_EDGE
-					     : L->ch[bf.hi_k]);
+		                 bf.hi_k < 0 ? OW_WINDOW_SWEEP_EDGE
+		                             : L->ch[bf.hi_k]);
 	}
 done:
 	ow_window_destroy(w);
@@ -689,10 +696,10 @@ static void random_smooth_fields_match_the_brute_force(void **st)
 int main(void)
 {
 	const struct CMUnitTest tests[] = {
-		cmocka_unit_test(random_masks_match_the_brute_force),
-		cmocka_unit_test(random_smooth_fields_match_the_brute_force),
+	    cmocka_unit_test(random_masks_match_the_brute_force),
+	    cmocka_unit_test(random_smooth_fields_match_the_brute_force),
 	};
 
 	return cmocka_run_group_tests(tests, ow_test_units_setup,
-				      ow_test_units_teardown);
+	                              ow_test_units_teardown);
 }

@@ -8,7 +8,8 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define CSV_MAX_BYTES ((size_t)64 * 1024 * 1024) /* a lab table is far smaller */
+#define CSV_MAX_BYTES                                                          \
+	((size_t)64 * 1024 * 1024) /* a lab table is far smaller */
 #define CSV_MAX_COLS 1024 /* a guard against a runaway line, not a limit */
 #define CSV_MAX_CELL 256  /* bytes: a number written out in full is shorter */
 
@@ -90,15 +91,15 @@ void ow_csv_destroy(struct ow_csv *c)
 }
 
 static enum ow_status read_header(struct ow_csv *c, struct span line,
-				  int lineno, struct ow_diag *d)
+                                  int lineno, struct ow_diag *d)
 {
 	struct span cells[CSV_MAX_COLS + 1];
 	int n = split(line, cells, CSV_MAX_COLS), i;
 
 	if (n > CSV_MAX_COLS)
 		return ow_diag_set(d, OW_EINPUT,
-				   "%s: line %d: more than %d columns", c->name,
-				   lineno, CSV_MAX_COLS);
+		                   "%s: line %d: more than %d columns", c->name,
+		                   lineno, CSV_MAX_COLS);
 	c->cols = calloc((size_t)n, sizeof *c->cols);
 	if (!c->cols)
 		return ow_diag_set(d, OW_ENOMEM, "%s: out of memory", c->name);
@@ -106,64 +107,64 @@ static enum ow_status read_header(struct ow_csv *c, struct span line,
 	c->header_line = lineno;
 	for (i = 0; i < n; i++) {
 		if (memchr(cells[i].start, '\0',
-			   (size_t)(cells[i].end - cells[i].start)))
+		           (size_t)(cells[i].end - cells[i].start)))
 			return ow_diag_set(d, OW_EINPUT,
-					   "%s: line %d, column %d: a NUL byte "
-					   "in the column name", c->name,
-					   lineno, i + 1);
+			                   "%s: line %d, column %d: a NUL byte "
+			                   "in the column name",
+			                   c->name, lineno, i + 1);
 		if (cells[i].start == cells[i].end)
 			return ow_diag_set(d, OW_EINPUT,
-					   "%s: line %d, column %d: empty "
-					   "column name in the header",
-					   c->name, lineno, i + 1);
+			                   "%s: line %d, column %d: empty "
+			                   "column name in the header",
+			                   c->name, lineno, i + 1);
 		if (ow_io_utf8_check(cells[i].start,
-				     (size_t)(cells[i].end - cells[i].start)) !=
+		                     (size_t)(cells[i].end - cells[i].start)) !=
 		    (size_t)(cells[i].end - cells[i].start))
 			return ow_diag_set(d, OW_EINPUT,
-					   "%s: line %d, column %d: the column "
-					   "name is not UTF-8 text", c->name,
-					   lineno, i + 1);
+			                   "%s: line %d, column %d: the column "
+			                   "name is not UTF-8 text",
+			                   c->name, lineno, i + 1);
 		c->cols[i] = dup_span(cells[i]);
 		if (!c->cols[i])
 			return ow_diag_set(d, OW_ENOMEM, "%s: out of memory",
-					   c->name);
+			                   c->name);
 	}
 	return OW_OK;
 }
 
 /* One data cell -> a finite number, or a message naming line and column. */
 static enum ow_status read_number(const struct ow_csv *c, struct span s,
-				  int lineno, int col, double *x,
-				  struct ow_diag *d)
+                                  int lineno, int col, double *x,
+                                  struct ow_diag *d)
 {
 	char buf[CSV_MAX_CELL + 1], *end;
 	size_t len = (size_t)(s.end - s.start);
 
 	if (len == 0)
 		return ow_diag_set(d, OW_EINPUT,
-				   "%s: line %d, column %d (%s): empty cell: "
-				   "expected a number", c->name, lineno,
-				   col + 1, c->cols[col]);
+		                   "%s: line %d, column %d (%s): empty cell: "
+		                   "expected a number",
+		                   c->name, lineno, col + 1, c->cols[col]);
 	if (memchr(s.start, '\0', len))
 		return ow_diag_set(d, OW_EINPUT,
-				   "%s: line %d, column %d (%s): a NUL byte in "
-				   "the cell: expected a number", c->name,
-				   lineno, col + 1, c->cols[col]);
+		                   "%s: line %d, column %d (%s): a NUL byte in "
+		                   "the cell: expected a number",
+		                   c->name, lineno, col + 1, c->cols[col]);
 	if (len > CSV_MAX_CELL) /* never cut: a cut number is another one */
 		return ow_diag_set(d, OW_EINPUT,
-				   "%s: line %d, column %d (%s): a cell of %zu "
-				   "bytes: a number is at most %d", c->name,
-				   lineno, col + 1, c->cols[col], len,
-				   CSV_MAX_CELL);
+		                   "%s: line %d, column %d (%s): a cell of %zu "
+		                   "bytes: a number is at most %d",
+		                   c->name, lineno, col + 1, c->cols[col], len,
+		                   CSV_MAX_CELL);
 	memcpy(buf, s.start, len);
 	buf[len] = '\0';
 	errno = 0;
 	*x = strtod(buf, &end);
 	if (end == buf || *end != '\0' || !isfinite(*x) || errno == ERANGE)
 		return ow_diag_set(d, OW_EINPUT,
-				   "%s: line %d, column %d (%s): \"%s\" is not "
-				   "a finite number", c->name, lineno, col + 1,
-				   c->cols[col], buf);
+		                   "%s: line %d, column %d (%s): \"%s\" is not "
+		                   "a finite number",
+		                   c->name, lineno, col + 1, c->cols[col], buf);
 	return OW_OK;
 }
 
@@ -181,7 +182,7 @@ static int is_text_col(const struct ow_csv *c, int col)
 /* A cell: text kept as it is in a text column, NAN for an empty cell when
  * empty cells are allowed, otherwise a number. */
 static enum ow_status read_cell(struct ow_csv *c, struct span s, int lineno,
-				int col, double *x, struct ow_diag *d)
+                                int col, double *x, struct ow_diag *d)
 {
 	size_t at = c->n_rows * (size_t)c->n_cols + (size_t)col;
 
@@ -192,14 +193,17 @@ static enum ow_status read_cell(struct ow_csv *c, struct span s, int lineno,
 		if (len > CSV_MAX_CELL || memchr(s.start, '\0', len) ||
 		    ow_io_utf8_check(s.start, len) != len)
 			return ow_diag_set(d, OW_EINPUT,
-					   "%s: line %d, column %d (%s): "
-					   "expected UTF-8 text of at most %d "
-					   "bytes", c->name, lineno, col + 1,
-					   c->cols[col], CSV_MAX_CELL);
+			                   "%s: line %d, column %d (%s): "
+			                   "expected UTF-8 text of at most %d "
+			                   "bytes",
+			                   c->name, lineno, col + 1,
+			                   c->cols[col], CSV_MAX_CELL);
 		c->texts[at] = dup_span(s);
 		return c->texts[at] ? OW_OK
-				    : ow_diag_set(d, OW_ENOMEM, "%s: out of "
-						  "memory", c->name);
+		                    : ow_diag_set(d, OW_ENOMEM,
+		                                  "%s: out of "
+		                                  "memory",
+		                                  c->name);
 	}
 	if (c->empty_nan && len == 0) {
 		*x = NAN;
@@ -209,7 +213,7 @@ static enum ow_status read_cell(struct ow_csv *c, struct span s, int lineno,
 }
 
 static enum ow_status read_row(struct ow_csv *c, struct span line, int lineno,
-			       struct ow_diag *d)
+                               struct ow_diag *d)
 {
 	struct span cells[CSV_MAX_COLS + 1];
 	int n = split(line, cells, c->n_cols), i;
@@ -217,12 +221,12 @@ static enum ow_status read_row(struct ow_csv *c, struct span line, int lineno,
 	enum ow_status st;
 
 	if (n != c->n_cols)
-		return ow_diag_set(d, OW_EINPUT,
-				   "%s: line %d: %s%d cells, but the header "
-				   "(line %d) names %d columns", c->name,
-				   lineno, n > c->n_cols ? "more than " : "",
-				   n > c->n_cols ? c->n_cols : n,
-				   c->header_line, c->n_cols);
+		return ow_diag_set(
+		    d, OW_EINPUT,
+		    "%s: line %d: %s%d cells, but the header "
+		    "(line %d) names %d columns",
+		    c->name, lineno, n > c->n_cols ? "more than " : "",
+		    n > c->n_cols ? c->n_cols : n, c->header_line, c->n_cols);
 	for (i = 0; i < n; i++) {
 		st = read_cell(c, cells[i], lineno, i, &row[i], d);
 		if (st != OW_OK)
@@ -243,7 +247,7 @@ static size_t count_lines(const char *text, size_t len)
 }
 
 static enum ow_status parse_lines(struct ow_csv *c, const char *text,
-				  size_t len, struct ow_diag *d)
+                                  size_t len, struct ow_diag *d)
 {
 	size_t max_rows = count_lines(text, len);
 	const char *p = text, *end = text + len;
@@ -261,40 +265,40 @@ static enum ow_status parse_lines(struct ow_csv *c, const char *text,
 		if (!c->cols) {
 			st = read_header(c, line, lineno, d);
 			c->cells = malloc(max_rows * (size_t)c->n_cols *
-					  sizeof *c->cells);
+			                  sizeof *c->cells);
 			if (st == OW_OK && c->text_names)
 				c->texts = calloc(max_rows * (size_t)c->n_cols,
-						  sizeof *c->texts);
+				                  sizeof *c->texts);
 			if (st == OW_OK && c->text_names && !c->texts)
 				st = ow_diag_set(d, OW_ENOMEM,
-						 "%s: out of memory", c->name);
+				                 "%s: out of memory", c->name);
 			if (st == OW_OK && !c->cells)
 				st = ow_diag_set(d, OW_ENOMEM,
-						 "%s: out of memory", c->name);
+				                 "%s: out of memory", c->name);
 		} else
 			st = read_row(c, line, lineno, d);
 	}
 	if (st == OW_OK && !c->cols)
 		st = ow_diag_set(d, OW_EINPUT,
-				 "%s: line 1: empty file: expected a header "
-				 "line of column names", c->name);
+		                 "%s: line 1: empty file: expected a header "
+		                 "line of column names",
+		                 c->name);
 	else if (st == OW_OK && c->n_rows == 0)
 		st = ow_diag_set(d, OW_EINPUT,
-				 "%s: line %d: no data rows after the header",
-				 c->name, lineno);
+		                 "%s: line %d: no data rows after the header",
+		                 c->name, lineno);
 	return st;
 }
 
 enum ow_status ow_csv_parse(const char *text, size_t len, const char *name,
-			    struct ow_csv **out, struct ow_diag *d)
+                            struct ow_csv **out, struct ow_diag *d)
 {
 	return ow_csv_parse_with(text, len, name, NULL, 0, out, d);
 }
 
-enum ow_status ow_csv_parse_with(const char *text, size_t len,
-				 const char *name,
-				 const char *const *text_cols, int empty_nan,
-				 struct ow_csv **out, struct ow_diag *d)
+enum ow_status ow_csv_parse_with(const char *text, size_t len, const char *name,
+                                 const char *const *text_cols, int empty_nan,
+                                 struct ow_csv **out, struct ow_diag *d)
 {
 	struct ow_csv *c = calloc(1, sizeof *c);
 	enum ow_status st = OW_ENOMEM;
@@ -325,14 +329,14 @@ fail:
 }
 
 enum ow_status ow_csv_read(const char *path, struct ow_csv **out,
-			   struct ow_diag *d)
+                           struct ow_diag *d)
 {
 	return ow_csv_read_with(path, NULL, 0, out, d);
 }
 
-enum ow_status ow_csv_read_with(const char *path,
-				const char *const *text_cols, int empty_nan,
-				struct ow_csv **out, struct ow_diag *d)
+enum ow_status ow_csv_read_with(const char *path, const char *const *text_cols,
+                                int empty_nan, struct ow_csv **out,
+                                struct ow_diag *d)
 {
 	char *buf = NULL;
 	size_t len = 0;
@@ -341,12 +345,14 @@ enum ow_status ow_csv_read_with(const char *path,
 	*out = NULL;
 	len = strlen(path);
 	if (ow_io_utf8_check(path, len) != len) /* it is copied into outputs */
-		return ow_diag_set(d, OW_EINPUT, "%s: the file name is not "
-				   "UTF-8 text: rename the file", path);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "%s: the file name is not "
+		                   "UTF-8 text: rename the file",
+		                   path);
 	st = ow_io_read_file(path, CSV_MAX_BYTES, &buf, &len, d);
 	if (st == OW_OK)
 		st = ow_csv_parse_with(buf, len, path, text_cols, empty_nan,
-				       out, d);
+		                       out, d);
 	free(buf);
 	return st;
 }
@@ -358,15 +364,14 @@ double ow_csv_cell(const struct ow_csv *c, size_t row, int col)
 
 const char *ow_csv_text(const struct ow_csv *c, size_t row, int col)
 {
-	const char *t = c->texts ? c->texts[row * (size_t)c->n_cols +
-					    (size_t)col]
-				 : NULL;
+	const char *t =
+	    c->texts ? c->texts[row * (size_t)c->n_cols + (size_t)col] : NULL;
 
 	return t ? t : "";
 }
 
-int ow_csv_find(const struct ow_csv *c, const char *quantity,
-		const char **unit, int *count)
+int ow_csv_find(const struct ow_csv *c, const char *quantity, const char **unit,
+                int *count)
 {
 	size_t len = strlen(quantity);
 	int i, found = -1, n = 0;

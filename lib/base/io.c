@@ -58,7 +58,7 @@ void ow_buf_free(struct ow_buf *b)
 }
 
 enum ow_status ow_buf_take(struct ow_buf *b, char **out, size_t *len,
-			   struct ow_diag *d)
+                           struct ow_diag *d)
 {
 	*out = NULL;
 	if (!b->oom && !b->data)
@@ -162,7 +162,7 @@ const char *ow_io_strerror(int err, char *buf, size_t n)
 }
 
 enum ow_status ow_io_read_file(const char *path, size_t max, char **out,
-			       size_t *len, struct ow_diag *d)
+                               size_t *len, struct ow_diag *d)
 {
 	char eb[128];
 	int err = ow_io_slurp(path, max, out, len);
@@ -173,12 +173,12 @@ enum ow_status ow_io_read_file(const char *path, size_t max, char **out,
 		return ow_diag_set(d, OW_ENOMEM, "%s: out of memory", path);
 	if (err == EFBIG)
 		return ow_diag_set(d, OW_EINPUT, "%s: larger than %zu bytes",
-				   path, max);
+		                   path, max);
 	if (err == EISDIR || err == EINVAL)
 		return ow_diag_set(d, OW_EINPUT, "%s: %s", path,
-				   ow_io_strerror(err, eb, sizeof eb));
+		                   ow_io_strerror(err, eb, sizeof eb));
 	return ow_diag_set(d, OW_EINPUT, "%s: cannot be read: %s", path,
-			   ow_io_strerror(err, eb, sizeof eb));
+	                   ow_io_strerror(err, eb, sizeof eb));
 }
 
 /* ---- writing ---------------------------------------------------------- */
@@ -242,7 +242,7 @@ static char *sibling(const char *path, const char *suffix)
 
 	if (t)
 		snprintf(t, n, "%.*s.%.*s.%s", (int)dlen, path, (int)blen, base,
-			 suffix);
+		         suffix);
 	return t;
 }
 
@@ -266,7 +266,7 @@ static int write_direct(const char *path, const void *data, size_t len)
 
 /* Temporary beside path, written and flushed, renamed over path. */
 static int write_replace(const char *path, const void *data, size_t len,
-			 mode_t mode)
+                         mode_t mode)
 {
 	char *tmp = sibling(path, "XXXXXX");
 	struct stat st;
@@ -300,8 +300,8 @@ static int write_replace(const char *path, const void *data, size_t len,
 	return err;
 }
 
-enum ow_status ow_io_write_file(const char *path, const void *data,
-				size_t len, struct ow_diag *d)
+enum ow_status ow_io_write_file(const char *path, const void *data, size_t len,
+                                struct ow_diag *d)
 {
 	struct stat lst, st;
 	char eb[128];
@@ -309,7 +309,8 @@ enum ow_status ow_io_write_file(const char *path, const void *data,
 	int err;
 
 	if (!path || !*path || (!data && len))
-		return ow_diag_set(d, OW_EARG, "ow_io_write_file: bad argument");
+		return ow_diag_set(d, OW_EARG,
+		                   "ow_io_write_file: bad argument");
 	if (lstat(path, &lst) == 0) {
 		if (S_ISLNK(lst.st_mode) && stat(path, &st) == 0 &&
 		    (S_ISCHR(st.st_mode) || S_ISFIFO(st.st_mode)))
@@ -319,14 +320,18 @@ enum ow_status ow_io_write_file(const char *path, const void *data,
 			goto done;
 		}
 		if (S_ISLNK(lst.st_mode))
-			return ow_diag_set(d, OW_EIO, "%s: is a symbolic link: "
-					   "not followed, not replaced; name "
-					   "the file itself", path);
+			return ow_diag_set(d, OW_EIO,
+			                   "%s: is a symbolic link: "
+			                   "not followed, not replaced; name "
+			                   "the file itself",
+			                   path);
 		if (S_ISDIR(lst.st_mode))
 			return ow_diag_set(d, OW_EIO, "%s: is a folder", path);
 		if (!S_ISREG(lst.st_mode))
-			return ow_diag_set(d, OW_EIO, "%s: is not a regular "
-					   "file: not replaced", path);
+			return ow_diag_set(d, OW_EIO,
+			                   "%s: is not a regular "
+			                   "file: not replaced",
+			                   path);
 		mode = lst.st_mode & 0777; /* never set-id bits */
 	} else if (errno != ENOENT) {
 		err = errno;
@@ -336,10 +341,10 @@ enum ow_status ow_io_write_file(const char *path, const void *data,
 done:
 	if (err == ENXIO)
 		return ow_diag_set(d, OW_EIO, "%s: no process reads this FIFO",
-				   path);
+		                   path);
 	if (err)
 		return ow_diag_set(d, OW_EIO, "%s: cannot write: %s", path,
-				   ow_io_strerror(err, eb, sizeof eb));
+		                   ow_io_strerror(err, eb, sizeof eb));
 	return OW_OK;
 }
 
@@ -384,36 +389,39 @@ enum ow_status ow_io_dir_check(const char *dir, struct ow_diag *d)
 	if (blen == 0 || *base == '/' || !strncmp(base, ".", blen) ||
 	    !strncmp(base, "..", blen)) {
 		/* a folder is put in place by renaming it: it needs a name */
-		s = ow_diag_set(d, OW_EIO, "%s: name the folder itself (as "
-				"in out/map), not \".\", \"..\" or \"/\"",
-				dir);
+		s = ow_diag_set(d, OW_EIO,
+		                "%s: name the folder itself (as "
+		                "in out/map), not \".\", \"..\" or \"/\"",
+		                dir);
 		goto done;
 	}
 	if (lstat(dir, &st) == 0 && !S_ISDIR(st.st_mode)) {
 		s = ow_diag_set(d, OW_EIO, "%s: %s", dir,
-				S_ISLNK(st.st_mode)
-					? "is a symbolic link: name the "
-					  "folder itself"
-					: "a file has that name, not a folder");
+		                S_ISLNK(st.st_mode)
+		                    ? "is a symbolic link: name the "
+		                      "folder itself"
+		                    : "a file has that name, not a folder");
 		goto done;
 	}
 	if (stat(parent, &st) != 0 || !S_ISDIR(st.st_mode)) {
-		s = ow_diag_set(d, OW_EIO, "%s: cannot create the folder: %s "
-				"is not a folder", dir, parent);
+		s = ow_diag_set(d, OW_EIO,
+		                "%s: cannot create the folder: %s "
+		                "is not a folder",
+		                dir, parent);
 		goto done;
 	}
 	/* with the effective ids, as creating would; EROFS on a read-only
 	 * file system. Nothing is made, so a signal leaves nothing behind. */
 	if (faccessat(AT_FDCWD, parent, W_OK | X_OK, AT_EACCESS) != 0)
 		s = ow_diag_set(d, OW_EIO, "%s: cannot create the folder: %s",
-				dir, ow_io_strerror(errno, eb, sizeof eb));
+		                dir, ow_io_strerror(errno, eb, sizeof eb));
 done:
 	free(parent);
 	return s;
 }
 
 enum ow_status ow_io_dir_begin(const char *dir, char *tmp, size_t n,
-			       struct ow_diag *d)
+                               struct ow_diag *d)
 {
 	char *t = sibling(dir, "XXXXXX");
 	char eb[128];
@@ -426,8 +434,9 @@ enum ow_status ow_io_dir_begin(const char *dir, char *tmp, size_t n,
 		int err = errno;
 
 		free(t);
-		return ow_diag_set(d, OW_EIO, "%s: cannot create the folder: %s",
-				   dir, ow_io_strerror(err, eb, sizeof eb));
+		return ow_diag_set(d, OW_EIO,
+		                   "%s: cannot create the folder: %s", dir,
+		                   ow_io_strerror(err, eb, sizeof eb));
 	}
 	snprintf(tmp, n, "%s", t);
 	free(t);
@@ -435,7 +444,7 @@ enum ow_status ow_io_dir_begin(const char *dir, char *tmp, size_t n,
 }
 
 enum ow_status ow_io_dir_commit(const char *tmp, const char *dir, int *old,
-				struct ow_diag *d)
+                                struct ow_diag *d)
 {
 	char eb[128];
 	int err;
@@ -453,11 +462,11 @@ enum ow_status ow_io_dir_commit(const char *tmp, const char *dir, int *old,
 		err = errno;
 	}
 	return ow_diag_set(d, OW_EIO, "%s: cannot put the folder in place: %s",
-			   dir, ow_io_strerror(err, eb, sizeof eb));
+	                   dir, ow_io_strerror(err, eb, sizeof eb));
 }
 
 int ow_io_dir_remove(const char *dir, int (*keep)(const char *name, void *ctx),
-		     void *ctx, const char *dest)
+                     void *ctx, const char *dest)
 {
 	DIR *dp = opendir(dir);
 	struct dirent *e;
@@ -480,7 +489,7 @@ int ow_io_dir_remove(const char *dir, int (*keep)(const char *name, void *ctx),
 		if (keep && keep(e->d_name, ctx)) {
 			if (destfd < 0 ||
 			    renameat2(dfd, e->d_name, destfd, e->d_name,
-				      RENAME_NOREPLACE) != 0)
+			              RENAME_NOREPLACE) != 0)
 				stayed = 1;
 			continue;
 		}

@@ -3,8 +3,8 @@
 #ifndef OW_CONST_H
 #define OW_CONST_H
 
-#define OW_PI 3.14159265358979323846
-#define OW_ZERO_C_K 273.15          /* 0 degC in K (ISO 80000-5) */
+#define OW_PI           3.14159265358979323846
+#define OW_ZERO_C_K     273.15      /* 0 degC in K (ISO 80000-5) */
 #define OW_GAS_CONSTANT 8.314462618 /* J/(mol K), CODATA 2018 */
 
 #endif

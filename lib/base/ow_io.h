@@ -44,7 +44,7 @@ void ow_buf_adds(struct ow_buf *b, const char *s);
  * their count to *len (may be NULL); the buffer is empty afterwards.
  * OW_ENOMEM if an add failed (the buffer is freed). */
 enum ow_status ow_buf_take(struct ow_buf *b, char **out, size_t *len,
-			   struct ow_diag *d);
+                           struct ow_diag *d);
 
 /* Free the bytes and empty the buffer (NULL-safe). */
 void ow_buf_free(struct ow_buf *b);
@@ -63,7 +63,7 @@ int ow_io_slurp(const char *path, size_t max, char **out, size_t *len);
  * folder, not a file" / "<path>: is not a regular file" / "<path>: larger
  * than <max> bytes" / "<path>: cannot be read: <reason>". */
 enum ow_status ow_io_read_file(const char *path, size_t max, char **out,
-			       size_t *len, struct ow_diag *d);
+                               size_t *len, struct ow_diag *d);
 
 /* Text for an errno value returned by ow_io_slurp ("is a folder, not a
  * file", "is not a regular file", "too large", or strerror). */
@@ -73,8 +73,8 @@ const char *ow_io_strerror(int err, char *buf, size_t n);
 
 /* Write len bytes to path as described above. OW_EIO naming the path and
  * the reason when it cannot be done (nothing replaced then). */
-enum ow_status ow_io_write_file(const char *path, const void *data,
-				size_t len, struct ow_diag *d);
+enum ow_status ow_io_write_file(const char *path, const void *data, size_t len,
+                                struct ow_diag *d);
 
 /* Can folder dir be written as a whole? Its parent must be an existing
  * folder this process can create entries in (faccessat with the effective
@@ -85,13 +85,13 @@ enum ow_status ow_io_dir_check(const char *dir, struct ow_diag *d);
 
 /* Make the sibling temporary folder for dir; its path into tmp[n]. */
 enum ow_status ow_io_dir_begin(const char *dir, char *tmp, size_t n,
-			       struct ow_diag *d);
+                               struct ow_diag *d);
 
 /* Put the finished folder tmp in place of dir. When dir existed, the
  * previous folder is now at tmp (old = 1); otherwise tmp is gone (old =
  * 0). OW_EIO naming dir when it cannot be done (tmp is then untouched). */
 enum ow_status ow_io_dir_commit(const char *tmp, const char *dir, int *old,
-				struct ow_diag *d);
+                                struct ow_diag *d);
 
 /* Remove folder dir: each entry keep() (may be NULL) wants is renamed into
  * folder dest (never over an entry of dest; NULL dest: it stays), every
@@ -100,7 +100,7 @@ enum ow_status ow_io_dir_commit(const char *tmp, const char *dir, int *old,
  * removed when it ends up empty. Returns 0 when dir is gone, -1 when
  * something stayed. */
 int ow_io_dir_remove(const char *dir, int (*keep)(const char *name, void *ctx),
-		     void *ctx, const char *dest);
+                     void *ctx, const char *dest);
 
 /* Entries of folder dir besides "." and "..", -1 when it cannot be read. */
 int ow_io_dir_count(const char *dir);

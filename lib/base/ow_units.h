@@ -22,12 +22,12 @@ enum ow_dim {
 	OW_DIM_SPECIFIC_HEAT, /* J/(kg K) */
 	OW_DIM_CONDUCTIVITY,  /* W/(m K) */
 	OW_DIM_SPECIFIC_ENERGY, /* J/kg */
-	OW_DIM_MOLAR_ENERGY,  /* J/mol */
-	OW_DIM_VISCOSITY,     /* Pa s */
-	OW_DIM_TIME,          /* s */
-	OW_DIM_POWER,         /* W */
-	OW_DIM_TORQUE,        /* N m */
-	OW_DIM_SHEAR_RATE,    /* 1/s */
+	OW_DIM_MOLAR_ENERGY,    /* J/mol */
+	OW_DIM_VISCOSITY,       /* Pa s */
+	OW_DIM_TIME,            /* s */
+	OW_DIM_POWER,           /* W */
+	OW_DIM_TORQUE,          /* N m */
+	OW_DIM_SHEAR_RATE,      /* 1/s */
 	OW_DIM_CONSISTENCY,   /* Pa s^n: "<pressure unit> s^n" or "Pa s^0.4" */
 	OW_DIM_HEAT_TRANSFER, /* W/(m2 K), a heat-transfer coefficient */
 	OW_DIM_COUNT
@@ -57,19 +57,19 @@ void ow_units_destroy(struct ow_units *u);
  * such as ..." in d (without file/path: the caller prefixes those);
  * OW_EARG for NULL arguments. Not thread-safe (UDUNITS-2). */
 enum ow_status ow_units_parse(const struct ow_units *u, const char *text,
-			      enum ow_dim dim, double diameter_m, double *si,
-			      struct ow_diag *d);
+                              enum ow_dim dim, double diameter_m, double *si,
+                              struct ow_diag *d);
 
 /* Convert number x given in unit text `unit` ("degF", "psi") to SI of dim.
  * Same rules and errors as ow_units_parse ("D" is refused: no diameter). */
 enum ow_status ow_units_convert(const struct ow_units *u, double x,
-				const char *unit, enum ow_dim dim, double *si,
-				struct ow_diag *d);
+                                const char *unit, enum ow_dim dim, double *si,
+                                struct ow_diag *d);
 
 /* Read text (trimmed) as one finite decimal number, '.' as the decimal
  * point whatever the locale. OW_EINPUT for "", "nan", "1e999", "2 mm". */
 enum ow_status ow_units_parse_number(const char *text, double *x,
-				     struct ow_diag *d);
+                                     struct ow_diag *d);
 
 /* The power of s written in a power-law consistency text ("20000 Pa
  * s^0.41" -> 0.41, "8 kPa s" -> 1): 1 and *power set, or 0 when the power
@@ -98,7 +98,6 @@ const char *ow_display_label(enum ow_unit_system sys, enum ow_dim dim);
 /* The inverse of ow_display_value: a number in the system's unit for dim
  * -> SI. NAN for an unknown system or dim. Pure, thread-safe. Every label
  * also parses back with ow_units_parse ("12.5 psi", "1.2 BTU/(lb·°F)"). */
-double ow_display_to_si(enum ow_unit_system sys, enum ow_dim dim,
-			double shown);
+double ow_display_to_si(enum ow_unit_system sys, enum ow_dim dim, double shown);
 
 #endif

@@ -6,7 +6,7 @@
 
 static const char *const status_text[] = {
 #define OW_STATUS_TEXT(name, text) text,
-	OW_STATUS_LIST(OW_STATUS_TEXT)
+    OW_STATUS_LIST(OW_STATUS_TEXT)
 #undef OW_STATUS_TEXT
 };
 
@@ -18,7 +18,7 @@ const char *ow_strerror(enum ow_status st)
 }
 
 enum ow_status ow_diag_set(struct ow_diag *d, enum ow_status st,
-			   const char *fmt, ...)
+                           const char *fmt, ...)
 {
 	va_list ap;
 

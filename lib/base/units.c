@@ -34,19 +34,19 @@
 #include "ow_io.h"
 #include "ow_const.h"
 
-#define TEXT_MAX 256   /* longest accepted input text, bytes */
-#define UNIT_BUF 1024  /* a unit after alias rewriting */
+#define TEXT_MAX    256  /* longest accepted input text, bytes */
+#define UNIT_BUF    1024 /* a unit after alias rewriting */
 #define PROBLEM_LEN 256
 
 /* Exact conversion factors, NIST SP 811 (2008), Appendix B.8 / B.9. */
-#define IN_M 0.0254              /* inch */
-#define FT_M 0.3048              /* foot */
-#define LB_KG 0.45359237         /* pound (avoirdupois) */
-#define PSI_PA 6894.757293168    /* pound-force per square inch */
-#define HP_W 745.69987158227     /* horsepower (550 ft lbf/s) */
-#define LBF_N 4.4482216152605    /* pound-force */
-#define BTU_J 1055.05585262      /* British thermal unit (IT) */
-#define DEGF_K (5.0 / 9.0)       /* one degree Fahrenheit interval, K */
+#define IN_M   0.0254          /* inch */
+#define FT_M   0.3048          /* foot */
+#define LB_KG  0.45359237      /* pound (avoirdupois) */
+#define PSI_PA 6894.757293168  /* pound-force per square inch */
+#define HP_W   745.69987158227 /* horsepower (550 ft lbf/s) */
+#define LBF_N  4.4482216152605 /* pound-force */
+#define BTU_J  1055.05585262   /* British thermal unit (IT) */
+#define DEGF_K (5.0 / 9.0)     /* one degree Fahrenheit interval, K */
 #define TWO_PI 6.28318530717958647692
 
 /* The UDUNITS-2 database, read at the first unit that needs it (reading
@@ -59,10 +59,10 @@ struct database {
 
 struct ow_units {
 	struct database *db; /* filled on first need (ow_units_parse is not
-				thread-safe anyway) */
-	locale_t c_numeric; /* "C" numbers while UDUNITS-2 reads (it uses
-			       strtod: "0.0254" would read as 0 under a
-			       decimal comma) */
+	                        thread-safe anyway) */
+	locale_t c_numeric;  /* "C" numbers while UDUNITS-2 reads (it uses
+	                        strtod: "0.0254" would read as 0 under a
+	                        decimal comma) */
 };
 
 /* Units converted without the database: exact factors (SI prefixes; the
@@ -78,44 +78,43 @@ struct exact_unit {
 
 #define DEGF_OFFSET 459.67 /* degF of 0 K */
 static const struct exact_unit exact_units[] = {
-	{"%", OW_DIM_NONE, 0.01, 0.0},
-	{"m", OW_DIM_LENGTH, 1.0, 0.0},
-	{"mm", OW_DIM_LENGTH, 1e-3, 0.0},
-	{"in", OW_DIM_LENGTH, IN_M, 0.0},
-	{"K", OW_DIM_TEMPERATURE, 1.0, 0.0},
-	{"degC", OW_DIM_TEMPERATURE, 1.0, OW_ZERO_C_K},
-	{"degF", OW_DIM_TEMPERATURE, DEGF_K, DEGF_OFFSET},
-	{"K", OW_DIM_TEMP_DIFF, 1.0, 0.0},
-	{"degC", OW_DIM_TEMP_DIFF, 1.0, 0.0},
-	{"degF", OW_DIM_TEMP_DIFF, DEGF_K, 0.0},
-	{"Pa", OW_DIM_PRESSURE, 1.0, 0.0},
-	{"kPa", OW_DIM_PRESSURE, 1e3, 0.0},
-	{"MPa", OW_DIM_PRESSURE, 1e6, 0.0},
-	{"bar", OW_DIM_PRESSURE, 1e5, 0.0},
-	{"kg/s", OW_DIM_MASS_FLOW, 1.0, 0.0},
-	{"kg/h", OW_DIM_MASS_FLOW, 1.0 / 3600.0, 0.0},
-	{"rpm", OW_DIM_ROT_SPEED, 1.0, 0.0},
-	{"kg/m3", OW_DIM_DENSITY, 1.0, 0.0},
-	{"J/(kg K)", OW_DIM_SPECIFIC_HEAT, 1.0, 0.0},
-	{"kJ/(kg K)", OW_DIM_SPECIFIC_HEAT, 1e3, 0.0},
-	{"W/(m K)", OW_DIM_CONDUCTIVITY, 1.0, 0.0},
-	{"J/kg", OW_DIM_SPECIFIC_ENERGY, 1.0, 0.0},
-	{"kJ/kg", OW_DIM_SPECIFIC_ENERGY, 1e3, 0.0},
-	{"J/mol", OW_DIM_MOLAR_ENERGY, 1.0, 0.0},
-	{"kJ/mol", OW_DIM_MOLAR_ENERGY, 1e3, 0.0},
-	{"Pa s", OW_DIM_VISCOSITY, 1.0, 0.0},
-	{"s", OW_DIM_TIME, 1.0, 0.0},
-	{"W", OW_DIM_POWER, 1.0, 0.0},
-	{"kW", OW_DIM_POWER, 1e3, 0.0},
-	{"N m", OW_DIM_TORQUE, 1.0, 0.0},
-	{"kN m", OW_DIM_TORQUE, 1e3, 0.0},
-	{"1/s", OW_DIM_SHEAR_RATE, 1.0, 0.0},
-	{"W/(m2 K)", OW_DIM_HEAT_TRANSFER, 1.0, 0.0},
+    {"%", OW_DIM_NONE, 0.01, 0.0},
+    {"m", OW_DIM_LENGTH, 1.0, 0.0},
+    {"mm", OW_DIM_LENGTH, 1e-3, 0.0},
+    {"in", OW_DIM_LENGTH, IN_M, 0.0},
+    {"K", OW_DIM_TEMPERATURE, 1.0, 0.0},
+    {"degC", OW_DIM_TEMPERATURE, 1.0, OW_ZERO_C_K},
+    {"degF", OW_DIM_TEMPERATURE, DEGF_K, DEGF_OFFSET},
+    {"K", OW_DIM_TEMP_DIFF, 1.0, 0.0},
+    {"degC", OW_DIM_TEMP_DIFF, 1.0, 0.0},
+    {"degF", OW_DIM_TEMP_DIFF, DEGF_K, 0.0},
+    {"Pa", OW_DIM_PRESSURE, 1.0, 0.0},
+    {"kPa", OW_DIM_PRESSURE, 1e3, 0.0},
+    {"MPa", OW_DIM_PRESSURE, 1e6, 0.0},
+    {"bar", OW_DIM_PRESSURE, 1e5, 0.0},
+    {"kg/s", OW_DIM_MASS_FLOW, 1.0, 0.0},
+    {"kg/h", OW_DIM_MASS_FLOW, 1.0 / 3600.0, 0.0},
+    {"rpm", OW_DIM_ROT_SPEED, 1.0, 0.0},
+    {"kg/m3", OW_DIM_DENSITY, 1.0, 0.0},
+    {"J/(kg K)", OW_DIM_SPECIFIC_HEAT, 1.0, 0.0},
+    {"kJ/(kg K)", OW_DIM_SPECIFIC_HEAT, 1e3, 0.0},
+    {"W/(m K)", OW_DIM_CONDUCTIVITY, 1.0, 0.0},
+    {"J/kg", OW_DIM_SPECIFIC_ENERGY, 1.0, 0.0},
+    {"kJ/kg", OW_DIM_SPECIFIC_ENERGY, 1e3, 0.0},
+    {"J/mol", OW_DIM_MOLAR_ENERGY, 1.0, 0.0},
+    {"kJ/mol", OW_DIM_MOLAR_ENERGY, 1e3, 0.0},
+    {"Pa s", OW_DIM_VISCOSITY, 1.0, 0.0},
+    {"s", OW_DIM_TIME, 1.0, 0.0},
+    {"W", OW_DIM_POWER, 1.0, 0.0},
+    {"kW", OW_DIM_POWER, 1e3, 0.0},
+    {"N m", OW_DIM_TORQUE, 1.0, 0.0},
+    {"kN m", OW_DIM_TORQUE, 1e3, 0.0},
+    {"1/s", OW_DIM_SHEAR_RATE, 1.0, 0.0},
+    {"W/(m2 K)", OW_DIM_HEAT_TRANSFER, 1.0, 0.0},
 };
 
 /* x in unit (dimension dim) -> *si when the unit is one of exact_units. */
-static int exact_to_si(const char *unit, enum ow_dim dim, double x,
-		       double *si)
+static int exact_to_si(const char *unit, enum ow_dim dim, double x, double *si)
 {
 	size_t i;
 
@@ -134,57 +133,57 @@ static int exact_to_si(const char *unit, enum ow_dim dim, double x,
  * rewritten to the number 1, so rev/min is 1/min here. Consistency: only
  * its pressure part goes through UDUNITS. */
 static const char *const si_text[OW_DIM_COUNT] = {
-	[OW_DIM_NONE] = "1",
-	[OW_DIM_LENGTH] = "m",
-	[OW_DIM_TEMPERATURE] = "K",
-	[OW_DIM_TEMP_DIFF] = "K",
-	[OW_DIM_PRESSURE] = "Pa",
-	[OW_DIM_MASS_FLOW] = "kg/s",
-	[OW_DIM_ROT_SPEED] = "1/min",
-	[OW_DIM_DENSITY] = "kg/m3",
-	[OW_DIM_SPECIFIC_HEAT] = "J/(kg K)",
-	[OW_DIM_CONDUCTIVITY] = "W/(m K)",
-	[OW_DIM_SPECIFIC_ENERGY] = "J/kg",
-	[OW_DIM_MOLAR_ENERGY] = "J/mol",
-	[OW_DIM_VISCOSITY] = "Pa s",
-	[OW_DIM_TIME] = "s",
-	[OW_DIM_POWER] = "W",
-	[OW_DIM_TORQUE] = "N m", /* same dimension as J: both accepted */
-	[OW_DIM_SHEAR_RATE] = "1/s",
-	[OW_DIM_CONSISTENCY] = "Pa",
-	[OW_DIM_HEAT_TRANSFER] = "W/(m2 K)",
+    [OW_DIM_NONE] = "1",
+    [OW_DIM_LENGTH] = "m",
+    [OW_DIM_TEMPERATURE] = "K",
+    [OW_DIM_TEMP_DIFF] = "K",
+    [OW_DIM_PRESSURE] = "Pa",
+    [OW_DIM_MASS_FLOW] = "kg/s",
+    [OW_DIM_ROT_SPEED] = "1/min",
+    [OW_DIM_DENSITY] = "kg/m3",
+    [OW_DIM_SPECIFIC_HEAT] = "J/(kg K)",
+    [OW_DIM_CONDUCTIVITY] = "W/(m K)",
+    [OW_DIM_SPECIFIC_ENERGY] = "J/kg",
+    [OW_DIM_MOLAR_ENERGY] = "J/mol",
+    [OW_DIM_VISCOSITY] = "Pa s",
+    [OW_DIM_TIME] = "s",
+    [OW_DIM_POWER] = "W",
+    [OW_DIM_TORQUE] = "N m", /* same dimension as J: both accepted */
+    [OW_DIM_SHEAR_RATE] = "1/s",
+    [OW_DIM_CONSISTENCY] = "Pa",
+    [OW_DIM_HEAT_TRANSFER] = "W/(m2 K)",
 };
 
 static const char *const expect_text[OW_DIM_COUNT] = {
-	[OW_DIM_NONE] = "a plain number such as \"0.45\" or \"45 %\"",
-	[OW_DIM_LENGTH] = "a length such as \"63.5 mm\", \"0.300 in\" or "
-			  "\"8 D\"",
-	[OW_DIM_TEMPERATURE] = "a temperature such as \"200 degC\", "
-			       "\"392 degF\" or \"473.15 K\"",
-	[OW_DIM_TEMP_DIFF] = "a temperature difference such as \"+10 K\" or "
-			     "\"+18 degF\"",
-	[OW_DIM_PRESSURE] = "a pressure such as \"35 MPa\" or \"5000 psi\"",
-	[OW_DIM_MASS_FLOW] = "a mass flow such as \"50 kg/h\" or \"110 lb/h\"",
-	[OW_DIM_ROT_SPEED] = "a screw speed such as \"60 rpm\" or \"1 rev/s\"",
-	[OW_DIM_DENSITY] = "a density such as \"760 kg/m3\" or "
-			   "\"47 lb/ft3\"",
-	[OW_DIM_SPECIFIC_HEAT] = "a specific heat such as \"2.3 kJ/(kg K)\" "
-				 "or \"0.55 BTU/(lb degF)\"",
-	[OW_DIM_CONDUCTIVITY] = "a thermal conductivity such as "
-				"\"0.18 W/(m K)\" or \"0.1 BTU/(h ft degF)\"",
-	[OW_DIM_SPECIFIC_ENERGY] = "a specific energy such as \"0.2 kWh/kg\" "
-				   "or \"720 kJ/kg\"",
-	[OW_DIM_MOLAR_ENERGY] = "a molar energy such as \"28 kJ/mol\"",
-	[OW_DIM_VISCOSITY] = "a viscosity such as \"9000 Pa s\"",
-	[OW_DIM_TIME] = "a time such as \"30 s\" or \"2 min\"",
-	[OW_DIM_POWER] = "a power such as \"30 kW\" or \"40 hp\"",
-	[OW_DIM_TORQUE] = "a torque such as \"4.8 kN m\" or \"3500 lbf ft\"",
-	[OW_DIM_SHEAR_RATE] = "a shear rate such as \"100 1/s\"",
-	[OW_DIM_CONSISTENCY] = "a power-law consistency such as "
-			       "\"20000 Pa s^0.41\" or \"20 kPa s^n\"",
-	[OW_DIM_HEAT_TRANSFER] = "a heat-transfer coefficient such as "
-				 "\"2000 W/(m2 K)\" or "
-				 "\"350 BTU/(h ft2 degF)\"",
+    [OW_DIM_NONE] = "a plain number such as \"0.45\" or \"45 %\"",
+    [OW_DIM_LENGTH] = "a length such as \"63.5 mm\", \"0.300 in\" or "
+                      "\"8 D\"",
+    [OW_DIM_TEMPERATURE] = "a temperature such as \"200 degC\", "
+                           "\"392 degF\" or \"473.15 K\"",
+    [OW_DIM_TEMP_DIFF] = "a temperature difference such as \"+10 K\" or "
+                         "\"+18 degF\"",
+    [OW_DIM_PRESSURE] = "a pressure such as \"35 MPa\" or \"5000 psi\"",
+    [OW_DIM_MASS_FLOW] = "a mass flow such as \"50 kg/h\" or \"110 lb/h\"",
+    [OW_DIM_ROT_SPEED] = "a screw speed such as \"60 rpm\" or \"1 rev/s\"",
+    [OW_DIM_DENSITY] = "a density such as \"760 kg/m3\" or "
+                       "\"47 lb/ft3\"",
+    [OW_DIM_SPECIFIC_HEAT] = "a specific heat such as \"2.3 kJ/(kg K)\" "
+                             "or \"0.55 BTU/(lb degF)\"",
+    [OW_DIM_CONDUCTIVITY] = "a thermal conductivity such as "
+                            "\"0.18 W/(m K)\" or \"0.1 BTU/(h ft degF)\"",
+    [OW_DIM_SPECIFIC_ENERGY] = "a specific energy such as \"0.2 kWh/kg\" "
+                               "or \"720 kJ/kg\"",
+    [OW_DIM_MOLAR_ENERGY] = "a molar energy such as \"28 kJ/mol\"",
+    [OW_DIM_VISCOSITY] = "a viscosity such as \"9000 Pa s\"",
+    [OW_DIM_TIME] = "a time such as \"30 s\" or \"2 min\"",
+    [OW_DIM_POWER] = "a power such as \"30 kW\" or \"40 hp\"",
+    [OW_DIM_TORQUE] = "a torque such as \"4.8 kN m\" or \"3500 lbf ft\"",
+    [OW_DIM_SHEAR_RATE] = "a shear rate such as \"100 1/s\"",
+    [OW_DIM_CONSISTENCY] = "a power-law consistency such as "
+                           "\"20000 Pa s^0.41\" or \"20 kPa s^n\"",
+    [OW_DIM_HEAT_TRANSFER] = "a heat-transfer coefficient such as "
+                             "\"2000 W/(m2 K)\" or "
+                             "\"350 BTU/(h ft2 degF)\"",
 };
 
 struct alias {
@@ -193,43 +192,43 @@ struct alias {
 
 /* Symbols UDUNITS-2 lacks or defines otherwise, rewritten in every unit. */
 static const struct alias common_alias[] = {
-	{"rpm", "(1/min)"}, /* UDUNITS: 2 pi rad/min; a turn counts 1 here */
-	{"RPM", "(1/min)"},
-	{"rps", "(1/s)"},
-	{"thou", "mil"},
-	{"Wh", "(W h)"},
-	{"kWh", "(kW h)"},
-	{"MWh", "(MW h)"},
-	{"BTU", "Btu"},
-	{"lbs", "lb"},
-	{"lbm", "lb"},
-	{"hp", "(745.69987158227022 W)"}, /* NIST SP 811 B.9; UDUNITS 745.6999 */
-	{"horsepower", "(745.69987158227022 W)"},
-	{"°C", "degC"},
-	{"°F", "degF"},
-	{"℃", "degC"},
-	{"℉", "degF"},
+    {"rpm", "(1/min)"}, /* UDUNITS: 2 pi rad/min; a turn counts 1 here */
+    {"RPM", "(1/min)"},
+    {"rps", "(1/s)"},
+    {"thou", "mil"},
+    {"Wh", "(W h)"},
+    {"kWh", "(kW h)"},
+    {"MWh", "(MW h)"},
+    {"BTU", "Btu"},
+    {"lbs", "lb"},
+    {"lbm", "lb"},
+    {"hp", "(745.69987158227022 W)"}, /* NIST SP 811 B.9; UDUNITS 745.6999 */
+    {"horsepower", "(745.69987158227022 W)"},
+    {"°C", "degC"},
+    {"°F", "degF"},
+    {"℃", "degC"},
+    {"℉", "degF"},
 };
 
 /* Screw speeds: angles as fractions of one turn (1 rev = 2 pi rad). */
 static const struct alias turn_alias[] = {
-	{"r", "(1)"}, /* "r/min" */
-	{"rev", "(1)"},
-	{"revs", "(1)"},
-	{"revolution", "(1)"},
-	{"revolutions", "(1)"},
-	{"turn", "(1)"},
-	{"turns", "(1)"},
-	{"rotation", "(1)"},
-	{"rotations", "(1)"},
-	{"cycle", "(1)"},
-	{"cycles", "(1)"},
-	{"rad", "(0.15915494309189535)"}, /* 1/(2 pi) */
-	{"radian", "(0.15915494309189535)"},
-	{"radians", "(0.15915494309189535)"},
-	{"degree", "(1/360)"},
-	{"degrees", "(1/360)"},
-	{"°", "(1/360)"}, /* ° alone: an arc degree */
+    {"r", "(1)"}, /* "r/min" */
+    {"rev", "(1)"},
+    {"revs", "(1)"},
+    {"revolution", "(1)"},
+    {"revolutions", "(1)"},
+    {"turn", "(1)"},
+    {"turns", "(1)"},
+    {"rotation", "(1)"},
+    {"rotations", "(1)"},
+    {"cycle", "(1)"},
+    {"cycles", "(1)"},
+    {"rad", "(0.15915494309189535)"}, /* 1/(2 pi) */
+    {"radian", "(0.15915494309189535)"},
+    {"radians", "(0.15915494309189535)"},
+    {"degree", "(1/360)"},
+    {"degrees", "(1/360)"},
+    {"°", "(1/360)"}, /* ° alone: an arc degree */
 };
 
 #define N_ALIAS(a) (sizeof(a) / sizeof((a)[0]))
@@ -251,7 +250,7 @@ const char *ow_dim_expect(enum ow_dim dim)
 
 /* OW_EINPUT with "\"<text>\": <problem>; expected <kind such as ...>". */
 static enum ow_status reject(const struct req *r, const char *fmt, ...)
-	__attribute__((format(printf, 2, 3)));
+    __attribute__((format(printf, 2, 3)));
 
 static enum ow_status reject(const struct req *r, const char *fmt, ...)
 {
@@ -262,11 +261,11 @@ static enum ow_status reject(const struct req *r, const char *fmt, ...)
 	vsnprintf(problem, sizeof problem, fmt, ap);
 	va_end(ap);
 	return ow_diag_set(r->d, OW_EINPUT, "\"%.80s\": %s; expected %s",
-			   r->text, problem, ow_dim_expect(r->dim));
+	                   r->text, problem, ow_dim_expect(r->dim));
 }
 
 static enum ow_status load_database(const struct ow_units *u,
-				    struct ow_diag *d);
+                                    struct ow_diag *d);
 
 enum ow_status ow_units_create(struct ow_units **out, struct ow_diag *d)
 {
@@ -297,8 +296,7 @@ fail:
 
 /* Read the XML database and the SI unit of each dimension, with "C"
  * numbers, unless that was done already. */
-static enum ow_status load_database(const struct ow_units *u,
-				    struct ow_diag *d)
+static enum ow_status load_database(const struct ow_units *u, struct ow_diag *d)
 {
 	struct database *db = u->db;
 	locale_t old;
@@ -312,17 +310,18 @@ static enum ow_status load_database(const struct ow_units *u,
 	db->sys = ut_read_xml(NULL);
 	if (!db->sys) {
 		st = ow_diag_set(d, OW_EIO,
-				 "could not read the UDUNITS-2 unit database "
-				 "(status %d; package libudunits2-data, or "
-				 "UDUNITS2_XML_PATH)", (int)ut_get_status());
+		                 "could not read the UDUNITS-2 unit database "
+		                 "(status %d; package libudunits2-data, or "
+		                 "UDUNITS2_XML_PATH)",
+		                 (int)ut_get_status());
 		goto done;
 	}
 	for (i = 0; i < OW_DIM_COUNT; i++) {
 		db->si[i] = ut_parse(db->sys, si_text[i], UT_ASCII);
 		if (!db->si[i]) {
 			st = ow_diag_set(d, OW_ECOMPUTE,
-					 "UDUNITS-2 does not know \"%s\"",
-					 si_text[i]);
+			                 "UDUNITS-2 does not know \"%s\"",
+			                 si_text[i]);
 			goto done;
 		}
 	}
@@ -457,7 +456,7 @@ static int is_non_finite_word(const char *s)
 }
 
 enum ow_status ow_units_parse_number(const char *text, double *x,
-				     struct ow_diag *d)
+                                     struct ow_diag *d)
 {
 	char buf[TEXT_MAX];
 	struct req r = {text ? text : "", OW_DIM_NONE, 0.0, d};
@@ -506,13 +505,14 @@ static size_t ident_len(const char *p)
 	return n;
 }
 
-static const char *alias_of(const struct alias *a, size_t na,
-			    const char *tok, size_t len)
+static const char *alias_of(const struct alias *a, size_t na, const char *tok,
+                            size_t len)
 {
 	size_t i;
 
 	for (i = 0; i < na; i++)
-		if (strlen(a[i].from) == len && memcmp(a[i].from, tok, len) == 0)
+		if (strlen(a[i].from) == len &&
+		    memcmp(a[i].from, tok, len) == 0)
 			return a[i].to;
 	return NULL;
 }
@@ -530,8 +530,7 @@ static int append(char *out, size_t n, size_t *pos, const char *s, size_t len)
 
 /* Copy unit into out[n] with every aliased identifier replaced (screw
  * speeds also get the turn aliases). Returns 0 when out is too small. */
-static int rewrite_unit(const char *unit, enum ow_dim dim, char *out,
-			size_t n)
+static int rewrite_unit(const char *unit, enum ow_dim dim, char *out, size_t n)
 {
 	size_t pos = 0, len;
 	const char *to;
@@ -547,8 +546,9 @@ static int rewrite_unit(const char *unit, enum ow_dim dim, char *out,
 		to = alias_of(common_alias, N_ALIAS(common_alias), unit, len);
 		if (!to && dim == OW_DIM_ROT_SPEED)
 			to = alias_of(turn_alias, N_ALIAS(turn_alias), unit,
-				      len);
-		if (!append(out, n, &pos, to ? to : unit, to ? strlen(to) : len))
+			              len);
+		if (!append(out, n, &pos, to ? to : unit,
+		            to ? strlen(to) : len))
 			return 0;
 		unit += len;
 	}
@@ -616,9 +616,9 @@ static const char *farad_hint(const char *unit)
  * Temperature differences convert as cv(x) - cv(0), which drops the
  * offset of degC and degF. */
 static enum ow_status udunits_to_si(const struct ow_units *u,
-				    const struct req *r, double x,
-				    const char *unit, enum ow_dim dim,
-				    double *si)
+                                    const struct req *r, double x,
+                                    const char *unit, enum ow_dim dim,
+                                    double *si)
 {
 	char buf[UNIT_BUF];
 	ut_unit *from = NULL;
@@ -642,14 +642,14 @@ static enum ow_status udunits_to_si(const struct ow_units *u,
 	if (st != OW_OK)
 		return st;
 	from = ut_parse(u->db->sys, buf, UT_UTF8); /* test the pointer: the
-						      status may say
-						      success */
+	                                              status may say
+	                                              success */
 	if (!from)
 		return reject(r, "unknown unit \"%s\"%s", unit,
-			      farad_hint(unit));
+		              farad_hint(unit));
 	if (!ut_are_convertible(from, u->db->si[dim])) {
 		st = reject(r, "unit \"%s\" measures something else%s", unit,
-			    farad_hint(unit));
+		            farad_hint(unit));
 		goto done;
 	}
 	cv = ut_get_converter(from, u->db->si[dim]);
@@ -699,7 +699,7 @@ static int valid_power(const char *e)
 		return 0;
 	len = strlen(buf);
 	if (len >= 2 && ((buf[0] == '(' && buf[len - 1] == ')') ||
-			 (buf[0] == '{' && buf[len - 1] == '}'))) {
+	                 (buf[0] == '{' && buf[len - 1] == '}'))) {
 		buf[len - 1] = '\0';
 		return valid_power(buf + 1);
 	}
@@ -714,7 +714,7 @@ static int valid_power(const char *e)
 static size_t product_sign_before(const char *base, size_t end)
 {
 	if (end >= 1 && (is_space(base[end - 1]) || base[end - 1] == '.' ||
-			 base[end - 1] == '*'))
+	                 base[end - 1] == '*'))
 		return 1;
 	if (end >= 2 && memcmp(base + end - 2, "·", 2) == 0)
 		return 2;
@@ -753,8 +753,8 @@ int ow_units_consistency_power(const char *text, double *power)
  * time to the power n; with the time in seconds only the stress part
  * converts. Without a power it is "<pressure> s" (n = 1). */
 static enum ow_status consistency_to_si(const struct ow_units *u,
-					const struct req *r, double x,
-					const char *unit, double *si)
+                                        const struct req *r, double x,
+                                        const char *unit, double *si)
 {
 	char base[TEXT_MAX], pressure[TEXT_MAX];
 	const char *mark;
@@ -764,7 +764,7 @@ static enum ow_status consistency_to_si(const struct ow_units *u,
 	if (!mark)
 		return udunits_to_si(u, r, x, unit, OW_DIM_VISCOSITY, si);
 	if (mark_len == 0 ? mark[strlen("ⁿ")] != '\0'
-			  : !valid_power(mark + mark_len))
+	                  : !valid_power(mark + mark_len))
 		return reject(r, "the power of s must be n or a number");
 	end = (size_t)(mark - unit);
 	if (end >= sizeof base)
@@ -781,14 +781,14 @@ static enum ow_status consistency_to_si(const struct ow_units *u,
 	if (sep == 0 || !trim_copy(base, pressure, sizeof pressure) ||
 	    pressure[0] == '\0')
 		return reject(r, "the time part must be seconds, as in "
-				 "\"Pa s^n\"");
+		                 "\"Pa s^n\"");
 	return udunits_to_si(u, r, x, pressure, OW_DIM_PRESSURE, si);
 }
 
 /* x in unit (trimmed; may be empty) -> SI of r->dim, numbers read "C". */
 static enum ow_status unit_to_si_c(const struct ow_units *u,
-				   const struct req *r, double x,
-				   const char *unit, double *si)
+                                   const struct req *r, double x,
+                                   const char *unit, double *si)
 {
 	int temp = r->dim == OW_DIM_TEMPERATURE || r->dim == OW_DIM_TEMP_DIFF;
 
@@ -801,7 +801,7 @@ static enum ow_status unit_to_si_c(const struct ow_units *u,
 	if (r->dim == OW_DIM_LENGTH && strcmp(unit, "D") == 0) {
 		if (!(r->diameter_m > 0.0))
 			return reject(r, "a length in diameters (D) needs "
-					 "the screw diameter");
+			                 "the screw diameter");
 		*si = x * r->diameter_m;
 		return OW_OK;
 	}
@@ -813,9 +813,8 @@ static enum ow_status unit_to_si_c(const struct ow_units *u,
 }
 
 /* unit_to_si_c under a thread-local "C" LC_NUMERIC (see the top). */
-static enum ow_status unit_to_si(const struct ow_units *u,
-				 const struct req *r, double x,
-				 const char *unit, double *si)
+static enum ow_status unit_to_si(const struct ow_units *u, const struct req *r,
+                                 double x, const char *unit, double *si)
 {
 	locale_t old = uselocale(u->c_numeric);
 	enum ow_status st = unit_to_si_c(u, r, x, unit, si);
@@ -824,15 +823,15 @@ static enum ow_status unit_to_si(const struct ow_units *u,
 	return st;
 }
 
-static int bad_call(const struct ow_units *u, enum ow_dim dim,
-		    const void *a, const void *b)
+static int bad_call(const struct ow_units *u, enum ow_dim dim, const void *a,
+                    const void *b)
 {
 	return !u || !a || !b || (int)dim < 0 || dim >= OW_DIM_COUNT;
 }
 
 enum ow_status ow_units_parse(const struct ow_units *u, const char *text,
-			      enum ow_dim dim, double diameter_m, double *si,
-			      struct ow_diag *d)
+                              enum ow_dim dim, double diameter_m, double *si,
+                              struct ow_diag *d)
 {
 	char buf[TEXT_MAX];
 	struct req r = {text, dim, diameter_m, d};
@@ -848,8 +847,8 @@ enum ow_status ow_units_parse(const struct ow_units *u, const char *text,
 	len = number_len(buf);
 	if (len == 0)
 		return reject(&r, is_non_finite_word(buf)
-					  ? "not a finite number"
-					  : "no number before the unit");
+		                      ? "not a finite number"
+		                      : "no number before the unit");
 	if (!number_value(buf, len, &x))
 		return reject(&r, "not a finite number (out of range)");
 	while (is_space(buf[len]))
@@ -858,15 +857,15 @@ enum ow_status ow_units_parse(const struct ow_units *u, const char *text,
 }
 
 enum ow_status ow_units_convert(const struct ow_units *u, double x,
-				const char *unit, enum ow_dim dim, double *si,
-				struct ow_diag *d)
+                                const char *unit, enum ow_dim dim, double *si,
+                                struct ow_diag *d)
 {
 	char text[TEXT_MAX + 32], buf[TEXT_MAX];
 	struct req r = {text, dim, 0.0, d};
 
 	if (bad_call(u, dim, unit, si))
 		return ow_diag_set(d, OW_EARG,
-				   "ow_units_convert: bad argument");
+		                   "ow_units_convert: bad argument");
 	snprintf(text, sizeof text, "%.15g %s", x, unit);
 	if (!isfinite(x))
 		return reject(&r, "not a finite number");
@@ -899,59 +898,62 @@ struct shown_unit {
 };
 
 /* Factors: NIST SP 811 (2008) Appendix B.8/B.9 (see the #defines above). */
-static const struct shown_unit shown_units[2][OW_DIM_COUNT] = {
-	[OW_SYS_SI] = {
-		[OW_DIM_NONE] = {1.0, 0.0, 0.0, ""},
-		[OW_DIM_LENGTH] = {1e-3, 0.0, 0.0, "mm"},
-		[OW_DIM_TEMPERATURE] = {1.0, OW_ZERO_C_K, 0.0, "°C"},
-		[OW_DIM_TEMP_DIFF] = {1.0, 0.0, 0.0, "K"},
-		[OW_DIM_PRESSURE] = {1e6, 0.0, 0.0, "MPa"},
-		[OW_DIM_MASS_FLOW] = {1.0 / 3600.0, 0.0, 0.0, "kg/h"},
-		[OW_DIM_ROT_SPEED] = {1.0, 0.0, 0.0, "rpm"},
-		[OW_DIM_DENSITY] = {1.0, 0.0, 0.0, "kg/m³"},
-		[OW_DIM_SPECIFIC_HEAT] = {1e3, 0.0, 0.0, "kJ/(kg·K)"},
-		[OW_DIM_CONDUCTIVITY] = {1.0, 0.0, 0.0, "W/(m·K)"},
-		[OW_DIM_SPECIFIC_ENERGY] = {3.6e6, 0.0, 0.0, "kWh/kg"},
-		[OW_DIM_MOLAR_ENERGY] = {1e3, 0.0, 0.0, "kJ/mol"},
-		[OW_DIM_VISCOSITY] = {1.0, 0.0, 0.0, "Pa·s"},
-		[OW_DIM_TIME] = {1.0, 0.0, 0.0, "s"},
-		[OW_DIM_POWER] = {1e3, 0.0, 0.0, "kW"},
-		[OW_DIM_TORQUE] = {1.0, 0.0, 0.0, "N·m"},
-		[OW_DIM_SHEAR_RATE] = {1.0, 0.0, 0.0, "1/s"},
-		[OW_DIM_CONSISTENCY] = {1.0, 0.0, 0.0, "Pa·sⁿ"},
-		[OW_DIM_HEAT_TRANSFER] = {1.0, 0.0, 0.0, "W/(m²·K)"},
-	},
-	[OW_SYS_US] = {
-		[OW_DIM_NONE] = {1.0, 0.0, 0.0, ""},
-		[OW_DIM_LENGTH] = {IN_M, 0.0, 0.0, "in"},
-		[OW_DIM_TEMPERATURE] = {DEGF_K, OW_ZERO_C_K, 32.0, "°F"},
-		[OW_DIM_TEMP_DIFF] = {DEGF_K, 0.0, 0.0, "°F"},
-		[OW_DIM_PRESSURE] = {PSI_PA, 0.0, 0.0, "psi"},
-		[OW_DIM_MASS_FLOW] = {LB_KG / 3600.0, 0.0, 0.0, "lb/h"},
-		[OW_DIM_ROT_SPEED] = {1.0, 0.0, 0.0, "rpm"},
-		[OW_DIM_DENSITY] = {LB_KG / (FT_M * FT_M * FT_M), 0.0, 0.0,
-				    "lb/ft³"},
-		[OW_DIM_SPECIFIC_HEAT] = {BTU_J / (LB_KG * DEGF_K), 0.0, 0.0,
-					  "BTU/(lb·°F)"},
-		[OW_DIM_CONDUCTIVITY] = {BTU_J / (3600.0 * FT_M * DEGF_K), 0.0,
-					 0.0, "BTU/(h·ft·°F)"},
-		[OW_DIM_SPECIFIC_ENERGY] = {HP_W * 3600.0 / LB_KG, 0.0, 0.0,
-					    "hp·h/lb"},
-		[OW_DIM_MOLAR_ENERGY] = {1e3, 0.0, 0.0, "kJ/mol"},
-		[OW_DIM_VISCOSITY] = {1.0, 0.0, 0.0, "Pa·s"},
-		[OW_DIM_TIME] = {1.0, 0.0, 0.0, "s"},
-		[OW_DIM_POWER] = {HP_W, 0.0, 0.0, "hp"},
-		[OW_DIM_TORQUE] = {LBF_N * FT_M, 0.0, 0.0, "lbf·ft"},
-		[OW_DIM_SHEAR_RATE] = {1.0, 0.0, 0.0, "1/s"},
-		[OW_DIM_CONSISTENCY] = {1.0, 0.0, 0.0, "Pa·sⁿ"},
-		[OW_DIM_HEAT_TRANSFER] = {BTU_J / (3600.0 * FT_M * FT_M *
-						   DEGF_K), 0.0, 0.0,
-					  "BTU/(h·ft²·°F)"},
-	},
+static const struct shown_unit shown_units[2][OW_DIM_COUNT] =
+    {
+        [OW_SYS_SI] =
+            {
+                [OW_DIM_NONE] = {1.0, 0.0, 0.0, ""},
+                [OW_DIM_LENGTH] = {1e-3, 0.0, 0.0, "mm"},
+                [OW_DIM_TEMPERATURE] = {1.0, OW_ZERO_C_K, 0.0, "°C"},
+                [OW_DIM_TEMP_DIFF] = {1.0, 0.0, 0.0, "K"},
+                [OW_DIM_PRESSURE] = {1e6, 0.0, 0.0, "MPa"},
+                [OW_DIM_MASS_FLOW] = {1.0 / 3600.0, 0.0, 0.0, "kg/h"},
+                [OW_DIM_ROT_SPEED] = {1.0, 0.0, 0.0, "rpm"},
+                [OW_DIM_DENSITY] = {1.0, 0.0, 0.0, "kg/m³"},
+                [OW_DIM_SPECIFIC_HEAT] = {1e3, 0.0, 0.0, "kJ/(kg·K)"},
+                [OW_DIM_CONDUCTIVITY] = {1.0, 0.0, 0.0, "W/(m·K)"},
+                [OW_DIM_SPECIFIC_ENERGY] = {3.6e6, 0.0, 0.0, "kWh/kg"},
+                [OW_DIM_MOLAR_ENERGY] = {1e3, 0.0, 0.0, "kJ/mol"},
+                [OW_DIM_VISCOSITY] = {1.0, 0.0, 0.0, "Pa·s"},
+                [OW_DIM_TIME] = {1.0, 0.0, 0.0, "s"},
+                [OW_DIM_POWER] = {1e3, 0.0, 0.0, "kW"},
+                [OW_DIM_TORQUE] = {1.0, 0.0, 0.0, "N·m"},
+                [OW_DIM_SHEAR_RATE] = {1.0, 0.0, 0.0, "1/s"},
+                [OW_DIM_CONSISTENCY] = {1.0, 0.0, 0.0, "Pa·sⁿ"},
+                [OW_DIM_HEAT_TRANSFER] = {1.0, 0.0, 0.0, "W/(m²·K)"},
+            },
+        [OW_SYS_US] =
+            {
+                [OW_DIM_NONE] = {1.0, 0.0, 0.0, ""},
+                [OW_DIM_LENGTH] = {IN_M, 0.0, 0.0, "in"},
+                [OW_DIM_TEMPERATURE] = {DEGF_K, OW_ZERO_C_K, 32.0, "°F"},
+                [OW_DIM_TEMP_DIFF] = {DEGF_K, 0.0, 0.0, "°F"},
+                [OW_DIM_PRESSURE] = {PSI_PA, 0.0, 0.0, "psi"},
+                [OW_DIM_MASS_FLOW] = {LB_KG / 3600.0, 0.0, 0.0, "lb/h"},
+                [OW_DIM_ROT_SPEED] = {1.0, 0.0, 0.0, "rpm"},
+                [OW_DIM_DENSITY] = {LB_KG / (FT_M * FT_M * FT_M), 0.0, 0.0,
+                                    "lb/ft³"},
+                [OW_DIM_SPECIFIC_HEAT] = {BTU_J / (LB_KG * DEGF_K), 0.0, 0.0,
+                                          "BTU/(lb·°F)"},
+                [OW_DIM_CONDUCTIVITY] = {BTU_J / (3600.0 * FT_M * DEGF_K), 0.0,
+                                         0.0, "BTU/(h·ft·°F)"},
+                [OW_DIM_SPECIFIC_ENERGY] = {HP_W * 3600.0 / LB_KG, 0.0, 0.0,
+                                            "hp·h/lb"},
+                [OW_DIM_MOLAR_ENERGY] = {1e3, 0.0, 0.0, "kJ/mol"},
+                [OW_DIM_VISCOSITY] = {1.0, 0.0, 0.0, "Pa·s"},
+                [OW_DIM_TIME] = {1.0, 0.0, 0.0, "s"},
+                [OW_DIM_POWER] = {HP_W, 0.0, 0.0, "hp"},
+                [OW_DIM_TORQUE] = {LBF_N * FT_M, 0.0, 0.0, "lbf·ft"},
+                [OW_DIM_SHEAR_RATE] = {1.0, 0.0, 0.0, "1/s"},
+                [OW_DIM_CONSISTENCY] = {1.0, 0.0, 0.0, "Pa·sⁿ"},
+                [OW_DIM_HEAT_TRANSFER] = {BTU_J /
+                                              (3600.0 * FT_M * FT_M * DEGF_K),
+                                          0.0, 0.0, "BTU/(h·ft²·°F)"},
+            },
 };
 
 static const struct shown_unit *shown_unit_of(enum ow_unit_system sys,
-					      enum ow_dim dim)
+                                              enum ow_dim dim)
 {
 	if ((int)sys < 0 || sys > OW_SYS_US || (int)dim < 0 ||
 	    dim >= OW_DIM_COUNT)
@@ -966,8 +968,7 @@ double ow_display_value(enum ow_unit_system sys, enum ow_dim dim, double si)
 	return s ? (si - s->si_zero) / s->scale + s->shown_zero : NAN;
 }
 
-double ow_display_to_si(enum ow_unit_system sys, enum ow_dim dim,
-			double shown)
+double ow_display_to_si(enum ow_unit_system sys, enum ow_dim dim, double shown)
 {
 	const struct shown_unit *s = shown_unit_of(sys, dim);
 

@@ -15,13 +15,13 @@
 #include "ow_study.h"
 #include "ow_solver.h"
 
-#define MAX_ITER 60
-#define FD_STEP 0.01       /* difference step in ln f (1 %) */
-#define PENALTY 1e3        /* residual (sd) of a reading that failed */
-#define FLAT_SD 1e-3       /* |dr/d ln f| below this: no reading moves f */
-#define COLLINEAR 0.999    /* |correlation| at which two factors merge */
-#define BOUND_LN 0.01      /* within 1 % of a bound: at the bound */
-#define CHI2_ALPHA 1e-3    /* consistency test level */
+#define MAX_ITER   60
+#define FD_STEP    0.01  /* difference step in ln f (1 %) */
+#define PENALTY    1e3   /* residual (sd) of a reading that failed */
+#define FLAT_SD    1e-3  /* |dr/d ln f| below this: no reading moves f */
+#define COLLINEAR  0.999 /* |correlation| at which two factors merge */
+#define BOUND_LN   0.01  /* within 1 % of a bound: at the bound */
+#define CHI2_ALPHA 1e-3  /* consistency test level */
 
 /* One measured value the fit compares. */
 struct entry {
@@ -32,28 +32,28 @@ struct entry {
 
 struct job {
 	const struct ow_readings *r;
-	struct ow_study *base;  /* the study with every factor at 1 */
-	struct ow_study *work;  /* base with the trial factors applied */
+	struct ow_study *base;     /* the study with every factor at 1 */
+	struct ow_study *work;     /* base with the trial factors applied */
 	double fixed[OW_CF_COUNT]; /* factor values (free ones: start) */
 	int p, ids[OW_CF_COUNT];
-	size_t n;               /* entries */
+	size_t n; /* entries */
 	struct entry e[OW_CALIB_MAX_RESID];
 	struct ow_point *pts;   /* one per reading, the last solve */
 	double *warm;           /* 1: pts[i] holds a converged solve of
-				   reading i to start from */
+	                           reading i to start from */
 	int have;               /* cx, cr hold the last residuals asked */
 	double cx[OW_CF_COUNT]; /* ... for these unknowns */
 	double *cr;             /* n residuals */
 	int threads, solves;
-	int strict;             /* 1: a failed solve stops the fit (at the
-				   study's own factors); 0: a trial point
-				   the solver rejects costs PENALTY */
-	enum ow_status st;      /* first hard failure of an evaluation */
+	int strict;        /* 1: a failed solve stops the fit (at the
+	                      study's own factors); 0: a trial point
+	                      the solver rejects costs PENALTY */
+	enum ow_status st; /* first hard failure of an evaluation */
 	struct ow_diag diag;
 };
 
 void ow_calib_options_from(const struct ow_calibration *c,
-			   struct ow_calib_options *o)
+                           struct ow_calib_options *o)
 {
 	memset(o, 0, sizeof *o);
 	o->free_mask = c->free_mask;
@@ -79,13 +79,13 @@ static double model_value(const struct ow_point *pt, enum ow_calib_qty q)
 
 /* Zone set-points of reading i: its own where given, the study's else. */
 static void reading_set(const struct ow_study *s, const struct ow_reading *rd,
-			double *set_K)
+                        double *set_K)
 {
 	int z;
 
 	for (z = 0; z < s->line.n_zones; z++)
-		set_K[z] = rd->set_given[z] ? rd->set_K[z]
-					    : s->line.zones[z].set_K;
+		set_K[z] =
+		    rd->set_given[z] ? rd->set_K[z] : s->line.zones[z].set_K;
 }
 
 /* Solve every reading of j on study j->work, each started from its last
@@ -111,8 +111,8 @@ static void solve_all(struct job *j)
 				ow_solver_start_from(&j->pts[i], &s0);
 			if (st == OW_OK)
 				st = ow_solver_run_from(sv, j->r->r[i].rpm,
-							set_K, &s0, &j->pts[i],
-							&dd);
+				                        set_K, &s0, &j->pts[i],
+				                        &dd);
 			if (st == OW_OK &&
 			    !(j->pts[i].flags & OW_FLAG_NOT_CONVERGED))
 				j->warm[i] = 1.0;
@@ -163,9 +163,8 @@ static void residuals(struct job *j, const double *x, double *r)
 		const struct ow_point *pt = &j->pts[en->reading];
 
 		r[e] = pt->flags & OW_FLAG_NOT_CONVERGED
-			       ? PENALTY
-			       : (model_value(pt, en->qty) - en->measured) /
-					 en->sd;
+		           ? PENALTY
+		           : (model_value(pt, en->qty) - en->measured) / en->sd;
 	}
 }
 
@@ -197,8 +196,7 @@ static int gsl_f(const gsl_vector *x, void *params, gsl_vector *f)
  * central, else forward from the remembered residuals at x (O(h), 1 %
  * here: enough to steer the iteration). The point solves converge to a
  * relative 2e-5 in output, far below what the step moves. */
-static int jacobian(struct job *j, const double *x, gsl_matrix *J,
-		    int central)
+static int jacobian(struct job *j, const double *x, gsl_matrix *J, int central)
 {
 	double xs[OW_CF_COUNT], *rp = malloc(2 * j->n * sizeof *rp);
 	size_t e;
@@ -218,8 +216,8 @@ static int jacobian(struct job *j, const double *x, gsl_matrix *J,
 		}
 		for (e = 0; e < j->n; e++)
 			gsl_matrix_set(J, e, (size_t)k,
-				       (rp[e] - rp[j->n + e]) /
-					       ((central ? 2 : 1) * FD_STEP));
+			               (rp[e] - rp[j->n + e]) /
+			                   ((central ? 2 : 1) * FD_STEP));
 	}
 	free(rp);
 	return j->st == OW_OK ? GSL_SUCCESS : GSL_EFAILED;
@@ -231,7 +229,7 @@ static int gsl_df(const gsl_vector *x, void *params, gsl_matrix *J)
 }
 
 static double sd_of(const struct ow_calib_options *o, enum ow_calib_qty q,
-		    double measured)
+                    double measured)
 {
 	return isnan(o->sd_rel[q]) ? o->sd_abs[q] : o->sd_rel[q] * measured;
 }
@@ -265,8 +263,8 @@ static void free_names(const struct job *j, char *buf, size_t len)
 	buf[0] = '\0';
 	for (k = 0; k < j->p && used < len; k++)
 		used += (size_t)snprintf(buf + used, len - used, "%s%s",
-					 k ? ", " : "",
-					 ow_calib_factor(j->ids[k])->name);
+		                         k ? ", " : "",
+		                         ow_calib_factor(j->ids[k])->name);
 }
 
 /* Readings no factor can bring the model to: a melt colder than both
@@ -288,15 +286,15 @@ static enum ow_status check_reachable(const struct job *j, struct ow_diag *d)
 			cold = fmin(cold, set_K[z]);
 		if (!isnan(t) && t < cold)
 			return ow_diag_set(d, OW_EINPUT,
-					   "%s: line %d: melt temperature "
-					   "%.1f degC is below both the feed "
-					   "(%.1f degC) and the coldest "
-					   "set-point of the setting: no "
-					   "factor lets the model reach it "
-					   "(check the reading and its unit)",
-					   j->r->source, rd->line,
-					   t - OW_ZERO_C_K,
-					   s->line.feed_temp_K - OW_ZERO_C_K);
+			                   "%s: line %d: melt temperature "
+			                   "%.1f degC is below both the feed "
+			                   "(%.1f degC) and the coldest "
+			                   "set-point of the setting: no "
+			                   "factor lets the model reach it "
+			                   "(check the reading and its unit)",
+			                   j->r->source, rd->line,
+			                   t - OW_ZERO_C_K,
+			                   s->line.feed_temp_K - OW_ZERO_C_K);
 	}
 	return OW_OK;
 }
@@ -304,7 +302,7 @@ static enum ow_status check_reachable(const struct job *j, struct ow_diag *d)
 /* The first solve, at the study's own factors: every reading must be a
  * point the solver can match. */
 static enum ow_status check_solvable(struct job *j, double *r,
-				     struct ow_diag *d)
+                                     struct ow_diag *d)
 {
 	double x[OW_CF_COUNT];
 	size_t i;
@@ -320,12 +318,12 @@ static enum ow_status check_solvable(struct job *j, double *r,
 	for (i = 0; i < j->r->n; i++)
 		if (j->pts[i].flags & OW_FLAG_NOT_CONVERGED)
 			return ow_diag_set(d, OW_ECOMPUTE,
-					   "%s: line %d: the model finds no "
-					   "operating point at %.4g rpm "
-					   "(screw and die do not match): "
-					   "this reading cannot be fitted",
-					   j->r->source, j->r->r[i].line,
-					   j->r->r[i].rpm);
+			                   "%s: line %d: the model finds no "
+			                   "operating point at %.4g rpm "
+			                   "(screw and die do not match): "
+			                   "this reading cannot be fitted",
+			                   j->r->source, j->r->r[i].line,
+			                   j->r->r[i].rpm);
 	return OW_OK;
 }
 
@@ -333,10 +331,10 @@ static enum ow_status check_solvable(struct job *j, double *r,
  * (1978) 105; GSL manual, "Nonlinear Least-Squares Fitting") from the
  * study's own factors; x receives the end point. */
 static enum ow_status minimise(struct job *j, double *x, int *iters,
-			       struct ow_diag *d)
+                               struct ow_diag *d)
 {
 	gsl_multifit_nlinear_parameters fp =
-		gsl_multifit_nlinear_default_parameters();
+	    gsl_multifit_nlinear_default_parameters();
 	gsl_multifit_nlinear_fdf fdf;
 	gsl_multifit_nlinear_workspace *w;
 	gsl_vector_view v0 = gsl_vector_view_array(x, (size_t)j->p);
@@ -350,16 +348,16 @@ static enum ow_status minimise(struct job *j, double *x, int *iters,
 	fdf.p = (size_t)j->p;
 	fdf.params = j;
 	w = gsl_multifit_nlinear_alloc(gsl_multifit_nlinear_trust, &fp, fdf.n,
-				       fdf.p);
+	                               fdf.p);
 	if (!w)
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	if (gsl_multifit_nlinear_init(&v0.vector, &fdf, w) == GSL_SUCCESS)
 		gsl_multifit_nlinear_driver(MAX_ITER, 1e-5, 1e-8, 1e-10, NULL,
-					    NULL, &info, w);
+		                            NULL, &info, w);
 	for (k = 0; k < j->p; k++)
 		x[k] = clamp_ln(j->ids[k],
-				gsl_vector_get(gsl_multifit_nlinear_position(w),
-					       (size_t)k));
+		                gsl_vector_get(gsl_multifit_nlinear_position(w),
+		                               (size_t)k));
 	*iters = (int)gsl_multifit_nlinear_niter(w);
 	gsl_multifit_nlinear_free(w);
 	if (j->st != OW_OK)
@@ -369,10 +367,9 @@ static enum ow_status minimise(struct job *j, double *x, int *iters,
 
 /* A factor no residual depends on, or two the readings cannot tell
  * apart: the readings do not determine the free factors. */
-static enum ow_status check_determined(const struct job *j,
-				       const gsl_matrix *J,
-				       const struct ow_calib_result *res,
-				       struct ow_diag *d)
+static enum ow_status check_determined(const struct job *j, const gsl_matrix *J,
+                                       const struct ow_calib_result *res,
+                                       struct ow_diag *d)
 {
 	int k, l;
 	size_t e;
@@ -383,31 +380,30 @@ static enum ow_status check_determined(const struct job *j,
 		for (e = 0; e < j->n; e++)
 			m = fmax(m, fabs(gsl_matrix_get(J, e, (size_t)k)));
 		if (m * 0.1 < FLAT_SD)
-			return ow_diag_set(d, OW_EINPUT,
-					   "%s: the readings do not determine "
-					   "%s: changing it by 10 %% moves no "
-					   "modelled value by more than %.2g "
-					   "standard deviations; fix %s (leave "
-					   "it off) or add readings it moves",
-					   j->r->source,
-					   ow_calib_factor(j->ids[k])->name,
-					   m * 0.1,
-					   ow_calib_factor(j->ids[k])->name);
+			return ow_diag_set(
+			    d, OW_EINPUT,
+			    "%s: the readings do not determine "
+			    "%s: changing it by 10 %% moves no "
+			    "modelled value by more than %.2g "
+			    "standard deviations; fix %s (leave "
+			    "it off) or add readings it moves",
+			    j->r->source, ow_calib_factor(j->ids[k])->name,
+			    m * 0.1, ow_calib_factor(j->ids[k])->name);
 	}
 	for (k = 0; k < j->p; k++)
 		for (l = k + 1; l < j->p; l++)
 			if (!(fabs(res->corr[k][l]) < COLLINEAR))
 				return ow_diag_set(
-					d, OW_EINPUT,
-					"%s: the readings cannot tell %s from "
-					"%s (correlation %.4f): they fix only "
-					"a combination of the two; fix %s or "
-					"add readings of another quantity",
-					j->r->source,
-					ow_calib_factor(j->ids[k])->name,
-					ow_calib_factor(j->ids[l])->name,
-					res->corr[k][l],
-					ow_calib_factor(j->ids[l])->name);
+				    d, OW_EINPUT,
+				    "%s: the readings cannot tell %s from "
+				    "%s (correlation %.4f): they fix only "
+				    "a combination of the two; fix %s or "
+				    "add readings of another quantity",
+				    j->r->source,
+				    ow_calib_factor(j->ids[k])->name,
+				    ow_calib_factor(j->ids[l])->name,
+				    res->corr[k][l],
+				    ow_calib_factor(j->ids[l])->name);
 	return OW_OK;
 }
 
@@ -418,7 +414,7 @@ static enum ow_status check_determined(const struct job *j,
  * Least-Squares Fitting", Examples); by the delta method
  * se(f) = f se(ln f). */
 static enum ow_status errors(struct job *j, const double *x,
-			     struct ow_calib_result *res, struct ow_diag *d)
+                             struct ow_calib_result *res, struct ow_diag *d)
 {
 	gsl_matrix *J = gsl_matrix_alloc(j->n, (size_t)j->p);
 	gsl_matrix *cov = gsl_matrix_alloc((size_t)j->p, (size_t)j->p);
@@ -431,28 +427,28 @@ static enum ow_status errors(struct job *j, const double *x,
 		goto fail;
 	}
 	if (jacobian(j, x, J, 1) != GSL_SUCCESS) {
-		st = ow_diag_set(d, j->st ? j->st : OW_ENOMEM, "%s",
-				 j->diag.msg[0] ? j->diag.msg : "out of memory");
+		st =
+		    ow_diag_set(d, j->st ? j->st : OW_ENOMEM, "%s",
+		                j->diag.msg[0] ? j->diag.msg : "out of memory");
 		goto fail;
 	}
 	gsl_multifit_nlinear_covar(J, 1e-12, cov);
-	res->err_scale = res->dof > 0 ? fmax(1.0, sqrt(res->chi2 / res->dof))
-				       : 1.0;
+	res->err_scale =
+	    res->dof > 0 ? fmax(1.0, sqrt(res->chi2 / res->dof)) : 1.0;
 	for (k = 0; k < j->p; k++) {
 		double var = gsl_matrix_get(cov, (size_t)k, (size_t)k);
 
 		sd[k] = var > 0 && isfinite(var) ? sqrt(var) : INFINITY;
 		res->std_error[j->ids[k]] =
-			res->value[j->ids[k]] * sd[k] * res->err_scale;
+		    res->value[j->ids[k]] * sd[k] * res->err_scale;
 	}
 	for (k = 0; k < j->p; k++)
 		for (l = 0; l < j->p; l++)
 			res->corr[k][l] =
-				isfinite(sd[k]) && isfinite(sd[l])
-					? gsl_matrix_get(cov, (size_t)k,
-							 (size_t)l) /
-						  (sd[k] * sd[l])
-					: (k == l ? 1.0 : NAN);
+			    isfinite(sd[k]) && isfinite(sd[l])
+			        ? gsl_matrix_get(cov, (size_t)k, (size_t)l) /
+			              (sd[k] * sd[l])
+			        : (k == l ? 1.0 : NAN);
 	st = check_determined(j, J, res, d);
 fail:
 	gsl_matrix_free(J);
@@ -463,21 +459,22 @@ fail:
 /* A fitted factor at (within 1 % of) its bound stands in for something
  * the model lacks, or the readings push it out of range. */
 static enum ow_status check_bounds(const struct job *j, const double *x,
-				   struct ow_diag *d)
+                                   struct ow_diag *d)
 {
 	int k;
 
 	for (k = 0; k < j->p; k++) {
 		const struct ow_calib_factor *f = ow_calib_factor(j->ids[k]);
 
-		if (x[k] - log(f->lo) < BOUND_LN || log(f->hi) - x[k] < BOUND_LN)
+		if (x[k] - log(f->lo) < BOUND_LN ||
+		    log(f->hi) - x[k] < BOUND_LN)
 			return ow_diag_set(d, OW_EINPUT,
-					   "%s: %s reached its bound (%g..%g): "
-					   "the readings push it beyond what "
-					   "it can stand for; fix %s (leave "
-					   "it off) and check the readings",
-					   j->r->source, f->name, f->lo, f->hi,
-					   f->name);
+			                   "%s: %s reached its bound (%g..%g): "
+			                   "the readings push it beyond what "
+			                   "it can stand for; fix %s (leave "
+			                   "it off) and check the readings",
+			                   j->r->source, f->name, f->lo, f->hi,
+			                   f->name);
 	}
 	return OW_OK;
 }
@@ -486,8 +483,8 @@ static enum ow_status check_bounds(const struct job *j, const double *x,
  * (Press et al., Numerical Recipes, 3rd ed., 2007, sec. 15.1): the
  * readings contradict each other or the model; name the worst. */
 static enum ow_status check_consistent(const struct job *j,
-				       const struct ow_calib_result *res,
-				       struct ow_diag *d)
+                                       const struct ow_calib_result *res,
+                                       struct ow_diag *d)
 {
 	int worst[2] = {-1, -1}, i, k;
 	char what[2][96];
@@ -502,7 +499,7 @@ static enum ow_status check_consistent(const struct job *j,
 			worst[1] = worst[0];
 			worst[0] = i;
 		} else if (worst[1] < 0 ||
-			   a > fabs(ow_calib_resid_sd(&res->resid[worst[1]])))
+		           a > fabs(ow_calib_resid_sd(&res->resid[worst[1]])))
 			worst[1] = i;
 	}
 	for (k = 0; k < 2; k++) {
@@ -513,21 +510,21 @@ static enum ow_status check_consistent(const struct job *j,
 			continue;
 		}
 		snprintf(what[k], sizeof what[k], "%sline %d %s (%+.1f sd)",
-			 k ? ", " : "", e->line, ow_calib_qty_name(e->qty),
-			 ow_calib_resid_sd(e));
+		         k ? ", " : "", e->line, ow_calib_qty_name(e->qty),
+		         ow_calib_resid_sd(e));
 	}
 	return ow_diag_set(d, OW_EINPUT,
-			   "%s: the readings contradict each other or the "
-			   "model: chi-square %.1f for %d degrees of freedom "
-			   "(chance below %.1g); worst: %s%s; check those "
-			   "readings, or free another factor",
-			   j->r->source, res->chi2, res->dof, CHI2_ALPHA,
-			   what[0], what[1]);
+	                   "%s: the readings contradict each other or the "
+	                   "model: chi-square %.1f for %d degrees of freedom "
+	                   "(chance below %.1g); worst: %s%s; check those "
+	                   "readings, or free another factor",
+	                   j->r->source, res->chi2, res->dof, CHI2_ALPHA,
+	                   what[0], what[1]);
 }
 
 /* The residuals at x into res (solving once more there). */
 static void fill_resid(struct job *j, const double *x, double *r,
-		       struct ow_calib_result *res)
+                       struct ow_calib_result *res)
 {
 	size_t e;
 
@@ -550,9 +547,9 @@ static void fill_resid(struct job *j, const double *x, double *r,
 }
 
 static enum ow_status job_init(struct job *j, const struct ow_study *s,
-			       const struct ow_readings *r,
-			       const struct ow_calib_options *o,
-			       struct ow_diag *d)
+                               const struct ow_readings *r,
+                               const struct ow_calib_options *o,
+                               struct ow_diag *d)
 {
 	double inv[OW_CF_COUNT];
 	int k;
@@ -588,8 +585,8 @@ static void job_free(struct job *j)
 	free(j->cr);
 }
 
-static enum ow_status fit(struct job *j, struct ow_calib_result *out,
-			  double *r, struct ow_diag *d)
+static enum ow_status fit(struct job *j, struct ow_calib_result *out, double *r,
+                          struct ow_diag *d)
 {
 	double x[OW_CF_COUNT];
 	char names[160];
@@ -599,11 +596,12 @@ static enum ow_status fit(struct job *j, struct ow_calib_result *out,
 	free_names(j, names, sizeof names);
 	if (j->p > 0 && j->n < (size_t)j->p)
 		return ow_diag_set(d, OW_EINPUT,
-				   "%s: %zu measured value%s cannot determine "
-				   "%d free factors (%s): fix %s or add "
-				   "readings", j->r->source, j->n,
-				   j->n == 1 ? "" : "s", j->p, names,
-				   ow_calib_factor(j->ids[j->p - 1])->name);
+		                   "%s: %zu measured value%s cannot determine "
+		                   "%d free factors (%s): fix %s or add "
+		                   "readings",
+		                   j->r->source, j->n, j->n == 1 ? "" : "s",
+		                   j->p, names,
+		                   ow_calib_factor(j->ids[j->p - 1])->name);
 	st = check_reachable(j, d);
 	if (st == OW_OK)
 		st = check_solvable(j, r, d);
@@ -629,9 +627,9 @@ static enum ow_status fit(struct job *j, struct ow_calib_result *out,
 }
 
 enum ow_status ow_calib_run(const struct ow_study *s,
-			    const struct ow_readings *r,
-			    const struct ow_calib_options *o,
-			    struct ow_calib_result *out, struct ow_diag *d)
+                            const struct ow_readings *r,
+                            const struct ow_calib_options *o,
+                            struct ow_calib_result *out, struct ow_diag *d)
 {
 	struct job *j = malloc(sizeof *j);
 	double *res = NULL;

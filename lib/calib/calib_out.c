@@ -33,7 +33,7 @@ static void folder_of(const char *path, char *out, size_t n)
 
 /* file as a path relative to folder dir (both resolved): "../a/b.json". */
 static enum ow_status relative(const char *dir, const char *file, char *out,
-			       size_t n, struct ow_diag *d)
+                               size_t n, struct ow_diag *d)
 {
 	char rd[PATH_MAX], rf[PATH_MAX];
 	size_t common = 0, i, used = 0;
@@ -42,7 +42,7 @@ static enum ow_status relative(const char *dir, const char *file, char *out,
 		return ow_diag_set(d, OW_EIO, "%s: %s", dir, strerror(errno));
 	if (!realpath(file, rf))
 		return ow_diag_set(d, OW_EINPUT, "%s: %s", file,
-				   strerror(errno));
+		                   strerror(errno));
 	for (i = 0; rd[i] && rd[i] == rf[i]; i++)
 		if (rd[i] == '/')
 			common = i;
@@ -56,13 +56,13 @@ static enum ow_status relative(const char *dir, const char *file, char *out,
 			used += (size_t)snprintf(out + used, n - used, "../");
 	if (used + strlen(rf + common + 1) + 1 > n)
 		return ow_diag_set(d, OW_EINPUT, "%s: the path is too long",
-				   file);
+		                   file);
 	snprintf(out + used, n - used, "%s", rf + common + 1);
 	return OW_OK;
 }
 
 static enum ow_status repoint(cJSON *doc, const char *key, const char *file,
-			      const char *out_dir, struct ow_diag *d)
+                              const char *out_dir, struct ow_diag *d)
 {
 	char rel[PATH_MAX];
 	enum ow_status st;
@@ -70,9 +70,8 @@ static enum ow_status repoint(cJSON *doc, const char *key, const char *file,
 	if (!file[0])
 		return OW_OK; /* embedded */
 	st = relative(out_dir, file, rel, sizeof rel, d);
-	if (st == OW_OK &&
-	    !cJSON_ReplaceItemInObjectCaseSensitive(doc, key,
-						    cJSON_CreateString(rel)))
+	if (st == OW_OK && !cJSON_ReplaceItemInObjectCaseSensitive(
+	                       doc, key, cJSON_CreateString(rel)))
 		st = ow_diag_set(d, OW_ENOMEM, "out of memory");
 	return st;
 }
@@ -81,7 +80,7 @@ static enum ow_status repoint(cJSON *doc, const char *key, const char *file,
 static cJSON *sd_text(const struct ow_calib_options *o, enum ow_calib_qty q)
 {
 	static const char *const si[OW_CQ_COUNT] = {"kg/s", "Pa", "K", "W",
-						    "N m"};
+	                                            "N m"};
 	char buf[64];
 
 	if (!isnan(o->sd_rel[q]))
@@ -129,12 +128,12 @@ static cJSON *fit_json(const struct ow_calib_result *r, const char *readings)
 	cJSON_AddNumberToObject(f, "chi2", r->chi2);
 	cJSON_AddNumberToObject(f, "dof", r->dof);
 	for (k = 0; k < r->n_free; k++) {
-		cJSON_AddItemToArray(a, cJSON_CreateString(
-						ow_calib_factor(r->ids[k])->name));
+		cJSON_AddItemToArray(
+		    a, cJSON_CreateString(ow_calib_factor(r->ids[k])->name));
 		row = cJSON_CreateArray();
 		for (l = 0; l < r->n_free; l++)
 			cJSON_AddItemToArray(row,
-					     cJSON_CreateNumber(r->corr[k][l]));
+			                     cJSON_CreateNumber(r->corr[k][l]));
 		cJSON_AddItemToArray(m, row);
 	}
 	cJSON_AddItemToObject(f, "factors", a);
@@ -146,14 +145,14 @@ static cJSON *fit_json(const struct ow_calib_result *r, const char *readings)
 }
 
 static cJSON *block(const struct ow_study *s, const cJSON *old,
-		    const struct ow_calib_options *o,
-		    const struct ow_calib_result *r, const char *readings)
+                    const struct ow_calib_options *o,
+                    const struct ow_calib_result *r, const char *readings)
 {
 	const struct ow_calibration *c = &s->calib;
 	cJSON *b = cJSON_CreateObject(), *fr = cJSON_CreateArray(),
 	      *u = cJSON_CreateObject();
-	const cJSON *notes = old ? cJSON_GetObjectItemCaseSensitive(old, "notes")
-				 : NULL;
+	const cJSON *notes =
+	    old ? cJSON_GetObjectItemCaseSensitive(old, "notes") : NULL;
 	int k;
 
 	if (cJSON_IsString(notes))
@@ -163,39 +162,38 @@ static cJSON *block(const struct ow_study *s, const cJSON *old,
 
 		if (fitted)
 			cJSON_AddItemToObject(b, ow_calib_factor(k)->name,
-					      factor_json(r->value[k],
-							  r->std_error[k],
-							  readings));
+			                      factor_json(r->value[k],
+			                                  r->std_error[k],
+			                                  readings));
 		else if (c->value[k] != 1.0) /* kept as the study had it */
 			cJSON_AddItemToObject(b, ow_calib_factor(k)->name,
-					      factor_json(c->value[k],
-							  c->std_error[k],
-							  c->source[k]));
+			                      factor_json(c->value[k],
+			                                  c->std_error[k],
+			                                  c->source[k]));
 		if (fitted)
-			cJSON_AddItemToArray(fr, cJSON_CreateString(
-							 ow_calib_factor(k)->name));
+			cJSON_AddItemToArray(
+			    fr, cJSON_CreateString(ow_calib_factor(k)->name));
 	}
 	cJSON_AddItemToObject(b, "free", fr);
 	for (k = 0; k < OW_CQ_COUNT; k++)
-		cJSON_AddItemToObject(u, ow_calib_qty_name((enum ow_calib_qty)k),
-				      sd_text(o, (enum ow_calib_qty)k));
+		cJSON_AddItemToObject(u,
+		                      ow_calib_qty_name((enum ow_calib_qty)k),
+		                      sd_text(o, (enum ow_calib_qty)k));
 	cJSON_AddItemToObject(b, "uncertainty", u);
 	cJSON_AddItemToObject(b, "fit", fit_json(r, readings));
 	return b;
 }
 
-enum ow_status ow_calib_study_text(const struct ow_study *s,
-				   const struct ow_calib_options *o,
-				   const struct ow_calib_result *r,
-				   const char *readings_name,
-				   const char *out_path, char **text,
-				   struct ow_diag *d)
+enum ow_status
+ow_calib_study_text(const struct ow_study *s, const struct ow_calib_options *o,
+                    const struct ow_calib_result *r, const char *readings_name,
+                    const char *out_path, char **text, struct ow_diag *d)
 {
 	char dir[PATH_MAX], *buf = NULL;
 	size_t len = 0, bom;
 	cJSON *doc = NULL, *b;
-	enum ow_status st = ow_io_read_file(s->path, MAX_STUDY_BYTES, &buf,
-					    &len, d);
+	enum ow_status st =
+	    ow_io_read_file(s->path, MAX_STUDY_BYTES, &buf, &len, d);
 
 	*text = NULL;
 	if (st != OW_OK)
@@ -204,14 +202,16 @@ enum ow_status ow_calib_study_text(const struct ow_study *s,
 	doc = cJSON_ParseWithLength(buf + bom, len - bom);
 	free(buf);
 	if (!doc)
-		return ow_diag_set(d, OW_EINPUT, "%s: no longer a JSON text "
-				   "(changed since it was loaded)", s->path);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "%s: no longer a JSON text "
+		                   "(changed since it was loaded)",
+		                   s->path);
 	folder_of(out_path, dir, sizeof dir);
 	st = repoint(doc, "screw", s->screw_path, dir, d);
 	if (st == OW_OK)
 		st = repoint(doc, "resin", s->resin_path, dir, d);
-	b = block(s, cJSON_GetObjectItemCaseSensitive(doc, "calibration"), o,
-		  r, readings_name);
+	b = block(s, cJSON_GetObjectItemCaseSensitive(doc, "calibration"), o, r,
+	          readings_name);
 	cJSON_DeleteItemFromObjectCaseSensitive(doc, "calibration");
 	cJSON_AddItemToObject(doc, "calibration", b);
 	if (st == OW_OK && !(*text = cJSON_Print(doc)))

@@ -22,15 +22,15 @@
 #include "ow_status.h"
 #include "ow_units.h"
 
-struct ow_study;  /* ow_study.h */
+struct ow_study; /* ow_study.h */
 
 /* ---- readings --------------------------------------------------------- */
 
 /* One logged steady setting. */
 struct ow_reading {
-	int line;                 /* line of the file */
+	int line; /* line of the file */
 	double rpm;
-	int n_set;                /* zones with a set-point given */
+	int n_set; /* zones with a set-point given */
 	int set_given[OW_MAX_ZONES];
 	double set_K[OW_MAX_ZONES];
 	double value[OW_CQ_COUNT]; /* measured, SI; NAN when not read */
@@ -54,14 +54,14 @@ struct ow_readings {
  * OW_EINPUT "<file>: line <n>[, column <k> (<name>)]: ...". The caller
  * owns *out (free()). */
 enum ow_status ow_calib_readings_read(const struct ow_units *u,
-				      const char *path, int n_zones,
-				      struct ow_readings **out,
-				      struct ow_diag *d);
+                                      const char *path, int n_zones,
+                                      struct ow_readings **out,
+                                      struct ow_diag *d);
 enum ow_status ow_calib_readings_parse(const struct ow_units *u,
-				       const char *text, size_t len,
-				       const char *name, int n_zones,
-				       struct ow_readings **out,
-				       struct ow_diag *d);
+                                       const char *text, size_t len,
+                                       const char *name, int n_zones,
+                                       struct ow_readings **out,
+                                       struct ow_diag *d);
 
 /* ---- the fit ----------------------------------------------------------- */
 
@@ -69,7 +69,7 @@ struct ow_calib_options {
 	unsigned free_mask;         /* bit k: factor k is fitted */
 	double sd_abs[OW_CQ_COUNT]; /* uncertainties (see ow_calibration) */
 	double sd_rel[OW_CQ_COUNT];
-	int jobs;                   /* threads for the readings, 0: all */
+	int jobs; /* threads for the readings, 0: all */
 };
 
 struct ow_calib_result {
@@ -78,14 +78,14 @@ struct ow_calib_result {
 	double value[OW_CF_COUNT];     /* every factor after the fit */
 	double std_error[OW_CF_COUNT]; /* of the free ones (else NAN) */
 	double corr[OW_CF_COUNT][OW_CF_COUNT]; /* free ones, ids order */
-	double chi2;                   /* sum of squared weighted residuals */
-	int dof;                       /* residuals - free factors */
-	double err_scale;              /* max(1, sqrt(chi2/dof)), applied */
-	double chi2_start;             /* at the study's own factors */
+	double chi2;       /* sum of squared weighted residuals */
+	int dof;           /* residuals - free factors */
+	double err_scale;  /* max(1, sqrt(chi2/dof)), applied */
+	double chi2_start; /* at the study's own factors */
 	int n_resid;
 	struct ow_calib_resid resid[OW_CALIB_MAX_RESID];
 	int iterations;
-	int solves;                    /* point solves done */
+	int solves; /* point solves done */
 };
 
 /* Fit the free factors of study s (as loaded: its own factors applied and
@@ -98,13 +98,13 @@ struct ow_calib_result {
  * (chi-square beyond its 0.1 % point, the worst residuals named). A
  * reading the solver cannot match is OW_ECOMPUTE naming its line. */
 enum ow_status ow_calib_run(const struct ow_study *s,
-			    const struct ow_readings *r,
-			    const struct ow_calib_options *o,
-			    struct ow_calib_result *out, struct ow_diag *d);
+                            const struct ow_readings *r,
+                            const struct ow_calib_options *o,
+                            struct ow_calib_result *out, struct ow_diag *d);
 
 /* Options from the study's calibration block (free factors, uncertainties). */
 void ow_calib_options_from(const struct ow_calibration *c,
-			   struct ow_calib_options *o);
+                           struct ow_calib_options *o);
 
 /* ---- output ------------------------------------------------------------ */
 
@@ -114,10 +114,10 @@ void ow_calib_options_from(const struct ow_calibration *c,
  * the fit record), and the paths to the screw and resin files rewritten
  * relative to the folder of out_path. The caller frees *text. */
 enum ow_status ow_calib_study_text(const struct ow_study *s,
-				   const struct ow_calib_options *o,
-				   const struct ow_calib_result *res,
-				   const char *readings_name,
-				   const char *out_path, char **text,
-				   struct ow_diag *d);
+                                   const struct ow_calib_options *o,
+                                   const struct ow_calib_result *res,
+                                   const char *readings_name,
+                                   const char *out_path, char **text,
+                                   struct ow_diag *d);
 
 #endif

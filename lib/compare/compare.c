@@ -55,8 +55,7 @@ static enum ow_status num_field(const struct ow_study *a,
 
 /* Do the reference zone's absolute set-points differ at the ends of the
  * axis? (Only with mode shift, which adds to each study's own zones.) */
-static int references_differ(const struct ow_study *a,
-                             const struct ow_study *b)
+static int references_differ(const struct ow_study *a, const struct ow_study *b)
 {
 	const struct ow_axes *x = &a->line.axes;
 
@@ -78,16 +77,16 @@ char *ow_compare_alignment(const struct ow_compare *cmp,
 		snprintf(buf, n, "both cases at the same barrel set-points");
 		return buf;
 	}
-	snprintf(buf, n,
-	         "each case at its own barrel set-points, every zone shifted "
-	         "by the same amount (A: zone %d at %.0f %s, B: zone %d at "
-	         "%.0f %s before the shift)",
-	         za + 1, ow_display_value(sys, OW_DIM_TEMPERATURE,
-	                                  a->line.zones[za].set_K),
-	         u, zb + 1,
-	         ow_display_value(sys, OW_DIM_TEMPERATURE,
-	                          b->line.zones[zb].set_K),
-	         u);
+	snprintf(
+	    buf, n,
+	    "each case at its own barrel set-points, every zone shifted "
+	    "by the same amount (A: zone %d at %.0f %s, B: zone %d at "
+	    "%.0f %s before the shift)",
+	    za + 1,
+	    ow_display_value(sys, OW_DIM_TEMPERATURE, a->line.zones[za].set_K),
+	    u, zb + 1,
+	    ow_display_value(sys, OW_DIM_TEMPERATURE, b->line.zones[zb].set_K),
+	    u);
 	return buf;
 }
 

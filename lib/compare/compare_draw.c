@@ -215,8 +215,8 @@ static struct ow_pt2 *edge_points(const struct ow_compare *cmp,
 	int i;
 
 	for (i = 0; q && i < l->n; i++)
-		q[i] = (struct ow_pt2){l->p[i].rpm,
-		                       y_axis(cmp, u, l->p[i].axis)};
+		q[i] =
+		    (struct ow_pt2){l->p[i].rpm, y_axis(cmp, u, l->p[i].axis)};
 	return q;
 }
 
@@ -233,8 +233,7 @@ static void draw_edges(const struct ow_plot *p, const struct ow_compare *cmp,
 		                           OW_MARK_NONE};
 
 		for (l = 0; b && l < b->n_lines; l++) {
-			struct ow_pt2 *q =
-			    edge_points(cmp, &b->lines[l], u);
+			struct ow_pt2 *q = edge_points(cmp, &b->lines[l], u);
 
 			if (!q)
 				continue;
@@ -433,10 +432,9 @@ static void label_common(const struct ow_plot *p, const struct ow_compare *cmp,
 	snprintf(text, sizeof text, "common window %s rpm, %s %s",
 	         ow_compare_format_range(a, sizeof a, w->rpm_min, w->rpm_max,
 	                                 OW_REPORT_RPM_DECIMALS),
-	         ow_compare_format_range(b, sizeof b,
-	                                 y_axis(cmp, u, w->axis_min),
-	                                 y_axis(cmp, u, w->axis_max),
-	                                 OW_REPORT_TEMP_DECIMALS),
+	         ow_compare_format_range(
+	             b, sizeof b, y_axis(cmp, u, w->axis_min),
+	             y_axis(cmp, u, w->axis_max), OW_REPORT_TEMP_DECIMALS),
 	         ow_display_label(u, cmp->by_shift ? OW_DIM_TEMP_DIFF
 	                                           : OW_DIM_TEMPERATURE));
 	ow_canvas_set_font(p->cv, f, 1);
@@ -584,9 +582,10 @@ static enum ow_status layout(struct ow_canvas *cv, const struct ow_rect *box,
 	ly->x = (struct ow_plot_axis){ax->rpm_from, ax->rpm_to,
 	                              "screw speed (rpm)", 0, 9};
 	if (cmp->by_shift)
-		snprintf(ly->ytitle, sizeof ly->ytitle,
-		         "every zone shifted from its case's own set-point (%s)",
-		         ow_display_label(o->units, OW_DIM_TEMP_DIFF));
+		snprintf(
+		    ly->ytitle, sizeof ly->ytitle,
+		    "every zone shifted from its case's own set-point (%s)",
+		    ow_display_label(o->units, OW_DIM_TEMP_DIFF));
 	ly->y = (struct ow_plot_axis){y_axis(cmp, o->units, ax->axis_from),
 	                              y_axis(cmp, o->units, ax->axis_to),
 	                              ly->ytitle, 0, 0};

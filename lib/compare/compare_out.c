@@ -142,7 +142,8 @@ static cJSON *binding(const struct ow_window *w, const char *count_key)
 		ok = e && cJSON_AddItemToArray(arr, e);
 		ok = ok && cJSON_AddStringToObject(e, "limit",
 		                                   ow_check_key(order[i]));
-		ok = ok && ow_json_put_num(e, count_key, w->fail_count[order[i]]);
+		ok = ok &&
+		     ow_json_put_num(e, count_key, w->fail_count[order[i]]);
 	}
 	if (!ok) {
 		cJSON_Delete(arr);
@@ -176,7 +177,7 @@ static int add_figures(cJSON *o, const struct ow_study *s,
 		int f = ow_compare_figure_index(i);
 
 		ok = ow_json_put_num(o, ow_results_figure_key(f),
-		             ow_results_figure(s, pt, f));
+		                     ow_results_figure(s, pt, f));
 	}
 	st = ok ? cJSON_AddArrayToObject(o, "status") : NULL;
 	ok = st != NULL;
@@ -194,10 +195,10 @@ static int add_delta(cJSON *o, const struct ow_compare *cmp,
 	for (i = 0; ok && i < ow_compare_n_figures(); i++) {
 		int f = ow_compare_figure_index(i);
 
-		ok =
-		    ow_json_put_num(o, ow_results_figure_key(f),
-		            ow_results_figure(cmp->study[1], &p->pt[1], f) -
-		                ow_results_figure(cmp->study[0], &p->pt[0], f));
+		ok = ow_json_put_num(
+		    o, ow_results_figure_key(f),
+		    ow_results_figure(cmp->study[1], &p->pt[1], f) -
+		        ow_results_figure(cmp->study[0], &p->pt[0], f));
 	}
 	return ok;
 }
@@ -235,7 +236,8 @@ static int add_counts(cJSON *o, const struct ow_compare *cmp)
 	ok = ok && ow_json_put_num(o, "safe_both", cmp->count[OW_CMP_BOTH]);
 	ok = ok && ow_json_put_num(o, "safe_a_only", cmp->count[OW_CMP_A_ONLY]);
 	ok = ok && ow_json_put_num(o, "safe_b_only", cmp->count[OW_CMP_B_ONLY]);
-	return ok && ow_json_put_num(o, "safe_neither", cmp->count[OW_CMP_NEITHER]);
+	return ok &&
+	       ow_json_put_num(o, "safe_neither", cmp->count[OW_CMP_NEITHER]);
 }
 
 static cJSON *differences(const struct ow_compare *cmp)
@@ -307,10 +309,10 @@ enum ow_status ow_compare_json(const struct ow_compare *cmp, char **out,
 	{
 		char how[320];
 
-		ok = ok && cJSON_AddStringToObject(
-		               r, "alignment",
-		               ow_compare_alignment(cmp, OW_SYS_SI, how,
-		                                    sizeof how));
+		ok = ok &&
+		     cJSON_AddStringToObject(
+		         r, "alignment",
+		         ow_compare_alignment(cmp, OW_SYS_SI, how, sizeof how));
 	}
 	ok = ok && cJSON_AddItemToObject(r, "differences", differences(cmp));
 	ok = ok && cJSON_AddItemToObject(r, "inputs", inputs(cmp));

@@ -219,10 +219,11 @@ static void windows(struct cpdf *r)
 
 		snprintf(text, sizeof text, "Barrel set-points: %s.%s",
 		         ow_compare_alignment(c, r->o->units, how, sizeof how),
-		         c->by_shift ? " The map's vertical axis is that shift; "
-		                       "the common window's set-points are "
-		                       "case A's."
-		                     : "");
+		         c->by_shift
+		             ? " The map's vertical axis is that shift; "
+		               "the common window's set-points are "
+		               "case A's."
+		             : "");
 		para(r, text, OW_DOC_BODY_PT, 0, 4.0);
 	}
 }

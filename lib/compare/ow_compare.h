@@ -209,7 +209,7 @@ struct ow_compare_draw_options {
 	/* PDF title block, as the single report's: NULL or "" leaves a
 	 * line to fill in by hand */
 	const char *revision, *prepared_by, *approved_by;
-	int paper;                 /* enum ow_paper; 0: A4 */
+	int paper; /* enum ow_paper; 0: A4 */
 };
 
 /* "lo–hi" of a window bound pair (already in display units) as the

@@ -51,17 +51,17 @@ static double value_nominal(const struct ow_study *s, enum ow_spread_kind k)
 {
 	return k == OW_SK_CLEARANCE ? s->screw.clearance_m
 	       : (k == OW_SK_MELTING || k == OW_SK_FEED_TEMP) ? 0.0
-							     : 1.0;
+	                                                      : 1.0;
 }
 
 /* {"from", "to"} | {"plus_minus"} | {"sd"} (exactly one form). */
 static enum ow_status parse_input(const struct ow_jin *j, const cJSON *v,
-				  const char *path, const struct ow_study *s,
-				  enum ow_spread_kind k,
-				  struct ow_spread_input *in)
+                                  const char *path, const struct ow_study *s,
+                                  enum ow_spread_kind k,
+                                  struct ow_spread_input *in)
 {
-	static const char *const keys[] = {"from", "to", "plus_minus", "sd",
-					   "source", NULL};
+	static const char *const keys[] = {"from", "to",     "plus_minus",
+	                                   "sd",   "source", NULL};
 	double a = NAN, b = NAN, pm = NAN, sd = NAN, nom = nominal_abs(s, k);
 	double shift = (k == OW_SK_CLEARANCE) ? 0.0 : nom;
 	enum ow_dim da, dw;
@@ -83,8 +83,9 @@ static enum ow_status parse_input(const struct ow_jin *j, const cJSON *v,
 		return st;
 	forms = (!isnan(a) || !isnan(b)) + !isnan(pm) + !isnan(sd);
 	if (forms != 1 || isnan(a) != isnan(b))
-		return ow_jin_fail(j, path, "expected one of {\"from\", \"to\"},"
-				   " {\"plus_minus\"} or {\"sd\"}");
+		return ow_jin_fail(j, path,
+		                   "expected one of {\"from\", \"to\"},"
+		                   " {\"plus_minus\"} or {\"sd\"}");
 	if (!isnan(pm) && !(pm >= 0.0))
 		return ow_jin_fail(j, path, "plus_minus: expected >= 0");
 	if (!isnan(sd) && !(sd >= 0.0))
@@ -93,13 +94,15 @@ static enum ow_status parse_input(const struct ow_jin *j, const cJSON *v,
 		return ow_jin_fail(j, path, "to: expected >= from");
 	in->kind = k;
 	in->factor = k == OW_SK_VISCOSITY ? OW_CF_VISCOSITY
-		     : k == OW_SK_HEAT    ? OW_CF_HEAT
-					  : -1;
+	             : k == OW_SK_HEAT    ? OW_CF_HEAT
+	                                  : -1;
 	in->nominal = value_nominal(s, k);
 	in->normal = !isnan(sd);
 	if (!isnan(a)) { /* absolute ends -> values */
-		in->lo = k == OW_SK_CLEARANCE || in->factor >= 0 ? a : a - shift;
-		in->hi = k == OW_SK_CLEARANCE || in->factor >= 0 ? b : b - shift;
+		in->lo =
+		    k == OW_SK_CLEARANCE || in->factor >= 0 ? a : a - shift;
+		in->hi =
+		    k == OW_SK_CLEARANCE || in->factor >= 0 ? b : b - shift;
 	} else if (in->normal) {
 		in->lo = in->nominal;
 		in->hi = sd;
@@ -113,9 +116,9 @@ static enum ow_status parse_input(const struct ow_jin *j, const cJSON *v,
 
 /* Every extreme of input in applied to a copy of s must load. */
 static enum ow_status check_extremes(const struct ow_jin *j, const char *path,
-				     const struct ow_study *s,
-				     const struct ow_spread_input *in,
-				     struct ow_study *tmp)
+                                     const struct ow_study *s,
+                                     const struct ow_spread_input *in,
+                                     struct ow_study *tmp)
 {
 	struct ow_diag why = {{0}};
 	double e[2];
@@ -127,31 +130,36 @@ static enum ow_status check_extremes(const struct ow_jin *j, const char *path,
 
 		if ((in->factor >= 0 || in->kind == OW_SK_CALIB) &&
 		    !(e[i] > 0.0))
-			return ow_jin_fail(j, path, "%g: expected a factor "
-					   "range above 0", e[i]);
+			return ow_jin_fail(j, path,
+			                   "%g: expected a factor "
+			                   "range above 0",
+			                   e[i]);
 		if (in->kind == OW_SK_CLEARANCE && !(e[i] >= 0.0))
-			return ow_jin_fail(j, path, "%g m: expected a "
-					   "clearance range >= 0", e[i]);
+			return ow_jin_fail(j, path,
+			                   "%g m: expected a "
+			                   "clearance range >= 0",
+			                   e[i]);
 		tmp->screw = s->screw;
 		tmp->resin = s->resin;
 		tmp->line = s->line;
 		ow_spread_apply(tmp, in, e[i]);
 		st = ow_material_validate(&tmp->resin, &why);
 		if (st == OW_OK)
-			st = ow_line_validate(&tmp->line,
-					      ow_screw_length(&tmp->screw), &why);
+			st = ow_line_validate(
+			    &tmp->line, ow_screw_length(&tmp->screw), &why);
 		if (st == OW_OK)
 			st = ow_screw_prepare(&tmp->screw, &why);
 		if (st != OW_OK)
-			return ow_jin_fail(j, path, "at its %s end the study "
-					   "is rejected: %s",
-					   i ? "upper" : "lower", why.msg);
+			return ow_jin_fail(j, path,
+			                   "at its %s end the study "
+			                   "is rejected: %s",
+			                   i ? "upper" : "lower", why.msg);
 	}
 	return OW_OK;
 }
 
 static enum ow_status parse_settings(const struct ow_jin *j, const cJSON *b,
-				     const char *path, struct ow_spread *sp)
+                                     const char *path, struct ow_spread *sp)
 {
 	const cJSON *v = ow_jin_get(b, "calibration_errors");
 	char p[OW_JPATH_LEN];
@@ -159,37 +167,45 @@ static enum ow_status parse_settings(const struct ow_jin *j, const cJSON *b,
 	enum ow_status st;
 
 	st = ow_jin_int(j, b, path, "samples", 2, OW_SPREAD_MAX_SAMPLES, 0,
-			&sp->samples);
+	                &sp->samples);
 	if (st == OW_OK)
 		st = ow_jin_qty(j, b, path, "seed", OW_DIM_NONE, 0, &seed);
 	if (st == OW_OK && !isnan(seed)) {
 		if (!(seed >= 0 && seed < 4294967296.0 && seed == floor(seed)))
 			return ow_jin_fail(j, ow_jin_key(p, path, "seed"),
-					   "expected an integer 0..4294967295");
+			                   "expected an integer 0..4294967295");
 		sp->seed = (unsigned long)seed;
 	}
 	if (st == OW_OK)
-		st = ow_jin_qty(j, b, path, "level", OW_DIM_NONE, 0, &sp->level);
+		st =
+		    ow_jin_qty(j, b, path, "level", OW_DIM_NONE, 0, &sp->level);
 	if (st == OW_OK && !(sp->level > 0.0 && sp->level <= 1.0))
 		return ow_jin_fail(j, ow_jin_key(p, path, "level"),
-				   "expected a share in (0, 100 %%]");
+		                   "expected a share in (0, 100 %%]");
 	if (st == OW_OK && v) {
 		if (!cJSON_IsBool(v))
-			return ow_jin_fail(j, ow_jin_key(p, path,
-							 "calibration_errors"),
-					   "expected true or false");
+			return ow_jin_fail(
+			    j, ow_jin_key(p, path, "calibration_errors"),
+			    "expected true or false");
 		sp->calib_errors = cJSON_IsTrue(v);
 	}
 	return st;
 }
 
 static enum ow_status parse_block(const struct ow_jin *j, const cJSON *b,
-				  const char *path, struct ow_study *s)
+                                  const char *path, struct ow_study *s)
 {
-	static const char *const keys[] = {
-		"notes", "samples", "seed", "level", "calibration_errors",
-		"viscosity_scale", "melting_point", "feed_temperature",
-		"clearance", "barrel_heat_factor", NULL};
+	static const char *const keys[] = {"notes",
+	                                   "samples",
+	                                   "seed",
+	                                   "level",
+	                                   "calibration_errors",
+	                                   "viscosity_scale",
+	                                   "melting_point",
+	                                   "feed_temperature",
+	                                   "clearance",
+	                                   "barrel_heat_factor",
+	                                   NULL};
 	struct ow_spread *sp = &s->spread;
 	struct ow_study *tmp = NULL;
 	char p[OW_JPATH_LEN];
@@ -223,7 +239,7 @@ static enum ow_status parse_block(const struct ow_jin *j, const cJSON *b,
 }
 
 enum ow_status ow_config_spread(const struct ow_jin *j, const cJSON *o,
-				struct ow_study *s)
+                                struct ow_study *s)
 {
 	const cJSON *b = ow_jin_get(o, "spread");
 
@@ -231,17 +247,19 @@ enum ow_status ow_config_spread(const struct ow_jin *j, const cJSON *o,
 	return b ? parse_block(j, b, "spread", s) : OW_OK;
 }
 
-enum ow_status ow_config_spread_text(const struct ow_units *u,
-				     const char *text, const char *name,
-				     struct ow_study *s, struct ow_diag *d)
+enum ow_status ow_config_spread_text(const struct ow_units *u, const char *text,
+                                     const char *name, struct ow_study *s,
+                                     struct ow_diag *d)
 {
 	struct ow_jin j = {u, name, "", NULL, s->screw.diameter_m, d};
 	cJSON *b = cJSON_Parse(text);
 	enum ow_status st;
 
 	if (!b)
-		return ow_diag_set(d, OW_EINPUT, "%s: expected a JSON object "
-				   "(the study's spread block)", name);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "%s: expected a JSON object "
+		                   "(the study's spread block)",
+		                   name);
 	st = parse_block(&j, b, "spread", s);
 	cJSON_Delete(b);
 	return st;

@@ -10,10 +10,11 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define MAX_FILE_BYTES ((size_t)4 << 20) /* inputs are small: a guard, not a limit */
+#define MAX_FILE_BYTES                                                         \
+	((size_t)4 << 20) /* inputs are small: a guard, not a limit */
 
 enum ow_status ow_jin_fail(const struct ow_jin *j, const char *path,
-			   const char *fmt, ...)
+                           const char *fmt, ...)
 {
 	char what[OW_DIAG_LEN];
 	va_list ap;
@@ -37,26 +38,25 @@ const char *ow_jin_index(char *out, const char *parent, int i)
 }
 
 static enum ow_status open_error(const struct ow_jin *j, const char *who,
-				 const char *key, int err)
+                                 const char *key, int err)
 {
 	char eb[128];
 
 	ow_io_strerror(err, eb, sizeof eb);
 	if (who)
 		return ow_diag_set(j->d, OW_EINPUT,
-				   "%s: %s: cannot open \"%s\": %s", who, key,
-				   j->file, eb);
-	return ow_diag_set(j->d, OW_EINPUT, "%s: cannot open: %s", j->file,
-			   eb);
+		                   "%s: %s: cannot open \"%s\": %s", who, key,
+		                   j->file, eb);
+	return ow_diag_set(j->d, OW_EINPUT, "%s: cannot open: %s", j->file, eb);
 }
 
 /* Malformed JSON: name line and column (1-based, columns in bytes) of the
  * byte where the parser stopped, and show a little of the text there. */
 static enum ow_status syntax_error(const struct ow_jin *j, const char *buf,
-				   size_t len, const char *at)
+                                   size_t len, const char *at)
 {
-	size_t off = at && at >= buf && at <= buf + len ? (size_t)(at - buf)
-						     : len;
+	size_t off =
+	    at && at >= buf && at <= buf + len ? (size_t)(at - buf) : len;
 	size_t i, line = 1, col = 1, k;
 	char near[24];
 
@@ -66,20 +66,23 @@ static enum ow_status syntax_error(const struct ow_jin *j, const char *buf,
 			col = 0;
 		}
 	for (k = 0; k + 1 < sizeof near && off + k < len &&
-		    buf[off + k] != '\n' && buf[off + k] != '\r';
+	            buf[off + k] != '\n' && buf[off + k] != '\r';
 	     k++)
 		near[k] = buf[off + k];
 	near[k] = '\0';
 	return ow_diag_set(j->d, OW_EINPUT,
-			   "%s: line %zu, column %zu: malformed JSON%s%s%s",
-			   j->file, line, col, k ? " near \"" : " (unexpected "
-			   "end of file)", near, k ? "\"" : "");
+	                   "%s: line %zu, column %zu: malformed JSON%s%s%s",
+	                   j->file, line, col,
+	                   k ? " near \""
+	                     : " (unexpected "
+	                       "end of file)",
+	                   near, k ? "\"" : "");
 }
 
 /* Every key and string under node is UTF-8 text (JSON texts are UTF-8,
  * RFC 8259 section 8.1; a stray byte would reach study.json and the PDF). */
 static enum ow_status utf8_tree(const struct ow_jin *j, const cJSON *node,
-				const char *path)
+                                const char *path)
 {
 	char p[OW_JPATH_LEN];
 	const cJSON *c;
@@ -88,19 +91,20 @@ static enum ow_status utf8_tree(const struct ow_jin *j, const cJSON *node,
 
 	for (c = node->child; c; c = c->next, i++) {
 		const char *at = c->string ? ow_jin_key(p, path, c->string)
-					   : ow_jin_index(p, path, i);
+		                           : ow_jin_index(p, path, i);
 
 		if (c->string && (n = strlen(c->string),
-				  ow_io_utf8_check(c->string, n) != n))
+		                  ow_io_utf8_check(c->string, n) != n))
 			return ow_jin_fail(j, path[0] ? path : "(top level)",
-					   "a key is not UTF-8 text");
+			                   "a key is not UTF-8 text");
 		if (cJSON_IsString(c) &&
 		    (n = strlen(c->valuestring),
 		     (bad = ow_io_utf8_check(c->valuestring, n)) != n))
-			return ow_jin_fail(j, at, "not UTF-8 text (byte 0x%02X "
-					   "at byte %zu of the string)",
-					   (unsigned char)c->valuestring[bad],
-					   bad + 1);
+			return ow_jin_fail(j, at,
+			                   "not UTF-8 text (byte 0x%02X "
+			                   "at byte %zu of the string)",
+			                   (unsigned char)c->valuestring[bad],
+			                   bad + 1);
 		if (utf8_tree(j, c, at) != OW_OK)
 			return OW_EINPUT;
 	}
@@ -108,7 +112,7 @@ static enum ow_status utf8_tree(const struct ow_jin *j, const cJSON *node,
 }
 
 enum ow_status ow_jin_load(const struct ow_jin *j, const char *who,
-			   const char *key, unsigned long *crc, cJSON **root)
+                           const char *key, unsigned long *crc, cJSON **root)
 {
 	const char *end = NULL;
 	char *buf = NULL;
@@ -117,9 +121,12 @@ enum ow_status ow_jin_load(const struct ow_jin *j, const char *who,
 
 	*root = NULL;
 	len = strlen(j->file);
-	if (ow_io_utf8_check(j->file, len) != len) /* it is copied into outputs */
-		return ow_diag_set(j->d, OW_EINPUT, "%s: the file name is not "
-				   "UTF-8 text: rename the file", j->file);
+	if (ow_io_utf8_check(j->file, len) !=
+	    len) /* it is copied into outputs */
+		return ow_diag_set(j->d, OW_EINPUT,
+		                   "%s: the file name is not "
+		                   "UTF-8 text: rename the file",
+		                   j->file);
 	err = ow_io_slurp(j->file, MAX_FILE_BYTES, &buf, &len);
 	if (err)
 		return open_error(j, who, key, err);
@@ -127,8 +134,8 @@ enum ow_status ow_jin_load(const struct ow_jin *j, const char *who,
 	if (strlen(buf) != len) { /* cJSON would stop at the NUL */
 		free(buf);
 		return ow_diag_set(j->d, OW_EINPUT,
-				   "%s: contains a NUL byte: not a JSON text",
-				   j->file);
+		                   "%s: contains a NUL byte: not a JSON text",
+		                   j->file);
 	}
 	/* Some editors start UTF-8 files with a byte order mark: skip it. */
 	bom = len >= 3 && !memcmp(buf, "\xEF\xBB\xBF", 3) ? 3 : 0;
@@ -152,8 +159,9 @@ enum ow_status ow_jin_load(const struct ow_jin *j, const char *who,
 		cJSON_Delete(*root);
 		*root = NULL;
 		return ow_diag_set(j->d, OW_EINPUT,
-				   "%s: expected a JSON object {...} at the "
-				   "top level", j->file);
+		                   "%s: expected a JSON object {...} at the "
+		                   "top level",
+		                   j->file);
 	}
 	return OW_OK;
 }
@@ -175,8 +183,8 @@ static const char *describe(const cJSON *v, char *out, size_t n)
 	else if (cJSON_IsNull(v))
 		snprintf(out, n, "null");
 	else
-		snprintf(out, n, "%s", cJSON_IsArray(v) ? "an array"
-							 : "an object");
+		snprintf(out, n, "%s",
+		         cJSON_IsArray(v) ? "an array" : "an object");
 	return out;
 }
 
@@ -195,11 +203,11 @@ static void join_names(char *out, size_t n, const char *const *names)
 	out[0] = '\0';
 	for (; *names && used < n; names++)
 		used += (size_t)snprintf(out + used, n - used, "%s%s",
-					 used ? ", " : "", *names);
+		                         used ? ", " : "", *names);
 }
 
 enum ow_status ow_jin_keys(const struct ow_jin *j, const cJSON *obj,
-			   const char *path, const char *const *allowed)
+                           const char *path, const char *const *allowed)
 {
 	char p[OW_JPATH_LEN], names[OW_DIAG_LEN / 2];
 	const cJSON *c, *e;
@@ -207,63 +215,64 @@ enum ow_status ow_jin_keys(const struct ow_jin *j, const cJSON *obj,
 	for (c = obj->child; c; c = c->next) {
 		for (e = obj->child; e != c; e = e->next)
 			if (!strcmp(e->string, c->string))
-				return ow_jin_fail(j, ow_jin_key(p, path,
-								 c->string),
-						   "duplicate key (each key may "
-						   "appear once)");
+				return ow_jin_fail(
+				    j, ow_jin_key(p, path, c->string),
+				    "duplicate key (each key may "
+				    "appear once)");
 		if (!listed(c->string, allowed)) {
 			join_names(names, sizeof names, allowed);
 			return ow_jin_fail(j, ow_jin_key(p, path, c->string),
-					   "unknown key (expected one of: "
-					   "%s)", names);
+			                   "unknown key (expected one of: "
+			                   "%s)",
+			                   names);
 		}
 	}
 	return OW_OK;
 }
 
 enum ow_status ow_jin_object(const struct ow_jin *j, const cJSON *node,
-			     const char *path)
+                             const char *path)
 {
 	char got[80];
 
 	if (cJSON_IsObject(node))
 		return OW_OK;
 	return ow_jin_fail(j, path, "expected an object {...}, got %s",
-			   describe(node, got, sizeof got));
+	                   describe(node, got, sizeof got));
 }
 
 enum ow_status ow_jin_array(const struct ow_jin *j, const cJSON *node,
-			    const char *path, int n_min, int n_max)
+                            const char *path, int n_min, int n_max)
 {
 	char got[80];
 	int n;
 
 	if (!cJSON_IsArray(node))
 		return ow_jin_fail(j, path, "expected an array [...], got %s",
-				   describe(node, got, sizeof got));
+		                   describe(node, got, sizeof got));
 	n = cJSON_GetArraySize(node);
 	if (n < n_min || n > n_max)
 		return ow_jin_fail(j, path, "%d entries; expected %d..%d", n,
-				   n_min, n_max);
+		                   n_min, n_max);
 	return OW_OK;
 }
 
 /* Look obj.key up: OW_OK with *v NULL when optional and absent. */
 static enum ow_status member(const struct ow_jin *j, const cJSON *obj,
-			     const char *path, const char *key, int flags,
-			     const cJSON **v)
+                             const char *path, const char *key, int flags,
+                             const cJSON **v)
 {
 	char p[OW_JPATH_LEN];
 
 	*v = ow_jin_get(obj, key);
 	if (!*v && (flags & OW_JIN_REQUIRED))
 		return ow_jin_fail(j, ow_jin_key(p, path, key),
-				   "required key is missing");
+		                   "required key is missing");
 	return OW_OK;
 }
 
 static enum ow_status add_source(const struct ow_jin *j, const char *path,
-				 const char *written, const cJSON *src)
+                                 const char *written, const cJSON *src)
 {
 	struct ow_study *s = j->study;
 	struct ow_source *r;
@@ -271,27 +280,31 @@ static enum ow_status add_source(const struct ow_jin *j, const char *path,
 	if (!s)
 		return OW_OK;
 	if (s->n_sources >= OW_MAX_SOURCES)
-		return ow_jin_fail(j, path, "more than %d values carry a "
-				   "source", OW_MAX_SOURCES);
+		return ow_jin_fail(j, path,
+		                   "more than %d values carry a "
+		                   "source",
+		                   OW_MAX_SOURCES);
 	r = &s->sources[s->n_sources];
 	if (snprintf(r->key, sizeof r->key, "%s%s", j->src_root, path) >=
-		    (int)sizeof r->key ||
+	        (int)sizeof r->key ||
 	    snprintf(r->value, sizeof r->value, "%s", written) >=
-		    (int)sizeof r->value)
-		return ow_jin_fail(j, path, "value \"%.40s\" is too long to "
-				   "keep with its source", written);
+	        (int)sizeof r->value)
+		return ow_jin_fail(j, path,
+		                   "value \"%.40s\" is too long to "
+		                   "keep with its source",
+		                   written);
 	if (snprintf(r->text, sizeof r->text, "%s", src->valuestring) >=
 	    (int)sizeof r->text)
 		return ow_jin_fail(j, path, "source: at most %zu characters",
-				   sizeof r->text - 1);
+		                   sizeof r->text - 1);
 	s->n_sources++;
 	return OW_OK;
 }
 
 /* A string with its unit, or a bare number meaning SI. */
 static enum ow_status plain_qty(const struct ow_jin *j, const cJSON *v,
-				const char *path, enum ow_dim dim, int flags,
-				double *out, char *written, size_t n)
+                                const char *path, enum ow_dim dim, int flags,
+                                double *out, char *written, size_t n)
 {
 	struct ow_diag ud = {{0}};
 	double si = NAN;
@@ -299,38 +312,40 @@ static enum ow_status plain_qty(const struct ow_jin *j, const cJSON *v,
 	if (cJSON_IsNumber(v)) {
 		snprintf(written, n, "%.15g", v->valuedouble);
 		if (!isfinite(v->valuedouble))
-			return ow_jin_fail(j, path, "not a finite number (out "
-					   "of range)");
+			return ow_jin_fail(j, path,
+			                   "not a finite number (out "
+			                   "of range)");
 		*out = v->valuedouble;
 		return OW_OK;
 	}
 	snprintf(written, n, "%s", v->valuestring);
 	if (ow_units_parse(j->u, v->valuestring, dim,
-			   (flags & OW_JIN_IN_D) ? j->diameter_m : 0.0, &si,
-			   &ud) != OW_OK)
-		return ow_jin_fail(j, path, "%s", ud.msg[0] ? ud.msg
-						    : ow_dim_expect(dim));
+	                   (flags & OW_JIN_IN_D) ? j->diameter_m : 0.0, &si,
+	                   &ud) != OW_OK)
+		return ow_jin_fail(j, path, "%s",
+		                   ud.msg[0] ? ud.msg : ow_dim_expect(dim));
 	if (!isfinite(si))
 		return ow_jin_fail(j, path, "\"%.60s\" is not a finite %s",
-				   v->valuestring, ow_dim_expect(dim));
+		                   v->valuestring, ow_dim_expect(dim));
 	*out = si;
 	return OW_OK;
 }
 
 static enum ow_status qty_type_error(const struct ow_jin *j, const cJSON *v,
-				     const char *path, enum ow_dim dim)
+                                     const char *path, enum ow_dim dim)
 {
 	char got[80];
 
-	return ow_jin_fail(j, path, "expected %s: a string with its unit, a "
-			   "bare number in SI units or {\"value\": ..., "
-			   "\"source\": \"...\"}; got %s", ow_dim_expect(dim),
-			   describe(v, got, sizeof got));
+	return ow_jin_fail(j, path,
+	                   "expected %s: a string with its unit, a "
+	                   "bare number in SI units or {\"value\": ..., "
+	                   "\"source\": \"...\"}; got %s",
+	                   ow_dim_expect(dim), describe(v, got, sizeof got));
 }
 
 enum ow_status ow_jin_qty_node(const struct ow_jin *j, const cJSON *v,
-			       const char *path, enum ow_dim dim, int flags,
-			       double *out)
+                               const char *path, enum ow_dim dim, int flags,
+                               double *out)
 {
 	static const char *const keys[] = {"value", "source", NULL};
 	char written[128], p[OW_JPATH_LEN];
@@ -339,7 +354,7 @@ enum ow_status ow_jin_qty_node(const struct ow_jin *j, const cJSON *v,
 
 	if (cJSON_IsNumber(v) || cJSON_IsString(v))
 		return plain_qty(j, v, path, dim, flags, out, written,
-				 sizeof written);
+		                 sizeof written);
 	if (!cJSON_IsObject(v))
 		return qty_type_error(j, v, path, dim);
 	st = ow_jin_keys(j, v, path, keys);
@@ -351,19 +366,19 @@ enum ow_status ow_jin_qty_node(const struct ow_jin *j, const cJSON *v,
 		return st;
 	if (!cJSON_IsString(src) || !src->valuestring[0])
 		return ow_jin_fail(j, ow_jin_key(p, path, "source"),
-				   "expected a non-empty string naming where "
-				   "the value comes from");
+		                   "expected a non-empty string naming where "
+		                   "the value comes from");
 	if (!cJSON_IsNumber(val) && !cJSON_IsString(val))
 		return qty_type_error(j, val, ow_jin_key(p, path, "value"),
-				      dim);
+		                      dim);
 	st = plain_qty(j, val, ow_jin_key(p, path, "value"), dim, flags, out,
-		       written, sizeof written);
+	               written, sizeof written);
 	return st == OW_OK ? add_source(j, path, written, src) : st;
 }
 
 enum ow_status ow_jin_qty(const struct ow_jin *j, const cJSON *obj,
-			  const char *path, const char *key, enum ow_dim dim,
-			  int flags, double *out)
+                          const char *path, const char *key, enum ow_dim dim,
+                          int flags, double *out)
 {
 	char p[OW_JPATH_LEN];
 	const cJSON *v;
@@ -371,13 +386,12 @@ enum ow_status ow_jin_qty(const struct ow_jin *j, const cJSON *obj,
 
 	if (st != OW_OK || !v)
 		return st;
-	return ow_jin_qty_node(j, v, ow_jin_key(p, path, key), dim, flags,
-			       out);
+	return ow_jin_qty_node(j, v, ow_jin_key(p, path, key), dim, flags, out);
 }
 
 enum ow_status ow_jin_int(const struct ow_jin *j, const cJSON *obj,
-			  const char *path, const char *key, int lo, int hi,
-			  int flags, int *out)
+                          const char *path, const char *key, int lo, int hi,
+                          int flags, int *out)
 {
 	char p[OW_JPATH_LEN], got[80];
 	const cJSON *v;
@@ -389,15 +403,15 @@ enum ow_status ow_jin_int(const struct ow_jin *j, const cJSON *obj,
 	    v->valuedouble != floor(v->valuedouble) ||
 	    v->valuedouble < (double)lo || v->valuedouble > (double)hi)
 		return ow_jin_fail(j, ow_jin_key(p, path, key),
-				   "expected an integer %d..%d, got %s", lo,
-				   hi, describe(v, got, sizeof got));
+		                   "expected an integer %d..%d, got %s", lo, hi,
+		                   describe(v, got, sizeof got));
 	*out = (int)v->valuedouble;
 	return OW_OK;
 }
 
 enum ow_status ow_jin_str(const struct ow_jin *j, const cJSON *obj,
-			  const char *path, const char *key, int flags,
-			  char *out, size_t n)
+                          const char *path, const char *key, int flags,
+                          char *out, size_t n)
 {
 	char p[OW_JPATH_LEN], got[80];
 	const cJSON *v;
@@ -407,18 +421,18 @@ enum ow_status ow_jin_str(const struct ow_jin *j, const cJSON *obj,
 		return st;
 	if (!cJSON_IsString(v))
 		return ow_jin_fail(j, ow_jin_key(p, path, key),
-				   "expected a string, got %s",
-				   describe(v, got, sizeof got));
+		                   "expected a string, got %s",
+		                   describe(v, got, sizeof got));
 	if (strlen(v->valuestring) >= n)
 		return ow_jin_fail(j, ow_jin_key(p, path, key),
-				   "at most %zu characters", n - 1);
+		                   "at most %zu characters", n - 1);
 	memcpy(out, v->valuestring, strlen(v->valuestring) + 1);
 	return OW_OK;
 }
 
 enum ow_status ow_jin_choice(const struct ow_jin *j, const cJSON *obj,
-			     const char *path, const char *key,
-			     const char *const *names, int flags, int *out)
+                             const char *path, const char *key,
+                             const char *const *names, int flags, int *out)
 {
 	char p[OW_JPATH_LEN], got[80], list[OW_DIAG_LEN / 2];
 	const cJSON *v;
@@ -433,7 +447,6 @@ enum ow_status ow_jin_choice(const struct ow_jin *j, const cJSON *obj,
 			return OW_OK;
 		}
 	join_names(list, sizeof list, names);
-	return ow_jin_fail(j, ow_jin_key(p, path, key),
-			   "%s is not one of: %s",
-			   describe(v, got, sizeof got), list);
+	return ow_jin_fail(j, ow_jin_key(p, path, key), "%s is not one of: %s",
+	                   describe(v, got, sizeof got), list);
 }

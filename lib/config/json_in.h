@@ -37,8 +37,8 @@ struct ow_jin {
 
 /* "<file>: <path>: <printf text>", OW_EINPUT. */
 enum ow_status ow_jin_fail(const struct ow_jin *j, const char *path,
-			   const char *fmt, ...)
-	__attribute__((format(printf, 3, 4)));
+                           const char *fmt, ...)
+    __attribute__((format(printf, 3, 4)));
 
 /* "parent.key" (or "key" at the root) and "parent[i]" into out. */
 const char *ow_jin_key(char *out, const char *parent, const char *key);
@@ -49,43 +49,43 @@ const char *ow_jin_index(char *out, const char *parent, int i);
  * who is given (the referencing file and key), else under j->file. The
  * root must be an object. The caller frees *root with cJSON_Delete. */
 enum ow_status ow_jin_load(const struct ow_jin *j, const char *who,
-			   const char *key, unsigned long *crc, cJSON **root);
+                           const char *key, unsigned long *crc, cJSON **root);
 
 /* Reject duplicate keys and keys not in the NULL-terminated list. */
 enum ow_status ow_jin_keys(const struct ow_jin *j, const cJSON *obj,
-			   const char *path, const char *const *allowed);
+                           const char *path, const char *const *allowed);
 
 /* The node must be an object (or, for arrays, an array of n_min..n_max). */
 enum ow_status ow_jin_object(const struct ow_jin *j, const cJSON *node,
-			     const char *path);
+                             const char *path);
 enum ow_status ow_jin_array(const struct ow_jin *j, const cJSON *node,
-			    const char *path, int n_min, int n_max);
+                            const char *path, int n_min, int n_max);
 
 /* obj.key as a quantity of dim in SI (a string with unit, a bare number in
  * SI, or {"value", "source"}); left untouched when optional and absent. */
 enum ow_status ow_jin_qty(const struct ow_jin *j, const cJSON *obj,
-			  const char *path, const char *key, enum ow_dim dim,
-			  int flags, double *out);
+                          const char *path, const char *key, enum ow_dim dim,
+                          int flags, double *out);
 
 /* The same for a node already in hand (path names the node). */
 enum ow_status ow_jin_qty_node(const struct ow_jin *j, const cJSON *v,
-			       const char *path, enum ow_dim dim, int flags,
-			       double *out);
+                               const char *path, enum ow_dim dim, int flags,
+                               double *out);
 
 /* obj.key as a JSON integer in lo..hi. */
 enum ow_status ow_jin_int(const struct ow_jin *j, const cJSON *obj,
-			  const char *path, const char *key, int lo, int hi,
-			  int flags, int *out);
+                          const char *path, const char *key, int lo, int hi,
+                          int flags, int *out);
 
 /* obj.key as a string of at most n - 1 bytes. */
 enum ow_status ow_jin_str(const struct ow_jin *j, const cJSON *obj,
-			  const char *path, const char *key, int flags,
-			  char *out, size_t n);
+                          const char *path, const char *key, int flags,
+                          char *out, size_t n);
 
 /* obj.key as one of the NULL-terminated names; *out is its index. */
 enum ow_status ow_jin_choice(const struct ow_jin *j, const cJSON *obj,
-			     const char *path, const char *key,
-			     const char *const *names, int flags, int *out);
+                             const char *path, const char *key,
+                             const char *const *names, int flags, int *out);
 
 /* The member named key (case-sensitive), or NULL. */
 const cJSON *ow_jin_get(const cJSON *obj, const char *key);
@@ -93,12 +93,12 @@ const cJSON *ow_jin_get(const cJSON *obj, const char *key);
 /* The study's optional `calibration` block into s->calib (defaults when
  * absent); config_calib.c. The caller applies the factors. */
 enum ow_status ow_config_calibration(const struct ow_jin *j, const cJSON *o,
-				     struct ow_study *s);
+                                     struct ow_study *s);
 
 /* The study's optional `spread` block into s->spread (after the
  * calibration is applied: the nominal is the calibrated study);
  * config_spread.c. */
 enum ow_status ow_config_spread(const struct ow_jin *j, const cJSON *o,
-				struct ow_study *s);
+                                struct ow_study *s);
 
 #endif

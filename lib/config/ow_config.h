@@ -20,20 +20,19 @@
 /* Load a study file and the files it names into *out (fully validated:
  * screw prepared, resin and line checked against each other). */
 enum ow_status ow_config_load_study(const struct ow_units *u, const char *path,
-				    struct ow_study *out, struct ow_diag *d);
+                                    struct ow_study *out, struct ow_diag *d);
 
 /* Load a screw file or a resin file on its own (used by tools and tests). */
 enum ow_status ow_config_load_screw(const struct ow_units *u, const char *path,
-				    struct ow_screw *out, struct ow_diag *d);
+                                    struct ow_screw *out, struct ow_diag *d);
 enum ow_status ow_config_load_resin(const struct ow_units *u, const char *path,
-				    struct ow_material *out,
-				    struct ow_diag *d);
+                                    struct ow_material *out, struct ow_diag *d);
 
 /* Replace s->spread by the spread block in JSON text (--spread); name
  * stands for the file in messages. OW_EINPUT as for a study file. */
-enum ow_status ow_config_spread_text(const struct ow_units *u,
-				     const char *text, const char *name,
-				     struct ow_study *s, struct ow_diag *d);
+enum ow_status ow_config_spread_text(const struct ow_units *u, const char *text,
+                                     const char *name, struct ow_study *s,
+                                     struct ow_diag *d);
 
 /* The keys a resin file may hold, NULL-terminated (static storage). */
 const char *const *ow_config_resin_keys(void);

@@ -24,7 +24,7 @@
 #define MAX_FONTS 16
 
 static void putf(struct ow_buf *b, const char *fmt, ...)
-	__attribute__((format(printf, 2, 3)));
+    __attribute__((format(printf, 2, 3)));
 
 static void putf(struct ow_buf *b, const char *fmt, ...)
 {
@@ -36,7 +36,8 @@ static void putf(struct ow_buf *b, const char *fmt, ...)
 	k = vsnprintf(tmp, sizeof tmp, fmt, ap);
 	va_end(ap);
 	if (k > 0)
-		ow_buf_add(b, tmp, (size_t)k < sizeof tmp ? (size_t)k : sizeof tmp - 1);
+		ow_buf_add(b, tmp,
+		           (size_t)k < sizeof tmp ? (size_t)k : sizeof tmp - 1);
 }
 
 /* The last occurrence of needle in the n bytes at h, or NULL. */
@@ -67,11 +68,12 @@ static void cmap(struct ow_buf *b)
 {
 	int h, k = 0, n = 0;
 
-	ow_buf_adds(b, "/CIDInit /ProcSet findresource begin\n12 dict begin\n"
-		 "begincmap\n/CIDSystemInfo << /Registry (Adobe) /Ordering "
-		 "(UCS) /Supplement 0 >> def\n/CMapName /Adobe-Identity-UCS "
-		 "def\n/CMapType 2 def\n1 begincodespacerange\n<0000> <FFFF>\n"
-		 "endcodespacerange\n");
+	ow_buf_adds(
+	    b, "/CIDInit /ProcSet findresource begin\n12 dict begin\n"
+	       "begincmap\n/CIDSystemInfo << /Registry (Adobe) /Ordering "
+	       "(UCS) /Supplement 0 >> def\n/CMapName /Adobe-Identity-UCS "
+	       "def\n/CMapType 2 def\n1 begincodespacerange\n<0000> <FFFF>\n"
+	       "endcodespacerange\n");
 	for (h = 0; h < 256; h++) {
 		if (h >= 0xD8 && h <= 0xDF)
 			continue; /* surrogates: no characters */
@@ -86,8 +88,9 @@ static void cmap(struct ow_buf *b)
 			k = 0;
 		}
 	}
-	ow_buf_adds(b, "endcmap\nCMapName currentdict /CMap defineresource pop\n"
-		 "end\nend\n");
+	ow_buf_adds(b,
+	            "endcmap\nCMapName currentdict /CMap defineresource pop\n"
+	            "end\nend\n");
 }
 
 /* Font objects naming a /ToUnicode: their numbers and dictionaries. */
@@ -176,7 +179,8 @@ enum ow_status ow_doc_fix_to_unicode(unsigned char **buf, size_t *len,
 	body = malloc(body_n + 1);
 	if (!body)
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
-	ow_buf_add(&b, "\n", 1); /* b.data may move from here on: offsets only */
+	ow_buf_add(&b, "\n",
+	           1); /* b.data may move from here on: offsets only */
 	off[0] = b.len;
 	{
 		struct ow_buf c = {0};

@@ -46,8 +46,8 @@ static enum ow_status grid_csv(const struct ow_map *m, const char *dir,
 	enum ow_status st = ow_results_grid_csv(m->study, m->grid, &text, d);
 
 	if (st == OW_OK && m->spread) {
-		st = ow_spread_grid_csv(m->study, m->grid, m->spread, text, &out,
-		                        d);
+		st = ow_spread_grid_csv(m->study, m->grid, m->spread, text,
+		                        &out, d);
 		take(&text, out);
 	}
 	return put(dir, "grid.csv", text, st, d);
@@ -82,8 +82,8 @@ enum ow_status ow_map_save(const struct ow_map *m,
 		st = window_json(m, dir, d);
 	if (st == OW_OK)
 		st = ow_mapdir_save(m->study, m->grid,
-		                    m->has_centre ? &m->centre : NULL, m->profile,
-		                    m->n_profile, dir, d);
+		                    m->has_centre ? &m->centre : NULL,
+		                    m->profile, m->n_profile, dir, d);
 	if (st == OW_OK && m->spread) {
 		st = ow_spread_save_json(m->study, m->spread, &text, d);
 		st = put(dir, "spread.json", text, st, d);
@@ -139,8 +139,7 @@ static enum ow_status load_spread(struct ow_map *m, const char *dir,
 
 /* The folder's centre point and profile into m; solved again when the
  * folder holds none for a window that has a centre. */
-static enum ow_status load_centre(struct ow_map *m,
-                                  struct ow_mapdir_centre *c,
+static enum ow_status load_centre(struct ow_map *m, struct ow_mapdir_centre *c,
                                   struct ow_diag *d)
 {
 	if (m->window->empty)

@@ -12,8 +12,7 @@
 #include <string.h>
 
 static const char *const qty_words[OW_CQ_COUNT] = {
-	"output", "head pressure", "melt temperature", "drive power",
-	"torque"};
+    "output", "head pressure", "melt temperature", "drive power", "torque"};
 
 /* One line on the front page under the banner. */
 void ow_report_calib_note(struct rpt *r)
@@ -26,13 +25,13 @@ void ow_report_calib_note(struct rpt *r)
 		return;
 	if (c->has_fit)
 		snprintf(text, sizeof text,
-			 "Model calibrated to %d values measured on the line "
-			 "(%.200s): see \"Calibration to the line\".",
-			 c->n_resid, c->fit_readings);
+		         "Model calibrated to %d values measured on the line "
+		         "(%.200s): see \"Calibration to the line\".",
+		         c->n_resid, c->fit_readings);
 	else
 		snprintf(text, sizeof text,
-			 "Model factors set in the study's calibration block "
-			 "(no fit record): see \"Calibration to the line\".");
+		         "Model factors set in the study's calibration block "
+		         "(no fit record): see \"Calibration to the line\".");
 	ow_doc_para(&r->doc, text, &note, 6.0);
 }
 
@@ -93,18 +92,18 @@ static void fit_words(struct rpt *r)
 			          "combination."
 			        : ".");
 	snprintf(text, sizeof text,
-		 "The factors were fitted by weighted least squares to %d "
-		 "values measured on the line (%s), each weighted by its "
-		 "stated uncertainty. The sum of squared residuals in "
-		 "standard deviations is %.1f for %d degrees of freedom: %s%s",
-		 c->n_resid, c->fit_readings, c->chi2, c->dof,
-		 c->dof > 0 && c->chi2 / c->dof > 2.0
-			 ? "the model misses the readings by more than their "
-			   "stated uncertainties, and the standard errors "
-			   "were enlarged to match."
-			 : "the model reproduces the readings within their "
-			   "stated uncertainties.",
-		 corr);
+	         "The factors were fitted by weighted least squares to %d "
+	         "values measured on the line (%s), each weighted by its "
+	         "stated uncertainty. The sum of squared residuals in "
+	         "standard deviations is %.1f for %d degrees of freedom: %s%s",
+	         c->n_resid, c->fit_readings, c->chi2, c->dof,
+	         c->dof > 0 && c->chi2 / c->dof > 2.0
+	             ? "the model misses the readings by more than their "
+	               "stated uncertainties, and the standard errors "
+	               "were enlarged to match."
+	             : "the model reproduces the readings within their "
+	               "stated uncertainties.",
+	         corr);
 	ow_doc_para(&r->doc, text, &st, 6.0);
 }
 

@@ -11,7 +11,6 @@
 #include "ow_advise.h"
 #include "ow_const.h"
 
-
 /* A Quantity | Value | Source table. */
 static const struct ow_doc_table qvs = {
     3,

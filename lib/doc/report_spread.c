@@ -15,7 +15,7 @@
 
 /* "0.85 - 1.15", "-3 - +3 K", in the reader's units. */
 static void input_range(struct rpt *r, const struct ow_spread_input *in,
-			char *buf, size_t n)
+                        char *buf, size_t n)
 {
 	double lo, hi;
 	char a[48], b[48];
@@ -53,7 +53,7 @@ static void inputs_table(struct rpt *r)
 
 		input_range(r, &sp->in[i], range, sizeof range);
 		snprintf(dist, sizeof dist, "%s",
-			 sp->in[i].normal ? "normal, cut at 3 sd" : "uniform");
+		         sp->in[i].normal ? "normal, cut at 3 sd" : "uniform");
 		ow_doc_table_row(&r->doc, &t, cells, 0);
 	}
 	ow_doc_table_end(&r->doc);
@@ -94,7 +94,7 @@ static void windows_table(struct rpt *r)
 	char name[64];
 
 	snprintf(name, sizeof name, "robust (%.0f %% of samples safe)",
-		 100.0 * r->m->spread->level);
+	         100.0 * r->m->spread->level);
 	ow_doc_table_head(&r->doc, &t);
 	window_row(r, &t, "nominal", r->w);
 	window_row(r, &t, name, r->m->robust);
@@ -110,22 +110,21 @@ static void ranking_words(struct rpt *r)
 	int i;
 
 	used = (size_t)snprintf(text, sizeof text,
-				"Inputs by how strongly they move the "
-				"smallest margin where the samples disagree "
-				"(correlation over those samples):");
+	                        "Inputs by how strongly they move the "
+	                        "smallest margin where the samples disagree "
+	                        "(correlation over those samples):");
 	for (i = 0; i < res->n_rank && used < sizeof text; i++)
 		used += (size_t)snprintf(
-			text + used, sizeof text - used, "%s %s %+.2f (%s)",
-			i ? ";" : "",
-			r->s->spread.in[res->rank[i].input].name,
-			res->rank[i].corr,
-			res->rank[i].corr < 0 ? "a higher value shrinks the "
-						"window"
-					      : "a lower value shrinks the "
-						"window");
+		    text + used, sizeof text - used, "%s %s %+.2f (%s)",
+		    i ? ";" : "", r->s->spread.in[res->rank[i].input].name,
+		    res->rank[i].corr,
+		    res->rank[i].corr < 0 ? "a higher value shrinks the "
+		                            "window"
+		                          : "a lower value shrinks the "
+		                            "window");
 	if (!res->n_rank)
 		snprintf(text + used, sizeof text - used,
-			 " none moves it within the sampled range.");
+		         " none moves it within the sampled range.");
 	else if (used < sizeof text)
 		snprintf(text + used, sizeof text - used, ".");
 	ow_doc_para(&r->doc, text, &st, 6.0);
@@ -159,15 +158,15 @@ void ow_report_spread_page(struct rpt *r)
 	ow_doc_heading(&r->doc, "The window across the spread of the inputs",
 	               200.0);
 	snprintf(text, sizeof text,
-		 "Each grid point was solved again for %d samples of the "
-		 "inputs below (a Latin hypercube, seed %lu: the same seed "
-		 "gives the same samples). Points whose margins are larger "
-		 "than the spread can move them were not sampled (%d of %d "
-		 "sample solves saved). The robust window is the largest "
-		 "rectangle in which at least %.0f %% of the samples are "
-		 "safe at every point.",
-		 res->samples, res->seed, res->solves_saved,
-		 res->solves_saved + res->solves, 100.0 * res->level);
+	         "Each grid point was solved again for %d samples of the "
+	         "inputs below (a Latin hypercube, seed %lu: the same seed "
+	         "gives the same samples). Points whose margins are larger "
+	         "than the spread can move them were not sampled (%d of %d "
+	         "sample solves saved). The robust window is the largest "
+	         "rectangle in which at least %.0f %% of the samples are "
+	         "safe at every point.",
+	         res->samples, res->seed, res->solves_saved,
+	         res->solves_saved + res->solves, 100.0 * res->level);
 	ow_doc_para(&r->doc, text, &st, 6.0);
 	inputs_table(r);
 	windows_table(r);

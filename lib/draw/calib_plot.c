@@ -12,16 +12,15 @@
 #include "ow_canvas.h"
 #include "ow_plot.h"
 
-#define IMG_SCALE 1.5
-#define IMG_W_PT (1000.0 / IMG_SCALE)
-#define ROW_H_PT (330.0)
-#define FONT_PT 9.0
+#define IMG_SCALE  1.5
+#define IMG_W_PT   (1000.0 / IMG_SCALE)
+#define ROW_H_PT   (330.0)
+#define FONT_PT    9.0
 #define TITLE_H_PT 40.0
-#define MARK_PT 6.0
+#define MARK_PT    6.0
 
 static const char *const qty_titles[OW_CQ_COUNT] = {
-	"output", "head pressure", "melt temperature", "drive power",
-	"torque"};
+    "output", "head pressure", "melt temperature", "drive power", "torque"};
 
 static double shown(enum ow_unit_system sys, enum ow_calib_qty q, double si)
 {
@@ -31,7 +30,7 @@ static double shown(enum ow_unit_system sys, enum ow_calib_qty q, double si)
 /* The common range of measured and modelled values (and the +-2 sd bars)
  * of quantity q, with a margin. */
 static int range(const struct ow_calib_resid *e, int n, enum ow_calib_qty q,
-		 enum ow_unit_system sys, double *lo, double *hi)
+                 enum ow_unit_system sys, double *lo, double *hi)
 {
 	int i, count = 0;
 	double pad;
@@ -57,14 +56,14 @@ static int range(const struct ow_calib_resid *e, int n, enum ow_calib_qty q,
 }
 
 static void one_point(const struct ow_plot *p, const struct ow_calib_resid *e,
-		      enum ow_unit_system sys, struct ow_rgba c)
+                      enum ow_unit_system sys, struct ow_rgba c)
 {
 	struct ow_line_style bar = {c, 1.0, OW_DASH_SOLID, OW_MARK_NONE};
 	double x = shown(sys, e->qty, e->measured),
 	       y = shown(sys, e->qty, e->modelled);
 	struct ow_pt2 seg[2] = {
-		{shown(sys, e->qty, e->measured - 2 * e->sd), y},
-		{shown(sys, e->qty, e->measured + 2 * e->sd), y}};
+	    {shown(sys, e->qty, e->measured - 2 * e->sd), y},
+	    {shown(sys, e->qty, e->measured + 2 * e->sd), y}};
 	char lab[16];
 
 	ow_plot_polyline(p, seg, 2, &bar);
@@ -73,14 +72,14 @@ static void one_point(const struct ow_plot *p, const struct ow_calib_resid *e,
 	ow_canvas_set_colour(p->cv, ow_rgb(0.25, 0.25, 0.25));
 	ow_canvas_set_font(p->cv, 0.8 * FONT_PT, 0);
 	ow_canvas_text(p->cv, ow_plot_px(p, x) + 0.5 * MARK_PT + 1.5,
-		       ow_plot_py(p, y) - 0.5 * MARK_PT, lab, OW_ALIGN_LEFT,
-		       OW_VALIGN_BOTTOM, 0);
+	               ow_plot_py(p, y) - 0.5 * MARK_PT, lab, OW_ALIGN_LEFT,
+	               OW_VALIGN_BOTTOM, 0);
 }
 
 /* Panel of quantity q in box. */
 static void panel(struct ow_canvas *cv, const struct ow_rect *box,
-		  const struct ow_calib_resid *e, int n, enum ow_calib_qty q,
-		  enum ow_unit_system sys)
+                  const struct ow_calib_resid *e, int n, enum ow_calib_qty q,
+                  enum ow_unit_system sys)
 {
 	char xt[80], yt[80];
 	const char *unit = ow_display_label(sys, ow_calib_qty_dim(q));
@@ -88,7 +87,7 @@ static void panel(struct ow_canvas *cv, const struct ow_rect *box,
 	 * 1:1 line runs corner to corner */
 	struct ow_plot_axis x = {0, 0, xt, 1, 5}, y = {0, 0, yt, 1, 5};
 	struct ow_line_style one = {ow_rgb(0.45, 0.45, 0.45), 0.8,
-				    OW_DASH_DASHED, OW_MARK_NONE};
+	                            OW_DASH_DASHED, OW_MARK_NONE};
 	struct ow_rgba c = ow_plot_series_style(0).colour;
 	struct ow_pt2 diag[2];
 	struct ow_plot p;
@@ -134,13 +133,12 @@ int ow_calib_plot_rows(const struct ow_calib_resid *e, int n)
 	return m <= 3 ? 1 : 2;
 }
 
-void ow_calib_draw(struct ow_canvas *cv, double x_pt, double y_pt,
-		   double w_pt, double h_pt,
-		   const struct ow_calib_resid *e, int n,
-		   enum ow_unit_system sys, const char *title)
+void ow_calib_draw(struct ow_canvas *cv, double x_pt, double y_pt, double w_pt,
+                   double h_pt, const struct ow_calib_resid *e, int n,
+                   enum ow_unit_system sys, const char *title)
 {
 	int qs[OW_CQ_COUNT], m = present(e, n, qs), rows = m <= 3 ? 1 : 2,
-	    cols = m <= 3 ? m : 3, k;
+	                     cols = m <= 3 ? m : 3, k;
 	double top = title ? TITLE_H_PT : 4.0, pw, ph;
 
 	if (m == 0)
@@ -150,34 +148,33 @@ void ow_calib_draw(struct ow_canvas *cv, double x_pt, double y_pt,
 	if (title) {
 		ow_canvas_set_colour(cv, ow_rgb(0.05, 0.05, 0.05));
 		ow_canvas_set_font(cv, 1.2 * FONT_PT, 0);
-		ow_canvas_text(cv, x_pt + 8.0, y_pt + 18.0, title, OW_ALIGN_LEFT,
-			       OW_VALIGN_BASELINE, 0);
+		ow_canvas_text(cv, x_pt + 8.0, y_pt + 18.0, title,
+		               OW_ALIGN_LEFT, OW_VALIGN_BASELINE, 0);
 		ow_canvas_set_colour(cv, ow_rgb(0.3, 0.3, 0.3));
 		ow_canvas_set_font(cv, 0.9 * FONT_PT, 0);
 		ow_canvas_text(cv, x_pt + 8.0, y_pt + 32.0,
-			       "dots: modelled against measured, labelled by "
-			       "the line of the readings file; bars: ±2 "
-			       "standard deviations of the reading; dashed: "
-			       "model = measurement", OW_ALIGN_LEFT,
-			       OW_VALIGN_BASELINE, 0);
+		               "dots: modelled against measured, labelled by "
+		               "the line of the readings file; bars: ±2 "
+		               "standard deviations of the reading; dashed: "
+		               "model = measurement",
+		               OW_ALIGN_LEFT, OW_VALIGN_BASELINE, 0);
 	}
 	for (k = 0; k < m; k++) {
 		struct ow_rect box = {x_pt + (k % cols) * pw + 4.0,
-				      y_pt + top + (k / cols) * ph + 4.0,
-				      pw - 12.0, ph - 8.0};
+		                      y_pt + top + (k / cols) * ph + 4.0,
+		                      pw - 12.0, ph - 8.0};
 
 		panel(cv, &box, e, n, (enum ow_calib_qty)qs[k], sys);
 	}
 }
 
 enum ow_status ow_calib_plot(const struct ow_calib_resid *e, int n,
-			     enum ow_unit_system sys, const char *title,
-			     const char *path, struct ow_diag *d)
+                             enum ow_unit_system sys, const char *title,
+                             const char *path, struct ow_diag *d)
 {
 	const char *dot = strrchr(path, '.');
-	enum ow_canvas_format fmt = dot && !strcmp(dot, ".svg")
-					    ? OW_CANVAS_SVG
-					    : OW_CANVAS_PNG;
+	enum ow_canvas_format fmt =
+	    dot && !strcmp(dot, ".svg") ? OW_CANVAS_SVG : OW_CANVAS_PNG;
 	double h = TITLE_H_PT + ROW_H_PT * ow_calib_plot_rows(e, n);
 	struct ow_canvas *cv = NULL;
 	enum ow_status st;

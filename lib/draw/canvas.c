@@ -33,7 +33,7 @@ struct ow_rgba ow_rgba_with_alpha(struct ow_rgba c, double a)
 }
 
 struct ow_canvas *ow_canvas_new(const struct canvas_ops *ops, double width_pt,
-                             double height_pt)
+                                double height_pt)
 {
 	struct ow_canvas *cv = calloc(1, sizeof *cv);
 
@@ -48,7 +48,8 @@ struct ow_canvas *ow_canvas_new(const struct canvas_ops *ops, double width_pt,
 	return cv;
 }
 
-void ow_canvas_fail(struct ow_canvas *cv, enum ow_status st, const char *fmt, ...)
+void ow_canvas_fail(struct ow_canvas *cv, enum ow_status st, const char *fmt,
+                    ...)
 {
 	va_list ap;
 
@@ -115,8 +116,8 @@ static int live(struct ow_canvas *cv)
 		return 0;
 	if (cv->finished) {
 		ow_canvas_fail(cv, OW_EARG,
-		            "canvas: drawing after the image "
-		            "was written");
+		               "canvas: drawing after the image "
+		               "was written");
 		return 0;
 	}
 	return cv->st == OW_OK;
@@ -169,8 +170,9 @@ void ow_canvas_save(struct ow_canvas *cv)
 	if (!live(cv))
 		return;
 	if (cv->depth >= CANVAS_MAX_DEPTH) {
-		ow_canvas_fail(cv, OW_EARG, "canvas: save nested deeper than %d",
-		            CANVAS_MAX_DEPTH);
+		ow_canvas_fail(cv, OW_EARG,
+		               "canvas: save nested deeper than %d",
+		               CANVAS_MAX_DEPTH);
 		return;
 	}
 	cv->stack[cv->depth++] = cv->gs;
@@ -210,7 +212,8 @@ void ow_canvas_set_line_width(struct ow_canvas *cv, double width_pt)
 	if (!live(cv))
 		return;
 	if (!(width_pt >= 0.0 && width_pt < 1000.0)) {
-		ow_canvas_fail(cv, OW_EARG, "canvas: line width %g pt", width_pt);
+		ow_canvas_fail(cv, OW_EARG, "canvas: line width %g pt",
+		               width_pt);
 		return;
 	}
 	cv->gs.line_width = width_pt;
@@ -224,15 +227,15 @@ void ow_canvas_set_dash(struct ow_canvas *cv, const double *lengths_pt, int n)
 		return;
 	if (n < 0 || n > CANVAS_MAX_DASH || (n > 0 && !lengths_pt)) {
 		ow_canvas_fail(cv, OW_EARG,
-		            "canvas: dash of %d lengths (at most "
-		            "%d)",
-		            n, CANVAS_MAX_DASH);
+		               "canvas: dash of %d lengths (at most "
+		               "%d)",
+		               n, CANVAS_MAX_DASH);
 		return;
 	}
 	for (i = 0; i < n; i++)
 		if (!(lengths_pt[i] > 0.0 && lengths_pt[i] < 1000.0)) {
 			ow_canvas_fail(cv, OW_EARG, "canvas: dash length %g pt",
-			            lengths_pt[i]);
+			               lengths_pt[i]);
 			return;
 		}
 	if (n > 0)
@@ -474,8 +477,8 @@ void ow_canvas_hatch(struct ow_canvas *cv, const struct ow_hatch *h)
 	if (!h || !(h->spacing_pt >= 0.5) || !(h->width_pt > 0.0) ||
 	    !isfinite(h->angle_deg)) {
 		ow_canvas_fail(cv, OW_EARG,
-		            "canvas: hatch needs a spacing of at "
-		            "least 0.5 pt and a positive width");
+		               "canvas: hatch needs a spacing of at "
+		               "least 0.5 pt and a positive width");
 		return;
 	}
 	if (!path_box(cv, &x0, &y0, &x1, &y1) ||

@@ -125,7 +125,7 @@ static void *ft_face(struct canvas_ft *f, int bold)
 }
 
 void ow_canvas_ft_select(void *cairo_cr, struct canvas_ft *f, int bold,
-                      double size)
+                         double size)
 {
 	cairo_t *cr = cairo_cr;
 	cairo_font_options_t *o = cairo_font_options_create();
@@ -160,8 +160,8 @@ static void check(struct ow_canvas *cv)
 
 	if (s != CAIRO_STATUS_SUCCESS)
 		ow_canvas_fail(cv,
-		            s == CAIRO_STATUS_NO_MEMORY ? OW_ENOMEM : OW_EIO,
-		            "cairo: %s", cairo_status_to_string(s));
+		               s == CAIRO_STATUS_NO_MEMORY ? OW_ENOMEM : OW_EIO,
+		               "cairo: %s", cairo_status_to_string(s));
 }
 
 static void replay(cairo_t *cr, const struct ow_canvas *cv)
@@ -270,7 +270,7 @@ static double png_text_width(struct ow_canvas *cv, const char *s)
  * stream deflated at PNG_LEVEL. Against libpng's defaults through cairo
  * (adaptive filter choice per line, level 6) this is about a tenth of the
  * work for files some 10 % larger: maps are flat colour fields and lines. */
-#define PNG_LEVEL 2
+#define PNG_LEVEL     2
 #define PNG_FILTER_UP 2
 
 static void put32(unsigned char *p, unsigned long v)
@@ -287,8 +287,8 @@ static size_t chunk(unsigned char *out, const char *type, size_t len)
 {
 	put32(out, (unsigned long)len);
 	memcpy(out + 4, type, 4);
-	put32(out + 8 + len, crc32(crc32(0L, Z_NULL, 0), out + 4,
-				   (uInt)(len + 4)));
+	put32(out + 8 + len,
+	      crc32(crc32(0L, Z_NULL, 0), out + 4, (uInt)(len + 4)));
 	return len + 12;
 }
 
@@ -309,7 +309,7 @@ static int all_opaque(const unsigned char *px, int w, int h, int stride)
 /* Scan line y (cairo's native-endian ARGB32, premultiplied) as RGB or
  * RGBA bytes, without the filter byte, into row. */
 static void scan_line(const unsigned char *px, int stride, int w, int y,
-		      int channels, unsigned char *row)
+                      int channels, unsigned char *row)
 {
 	const uint32_t *r = (const uint32_t *)(px + (size_t)y * stride);
 	int x, k;
@@ -329,8 +329,9 @@ static void scan_line(const unsigned char *px, int stride, int w, int y,
 			unsigned c = (r[x] >> (16 - 8 * k)) & 0xff;
 
 			row[k] = (unsigned char)(a == 0 ? 0
-					 : a == 0xff ? c
-						     : (c * 255 + a / 2) / a);
+			                         : a == 0xff
+			                             ? c
+			                             : (c * 255 + a / 2) / a);
 		}
 		row[3] = (unsigned char)a;
 	}
@@ -339,11 +340,11 @@ static void scan_line(const unsigned char *px, int stride, int w, int y,
 /* Filtered scan lines: Up (PNG 2nd ed. 9.2), each line minus the one
  * above, byte by byte. */
 static unsigned char *filtered(const unsigned char *px, int stride, int w,
-			       int h, int channels, size_t *len)
+                               int h, int channels, size_t *len)
 {
 	size_t rl = (size_t)channels * (size_t)w, i;
 	unsigned char *f = malloc((rl + 1) * (size_t)h), *prev = calloc(1, rl),
-		      *cur = malloc(rl), *t;
+	              *cur = malloc(rl), *t;
 	int y;
 
 	if (!f || !prev || !cur) {
@@ -372,7 +373,7 @@ done:
 static enum ow_status png_encode(struct ow_canvas *cv, unsigned char **bytes,
                                  size_t *len, struct ow_diag *d)
 {
-	static const unsigned char sig[8] = {0x89, 'P', 'N', 'G',
+	static const unsigned char sig[8] = {0x89, 'P',  'N',  'G',
 	                                     '\r', '\n', 0x1a, '\n'};
 	struct png_impl *im = cv->impl;
 	const unsigned char *px;
@@ -436,8 +437,9 @@ static const struct canvas_ops png_ops = {
     png_text_width, png_encode, png_destroy,
 };
 
-enum ow_status ow_canvas_cairo_png(double width_pt, double height_pt, double scale,
-                                struct ow_canvas **out, struct ow_diag *d)
+enum ow_status ow_canvas_cairo_png(double width_pt, double height_pt,
+                                   double scale, struct ow_canvas **out,
+                                   struct ow_diag *d)
 {
 	struct ow_canvas *cv = ow_canvas_new(&png_ops, width_pt, height_pt);
 	struct png_impl *im = calloc(1, sizeof *im);

@@ -67,11 +67,11 @@ struct ow_canvas {
 
 /* A canvas with default state for a back-end (impl filled by caller). */
 struct ow_canvas *ow_canvas_new(const struct canvas_ops *ops, double width_pt,
-                             double height_pt);
+                                double height_pt);
 
 /* Record a failure (the first one is kept). */
-void ow_canvas_fail(struct ow_canvas *cv, enum ow_status st, const char *fmt, ...)
-    __attribute__((format(printf, 3, 4)));
+void ow_canvas_fail(struct ow_canvas *cv, enum ow_status st, const char *fmt,
+                    ...) __attribute__((format(printf, 3, 4)));
 
 /* FreeType faces of DejaVu Sans regular and bold as cairo font faces,
  * for the cairo back-end and the SVG back-end's text measure
@@ -81,12 +81,13 @@ enum ow_status ow_canvas_ft_open(struct canvas_ft **out, struct ow_diag *d);
 void ow_canvas_ft_close(struct canvas_ft *f);
 /* Select the face and size on a cairo_t (unhinted). */
 void ow_canvas_ft_select(void *cairo_cr, struct canvas_ft *f, int bold,
-                      double size);
+                         double size);
 
 /* Back-end constructors. */
-enum ow_status ow_canvas_cairo_png(double width_pt, double height_pt, double scale,
-                                struct ow_canvas **out, struct ow_diag *d);
+enum ow_status ow_canvas_cairo_png(double width_pt, double height_pt,
+                                   double scale, struct ow_canvas **out,
+                                   struct ow_diag *d);
 enum ow_status ow_canvas_svg(double width_pt, double height_pt,
-                          struct ow_canvas **out, struct ow_diag *d);
+                             struct ow_canvas **out, struct ow_diag *d);
 
 #endif

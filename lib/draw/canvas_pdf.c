@@ -32,8 +32,8 @@ static int ok(struct ow_canvas *cv, HPDF_STATUS r, const char *what)
 {
 	if (r == HPDF_OK)
 		return 1;
-	ow_canvas_fail(cv, OW_EIO, "PDF: libharu refused %s (error 0x%04X)", what,
-	            (unsigned)r);
+	ow_canvas_fail(cv, OW_EIO, "PDF: libharu refused %s (error 0x%04X)",
+	               what, (unsigned)r);
 	return 0;
 }
 
@@ -67,7 +67,8 @@ static HPDF_ExtGState alpha_state(struct ow_canvas *cv, double a)
 	    !ok(cv,
 	        HPDF_ExtGState_SetAlphaStroke(im->alpha_gs[i], (HPDF_REAL)a),
 	        "an alpha")) {
-		ow_canvas_fail(cv, OW_EIO, "PDF: libharu refused an alpha state");
+		ow_canvas_fail(cv, OW_EIO,
+		               "PDF: libharu refused an alpha state");
 		im->n_alphas = i; /* do not cache a broken one */
 		return NULL;
 	}

@@ -15,7 +15,6 @@
 #include <stdlib.h>
 #include <string.h>
 
-
 struct svg_impl {
 	struct ow_buf out;                /* the document so far */
 	int clips;                        /* clip paths defined so far */
@@ -266,7 +265,7 @@ static void header(struct svg_impl *im, double w, double h)
 }
 
 enum ow_status ow_canvas_svg(double width_pt, double height_pt,
-                          struct ow_canvas **out, struct ow_diag *d)
+                             struct ow_canvas **out, struct ow_diag *d)
 {
 	struct ow_canvas *cv = ow_canvas_new(&svg_ops, width_pt, height_pt);
 	struct svg_impl *im = calloc(1, sizeof *im);

@@ -56,12 +56,12 @@ double ow_maps_font(const struct ow_maps_options *o)
 }
 
 static const char *const fig_file[OW_MAP_COUNT] = {
-    "map-peak-temp", "map-unmelted-solids", "map-pressure", "map-output",
-    "map-specific-energy", "map-zone-load"};
+    "map-peak-temp", "map-unmelted-solids", "map-pressure",
+    "map-output",    "map-specific-energy", "map-zone-load"};
 static const char *const fig_title[OW_MAP_COUNT] = {
-    "Peak melt temperature", "Unmelted solids at discharge",
-    "Highest pressure on the screw", "Throughput", "Specific energy (drive)",
-    "Barrel zone load"};
+    "Peak melt temperature",         "Unmelted solids at discharge",
+    "Highest pressure on the screw", "Throughput",
+    "Specific energy (drive)",       "Barrel zone load"};
 
 const char *ow_maps_figure_file(enum ow_map_figure f)
 {
@@ -321,7 +321,8 @@ void ow_maps_boundary_points(const struct ow_study *s,
 
 	for (k = 0; k < l->n; k++) {
 		out[k].x = l->p[k].rpm;
-		out[k].y = ow_maps_temp(u, ow_line_axis_ref_K(&s->line, l->p[k].axis));
+		out[k].y =
+		    ow_maps_temp(u, ow_line_axis_ref_K(&s->line, l->p[k].axis));
 	}
 }
 
@@ -438,8 +439,8 @@ static void mark_point(const struct ow_plot *p, double x, double y,
                        enum ow_marker m, const char *text,
                        struct maps_labels *taken)
 {
-	static const double off[8][3] = {{1, -1, 0}, {1, 1, 0}, {-1, -1, 0},
-	                                 {-1, 1, 0}, {1, -1, 1}, {1, 1, 1},
+	static const double off[8][3] = {{1, -1, 0},  {1, 1, 0},  {-1, -1, 0},
+	                                 {-1, 1, 0},  {1, -1, 1}, {1, 1, 1},
 	                                 {-1, -1, 1}, {-1, 1, 1}};
 	double X = ow_plot_px(p, x), Y = ow_plot_py(p, y), f = p->font_pt;
 	double w, h = 1.3 * f, bx[8], by[8];
@@ -631,9 +632,9 @@ static enum ow_status draw_job(struct ow_canvas *cv, const struct job *j,
 	case MAP_FIGURE:
 		return ow_maps_draw_figure(cv, &box, j->fig, j->m, j->o, d);
 	case MAP_PROFILE:
-		return ow_maps_draw_profile(cv, &box, j->m->study, j->m->profile,
-		                            j->m->n_profile, j->subtitle, j->o,
-		                            d);
+		return ow_maps_draw_profile(cv, &box, j->m->study,
+		                            j->m->profile, j->m->n_profile,
+		                            j->subtitle, j->o, d);
 	}
 	return OW_EARG;
 }
@@ -706,8 +707,7 @@ static int file_of(const struct ow_window *w, const struct ow_maps_options *o,
 	return 1;
 }
 
-int ow_maps_file_count(const struct ow_map *m,
-                       const struct ow_maps_options *o)
+int ow_maps_file_count(const struct ow_map *m, const struct ow_maps_options *o)
 {
 	int nf = (o->png != 0) + (o->svg != 0);
 
@@ -745,8 +745,7 @@ struct all_files {
 
 /* Piece k of the pool: 0 the work beside (when there is one, first so
  * that the longest piece starts at once), then the files in order. */
-static enum ow_status piece(const struct all_files *a, int k,
-                            struct ow_diag *d)
+static enum ow_status piece(const struct all_files *a, int k, struct ow_diag *d)
 {
 	if (a->beside && k == 0)
 		return a->beside(a->ctx, d);
@@ -780,10 +779,11 @@ static enum ow_status run_pool(const struct all_files *a, struct ow_diag *d)
 	return first;
 }
 
-enum ow_status ow_maps_write_beside(
-    const struct ow_map *m, const struct ow_maps_options *o, const char *dir,
-    enum ow_status (*beside)(void *ctx, struct ow_diag *d), void *ctx,
-    struct ow_diag *d)
+enum ow_status
+ow_maps_write_beside(const struct ow_map *m, const struct ow_maps_options *o,
+                     const char *dir,
+                     enum ow_status (*beside)(void *ctx, struct ow_diag *d),
+                     void *ctx, struct ow_diag *d)
 {
 	struct ow_maps_options own;
 	struct all_files a = {m, &own, dir, beside, ctx};

@@ -51,7 +51,8 @@ static double fig_value(const struct ow_grid_point *p, const void *ctx)
 static const char *unit_of(enum ow_map_figure f, enum ow_unit_system u)
 {
 	static const enum ow_dim dim[OW_MAP_COUNT] = {
-	    OW_DIM_TEMPERATURE, OW_DIM_NONE, OW_DIM_PRESSURE, OW_DIM_MASS_FLOW,
+	    OW_DIM_TEMPERATURE,     OW_DIM_NONE,
+	    OW_DIM_PRESSURE,        OW_DIM_MASS_FLOW,
 	    OW_DIM_SPECIFIC_ENERGY, OW_DIM_NONE};
 
 	return f == OW_MAP_UNMELT || f == OW_MAP_ZONE_LOAD
@@ -79,7 +80,8 @@ static char *bar_title(enum ow_map_figure f, enum ow_unit_system u, char *buf,
 		         ow_display_label(u, OW_DIM_MASS_FLOW));
 		break;
 	case OW_MAP_ZONE_LOAD:
-		snprintf(buf, n, "highest zone load (%% of its heating or "
+		snprintf(buf, n,
+		         "highest zone load (%% of its heating or "
 		         "cooling power)");
 		break;
 	default:
@@ -347,10 +349,11 @@ static enum ow_status draw_body(const struct ow_plot *p,
 	return st;
 }
 
-enum ow_status
-ow_maps_draw_figure(struct ow_canvas *cv, const struct ow_rect *box,
-                    enum ow_map_figure f, const struct ow_map *m,
-                    const struct ow_maps_options *o, struct ow_diag *d)
+enum ow_status ow_maps_draw_figure(struct ow_canvas *cv,
+                                   const struct ow_rect *box,
+                                   enum ow_map_figure f, const struct ow_map *m,
+                                   const struct ow_maps_options *o,
+                                   struct ow_diag *d)
 {
 	const struct ow_study *s = m ? m->study : NULL;
 	const struct ow_grid *g = m ? m->grid : NULL;

@@ -39,14 +39,12 @@ static void share_levels(struct ow_ticks *fill, struct ow_ticks *iso)
 	iso->step = 1.0;
 }
 
-static enum ow_status draw_share(const struct ow_plot *p,
-				 const struct ow_study *s,
-				 const struct ow_window *w,
-				 const struct ow_window *rw,
-				 const struct ow_maps_options *o,
-				 const struct ow_field *fd,
-				 const struct ow_ticks *fill,
-				 const struct ow_ticks *iso, struct ow_diag *d)
+static enum ow_status
+draw_share(const struct ow_plot *p, const struct ow_study *s,
+           const struct ow_window *w, const struct ow_window *rw,
+           const struct ow_maps_options *o, const struct ow_field *fd,
+           const struct ow_ticks *fill, const struct ow_ticks *iso,
+           struct ow_diag *d)
 {
 	enum ow_status st;
 
@@ -64,10 +62,10 @@ static enum ow_status draw_share(const struct ow_plot *p,
 }
 
 enum ow_status ow_maps_draw_share(struct ow_canvas *cv,
-				  const struct ow_rect *box,
-				  const struct ow_map *m,
-				  const struct ow_maps_options *o,
-				  struct ow_diag *d)
+                                  const struct ow_rect *box,
+                                  const struct ow_map *m,
+                                  const struct ow_maps_options *o,
+                                  struct ow_diag *d)
 {
 	const struct ow_study *s = m->study;
 	const struct ow_grid *g = m->grid;
@@ -90,9 +88,10 @@ enum ow_status ow_maps_draw_share(struct ow_canvas *cv,
 	ow_maps_fill(g, share_value, &ctx, mf.z);
 	share_levels(&fill, &iso);
 	snprintf(title, sizeof title, "Share of safe samples — %s", s->title);
-	snprintf(sub, sizeof sub, "%d samples a point, seed %lu. Lines: 50, "
-		 "90, 99 %%. Thin box: nominal window; bold: robust (%.0f %%).",
-		 r->samples, r->seed, 100.0 * r->level);
+	snprintf(sub, sizeof sub,
+	         "%d samples a point, seed %lu. Lines: 50, "
+	         "90, 99 %%. Thin box: nominal window; bold: robust (%.0f %%).",
+	         r->samples, r->seed, 100.0 * r->level);
 	if (ow_maps_frame(cv, box, s, g, o->units, title, sub, fs, &p, &x, &y,
 	                  ytitle, sizeof ytitle) != OW_OK) {
 		ow_maps_field_free(&mf);
@@ -108,11 +107,11 @@ enum ow_status ow_maps_draw_share(struct ow_canvas *cv,
 }
 
 enum ow_status ow_maps_write_share(const struct ow_map *m,
-				   const struct ow_maps_options *o,
-				   const char *dir, struct ow_diag *d)
+                                   const struct ow_maps_options *o,
+                                   const char *dir, struct ow_diag *d)
 {
 	static const enum ow_canvas_format fmt[2] = {OW_CANVAS_PNG,
-						     OW_CANVAS_SVG};
+	                                             OW_CANVAS_SVG};
 	struct ow_rect box = {0, 0, OW_MAPS_WIDTH_PT, OW_MAPS_HEIGHT_PT};
 	enum ow_status st = OW_OK;
 	int k;
@@ -124,10 +123,10 @@ enum ow_status ow_maps_write_share(const struct ow_map *m,
 		if (!(k ? o->svg : o->png))
 			continue;
 		snprintf(path, sizeof path, "%s/map-safe-share.%s", dir,
-			 k ? "svg" : "png");
+		         k ? "svg" : "png");
 		st = ow_canvas_create_image(fmt[k], OW_MAPS_WIDTH_PT,
-					    OW_MAPS_HEIGHT_PT,
-					    OW_MAPS_PNG_SCALE, &cv, d);
+		                            OW_MAPS_HEIGHT_PT,
+		                            OW_MAPS_PNG_SCALE, &cv, d);
 		if (st == OW_OK)
 			st = ow_maps_draw_share(cv, &box, m, o, d);
 		if (st == OW_OK)

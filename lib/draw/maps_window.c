@@ -64,13 +64,13 @@ static const struct group *group_of(int c)
 static double angle_of(int c)
 {
 	static const double deg[OW_CK_COUNT] = {
-	    [OW_CK_PEAK_TEMP] = 45.0,     [OW_CK_UNMELT] = 135.0,
-	    [OW_CK_PRESSURE] = 90.0,      [OW_CK_POWER] = 0.0,
-	    [OW_CK_TORQUE] = 22.5,        [OW_CK_MIN_MELT_TEMP] = 157.5,
-	    [OW_CK_MIN_OUTPUT] = 67.5,    [OW_CK_MAX_OUTPUT] = 112.5,
-	    [OW_CK_MAX_SBR] = 30.0,       [OW_CK_ZONE_CONTROL] = 150.0,
-	    [OW_CK_PLUGGING] = 120.0,     [OW_CK_FEED] = 60.0,
-	    [OW_CK_PARTIAL_FILL] = 75.0,  [OW_CK_NOCONV] = 105.0};
+	    [OW_CK_PEAK_TEMP] = 45.0,    [OW_CK_UNMELT] = 135.0,
+	    [OW_CK_PRESSURE] = 90.0,     [OW_CK_POWER] = 0.0,
+	    [OW_CK_TORQUE] = 22.5,       [OW_CK_MIN_MELT_TEMP] = 157.5,
+	    [OW_CK_MIN_OUTPUT] = 67.5,   [OW_CK_MAX_OUTPUT] = 112.5,
+	    [OW_CK_MAX_SBR] = 30.0,      [OW_CK_ZONE_CONTROL] = 150.0,
+	    [OW_CK_PLUGGING] = 120.0,    [OW_CK_FEED] = 60.0,
+	    [OW_CK_PARTIAL_FILL] = 75.0, [OW_CK_NOCONV] = 105.0};
 
 	return c >= 0 && c < OW_CK_COUNT ? deg[c] : group_of(c)->angle_deg;
 }
@@ -539,10 +539,11 @@ window_layout(struct ow_canvas *cv, const struct ow_rect *box,
 	return OW_OK;
 }
 
-enum ow_status
-ow_maps_window_frame(struct ow_canvas *cv, const struct ow_rect *box,
-                     const struct ow_map *m, const struct ow_maps_options *o,
-                     struct ow_plot *p, struct ow_diag *d)
+enum ow_status ow_maps_window_frame(struct ow_canvas *cv,
+                                    const struct ow_rect *box,
+                                    const struct ow_map *m,
+                                    const struct ow_maps_options *o,
+                                    struct ow_plot *p, struct ow_diag *d)
 {
 	struct ow_maps_options def;
 	struct wlayout *ly;
@@ -564,10 +565,11 @@ ow_maps_window_frame(struct ow_canvas *cv, const struct ow_rect *box,
 	return st;
 }
 
-enum ow_status
-ow_maps_draw_window(struct ow_canvas *cv, const struct ow_rect *box,
-                    const struct ow_map *m, const struct ow_maps_options *o,
-                    struct ow_diag *d)
+enum ow_status ow_maps_draw_window(struct ow_canvas *cv,
+                                   const struct ow_rect *box,
+                                   const struct ow_map *m,
+                                   const struct ow_maps_options *o,
+                                   struct ow_diag *d)
 {
 	const struct ow_study *s = m ? m->study : NULL;
 	const struct ow_grid *g = m ? m->grid : NULL;

@@ -16,16 +16,15 @@ struct ow_canvas; /* ow_canvas.h */
  * into path, PNG or SVG by its extension, in unit system sys, under
  * title. OW_EIO when it cannot be written. */
 enum ow_status ow_calib_plot(const struct ow_calib_resid *e, int n,
-			     enum ow_unit_system sys, const char *title,
-			     const char *path, struct ow_diag *d);
+                             enum ow_unit_system sys, const char *title,
+                             const char *path, struct ow_diag *d);
 
 /* The same drawing on canvas cv in the w_pt x h_pt area whose top-left
  * corner is (x_pt, y_pt) (title NULL: none), and the number of panel rows
  * it takes (1 or 2), for a page that places it. */
-void ow_calib_draw(struct ow_canvas *cv, double x_pt, double y_pt,
-		   double w_pt, double h_pt,
-		   const struct ow_calib_resid *e, int n,
-		   enum ow_unit_system sys, const char *title);
+void ow_calib_draw(struct ow_canvas *cv, double x_pt, double y_pt, double w_pt,
+                   double h_pt, const struct ow_calib_resid *e, int n,
+                   enum ow_unit_system sys, const char *title);
 int ow_calib_plot_rows(const struct ow_calib_resid *e, int n);
 
 #endif

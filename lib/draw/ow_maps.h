@@ -47,7 +47,7 @@ enum ow_map_figure {
 	OW_MAP_OUTPUT,    /* map-output: throughput */
 	OW_MAP_SEC,       /* map-sec: specific energy (drive) */
 	OW_MAP_ZONE_LOAD, /* map-zone-load: largest share of a barrel zone's
-			     heating or cooling power needed */
+	                     heating or cooling power needed */
 	OW_MAP_COUNT
 };
 
@@ -61,25 +61,28 @@ const char *ow_maps_figure_title(enum ow_map_figure f);
 char *ow_maps_axis_label(const struct ow_study *s, char *buf, size_t n);
 
 /* Draw the window map of map m into box of cv. */
-enum ow_status
-ow_maps_draw_window(struct ow_canvas *cv, const struct ow_rect *box,
-                    const struct ow_map *m, const struct ow_maps_options *o,
-                    struct ow_diag *d);
+enum ow_status ow_maps_draw_window(struct ow_canvas *cv,
+                                   const struct ow_rect *box,
+                                   const struct ow_map *m,
+                                   const struct ow_maps_options *o,
+                                   struct ow_diag *d);
 
 /* The plot frame (data area, ranges) the window map uses in box, without
  * drawing: for placing annotations over it, and for tests. */
-enum ow_status
-ow_maps_window_frame(struct ow_canvas *cv, const struct ow_rect *box,
-                     const struct ow_map *m, const struct ow_maps_options *o,
-                     struct ow_plot *p, struct ow_diag *d);
+enum ow_status ow_maps_window_frame(struct ow_canvas *cv,
+                                    const struct ow_rect *box,
+                                    const struct ow_map *m,
+                                    const struct ow_maps_options *o,
+                                    struct ow_plot *p, struct ow_diag *d);
 
 /* Draw the map of figure f of map m into box of cv (filled contours of
  * the solved coarse grid points, colour bar, labelled iso-lines, the
  * window's rectangle and safe-region boundaries overlaid thinly). */
-enum ow_status
-ow_maps_draw_figure(struct ow_canvas *cv, const struct ow_rect *box,
-                    enum ow_map_figure f, const struct ow_map *m,
-                    const struct ow_maps_options *o, struct ow_diag *d);
+enum ow_status ow_maps_draw_figure(struct ow_canvas *cv,
+                                   const struct ow_rect *box,
+                                   enum ow_map_figure f, const struct ow_map *m,
+                                   const struct ow_maps_options *o,
+                                   struct ow_diag *d);
 
 /* Draw the axial profiles of rows (n rows, hopper to tip, as from
  * ow_solver_profile) into box: stacked panels sharing x = axial position
@@ -120,8 +123,7 @@ enum ow_status ow_maps_write_all(const struct ow_map *m,
 /* The same one file at a time, for a caller that draws other things
  * beside them: ow_maps_file_count files, ow_maps_write_file writes file k
  * (0 <= k < count, in the order above). */
-int ow_maps_file_count(const struct ow_map *m,
-                       const struct ow_maps_options *o);
+int ow_maps_file_count(const struct ow_map *m, const struct ow_maps_options *o);
 enum ow_status ow_maps_write_file(const struct ow_map *m,
                                   const struct ow_maps_options *o,
                                   const char *dir, int k, struct ow_diag *d);
@@ -129,9 +131,10 @@ enum ow_status ow_maps_write_file(const struct ow_map *m,
 /* ow_maps_write_all with one more piece of work, beside(ctx, d) (the
  * report), drawn in the same pool of o->jobs threads as the image files.
  * Its failure is reported after the files'. */
-enum ow_status ow_maps_write_beside(
-    const struct ow_map *m, const struct ow_maps_options *o, const char *dir,
-    enum ow_status (*beside)(void *ctx, struct ow_diag *d), void *ctx,
-    struct ow_diag *d);
+enum ow_status
+ow_maps_write_beside(const struct ow_map *m, const struct ow_maps_options *o,
+                     const char *dir,
+                     enum ow_status (*beside)(void *ctx, struct ow_diag *d),
+                     void *ctx, struct ow_diag *d);
 
 #endif

@@ -54,9 +54,9 @@ char *ow_plot_format(char *buf, size_t n, double v, int decimals);
  * log10(v), so each decade 10^k .. 10^(k+1) takes the same length and
  * m x 10^k lies log10(m) of a decade above 10^k. */
 struct ow_log_ticks {
-	int n_major;                      /* decades 10^k inside [lo, hi] */
+	int n_major; /* decades 10^k inside [lo, hi] */
 	double major[OW_PLOT_MAX_TICKS];
-	int n_minor;                      /* m x 10^k, m = 2..9, inside */
+	int n_minor; /* m x 10^k, m = 2..9, inside */
 	double minor[OW_PLOT_MAX_MINOR];
 	int plain; /* 1: every decade label written as a plain decimal */
 };
@@ -99,16 +99,16 @@ struct ow_plot_axis {
 };
 
 struct ow_plot {
-	struct ow_canvas *cv;   /* borrowed */
-	struct ow_rect area;    /* data area on the canvas */
-	double x0, x1, y0, y1;  /* data ranges mapped onto area */
-	struct ow_ticks xt, yt; /* ticks chosen */
-	double font_pt;         /* base text size */
-	struct ow_rgba ink;     /* axes and text colour */
-	int hide_x_labels;      /* 1: ticks without numbers on x (a panel
-	                           above another sharing its x axis) */
-	int xlog, ylog;         /* 1: that axis is base-10 logarithmic; xt,
-	                           yt then hold its labelled ticks */
+	struct ow_canvas *cv;       /* borrowed */
+	struct ow_rect area;        /* data area on the canvas */
+	double x0, x1, y0, y1;      /* data ranges mapped onto area */
+	struct ow_ticks xt, yt;     /* ticks chosen */
+	double font_pt;             /* base text size */
+	struct ow_rgba ink;         /* axes and text colour */
+	int hide_x_labels;          /* 1: ticks without numbers on x (a panel
+	                               above another sharing its x axis) */
+	int xlog, ylog;             /* 1: that axis is base-10 logarithmic; xt,
+	                               yt then hold its labelled ticks */
 	struct ow_log_ticks xl, yl; /* all decade and minor ticks (log) */
 };
 

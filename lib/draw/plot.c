@@ -320,14 +320,14 @@ static enum ow_status log_axis(const struct ow_plot_axis *a, double len,
 }
 
 /* Tick label of v on the x (xaxis 1) or y axis of p. */
-static char *tick_text(const struct ow_plot *p, int xaxis, double v,
-                       char *buf, size_t n)
+static char *tick_text(const struct ow_plot *p, int xaxis, double v, char *buf,
+                       size_t n)
 {
 	const struct ow_ticks *t = xaxis ? &p->xt : &p->yt;
 
 	if (xaxis ? p->xlog : p->ylog)
-		return ow_plot_format_log(buf, n,
-		                          v, xaxis ? p->xl.plain : p->yl.plain);
+		return ow_plot_format_log(buf, n, v,
+		                          xaxis ? p->xl.plain : p->yl.plain);
 	return ow_plot_format(buf, n, v, t->decimals);
 }
 
@@ -340,9 +340,9 @@ static double widest_label(const struct ow_plot *p, int xaxis)
 
 	ow_canvas_set_font(p->cv, p->font_pt, 0);
 	for (i = 0; i < t->n; i++)
-		w = fmax(w, ow_canvas_text_width(
-		                p->cv, tick_text(p, xaxis, t->v[i], buf,
-		                                 sizeof buf)));
+		w = fmax(
+		    w, ow_canvas_text_width(p->cv, tick_text(p, xaxis, t->v[i],
+		                                             buf, sizeof buf)));
 	return w;
 }
 
@@ -353,12 +353,12 @@ static enum ow_status any_axis(struct ow_plot *p, int xaxis, int log,
 	if (xaxis) {
 		p->xlog = log;
 		return log ? log_axis(a, len, per, &p->xl, &p->xt, &p->x0,
-		                         &p->x1)
-		              : axis_ticks(a, len, per, &p->xt, &p->x0, &p->x1);
+		                      &p->x1)
+		           : axis_ticks(a, len, per, &p->xt, &p->x0, &p->x1);
 	}
 	p->ylog = log;
 	return log ? log_axis(a, len, per, &p->yl, &p->yt, &p->y0, &p->y1)
-	              : axis_ticks(a, len, per, &p->yt, &p->y0, &p->y1);
+	           : axis_ticks(a, len, per, &p->yt, &p->y0, &p->y1);
 }
 
 enum ow_status ow_plot_init(struct ow_plot *p, struct ow_canvas *cv,
@@ -388,15 +388,15 @@ enum ow_status ow_plot_init_log(struct ow_plot *p, struct ow_canvas *cv,
 	top = 2.0 * font_pt;
 	bottom = TICK_LEN + 3.2 * font_pt + (x->title ? 0.0 : -1.6 * font_pt);
 	h = box->h - top - bottom;
-	if (h < 3.0 * font_pt ||
-	    any_axis(p, 0, (log_axes & OW_PLOT_LOG_Y) != 0, y, h, 3.2 * font_pt) != OW_OK)
+	if (h < 3.0 * font_pt || any_axis(p, 0, (log_axes & OW_PLOT_LOG_Y) != 0,
+	                                  y, h, 3.2 * font_pt) != OW_OK)
 		return OW_EARG;
 	left = TICK_LEN + 0.5 * font_pt + widest_label(p, 0) +
 	       (y->title ? 1.9 * font_pt : 0.3 * font_pt);
 	right = right_pt + 1.6 * font_pt;
 	w = box->w - left - right;
-	if (w < 4.0 * font_pt ||
-	    any_axis(p, 1, (log_axes & OW_PLOT_LOG_X) != 0, x, w, 5.0 * font_pt) != OW_OK)
+	if (w < 4.0 * font_pt || any_axis(p, 1, (log_axes & OW_PLOT_LOG_X) != 0,
+	                                  x, w, 5.0 * font_pt) != OW_OK)
 		return OW_EARG;
 	p->area.x = box->x + left;
 	p->area.y = box->y + top;
@@ -852,9 +852,8 @@ static void legend_sample(struct ow_canvas *cv, double x, double y,
 	{
 		enum ow_marker m =
 		    e->marker != OW_MARK_NONE ? e->marker : e->line.marker;
-		struct ow_rgba fill = !e->swatch && e->fill.a > 0.0
-		                          ? e->fill
-		                          : ow_rgb(1, 1, 1);
+		struct ow_rgba fill =
+		    !e->swatch && e->fill.a > 0.0 ? e->fill : ow_rgb(1, 1, 1);
 
 		marker_at(cv, x + 0.5 * sw, y, m,
 		          fmax(7.0, 2.2 + 2.8 * e->line.width_pt), fill,

@@ -15,7 +15,6 @@
 #include <stdlib.h>
 #include <string.h>
 
-
 /* Corner k (0..2) of triangle t (0: lower-right, 1: upper-left) of cell
  * (i, j), as grid indices; counter-clockwise for x right, y up. */
 static void tri_corner(int i, int j, int t, int k, int *ci, int *cj)

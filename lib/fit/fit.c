@@ -10,14 +10,14 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define LN10 2.30258509299404568402
-#define TEMP_TOL_K 0.5    /* points closer than this share a temperature */
-#define RESID_CAP 10.0    /* decades: stands in for an undefined residual */
-#define MAX_ITER 400
-#define POOR_REL 0.5      /* relative standard error called "poor" */
-#define POOR_CORR 0.99    /* correlation called "poor" */
-#define RATE_LO 10.0      /* 1/s: channel and die shear rates, roughly */
-#define RATE_HI 1000.0    /* 10..1000 1/s (common practice) */
+#define LN10       2.30258509299404568402
+#define TEMP_TOL_K 0.5  /* points closer than this share a temperature */
+#define RESID_CAP  10.0 /* decades: stands in for an undefined residual */
+#define MAX_ITER   400
+#define POOR_REL   0.5    /* relative standard error called "poor" */
+#define POOR_CORR  0.99   /* correlation called "poor" */
+#define RATE_LO    10.0   /* 1/s: channel and die shear rates, roughly */
+#define RATE_HI    1000.0 /* 10..1000 1/s (common practice) */
 #define MAX_STARTS 32
 
 /* How one unknown x maps to SI: LINEAR v = scale x; LOG v = 10^x;
@@ -34,20 +34,20 @@ struct pdef {
 	double l0, l1; /* BOUNDED: log10 of the bounds */
 };
 
-static const struct pdef defs_power[] = {
-	{"consistency", LOG, 1, 0, 0}, {"index", LINEAR, 1, 0, 0}};
+static const struct pdef defs_power[] = {{"consistency", LOG, 1, 0, 0},
+                                         {"index", LINEAR, 1, 0, 0}};
 static const struct pdef defs_cross[] = {{"zero_shear", LOG, 1, 0, 0},
-					 {"index", LINEAR, 1, 0, 0},
-					 {"critical_stress", LOG, 1, 0, 0}};
+                                         {"index", LINEAR, 1, 0, 0},
+                                         {"critical_stress", LOG, 1, 0, 0}};
 static const struct pdef defs_cy[] = {
-	{"zero_shear", LOG, 1, 0, 0},
-	{"index", LINEAR, 1, 0, 0},
-	{"time_constant", LOG, 1, 0, 0},
-	{"a", BOUNDED, 1, -1.30103, 1.0}}; /* 0.05 .. 10 */
+    {"zero_shear", LOG, 1, 0, 0},
+    {"index", LINEAR, 1, 0, 0},
+    {"time_constant", LOG, 1, 0, 0},
+    {"a", BOUNDED, 1, -1.30103, 1.0}}; /* 0.05 .. 10 */
 static const struct pdef defs_arrhenius[] = {
-	{"activation_energy", LINEAR, 1e3, 0, 0}}; /* x in kJ/mol */
+    {"activation_energy", LINEAR, 1e3, 0, 0}}; /* x in kJ/mol */
 static const struct pdef defs_wlf[] = {
-	{"c1", LINEAR, 1, 0, 0}, {"c2", BOUNDED, 1, 0.0, 3.0}}; /* 1..1000 K */
+    {"c1", LINEAR, 1, 0, 0}, {"c2", BOUNDED, 1, 0.0, 3.0}}; /* 1..1000 K */
 
 /* One fit: the data, the model and shift, the reference temperature. */
 struct job {
@@ -62,11 +62,11 @@ struct job {
 
 /* Starting values drawn from the data at the reference temperature. */
 struct guess {
-	double eta_max;      /* highest viscosity there, Pa s */
+	double eta_max;         /* highest viscosity there, Pa s */
 	double eta_hi, rate_hi; /* the point at the highest shear rate */
-	double n;            /* local power-law index at high rates */
-	double m;            /* power-law consistency, Pa s^n */
-	double t_min_K;      /* coldest data temperature */
+	double n;               /* local power-law index at high rates */
+	double m;               /* power-law consistency, Pa s^n */
+	double t_min_K;         /* coldest data temperature */
 };
 
 const char *ow_fit_model_name(enum ow_visc_model m)
@@ -85,7 +85,7 @@ const char *ow_fit_model_name(enum ow_visc_model m)
 enum ow_status ow_fit_model_parse(const char *s, enum ow_visc_model *out)
 {
 	static const enum ow_visc_model all[] = {
-		OW_VISC_POWER_LAW, OW_VISC_CROSS, OW_VISC_CARREAU_YASUDA};
+	    OW_VISC_POWER_LAW, OW_VISC_CROSS, OW_VISC_CARREAU_YASUDA};
 	size_t i;
 
 	for (i = 0; i < sizeof all / sizeof all[0]; i++)
@@ -123,8 +123,8 @@ struct ow_fit_options ow_fit_options_default(void)
 }
 
 static void job_init(struct job *j, const struct ow_fit_data *data,
-		     enum ow_visc_model model, enum ow_shift_type shift,
-		     double ref_K)
+                     enum ow_visc_model model, enum ow_shift_type shift,
+                     double ref_K)
 {
 	const struct pdef *m = defs_cy, *s = defs_arrhenius;
 	int nm = 4, ns = 1, i;
@@ -208,8 +208,7 @@ static double dsi_dx(const struct pdef *p, double x)
 
 /* The unknowns x -> the model the solver evaluates. Order: model unknowns
  * (defs_*), then shift unknowns. */
-static void unpack(const struct job *j, const double *x,
-		   struct ow_viscosity *v)
+static void unpack(const struct job *j, const double *x, struct ow_viscosity *v)
 {
 	double si[OW_FIT_MAX_PARAMS] = {0};
 	int i, k = j->n_model;
@@ -251,8 +250,8 @@ static void residuals_at(const struct job *j, const double *x, double *r)
 	unpack(j, x, &v);
 	for (i = 0; i < j->data->n; i++) {
 		const struct ow_fit_point *pt = &j->data->points[i];
-		double e = ow_viscosity_eval(&v, pt->shear_rate_1_s,
-					     pt->temp_K);
+		double e =
+		    ow_viscosity_eval(&v, pt->shear_rate_1_s, pt->temp_K);
 		double ri = log10(e) - log10(pt->viscosity_Pa_s);
 
 		if (!isfinite(ri) || ri > RESID_CAP)
@@ -292,14 +291,15 @@ static double sum_sq(const double *r, size_t n)
  * GSL manual, "Nonlinear Least-Squares Fitting"), central-difference
  * Jacobian. Returns the sum of squares at the end point in *rss, or
  * INFINITY when the run failed. */
-static void solve(const struct job *j, const double *x0, double *x,
-		  double *rss, int *converged)
+static void solve(const struct job *j, const double *x0, double *x, double *rss,
+                  int *converged)
 {
 	gsl_multifit_nlinear_parameters fp =
-		gsl_multifit_nlinear_default_parameters();
+	    gsl_multifit_nlinear_default_parameters();
 	gsl_multifit_nlinear_fdf fdf;
 	gsl_multifit_nlinear_workspace *w;
-	gsl_vector_const_view v0 = gsl_vector_const_view_array(x0, (size_t)j->p);
+	gsl_vector_const_view v0 =
+	    gsl_vector_const_view_array(x0, (size_t)j->p);
 	int info = 0, status, i;
 
 	*rss = INFINITY;
@@ -312,18 +312,17 @@ static void solve(const struct job *j, const double *x0, double *x,
 	fdf.p = (size_t)j->p;
 	fdf.params = (void *)j;
 	w = gsl_multifit_nlinear_alloc(gsl_multifit_nlinear_trust, &fp, fdf.n,
-				       fdf.p);
+	                               fdf.p);
 	if (!w)
 		return;
 	if (gsl_multifit_nlinear_init(&v0.vector, &fdf, w) == GSL_SUCCESS) {
-		status = gsl_multifit_nlinear_driver(MAX_ITER, 1e-10, 1e-10,
-						     1e-14, NULL, NULL, &info,
-						     w);
+		status = gsl_multifit_nlinear_driver(
+		    MAX_ITER, 1e-10, 1e-10, 1e-14, NULL, NULL, &info, w);
 		/* ENOPROG: no step lowers the cost any more, i.e. at rest */
 		*converged = status == GSL_SUCCESS || status == GSL_ENOPROG;
 		for (i = 0; i < j->p; i++)
 			x[i] = gsl_vector_get(gsl_multifit_nlinear_position(w),
-					      (size_t)i);
+			                      (size_t)i);
 		residuals_at(j, x, j->scratch);
 		*rss = sum_sq(j->scratch, j->data->n);
 		if (!isfinite(*rss))
@@ -335,7 +334,7 @@ static void solve(const struct job *j, const double *x0, double *x,
 /* Least-squares slope of log10 eta on log10 rate over points [lo, hi) of an
  * index list; returns 0 when the rates do not spread. */
 static double log_slope(const struct ow_fit_data *data, const size_t *idx,
-			size_t lo, size_t hi, double *intercept)
+                        size_t lo, size_t hi, double *intercept)
 {
 	double sx = 0, sy = 0, sxx = 0, sxy = 0, m = (double)(hi - lo), den;
 	size_t i;
@@ -374,7 +373,7 @@ static int by_rate(const void *a, const void *b)
 /* Starting values from the points at the reference temperature (all points
  * when fewer than 2 lie there), sorted by rate. */
 static enum ow_status make_guess(const struct ow_fit_data *data, double ref_K,
-				 struct guess *g)
+                                 struct guess *g)
 {
 	struct rate_index *ri = malloc(data->n * sizeof *ri);
 	size_t *idx = malloc(data->n * sizeof *idx), m = 0, i;
@@ -403,8 +402,8 @@ again:
 	g->eta_max = 0.0;
 	for (i = 0; i < m; i++) {
 		idx[i] = ri[i].i;
-		g->eta_max = fmax(g->eta_max,
-				  data->points[idx[i]].viscosity_Pa_s);
+		g->eta_max =
+		    fmax(g->eta_max, data->points[idx[i]].viscosity_Pa_s);
 	}
 	g->eta_hi = data->points[idx[m - 1]].viscosity_Pa_s;
 	g->rate_hi = data->points[idx[m - 1]].shear_rate_1_s;
@@ -424,16 +423,15 @@ again:
  * model's high-rate asymptote eta0 (eta0 gdot / tau*)^(n-1), resp.
  * eta0 (lambda gdot)^(n-1), through the highest-rate point. */
 static void model_start(const struct job *j, const struct guess *g, double f,
-			double a, double *x)
+                        double a, double *x)
 {
 	double eta0 = f * g->eta_max, n = g->n;
 	double ratio = fmax(eta0 / g->eta_hi, 1.05);
 
 	if (j->model == OW_VISC_POWER_LAW) {
 		x[0] = log10(g->m);
-		x[1] = clamp(1.0 + log10(g->eta_hi / g->m) /
-					   log10(g->rate_hi),
-			     0.1, 0.95);
+		x[1] = clamp(1.0 + log10(g->eta_hi / g->m) / log10(g->rate_hi),
+		             0.1, 0.95);
 		if (!isfinite(x[1]) || g->rate_hi == 1.0)
 			x[1] = n;
 		return;
@@ -442,7 +440,7 @@ static void model_start(const struct job *j, const struct guess *g, double f,
 	x[1] = n;
 	if (j->model == OW_VISC_CROSS) {
 		x[2] = log10(eta0 * g->rate_hi /
-			     pow(ratio - 1.0, 1.0 / (1.0 - n)));
+		             pow(ratio - 1.0, 1.0 / (1.0 - n)));
 	} else {
 		x[2] = log10(pow(ratio, 1.0 / (1.0 - n)) / g->rate_hi);
 		x[3] = from_si(j->defs[3], a);
@@ -455,7 +453,7 @@ static void model_start(const struct job *j, const struct guess *g, double f,
  * Arrhenius one (Ferry, Viscoelastic Properties of Polymers, 3rd ed. 1980,
  * ch. 11). */
 static void shift_start(const struct job *j, const struct guess *g, double E,
-			int variant, double *x)
+                        int variant, double *x)
 {
 	double tr = j->ref_K, c2;
 
@@ -471,10 +469,10 @@ static void shift_start(const struct job *j, const struct guess *g, double E,
 /* A small grid of starts: the model's surface has more than one valley
  * (eta0 against lambda or tau*), and LM finds the nearest. */
 static int make_starts(const struct job *j, const struct guess *g,
-		       double (*x)[OW_FIT_MAX_PARAMS])
+                       double (*x)[OW_FIT_MAX_PARAMS])
 {
 	static const double fs[] = {1.2, 4.0}, as[] = {0.7, 2.0},
-			    Es[] = {25e3, 50e3, 100e3};
+	                    Es[] = {25e3, 50e3, 100e3};
 	int nf = j->model == OW_VISC_POWER_LAW ? 1 : 2;
 	int na = j->model == OW_VISC_CARREAU_YASUDA ? 2 : 1;
 	int nv = j->shift == OW_SHIFT_WLF ? 2 : 1, n = 0, f, a, e, v;
@@ -485,7 +483,7 @@ static int make_starts(const struct job *j, const struct guess *g,
 				for (v = 0; v < nv && n < MAX_STARTS; v++) {
 					model_start(j, g, fs[f], as[a], x[n]);
 					shift_start(j, g, Es[e], v,
-						    x[n] + j->n_model);
+					            x[n] + j->n_model);
 					n++;
 				}
 	return n;
@@ -508,7 +506,7 @@ static int by_temp(const void *a, const void *b)
 }
 
 static enum ow_status make_groups(const struct ow_fit_data *data,
-				  struct groups *g, struct ow_diag *d)
+                                  struct groups *g, struct ow_diag *d)
 {
 	struct rate_index *t = malloc(data->n * sizeof *t);
 	double first = 0, sum = 0;
@@ -531,9 +529,10 @@ static enum ow_status make_groups(const struct ow_fit_data *data,
 			if (g->n == OW_FIT_MAX_TEMPS) {
 				free(t);
 				return ow_diag_set(d, OW_EINPUT,
-						   "%s: more than %d distinct "
-						   "temperatures", data->source,
-						   OW_FIT_MAX_TEMPS);
+				                   "%s: more than %d distinct "
+				                   "temperatures",
+				                   data->source,
+				                   OW_FIT_MAX_TEMPS);
 			}
 			first = t[i].rate;
 			sum = 0;
@@ -549,10 +548,10 @@ static enum ow_status make_groups(const struct ow_fit_data *data,
 }
 
 static void add_warning(char (*w)[OW_FIT_WARN_LEN], int *n, const char *fmt,
-			...) __attribute__((format(printf, 3, 4)));
+                        ...) __attribute__((format(printf, 3, 4)));
 
 static void add_warning(char (*w)[OW_FIT_WARN_LEN], int *n, const char *fmt,
-			...)
+                        ...)
 {
 	va_list ap;
 
@@ -566,7 +565,7 @@ static void add_warning(char (*w)[OW_FIT_WARN_LEN], int *n, const char *fmt,
 
 /* Central-difference Jacobian of the residuals at x, into J (n x p). */
 static void jacobian(const struct job *j, const double *x, gsl_matrix *J,
-		     double *rp, double *rm)
+                     double *rp, double *rm)
 {
 	double xs[OW_FIT_MAX_PARAMS], h;
 	size_t i;
@@ -580,7 +579,8 @@ static void jacobian(const struct job *j, const double *x, gsl_matrix *J,
 		xs[k] = x[k] - h;
 		residuals_at(j, xs, rm);
 		for (i = 0; i < j->data->n; i++)
-			gsl_matrix_set(J, i, (size_t)k, (rp[i] - rm[i]) / (2 * h));
+			gsl_matrix_set(J, i, (size_t)k,
+			               (rp[i] - rm[i]) / (2 * h));
 	}
 }
 
@@ -590,7 +590,7 @@ static void jacobian(const struct job *j, const double *x, gsl_matrix *J,
  * (log10 unknowns: se(v) = v ln10 se(x)). A direction the data do not
  * determine (rank-deficient J) gets an infinite error. */
 static enum ow_status std_errors(const struct job *j, const double *x,
-				 struct ow_fit_result *r)
+                                 struct ow_fit_result *r)
 {
 	size_t n = j->data->n, p = (size_t)j->p, k, l;
 	gsl_matrix *J = gsl_matrix_alloc(n, p), *cov = gsl_matrix_alloc(p, p);
@@ -610,17 +610,17 @@ static enum ow_status std_errors(const struct job *j, const double *x,
 		q->key = j->defs[k]->key;
 		q->value = to_si(j->defs[k], x[k]);
 		q->std_error = isfinite(sd[k])
-				       ? fabs(dsi_dx(j->defs[k], x[k])) * sd[k]
-				       : INFINITY;
-		q->rel_error = q->value != 0 ? q->std_error / fabs(q->value)
-					     : INFINITY;
+		                   ? fabs(dsi_dx(j->defs[k], x[k])) * sd[k]
+		                   : INFINITY;
+		q->rel_error =
+		    q->value != 0 ? q->std_error / fabs(q->value) : INFINITY;
 	}
 	for (k = 0; k < p; k++)
 		for (l = 0; l < p; l++)
 			r->corr[k][l] = isfinite(sd[k]) && isfinite(sd[l])
-						? s2 * gsl_matrix_get(cov, k, l) /
-							  (sd[k] * sd[l])
-						: 0.0;
+			                    ? s2 * gsl_matrix_get(cov, k, l) /
+			                          (sd[k] * sd[l])
+			                    : 0.0;
 	r->n_params = j->p;
 	st = OW_OK;
 fail:
@@ -635,7 +635,7 @@ fail:
  * 716), BIC = N ln(RSS/N) + k ln N (Schwarz, Ann. Statist. 6 (1978) 461),
  * for Gaussian errors in log10 viscosity with k fitted parameters. */
 static void residual_stats(const struct job *j, const double *x,
-			   const struct groups *g, struct ow_fit_result *r)
+                           const struct groups *g, struct ow_fit_result *r)
 {
 	size_t i, n = j->data->n;
 	double N = (double)n, rss;
@@ -659,7 +659,8 @@ static void residual_stats(const struct job *j, const double *x,
 	}
 	for (i = 0; i < n; i++) {
 		struct ow_fit_temp *t = &r->temps[g->of[i]];
-		double e = j->scratch[i], rate = j->data->points[i].shear_rate_1_s;
+		double e = j->scratch[i],
+		       rate = j->data->points[i].shear_rate_1_s;
 
 		t->n_points++;
 		t->mean_log10 += e;
@@ -711,16 +712,16 @@ static void wlf_warning(const struct job *j, struct ow_fit_result *r)
 		t_min = fmin(t_min, j->data->points[i].temp_K);
 	if (t_sing > t_min - 100.0)
 		add_warning(r->warnings, &r->n_warnings,
-			    "%s: the WLF shift is singular at %.1f K "
-			    "(%.1f degC, Tref - c2), %.0f K below the coldest "
-			    "data: viscosities there are extrapolated far",
-			    ow_fit_model_name(j->model), t_sing,
-			    t_sing - OW_ZERO_C_K, t_min - t_sing);
+		            "%s: the WLF shift is singular at %.1f K "
+		            "(%.1f degC, Tref - c2), %.0f K below the coldest "
+		            "data: viscosities there are extrapolated far",
+		            ow_fit_model_name(j->model), t_sing,
+		            t_sing - OW_ZERO_C_K, t_min - t_sing);
 }
 
 /* Why parameter k is poorly determined, in words. */
 static void poor_warning(const struct job *j, const double *x, int k,
-			 struct ow_fit_result *r)
+                         struct ow_fit_result *r)
 {
 	const char *name = ow_fit_model_name(j->model);
 	const struct ow_fit_param *q = &r->params[k];
@@ -729,24 +730,26 @@ static void poor_warning(const struct job *j, const double *x, int k,
 
 	if (p->kind == BOUNDED && (s < 0.01 || s > 0.99))
 		add_warning(r->warnings, &r->n_warnings,
-			    "%s: %s = %.4g sits at the edge of its range "
-			    "%.3g..%.3g: the data do not determine it",
-			    name, q->key, q->value, pow(10.0, p->l0),
-			    pow(10.0, p->l1));
+		            "%s: %s = %.4g sits at the edge of its range "
+		            "%.3g..%.3g: the data do not determine it",
+		            name, q->key, q->value, pow(10.0, p->l0),
+		            pow(10.0, p->l1));
 	else if (!(q->rel_error <= 10.0))
 		add_warning(r->warnings, &r->n_warnings,
-			    "%s: %s is not determined by the data (standard "
-			    "error above 1000 %% of its value)", name, q->key);
+		            "%s: %s is not determined by the data (standard "
+		            "error above 1000 %% of its value)",
+		            name, q->key);
 	else
 		add_warning(r->warnings, &r->n_warnings,
-			    "%s: %s is poorly determined (standard error "
-			    "%.0f %% of its value, above %.0f %%): the data "
-			    "do not pin it down", name, q->key,
-			    100.0 * q->rel_error, 100.0 * POOR_REL);
+		            "%s: %s is poorly determined (standard error "
+		            "%.0f %% of its value, above %.0f %%): the data "
+		            "do not pin it down",
+		            name, q->key, 100.0 * q->rel_error,
+		            100.0 * POOR_REL);
 }
 
 static void fit_warnings(const struct job *j, const double *x,
-			 struct ow_fit_result *r)
+                         struct ow_fit_result *r)
 {
 	const char *name = ow_fit_model_name(j->model);
 	int k, l;
@@ -754,8 +757,9 @@ static void fit_warnings(const struct job *j, const double *x,
 	wlf_warning(j, r);
 	if (!r->converged)
 		add_warning(r->warnings, &r->n_warnings,
-			    "%s: the iteration limit was reached before "
-			    "convergence: this may not be the best fit", name);
+		            "%s: the iteration limit was reached before "
+		            "convergence: this may not be the best fit",
+		            name);
 	for (k = 0; k < r->n_params; k++)
 		if (!(r->params[k].rel_error <= POOR_REL))
 			poor_warning(j, x, k, r);
@@ -763,20 +767,21 @@ static void fit_warnings(const struct job *j, const double *x,
 		for (l = k + 1; l < r->n_params; l++)
 			if (fabs(r->corr[k][l]) > POOR_CORR)
 				add_warning(r->warnings, &r->n_warnings,
-					    "%s: %s and %s are correlated "
-					    "(%.4f, above %.2f): the data fix "
-					    "a combination of the two, not "
-					    "each one", name, r->params[k].key,
-					    r->params[l].key, r->corr[k][l],
-					    POOR_CORR);
+				            "%s: %s and %s are correlated "
+				            "(%.4f, above %.2f): the data fix "
+				            "a combination of the two, not "
+				            "each one",
+				            name, r->params[k].key,
+				            r->params[l].key, r->corr[k][l],
+				            POOR_CORR);
 }
 
 /* Best of all starts, then errors, statistics and warnings. */
 static void fit_best(const struct job *j, const struct guess *g,
-		     const struct groups *grp, struct ow_fit_result *r)
+                     const struct groups *grp, struct ow_fit_result *r)
 {
 	double starts[MAX_STARTS][OW_FIT_MAX_PARAMS], x[OW_FIT_MAX_PARAMS],
-		best[OW_FIT_MAX_PARAMS], rss, best_rss = INFINITY;
+	    best[OW_FIT_MAX_PARAMS], rss, best_rss = INFINITY;
 	int n = make_starts(j, g, starts), s, conv, i;
 	struct ow_diag why = {{0}};
 
@@ -791,8 +796,10 @@ static void fit_best(const struct job *j, const struct guess *g,
 	}
 	if (!isfinite(best_rss)) {
 		r->status = OW_ECOMPUTE;
-		snprintf(r->message, sizeof r->message, "%s: the fit failed "
-			 "from every starting point", ow_fit_model_name(j->model));
+		snprintf(r->message, sizeof r->message,
+		         "%s: the fit failed "
+		         "from every starting point",
+		         ow_fit_model_name(j->model));
 		return;
 	}
 	unpack(j, best, &r->visc);
@@ -805,16 +812,18 @@ static void fit_best(const struct job *j, const struct guess *g,
 	fit_warnings(j, best, r);
 	r->status = ow_viscosity_validate(&r->visc, "viscosity", &why);
 	if (r->status != OW_OK)
-		snprintf(r->message, sizeof r->message, "%s: the best fit "
-			 "lies outside the range a resin file accepts (%.300s): "
-			 "the model does not describe these data",
-			 ow_fit_model_name(j->model), why.msg);
+		snprintf(
+		    r->message, sizeof r->message,
+		    "%s: the best fit "
+		    "lies outside the range a resin file accepts (%.300s): "
+		    "the model does not describe these data",
+		    ow_fit_model_name(j->model), why.msg);
 }
 
 static void fit_one(const struct ow_fit_data *data, enum ow_visc_model model,
-		    enum ow_shift_type shift, double ref_K,
-		    const struct guess *g, const struct groups *grp,
-		    struct ow_fit_result *r)
+                    enum ow_shift_type shift, double ref_K,
+                    const struct guess *g, const struct groups *grp,
+                    struct ow_fit_result *r)
 {
 	struct job j;
 	char loc[300];
@@ -826,10 +835,10 @@ static void fit_one(const struct ow_fit_data *data, enum ow_visc_model model,
 		where(data, loc, sizeof loc);
 		r->status = OW_EINPUT;
 		snprintf(r->message, sizeof r->message,
-			 "%s: %zu points are too few to fit %s with the %s "
-			 "shift (%d parameters): at least %d are needed", loc,
-			 data->n, ow_fit_model_name(model),
-			 ow_fit_shift_name(shift), j.p, j.p + 2);
+		         "%s: %zu points are too few to fit %s with the %s "
+		         "shift (%d parameters): at least %d are needed",
+		         loc, data->n, ow_fit_model_name(model),
+		         ow_fit_shift_name(shift), j.p, j.p + 2);
 		return;
 	}
 	j.scratch = malloc(data->n * sizeof *j.scratch);
@@ -866,32 +875,33 @@ static void recommend(struct ow_fit_report *rep)
 		if (i == best || len >= sizeof others)
 			continue;
 		if (f->status == OW_OK)
-			len += (size_t)snprintf(others + len, sizeof others - len,
-					"%s%s %.1f", len ? ", " : "",
-					ow_fit_model_name(f->visc.model),
-					f->bic);
+			len += (size_t)snprintf(
+			    others + len, sizeof others - len, "%s%s %.1f",
+			    len ? ", " : "", ow_fit_model_name(f->visc.model),
+			    f->bic);
 		else
-			len += (size_t)snprintf(others + len, sizeof others - len,
-					"%s%s not fitted", len ? ", " : "",
-					ow_fit_model_name(f->visc.model));
+			len +=
+			    (size_t)snprintf(others + len, sizeof others - len,
+			                     "%s%s not fitted", len ? ", " : "",
+			                     ow_fit_model_name(f->visc.model));
 	}
 	snprintf(rep->why, sizeof rep->why,
-		 "%s has the lowest BIC, %.1f (%s%s%s). BIC = N ln(RSS/N) + "
-		 "k ln N on the log10 residuals (Schwarz 1978) charges "
-		 "ln N = %.2f per parameter, more than AIC's 2, so a model "
-		 "with more parameters must fit clearly better to win: the "
-		 "simpler model extrapolates more safely.",
-		 ow_fit_model_name(rep->fits[best].visc.model),
-		 rep->fits[best].bic, len ? "others: " : "", others,
-		 len ? "" : "the only model fitted",
-		 log((double)rep->fits[best].n_points));
+	         "%s has the lowest BIC, %.1f (%s%s%s). BIC = N ln(RSS/N) + "
+	         "k ln N on the log10 residuals (Schwarz 1978) charges "
+	         "ln N = %.2f per parameter, more than AIC's 2, so a model "
+	         "with more parameters must fit clearly better to win: the "
+	         "simpler model extrapolates more safely.",
+	         ow_fit_model_name(rep->fits[best].visc.model),
+	         rep->fits[best].bic, len ? "others: " : "", others,
+	         len ? "" : "the only model fitted",
+	         log((double)rep->fits[best].n_points));
 }
 
 /* Checks on the data as a whole: enough temperatures for the shift, and
  * the shear-rate coverage. */
 static enum ow_status check_data(const struct ow_fit_data *data,
-				 const struct groups *g,
-				 struct ow_fit_report *rep, struct ow_diag *d)
+                                 const struct groups *g,
+                                 struct ow_fit_report *rep, struct ow_diag *d)
 {
 	int need = rep->opts.shift == OW_SHIFT_WLF ? 3 : 2;
 	char loc[300];
@@ -900,37 +910,39 @@ static enum ow_status check_data(const struct ow_fit_data *data,
 	where(data, loc, sizeof loc);
 	if (g->n < need)
 		return ow_diag_set(d, OW_EINPUT,
-				   "%s: the points lie at %d temperature%s "
-				   "(%.2f K = %.2f degC%s): the %s shift needs "
-				   "at least %d%s",
-				   loc, g->n, g->n == 1 ? "" : "s", g->T[0],
-				   g->T[0] - OW_ZERO_C_K, g->n > 1 ? ", ..." : "",
-				   ow_fit_shift_name(rep->opts.shift), need,
-				   need == 3 ? " (two constants, c1 and c2, "
-					       "need three shift factors; try "
-					       "--shift arrhenius)"
-					     : "");
+		                   "%s: the points lie at %d temperature%s "
+		                   "(%.2f K = %.2f degC%s): the %s shift needs "
+		                   "at least %d%s",
+		                   loc, g->n, g->n == 1 ? "" : "s", g->T[0],
+		                   g->T[0] - OW_ZERO_C_K,
+		                   g->n > 1 ? ", ..." : "",
+		                   ow_fit_shift_name(rep->opts.shift), need,
+		                   need == 3 ? " (two constants, c1 and c2, "
+		                               "need three shift factors; try "
+		                               "--shift arrhenius)"
+		                             : "");
 	rep->min_rate_1_s = INFINITY;
 	for (i = 0; i < data->n; i++) {
-		rep->min_rate_1_s = fmin(rep->min_rate_1_s,
-					 data->points[i].shear_rate_1_s);
-		rep->max_rate_1_s = fmax(rep->max_rate_1_s,
-					 data->points[i].shear_rate_1_s);
+		rep->min_rate_1_s =
+		    fmin(rep->min_rate_1_s, data->points[i].shear_rate_1_s);
+		rep->max_rate_1_s =
+		    fmax(rep->max_rate_1_s, data->points[i].shear_rate_1_s);
 	}
 	if (rep->min_rate_1_s > RATE_LO || rep->max_rate_1_s < RATE_HI)
 		add_warning(rep->warnings, &rep->n_warnings,
-			    "the data cover %.3g..%.3g 1/s, not the whole of "
-			    "%g..%g 1/s that screw channels and dies see "
-			    "(common practice): outside the data the model "
-			    "is extrapolated", rep->min_rate_1_s,
-			    rep->max_rate_1_s, RATE_LO, RATE_HI);
+		            "the data cover %.3g..%.3g 1/s, not the whole of "
+		            "%g..%g 1/s that screw channels and dies see "
+		            "(common practice): outside the data the model "
+		            "is extrapolated",
+		            rep->min_rate_1_s, rep->max_rate_1_s, RATE_LO,
+		            RATE_HI);
 	return OW_OK;
 }
 
 /* With one model asked, its failure is the answer; with all, the run fails
  * only when none could be fitted (input errors win: they say what to fix). */
 static enum ow_status outcome(const struct ow_fit_report *rep,
-			      struct ow_diag *d)
+                              struct ow_diag *d)
 {
 	int i;
 
@@ -939,22 +951,23 @@ static enum ow_status outcome(const struct ow_fit_report *rep,
 	for (i = rep->n_fits - 1; i >= 0; i--)
 		if (rep->fits[i].status == OW_EINPUT)
 			return ow_diag_set(d, OW_EINPUT, "%s",
-					   rep->fits[i].message);
+			                   rep->fits[i].message);
 	for (i = 0; i < rep->n_fits; i++)
 		if (rep->fits[i].status != OW_OK)
-			return ow_diag_set(d, rep->fits[i].status == OW_ENOMEM
-						      ? OW_ENOMEM
-						      : OW_ECOMPUTE,
-					   "%s", rep->fits[i].message);
+			return ow_diag_set(d,
+			                   rep->fits[i].status == OW_ENOMEM
+			                       ? OW_ENOMEM
+			                       : OW_ECOMPUTE,
+			                   "%s", rep->fits[i].message);
 	return ow_diag_set(d, OW_ECOMPUTE, "no model could be fitted");
 }
 
 enum ow_status ow_fit_run(const struct ow_fit_data *data,
-			  const struct ow_fit_options *opts,
-			  struct ow_fit_report *out, struct ow_diag *d)
+                          const struct ow_fit_options *opts,
+                          struct ow_fit_report *out, struct ow_diag *d)
 {
 	static const enum ow_visc_model order[OW_FIT_N_MODELS] = {
-		OW_VISC_CARREAU_YASUDA, OW_VISC_CROSS, OW_VISC_POWER_LAW};
+	    OW_VISC_CARREAU_YASUDA, OW_VISC_CROSS, OW_VISC_POWER_LAW};
 	struct groups g = {0, {0}, NULL};
 	struct guess guess;
 	enum ow_status st;
@@ -966,7 +979,7 @@ enum ow_status ow_fit_run(const struct ow_fit_data *data,
 	out->best = -1;
 	if (data->n == 0)
 		return ow_diag_set(d, OW_EINPUT, "%s: no data points",
-				   data->source);
+		                   data->source);
 	st = make_groups(data, &g, d);
 	if (st == OW_OK)
 		st = check_data(data, &g, out, d);
@@ -974,8 +987,8 @@ enum ow_status ow_fit_run(const struct ow_fit_data *data,
 		goto fail;
 	out->n_temps = g.n;
 	memcpy(out->temps_K, g.T, sizeof g.T);
-	out->ref_temp_K = isfinite(opts->ref_temp_K) ? opts->ref_temp_K
-						     : g.T[(g.n - 1) / 2];
+	out->ref_temp_K =
+	    isfinite(opts->ref_temp_K) ? opts->ref_temp_K : g.T[(g.n - 1) / 2];
 	st = make_guess(data, out->ref_temp_K, &guess);
 	if (st != OW_OK) {
 		ow_diag_set(d, st, "out of memory");
@@ -985,7 +998,7 @@ enum ow_status ow_fit_run(const struct ow_fit_data *data,
 		if (opts->model == OW_FIT_ANY_MODEL ||
 		    opts->model == (int)order[i])
 			fit_one(data, order[i], opts->shift, out->ref_temp_K,
-				&guess, &g, &out->fits[out->n_fits++]);
+			        &guess, &g, &out->fits[out->n_fits++]);
 	recommend(out);
 	st = outcome(out, d);
 fail:

@@ -1,5 +1,6 @@
 /* fitout.c - a fitted viscosity model as the `viscosity` block of a resin
- * file (README "Input files", resin), written alone or merged into a resin file. */
+ * file (README "Input files", resin), written alone or merged into a resin
+ * file. */
 #include "ow_fit.h"
 
 #include <cjson/cJSON.h>
@@ -41,11 +42,11 @@ static cJSON *shift_object(const struct ow_viscosity *v)
 {
 	cJSON *s = cJSON_CreateObject();
 	int ok = s && cJSON_AddStringToObject(s, "type",
-					      ow_fit_shift_name(v->shift));
+	                                      ow_fit_shift_name(v->shift));
 
 	if (ok && v->shift == OW_SHIFT_ARRHENIUS)
 		ok = put_unit(s, "activation_energy", v->activation_J_mol / 1e3,
-			      "kJ/mol");
+		              "kJ/mol");
 	else if (ok)
 		ok = put_num(s, "c1", v->wlf_c1) &&
 		     put_unit(s, "c2", v->wlf_c2_K, "K");
@@ -61,23 +62,22 @@ static cJSON *visc_object(const struct ow_viscosity *v)
 {
 	cJSON *o = cJSON_CreateObject(), *s;
 	int ok = o && cJSON_AddStringToObject(o, "model",
-					      ow_fit_model_name(v->model));
+	                                      ow_fit_model_name(v->model));
 
 	if (ok && v->model == OW_VISC_POWER_LAW)
-		ok = put_unit(o, "consistency", v->consistency_Pa_sn,
-			      "Pa s^n");
+		ok = put_unit(o, "consistency", v->consistency_Pa_sn, "Pa s^n");
 	if (ok && v->model != OW_VISC_POWER_LAW)
 		ok = put_unit(o, "zero_shear", v->zero_shear_Pa_s, "Pa s");
 	if (ok && v->model == OW_VISC_CROSS)
-		ok = put_unit(o, "critical_stress", v->critical_stress_Pa,
-			      "Pa");
+		ok =
+		    put_unit(o, "critical_stress", v->critical_stress_Pa, "Pa");
 	if (ok && v->model == OW_VISC_CARREAU_YASUDA)
 		ok = put_unit(o, "time_constant", v->time_constant_s, "s");
 	ok = ok && put_num(o, "index", v->index);
 	if (ok && v->model == OW_VISC_CARREAU_YASUDA)
 		ok = put_num(o, "a", v->a);
 	ok = ok && put_unit(o, "reference_temperature",
-			    v->ref_temp_K - OW_ZERO_C_K, "degC");
+	                    v->ref_temp_K - OW_ZERO_C_K, "degC");
 	s = ok ? shift_object(v) : NULL;
 	if (!s || !cJSON_AddItemToObject(o, "shift", s)) {
 		cJSON_Delete(s);
@@ -89,7 +89,7 @@ static cJSON *visc_object(const struct ow_viscosity *v)
 
 /* cJSON text -> a malloc'd copy ending in a newline (free() releases it). */
 static enum ow_status print_json(const cJSON *root, char **text,
-				 struct ow_diag *d)
+                                 struct ow_diag *d)
 {
 	char *s = cJSON_Print(root);
 	size_t len;
@@ -108,15 +108,15 @@ static enum ow_status print_json(const cJSON *root, char **text,
 }
 
 enum ow_status ow_fit_block_text(const struct ow_viscosity *v,
-				 const char *notes, char **text,
-				 struct ow_diag *d)
+                                 const char *notes, char **text,
+                                 struct ow_diag *d)
 {
 	cJSON *root = cJSON_CreateObject(), *o = visc_object(v);
 	enum ow_status st;
 
 	*text = NULL;
-	if (!root || !o || (notes && !cJSON_AddStringToObject(root, "notes",
-							      notes)) ||
+	if (!root || !o ||
+	    (notes && !cJSON_AddStringToObject(root, "notes", notes)) ||
 	    !cJSON_AddItemToObject(root, "viscosity", o)) {
 		cJSON_Delete(root);
 		cJSON_Delete(o);
@@ -128,8 +128,8 @@ enum ow_status ow_fit_block_text(const struct ow_viscosity *v,
 }
 
 enum ow_status ow_fit_write_block(const struct ow_viscosity *v,
-				  const char *notes, const char *path,
-				  struct ow_diag *d)
+                                  const char *notes, const char *path,
+                                  struct ow_diag *d)
 {
 	char *text = NULL;
 	enum ow_status st = ow_fit_block_text(v, notes, &text, d);
@@ -160,7 +160,7 @@ static int line_of(const char *text, const char *pos)
  * keys of a resin, so that a study, a screw or a fit block is never
  * rewritten as if it were one. */
 static enum ow_status parse_resin(const char *path, const char *text,
-				  cJSON **root, struct ow_diag *d)
+                                  cJSON **root, struct ow_diag *d)
 {
 	const char *const *keys = ow_config_resin_keys();
 	const char *end = NULL;
@@ -169,9 +169,8 @@ static enum ow_status parse_resin(const char *path, const char *text,
 
 	*root = cJSON_ParseWithOpts(text, &end, 1);
 	if (!*root)
-		return ow_diag_set(d, OW_EINPUT,
-				   "%s: line %d: not valid JSON", path,
-				   line_of(text, end ? end : text));
+		return ow_diag_set(d, OW_EINPUT, "%s: line %d: not valid JSON",
+		                   path, line_of(text, end ? end : text));
 	if (!cJSON_IsObject(*root))
 		goto not_resin;
 	cJSON_ArrayForEach(e, *root)
@@ -179,10 +178,11 @@ static enum ow_status parse_resin(const char *path, const char *text,
 		for (k = 0; keys[k] && strcmp(keys[k], e->string); k++)
 			;
 		if (!keys[k]) {
-			ow_diag_set(d, OW_EINPUT, "%s: key \"%.40s\" is not a key "
-				    "of a resin file: --into replaces the "
-				    "viscosity block of a resin file only",
-				    path, e->string);
+			ow_diag_set(d, OW_EINPUT,
+			            "%s: key \"%.40s\" is not a key "
+			            "of a resin file: --into replaces the "
+			            "viscosity block of a resin file only",
+			            path, e->string);
 			cJSON_Delete(*root);
 			*root = NULL;
 			return OW_EINPUT;
@@ -193,9 +193,11 @@ static enum ow_status parse_resin(const char *path, const char *text,
 not_resin:
 	cJSON_Delete(*root);
 	*root = NULL;
-	return ow_diag_set(d, OW_EINPUT, "%s: not a resin file (a resin "
-			   "file holds one JSON object with its \"name\" "
-			   "and properties)", path);
+	return ow_diag_set(d, OW_EINPUT,
+	                   "%s: not a resin file (a resin "
+	                   "file holds one JSON object with its \"name\" "
+	                   "and properties)",
+	                   path);
 }
 
 /* ---- keeping the file's layout ---------------------------------------- */
@@ -238,7 +240,7 @@ static const char *skip_value(const char *p)
  * [*vb, *ve), its key at *key (*vb = NULL when there is none); *last is
  * the end of the object's last value (the object's "{" + 1 when empty). */
 static void find_member(const char *text, const char **key, const char **vb,
-			const char **ve, const char **last)
+                        const char **ve, const char **last)
 {
 	const char *p = skip_ws(text) + 1; /* after "{" */
 
@@ -262,10 +264,10 @@ static void find_member(const char *text, const char **key, const char **vb,
 	}
 }
 
-/* The block printed by cJSON (tab per level, tab after ':') re-indented with unit, each
- * line after the first starting with the key's own indent. */
+/* The block printed by cJSON (tab per level, tab after ':') re-indented with
+ * unit, each line after the first starting with the key's own indent. */
 static void add_indented(struct ow_buf *b, const char *block,
-			 const char *indent, size_t ilen, const char *unit)
+                         const char *indent, size_t ilen, const char *unit)
 {
 	for (; *block; block++) {
 		if (block[0] == ':' && block[1] == '\t') {
@@ -302,7 +304,7 @@ static char *splice(const char *text, const cJSON *o)
 	ind = ilen ? ls : "  "; /* one level: the members' own indent */
 	ilen = ilen ? ilen : 2;
 	snprintf(unit, sizeof unit, "%.*s", ilen < sizeof unit ? (int)ilen : 2,
-		 ind);
+	         ind);
 	ow_buf_add(&b, text, (size_t)((vb ? vb : last) - text));
 	if (!vb) {
 		ow_buf_adds(&b, last > skip_ws(text) + 1 ? ",\n" : "\n");
@@ -316,8 +318,8 @@ static char *splice(const char *text, const cJSON *o)
 	return out;
 }
 
-enum ow_status ow_fit_merge_into(const struct ow_viscosity *v,
-				 const char *path, struct ow_diag *d)
+enum ow_status ow_fit_merge_into(const struct ow_viscosity *v, const char *path,
+                                 struct ow_diag *d)
 {
 	char *text = NULL, *out = NULL;
 	cJSON *root = NULL, *o = NULL, *back = NULL;
@@ -336,14 +338,15 @@ enum ow_status ow_fit_merge_into(const struct ow_viscosity *v,
 	/* the spliced text must read back as the file with the new block */
 	back = cJSON_Parse(out);
 	if (!cJSON_Compare(cJSON_GetObjectItemCaseSensitive(back, "viscosity"),
-			   o, 1) ||
+	                   o, 1) ||
 	    cJSON_GetArraySize(back) !=
-		    cJSON_GetArraySize(root) +
-			    !cJSON_GetObjectItemCaseSensitive(root,
-							      "viscosity")) {
-		st = ow_diag_set(d, OW_ECOMPUTE, "%s: the viscosity block "
-				 "could not be placed in the file's own "
-				 "layout; the file was left as it was", path);
+	        cJSON_GetArraySize(root) +
+	            !cJSON_GetObjectItemCaseSensitive(root, "viscosity")) {
+		st = ow_diag_set(d, OW_ECOMPUTE,
+		                 "%s: the viscosity block "
+		                 "could not be placed in the file's own "
+		                 "layout; the file was left as it was",
+		                 path);
 		goto fail;
 	}
 	st = ow_io_write_file(path, out, strlen(out), d);

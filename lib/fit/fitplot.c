@@ -88,8 +88,7 @@ static void ranges(const struct ow_fit_data *data,
 	*ly1 = ceil(log10(c1) + 0.05);
 }
 
-static void temp_label(enum ow_unit_system sys, double T, char *buf,
-                       size_t len)
+static void temp_label(enum ow_unit_system sys, double T, char *buf, size_t len)
 {
 	double t = ow_display_value(sys, OW_DIM_TEMPERATURE, T);
 	int whole = fabs(t - round(t)) < 0.05;
@@ -103,8 +102,8 @@ static void temp_label(enum ow_unit_system sys, double T, char *buf,
 static void rate_band(const struct ow_plot *p)
 {
 	static const char *label = "typical channel and die shear rates";
-	struct ow_pt2 r[4] = {{10.0, p->y0}, {1000.0, p->y0},
-	                      {1000.0, p->y1}, {10.0, p->y1}};
+	struct ow_pt2 r[4] = {
+	    {10.0, p->y0}, {1000.0, p->y0}, {1000.0, p->y1}, {10.0, p->y1}};
 	int count = 4;
 	double X0 = ow_plot_px(p, fmax(10.0, p->x0));
 	double X1 = ow_plot_px(p, fmin(1000.0, p->x1));
@@ -116,8 +115,9 @@ static void rate_band(const struct ow_plot *p)
 	ow_canvas_set_font(p->cv, 0.8 * FONT_PT, 0);
 	if (ow_canvas_text_width(p->cv, label) < X1 - X0) {
 		ow_canvas_set_colour(p->cv, ow_rgb(0.50, 0.45, 0.35));
-		ow_canvas_text(p->cv, 0.5 * (X0 + X1), p->area.y + 0.5 * FONT_PT,
-		               label, OW_ALIGN_CENTRE, OW_VALIGN_TOP, 0);
+		ow_canvas_text(p->cv, 0.5 * (X0 + X1),
+		               p->area.y + 0.5 * FONT_PT, label,
+		               OW_ALIGN_CENTRE, OW_VALIGN_TOP, 0);
 	}
 	ow_canvas_restore(p->cv);
 }
@@ -132,10 +132,10 @@ static void curve(const struct ow_plot *p, const struct ow_fit_result *fit,
 	int i;
 
 	for (i = 0; i <= CURVE_STEPS; i++) {
-		double rate = pow(10.0, l0 + (l1 - l0) * (double)i /
-		                                CURVE_STEPS);
-		double eta = ow_viscosity_eval(&fit->visc, rate,
-		                               fit->temps[k].temp_K);
+		double rate =
+		    pow(10.0, l0 + (l1 - l0) * (double)i / CURVE_STEPS);
+		double eta =
+		    ow_viscosity_eval(&fit->visc, rate, fit->temps[k].temp_K);
 
 		pts[i].x = rate;
 		pts[i].y = isfinite(eta) && eta > 0 ? eta : NAN;
@@ -190,8 +190,8 @@ static void titles(struct ow_canvas *cv, double x,
 
 /* Legend entries, one per temperature (line and marker as drawn). */
 static int legend_entries(const struct ow_fit_result *fit,
-                          enum ow_unit_system sys,
-                          struct ow_legend_entry *e, char (*lab)[32], int max)
+                          enum ow_unit_system sys, struct ow_legend_entry *e,
+                          char (*lab)[32], int max)
 {
 	int k, n = fit->n_temps < max ? fit->n_temps : max;
 
@@ -241,8 +241,7 @@ static double legend_width(struct ow_canvas *cv,
 	return fmax(w, ow_canvas_text_width(cv, "lines: fitted model"));
 }
 
-static enum ow_status draw(struct ow_canvas *cv,
-                           const struct ow_fit_data *data,
+static enum ow_status draw(struct ow_canvas *cv, const struct ow_fit_data *data,
                            const struct ow_fit_result *fit,
                            enum ow_unit_system sys)
 {

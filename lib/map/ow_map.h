@@ -35,8 +35,8 @@ struct ow_map {
 	 * and its profile rows, hopper to tip; has_centre 0 and profile
 	 * NULL when the window is empty or the centre was not asked for */
 	int has_centre;
-	struct ow_point centre;          /* SI */
-	struct ow_profile_row *profile;  /* n_profile rows */
+	struct ow_point centre;         /* SI */
+	struct ow_profile_row *profile; /* n_profile rows */
 	int n_profile;
 	/* across the study's spread of inputs; all NULL without one */
 	struct ow_spread_result *spread; /* samples, shares, ranking */
@@ -49,7 +49,7 @@ struct ow_map {
 };
 
 struct ow_map_config {
-	struct ow_sweep_config sweep;   /* grid, refinement, threads, progress */
+	struct ow_sweep_config sweep; /* grid, refinement, threads, progress */
 	struct ow_spread_config spread; /* samples, seed, level, progress */
 	int centre; /* 1: solve the window's centre alone with its profile */
 	int spread_run; /* 1: sample the study's spread when it has one */

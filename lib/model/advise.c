@@ -17,7 +17,7 @@ static void add(struct sink *k, const char *code, const char *text)
 		return;
 	snprintf(k->out[k->n].code, sizeof k->out[k->n].code, "%s", code);
 	snprintf(k->out[k->n].text, sizeof k->out[k->n].text,
-		 "%s (rule of thumb, common practice)", text);
+	         "%s (rule of thumb, common practice)", text);
 	k->n++;
 }
 
@@ -39,12 +39,12 @@ static void check_compression(const struct ow_screw *s, struct sink *k)
 			continue;
 		if (dh > 0.05 * sec->depth_start_m && len < D) {
 			snprintf(t, sizeof t,
-				 "sections[%d] (%s) compresses the channel "
-				 "from %.2f to %.2f mm over %.2f D, less than "
-				 "one diameter: risk of solid bed plugging",
-				 i, ow_section_name(sec->type),
-				 sec->depth_start_m * 1e3, sec->depth_m * 1e3,
-				 len / D);
+			         "sections[%d] (%s) compresses the channel "
+			         "from %.2f to %.2f mm over %.2f D, less than "
+			         "one diameter: risk of solid bed plugging",
+			         i, ow_section_name(sec->type),
+			         sec->depth_start_m * 1e3, sec->depth_m * 1e3,
+			         len / D);
 			add(k, "abrupt_compression", t);
 		}
 	}
@@ -57,10 +57,10 @@ static void check_compression(const struct ow_screw *s, struct sink *k)
 			continue;
 		if (b->depth_start_m < 0.95 * a->depth_m) {
 			snprintf(t, sizeof t,
-				 "the depth steps from %.2f to %.2f mm at the "
-				 "start of sections[%d] with no taper: "
-				 "compression over less than one diameter",
-				 a->depth_m * 1e3, b->depth_start_m * 1e3, i);
+			         "the depth steps from %.2f to %.2f mm at the "
+			         "start of sections[%d] with no taper: "
+			         "compression over less than one diameter",
+			         a->depth_m * 1e3, b->depth_start_m * 1e3, i);
 			add(k, "abrupt_compression", t);
 		}
 	}
@@ -74,21 +74,20 @@ static void check_clearance(const struct ow_screw *s, struct sink *k)
 
 	if (s->clearance_m > limit) {
 		snprintf(t, sizeof t,
-			 "flight clearance %.3f mm is above twice the usual "
-			 "new clearance of about 0.001 D (%.3f mm): worn",
-			 s->clearance_m * 1e3, NEW_CLEARANCE_D * D * 1e3);
+		         "flight clearance %.3f mm is above twice the usual "
+		         "new clearance of about 0.001 D (%.3f mm): worn",
+		         s->clearance_m * 1e3, NEW_CLEARANCE_D * D * 1e3);
 		add(k, "worn", t);
 	}
 	for (i = 0; i < s->n_wear; i++) {
 		if (s->wear[i].clearance_m <= limit)
 			continue;
 		snprintf(t, sizeof t,
-			 "wear[%d]: clearance %.3f mm from %.1f to %.1f D is "
-			 "above twice the usual new clearance of about "
-			 "0.001 D (%.3f mm): worn",
-			 i, s->wear[i].clearance_m * 1e3,
-			 s->wear[i].from_m / D, s->wear[i].to_m / D,
-			 NEW_CLEARANCE_D * D * 1e3);
+		         "wear[%d]: clearance %.3f mm from %.1f to %.1f D is "
+		         "above twice the usual new clearance of about "
+		         "0.001 D (%.3f mm): worn",
+		         i, s->wear[i].clearance_m * 1e3, s->wear[i].from_m / D,
+		         s->wear[i].to_m / D, NEW_CLEARANCE_D * D * 1e3);
 		add(k, "worn", t);
 	}
 }
@@ -101,14 +100,16 @@ static void check_ratios(const struct ow_screw *s, struct sink *k)
 
 	if (hf < 0.1 * D || hf > 0.25 * D) {
 		snprintf(t, sizeof t,
-			 "feed depth %.2f mm is %.3f D, outside the usual "
-			 "0.1..0.25 D", hf * 1e3, hf / D);
+		         "feed depth %.2f mm is %.3f D, outside the usual "
+		         "0.1..0.25 D",
+		         hf * 1e3, hf / D);
 		add(k, "feed_depth", t);
 	}
 	if (cr < 1.5 || cr > 4.5) {
 		snprintf(t, sizeof t,
-			 "depth compression ratio %.2f is outside the usual "
-			 "1.5..4.5", cr);
+		         "depth compression ratio %.2f is outside the usual "
+		         "1.5..4.5",
+		         cr);
 		add(k, "compression_ratio", t);
 	}
 }
@@ -125,9 +126,10 @@ static void check_lands(const struct ow_screw *s, struct sink *k)
 		if (sec->type != OW_SEC_MIXER || sec->lands_given)
 			continue;
 		snprintf(t, sizeof t,
-			 "sections[%d] (mixer) does not give its lands: %d "
-			 "taken (one barrier land per 25 mm of barrel "
-			 "circumference, common practice)", i, sec->lands);
+		         "sections[%d] (mixer) does not give its lands: %d "
+		         "taken (one barrier land per 25 mm of barrel "
+		         "circumference, common practice)",
+		         i, sec->lands);
 		add(k, "mixer_lands", t);
 	}
 }

@@ -42,17 +42,19 @@ static void apply_heat(struct ow_study *s, double f)
 }
 
 static const struct ow_calib_factor table[OW_CF_COUNT] = {
-	{"viscosity_scale",
-	 "multiplies the resin's melt viscosity at every shear rate and "
-	 "temperature", 0.2, 5.0, apply_viscosity},
-	{"friction",
-	 "multiplies both pellet friction coefficients (barrel and screw)",
-	 0.25, 4.0, apply_friction},
-	{"die_factor", "multiplies the pressure the die needs", 0.2, 5.0,
-	 apply_die},
-	{"heat_transfer",
-	 "multiplies every barrel zone's heat-transfer coefficient between "
-	 "its set-point and the bore", 0.1, 10.0, apply_heat},
+    {"viscosity_scale",
+     "multiplies the resin's melt viscosity at every shear rate and "
+     "temperature",
+     0.2, 5.0, apply_viscosity},
+    {"friction",
+     "multiplies both pellet friction coefficients (barrel and screw)", 0.25,
+     4.0, apply_friction},
+    {"die_factor", "multiplies the pressure the die needs", 0.2, 5.0,
+     apply_die},
+    {"heat_transfer",
+     "multiplies every barrel zone's heat-transfer coefficient between "
+     "its set-point and the bore",
+     0.1, 10.0, apply_heat},
 };
 
 const struct ow_calib_factor *ow_calib_factor(int k)
@@ -80,11 +82,11 @@ static const struct {
 	enum ow_dim dim;
 	double sd_abs, sd_rel;
 } quantities[OW_CQ_COUNT] = {
-	{"output", OW_DIM_MASS_FLOW, NAN, 0.02},
-	{"head_pressure", OW_DIM_PRESSURE, 0.5e6, NAN},
-	{"melt_temp", OW_DIM_TEMPERATURE, 3.0, NAN},
-	{"drive_power", OW_DIM_POWER, NAN, 0.03},
-	{"torque", OW_DIM_TORQUE, NAN, 0.03},
+    {"output", OW_DIM_MASS_FLOW, NAN, 0.02},
+    {"head_pressure", OW_DIM_PRESSURE, 0.5e6, NAN},
+    {"melt_temp", OW_DIM_TEMPERATURE, 3.0, NAN},
+    {"drive_power", OW_DIM_POWER, NAN, 0.03},
+    {"torque", OW_DIM_TORQUE, NAN, 0.03},
 };
 
 const char *ow_calib_qty_name(enum ow_calib_qty q)
@@ -114,7 +116,7 @@ void ow_calib_default(struct ow_calibration *c)
 	}
 	for (k = 0; k < OW_CQ_COUNT; k++)
 		ow_calib_default_sd((enum ow_calib_qty)k, &c->sd_abs[k],
-				    &c->sd_rel[k]);
+		                    &c->sd_rel[k]);
 }
 
 void ow_calib_apply(struct ow_study *s, const double *f)

@@ -10,28 +10,28 @@
 
 /* Every field of every die type, in the order the file lists them. */
 static const struct ow_die_field die_fields[] = {
-	{"diameter", "Diameter", OW_DIM_LENGTH, D(diameter_m), T(CIRCLE), 4},
-	{"width", "Width", OW_DIM_LENGTH, D(width_m), T(SLIT), 4},
-	{"gap", "Gap", OW_DIM_LENGTH, D(gap_m), T(SLIT), 4},
-	{"outer_diameter", "Outer diameter", OW_DIM_LENGTH,
-	 D(outer_diameter_m), T(ANNULUS), 5},
-	{"inner_diameter", "Inner diameter", OW_DIM_LENGTH,
-	 D(inner_diameter_m), T(ANNULUS), 5},
-	{"length", "Land length", OW_DIM_LENGTH, D(length_m),
-	 T(CIRCLE) | T(SLIT) | T(ANNULUS), 4},
-	{"pressure", "Measured pressure", OW_DIM_PRESSURE, D(pressure_Pa),
-	 T(MEASURED), 4},
-	{"output", "at throughput", OW_DIM_MASS_FLOW, D(output_kg_s),
-	 T(MEASURED), 4},
-	{"temperature", "and melt temperature", OW_DIM_TEMPERATURE, D(temp_K),
-	 T(MEASURED), 4},
+    {"diameter", "Diameter", OW_DIM_LENGTH, D(diameter_m), T(CIRCLE), 4},
+    {"width", "Width", OW_DIM_LENGTH, D(width_m), T(SLIT), 4},
+    {"gap", "Gap", OW_DIM_LENGTH, D(gap_m), T(SLIT), 4},
+    {"outer_diameter", "Outer diameter", OW_DIM_LENGTH, D(outer_diameter_m),
+     T(ANNULUS), 5},
+    {"inner_diameter", "Inner diameter", OW_DIM_LENGTH, D(inner_diameter_m),
+     T(ANNULUS), 5},
+    {"length", "Land length", OW_DIM_LENGTH, D(length_m),
+     T(CIRCLE) | T(SLIT) | T(ANNULUS), 4},
+    {"pressure", "Measured pressure", OW_DIM_PRESSURE, D(pressure_Pa),
+     T(MEASURED), 4},
+    {"output", "at throughput", OW_DIM_MASS_FLOW, D(output_kg_s), T(MEASURED),
+     4},
+    {"temperature", "and melt temperature", OW_DIM_TEMPERATURE, D(temp_K),
+     T(MEASURED), 4},
 };
 
 #undef D
 #undef T
 
 _Static_assert(sizeof die_fields / sizeof die_fields[0] == OW_DIE_FIELDS,
-	       "OW_DIE_FIELDS counts the die fields");
+               "OW_DIE_FIELDS counts the die fields");
 
 const struct ow_die_field *ow_die_fields(void)
 {
@@ -56,7 +56,7 @@ double *ow_die_slot(struct ow_die *d, const struct ow_die_field *f)
 const char *ow_die_type_name(enum ow_die_type t)
 {
 	static const char *const names[OW_DIE_TYPES] = {"circle", "slit",
-							"annulus", "measured"};
+	                                                "annulus", "measured"};
 
 	return (unsigned)t < OW_DIE_TYPES ? names[t] : "?";
 }
@@ -69,11 +69,11 @@ void ow_line_default(struct ow_line *l)
 	l->root_temp_K = NAN;
 	l->die_factor = 1.0;
 	l->limits = (struct ow_limits){NAN, NAN, NAN, NAN, NAN,
-				       NAN, NAN, NAN, NAN, 1.0};
+	                               NAN, NAN, NAN, NAN, 1.0};
 	l->heat_transfer_factor = 1.0;
 	for (int i = 0; i < OW_MAX_ZONES; i++) /* unlimited, ideal wall */
 		l->zones[i].heating_W = l->zones[i].cooling_W =
-			l->zones[i].wall_h_W_m2K = NAN;
+		    l->zones[i].wall_h_W_m2K = NAN;
 	l->axes.mode = OW_AXIS_SHIFT;
 	l->numerics.stations_per_turn = 6; /* proven by test_solver */
 	l->numerics.depth_nodes = 21;
@@ -92,7 +92,7 @@ int ow_line_zone_at(const struct ow_line *l, double x_m)
 }
 
 double ow_line_barrel_temp(const struct ow_line *l, const double *set_K,
-			   double x_m)
+                           double x_m)
 {
 	int z = ow_line_zone_at(l, x_m);
 
@@ -106,8 +106,7 @@ void ow_line_zone_defaults(struct ow_line *l, double diameter_m)
 	for (i = 0; i < l->n_zones && i < OW_MAX_ZONES; i++) {
 		struct ow_zone *z = &l->zones[i];
 		double len = z->to_m - (i ? l->zones[i - 1].to_m : 0.0);
-		double heat = OW_ZONE_HEATING_W_M2 * OW_PI *
-			      diameter_m * len;
+		double heat = OW_ZONE_HEATING_W_M2 * OW_PI * diameter_m * len;
 
 		if (isnan(z->heating_W)) {
 			z->heating_W = heat;
@@ -154,7 +153,8 @@ int ow_line_reference_zone(const struct ow_line *l)
 	if (l->axes.mode == OW_AXIS_ZONE)
 		return l->axes.zone;
 	if (l->axes.mode == OW_AXIS_SET)
-		return l->n_zones - 1; /* every zone from zones_from: the last */
+		return l->n_zones -
+		       1; /* every zone from zones_from: the last */
 	return l->n_zones - 1;
 }
 
@@ -167,61 +167,67 @@ static int bad_temp(double t)
 static int bad_control(const struct ow_zone *z)
 {
 	return (!isnan(z->heating_W) &&
-		!(z->heating_W >= 0.0 && z->heating_W < 1e6)) ||
+	        !(z->heating_W >= 0.0 && z->heating_W < 1e6)) ||
 	       (!isnan(z->cooling_W) &&
-		!(z->cooling_W >= 0.0 && z->cooling_W < 1e6)) ||
+	        !(z->cooling_W >= 0.0 && z->cooling_W < 1e6)) ||
 	       (!isnan(z->wall_h_W_m2K) &&
-		!(z->wall_h_W_m2K > 0.0 && z->wall_h_W_m2K < 1e6));
+	        !(z->wall_h_W_m2K > 0.0 && z->wall_h_W_m2K < 1e6));
 }
 
 static enum ow_status check_zones(const struct ow_line *l, double len,
-				  struct ow_diag *d)
+                                  struct ow_diag *d)
 {
 	int i;
 
 	if (l->n_zones < 1 || l->n_zones > OW_MAX_ZONES)
 		return ow_diag_set(d, OW_EINPUT,
-				   "barrel.zones: %d zones; expected 1..%d",
-				   l->n_zones, OW_MAX_ZONES);
+		                   "barrel.zones: %d zones; expected 1..%d",
+		                   l->n_zones, OW_MAX_ZONES);
 	for (i = 0; i < l->n_zones; i++) {
 		double prev = i ? l->zones[i - 1].to_m : 0.0;
 
 		if (!(isfinite(l->zones[i].to_m) && l->zones[i].to_m > prev))
-			return ow_diag_set(d, OW_EINPUT,
-					   "barrel.zones[%d].to: %g mm must lie "
-					   "beyond the previous zone's end "
-					   "(%g mm)", i, l->zones[i].to_m * 1e3,
-					   prev * 1e3);
+			return ow_diag_set(
+			    d, OW_EINPUT,
+			    "barrel.zones[%d].to: %g mm must lie "
+			    "beyond the previous zone's end "
+			    "(%g mm)",
+			    i, l->zones[i].to_m * 1e3, prev * 1e3);
 		if (l->zones[i].to_m > len + 1e-6) /* "30 D" on a 24 D screw */
-			return ow_diag_set(d, OW_EINPUT,
-					   "barrel.zones[%d].to: %g mm lies past "
-					   "the end of the screw (%g mm); the "
-					   "last zone ends at the screw's end",
-					   i, l->zones[i].to_m * 1e3, len * 1e3);
+			return ow_diag_set(
+			    d, OW_EINPUT,
+			    "barrel.zones[%d].to: %g mm lies past "
+			    "the end of the screw (%g mm); the "
+			    "last zone ends at the screw's end",
+			    i, l->zones[i].to_m * 1e3, len * 1e3);
 		if (bad_temp(l->zones[i].set_K))
 			return ow_diag_set(d, OW_EINPUT,
-					   "barrel.zones[%d].set: %g degC must "
-					   "lie in -73..527 degC", i,
-					   l->zones[i].set_K - OW_ZERO_C_K);
+			                   "barrel.zones[%d].set: %g degC must "
+			                   "lie in -73..527 degC",
+			                   i, l->zones[i].set_K - OW_ZERO_C_K);
 		if (bad_control(&l->zones[i]))
-			return ow_diag_set(d, OW_EINPUT,
-					   "barrel.zones[%d]: heating_power and "
-					   "cooling_power must be >= 0 and below "
-					   "1 MW, heat_transfer > 0 and below "
-					   "1e6 W/(m2 K)", i);
+			return ow_diag_set(
+			    d, OW_EINPUT,
+			    "barrel.zones[%d]: heating_power and "
+			    "cooling_power must be >= 0 and below "
+			    "1 MW, heat_transfer > 0 and below "
+			    "1e6 W/(m2 K)",
+			    i);
 	}
 	if (!(isfinite(l->heat_transfer_factor) &&
-	      l->heat_transfer_factor > 0.0 && l->heat_transfer_factor <= 100.0))
+	      l->heat_transfer_factor > 0.0 &&
+	      l->heat_transfer_factor <= 100.0))
 		return ow_diag_set(d, OW_EINPUT,
-				   "barrel.heat_transfer_factor: %g must lie "
-				   "in (0, 100]", l->heat_transfer_factor);
+		                   "barrel.heat_transfer_factor: %g must lie "
+		                   "in (0, 100]",
+		                   l->heat_transfer_factor);
 	if (l->zones[l->n_zones - 1].to_m < len - 1e-6)
 		return ow_diag_set(d, OW_EINPUT,
-				   "barrel.zones[%d].to: %g mm; the zones must "
-				   "cover the whole screw (%g mm)",
-				   l->n_zones - 1,
-				   l->zones[l->n_zones - 1].to_m * 1e3,
-				   len * 1e3);
+		                   "barrel.zones[%d].to: %g mm; the zones must "
+		                   "cover the whole screw (%g mm)",
+		                   l->n_zones - 1,
+		                   l->zones[l->n_zones - 1].to_m * 1e3,
+		                   len * 1e3);
 	return OW_OK;
 }
 
@@ -236,54 +242,54 @@ static enum ow_status check_die(const struct ow_die *die, struct ow_diag *d)
 	case OW_DIE_CIRCLE:
 		if (!pos(die->diameter_m) || !pos(die->length_m))
 			return ow_diag_set(d, OW_EINPUT,
-					   "die: diameter and length must be "
-					   "positive lengths");
+			                   "die: diameter and length must be "
+			                   "positive lengths");
 		break;
 	case OW_DIE_SLIT:
 		if (!pos(die->width_m) || !pos(die->gap_m) ||
 		    !pos(die->length_m) || die->gap_m >= die->width_m)
 			return ow_diag_set(d, OW_EINPUT,
-					   "die: width, gap and length must be "
-					   "positive, the gap below the width");
+			                   "die: width, gap and length must be "
+			                   "positive, the gap below the width");
 		break;
 	case OW_DIE_ANNULUS:
 		if (!pos(die->outer_diameter_m) || !pos(die->length_m) ||
 		    !pos(die->inner_diameter_m) ||
 		    die->inner_diameter_m >= die->outer_diameter_m)
 			return ow_diag_set(d, OW_EINPUT,
-					   "die.inner_diameter: %g mm must be "
-					   "positive and below outer_diameter "
-					   "%g mm", die->inner_diameter_m * 1e3,
-					   die->outer_diameter_m * 1e3);
+			                   "die.inner_diameter: %g mm must be "
+			                   "positive and below outer_diameter "
+			                   "%g mm",
+			                   die->inner_diameter_m * 1e3,
+			                   die->outer_diameter_m * 1e3);
 		break;
 	case OW_DIE_MEASURED:
 		if (!pos(die->pressure_Pa) || !pos(die->output_kg_s) ||
 		    bad_temp(die->temp_K))
 			return ow_diag_set(d, OW_EINPUT,
-					   "die: measured pressure and output "
-					   "must be positive, the temperature "
-					   "plausible");
+			                   "die: measured pressure and output "
+			                   "must be positive, the temperature "
+			                   "plausible");
 		break;
 	}
 	return OW_OK;
 }
 
-static enum ow_status check_limits(const struct ow_limits *m,
-				   struct ow_diag *d)
+static enum ow_status check_limits(const struct ow_limits *m, struct ow_diag *d)
 {
 	const struct {
 		const char *key;
 		double v, hi;
 	} lim[] = {{"peak_temp", m->peak_temp_K, 900.0},
-		   {"unmelt", m->unmelt_frac, 1.0},
-		   {"pressure", m->pressure_Pa, 1e9},
-		   {"power", m->power_W, 1e8},
-		   {"torque", m->torque_Nm, 1e8},
-		   {"min_melt_temp", m->min_melt_temp_K, 900.0},
-		   {"min_output", m->min_output_kg_s, 1e3},
-		   {"max_output", m->max_output_kg_s, 1e3},
-		   {"max_sbr", m->max_sbr, 1.0},
-		   {"zone_control", m->zone_load, 1.0}};
+	           {"unmelt", m->unmelt_frac, 1.0},
+	           {"pressure", m->pressure_Pa, 1e9},
+	           {"power", m->power_W, 1e8},
+	           {"torque", m->torque_Nm, 1e8},
+	           {"min_melt_temp", m->min_melt_temp_K, 900.0},
+	           {"min_output", m->min_output_kg_s, 1e3},
+	           {"max_output", m->max_output_kg_s, 1e3},
+	           {"max_sbr", m->max_sbr, 1.0},
+	           {"zone_control", m->zone_load, 1.0}};
 	size_t i;
 
 	for (i = 0; i < sizeof lim / sizeof lim[0]; i++)
@@ -291,14 +297,14 @@ static enum ow_status check_limits(const struct ow_limits *m,
 		    !(isfinite(lim[i].v) && lim[i].v >= 0.0 &&
 		      lim[i].v <= lim[i].hi))
 			return ow_diag_set(d, OW_EINPUT,
-					   "limits.%s: %g is out of range "
-					   "(0..%g in SI units)", lim[i].key,
-					   lim[i].v, lim[i].hi);
+			                   "limits.%s: %g is out of range "
+			                   "(0..%g in SI units)",
+			                   lim[i].key, lim[i].v, lim[i].hi);
 	if (!isnan(m->min_output_kg_s) && !isnan(m->max_output_kg_s) &&
 	    m->min_output_kg_s >= m->max_output_kg_s)
 		return ow_diag_set(d, OW_EINPUT,
-				   "limits.min_output: must be below "
-				   "limits.max_output");
+		                   "limits.min_output: must be below "
+		                   "limits.max_output");
 	return OW_OK;
 }
 
@@ -313,32 +319,35 @@ static enum ow_status check_axes(const struct ow_line *l, struct ow_diag *d)
 	if (!(isfinite(a->rpm_from) && a->rpm_from > 0.0 &&
 	      a->rpm_to > a->rpm_from && a->rpm_to <= 3000.0))
 		return ow_diag_set(d, OW_EINPUT,
-				   "sweep.rpm: from %g to %g rpm must be an "
-				   "increasing range of positive speeds",
-				   a->rpm_from, a->rpm_to);
+		                   "sweep.rpm: from %g to %g rpm must be an "
+		                   "increasing range of positive speeds",
+		                   a->rpm_from, a->rpm_to);
 	if (a->rpm_steps < 2 || a->rpm_steps > 1000)
 		return ow_diag_set(d, OW_EINPUT,
-				   "sweep.rpm.steps: %d must be 2..1000",
-				   a->rpm_steps);
+		                   "sweep.rpm.steps: %d must be 2..1000",
+		                   a->rpm_steps);
 	if (!(isfinite(a->axis_from) && a->axis_to > a->axis_from &&
 	      a->axis_from >= tlo && a->axis_to <= thi))
 		return ow_diag_set(d, OW_EINPUT,
-				   "sweep.barrel: from %g K to %g K must be an "
-				   "increasing range within %g..%g K",
-				   a->axis_from, a->axis_to, tlo, thi);
+		                   "sweep.barrel: from %g K to %g K must be an "
+		                   "increasing range within %g..%g K",
+		                   a->axis_from, a->axis_to, tlo, thi);
 	if (a->axis_steps < 2 || a->axis_steps > 1000)
 		return ow_diag_set(d, OW_EINPUT,
-				   "sweep.barrel.steps: %d must be 2..1000",
-				   a->axis_steps);
+		                   "sweep.barrel.steps: %d must be 2..1000",
+		                   a->axis_steps);
 	if (a->mode == OW_AXIS_SET &&
 	    (a->zones_from < 0 || a->zones_from >= l->n_zones))
-		return ow_diag_set(d, OW_EINPUT,
-				   "sweep.barrel.zones_from: %d must name a zone "
-				   "1..%d", a->zones_from + 1, l->n_zones);
+		return ow_diag_set(
+		    d, OW_EINPUT,
+		    "sweep.barrel.zones_from: %d must name a zone "
+		    "1..%d",
+		    a->zones_from + 1, l->n_zones);
 	if (a->mode == OW_AXIS_ZONE && (a->zone < 0 || a->zone >= l->n_zones))
-		return ow_diag_set(d, OW_EINPUT,
-				   "sweep.barrel.zone: %d must name a zone 1..%d",
-				   a->zone + 1, l->n_zones);
+		return ow_diag_set(
+		    d, OW_EINPUT,
+		    "sweep.barrel.zone: %d must name a zone 1..%d", a->zone + 1,
+		    l->n_zones);
 	return OW_OK;
 }
 
@@ -348,36 +357,40 @@ static enum ow_status check_feed(const struct ow_line *l, struct ow_diag *d)
 
 	if (bad_temp(l->feed_temp_K))
 		return ow_diag_set(d, OW_EINPUT,
-				   "feed.temperature: %g degC must lie in "
-				   "-73..527 degC", l->feed_temp_K - OW_ZERO_C_K);
+		                   "feed.temperature: %g degC must lie in "
+		                   "-73..527 degC",
+		                   l->feed_temp_K - OW_ZERO_C_K);
 	if (!(isfinite(n->feed_pressure_Pa) && n->feed_pressure_Pa > 0.0 &&
 	      n->feed_pressure_Pa < 1e8))
 		return ow_diag_set(d, OW_EINPUT,
-				   "feed.pressure: %g Pa must be positive and "
-				   "below 100 MPa", n->feed_pressure_Pa);
+		                   "feed.pressure: %g Pa must be positive and "
+		                   "below 100 MPa",
+		                   n->feed_pressure_Pa);
 	if (!l->root_adiabatic && bad_temp(l->root_temp_K))
 		return ow_diag_set(d, OW_EINPUT,
-				   "barrel.screw_root: %g K is not a plausible "
-				   "temperature", l->root_temp_K);
+		                   "barrel.screw_root: %g K is not a plausible "
+		                   "temperature",
+		                   l->root_temp_K);
 	if (!(isfinite(l->screen_pressure_Pa) && l->screen_pressure_Pa >= 0.0 &&
 	      l->screen_pressure_Pa < 1e8))
 		return ow_diag_set(d, OW_EINPUT,
-				   "screen_pack.pressure_drop: %g Pa must be a "
-				   "pressure >= 0 and below 100 MPa",
-				   l->screen_pressure_Pa);
+		                   "screen_pack.pressure_drop: %g Pa must be a "
+		                   "pressure >= 0 and below 100 MPa",
+		                   l->screen_pressure_Pa);
 	if (n->stations_per_turn < 4 || n->stations_per_turn > 400)
 		return ow_diag_set(d, OW_EINPUT,
-				   "numerics.stations_per_turn: %d must be "
-				   "4..400", n->stations_per_turn);
+		                   "numerics.stations_per_turn: %d must be "
+		                   "4..400",
+		                   n->stations_per_turn);
 	if (n->depth_nodes < 9 || n->depth_nodes > 401)
 		return ow_diag_set(d, OW_EINPUT,
-				   "numerics.depth_nodes: %d must be 9..401",
-				   n->depth_nodes);
+		                   "numerics.depth_nodes: %d must be 9..401",
+		                   n->depth_nodes);
 	return OW_OK;
 }
 
 enum ow_status ow_line_validate(const struct ow_line *l, double screw_len_m,
-				struct ow_diag *d)
+                                struct ow_diag *d)
 {
 	enum ow_status st = check_zones(l, screw_len_m, d);
 

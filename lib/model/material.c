@@ -4,7 +4,8 @@
 #include <math.h>
 #include <stddef.h>
 
-#define GDOT_MIN 1e-9 /* 1/s: keeps a power law finite at a wall of zero shear */
+#define GDOT_MIN                                                               \
+	1e-9 /* 1/s: keeps a power law finite at a wall of zero shear */
 
 double ow_viscosity_shift(const struct ow_viscosity *v, double temp_K)
 {
@@ -17,7 +18,7 @@ double ow_viscosity_shift(const struct ow_viscosity *v, double temp_K)
 		return pow(10.0, -v->wlf_c1 * dT / (v->wlf_c2_K + dT));
 	}
 	return exp(v->activation_J_mol / OW_GAS_CONSTANT *
-		   (1.0 / temp_K - 1.0 / v->ref_temp_K));
+	           (1.0 / temp_K - 1.0 / v->ref_temp_K));
 }
 
 double ow_viscosity_ref(const struct ow_viscosity *v, double gdot)
@@ -31,19 +32,19 @@ double ow_viscosity_ref(const struct ow_viscosity *v, double gdot)
 		return v->consistency_Pa_sn * pow(gdot, n - 1.0);
 	case OW_VISC_CROSS:
 		return v->zero_shear_Pa_s /
-		       (1.0 + pow(v->zero_shear_Pa_s * gdot /
-					  v->critical_stress_Pa,
-				  1.0 - n));
+		       (1.0 +
+		        pow(v->zero_shear_Pa_s * gdot / v->critical_stress_Pa,
+		            1.0 - n));
 	case OW_VISC_CARREAU_YASUDA:
 		return v->zero_shear_Pa_s *
 		       pow(1.0 + pow(v->time_constant_s * gdot, v->a),
-			   (n - 1.0) / v->a);
+		           (n - 1.0) / v->a);
 	}
 	return NAN;
 }
 
 double ow_viscosity_eval(const struct ow_viscosity *v, double gdot,
-			 double temp_K)
+                         double temp_K)
 {
 	double aT = ow_viscosity_shift(v, temp_K);
 
@@ -56,8 +57,7 @@ double ow_viscosity_eval(const struct ow_viscosity *v, double gdot,
  *   Carreau-Yasuda   ln eta = ln eta0 + ((n - 1)/a) sp(a (ln gdot + ln lambda))
  * with the softplus sp(x) = ln(1 + e^x); the parameter logs are taken once
  * here so an evaluation costs one exp and one log1p. */
-void ow_viscosity_log_init(const struct ow_viscosity *v,
-			   struct ow_visc_log *lv)
+void ow_viscosity_log_init(const struct ow_viscosity *v, struct ow_visc_log *lv)
 {
 	double n = v->index;
 
@@ -87,7 +87,7 @@ void ow_viscosity_log_init(const struct ow_viscosity *v,
 }
 
 double ow_viscosity_log_ref(const struct ow_visc_log *lv, double ln_gdot,
-			    double *slope)
+                            double *slope)
 {
 	double x, e, sp, sig, ds = 1.0;
 
@@ -129,50 +129,54 @@ static int bad(double x, double lo, double hi)
 }
 
 enum ow_status ow_viscosity_validate(const struct ow_viscosity *v,
-				     const char *path, struct ow_diag *d)
+                                     const char *path, struct ow_diag *d)
 {
 	if (bad(v->index, 0.05, 1.0))
 		return ow_diag_set(d, OW_EINPUT,
-				   "%s.index: %g must lie in 0.05..1",
-				   path, v->index);
+		                   "%s.index: %g must lie in 0.05..1", path,
+		                   v->index);
 	if (v->model == OW_VISC_POWER_LAW &&
 	    bad(v->consistency_Pa_sn, 1e-3, 1e9))
 		return ow_diag_set(d, OW_EINPUT,
-				   "%s.consistency: %g Pa s^n must lie in "
-				   "1e-3..1e9", path, v->consistency_Pa_sn);
-	if (v->model != OW_VISC_POWER_LAW &&
-	    bad(v->zero_shear_Pa_s, 1e-3, 1e9))
-		return ow_diag_set(d, OW_EINPUT,
-				   "%s.zero_shear: %g Pa s must lie in 1e-3..1e9",
-				   path, v->zero_shear_Pa_s);
+		                   "%s.consistency: %g Pa s^n must lie in "
+		                   "1e-3..1e9",
+		                   path, v->consistency_Pa_sn);
+	if (v->model != OW_VISC_POWER_LAW && bad(v->zero_shear_Pa_s, 1e-3, 1e9))
+		return ow_diag_set(
+		    d, OW_EINPUT,
+		    "%s.zero_shear: %g Pa s must lie in 1e-3..1e9", path,
+		    v->zero_shear_Pa_s);
 	if (v->model == OW_VISC_CROSS && bad(v->critical_stress_Pa, 1.0, 1e8))
 		return ow_diag_set(d, OW_EINPUT,
-				   "%s.critical_stress: %g Pa must lie in "
-				   "1..1e8", path, v->critical_stress_Pa);
+		                   "%s.critical_stress: %g Pa must lie in "
+		                   "1..1e8",
+		                   path, v->critical_stress_Pa);
 	if (v->model == OW_VISC_CARREAU_YASUDA &&
 	    bad(v->time_constant_s, 1e-8, 1e5))
-		return ow_diag_set(d, OW_EINPUT,
-				   "%s.time_constant: %g s must lie in 1e-8..1e5",
-				   path, v->time_constant_s);
+		return ow_diag_set(
+		    d, OW_EINPUT,
+		    "%s.time_constant: %g s must lie in 1e-8..1e5", path,
+		    v->time_constant_s);
 	if (v->model == OW_VISC_CARREAU_YASUDA && bad(v->a, 0.05, 10.0))
 		return ow_diag_set(d, OW_EINPUT,
-				   "%s.a: %g must lie in 0.05..10", path, v->a);
+		                   "%s.a: %g must lie in 0.05..10", path, v->a);
 	if (bad(v->ref_temp_K, 200.0, 800.0))
 		return ow_diag_set(d, OW_EINPUT,
-				   "%s.reference_temperature: %g K must lie in "
-				   "200..800 K", path, v->ref_temp_K);
+		                   "%s.reference_temperature: %g K must lie in "
+		                   "200..800 K",
+		                   path, v->ref_temp_K);
 	if (v->shift == OW_SHIFT_ARRHENIUS &&
 	    bad(v->activation_J_mol, 0.0, 5e5))
 		return ow_diag_set(d, OW_EINPUT,
-				   "%s.shift.activation_energy: %g J/mol must "
-				   "lie in 0..500 kJ/mol", path,
-				   v->activation_J_mol);
+		                   "%s.shift.activation_energy: %g J/mol must "
+		                   "lie in 0..500 kJ/mol",
+		                   path, v->activation_J_mol);
 	if (v->shift == OW_SHIFT_WLF &&
 	    (bad(v->wlf_c1, 0.0, 100.0) || bad(v->wlf_c2_K, 1.0, 1000.0)))
 		return ow_diag_set(d, OW_EINPUT,
-				   "%s.shift: c1 = %g must lie in 0..100 and "
-				   "c2 = %g K in 1..1000 K", path, v->wlf_c1,
-				   v->wlf_c2_K);
+		                   "%s.shift: c1 = %g must lie in 0..100 and "
+		                   "c2 = %g K in 1..1000 K",
+		                   path, v->wlf_c1, v->wlf_c2_K);
 	return OW_OK;
 }
 
@@ -183,46 +187,43 @@ struct range_check {
 };
 
 enum ow_status ow_material_validate(const struct ow_material *m,
-				    struct ow_diag *d)
+                                    struct ow_diag *d)
 {
 	/* Wide plausibility bands: every commodity and engineering resin of
 	 * Brandrup, Immergut & Grulke, Polymer Handbook, 4th ed. (1999) lies
 	 * inside them; values outside are almost certainly unit mistakes. */
 	const struct range_check checks[] = {
-		{"solid_density", m->solid_density_kg_m3, 500, 2500, "kg/m3"},
-		{"bulk_density", m->bulk_density_kg_m3, 100, 2000, "kg/m3"},
-		{"melt_density", m->melt_density_kg_m3, 400, 2500, "kg/m3"},
-		{"solid_heat_capacity", m->solid_cp_J_kgK, 500, 5000,
-		 "J/(kg K)"},
-		{"melt_heat_capacity", m->melt_cp_J_kgK, 500, 5000,
-		 "J/(kg K)"},
-		{"solid_conductivity", m->solid_k_W_mK, 0.02, 2.0, "W/(m K)"},
-		{"melt_conductivity", m->melt_k_W_mK, 0.02, 2.0, "W/(m K)"},
-		{"melting_point", m->melt_temp_K, 250, 700, "K"},
-		{"heat_of_fusion", m->fusion_J_kg, 0, 5e5, "J/kg"},
-		{"friction_barrel", m->friction_barrel, 0.01, 2.0, ""},
-		{"friction_screw", m->friction_screw, 0.0, 2.0, ""},
+	    {"solid_density", m->solid_density_kg_m3, 500, 2500, "kg/m3"},
+	    {"bulk_density", m->bulk_density_kg_m3, 100, 2000, "kg/m3"},
+	    {"melt_density", m->melt_density_kg_m3, 400, 2500, "kg/m3"},
+	    {"solid_heat_capacity", m->solid_cp_J_kgK, 500, 5000, "J/(kg K)"},
+	    {"melt_heat_capacity", m->melt_cp_J_kgK, 500, 5000, "J/(kg K)"},
+	    {"solid_conductivity", m->solid_k_W_mK, 0.02, 2.0, "W/(m K)"},
+	    {"melt_conductivity", m->melt_k_W_mK, 0.02, 2.0, "W/(m K)"},
+	    {"melting_point", m->melt_temp_K, 250, 700, "K"},
+	    {"heat_of_fusion", m->fusion_J_kg, 0, 5e5, "J/kg"},
+	    {"friction_barrel", m->friction_barrel, 0.01, 2.0, ""},
+	    {"friction_screw", m->friction_screw, 0.0, 2.0, ""},
 	};
 	size_t i;
 
 	for (i = 0; i < sizeof checks / sizeof checks[0]; i++)
 		if (bad(checks[i].value, checks[i].lo, checks[i].hi))
-			return ow_diag_set(d, OW_EINPUT,
-					   "%s: %g %s must lie in %g..%g %s",
-					   checks[i].key, checks[i].value,
-					   checks[i].unit, checks[i].lo,
-					   checks[i].hi, checks[i].unit);
+			return ow_diag_set(
+			    d, OW_EINPUT, "%s: %g %s must lie in %g..%g %s",
+			    checks[i].key, checks[i].value, checks[i].unit,
+			    checks[i].lo, checks[i].hi, checks[i].unit);
 	if (m->bulk_density_kg_m3 > m->solid_density_kg_m3)
 		return ow_diag_set(d, OW_EINPUT,
-				   "bulk_density: %g kg/m3 must not exceed "
-				   "solid_density %g kg/m3",
-				   m->bulk_density_kg_m3,
-				   m->solid_density_kg_m3);
+		                   "bulk_density: %g kg/m3 must not exceed "
+		                   "solid_density %g kg/m3",
+		                   m->bulk_density_kg_m3,
+		                   m->solid_density_kg_m3);
 	return ow_viscosity_validate(&m->visc, "viscosity", d);
 }
 
 double ow_material_enthalpy(const struct ow_material *m, double temp_K,
-			    double ref_K)
+                            double ref_K)
 {
 	double tm = m->melt_temp_K;
 

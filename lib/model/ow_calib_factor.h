@@ -32,8 +32,8 @@ enum ow_calib_qty {
 };
 
 #define OW_CALIB_MAX_READINGS 64
-#define OW_CALIB_MAX_RESID (OW_CALIB_MAX_READINGS * OW_CQ_COUNT)
-#define OW_CALIB_SOURCE_LEN 256
+#define OW_CALIB_MAX_RESID    (OW_CALIB_MAX_READINGS * OW_CQ_COUNT)
+#define OW_CALIB_SOURCE_LEN   256
 
 /* One factor of the table. */
 struct ow_calib_factor {
@@ -46,7 +46,7 @@ struct ow_calib_factor {
 
 /* One residual of a fit, as the report shows it (SI). */
 struct ow_calib_resid {
-	int line;          /* line of the readings file */
+	int line; /* line of the readings file */
 	double rpm;
 	enum ow_calib_qty qty;
 	double measured, modelled, sd;
@@ -54,13 +54,13 @@ struct ow_calib_resid {
 
 /* The study's calibration block (all factors 1 when it is absent). */
 struct ow_calibration {
-	int present;                     /* the study has the block */
-	double value[OW_CF_COUNT];       /* factor values, 1 = off */
-	double std_error[OW_CF_COUNT];   /* NAN when not known */
+	int present;                   /* the study has the block */
+	double value[OW_CF_COUNT];     /* factor values, 1 = off */
+	double std_error[OW_CF_COUNT]; /* NAN when not known */
 	char source[OW_CF_COUNT][OW_CALIB_SOURCE_LEN]; /* "" when none */
-	unsigned free_mask;              /* bit k: fitted by default */
-	double sd_abs[OW_CQ_COUNT];      /* stated uncertainties, SI; NAN: */
-	double sd_rel[OW_CQ_COUNT];      /* relative ones (one of the two) */
+	unsigned free_mask;         /* bit k: fitted by default */
+	double sd_abs[OW_CQ_COUNT]; /* stated uncertainties, SI; NAN: */
+	double sd_rel[OW_CQ_COUNT]; /* relative ones (one of the two) */
 	/* The fit that produced the values (written by calibrate), for the
 	 * report: readings file, chi-square, degrees of freedom, the
 	 * correlation of the fitted factors (in fit_ids order), residuals. */

@@ -18,26 +18,26 @@
  * are unlimited and a NAN or zero coefficient an ideal wall (what a line
  * built in code without ow_line_zone_defaults gets). */
 struct ow_zone {
-	double to_m;        /* axial end of the zone (contiguous from 0) */
-	double set_K;       /* barrel set-point at the control point */
-	double heating_W;   /* heater power */
-	double cooling_W;   /* cooling power (a positive number) */
+	double to_m;         /* axial end of the zone (contiguous from 0) */
+	double set_K;        /* barrel set-point at the control point */
+	double heating_W;    /* heater power */
+	double cooling_W;    /* cooling power (a positive number) */
 	double wall_h_W_m2K; /* control point -> inner surface, per m^2 of
-				bore */
-	unsigned defaulted; /* OW_ZONE_DEF_* bits: values not in the file */
+	                        bore */
+	unsigned defaulted;  /* OW_ZONE_DEF_* bits: values not in the file */
 };
 
 #define OW_ZONE_DEF_HEATING 0x1u
 #define OW_ZONE_DEF_COOLING 0x2u
-#define OW_ZONE_DEF_WALL 0x4u
+#define OW_ZONE_DEF_WALL    0x4u
 
 /* Defaults of a zone's control, typical values from memory: heating
  * 50 kW per m^2 of bore (3.8 kW on a 6 D zone of a 63.5 mm barrel),
  * cooling 40 % of that, and 2000 W/(m^2 K) between control point and
  * bore (about 20 mm of steel, k about 40 W/(m K)). */
-#define OW_ZONE_HEATING_W_M2 50e3
+#define OW_ZONE_HEATING_W_M2  50e3
 #define OW_ZONE_COOLING_SHARE 0.4
-#define OW_ZONE_WALL_H 2000.0
+#define OW_ZONE_WALL_H        2000.0
 
 /* The die types; which fields each has is said once, in the table of
  * ow_die_fields (line.c). */
@@ -88,18 +88,18 @@ const char *ow_die_type_name(enum ow_die_type t);
 
 /* A limit is active when its value is finite; NAN means "not set". */
 struct ow_limits {
-	double peak_temp_K;     /* max melt temperature anywhere (across depth) */
-	double unmelt_frac;     /* max unmelted mass fraction at discharge, - */
-	double pressure_Pa;     /* max pressure anywhere on the screw */
-	double power_W;         /* max drive power */
-	double torque_Nm;       /* max drive torque */
+	double peak_temp_K; /* max melt temperature anywhere (across depth) */
+	double unmelt_frac; /* max unmelted mass fraction at discharge, - */
+	double pressure_Pa; /* max pressure anywhere on the screw */
+	double power_W;     /* max drive power */
+	double torque_Nm;   /* max drive torque */
 	double min_melt_temp_K; /* min bulk melt temperature at discharge */
 	double min_output_kg_s;
 	double max_output_kg_s;
-	double max_sbr;         /* max solid bed ratio anywhere, - */
-	double zone_load;       /* max share of a zone's heating or cooling
-				   power a point may need, - (1: every zone
-				   holds its set-point; the default) */
+	double max_sbr;   /* max solid bed ratio anywhere, - */
+	double zone_load; /* max share of a zone's heating or cooling
+	                     power a point may need, - (1: every zone
+	                     holds its set-point; the default) */
 };
 
 enum ow_axis_mode {
@@ -113,38 +113,38 @@ struct ow_axes {
 	int rpm_steps;
 	enum ow_axis_mode mode;
 	double axis_from, axis_to; /* K (absolute for set/zone, difference
-				      for shift) */
+	                              for shift) */
 	int axis_steps;
 	int zones_from; /* set: first zone (0-based) that gets the value */
 	int zone;       /* zone: the zone (0-based) that gets the value */
 };
 
 struct ow_numerics {
-	int stations_per_turn; /* down-channel steps per screw turn */
-	int depth_nodes;       /* nodes across the channel depth */
+	int stations_per_turn;   /* down-channel steps per screw turn */
+	int depth_nodes;         /* nodes across the channel depth */
 	double feed_pressure_Pa; /* plug pressure under a flood-fed hopper */
-	double tol_scale;      /* multiplies every iteration tolerance of
-				  the solver (match, zones, melt Newton);
-				  1 by default, far smaller to check the
-				  defaults against a tight solve (not read
-				  from files) */
+	double tol_scale;        /* multiplies every iteration tolerance of
+	                            the solver (match, zones, melt Newton);
+	                            1 by default, far smaller to check the
+	                            defaults against a tight solve (not read
+	                            from files) */
 };
 
 struct ow_line {
 	double feed_temp_K;
 	int n_zones;
 	struct ow_zone zones[OW_MAX_ZONES];
-	int root_adiabatic;       /* 1: screw root adiabatic; 0: root_temp_K */
+	int root_adiabatic; /* 1: screw root adiabatic; 0: root_temp_K */
 	double root_temp_K;
 	struct ow_die die;
 	double screen_pressure_Pa; /* constant screen-pack/adapter drop */
 	double die_factor;         /* multiplies the die's pressure need
-				      (calibration; 1 = the ideal die) */
+	                              (calibration; 1 = the ideal die) */
 	struct ow_limits limits;
 	struct ow_axes axes;
 	struct ow_numerics numerics;
 	double heat_transfer_factor; /* multiplies every zone's wall_h (a
-					calibration factor); default 1 */
+	                                calibration factor); default 1 */
 };
 
 /* Defaults: no limits set (all NAN), adiabatic root, 25 degC feed, numerics
@@ -161,7 +161,7 @@ int ow_line_zone_at(const struct ow_line *l, double x_m);
 /* Barrel temperature at axial position x_m: set_K[zone] of the zone that
  * holds x (set_K NULL: the line's own set-points, zones[].set_K). */
 double ow_line_barrel_temp(const struct ow_line *l, const double *set_K,
-			   double x_m);
+                           double x_m);
 
 /* Zone set-points after applying barrel-axis value v in the line's mode
  * (K absolute, or K difference for shift); writes l->n_zones values. This
@@ -181,6 +181,6 @@ int ow_line_reference_zone(const struct ow_line *l);
  * ordered and covering the screw, die dimensions positive, sweep ranges
  * ordered with 2..1000 steps, limits in range. */
 enum ow_status ow_line_validate(const struct ow_line *l, double screw_len_m,
-				struct ow_diag *d);
+                                struct ow_diag *d);
 
 #endif

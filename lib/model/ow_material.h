@@ -13,8 +13,8 @@
 #include "ow_status.h"
 
 enum ow_visc_model {
-	OW_VISC_POWER_LAW,      /* eta = m gdot^(n-1) */
-	OW_VISC_CROSS,          /* eta = eta0 / (1 + (eta0 gdot / tau*)^(1-n)) */
+	OW_VISC_POWER_LAW, /* eta = m gdot^(n-1) */
+	OW_VISC_CROSS,     /* eta = eta0 / (1 + (eta0 gdot / tau*)^(1-n)) */
 	OW_VISC_CARREAU_YASUDA, /* eta = eta0 [1 + (lambda gdot)^a]^((n-1)/a) */
 };
 
@@ -33,9 +33,9 @@ struct ow_viscosity {
 	double a;                  /* Yasuda transition parameter, - */
 	double ref_temp_K;         /* reference temperature of the model */
 	enum ow_shift_type shift;
-	double activation_J_mol;   /* Arrhenius flow activation energy */
-	double wlf_c1;             /* WLF C1, - */
-	double wlf_c2_K;           /* WLF C2, K */
+	double activation_J_mol; /* Arrhenius flow activation energy */
+	double wlf_c1;           /* WLF C1, - */
+	double wlf_c2_K;         /* WLF C2, K */
 };
 
 struct ow_material {
@@ -47,10 +47,10 @@ struct ow_material {
 	double melt_cp_J_kgK;
 	double solid_k_W_mK;
 	double melt_k_W_mK;
-	double melt_temp_K;         /* melting point (or flow temperature) */
-	double fusion_J_kg;         /* heat of fusion of the actual resin */
-	double friction_barrel;     /* pellet-barrel Coulomb coefficient, - */
-	double friction_screw;      /* pellet-screw Coulomb coefficient, - */
+	double melt_temp_K;     /* melting point (or flow temperature) */
+	double fusion_J_kg;     /* heat of fusion of the actual resin */
+	double friction_barrel; /* pellet-barrel Coulomb coefficient, - */
+	double friction_screw;  /* pellet-screw Coulomb coefficient, - */
 	struct ow_viscosity visc;
 };
 
@@ -64,7 +64,7 @@ double ow_viscosity_ref(const struct ow_viscosity *v, double gdot_1_s);
 
 /* Viscosity in Pa s at shear rate gdot (1/s) and temperature temp_K. */
 double ow_viscosity_eval(const struct ow_viscosity *v, double gdot_1_s,
-			 double temp_K);
+                         double temp_K);
 
 /* The same reference viscosity in log space, for solvers that evaluate it
  * many times: ln eta_ref = c0 + k ln(1 + e^(b (ln gdot + s))) (power law:
@@ -78,13 +78,13 @@ struct ow_visc_log {
 };
 
 void ow_viscosity_log_init(const struct ow_viscosity *v,
-			   struct ow_visc_log *lv);
+                           struct ow_visc_log *lv);
 
 /* ln eta_ref at ln gdot (gdot in 1/s), equal to log(ow_viscosity_ref) to
  * round-off; *slope (may be NULL) gets d ln eta_ref / d ln gdot, the local
  * power-law index minus one (0 below the clamp). */
 double ow_viscosity_log_ref(const struct ow_visc_log *lv, double ln_gdot,
-			    double *slope);
+                            double *slope);
 
 /* ln aT at temp_K, equal to log(ow_viscosity_shift) to round-off (+inf
  * where WLF is singular). */
@@ -93,17 +93,17 @@ double ow_viscosity_log_shift(const struct ow_viscosity *v, double temp_K);
 /* Check the model's parameters are in range; names the offending field with
  * the given JSON path prefix (e.g. "viscosity") in d. */
 enum ow_status ow_viscosity_validate(const struct ow_viscosity *v,
-				     const char *path, struct ow_diag *d);
+                                     const char *path, struct ow_diag *d);
 
 /* Physical plausibility of the whole resin (positive densities, bulk below
  * solid density, heat capacities 0.5..5 kJ/(kg K), ...). */
 enum ow_status ow_material_validate(const struct ow_material *m,
-				    struct ow_diag *d);
+                                    struct ow_diag *d);
 
 /* Specific enthalpy of the resin relative to solid at ref_K, J/kg: solid cp up
  * to the melting point, heat of fusion, melt cp above it. Used by the energy
  * balance. */
 double ow_material_enthalpy(const struct ow_material *m, double temp_K,
-			    double ref_K);
+                            double ref_K);
 
 #endif

@@ -15,7 +15,7 @@
 #include "ow_status.h"
 
 #define OW_MAX_SECTIONS 32
-#define OW_MAX_WEAR 16
+#define OW_MAX_WEAR     16
 
 enum ow_section_type {
 	OW_SEC_FEED,     /* constant depth, solids conveying */
@@ -27,8 +27,8 @@ enum ow_section_type {
 
 struct ow_section {
 	enum ow_section_type type;
-	double length_m;      /* axial length */
-	double depth_m;       /* end depth (feed/metering: the depth) */
+	double length_m; /* axial length */
+	double depth_m;  /* end depth (feed/metering: the depth) */
 	/* mixer: gap over its barrier lands, and the number of barrier lands
 	 * the melt can cross (0 in a file without it: ow_screw_prepare puts
 	 * in the common-practice default of ow_screw_default_lands and
@@ -49,8 +49,8 @@ struct ow_section {
 };
 
 struct ow_wear {
-	double from_m, to_m;  /* axial extent of the worn flights */
-	double clearance_m;   /* radial clearance there */
+	double from_m, to_m; /* axial extent of the worn flights */
+	double clearance_m;  /* radial clearance there */
 };
 
 struct ow_screw {

@@ -13,7 +13,7 @@
 #include "ow_spread_input.h"
 #include "ow_units.h"
 
-#define OW_PATH_LEN 1024
+#define OW_PATH_LEN    1024
 #define OW_MAX_SOURCES 160
 
 /* Where one input value came from, as the input file said. */
@@ -27,23 +27,23 @@ struct ow_study {
 	char title[256];
 	char path[OW_PATH_LEN];       /* the study file */
 	char screw_path[OW_PATH_LEN]; /* file the screw came from ("" when
-					 embedded) */
+	                                 embedded) */
 	char resin_path[OW_PATH_LEN];
 	struct ow_screw screw;
 	struct ow_material resin;
 	struct ow_line line;
 	int n_sources;
 	struct ow_source sources[OW_MAX_SOURCES];
-	unsigned long input_crc; /* CRC-32 over the bytes of every input
-				    file read, in reading order */
+	unsigned long input_crc;       /* CRC-32 over the bytes of every input
+	                                  file read, in reading order */
 	enum ow_unit_system own_units; /* what the study is written in (its
-					  first zone's set-point): bare
-					  numbers on the command line */
-	struct ow_calibration calib; /* the calibration block; its factors
-					are applied to screw, resin and
-					line above */
-	struct ow_spread spread;     /* the spread block (present 0 when
-					absent) */
+	                                  first zone's set-point): bare
+	                                  numbers on the command line */
+	struct ow_calibration calib;   /* the calibration block; its factors
+	                                  are applied to screw, resin and
+	                                  line above */
+	struct ow_spread spread;       /* the spread block (present 0 when
+	                                  absent) */
 };
 
 #endif

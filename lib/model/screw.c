@@ -6,9 +6,8 @@
 #include <math.h>
 #include <stddef.h>
 
-
 static const char *const section_names[] = {"feed", "taper", "metering",
-					    "barrier", "mixer"};
+                                            "barrier", "mixer"};
 
 const char *ow_section_name(enum ow_section_type t)
 {
@@ -139,35 +138,36 @@ static int bad_len(double x, double hi)
 }
 
 static enum ow_status check_barrier(const struct ow_section *sec, int i,
-				    double radius, struct ow_diag *d)
+                                    double radius, struct ow_diag *d)
 {
 	const struct {
 		const char *key;
 		double v;
 	} depths[] = {{"solids_depth_start", sec->solids_depth_start_m},
-		      {"solids_depth_end", sec->solids_depth_end_m},
-		      {"melt_depth_start", sec->melt_depth_start_m},
-		      {"melt_depth_end", sec->melt_depth_end_m}};
+	              {"solids_depth_end", sec->solids_depth_end_m},
+	              {"melt_depth_start", sec->melt_depth_start_m},
+	              {"melt_depth_end", sec->melt_depth_end_m}};
 	size_t k;
 
 	for (k = 0; k < 4; k++)
 		if (bad_len(depths[k].v, radius))
 			return ow_diag_set(d, OW_EINPUT,
-					   "sections[%d].%s: %g mm must be a "
-					   "positive depth below the screw "
-					   "radius", i, depths[k].key,
-					   depths[k].v * 1e3);
+			                   "sections[%d].%s: %g mm must be a "
+			                   "positive depth below the screw "
+			                   "radius",
+			                   i, depths[k].key, depths[k].v * 1e3);
 	if (!(sec->melt_share_start >= 0.0 && sec->melt_share_start < 0.9) ||
 	    !(sec->melt_share_end > 0.0 && sec->melt_share_end < 0.9))
 		return ow_diag_set(d, OW_EINPUT,
-				   "sections[%d].melt_share_start/end: %g, %g "
-				   "must lie in 0..0.9 (end above 0)",
-				   i, sec->melt_share_start, sec->melt_share_end);
+		                   "sections[%d].melt_share_start/end: %g, %g "
+		                   "must lie in 0..0.9 (end above 0)",
+		                   i, sec->melt_share_start,
+		                   sec->melt_share_end);
 	if (bad_len(sec->barrier_clearance_m, sec->solids_depth_start_m))
 		return ow_diag_set(d, OW_EINPUT,
-				   "sections[%d].barrier_clearance: %g mm must "
-				   "be positive and below the channel depth",
-				   i, sec->barrier_clearance_m * 1e3);
+		                   "sections[%d].barrier_clearance: %g mm must "
+		                   "be positive and below the channel depth",
+		                   i, sec->barrier_clearance_m * 1e3);
 	return OW_OK;
 }
 
@@ -180,31 +180,32 @@ int ow_screw_default_lands(double diameter_m)
 }
 
 static enum ow_status prepare_section(struct ow_screw *s, int i, double x,
-				      struct ow_diag *d)
+                                      struct ow_diag *d)
 {
 	struct ow_section *sec = &s->sections[i];
 	double radius = 0.5 * s->diameter_m;
 
 	if (!(isfinite(sec->length_m) && sec->length_m > 0.0))
 		return ow_diag_set(d, OW_EINPUT,
-				   "sections[%d].length: %g mm must be a "
-				   "positive length", i, sec->length_m * 1e3);
+		                   "sections[%d].length: %g mm must be a "
+		                   "positive length",
+		                   i, sec->length_m * 1e3);
 	sec->start_m = x;
 	sec->end_m = x + sec->length_m;
 	if (sec->type == OW_SEC_MIXER) {
 		if (bad_len(sec->gap_m, radius))
 			return ow_diag_set(d, OW_EINPUT,
-					   "sections[%d].gap: %g mm must be a "
-					   "positive gap below the radius",
-					   i, sec->gap_m * 1e3);
+			                   "sections[%d].gap: %g mm must be a "
+			                   "positive gap below the radius",
+			                   i, sec->gap_m * 1e3);
 		sec->depth_m = sec->depth_start_m = last_depth(s, i);
 		sec->lands_given = sec->lands > 0;
 		if (!sec->lands_given)
 			sec->lands = ow_screw_default_lands(s->diameter_m);
 		if (i == 0)
 			return ow_diag_set(d, OW_EINPUT,
-					   "sections[0].type: a mixer cannot "
-					   "be the first section");
+			                   "sections[0].type: a mixer cannot "
+			                   "be the first section");
 		return OW_OK;
 	}
 	if (sec->type == OW_SEC_BARRIER) {
@@ -213,23 +214,24 @@ static enum ow_status prepare_section(struct ow_screw *s, int i, double x,
 		return check_barrier(sec, i, radius, d);
 	}
 	if (bad_len(sec->depth_m, radius))
-		return ow_diag_set(d, OW_EINPUT,
-				   "sections[%d].depth: %g mm must be a positive "
-				   "depth below the screw radius %g mm",
-				   i, sec->depth_m * 1e3, radius * 1e3);
+		return ow_diag_set(
+		    d, OW_EINPUT,
+		    "sections[%d].depth: %g mm must be a positive "
+		    "depth below the screw radius %g mm",
+		    i, sec->depth_m * 1e3, radius * 1e3);
 	sec->depth_start_m = sec->depth_m;
 	if (sec->type == OW_SEC_TAPER) {
 		if (i == 0)
 			return ow_diag_set(d, OW_EINPUT,
-					   "sections[0].type: a taper needs a "
-					   "section before it to start from");
+			                   "sections[0].type: a taper needs a "
+			                   "section before it to start from");
 		sec->depth_start_m = last_depth(s, i);
 	}
 	return OW_OK;
 }
 
 static enum ow_status check_clearances(const struct ow_screw *s,
-				       struct ow_diag *d)
+                                       struct ow_diag *d)
 {
 	int i;
 
@@ -237,15 +239,16 @@ static enum ow_status check_clearances(const struct ow_screw *s,
 		const struct ow_section *sec = &s->sections[i];
 		double h = fmin(sec->depth_start_m, sec->depth_m);
 		double c = fmax(ow_screw_clearance(s, sec->start_m),
-				ow_screw_clearance(s, sec->end_m));
+		                ow_screw_clearance(s, sec->end_m));
 
 		if (sec->type == OW_SEC_MIXER)
 			continue;
 		if (c >= h)
-			return ow_diag_set(d, OW_EINPUT,
-					   "clearance: %g mm must be below the "
-					   "channel depth %g mm of sections[%d]",
-					   c * 1e3, h * 1e3, i);
+			return ow_diag_set(
+			    d, OW_EINPUT,
+			    "clearance: %g mm must be below the "
+			    "channel depth %g mm of sections[%d]",
+			    c * 1e3, h * 1e3, i);
 	}
 	return OW_OK;
 }
@@ -261,14 +264,17 @@ static enum ow_status check_wear(const struct ow_screw *s, struct ow_diag *d)
 		if (!(w->from_m >= 0.0 && w->to_m > w->from_m &&
 		      w->to_m <= len * (1.0 + 1e-9)))
 			return ow_diag_set(d, OW_EINPUT,
-					   "wear[%d]: from %g mm to %g mm must "
-					   "be an increasing range inside the "
-					   "screw (0..%g mm)", i, w->from_m * 1e3,
-					   w->to_m * 1e3, len * 1e3);
+			                   "wear[%d]: from %g mm to %g mm must "
+			                   "be an increasing range inside the "
+			                   "screw (0..%g mm)",
+			                   i, w->from_m * 1e3, w->to_m * 1e3,
+			                   len * 1e3);
 		if (!(isfinite(w->clearance_m) && w->clearance_m >= 0.0))
-			return ow_diag_set(d, OW_EINPUT,
-					   "wear[%d].clearance: %g mm must be a "
-					   "length >= 0", i, w->clearance_m * 1e3);
+			return ow_diag_set(
+			    d, OW_EINPUT,
+			    "wear[%d].clearance: %g mm must be a "
+			    "length >= 0",
+			    i, w->clearance_m * 1e3);
 	}
 	return OW_OK;
 }
@@ -278,31 +284,32 @@ static enum ow_status check_body(const struct ow_screw *s, struct ow_diag *d)
 	if (!(isfinite(s->diameter_m) && s->diameter_m >= 5e-3 &&
 	      s->diameter_m <= 1.0))
 		return ow_diag_set(d, OW_EINPUT,
-				   "diameter: %g mm must lie in 5..1000 mm",
-				   s->diameter_m * 1e3);
+		                   "diameter: %g mm must lie in 5..1000 mm",
+		                   s->diameter_m * 1e3);
 	if (!(isfinite(s->lead_m) && s->lead_m > 0.1 * s->diameter_m &&
 	      s->lead_m < 5.0 * s->diameter_m))
 		return ow_diag_set(d, OW_EINPUT,
-				   "lead: %g mm must lie between 0.1 D and 5 D",
-				   s->lead_m * 1e3);
+		                   "lead: %g mm must lie between 0.1 D and 5 D",
+		                   s->lead_m * 1e3);
 	if (s->flights < 1 || s->flights > 4)
-		return ow_diag_set(d, OW_EINPUT,
-				   "flights: %d must be 1..4", s->flights);
+		return ow_diag_set(d, OW_EINPUT, "flights: %d must be 1..4",
+		                   s->flights);
 	if (!(isfinite(s->flight_width_m) && s->flight_width_m >= 0.0) ||
 	    ow_screw_width(s, s->diameter_m) <= 0.0)
 		return ow_diag_set(d, OW_EINPUT,
-				   "flight_width: %g mm must be >= 0 and leave "
-				   "a channel between the flights (lead %g mm, "
-				   "%d flight(s))", s->flight_width_m * 1e3,
-				   s->lead_m * 1e3, s->flights);
+		                   "flight_width: %g mm must be >= 0 and leave "
+		                   "a channel between the flights (lead %g mm, "
+		                   "%d flight(s))",
+		                   s->flight_width_m * 1e3, s->lead_m * 1e3,
+		                   s->flights);
 	if (!(isfinite(s->clearance_m) && s->clearance_m >= 0.0))
 		return ow_diag_set(d, OW_EINPUT,
-				   "clearance: %g mm must be a length >= 0",
-				   s->clearance_m * 1e3);
+		                   "clearance: %g mm must be a length >= 0",
+		                   s->clearance_m * 1e3);
 	if (s->n_sections < 1 || s->n_sections > OW_MAX_SECTIONS)
 		return ow_diag_set(d, OW_EINPUT,
-				   "sections: %d sections; expected 1..%d",
-				   s->n_sections, OW_MAX_SECTIONS);
+		                   "sections: %d sections; expected 1..%d",
+		                   s->n_sections, OW_MAX_SECTIONS);
 	return OW_OK;
 }
 
@@ -316,12 +323,13 @@ enum ow_status ow_screw_prepare(struct ow_screw *s, struct ow_diag *d)
 		st = prepare_section(s, i, x, d);
 		x = s->sections[i].end_m;
 	}
-	if (st == OW_OK && ow_screw_width(s, s->diameter_m -
-					  2.0 * ow_screw_feed_depth(s)) <= 0.0)
+	if (st == OW_OK &&
+	    ow_screw_width(s, s->diameter_m - 2.0 * ow_screw_feed_depth(s)) <=
+	        0.0)
 		st = ow_diag_set(d, OW_EINPUT,
-				 "flight_width: %g mm leaves no channel at the "
-				 "root of the feed section",
-				 s->flight_width_m * 1e3);
+		                 "flight_width: %g mm leaves no channel at the "
+		                 "root of the feed section",
+		                 s->flight_width_m * 1e3);
 	if (st == OW_OK)
 		st = check_wear(s, d);
 	if (st == OW_OK)

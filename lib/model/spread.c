@@ -11,13 +11,14 @@
 
 #include "ow_study.h"
 
-#define TRUNC_SD 3.0      /* normal inputs are cut at +-3 sd */
-#define CALIB_MAX_REL 0.3 /* a calibrated factor's relative error used at
-			     most: keeps 1 - 3 sd above 0 */
+#define TRUNC_SD 3.0 /* normal inputs are cut at +-3 sd */
+#define CALIB_MAX_REL                                                          \
+	0.3 /* a calibrated factor's relative error used at                    \
+	       most: keeps 1 - 3 sd above 0 */
 
 static const char *const kind_names[OW_SK_COUNT] = {
-	"viscosity_scale", "melting_point", "feed_temperature",
-	"clearance", "barrel_heat_factor", "calibration"};
+    "viscosity_scale", "melting_point",      "feed_temperature",
+    "clearance",       "barrel_heat_factor", "calibration"};
 
 void ow_spread_default(struct ow_spread *sp)
 {
@@ -33,8 +34,7 @@ const char *ow_spread_kind_name(enum ow_spread_kind k)
 	return k >= 0 && k < OW_SK_COUNT ? kind_names[k] : "?";
 }
 
-void ow_spread_extent(const struct ow_spread_input *in, double *lo,
-		      double *hi)
+void ow_spread_extent(const struct ow_spread_input *in, double *lo, double *hi)
 {
 	*lo = in->normal ? in->lo - TRUNC_SD * in->hi : in->lo;
 	*hi = in->normal ? in->lo + TRUNC_SD * in->hi : in->hi;
@@ -57,7 +57,7 @@ double ow_spread_value(const struct ow_spread_input *in, double u)
 }
 
 void ow_spread_apply(struct ow_study *s, const struct ow_spread_input *in,
-		     double v)
+                     double v)
 {
 	switch (in->kind) {
 	case OW_SK_MELTING:
@@ -98,7 +98,7 @@ void ow_spread_add_calib(struct ow_spread *sp, const struct ow_calibration *c)
 		in->lo = in->nominal = 1.0;
 		in->hi = rel < CALIB_MAX_REL ? rel : CALIB_MAX_REL;
 		snprintf(in->name, sizeof in->name, "calibration.%s",
-			 ow_calib_factor(k)->name);
+		         ow_calib_factor(k)->name);
 		sp->n++;
 	}
 }
@@ -124,8 +124,8 @@ static double unit(unsigned long long *x)
  * Fisher-Yates shuffle), at a random place inside their stratum. */
 void ow_spread_lhs(unsigned long seed, long point, int n, int d, double *u)
 {
-	unsigned long long x = ((unsigned long long)seed << 32) ^
-			       (unsigned long long)point;
+	unsigned long long x =
+	    ((unsigned long long)seed << 32) ^ (unsigned long long)point;
 	int i, k, j;
 
 	mix(&x);

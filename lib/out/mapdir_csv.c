@@ -12,7 +12,6 @@
 #include "ow_classify.h"
 #include "ow_const.h"
 
-
 /* ---- small helpers ------------------------------------------------------ */
 
 void ow_mapdir_add(struct ow_buf *t, const char *s)
@@ -73,7 +72,8 @@ enum ow_status ow_mapdir_path(char *out, size_t n, const char *dir,
 	return OW_OK;
 }
 
-/* ---- points-si.csv -------------------------------------------------------- */
+/* ---- points-si.csv --------------------------------------------------------
+ */
 
 /* The figures of struct ow_point kept, by name (the CSV header). */
 #define FIELD(f)                                                               \

@@ -1,6 +1,6 @@
 /* mapdir_impl.h - internals of the map folder module (not public): a
- * growing text buffer, whole-file reading (both ow_io.h), folder paths, exact number
- * texts, and the points-si.csv writer and reader. */
+ * growing text buffer, whole-file reading (both ow_io.h), folder paths, exact
+ * number texts, and the points-si.csv writer and reader. */
 #ifndef OW_MAPDIR_IMPL_H
 #define OW_MAPDIR_IMPL_H
 

@@ -21,11 +21,10 @@
 static int is_output_name(const char *name)
 {
 	static const char *const fixed[] = {
-		MANIFEST,      "grid.csv",    "window.json", "report.pdf",
-		"study.json",  "lattice.json", "lattice.csv", "profile.csv",
-		"points-si.json", "points-si.csv",
-		"window.png",  "window.svg",  "profile.png", "profile.svg",
-		"spread.json"};
+	    MANIFEST,         "grid.csv",      "window.json", "report.pdf",
+	    "study.json",     "lattice.json",  "lattice.csv", "profile.csv",
+	    "points-si.json", "points-si.csv", "window.png",  "window.svg",
+	    "profile.png",    "profile.svg",   "spread.json"};
 	size_t i, n = strlen(name);
 
 	for (i = 0; i < sizeof fixed / sizeof fixed[0]; i++)
@@ -140,7 +139,8 @@ static enum ow_status verify_file(const char *dir, const cJSON *e,
 	}
 	snprintf(want, sizeof want, "%08lX", ow_io_crc32(0, buf, len));
 	free(buf);
-	if ((double)len != bytes->valuedouble || strcmp(want, crc->valuestring)) {
+	if ((double)len != bytes->valuedouble ||
+	    strcmp(want, crc->valuestring)) {
 		snprintf(what, sizeof what,
 		         "%s holds %zu bytes with CRC-32 %s; the manifest "
 		         "says %.0f bytes, %s",
@@ -165,9 +165,10 @@ enum ow_status ow_mapdir_verify(const char *dir, struct ow_diag *d)
 		return st;
 	if (stat(dir, &sb) != 0 || !S_ISDIR(sb.st_mode))
 		return ow_diag_set(d, OW_EINPUT, "%s: %s", dir,
-		                   stat(dir, &sb) ? "no such folder"
-		                                  : "not a folder (expected the "
-		                                    "output folder of opwin map)");
+		                   stat(dir, &sb)
+		                       ? "no such folder"
+		                       : "not a folder (expected the "
+		                         "output folder of opwin map)");
 	err = ow_mapdir_slurp(path, &text, NULL);
 	if (err == ENOENT)
 		return ow_diag_set(d, OW_EINPUT,
@@ -237,8 +238,8 @@ static int not_ours(const char *name, void *ctx)
 	return !is_output_name(name);
 }
 
-enum ow_status ow_mapdir_replace(const char *tmp, const char *dir,
-                                 char *left, size_t n, struct ow_diag *d)
+enum ow_status ow_mapdir_replace(const char *tmp, const char *dir, char *left,
+                                 size_t n, struct ow_diag *d)
 {
 	int old = 0;
 	enum ow_status st = ow_io_dir_commit(tmp, dir, &old, d);
@@ -259,10 +260,10 @@ enum ow_status ow_mapdir_copy_data(const char *from, const char *to,
 	char src[OW_PATH_LEN + 32], dst[OW_PATH_LEN + 32];
 	char *list = ow_io_dir_list(from), *name, *nl, *buf = NULL;
 	size_t len;
-	enum ow_status st = list ? OW_OK
-	                         : ow_diag_set(d, OW_EINPUT,
-	                                       "%s: cannot list the folder",
-	                                       from);
+	enum ow_status st =
+	    list
+	        ? OW_OK
+	        : ow_diag_set(d, OW_EINPUT, "%s: cannot list the folder", from);
 
 	for (name = list; st == OW_OK && (nl = strchr(name, '\n'));
 	     name = nl + 1) {

@@ -91,8 +91,8 @@ enum ow_status ow_mapdir_check_target(const char *dir, struct ow_diag *d);
  * could not be moved or deleted, the previous folder stays at the path
  * put into left[n] ("" otherwise). OW_EIO when the rename fails (tmp is
  * then untouched). */
-enum ow_status ow_mapdir_replace(const char *tmp, const char *dir,
-                                 char *left, size_t n, struct ow_diag *d);
+enum ow_status ow_mapdir_replace(const char *tmp, const char *dir, char *left,
+                                 size_t n, struct ow_diag *d);
 
 /* Copy the data files of map folder `from` (all but the drawings and the
  * manifest) into folder `to`, so the drawings can be made again there. */

@@ -12,37 +12,42 @@
 #include <stdlib.h>
 #include <string.h>
 
-
 static cJSON *section_json(const struct ow_screw *s, int i)
 {
 	const struct ow_section *sec = &s->sections[i];
 	double D = s->diameter_m;
 	cJSON *o = cJSON_CreateObject();
-	int ok = o && cJSON_AddStringToObject(o, "type",
-					      ow_section_name(sec->type));
+	int ok =
+	    o && cJSON_AddStringToObject(o, "type", ow_section_name(sec->type));
 
 	ok = ok && ow_json_put_num(o, "start_D", sec->start_m / D);
 	ok = ok && ow_json_put_num(o, "end_D", sec->end_m / D);
 	if (sec->type == OW_SEC_MIXER) {
-		ok = ok && ow_json_put_num(o, "depth_start_mm", sec->gap_m * 1e3);
+		ok = ok &&
+		     ow_json_put_num(o, "depth_start_mm", sec->gap_m * 1e3);
 		ok = ok && ow_json_put_num(o, "depth_end_mm", sec->gap_m * 1e3);
 		ok = ok && ow_json_put_num(o, "lands", sec->lands);
 	} else {
 		ok = ok && ow_json_put_num(o, "depth_start_mm",
-				   sec->depth_start_m * 1e3);
-		ok = ok && ow_json_put_num(o, "depth_end_mm", sec->depth_m * 1e3);
+		                           sec->depth_start_m * 1e3);
+		ok = ok &&
+		     ow_json_put_num(o, "depth_end_mm", sec->depth_m * 1e3);
 	}
 	if (sec->type == OW_SEC_BARRIER) {
 		ok = ok && ow_json_put_num(o, "melt_depth_start_mm",
-				   sec->melt_depth_start_m * 1e3);
+		                           sec->melt_depth_start_m * 1e3);
 		ok = ok && ow_json_put_num(o, "melt_depth_end_mm",
-				   sec->melt_depth_end_m * 1e3);
-		ok = ok && ow_json_put_num(o, "melt_share_start", sec->melt_share_start);
-		ok = ok && ow_json_put_num(o, "melt_share_end", sec->melt_share_end);
+		                           sec->melt_depth_end_m * 1e3);
+		ok = ok && ow_json_put_num(o, "melt_share_start",
+		                           sec->melt_share_start);
+		ok = ok &&
+		     ow_json_put_num(o, "melt_share_end", sec->melt_share_end);
 	}
-	ok = ok && ow_json_put_num(o, "clearance_mm",
-			   ow_screw_clearance(s, 0.5 * (sec->start_m +
-							sec->end_m)) * 1e3);
+	ok =
+	    ok &&
+	    ow_json_put_num(
+	        o, "clearance_mm",
+	        ow_screw_clearance(s, 0.5 * (sec->start_m + sec->end_m)) * 1e3);
 	if (!ok) {
 		cJSON_Delete(o);
 		return NULL;
@@ -103,25 +108,27 @@ static int add_screw_figures(cJSON *r, const struct ow_screw *s)
 	ok = ok && ow_json_put_num(r, "flights", s->flights);
 	ok = ok && ow_json_put_num(r, "length_D", ow_screw_ld(s));
 	ok = ok && ow_json_put_num(r, "helix_angle_deg",
-			   ow_screw_helix(s, D) * 180.0 / OW_PI);
+	                           ow_screw_helix(s, D) * 180.0 / OW_PI);
 	ok = ok && ow_json_put_num(r, "compression_ratio",
-			   ow_screw_compression_depth(s));
+	                           ow_screw_compression_depth(s));
 	ok = ok && ow_json_put_num(r, "compression_ratio_area",
-			   ow_screw_compression_area(s));
+	                           ow_screw_compression_area(s));
 	ok = ok && ow_json_put_num(r, "feed_depth_mm", hf * 1e3);
 	ok = ok && ow_json_put_num(r, "metering_depth_mm", hm * 1e3);
-	ok = ok && ow_json_put_num(r, "channel_width_mm", ow_screw_width(s, D) * 1e3);
+	ok = ok &&
+	     ow_json_put_num(r, "channel_width_mm", ow_screw_width(s, D) * 1e3);
 	ok = ok && ow_json_put_num(r, "clearance_mm", s->clearance_m * 1e3);
-	ok = ok && ow_json_put_num(r, "feed_turn_volume_cm3",
-			   ow_screw_free_area(s, 0.0) * s->lead_m * 1e6);
+	ok =
+	    ok && ow_json_put_num(r, "feed_turn_volume_cm3",
+	                          ow_screw_free_area(s, 0.0) * s->lead_m * 1e6);
 	ok = ok && ow_json_put_num(r, "metering_turn_volume_cm3",
-			   ow_screw_free_area(s, last_conveying_x(s)) *
-				   s->lead_m * 1e6);
+	                           ow_screw_free_area(s, last_conveying_x(s)) *
+	                               s->lead_m * 1e6);
 	return ok;
 }
 
 enum ow_status ow_results_check_json(const struct ow_study *st, char **out,
-				     struct ow_diag *d)
+                                     struct ow_diag *d)
 {
 	cJSON *root = cJSON_CreateObject();
 	int ok = root != NULL;
@@ -141,7 +148,7 @@ enum ow_status ow_results_check_json(const struct ow_study *st, char **out,
 
 /* ---- figures of a point ------------------------------------------------ */
 
-#define C_OF_K(k) ((k) - OW_ZERO_C_K)
+#define C_OF_K(k) ((k)-OW_ZERO_C_K)
 
 static double per_D(const struct ow_study *s, double x)
 {
@@ -151,42 +158,84 @@ static double per_D(const struct ow_study *s, double x)
 static double fig(const struct ow_study *s, const struct ow_point *p, int i)
 {
 	switch (i) {
-	case 0: return p->output_kg_s * 3600.0;
-	case 1: return p->discharge_pressure_Pa * 1e-6;
-	case 2: return p->max_pressure_Pa * 1e-6;
-	case 3: return C_OF_K(p->discharge_bulk_K);
-	case 4: return C_OF_K(p->discharge_peak_K);
-	case 5: return C_OF_K(p->peak_K);
-	case 6: return p->unmelt_frac;
-	case 7: return per_D(s, p->melt_complete_m);
-	case 8: return p->max_sbr;
-	case 9: return p->power_W * 1e-3;
-	case 10: return p->torque_Nm;
-	case 11: return p->sec_J_kg / 3.6e6;
-	case 12: return p->barrel_heat_W * 1e-3;
-	case 13: return p->residence_s;
-	case 14: return per_D(s, p->melt_start_m);
-	case 15: return per_D(s, p->max_pressure_at_m);
-	case 16: return per_D(s, p->peak_at_m);
-	case 17: return p->energy_residual;
-	case 18: return p->feed_capacity_kg_s * 3600.0;
-	case 19: return p->plug_ratio;
-	case 20: return p->zone_load;
-	case 21: return p->root_heat_W * 1e-3;
-	case 22: return p->enthalpy_rise_W * 1e-3;
-	case 23: return p->flow_work_W * 1e-3;
-	default: return NAN;
+	case 0:
+		return p->output_kg_s * 3600.0;
+	case 1:
+		return p->discharge_pressure_Pa * 1e-6;
+	case 2:
+		return p->max_pressure_Pa * 1e-6;
+	case 3:
+		return C_OF_K(p->discharge_bulk_K);
+	case 4:
+		return C_OF_K(p->discharge_peak_K);
+	case 5:
+		return C_OF_K(p->peak_K);
+	case 6:
+		return p->unmelt_frac;
+	case 7:
+		return per_D(s, p->melt_complete_m);
+	case 8:
+		return p->max_sbr;
+	case 9:
+		return p->power_W * 1e-3;
+	case 10:
+		return p->torque_Nm;
+	case 11:
+		return p->sec_J_kg / 3.6e6;
+	case 12:
+		return p->barrel_heat_W * 1e-3;
+	case 13:
+		return p->residence_s;
+	case 14:
+		return per_D(s, p->melt_start_m);
+	case 15:
+		return per_D(s, p->max_pressure_at_m);
+	case 16:
+		return per_D(s, p->peak_at_m);
+	case 17:
+		return p->energy_residual;
+	case 18:
+		return p->feed_capacity_kg_s * 3600.0;
+	case 19:
+		return p->plug_ratio;
+	case 20:
+		return p->zone_load;
+	case 21:
+		return p->root_heat_W * 1e-3;
+	case 22:
+		return p->enthalpy_rise_W * 1e-3;
+	case 23:
+		return p->flow_work_W * 1e-3;
+	default:
+		return NAN;
 	}
 }
 
 static const char *const fig_keys[] = {
-	"output_kg_h", "discharge_pressure_MPa", "max_pressure_MPa",
-	"discharge_bulk_temp_C", "discharge_peak_temp_C", "peak_temp_C",
-	"unmelt_fraction", "melt_complete_D", "max_sbr", "power_kW",
-	"torque_Nm", "sec_kWh_kg", "barrel_heat_kW", "residence_s",
-	"melt_start_D", "max_pressure_D", "peak_temp_D", "energy_residual",
-	"feed_capacity_kg_h", "plug_ratio", "zone_load", "root_heat_kW",
-	"enthalpy_rise_kW", "flow_work_kW",
+    "output_kg_h",
+    "discharge_pressure_MPa",
+    "max_pressure_MPa",
+    "discharge_bulk_temp_C",
+    "discharge_peak_temp_C",
+    "peak_temp_C",
+    "unmelt_fraction",
+    "melt_complete_D",
+    "max_sbr",
+    "power_kW",
+    "torque_Nm",
+    "sec_kWh_kg",
+    "barrel_heat_kW",
+    "residence_s",
+    "melt_start_D",
+    "max_pressure_D",
+    "peak_temp_D",
+    "energy_residual",
+    "feed_capacity_kg_h",
+    "plug_ratio",
+    "zone_load",
+    "root_heat_kW",
+    "enthalpy_rise_kW",
+    "flow_work_kW",
 };
 
 int ow_results_n_figures(void)
@@ -200,7 +249,7 @@ const char *ow_results_figure_key(int i)
 }
 
 double ow_results_figure(const struct ow_study *s, const struct ow_point *pt,
-			 int i)
+                         int i)
 {
 	return fig(s, pt, i);
 }
@@ -217,7 +266,7 @@ static int add_names(cJSON *o, const char *key, const char **names, int n)
 }
 
 static int add_zones(cJSON *o, const struct ow_study *s,
-		     const struct ow_point *pt)
+                     const struct ow_point *pt)
 {
 	cJSON *arr = cJSON_AddArrayToObject(o, "zones");
 	int i, ok = arr != NULL;
@@ -226,27 +275,29 @@ static int add_zones(cJSON *o, const struct ow_study *s,
 		cJSON *z = cJSON_CreateObject();
 
 		ok = z && cJSON_AddItemToArray(arr, z);
-		ok = ok && ow_json_put_num(z, "to_D", per_D(s, s->line.zones[i].to_m));
+		ok = ok && ow_json_put_num(z, "to_D",
+		                           per_D(s, s->line.zones[i].to_m));
 		ok = ok && ow_json_put_num(z, "set_C", C_OF_K(pt->set_K[i]));
-		ok = ok && ow_json_put_num(z, "heat_kW", pt->zone_heat_W[i] * 1e-3);
+		ok = ok &&
+		     ow_json_put_num(z, "heat_kW", pt->zone_heat_W[i] * 1e-3);
 		ok = ok && ow_json_put_num(z, "demand_kW",
-				   pt->zone_demand_W[i] * 1e-3);
+		                           pt->zone_demand_W[i] * 1e-3);
 		ok = ok && ow_json_put_num(z, "heating_kW",
-				   s->line.zones[i].heating_W * 1e-3);
+		                           s->line.zones[i].heating_W * 1e-3);
 		ok = ok && ow_json_put_num(z, "cooling_kW",
-				   s->line.zones[i].cooling_W * 1e-3);
+		                           s->line.zones[i].cooling_W * 1e-3);
 		ok = ok && ow_json_put_num(z, "control_C",
-				   C_OF_K(pt->zone_control_K[i]));
+		                           C_OF_K(pt->zone_control_K[i]));
 		ok = ok && cJSON_AddBoolToObject(
-				   z, "holds_set",
-				   !(pt->zone_floating & (1u << i))) != NULL;
+		               z, "holds_set",
+		               !(pt->zone_floating & (1u << i))) != NULL;
 	}
 	return ok;
 }
 
 /* "zone N cannot hold set-point" for every zone that floats. */
 static int add_zone_notes(cJSON *notes, const struct ow_study *s,
-			  const struct ow_point *pt)
+                          const struct ow_point *pt)
 {
 	char t[64];
 	int i, ok = notes != NULL;
@@ -268,14 +319,14 @@ static int add_margins(cJSON *o, const struct ow_verdict *v)
 	for (c = 0; ok && c < OW_CK_LIMITS; c++)
 		if (!isnan(v->margin[c]))
 			ok = ow_json_put_num(m, ow_check_key((enum ow_check)c),
-				     v->margin[c]);
+			                     v->margin[c]);
 	return ok;
 }
 
 enum ow_status ow_results_point_json(const struct ow_study *s,
-				     const struct ow_point *pt,
-				     const struct ow_verdict *v, char **out,
-				     struct ow_diag *d)
+                                     const struct ow_point *pt,
+                                     const struct ow_verdict *v, char **out,
+                                     struct ow_diag *d)
 {
 	const char *names[OW_CK_COUNT + 8];
 	cJSON *root = cJSON_CreateObject();
@@ -287,10 +338,10 @@ enum ow_status ow_results_point_json(const struct ow_study *s,
 		ok = ow_json_put_num(root, fig_keys[i], fig(s, pt, i));
 	n = ow_classify_names(v, names, OW_CK_COUNT);
 	ok = ok && add_names(root, "status", names, n);
-	n = ow_solver_flag_names(pt->flags & (OW_FLAG_BACKFLOW |
-					      OW_FLAG_NO_MELTING |
-					      OW_FLAG_UNHEATED_MELT),
-				 names, 8);
+	n = ow_solver_flag_names(
+	    pt->flags &
+	        (OW_FLAG_BACKFLOW | OW_FLAG_NO_MELTING | OW_FLAG_UNHEATED_MELT),
+	    names, 8);
 	ok = ok && add_names(root, "notes", names, n);
 	ok = ok && add_zone_notes(cJSON_GetObjectItem(root, "notes"), s, pt);
 	ok = ok && ow_json_put_num(root, "iterations", pt->n_iter);
@@ -305,14 +356,14 @@ enum ow_status ow_results_point_json(const struct ow_study *s,
 }
 
 enum ow_status ow_results_profile_csv(const struct ow_study *s,
-				      const struct ow_profile_row *rows,
-				      int n, char **out, struct ow_diag *d)
+                                      const struct ow_profile_row *rows, int n,
+                                      char **out, struct ow_diag *d)
 {
 	struct ow_text t = {0};
 	int i;
 
 	ow_text_add(&t, "axial_D,pressure_MPa,bulk_temp_C,peak_temp_C,sbr,"
-		     "unmelt_fraction,depth_mm,barrel_C,shear_max_1_s\n");
+	                "unmelt_fraction,depth_mm,barrel_C,shear_max_1_s\n");
 	for (i = 0; i < n; i++) {
 		const struct ow_profile_row *r = &rows[i];
 
@@ -333,8 +384,8 @@ enum ow_status ow_results_profile_csv(const struct ow_study *s,
 /* ---- map outputs --------------------------------------------------------- */
 
 enum ow_status ow_results_grid_csv(const struct ow_study *s,
-				   const struct ow_grid *g, char **out,
-				   struct ow_diag *d)
+                                   const struct ow_grid *g, char **out,
+                                   struct ow_diag *d)
 {
 	struct ow_text t = {0};
 	int i, f, nf = ow_results_n_figures();
@@ -373,12 +424,12 @@ enum ow_status ow_results_grid_csv(const struct ow_study *s,
 
 static const char *axis_mode_name(enum ow_axis_mode m)
 {
-	return m == OW_AXIS_SET ? "set" : (m == OW_AXIS_ZONE ? "zone"
-							     : "shift");
+	return m == OW_AXIS_SET ? "set"
+	                        : (m == OW_AXIS_ZONE ? "zone" : "shift");
 }
 
 static int add_window_zones(cJSON *o, const struct ow_study *s,
-			    const struct ow_window *w)
+                            const struct ow_window *w)
 {
 	cJSON *arr = cJSON_AddArrayToObject(o, "zones");
 	int z, ok = arr != NULL;
@@ -388,24 +439,28 @@ static int add_window_zones(cJSON *o, const struct ow_study *s,
 
 		ok = e && cJSON_AddItemToArray(arr, e);
 		ok = ok && ow_json_put_num(e, "zone", z + 1);
-		ok = ok && ow_json_put_num(e, "to_D", per_D(s, s->line.zones[z].to_m));
-		ok = ok && ow_json_put_num(e, "set_min_C",
-				   w->empty ? NAN : C_OF_K(w->zone_min_K[z]));
-		ok = ok && ow_json_put_num(e, "set_max_C",
-				   w->empty ? NAN : C_OF_K(w->zone_max_K[z]));
+		ok = ok && ow_json_put_num(e, "to_D",
+		                           per_D(s, s->line.zones[z].to_m));
+		ok = ok &&
+		     ow_json_put_num(e, "set_min_C",
+		                     w->empty ? NAN : C_OF_K(w->zone_min_K[z]));
+		ok = ok &&
+		     ow_json_put_num(e, "set_max_C",
+		                     w->empty ? NAN : C_OF_K(w->zone_max_K[z]));
 	}
 	return ok;
 }
 
 static cJSON *polyline_json(const struct ow_study *s,
-			    const struct ow_polyline *pl)
+                            const struct ow_polyline *pl)
 {
 	cJSON *arr = cJSON_CreateArray();
 	int i, ok = arr != NULL;
 
 	for (i = 0; ok && i < pl->n; i++) {
-		double v[3] = {pl->p[i].rpm, pl->p[i].axis,
-			       C_OF_K(ow_line_axis_ref_K(&s->line, pl->p[i].axis))};
+		double v[3] = {
+		    pl->p[i].rpm, pl->p[i].axis,
+		    C_OF_K(ow_line_axis_ref_K(&s->line, pl->p[i].axis))};
 		cJSON *pt = cJSON_CreateDoubleArray(v, 3);
 
 		ok = pt && cJSON_AddItemToArray(arr, pt);
@@ -418,7 +473,7 @@ static cJSON *polyline_json(const struct ow_study *s,
 }
 
 static int add_boundaries(cJSON *o, const struct ow_study *s,
-			  const struct ow_window *w)
+                          const struct ow_window *w)
 {
 	cJSON *arr = cJSON_AddArrayToObject(o, "boundaries");
 	int b, l, ok = arr != NULL;
@@ -429,7 +484,7 @@ static int add_boundaries(cJSON *o, const struct ow_study *s,
 
 		ok = e && cJSON_AddItemToArray(arr, e);
 		ok = ok && cJSON_AddStringToObject(
-				   e, "limit", ow_window_boundary_key(bd->check));
+		               e, "limit", ow_window_boundary_key(bd->check));
 		lines = ok ? cJSON_AddArrayToObject(e, "lines") : NULL;
 		ok = lines != NULL;
 		for (l = 0; ok && l < bd->n_lines; l++) {
@@ -453,9 +508,9 @@ static int add_binding(cJSON *o, const struct ow_window *w)
 
 		ok = e && cJSON_AddItemToArray(arr, e);
 		ok = ok && cJSON_AddStringToObject(e, "limit",
-						   ow_check_key(order[i]));
+		                                   ow_check_key(order[i]));
 		ok = ok && ow_json_put_num(e, "points_excluded",
-				   w->fail_count[order[i]]);
+		                           w->fail_count[order[i]]);
 	}
 	return ok;
 }
@@ -463,8 +518,8 @@ static int add_binding(cJSON *o, const struct ow_window *w)
 /* One bound: its value, what sets it (a check key or "sweep_edge") and in
  * words, and how finely it is located (0 at the sweep's edge). */
 static int add_setter(cJSON *o, const char *key, const char *unit,
-		      const char *res_unit, double value,
-		      const struct ow_window_bound *b)
+                      const char *res_unit, double value,
+                      const struct ow_window_bound *b)
 {
 	cJSON *e = cJSON_AddObjectToObject(o, key);
 	char why[160], k[32];
@@ -473,12 +528,12 @@ static int add_setter(cJSON *o, const char *key, const char *unit,
 	snprintf(k, sizeof k, "value_%s", unit);
 	ok = ok && ow_json_put_num(e, k, value);
 	ok = ok && cJSON_AddStringToObject(e, "set_by",
-					   ow_window_setter_key(b->check));
-	ok = ok && cJSON_AddStringToObject(
-			   e, "reason",
-			   ow_window_setter_text(b->check, why, sizeof why));
+	                                   ow_window_setter_key(b->check));
+	ok = ok &&
+	     cJSON_AddStringToObject(
+	         e, "reason", ow_window_setter_text(b->check, why, sizeof why));
 	ok = ok && cJSON_AddBoolToObject(e, "is_limit",
-					 b->check != OW_WINDOW_SWEEP_EDGE);
+	                                 b->check != OW_WINDOW_SWEEP_EDGE);
 	snprintf(k, sizeof k, "resolution_%s", res_unit);
 	ok = ok && ow_json_put_num(e, k, b->resolution);
 	return ok;
@@ -496,19 +551,19 @@ static int add_setters(cJSON *r, const struct ow_window *w)
 	o = cJSON_AddObjectToObject(r, "bounds");
 	ok = o != NULL;
 	ok = ok && add_setter(o, "rpm_min", "rpm", "rpm", w->rpm_min,
-			      &w->bound[OW_WB_RPM_MIN]);
+	                      &w->bound[OW_WB_RPM_MIN]);
 	ok = ok && add_setter(o, "rpm_max", "rpm", "rpm", w->rpm_max,
-			      &w->bound[OW_WB_RPM_MAX]);
+	                      &w->bound[OW_WB_RPM_MAX]);
 	ok = ok && add_setter(o, "set_min_C", "C", "K", C_OF_K(w->set_min_K),
-			      &w->bound[OW_WB_SET_MIN]);
+	                      &w->bound[OW_WB_SET_MIN]);
 	ok = ok && add_setter(o, "set_max_C", "C", "K", C_OF_K(w->set_max_K),
-			      &w->bound[OW_WB_SET_MAX]);
+	                      &w->bound[OW_WB_SET_MAX]);
 	ok = ok && ow_json_put_num(o, "rpm_step_rpm", w->rpm_step);
 	ok = ok && ow_json_put_num(o, "set_step_K", w->temp_step_K);
 	ok = ok && cJSON_AddBoolToObject(r, "at_sweep_edge", w->at_sweep_edge);
 	if (ok && w->at_sweep_edge)
 		ok = cJSON_AddStringToObject(r, "sweep_edge_note",
-					     OW_WINDOW_SWEEP_EDGE_NOTE) != NULL;
+		                             OW_WINDOW_SWEEP_EDGE_NOTE) != NULL;
 	return ok;
 }
 
@@ -519,12 +574,16 @@ static int add_bounds(cJSON *r, const struct ow_window *w)
 
 	ok = ok && ow_json_put_num(r, "rpm_min", e ? NAN : w->rpm_min);
 	ok = ok && ow_json_put_num(r, "rpm_max", e ? NAN : w->rpm_max);
-	ok = ok && ow_json_put_num(r, "set_min_C", e ? NAN : C_OF_K(w->set_min_K));
-	ok = ok && ow_json_put_num(r, "set_max_C", e ? NAN : C_OF_K(w->set_max_K));
+	ok = ok &&
+	     ow_json_put_num(r, "set_min_C", e ? NAN : C_OF_K(w->set_min_K));
+	ok = ok &&
+	     ow_json_put_num(r, "set_max_C", e ? NAN : C_OF_K(w->set_max_K));
 	ok = ok && ow_json_put_num(r, "axis_min", e ? NAN : w->axis_min);
 	ok = ok && ow_json_put_num(r, "axis_max", e ? NAN : w->axis_max);
-	ok = ok && ow_json_put_num(r, "barrel_setting_min_K", e ? NAN : w->axis_min);
-	ok = ok && ow_json_put_num(r, "barrel_setting_max_K", e ? NAN : w->axis_max);
+	ok = ok &&
+	     ow_json_put_num(r, "barrel_setting_min_K", e ? NAN : w->axis_min);
+	ok = ok &&
+	     ow_json_put_num(r, "barrel_setting_max_K", e ? NAN : w->axis_max);
 	if (e) {
 		ok = ok && cJSON_AddNullToObject(r, "centre");
 	} else {
@@ -532,24 +591,28 @@ static int add_bounds(cJSON *r, const struct ow_window *w)
 		ok = ok && c && ow_json_put_num(c, "rpm", w->centre.rpm);
 		ok = ok && ow_json_put_num(c, "set_C", C_OF_K(w->centre_set_K));
 		ok = ok && ow_json_put_num(c, "axis_value", w->centre.axis);
-		ok = ok && ow_json_put_num(c, "barrel_setting_K", w->centre.axis);
+		ok = ok &&
+		     ow_json_put_num(c, "barrel_setting_K", w->centre.axis);
 		ok = ok && ow_json_put_num(c, "distance_to_edge_fraction",
-				   w->centre_clearance);
+		                           w->centre_clearance);
 	}
 	ok = ok && ow_json_put_num(r, "output_kg_h_min",
-			   e ? NAN : w->output_min_kg_s * 3600.0);
+	                           e ? NAN : w->output_min_kg_s * 3600.0);
 	ok = ok && ow_json_put_num(r, "output_kg_h_max",
-			   e ? NAN : w->output_max_kg_s * 3600.0);
-	ok = ok && ow_json_put_num(r, "melt_temp_C_min", e ? NAN : C_OF_K(w->melt_min_K));
-	ok = ok && ow_json_put_num(r, "melt_temp_C_max", e ? NAN : C_OF_K(w->melt_max_K));
-	ok = ok && ow_json_put_num(r, "peak_temp_C_max", e ? NAN : C_OF_K(w->peak_max_K));
+	                           e ? NAN : w->output_max_kg_s * 3600.0);
+	ok = ok && ow_json_put_num(r, "melt_temp_C_min",
+	                           e ? NAN : C_OF_K(w->melt_min_K));
+	ok = ok && ow_json_put_num(r, "melt_temp_C_max",
+	                           e ? NAN : C_OF_K(w->melt_max_K));
+	ok = ok && ow_json_put_num(r, "peak_temp_C_max",
+	                           e ? NAN : C_OF_K(w->peak_max_K));
 	return ok && add_setters(r, w);
 }
 
 enum ow_status ow_results_window_json(const struct ow_study *s,
-				      const struct ow_grid *g,
-				      const struct ow_window *w, char **out,
-				      struct ow_diag *d)
+                                      const struct ow_grid *g,
+                                      const struct ow_window *w, char **out,
+                                      struct ow_diag *d)
 {
 	cJSON *r = cJSON_CreateObject(), *ax;
 	int ok = r != NULL;
@@ -563,9 +626,9 @@ enum ow_status ow_results_window_json(const struct ow_study *s,
 	ax = ok ? cJSON_AddObjectToObject(r, "axis") : NULL;
 	ok = ax != NULL;
 	ok = ok && cJSON_AddStringToObject(ax, "mode",
-					   axis_mode_name(s->line.axes.mode));
+	                                   axis_mode_name(s->line.axes.mode));
 	ok = ok && ow_json_put_num(ax, "reference_zone",
-			   ow_line_reference_zone(&s->line) + 1);
+	                           ow_line_reference_zone(&s->line) + 1);
 	ok = ok && ow_json_put_num(ax, "from", s->line.axes.axis_from);
 	ok = ok && ow_json_put_num(ax, "to", s->line.axes.axis_to);
 	ok = ok && ow_json_put_num(ax, "from_K", s->line.axes.axis_from);

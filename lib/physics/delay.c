@@ -10,15 +10,15 @@
 #include <math.h>
 #include <string.h>
 
-#define SQRT_PI 1.7724538509055160
+#define SQRT_PI       1.7724538509055160
 #define FILM_SUBSTEPS 40   /* implicit substeps of the film per step */
-#define FILM_PASSES 3      /* fixed-point passes of a substep */
-#define FILM_MIN_M 1e-9    /* floor on the film for its shear rate */
-#define ROOT_MAXIT 60
-#define BED_MELT_MAX 0.5 /* largest melt share of the plug handed over */
+#define FILM_PASSES   3    /* fixed-point passes of a substep */
+#define FILM_MIN_M    1e-9 /* floor on the film for its shear rate */
+#define ROOT_MAXIT    60
+#define BED_MELT_MAX  0.5 /* largest melt share of the plug handed over */
 
 void ow_delay_start(struct ow_delay *z, const struct ow_material *m,
-		    double feed_K)
+                    double feed_K)
 {
 	memset(z, 0, sizeof *z);
 	z->mat = m;
@@ -31,7 +31,7 @@ void ow_delay_start(struct ow_delay *z, const struct ow_material *m,
 static double effusivity(const struct ow_material *m)
 {
 	return sqrt(m->solid_k_W_mK * m->solid_density_kg_m3 *
-		    m->solid_cp_J_kgK);
+	            m->solid_cp_J_kgK);
 }
 
 static double diffusivity(const struct ow_material *m)
@@ -99,8 +99,8 @@ static double heat_at(const struct ow_delay *z, double t)
 	if (z->film) {
 		tau = film_age(z, t);
 		return tau > 0.0 ? 2.0 * (z->mat->melt_temp_K - z->feed_K) *
-					   effusivity(z->mat) * sqrt(tau / OW_PI)
-				 : 0.0;
+		                       effusivity(z->mat) * sqrt(tau / OW_PI)
+		                 : 0.0;
 	}
 	for (k = 0; k < z->n; k++)
 		sum += z->step_K[k] * step_heat(z, t - z->at_s[k]);
@@ -153,9 +153,9 @@ double ow_delay_temp(const struct ow_delay *z, double y)
 		tau = film_age(z, z->t_s);
 		if (!(tau > 0.0))
 			return z->mat->melt_temp_K;
-		return t + (z->mat->melt_temp_K - z->feed_K) *
-				   erfc(y / (2.0 * sqrt(diffusivity(z->mat) *
-							tau)));
+		return t +
+		       (z->mat->melt_temp_K - z->feed_K) *
+		           erfc(y / (2.0 * sqrt(diffusivity(z->mat) * tau)));
 	}
 	for (k = 0; k < z->n; k++)
 		t += z->step_K[k] * step_temp(z, y, z->t_s - z->at_s[k]);
@@ -187,7 +187,8 @@ static void form_film(struct ow_delay *z)
 	double e = effusivity(z->mat);
 	double dT = z->mat->melt_temp_K - z->feed_K, E = heat_at(z, z->t_s);
 
-	z->age0_s = dT > 0.0 && e > 0.0 ? OW_PI * pow(E / (2.0 * dT * e), 2) : 0.0;
+	z->age0_s =
+	    dT > 0.0 && e > 0.0 ? OW_PI * pow(E / (2.0 * dT * e), 2) : 0.0;
 	z->film = 1;
 	z->film_t_s = z->t_s;
 	z->film_m = 0.0;
@@ -201,7 +202,8 @@ static double solid_flux(const struct ow_delay *z, double t)
 
 	if (!(dT > 0.0))
 		return 0.0;
-	return dT * effusivity(z->mat) / sqrt(OW_PI * (age > 0.0 ? age : 1e-30));
+	return dT * effusivity(z->mat) /
+	       sqrt(OW_PI * (age > 0.0 ? age : 1e-30));
 }
 
 struct film_step {
@@ -215,7 +217,7 @@ struct film_step {
  * T_m)/s - D/2, so c = (h s dT_c + mu V_j^2/2) k/(k + h s) + mu V_j^2/2;
  * an ideal wall gives c = k dT_c + mu V_j^2/2. *tw gets T_w. */
 static double film_c(const struct ow_delay *z, const struct film_step *f,
-		     double s, double mu, double *tw)
+                     double s, double mu, double *tw)
 {
 	const struct ow_material *m = z->mat;
 	double k = m->melt_k_W_mK, dT = f->wall - m->melt_temp_K;
@@ -233,8 +235,7 @@ static double film_c(const struct ow_delay *z, const struct film_step *f,
  *   A s ds/dt = c - s q_s,  A = rho_m [lambda + c_m (T_b - T_m)/3]:
  * A s (s - s0) = h (c - s q_s) is a quadratic in s, solvable also for
  * A = 0 (an amorphous resin: the film is where the solid passes T_m). */
-static double film_substep(double A, double c, double qs, double s0,
-			   double h)
+static double film_substep(double A, double c, double qs, double s0, double h)
 {
 	double B = h * qs - A * s0, disc;
 
@@ -251,7 +252,7 @@ static double film_substep(double A, double c, double qs, double s0,
  * dissipation and sets the peak. c and the viscosity are taken at the
  * film the substep ends with (a few fixed-point passes). */
 static double film_advance(struct ow_delay *z, const struct film_step *f,
-			   double h, double *frac, struct ow_delay_out *o)
+                           double h, double *frac, struct ow_delay_out *o)
 {
 	const struct ow_material *m = z->mat;
 	double s0 = z->film_m, s = s0, mu = 0.0, c, tw = f->wall, sm;
@@ -261,7 +262,7 @@ static double film_advance(struct ow_delay *z, const struct film_step *f,
 	for (pass = 0; pass < FILM_PASSES; pass++) {
 		sm = fmax(pass ? s : s0, FILM_MIN_M);
 		mu = ow_viscosity_eval(&m->visc, f->slip / sm,
-				       0.5 * (f->wall + m->melt_temp_K));
+		                       0.5 * (f->wall + m->melt_temp_K));
 		c = film_c(z, f, sm, mu, &tw);
 		s = film_substep(f->A, c, qs, s0, h);
 	}
@@ -276,14 +277,14 @@ static double film_advance(struct ow_delay *z, const struct film_step *f,
 	sm = fmax(0.5 * (s0 + s), FILM_MIN_M);
 	o->dissip_J_m2 += mu * f->slip * f->slip / sm * h * *frac;
 	o->peak_K = ow_melting_film_peak(m->melt_temp_K, tw, mu, f->slip,
-					 m->melt_k_W_mK);
+	                                 m->melt_k_W_mK);
 	return s;
 }
 
 /* The film phase over dt, in FILM_SUBSTEPS implicit substeps. */
 static void film_phase(struct ow_delay *z, double wall_K, double slip,
-		       double clear, double dt, double t_in,
-		       struct ow_delay_out *o)
+                       double clear, double dt, double t_in,
+                       struct ow_delay_out *o)
 {
 	const struct ow_material *m = z->mat;
 	double dT = fmax(wall_K - m->melt_temp_K, 0.0), h = dt / FILM_SUBSTEPS;
@@ -326,7 +327,7 @@ static double reach_melting(const struct ow_delay *z, double t0, double dt)
 /* The plug phase over dt under the wall at wall_K; returns the contact
  * time left over once the surface reached T_m (0: it did not). */
 static double plug_phase(struct ow_delay *z, double wall_K, double dt,
-			 struct ow_delay_out *o)
+                         struct ow_delay_out *o)
 {
 	double e_in, t0 = z->t_s, t1 = t0 + dt, tm = z->mat->melt_temp_K;
 
@@ -346,9 +347,9 @@ static double plug_phase(struct ow_delay *z, double wall_K, double dt,
 }
 
 enum ow_status ow_delay_advance(struct ow_delay *z, double wall_K,
-				double wall_h_W_m2K, double slip_m_s,
-				double clearance_m, double dt_s,
-				struct ow_delay_out *o, struct ow_diag *d)
+                                double wall_h_W_m2K, double slip_m_s,
+                                double clearance_m, double dt_s,
+                                struct ow_delay_out *o, struct ow_diag *d)
 {
 	double left = dt_s;
 
@@ -359,11 +360,13 @@ enum ow_status ow_delay_advance(struct ow_delay *z, double wall_K,
 	    !(slip_m_s >= 0.0) || !isfinite(slip_m_s) ||
 	    !isfinite(clearance_m) || !(wall_h_W_m2K >= 0.0) ||
 	    !isfinite(wall_h_W_m2K))
-		return ow_diag_set(d, OW_EARG, "delay zone: step %g s, wall "
-				   "%g K, wall coefficient %g W/(m2 K), slip "
-				   "%g m/s and clearance %g m must be finite, "
-				   "the step > 0", dt_s, wall_K, wall_h_W_m2K,
-				   slip_m_s, clearance_m);
+		return ow_diag_set(d, OW_EARG,
+		                   "delay zone: step %g s, wall "
+		                   "%g K, wall coefficient %g W/(m2 K), slip "
+		                   "%g m/s and clearance %g m must be finite, "
+		                   "the step > 0",
+		                   dt_s, wall_K, wall_h_W_m2K, slip_m_s,
+		                   clearance_m);
 	z->wall_h = wall_h_W_m2K;
 	if (!z->film)
 		left = plug_phase(z, wall_K, dt_s, o);
@@ -372,8 +375,8 @@ enum ow_status ow_delay_advance(struct ow_delay *z, double wall_K,
 		return OW_OK;
 	}
 	if (z->film && left > 0.0)
-		film_phase(z, wall_K, slip_m_s, clearance_m, left,
-			   dt_s - left, o);
+		film_phase(z, wall_K, slip_m_s, clearance_m, left, dt_s - left,
+		           o);
 	return OW_OK;
 }
 
@@ -385,31 +388,31 @@ enum ow_status ow_delay_advance(struct ow_delay *z, double wall_K,
  * of itself into the film melt; past the largest share handed over the
  * film melt is hotter. */
 void ow_delay_bed(const struct ow_delay *z, double depth_m, double heat_J_m2,
-		  double *melt_frac, double *bed_K, double *melt_K)
+                  double *melt_frac, double *bed_K, double *melt_K)
 {
 	const struct ow_material *m = z->mat;
 	double msolid = m->solid_density_kg_m3 * depth_m; /* kg/m^2 */
 	double cs = m->solid_cp_J_kgK, tm = m->melt_temp_K;
-	double f = msolid > 0.0 ? fmin(m->melt_density_kg_m3 * z->film_m /
-					       msolid, BED_MELT_MAX)
-				: 0.0;
+	double f =
+	    msolid > 0.0
+	        ? fmin(m->melt_density_kg_m3 * z->film_m / msolid, BED_MELT_MAX)
+	        : 0.0;
 	double tk = z->film ? z->film_K : tm;
 	double q = msolid > 0.0 ? heat_J_m2 / msolid : 0.0; /* J/kg */
 	double sens = cs * (tm - z->feed_K);
 	double hm = sens + m->fusion_J_kg + m->melt_cp_J_kgK * (tk - tm);
-	double t = cs > 0.0 ? z->feed_K + (q - f * hm) / ((1.0 - f) * cs)
-			    : tm;
+	double t = cs > 0.0 ? z->feed_K + (q - f * hm) / ((1.0 - f) * cs) : tm;
 
 	if (t > tm) { /* more melts: f hm + (1 - f) sens = q */
 		t = tm;
-		f = hm > sens ? fmin(fmax((q - sens) / (hm - sens), f),
-				     BED_MELT_MAX)
-			      : BED_MELT_MAX;
+		f = hm > sens
+		        ? fmin(fmax((q - sens) / (hm - sens), f), BED_MELT_MAX)
+		        : BED_MELT_MAX;
 		if (f * hm + (1.0 - f) * sens < q && f > 0.0 &&
 		    m->melt_cp_J_kgK > 0.0) { /* the melt takes the rest */
 			hm = (q - (1.0 - f) * sens) / f;
-			tk = tm + (hm - sens - m->fusion_J_kg) /
-					  m->melt_cp_J_kgK;
+			tk = tm +
+			     (hm - sens - m->fusion_J_kg) / m->melt_cp_J_kgK;
 		}
 	}
 	*melt_frac = f;

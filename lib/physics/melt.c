@@ -18,7 +18,7 @@ static void cells_at(struct melt_cells *cs, double *mem, size_t nc)
 }
 
 enum ow_status ow_melt_create(int depth_nodes, int bands,
-			      struct ow_melt_ws **out, struct ow_diag *d)
+                              struct ow_melt_ws **out, struct ow_diag *d)
 {
 	struct ow_melt_ws *ws = NULL;
 	size_t nn = (size_t)depth_nodes, nc, nb = (size_t)bands;
@@ -28,12 +28,13 @@ enum ow_status ow_melt_create(int depth_nodes, int bands,
 	*out = NULL;
 	if (depth_nodes < 5 || depth_nodes > 100000)
 		return ow_diag_set(d, OW_EARG,
-				   "melt: depth_nodes = %d: must lie in "
-				   "5..100000", depth_nodes);
+		                   "melt: depth_nodes = %d: must lie in "
+		                   "5..100000",
+		                   depth_nodes);
 	if (bands < 2 || bands > 10000)
 		return ow_diag_set(d, OW_EARG,
-				   "melt: bands = %d: must lie in 2..10000",
-				   bands);
+		                   "melt: bands = %d: must lie in 2..10000",
+		                   bands);
 	nc = nn - 1;
 	ws = calloc(1, sizeof *ws);
 	if (!ws)
@@ -66,8 +67,8 @@ enum ow_status ow_melt_create(int depth_nodes, int bands,
 	ws->gnext = ws->t + 3 * nb;
 	ws->gb = ws->t + 4 * nb;
 	ws->gr = ws->t + 5 * nb;
-	ws->tri = ws->t + 6 * nb;   /* 2 nb */
-	ws->legs = ws->t + 8 * nb;  /* 4 nb */
+	ws->tri = ws->t + 6 * nb;  /* 2 nb */
+	ws->legs = ws->t + 8 * nb; /* 4 nb */
 	ws->level = ws->t + 12 * nb;
 	for (size_t k = 0; k < nb; k++) {
 		/* stream-function levels of the band edges, s_k = cos^2(pi
@@ -84,7 +85,7 @@ enum ow_status ow_melt_create(int depth_nodes, int bands,
 fail:
 	ow_melt_destroy(ws);
 	return ow_diag_set(d, OW_ENOMEM, "melt: out of memory for %d nodes",
-			   depth_nodes);
+	                   depth_nodes);
 }
 
 void ow_melt_destroy(struct ow_melt_ws *ws)
@@ -136,8 +137,8 @@ void ow_melt_heat(struct ow_melt_ws *ws, double dT_K)
 }
 
 void ow_melt_mixer_land(double q_m3_s, double n_lands, double length_m,
-			double gap_m, double land_width_m, double vb_m_s,
-			double visc_Pa_s, struct ow_mixer_land *out)
+                        double gap_m, double land_width_m, double vb_m_s,
+                        double visc_Pa_s, struct ow_mixer_land *out)
 {
 	double g = gap_m, e = land_width_m, mu = visc_Pa_s, len;
 	double g3 = g * g * g, q, grad;
@@ -152,8 +153,9 @@ void ow_melt_mixer_land(double q_m3_s, double n_lands, double length_m,
 	q = q_m3_s / len;
 	out->dp_Pa = 12.0 * mu * e * (0.5 * vb_m_s * g - q) / g3;
 	grad = out->dp_Pa / e;
-	out->heat_W = len * e * (mu * vb_m_s * vb_m_s / g +
-				 g3 * grad * grad / (12.0 * mu));
+	out->heat_W =
+	    len * e *
+	    (mu * vb_m_s * vb_m_s / g + g3 * grad * grad / (12.0 * mu));
 	out->power_W = out->heat_W + q_m3_s * out->dp_Pa;
 	out->shear_1_s = fabs(vb_m_s) / g;
 }
@@ -170,7 +172,7 @@ void ow_melt_copy(struct ow_melt_ws *dst, const struct ow_melt_ws *src)
 	memcpy(dst->t, src->t, 13 * nb * sizeof(double));
 	memcpy(dst->seg_lo, src->seg_lo, 4 * nb * sizeof(double));
 	memcpy(dst->seg_band, src->seg_band, 2 * nb * sizeof(int));
-	*dst = *src; /* the scalars ... */
+	*dst = *src;         /* the scalars ... */
 	dst->cur = keep.cur; /* ... but dst's own arrays */
 	dst->trial = keep.trial;
 	dst->cell_mem = keep.cell_mem;
@@ -219,8 +221,8 @@ static int bad(double x)
 }
 
 static enum ow_status check_cond(const struct ow_melt_ws *ws,
-				 const struct ow_melt_cond *c, double dz,
-				 struct ow_diag *d)
+                                 const struct ow_melt_cond *c, double dz,
+                                 struct ow_diag *d)
 {
 	const char *f = NULL;
 	double v = 0.0;
@@ -253,18 +255,20 @@ static enum ow_status check_cond(const struct ow_melt_ws *ws,
 		f = "band temperature (call ow_melt_reset first)", v = ws->bulk;
 	if (f)
 		return ow_diag_set(d, OW_EARG, "melt: %s = %g: out of range", f,
-				   v);
+		                   v);
 	if (dz > 0.0 && !(c->vol_flow_m3_s > 0.0))
 		return ow_diag_set(d, OW_ECOMPUTE,
-				   "melt: cannot march the temperature with a "
-				   "net flow of %g m3/s", c->vol_flow_m3_s);
+		                   "melt: cannot march the temperature with a "
+		                   "net flow of %g m3/s",
+		                   c->vol_flow_m3_s);
 	return OW_OK;
 }
 
 /* Flight edges by the Newtonian-exact substitution V_bz F_d/F_p and flow
  * Q/(W F_p) (Tadmor & Klein 1970, ch. 7). */
-static void station_geometry(struct ow_melt_ws *ws, const struct ow_melt_cond *c,
-			     struct melt_station *st)
+static void station_geometry(struct ow_melt_ws *ws,
+                             const struct ow_melt_cond *c,
+                             struct melt_station *st)
 {
 	double h = c->depth_m / c->width_m;
 
@@ -295,7 +299,7 @@ static void station_geometry(struct ow_melt_ws *ws, const struct ow_melt_cond *c
  * outer band temperatures. Linear in the gradients: stored as coefficients
  * so the velocity solve carries it exactly. */
 static void station_leak(const struct ow_melt_ws *ws,
-			 const struct ow_melt_cond *c, struct melt_station *st)
+                         const struct ow_melt_cond *c, struct melt_station *st)
 {
 	double delta = c->clearance_m, e = c->flight_width_m;
 	double lb = c->leak_bypass_m, tf, mu;
@@ -310,13 +314,13 @@ static void station_leak(const struct ow_melt_ws *ws,
 	st->lz = lb * lb * st->leak_coef / (st->H * st->W * st->fp);
 	st->lx = lb * st->leak_coef / (st->H * st->fp);
 	st->leak_heat = ow_melt_leak_heat(c->vb_m_s, delta, mu, e) *
-			c->leak_flight_len_per_z;
+	                c->leak_flight_len_per_z;
 }
 
 /* Power, dissipation and the identity power = dissipation + Q G. */
 static void bookkeeping(const struct ow_melt_ws *ws,
-			const struct melt_station *st,
-			const struct ow_melt_cond *c, struct ow_melt_out *o)
+                        const struct melt_station *st,
+                        const struct ow_melt_cond *c, struct ow_melt_out *o)
 {
 	const double *p = ws->p;
 	double G = p[1] / st->H, dis = 0.0;
@@ -326,11 +330,11 @@ static void bookkeeping(const struct ow_melt_ws *ws,
 	o->tau_barrel_z_Pa = p[0] + p[1];
 	o->tau_barrel_x_Pa = p[2] + p[3];
 	o->leak_flow_m3_s =
-		st->ql0 + (st->lz * p[1] + st->lx * p[3]) * st->W * st->fp;
+	    st->ql0 + (st->lz * p[1] + st->lx * p[3]) * st->W * st->fp;
 	o->channel_flow_m3_s = c->vol_flow_m3_s + o->leak_flow_m3_s;
 	o->power_W_m = st->W * (st->fp * o->tau_barrel_z_Pa * st->vz +
-				o->tau_barrel_x_Pa * st->vx) +
-		       st->leak_heat;
+	                        o->tau_barrel_x_Pa * st->vx) +
+	               st->leak_heat;
 	for (int b = 0; b < ws->nb; b++)
 		dis += ws->dk[b];
 	o->dissipation_W_m = dis * st->W;
@@ -341,11 +345,11 @@ static void bookkeeping(const struct ow_melt_ws *ws,
 		double tau = sqrt(tz * tz + tx * tx); /* no overflow at Pa */
 
 		if (j > 0)
-			o->max_shear_1_s = fmax(o->max_shear_1_s,
-						tau * ws->cur.phi[j - 1]);
+			o->max_shear_1_s =
+			    fmax(o->max_shear_1_s, tau * ws->cur.phi[j - 1]);
 		if (j < ws->nc)
 			o->max_shear_1_s =
-				fmax(o->max_shear_1_s, tau * ws->cur.phi[j]);
+			    fmax(o->max_shear_1_s, tau * ws->cur.phi[j]);
 	}
 	o->fd = st->fd;
 	o->fp = st->fp;
@@ -353,8 +357,8 @@ static void bookkeeping(const struct ow_melt_ws *ws,
 }
 
 enum ow_status ow_melt_step(struct ow_melt_ws *ws, const struct ow_melt_cond *c,
-			    double dz_m, struct ow_melt_out *out,
-			    struct ow_diag *d)
+                            double dz_m, struct ow_melt_out *out,
+                            struct ow_diag *d)
 {
 	struct melt_station st;
 	struct ow_melt_out o;
@@ -414,7 +418,7 @@ double ow_melt_band_temp(const struct ow_melt_ws *ws, int k)
 }
 
 enum ow_status ow_melt_partner(const struct ow_melt_ws *ws, double y_m,
-			       double *partner_m)
+                               double *partner_m)
 {
 	double s;
 

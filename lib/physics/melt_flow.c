@@ -9,7 +9,7 @@
 /* sum_{i odd} i^-3 = (7/8) zeta(3) and sum_{i odd} i^-5 = (31/32) zeta(5) */
 #define SUM_ODD_INV3 1.0517997902646450
 #define SUM_ODD_INV5 1.0045237627951396
-#define MAX_NEWTON 100
+#define MAX_NEWTON   100
 /* Scaled wall-speed and flow residuals left by the Newton iteration on
  * the stresses. The linear solve after it meets the four conditions
  * exactly for the viscosities found, so what is left is a viscosity off
@@ -52,9 +52,9 @@ double ow_melt_shape_fd(double h)
 	if (!(h > 0.0) || !isfinite(h))
 		return NAN;
 	if (h <= 1.0)
-		return 1.0 - 16.0 * h / (OW_PI * OW_PI * OW_PI) *
-				     (SUM_ODD_INV3 -
-				      tanh_deficit(3, OW_PI / (2.0 * h)));
+		return 1.0 -
+		       16.0 * h / (OW_PI * OW_PI * OW_PI) *
+		           (SUM_ODD_INV3 - tanh_deficit(3, OW_PI / (2.0 * h)));
 	return 16.0 / (OW_PI * OW_PI * OW_PI * h) *
 	       (SUM_ODD_INV3 - tanh_deficit(3, OW_PI * h / 2.0));
 }
@@ -66,7 +66,7 @@ double ow_melt_shape_fp(double h)
 	if (!(h > 0.0) || !isfinite(h))
 		return NAN;
 	return 1.0 - 192.0 * h / (OW_PI * OW_PI * OW_PI * OW_PI * OW_PI) *
-			     (SUM_ODD_INV5 - tanh_deficit(5, OW_PI / (2.0 * h)));
+	                 (SUM_ODD_INV5 - tanh_deficit(5, OW_PI / (2.0 * h)));
 }
 
 /* A side wall of the channel (height H) sliding down-channel at V_s drags
@@ -75,7 +75,7 @@ double ow_melt_shape_fp(double h)
  * for the barrel's share). Newtonian flows superpose, so the side wall
  * counts as an extra barrel speed V_s F_d(W/H)/F_d(H/W). */
 double ow_melt_side_drag_speed(double depth_m, double width_m,
-			       double wall_speed_m_s)
+                               double wall_speed_m_s)
 {
 	double h = depth_m / width_m;
 
@@ -87,9 +87,9 @@ double ow_melt_side_drag_speed(double depth_m, double width_m,
 /* 8-point Gauss-Legendre rule on [-1, 1] (Abramowitz & Stegun, Handbook
  * of Mathematical Functions, 1964, table 25.4). */
 static const double gl_x[4] = {0.1834346424956498, 0.5255324099163290,
-			       0.7966664774136267, 0.9602898564975363};
+                               0.7966664774136267, 0.9602898564975363};
 static const double gl_w[4] = {0.3626837833783620, 0.3137066458778873,
-			       0.2223810344533745, 0.1012285362903763};
+                               0.2223810344533745, 0.1012285362903763};
 
 static double spow(double t, double e)
 {
@@ -101,8 +101,8 @@ static double spow(double t, double e)
  * ch. 7, power-law channel flow). Closed forms with F(t) = |t|^(s+1)/(s+1)
  * and Gf(t) = sign(t)|t|^(s+2)/((s+1)(s+2)); Gauss-Legendre for small
  * |lambda| where the closed forms cancel (tau keeps its sign there). */
-static void powerlaw_integrals(double s, double lambda, double t0,
-			       double *wall, double *qhat)
+static void powerlaw_integrals(double s, double lambda, double t0, double *wall,
+                               double *qhat)
 {
 	if (fabs(lambda) >= 0.05) {
 		double t1 = t0 + lambda;
@@ -130,7 +130,7 @@ static void powerlaw_integrals(double s, double lambda, double t0,
  * Klein (1970) ch. 7 in dimensionless form: tau = t0 + lambda xi,
  * u(1) = 1 fixes t0 (monotone: bisection on [min(1, 1-L), max(1, 1-L)]). */
 enum ow_status ow_melt_powerlaw_qhat(double n, double lambda, double *qhat,
-				     double *tau0hat)
+                                     double *tau0hat)
 {
 	double s, lo, hi, wall, q = 0.0;
 	int it;
@@ -161,8 +161,8 @@ enum ow_status ow_melt_powerlaw_qhat(double n, double lambda, double *qhat,
 
 /* q_f = V_bx delta/2 + delta^3 dP_land/(12 mu_f e): drag across the land plus
  * lubrication pressure flow through the gap (Tadmor & Klein 1970, ch. 7). */
-double ow_melt_leak_flux(double vbx, double delta, double dp_land,
-			 double mu_f, double e)
+double ow_melt_leak_flux(double vbx, double delta, double dp_land, double mu_f,
+                         double e)
 {
 	if (!(delta > 0.0))
 		return 0.0;
@@ -182,7 +182,7 @@ double ow_melt_leak_heat(double vb, double delta, double mu_f, double e)
 /* n = 1 + d ln(eta)/d ln(gdot), central difference of width 2e-3 in
  * ln gdot (the shift factor cancels). */
 double ow_melt_local_index(const struct ow_viscosity *v, double gdot,
-			   double temp_K)
+                           double temp_K)
 {
 	const double eps = 1e-3;
 	double at = ow_viscosity_shift(v, temp_K);
@@ -211,8 +211,8 @@ static double vscale(const struct melt_station *st)
 /* The 4x4 linear system F p = rhs for given cell fluidities phi = 1/eta,
  * rows scaled by the velocity scale vs (rows 0, 2) and vs H (rows 1, 3). */
 static void build_linear(const struct ow_melt_ws *ws,
-			 const struct melt_station *st, const double *phi,
-			 double F[4][4], double rhs[4])
+                         const struct melt_station *st, const double *phi,
+                         double F[4][4], double rhs[4])
 {
 	double hh = 1.0 / (double)ws->nc, H = st->H, vs = vscale(st);
 	double s0 = 0.0, s1 = 0.0, t0 = 0.0, t1 = 0.0;
@@ -283,7 +283,7 @@ static int solve4(double A[4][4], double b[4], double x[4])
 }
 
 static int solve_p(const struct ow_melt_ws *ws, const struct melt_station *st,
-		   const double *phi, double p[4])
+                   const double *phi, double p[4])
 {
 	double F[4][4], rhs[4];
 
@@ -310,10 +310,10 @@ static int solve_p(const struct ow_melt_ws *ws, const struct melt_station *st,
  * line search on |C|^2 keeps the cold start safe. */
 
 #define MAX_CELL_NEWTON 100
-#define CELL_TOL 1e-9 /* error in u (ln rate) left by the last step */
-#define CELL_SKIP_TOL 1e-10 /* error in u of a prediction taken as is */
-#define CELL_MAX_STEP 20.0
-#define SERIES_MAX 1e-2 /* |x| below which ln(1+x), e^-x go by series */
+#define CELL_TOL        1e-9  /* error in u (ln rate) left by the last step */
+#define CELL_SKIP_TOL   1e-10 /* error in u of a prediction taken as is */
+#define CELL_MAX_STEP   20.0
+#define SERIES_MAX      1e-2 /* |x| below which ln(1+x), e^-x go by series */
 
 /* ln(1 + x) and e^-x for |x| <= SERIES_MAX: the terms left out are below
  * x^6/6 < 2e-13 and x^6/720 < 2e-15, far below CELL_TOL. */
@@ -325,7 +325,7 @@ static double log1p_small(double x)
 static double expm_small(double x)
 {
 	return 1.0 - x * (1.0 - x * (0.5 - x * (1.0 / 6.0 -
-						  x * (1.0 / 24.0 - x / 120.0))));
+	                                        x * (1.0 / 24.0 - x / 120.0))));
 }
 
 /* h2 = d n / du = d2 ln eta_ref / d(ln gdot)^2 from the slope s = k b sig:
@@ -343,7 +343,7 @@ static double cell_curvature(const struct ow_visc_log *lv, double s)
  * is accepted without evaluating again; not across the kink of the rate
  * clamp. */
 static int cell_solve(const struct ow_visc_log *lv, double tol, double lt,
-		      double *u, double *n, double *h2)
+                      double *u, double *n, double *h2)
 {
 	double x = *u;
 
@@ -373,20 +373,20 @@ static int cell_solve(const struct ow_visc_log *lv, double tol, double lt,
  * derivative, 0.0963 |k b^3|); below CELL_SKIP_TOL that is the answer,
  * else Newton polishes it. */
 static int cell_move(const struct ow_visc_log *lv, double tol,
-		     const struct melt_cells *f, int c, double lt, double *u,
-		     double *n, double *h2)
+                     const struct melt_cells *f, int c, double lt, double *u,
+                     double *n, double *h2)
 {
 	double n0 = f->nloc[c], e = (lt - f->ltau[c]) / n0;
 	double d = e - f->h2[c] / (2.0 * n0) * e * e;
 	double h3 = 0.0963 * fabs(lv->k * lv->b * lv->b * lv->b);
 	double err = (h3 / 6.0 + f->h2[c] * f->h2[c] / (2.0 * n0)) *
-		     fabs(e * e * e) / n0;
+	             fabs(e * e * e) / n0;
 
 	*u = f->lu[c] + d;
 	if (!isfinite(*u)) {
 		*u = lt;
 	} else if (err <= CELL_SKIP_TOL * tol &&
-		   (*u < lv->ln_gmin) == (f->lu[c] < lv->ln_gmin)) {
+	           (*u < lv->ln_gmin) == (f->lu[c] < lv->ln_gmin)) {
 		*n = n0 + f->h2[c] * d;
 		*h2 = f->h2[c];
 		return 0;
@@ -398,8 +398,9 @@ static int cell_move(const struct ow_visc_log *lv, double tol,
  * from, into to (to may be from). ln|tau| and exp(-ln eta) go by series
  * where they change little. -1 for a viscosity not finite. */
 static int cell_viscosities(const struct ow_melt_ws *ws,
-			    const struct melt_station *st, const double p[4],
-			    const struct melt_cells *from, struct melt_cells *to)
+                            const struct melt_station *st, const double p[4],
+                            const struct melt_cells *from,
+                            struct melt_cells *to)
 {
 	const struct ow_visc_log *lv = &st->vlog;
 	double hh = 1.0 / (double)ws->nc;
@@ -412,10 +413,10 @@ static int cell_viscosities(const struct ow_melt_ws *ws,
 
 		if (tau2 > 0.0) {
 			lt = fabs(r) <= SERIES_MAX
-				     ? from->ltau[c] + 0.5 * log1p_small(r)
-				     : 0.5 * log(tau2);
-			if (cell_move(lv, st->tol, from, c, lt, &u, &n,
-				      &h2) != 0)
+			         ? from->ltau[c] + 0.5 * log1p_small(r)
+			         : 0.5 * log(tau2);
+			if (cell_move(lv, st->tol, from, c, lt, &u, &n, &h2) !=
+			    0)
 				return -1;
 		} else { /* no stress: the rate clamp's viscosity */
 			u = lv->ln_gmin;
@@ -428,8 +429,8 @@ static int cell_viscosities(const struct ow_melt_ws *ws,
 			return -1;
 		dL = L - from->lnv[c];
 		to->phi[c] = fabs(dL) <= SERIES_MAX
-				     ? from->phi[c] * expm_small(dL)
-				     : exp(-L);
+		                 ? from->phi[c] * expm_small(dL)
+		                 : exp(-L);
 		to->lu[c] = u;
 		to->ltau[c] = lt;
 		to->tau2[c] = tau2;
@@ -442,8 +443,8 @@ static int cell_viscosities(const struct ow_melt_ws *ws,
 
 /* Scaled condition residuals C = F p - rhs and their squared norm. */
 static double conditions(const struct ow_melt_ws *ws,
-			 const struct melt_station *st, const double *phi,
-			 const double p[4], double C[4])
+                         const struct melt_station *st, const double *phi,
+                         const double p[4], double C[4])
 {
 	double F[4][4], rhs[4], sum = 0.0;
 
@@ -459,8 +460,8 @@ static double conditions(const struct ow_melt_ws *ws,
 
 /* Newton step dp = -J^-1 C, J = F + sum_c (dC/dL_c)(dL_c/dp). */
 static int newton_step(const struct ow_melt_ws *ws,
-		       const struct melt_station *st, const double p[4],
-		       const double C[4], double dp[4])
+                       const struct melt_station *st, const double p[4],
+                       const double C[4], double dp[4])
 {
 	double hh = 1.0 / (double)ws->nc, H = st->H, vs = vscale(st);
 	double J[4][4], r[4];
@@ -472,7 +473,8 @@ static int newton_step(const struct ow_melt_ws *ws,
 		double m = ((double)c + 0.5) * hh, phi = ws->cur.phi[c];
 		double tz = p[0] + p[1] * m, tx = p[2] + p[3] * m;
 		double tau2 = tz * tz + tx * tx, n = ws->cur.nloc[c];
-		double v0 = hh * (1.0 - m), v1 = hh * (m - m * m - hh * hh / 12.0);
+		double v0 = hh * (1.0 - m),
+		       v1 = hh * (m - m * m - hh * hh / 12.0);
 		double E[4], f;
 
 		if (!(tau2 > 0.0))
@@ -495,8 +497,8 @@ static int newton_step(const struct ow_melt_ws *ws,
 /* Backtracking along dp until |C|^2 falls; the accepted point is left in
  * p, ws->cur, C and *merit. */
 static int line_search(struct ow_melt_ws *ws, const struct melt_station *st,
-		       double p[4], const double dp[4], double C[4],
-		       double *merit)
+                       double p[4], const double dp[4], double C[4],
+                       double *merit)
 {
 	double lam = 1.0, pt[4], Ct[4], mt;
 
@@ -593,7 +595,7 @@ static double max_abs4(const double C[4])
  * until the conditions hold to TOL_NEWTON; -1 (residual in *res) when a
  * step finds no descent or MAX_NEWTON steps do not do. */
 static int newton(struct ow_melt_ws *ws, const struct melt_station *st,
-		  int *iterations, double *res)
+                  int *iterations, double *res)
 {
 	double C[4], dp[4], merit;
 	int it;
@@ -611,8 +613,8 @@ static int newton(struct ow_melt_ws *ws, const struct melt_station *st,
 }
 
 enum ow_status ow_melt_solve_velocity(struct ow_melt_ws *ws,
-				      const struct melt_station *st,
-				      int *iterations, struct ow_diag *d)
+                                      const struct melt_station *st,
+                                      int *iterations, struct ow_diag *d)
 {
 	double res = 0.0;
 	int rc;
@@ -628,8 +630,8 @@ enum ow_status ow_melt_solve_velocity(struct ow_melt_ws *ws,
 
 			ws->cur.lnv[c] += dl;
 			ws->cur.phi[c] = fabs(dl) <= SERIES_MAX
-					 ? ws->cur.phi[c] * expm_small(dl)
-					 : exp(-ws->cur.lnv[c]);
+			                     ? ws->cur.phi[c] * expm_small(dl)
+			                     : exp(-ws->cur.lnv[c]);
 		}
 		ws->lat[c] = la;
 	}
@@ -653,8 +655,9 @@ enum ow_status ow_melt_solve_velocity(struct ow_melt_ws *ws,
 	if (rc != 0) {
 		ws->warm = 0;
 		return ow_diag_set(d, OW_ENOCONV,
-				   "melt: velocity profile did not converge "
-				   "(H = %g m, residual %g)", st->H, res);
+		                   "melt: velocity profile did not converge "
+		                   "(H = %g m, residual %g)",
+		                   st->H, res);
 	}
 	memcpy(ws->pcells, ws->p, sizeof ws->p);
 	if (solve_p(ws, st, ws->cur.phi, ws->p) != 0) /* conditions exactly */
@@ -665,14 +668,15 @@ enum ow_status ow_melt_solve_velocity(struct ow_melt_ws *ws,
 bad_visc:
 	ws->warm = 0;
 	return ow_diag_set(d, OW_ECOMPUTE,
-			   "melt: viscosity not finite at the station "
-			   "(temperature %g K)", ws->tc[0]);
+	                   "melt: viscosity not finite at the station "
+	                   "(temperature %g K)",
+	                   ws->tc[0]);
 }
 
 /* ---- exact integrals of the discrete profile -------------------------- */
 
 void ow_melt_seg_integrals(const struct ow_melt_ws *ws, double y0, double y1,
-			   double *q, double *heat)
+                           double *q, double *heat)
 {
 	double hh = 1.0 / (double)ws->nc, H = ws->H, a0 = y0 / H, a1 = y1 / H;
 	const double *p = ws->p;
@@ -693,11 +697,12 @@ void ow_melt_seg_integrals(const struct ow_melt_ws *ws, double y0, double y1,
 		if (!(t1 > t0))
 			continue;
 		*q += H * (ws->uz[c] * d1 +
-			   phi * H * (tz * d2 / 2.0 + p[1] * d3 / 6.0));
-		*heat += H * phi *
-			 (ws->fp * (tz * tz * d1 + tz * p[1] * d2 +
-				    p[1] * p[1] * d3 / 3.0) +
-			  (tx * tx * d1 + tx * p[3] * d2 + p[3] * p[3] * d3 / 3.0));
+		           phi * H * (tz * d2 / 2.0 + p[1] * d3 / 6.0));
+		*heat +=
+		    H * phi *
+		    (ws->fp * (tz * tz * d1 + tz * p[1] * d2 +
+		               p[1] * p[1] * d3 / 3.0) +
+		     (tx * tx * d1 + tx * p[3] * d2 + p[3] * p[3] * d3 / 3.0));
 	}
 }
 
@@ -716,9 +721,9 @@ double ow_melt_psi_ux(const struct ow_melt_ws *ws, double y, double *ux)
 	tx = ws->p[2] + ws->p[3] * yc;
 	if (ux)
 		*ux = ws->ux[c] + phi * H * (tx * t + ws->p[3] * t * t / 2.0);
-	return ws->psi[c] + H * (ws->ux[c] * t +
-				 phi * H * (tx * t * t / 2.0 +
-					    ws->p[3] * t * t * t / 6.0));
+	return ws->psi[c] +
+	       H * (ws->ux[c] * t +
+	            phi * H * (tx * t * t / 2.0 + ws->p[3] * t * t * t / 6.0));
 }
 
 double ow_melt_psi_at(const struct ow_melt_ws *ws, double y)

@@ -37,10 +37,11 @@ static void stream_nodes(struct ow_melt_ws *ws)
 		double phi = ws->cur.phi[c], yc = (double)c * hh;
 		double tx = ws->p[2] + ws->p[3] * yc;
 
-		ws->psi[c + 1] = ws->psi[c] +
-				 H * (ws->ux[c] * hh +
-				      phi * H * (tx * hh * hh / 2.0 +
-						 ws->p[3] * hh * hh * hh / 6.0));
+		ws->psi[c + 1] =
+		    ws->psi[c] +
+		    H * (ws->ux[c] * hh + phi * H *
+		                              (tx * hh * hh / 2.0 +
+		                               ws->p[3] * hh * hh * hh / 6.0));
 	}
 }
 
@@ -110,7 +111,7 @@ static void find_centre(struct ow_melt_ws *ws)
  * A Newton step dt leaves an error of about |F''/(2 F')| dt^2, so the last
  * one is taken without evaluating again. */
 static double level_in(const struct ow_melt_ws *ws, double s, double ya,
-		       double yb, double fa, double fb)
+                       double yb, double fa, double fb)
 {
 	double hh = 1.0 / (double)ws->nc, H = ws->H;
 	/* F = psi - s psi* increases with t where up > 0 */
@@ -177,19 +178,19 @@ double ow_melt_level_depth(const struct ow_melt_ws *ws, double s, int upper)
 			break;
 		if (f >= s)
 			return upper ? level_in(ws, s, y, prev_y, f, prev_f)
-				     : level_in(ws, s, prev_y, y, prev_f, f);
+			             : level_in(ws, s, prev_y, y, prev_f, f);
 		prev_y = y;
 		prev_f = f;
 	}
 	return upper ? level_in(ws, s, ws->ystar, prev_y, 1.0, prev_f)
-		     : level_in(ws, s, prev_y, ws->ystar, prev_f, 1.0);
+	             : level_in(ws, s, prev_y, ws->ystar, prev_f, 1.0);
 }
 
 /* ---- band layout ------------------------------------------------------ */
 
-/* Levels s_k = cos^2(pi k / (2K)) (ws->level): legs of even thickness both where psi is
- * quadratic (at y* and at a no-slip root) and finer at the barrel, where
- * most heat crosses. */
+/* Levels s_k = cos^2(pi k / (2K)) (ws->level): legs of even thickness both
+ * where psi is quadratic (at y* and at a no-slip root) and finer at the barrel,
+ * where most heat crosses. */
 static void layout_circulating(struct ow_melt_ws *ws)
 {
 	int K = ws->nb;
@@ -266,14 +267,14 @@ static void conductances(struct ow_melt_ws *ws, const struct ow_melt_cond *c)
 	if (ws->circ) {
 		const double *lg = ws->legs + 4 * (K - 1);
 
-		ws->gb[K - 1] = with_wall(
-			k / fmax(ws->H - 0.5 * (lg[2] + lg[3]), dmin),
-			c->wall_h_W_m2K);
+		ws->gb[K - 1] =
+		    with_wall(k / fmax(ws->H - 0.5 * (lg[2] + lg[3]), dmin),
+		              c->wall_h_W_m2K);
 		if (!c->root_adiabatic)
 			ws->gr[K - 1] = k / fmax(0.5 * (lg[0] + lg[1]), dmin);
 	} else {
-		ws->gb[K - 1] = with_wall(k / fmax(0.5 * ws->H / (double)K,
-						   dmin), c->wall_h_W_m2K);
+		ws->gb[K - 1] = with_wall(
+		    k / fmax(0.5 * ws->H / (double)K, dmin), c->wall_h_W_m2K);
 		if (!c->root_adiabatic)
 			ws->gr[0] = k / fmax(0.5 * ws->H / (double)K, dmin);
 	}
@@ -295,8 +296,8 @@ static double cell_mean(const struct ow_melt_ws *ws, double y0, double y1)
 	}
 	if (len > 0.0)
 		return sum / len;
-	return ws->tc[(int)fmin((double)(ws->nc - 1),
-				floor(0.5 * (y0 + y1) / hh))];
+	return ws
+	    ->tc[(int)fmin((double)(ws->nc - 1), floor(0.5 * (y0 + y1) / hh))];
 }
 
 /* Length-weighted mean of the cell temperatures over a band's legs. */
@@ -307,7 +308,8 @@ static double band_mean(const struct ow_melt_ws *ws, const double *lg)
 	if (!(l0 + l1 > 0.0))
 		return cell_mean(ws, lg[0], lg[1]);
 	return (l0 * cell_mean(ws, lg[0], lg[1]) +
-		l1 * cell_mean(ws, lg[2], lg[3])) / (l0 + l1);
+	        l1 * cell_mean(ws, lg[2], lg[3])) /
+	       (l0 + l1);
 }
 
 /* Band and node maps from the segments. */
@@ -332,7 +334,7 @@ static void map_cells(struct ow_melt_ws *ws)
 }
 
 void ow_melt_build_bands(struct ow_melt_ws *ws, const struct melt_station *st,
-			 const struct ow_melt_cond *c)
+                         const struct ow_melt_cond *c)
 {
 	double scale = (fabs(st->vz) + fabs(st->vx)) * st->H;
 	int was_circ = ws->circ, K = ws->nb;
@@ -362,7 +364,7 @@ void ow_melt_build_bands(struct ow_melt_ws *ws, const struct melt_station *st,
 	{
 		double G = ws->p[1] / st->H;
 		double ql = st->ql0 + (st->lz * ws->p[1] + st->lx * ws->p[3]) *
-					      st->W * st->fp;
+		                          st->W * st->fp;
 
 		ws->dk[K - 1] += (st->leak_heat + G * ql) / st->W;
 	}
@@ -376,8 +378,8 @@ void ow_melt_build_bands(struct ow_melt_ws *ws, const struct melt_station *st,
 void ow_melt_cell_temps(struct ow_melt_ws *ws)
 {
 	for (int c = 0; c < ws->nc; c++)
-		ws->tc[c] = ws->have_profile ? ws->t[ws->cell_band[c]]
-					     : ws->bulk;
+		ws->tc[c] =
+		    ws->have_profile ? ws->t[ws->cell_band[c]] : ws->bulk;
 }
 
 /* Band flow weights: the channel's band flows scaled to carry the net flow
@@ -410,7 +412,7 @@ static int weights(struct ow_melt_ws *ws, double qnet_per_w)
  * station's weights equals the bulk temperature carried from the last
  * station: enthalpy flux is conserved exactly when the band flows change. */
 int ow_melt_advance(struct ow_melt_ws *ws, const struct melt_station *st,
-		    const struct ow_melt_cond *c, double dz_m)
+                    const struct ow_melt_cond *c, double dz_m)
 {
 	const struct ow_material *m = c->mat;
 	double rc = m->melt_density_kg_m3 * m->melt_cp_J_kgK / dz_m;
@@ -426,7 +428,8 @@ int ow_melt_advance(struct ow_melt_ws *ws, const struct melt_station *st,
 		double a = rc * ws->w[b];
 		double diag = a + lo + up + ws->gb[b] + ws->gr[b];
 		double rhs = a * (ws->t[b] + ws->bulk - mean) +
-			     ws->gb[b] * c->barrel_K + ws->gr[b] * tr + ws->dk[b];
+		             ws->gb[b] * c->barrel_K + ws->gr[b] * tr +
+		             ws->dk[b];
 
 		/* forward sweep: row b is -lo T[b-1] + diag T[b] - up T[b+1] */
 		if (b > 0) {
@@ -448,8 +451,8 @@ int ow_melt_advance(struct ow_melt_ws *ws, const struct melt_station *st,
 }
 
 void ow_melt_wall_heat(const struct ow_melt_ws *ws,
-		       const struct ow_melt_cond *c, double *barrel_W_m,
-		       double *root_W_m)
+                       const struct ow_melt_cond *c, double *barrel_W_m,
+                       double *root_W_m)
 {
 	double qb = 0.0, qr = 0.0;
 
@@ -466,9 +469,9 @@ void ow_melt_wall_heat(const struct ow_melt_ws *ws,
  * layers), heat spread in proportion to the band flows, conductances for
  * this wall, and the implicit step of ow_melt_advance. */
 enum ow_status ow_melt_mixer_step(struct ow_melt_ws *ws,
-				  const struct ow_melt_cond *c, double dz_m,
-				  double heat_W_m, struct ow_melt_out *out,
-				  struct ow_diag *d)
+                                  const struct ow_melt_cond *c, double dz_m,
+                                  double heat_W_m, struct ow_melt_out *out,
+                                  struct ow_diag *d)
 {
 	struct melt_station st;
 	double sum = 0.0;
@@ -477,8 +480,9 @@ enum ow_status ow_melt_mixer_step(struct ow_melt_ws *ws,
 	if (!c || !c->mat || !(c->width_m > 0.0) || !(dz_m > 0.0) ||
 	    !(c->vol_flow_m3_s > 0.0) || !isfinite(heat_W_m) ||
 	    !(c->barrel_K > 0.0))
-		return ow_diag_set(d, OW_EARG, "melt: mixer step needs a "
-				   "resin, width, flow, wall and dz > 0");
+		return ow_diag_set(d, OW_EARG,
+		                   "melt: mixer step needs a "
+		                   "resin, width, flow, wall and dz > 0");
 	memset(&st, 0, sizeof st);
 	st.W = c->width_m;
 	if (!ws->have_profile) {
@@ -494,9 +498,9 @@ enum ow_status ow_melt_mixer_step(struct ow_melt_ws *ws,
 	for (int b = 0; b < K; b++)
 		sum += fmax(ws->w[b], 0.0);
 	for (int b = 0; b < K; b++)
-		ws->dk[b] = sum > 0.0 ? heat_W_m / st.W * fmax(ws->w[b], 0.0) /
-					       sum
-				      : heat_W_m / st.W / (double)K;
+		ws->dk[b] = sum > 0.0
+		                ? heat_W_m / st.W * fmax(ws->w[b], 0.0) / sum
+		                : heat_W_m / st.W / (double)K;
 	memset(out, 0, sizeof *out);
 	out->q_floor_used = ow_melt_advance(ws, &st, c, dz_m);
 	ow_melt_wall_heat(ws, c, &out->barrel_heat_W_m, &out->root_heat_W_m);

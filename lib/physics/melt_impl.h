@@ -11,19 +11,19 @@
 struct melt_station {
 	const struct ow_material *mat;
 	struct ow_visc_log vlog; /* the resin's viscosity in log form */
-	double H;      /* depth, m */
-	double W;      /* width, m */
-	double fd, fp; /* shape factors */
-	double vz, vx; /* effective barrel speeds V_bz F_d/F_p and V_bx */
-	double qz;     /* imposed down-channel flow per unit width without the
-			  gradient-driven leakage, (Q + Q_L0)/(W F_p), m^2/s */
-	double lz, lx; /* leakage per unit width per Pa of beta_z, beta_x
-			  (beta = gradient * H), m^2/(s Pa) */
-	double ql0;    /* leak flow at zero gradients (drag part), m^3/s */
-	double leak_byp;   /* bypass length, m */
-	double leak_coef;  /* delta^3/(12 mu_f e), m^3/(Pa s) per m of flight */
-	double leak_heat;  /* clearance drag heating per unit length, W/m */
-	double tol;        /* tolerance scale (ow_melt_tolerance) */
+	double H;                /* depth, m */
+	double W;                /* width, m */
+	double fd, fp;           /* shape factors */
+	double vz, vx;   /* effective barrel speeds V_bz F_d/F_p and V_bx */
+	double qz;       /* imposed down-channel flow per unit width without the
+	                    gradient-driven leakage, (Q + Q_L0)/(W F_p), m^2/s */
+	double lz, lx;   /* leakage per unit width per Pa of beta_z, beta_x
+	                    (beta = gradient * H), m^2/(s Pa) */
+	double ql0;      /* leak flow at zero gradients (drag part), m^3/s */
+	double leak_byp; /* bypass length, m */
+	double leak_coef; /* delta^3/(12 mu_f e), m^3/(Pa s) per m of flight */
+	double leak_heat; /* clearance drag heating per unit length, W/m */
+	double tol;       /* tolerance scale (ow_melt_tolerance) */
 };
 
 /* The viscosity of every cell for one set of stresses; the line search
@@ -39,13 +39,13 @@ struct melt_cells {
 };
 
 struct ow_melt_ws {
-	int nn, nc, nb;  /* nodes, cells (nn - 1), bands */
+	int nn, nc, nb; /* nodes, cells (nn - 1), bands */
 	/* per cell */
 	struct melt_cells cur, trial; /* accepted and trial solutions */
 	double *cell_mem; /* the allocation behind the per-cell arrays */
-	double *tc;      /* cell temperature, K */
-	double *lat;     /* ln of the shift factor at tc */
-	int *cell_band;  /* band holding the cell's midpoint */
+	double *tc;       /* cell temperature, K */
+	double *lat;      /* ln of the shift factor at tc */
+	int *cell_band;   /* band holding the cell's midpoint */
 	/* per node */
 	double *y, *uz, *ux, *gd, *dis, *eta, *tn, *psi;
 	/* per band */
@@ -62,29 +62,29 @@ struct ow_melt_ws {
 	int *seg_band;
 	int nseg;
 	/* solution of the last station */
-	double p[4];     /* a_z, beta_z, a_x, beta_x: tau = a + beta y/H, Pa */
+	double p[4];      /* a_z, beta_z, a_x, beta_x: tau = a + beta y/H, Pa */
 	double pcells[4]; /* the last Newton iterate, which cur belongs to */
 	double H, fp;
 	double ystar, psistar;
-	int circ;        /* band layout: 1 streamline pairs, 0 layers */
+	int circ; /* band layout: 1 streamline pairs, 0 layers */
 	int have_profile;
-	int warm;        /* cur holds a previous solution */
-	double bulk;     /* flow-weighted band mean, K */
+	int warm;                        /* cur holds a previous solution */
+	double bulk;                     /* flow-weighted band mean, K */
 	double hcache, fdcache, fpcache; /* last shape factors */
-	double tol;      /* tolerance scale, 1 by default */
+	double tol;                      /* tolerance scale, 1 by default */
 };
 
 /* melt_flow.c: Newton solve of the viscosity and stress parameters at one
  * station; fills ws->cur, ws->p and the node profiles. */
 enum ow_status ow_melt_solve_velocity(struct ow_melt_ws *ws,
-				      const struct melt_station *st,
-				      int *iterations, struct ow_diag *d);
+                                      const struct melt_station *st,
+                                      int *iterations, struct ow_diag *d);
 
 /* melt_flow.c: exact integrals over [y0, y1] (m) of the last profile:
  * down-channel flow per unit width (m^2/s) and heating per unit width
  * F_p tau_z u_z' + tau_x u_x' (W/m^2). */
 void ow_melt_seg_integrals(const struct ow_melt_ws *ws, double y0, double y1,
-			   double *q, double *heat);
+                           double *q, double *heat);
 
 /* melt_flow.c: stream function of the cross-channel flow at y (m), m^2/s,
  * and the cross-channel velocity there. */
@@ -94,19 +94,19 @@ double ow_melt_psi_ux(const struct ow_melt_ws *ws, double y, double *ux);
 /* melt_heat.c: band layout from the last profile, band flows and heating,
  * conductances; cell temperatures for the next station. */
 void ow_melt_build_bands(struct ow_melt_ws *ws, const struct melt_station *st,
-			 const struct ow_melt_cond *c);
+                         const struct ow_melt_cond *c);
 
 /* melt_heat.c: implicit step of the band temperatures over dz (> 0) for a
  * net flow q_net > 0 (m^3/s); returns whether a band flow was floored. */
 int ow_melt_advance(struct ow_melt_ws *ws, const struct melt_station *st,
-		    const struct ow_melt_cond *c, double dz_m);
+                    const struct ow_melt_cond *c, double dz_m);
 
 /* melt_heat.c: cell temperatures from the band map, and barrel/root heat
  * (W/m) with the current band temperatures. */
 void ow_melt_cell_temps(struct ow_melt_ws *ws);
 void ow_melt_wall_heat(const struct ow_melt_ws *ws,
-		       const struct ow_melt_cond *c, double *barrel_W_m,
-		       double *root_W_m);
+                       const struct ow_melt_cond *c, double *barrel_W_m,
+                       double *root_W_m);
 
 /* melt_heat.c: first depth, walking from the root (upper = 0) or the
  * barrel (upper = 1) toward y*, where psi/psi* reaches s in [0, 1]. */

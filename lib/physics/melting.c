@@ -8,14 +8,14 @@
 #include <stddef.h>
 #include <string.h>
 
-#define FILM_TOL 1e-12    /* on ln(delta): the film iteration's stop rule */
+#define FILM_TOL   1e-12 /* on ln(delta): the film iteration's stop rule */
 #define FILM_MAXIT 60
-#define BED_MIN_M 1e-12   /* floor on X for the film's shear rate only */
-#define PLUG_TOL 1e-12    /* relative overshoot of W counted as plugging */
+#define BED_MIN_M  1e-12 /* floor on X for the film's shear rate only */
+#define PLUG_TOL   1e-12 /* relative overshoot of W counted as plugging */
 #define ROOT_MAXIT 80
 
 double ow_melting_bed_speed(const struct ow_material *m, double g_kg_s,
-			    double depth_m, double width_m)
+                            double depth_m, double width_m)
 {
 	double v;
 
@@ -31,30 +31,35 @@ static int positive(double x)
 }
 
 static enum ow_status check_resin(const struct ow_material *m,
-				  struct ow_diag *d)
+                                  struct ow_diag *d)
 {
 	if (!positive(m->solid_density_kg_m3) ||
 	    !positive(m->melt_density_kg_m3))
-		return ow_diag_set(d, OW_EINPUT, "melting: solid_density %g "
-				   "and melt_density %g kg/m3 must be > 0",
-				   m->solid_density_kg_m3,
-				   m->melt_density_kg_m3);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "melting: solid_density %g "
+		                   "and melt_density %g kg/m3 must be > 0",
+		                   m->solid_density_kg_m3,
+		                   m->melt_density_kg_m3);
 	if (!positive(m->melt_k_W_mK))
-		return ow_diag_set(d, OW_EINPUT, "melting: melt_conductivity "
-				   "%g W/(m K) must be > 0", m->melt_k_W_mK);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "melting: melt_conductivity "
+		                   "%g W/(m K) must be > 0",
+		                   m->melt_k_W_mK);
 	if (!(isfinite(m->solid_cp_J_kgK) && m->solid_cp_J_kgK >= 0.0 &&
 	      isfinite(m->fusion_J_kg) && m->fusion_J_kg >= 0.0 &&
 	      isfinite(m->melt_temp_K)))
-		return ow_diag_set(d, OW_EINPUT, "melting: solid_heat_capacity"
-				   " %g J/(kg K), heat_of_fusion %g J/kg and "
-				   "melting_point %g K must be finite and "
-				   ">= 0", m->solid_cp_J_kgK, m->fusion_J_kg,
-				   m->melt_temp_K);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "melting: solid_heat_capacity"
+		                   " %g J/(kg K), heat_of_fusion %g J/kg and "
+		                   "melting_point %g K must be finite and "
+		                   ">= 0",
+		                   m->solid_cp_J_kgK, m->fusion_J_kg,
+		                   m->melt_temp_K);
 	return OW_OK;
 }
 
 enum ow_status ow_melting_validate(const struct ow_melting_in *in,
-				   struct ow_diag *d)
+                                   struct ow_diag *d)
 {
 	const struct ow_material *m = in->mat;
 	enum ow_status st;
@@ -65,48 +70,55 @@ enum ow_status ow_melting_validate(const struct ow_melting_in *in,
 	if (st != OW_OK)
 		return st;
 	if (!positive(in->barrel_speed_m_s) || !positive(in->bed_speed_m_s))
-		return ow_diag_set(d, OW_EINPUT, "melting: barrel speed %g and"
-				   " bed speed %g m/s must be > 0",
-				   in->barrel_speed_m_s, in->bed_speed_m_s);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "melting: barrel speed %g and"
+		                   " bed speed %g m/s must be > 0",
+		                   in->barrel_speed_m_s, in->bed_speed_m_s);
 	if (!(in->helix_rad > 0.0 && in->helix_rad < 1.5707963267948966))
-		return ow_diag_set(d, OW_EINPUT, "melting: helix angle %g rad "
-				   "must lie in 0..pi/2", in->helix_rad);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "melting: helix angle %g rad "
+		                   "must lie in 0..pi/2",
+		                   in->helix_rad);
 	if (!(in->solid_temp_K <= m->melt_temp_K) ||
 	    !(m->solid_cp_J_kgK * (m->melt_temp_K - in->solid_temp_K) +
-	      m->fusion_J_kg > 0.0))
-		return ow_diag_set(d, OW_EINPUT, "melting: solid bed at %g K "
-				   "must not be above the melting point %g K "
-				   "and must need heat to melt",
-				   in->solid_temp_K, m->melt_temp_K);
+	          m->fusion_J_kg >
+	      0.0))
+		return ow_diag_set(d, OW_EINPUT,
+		                   "melting: solid bed at %g K "
+		                   "must not be above the melting point %g K "
+		                   "and must need heat to melt",
+		                   in->solid_temp_K, m->melt_temp_K);
 	if (!(isfinite(in->film_visc_Pa_s) && in->film_visc_Pa_s >= 0.0))
-		return ow_diag_set(d, OW_EINPUT, "melting: fixed film "
-				   "viscosity %g Pa s must be >= 0 (0: use the "
-				   "resin's model)", in->film_visc_Pa_s);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "melting: fixed film "
+		                   "viscosity %g Pa s must be >= 0 (0: use the "
+		                   "resin's model)",
+		                   in->film_visc_Pa_s);
 	return OW_OK;
 }
 
 /* Quantities fixed by *in alone: shared by every film of one step. */
 struct film_base {
 	const struct ow_melting_in *in;
-	double vj, vbx;   /* barrel speed relative to the bed; cross-channel */
-	double heat;      /* C_s (T_m - T_s) + lambda, J/kg */
-	double ln_vj;     /* log path only: ln V_j */
-	double ln_den;    /* log path only: ln(V_bx rho_m heat) */
+	double vj, vbx; /* barrel speed relative to the bed; cross-channel */
+	double heat;    /* C_s (T_m - T_s) + lambda, J/kg */
+	double ln_vj;   /* log path only: ln V_j */
+	double ln_den;  /* log path only: ln(V_bx rho_m heat) */
 };
 
 /* Quantities of one film evaluation that do not depend on mu. */
 struct film_ctx {
 	const struct ow_melting_in *in;
-	double vj, vbx;   /* barrel speed relative to the bed; cross-channel */
-	double dt;        /* T_b - T_m */
-	double tf;        /* film mean temperature (T_b + T_m)/2 */
-	double heat;      /* C_s (T_m - T_s) + lambda, J/kg */
-	double x;         /* bed width for the shear rate (floored) */
+	double vj, vbx; /* barrel speed relative to the bed; cross-channel */
+	double dt;      /* T_b - T_m */
+	double tf;      /* film mean temperature (T_b + T_m)/2 */
+	double heat;    /* C_s (T_m - T_s) + lambda, J/kg */
+	double x;       /* bed width for the shear rate (floored) */
 	/* log path only (in->visc_log set) */
-	double ln_at;     /* ln aT at tf: one shift per film, not per pass */
-	double ln_gv;     /* ln(aT V_j): ln of the shifted rate is ln_gv - u */
-	double cond;      /* 2 k (T_b - T_m) */
-	double ln_c;      /* ln(X / (V_bx rho_m heat)) */
+	double ln_at; /* ln aT at tf: one shift per film, not per pass */
+	double ln_gv; /* ln(aT V_j): ln of the shifted rate is ln_gv - u */
+	double cond;  /* 2 k (T_b - T_m) */
+	double ln_c;  /* ln(X / (V_bx rho_m heat)) */
 };
 
 static double slip_speed(const struct ow_melting_in *in)
@@ -116,8 +128,7 @@ static double slip_speed(const struct ow_melting_in *in)
 	return sqrt(vb * vb + vs * vs - 2.0 * vb * vs * cos(in->helix_rad));
 }
 
-static void film_base_init(const struct ow_melting_in *in,
-			   struct film_base *b)
+static void film_base_init(const struct ow_melting_in *in, struct film_base *b)
 {
 	const struct ow_material *m = in->mat;
 
@@ -125,7 +136,7 @@ static void film_base_init(const struct ow_melting_in *in,
 	b->vj = slip_speed(in);
 	b->vbx = in->barrel_speed_m_s * sin(in->helix_rad);
 	b->heat = m->solid_cp_J_kgK * (m->melt_temp_K - in->solid_temp_K) +
-		  m->fusion_J_kg;
+	          m->fusion_J_kg;
 	b->ln_vj = b->ln_den = 0.0;
 	if (in->visc_log && in->film_visc_Pa_s <= 0.0) {
 		b->ln_vj = log(b->vj);
@@ -142,9 +153,8 @@ static double film_map(const struct film_ctx *c, double u, double *mu)
 	double gdot = c->vj / exp(u);
 
 	*mu = ow_viscosity_eval(&m->visc, gdot, c->tf);
-	return 0.5 * log((2.0 * m->melt_k_W_mK * c->dt +
-			  *mu * c->vj * c->vj) * c->x /
-			 (c->vbx * m->melt_density_kg_m3 * c->heat));
+	return 0.5 * log((2.0 * m->melt_k_W_mK * c->dt + *mu * c->vj * c->vj) *
+	                 c->x / (c->vbx * m->melt_density_kg_m3 * c->heat));
 }
 
 /* The same map in log space: ln mu = ln aT + ln eta_ref(ln aT + ln V_j - u)
@@ -153,12 +163,12 @@ static double film_map(const struct film_ctx *c, double u, double *mu)
  * one log. *dg gets the map's slope d(film_map)/du = (mu V_j^2 / (2 s))
  * (-d ln eta / d ln gdot), s = 2 k dT + mu V_j^2, for Newton's method. */
 static double film_map_log(const struct film_ctx *c, double u, double *mu,
-			   double *dg)
+                           double *dg)
 {
 	double slope, q, s;
 
-	*mu = exp(c->ln_at + ow_viscosity_log_ref(c->in->visc_log,
-						  c->ln_gv - u, &slope));
+	*mu = exp(c->ln_at +
+	          ow_viscosity_log_ref(c->in->visc_log, c->ln_gv - u, &slope));
 	q = *mu * c->vj * c->vj;
 	s = c->cond + q;
 	*dg = -0.5 * slope * q / s;
@@ -166,12 +176,13 @@ static double film_map_log(const struct film_ctx *c, double u, double *mu,
 }
 
 static enum ow_status film_noconv(const struct film_ctx *c, double mu,
-				  struct ow_diag *d)
+                                  struct ow_diag *d)
 {
-	return ow_diag_set(d, OW_ENOCONV, "melting: film thickness and "
-			   "viscosity did not converge (T_b = %g K, X = %g m, "
-			   "mu = %g Pa s)", c->tf * 2.0 - c->in->mat->melt_temp_K,
-			   c->x, mu);
+	return ow_diag_set(d, OW_ENOCONV,
+	                   "melting: film thickness and "
+	                   "viscosity did not converge (T_b = %g K, X = %g m, "
+	                   "mu = %g Pa s)",
+	                   c->tf * 2.0 - c->in->mat->melt_temp_K, c->x, mu);
 }
 
 /* Film viscosity from the resin's model at gdot = V_j/delta and the film
@@ -180,7 +191,7 @@ static enum ow_status film_noconv(const struct film_ctx *c, double mu,
  * whose slope lies in [0, (1-n)/2], so the secant method on
  * F(u) = film_map(u) - u converges fast and safely. */
 static enum ow_status film_visc(const struct film_ctx *c, double *mu,
-				struct ow_diag *d)
+                                struct ow_diag *d)
 {
 	double u0 = log(1e-4), u1, f0, f1, u2;
 	int it;
@@ -207,7 +218,7 @@ static enum ow_status film_visc(const struct film_ctx *c, double *mu,
  * start (a neighbouring film's ln delta) and gets the converged value; the
  * stop rule is film_visc's, so both paths give the same film to round-off. */
 static enum ow_status film_visc_log(const struct film_ctx *c, double *u,
-				    double *mu, struct ow_diag *d)
+                                    double *mu, struct ow_diag *d)
 {
 	double f, dg;
 	int it;
@@ -229,25 +240,24 @@ static enum ow_status film_visc_log(const struct film_ctx *c, double *u,
  * + lambda]) (Tadmor 1966; Tadmor & Klein 1970, ch. 9). Film terms use
  * X/delta = sqrt(X)/delta_hat, finite as X -> 0. */
 static void film_fill(const struct film_ctx *c, double mu, double x,
-		      struct ow_melting_film *f)
+                      struct ow_melting_film *f)
 {
 	const struct ow_material *m = c->in->mat;
 	double k = m->melt_k_W_mK, vj2 = c->vj * c->vj;
 	double dhat = sqrt((2.0 * k * c->dt + mu * vj2) /
-			   (c->vbx * m->melt_density_kg_m3 * c->heat));
+	                   (c->vbx * m->melt_density_kg_m3 * c->heat));
 	double xd = sqrt(x) / dhat, vb = c->in->barrel_speed_m_s;
 
 	f->visc_Pa_s = mu;
 	f->film_m = dhat * sqrt(x);
 	f->phi = c->vbx * m->melt_density_kg_m3 * dhat / 2.0;
 	f->melt_rate_kg_sm = f->phi * sqrt(x);
-	f->peak_temp_K = ow_melting_film_peak(m->melt_temp_K,
-					      m->melt_temp_K + c->dt, mu,
-					      c->vj, k);
+	f->peak_temp_K = ow_melting_film_peak(
+	    m->melt_temp_K, m->melt_temp_K + c->dt, mu, c->vj, k);
 	f->barrel_heat_W_m = xd * (k * c->dt - mu * vj2 / 2.0);
 	f->dissipation_W_m = xd * mu * vj2;
-	f->drive_power_W_m = xd * mu * vb *
-			     (vb - c->in->bed_speed_m_s * cos(c->in->helix_rad));
+	f->drive_power_W_m =
+	    xd * mu * vb * (vb - c->in->bed_speed_m_s * cos(c->in->helix_rad));
 	f->bed_heat_W_m = xd * (k * c->dt + mu * vj2 / 2.0);
 }
 
@@ -258,10 +268,9 @@ static void film_fill(const struct film_ctx *c, double mu, double x,
 /* ow_melting_film without the validation, for inputs already checked; *u
  * (log path only, may be NULL) is the start of the iteration and gets the
  * converged ln delta. */
-static enum ow_status film_at(const struct film_base *fb,
-			      double barrel_temp_K, double bed_width_m,
-			      double *u, struct ow_melting_film *f,
-			      struct ow_diag *d)
+static enum ow_status film_at(const struct film_base *fb, double barrel_temp_K,
+                              double bed_width_m, double *u,
+                              struct ow_melting_film *f, struct ow_diag *d)
 {
 	const struct ow_melting_in *in = fb->in;
 	const struct ow_material *m = in->mat;
@@ -281,11 +290,14 @@ static enum ow_status film_at(const struct film_base *fb,
 	f->slip_speed_m_s = c.vj;
 	f->peak_temp_K = m->melt_temp_K;
 	if (!isfinite(barrel_temp_K) || !(bed_width_m >= 0.0))
-		return ow_diag_set(d, OW_EARG, "melting: barrel temperature "
-				   "%g K and bed width %g m must be finite and "
-				   "the width >= 0", barrel_temp_K, bed_width_m);
+		return ow_diag_set(d, OW_EARG,
+		                   "melting: barrel temperature "
+		                   "%g K and bed width %g m must be finite and "
+		                   "the width >= 0",
+		                   barrel_temp_K, bed_width_m);
 	if (c.dt <= 0.0)
-		return OW_OK; /* no conduction-fed film: the bed does not melt */
+		return OW_OK; /* no conduction-fed film: the bed does not melt
+		               */
 	if (mu <= 0.0 && in->visc_log) {
 		c.ln_at = ow_viscosity_log_shift(&m->visc, c.tf);
 		c.ln_gv = c.ln_at + fb->ln_vj;
@@ -308,8 +320,8 @@ static enum ow_status film_at(const struct film_base *fb,
 }
 
 enum ow_status ow_melting_film(const struct ow_melting_in *in,
-			       double barrel_temp_K, double bed_width_m,
-			       struct ow_melting_film *f, struct ow_diag *d)
+                               double barrel_temp_K, double bed_width_m,
+                               struct ow_melting_film *f, struct ow_diag *d)
 {
 	struct film_base fb;
 	enum ow_status st = ow_melting_validate(in, d);
@@ -325,7 +337,7 @@ enum ow_status ow_melting_film(const struct ow_melting_in *in,
  * dT/dxi = 0 at xi* = (1 + dT/B)/2; inside the film the peak is
  * T_m + (B + dT)^2/(4B), otherwise the hotter wall. */
 double ow_melting_film_peak(double bed_temp_K, double barrel_temp_K,
-			    double visc_Pa_s, double speed_m_s, double k_W_mK)
+                            double visc_Pa_s, double speed_m_s, double k_W_mK)
 {
 	double dt = barrel_temp_K - bed_temp_K;
 	double b = visc_Pa_s * speed_m_s * speed_m_s / (2.0 * k_W_mK);
@@ -340,11 +352,11 @@ struct step_ctx {
 	const struct ow_melting_in *in;
 	const struct ow_melting_station *a, *b;
 	double dz;
-	double flux;     /* rho_s V_sz, kg/(m^2 s) */
+	double flux; /* rho_s V_sz, kg/(m^2 s) */
 	struct ow_diag *d;
 	enum ow_status st; /* first failure inside a right-hand side */
 	struct film_base fb;
-	double u;          /* ln delta of the last film: the next one's start */
+	double u; /* ln delta of the last film: the next one's start */
 };
 
 static double lerp(double ya, double yb, double t, double dz)
@@ -357,7 +369,7 @@ static double lerp(double ya, double yb, double t, double dz)
  *   ds/dz = -Phi / (2 H rho_s V_sz) - (dH/dz) s / (2 H).
  * Phi may depend on X through the film viscosity; X = s^2. */
 static double bed_rhs(struct step_ctx *c, double t, double s,
-		      struct ow_melting_film *f)
+                      struct ow_melting_film *f)
 {
 	struct ow_melting_film tmp;
 	double h = lerp(c->a->depth_m, c->b->depth_m, t, c->dz);
@@ -413,7 +425,7 @@ static double vanish_at(struct step_ctx *c, double s0, double k1, double s1)
 }
 
 static void add_film(struct ow_melting_step_out *o,
-		     const struct ow_melting_film *f, double w)
+                     const struct ow_melting_film *f, double w)
 {
 	o->barrel_heat_W += w * f->barrel_heat_W_m;
 	o->dissipation_W += w * f->dissipation_W_m;
@@ -424,8 +436,8 @@ static void add_film(struct ow_melting_step_out *o,
 /* Simpson's rule for the film terms over [0, te]; the midpoint bed from the
  * cubic Hermite interpolant through (0, s0, k1) and (te, se, fe). */
 static void integrate_film(struct step_ctx *c, double s0, double k1,
-			   const struct ow_melting_film *f0, double te,
-			   double se, double fe, struct ow_melting_step_out *o)
+                           const struct ow_melting_film *f0, double te,
+                           double se, double fe, struct ow_melting_step_out *o)
 {
 	struct ow_melting_film fm;
 	double sm = 0.5 * (s0 + se) + te * (k1 - fe) / 8.0;
@@ -440,27 +452,29 @@ static void integrate_film(struct step_ctx *c, double s0, double k1,
 }
 
 static enum ow_status step_args(const struct ow_melting_station *a,
-				const struct ow_melting_station *b,
-				double dz, double x, struct ow_diag *d)
+                                const struct ow_melting_station *b, double dz,
+                                double x, struct ow_diag *d)
 {
 	if (!positive(dz) || !(isfinite(x) && x >= 0.0))
-		return ow_diag_set(d, OW_EARG, "melting: step %g m must be > 0"
-				   " and bed width %g m >= 0", dz, x);
+		return ow_diag_set(d, OW_EARG,
+		                   "melting: step %g m must be > 0"
+		                   " and bed width %g m >= 0",
+		                   dz, x);
 	if (!positive(a->depth_m) || !positive(b->depth_m) ||
 	    !positive(a->width_m) || !positive(b->width_m))
-		return ow_diag_set(d, OW_EARG, "melting: channel depth "
-				   "%g..%g m and width %g..%g m must be > 0",
-				   a->depth_m, b->depth_m, a->width_m,
-				   b->width_m);
+		return ow_diag_set(d, OW_EARG,
+		                   "melting: channel depth "
+		                   "%g..%g m and width %g..%g m must be > 0",
+		                   a->depth_m, b->depth_m, a->width_m,
+		                   b->width_m);
 	return OW_OK;
 }
 
 enum ow_status ow_melting_step(const struct ow_melting_in *in,
-			       const struct ow_melting_station *a,
-			       const struct ow_melting_station *b, double dz_m,
-			       double bed_width_m,
-			       struct ow_melting_step_out *o,
-			       struct ow_diag *d)
+                               const struct ow_melting_station *a,
+                               const struct ow_melting_station *b, double dz_m,
+                               double bed_width_m,
+                               struct ow_melting_step_out *o, struct ow_diag *d)
 {
 	struct step_ctx c = {in, a, b, dz_m, 0.0, d, OW_OK, {0}, FILM_U0};
 	struct ow_melting_film f0;
@@ -506,14 +520,14 @@ enum ow_status ow_melting_step(const struct ow_melting_in *in,
 	o->sbr = xe / b->width_m;
 	o->solid_flow_kg_s = c.flux * b->depth_m * xe;
 	o->melted_kg_s = c.flux * (a->depth_m * x0 -
-				   lerp(a->depth_m, b->depth_m, te, dz_m) * xe);
+	                           lerp(a->depth_m, b->depth_m, te, dz_m) * xe);
 	return c.st;
 }
 
 /* Closed forms, Tadmor & Klein (1970) ch. 9, for constant Phi and V_sz. */
 double ow_melting_psi_const(double phi, double rho_s_kg_m3,
-			    double bed_speed_m_s, double depth_m,
-			    double width_m)
+                            double bed_speed_m_s, double depth_m,
+                            double width_m)
 {
 	return phi / (rho_s_kg_m3 * bed_speed_m_s * depth_m * sqrt(width_m));
 }
@@ -532,7 +546,7 @@ double ow_melting_length_const(double psi_c_1_m, double sbr0)
 }
 
 double ow_melting_psi_taper(double phi, double rho_s_kg_m3,
-			    double bed_speed_m_s, double width_m)
+                            double bed_speed_m_s, double width_m)
 {
 	return phi / (rho_s_kg_m3 * bed_speed_m_s * sqrt(width_m));
 }
@@ -540,7 +554,7 @@ double ow_melting_psi_taper(double phi, double rho_s_kg_m3,
 /* Linear taper H = H1 - A z: with u = sqrt(X/W), du/dH = (psi_t/A - u)/(2H),
  * so u - psi_t/A scales as sqrt(H1/H). */
 double ow_melting_sbr_taper(double psi_t, double taper, double sbr0,
-			    double h1_m, double z_m)
+                            double h1_m, double z_m)
 {
 	double r, u;
 
@@ -552,7 +566,7 @@ double ow_melting_sbr_taper(double psi_t, double taper, double sbr0,
 }
 
 double ow_melting_length_taper(double psi_t, double taper, double sbr0,
-			       double h1_m)
+                               double h1_m)
 {
 	double q = taper * sqrt(sbr0) / psi_t; /* A u / psi_t */
 

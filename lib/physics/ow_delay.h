@@ -45,20 +45,20 @@
 
 struct ow_delay {
 	const struct ow_material *mat;
-	double feed_K;     /* T_0, the plug entering */
-	double t_s;        /* contact time so far */
-	double wall_h;     /* wall -> bore heat-transfer coefficient (0:
-			      ideal), W/(m^2 K) */
-	double wall_K;     /* wall temperature now (the last step's end) */
-	int n;             /* steps of the wall temperature so far */
-	double at_s[OW_DELAY_STEPS];  /* when each step happened */
+	double feed_K; /* T_0, the plug entering */
+	double t_s;    /* contact time so far */
+	double wall_h; /* wall -> bore heat-transfer coefficient (0:
+	                  ideal), W/(m^2 K) */
+	double wall_K; /* wall temperature now (the last step's end) */
+	int n;         /* steps of the wall temperature so far */
+	double at_s[OW_DELAY_STEPS];   /* when each step happened */
 	double step_K[OW_DELAY_STEPS]; /* its size */
-	int film;          /* 1 once the surface melts */
-	double film_m;     /* melt film thickness s */
-	double age0_s;     /* film phase: equivalent age of the solid when the
-			      film formed (same heat as its real history) */
-	double film_t_s;   /* contact time when the film formed */
-	double film_K;     /* mean temperature of the film melt, K */
+	int film;                      /* 1 once the surface melts */
+	double film_m;                 /* melt film thickness s */
+	double age0_s;   /* film phase: equivalent age of the solid when the
+	                    film formed (same heat as its real history) */
+	double film_t_s; /* contact time when the film formed */
+	double film_K;   /* mean temperature of the film melt, K */
 };
 
 /* Results of one step of contact time, per unit area of contact. */
@@ -67,13 +67,13 @@ struct ow_delay_out {
 	double dissip_J_m2; /* viscous heating in the film (drive power) */
 	double peak_K;      /* film maximum (NAN before a film forms) */
 	double done_s;      /* time into the step at which the film reached
-			       the clearance; -1 while it has not */
+	                       the clearance; -1 while it has not */
 };
 
 /* Start a plug of resin m entering at feed_K (at or below the melting
  * point). */
 void ow_delay_start(struct ow_delay *z, const struct ow_material *m,
-		    double feed_K);
+                    double feed_K);
 
 /* Advance the plug by dt_s of contact under a wall controlled at wall_K
  * with heat-transfer coefficient wall_h to the bore (0: an ideal wall), the
@@ -81,9 +81,9 @@ void ow_delay_start(struct ow_delay *z, const struct ow_material *m,
  * the pool forms with the film). OW_EARG for dt <= 0 or non-finite
  * inputs. */
 enum ow_status ow_delay_advance(struct ow_delay *z, double wall_K,
-				double wall_h_W_m2K, double slip_m_s,
-				double clearance_m, double dt_s,
-				struct ow_delay_out *o, struct ow_diag *d);
+                                double wall_h_W_m2K, double slip_m_s,
+                                double clearance_m, double dt_s,
+                                struct ow_delay_out *o, struct ow_diag *d);
 
 /* Surface temperature of the plug now (T_m once it melts), K. */
 double ow_delay_surface(const struct ow_delay *z);
@@ -106,6 +106,6 @@ double ow_delay_solid_heat(const struct ow_delay *z);
  * three hold exactly heat_J_m2 (enthalpy from T_0: c_s below T_m, lambda,
  * c_m above). */
 void ow_delay_bed(const struct ow_delay *z, double depth_m, double heat_J_m2,
-		  double *melt_frac, double *bed_K, double *melt_K);
+                  double *melt_frac, double *bed_K, double *melt_K);
 
 #endif

@@ -8,8 +8,8 @@
  * power-law index n = 1 + dln(eta)/dln(gdot) of the resin at that rate and
  * temperature, iterated until rate and index agree (Bird, Armstrong &
  * Hassager, Dynamics of Polymeric Liquids, vol. 1, 2nd ed., 1987, ch. 4).
- * For a Newtonian or power-law resin this is exact. Entrance and exit losses are
- * not included.
+ * For a Newtonian or power-law resin this is exact. Entrance and exit losses
+ * are not included.
  *
  * Everything SI; pure functions, thread-safe, nothing allocated. */
 #ifndef OW_DIE_H
@@ -43,16 +43,16 @@
  * OW_EINPUT for bad dimensions (naming the field), OW_ENOCONV if the
  * rate/index iteration fails, OW_ECOMPUTE for a non-finite viscosity. */
 enum ow_status ow_die_pressure(const struct ow_die *die,
-			       const struct ow_material *m,
-			       double mass_flow_kg_s, double temp_K,
-			       double *dp_Pa, struct ow_diag *d);
+                               const struct ow_material *m,
+                               double mass_flow_kg_s, double temp_K,
+                               double *dp_Pa, struct ow_diag *d);
 
 /* The die's true wall shear rate (1/s) at the same conditions (the slit
  * value for an annulus). */
 enum ow_status ow_die_wall_shear_rate(const struct ow_die *die,
-				      const struct ow_material *m,
-				      double mass_flow_kg_s, double temp_K,
-				      double *gdot_1_s, struct ow_diag *d);
+                                      const struct ow_material *m,
+                                      double mass_flow_kg_s, double temp_K,
+                                      double *gdot_1_s, struct ow_diag *d);
 
 /* Dimensions of the die for its type positive (annulus: inner < outer;
  * measured: pressure, output and temperature positive). OW_EINPUT naming
@@ -67,13 +67,12 @@ enum ow_status ow_die_check(const struct ow_die *die, struct ow_diag *d);
  *   slit     Q = W h^3 dp / (12 mu L)  (times F_p(h/W) when edges != 0)
  *   annulus  Q = pi dp/(8 mu L) [Ro^4 - Ri^4 - (Ro^2 - Ri^2)^2/ln(Ro/Ri)] */
 double ow_die_newtonian_flow_circle(double radius_m, double length_m,
-				    double visc_Pa_s, double dp_Pa);
-double ow_die_newtonian_flow_slit(double width_m, double gap_m,
-				  double length_m, double visc_Pa_s,
-				  double dp_Pa, int edges);
+                                    double visc_Pa_s, double dp_Pa);
+double ow_die_newtonian_flow_slit(double width_m, double gap_m, double length_m,
+                                  double visc_Pa_s, double dp_Pa, int edges);
 double ow_die_newtonian_flow_annulus(double outer_radius_m,
-				     double inner_radius_m, double length_m,
-				     double visc_Pa_s, double dp_Pa);
+                                     double inner_radius_m, double length_m,
+                                     double visc_Pa_s, double dp_Pa);
 
 /* Exact Newtonian annulus flow over the slit approximation (W = pi(Ro+Ri),
  * h = Ro - Ri) at the same pressure drop, for kappa = Ri/Ro in (0, 1). */
@@ -83,10 +82,10 @@ double ow_die_annulus_factor(double kappa);
  *   circle  Q = (pi n R^3/(3n+1)) (R dp/(2 m L))^(1/n)
  *   slit    Q = (n W h^2/(2(2n+1))) (h dp/(2 m L))^(1/n) */
 double ow_die_powerlaw_flow_circle(double radius_m, double length_m,
-				   double consistency_Pa_sn, double index,
-				   double dp_Pa);
-double ow_die_powerlaw_flow_slit(double width_m, double gap_m,
-				 double length_m, double consistency_Pa_sn,
-				 double index, double dp_Pa);
+                                   double consistency_Pa_sn, double index,
+                                   double dp_Pa);
+double ow_die_powerlaw_flow_slit(double width_m, double gap_m, double length_m,
+                                 double consistency_Pa_sn, double index,
+                                 double dp_Pa);
 
 #endif

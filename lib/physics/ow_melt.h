@@ -40,7 +40,7 @@ double ow_melt_shape_fp(double h_over_w);
  * with width and depth exchanged; exact for a Newtonian melt, whose drag
  * flows add). m/s; NAN for a non-positive depth or width. */
 double ow_melt_side_drag_speed(double depth_m, double width_m,
-			       double wall_speed_m_s);
+                               double wall_speed_m_s);
 
 /* ---- power-law drag + pressure flow (exact) ---------------------------- */
 
@@ -54,7 +54,7 @@ double ow_melt_side_drag_speed(double depth_m, double width_m,
  * qhat = 1/2 - Lambda/12. OW_EARG for n outside (0, 1.5] or a non-finite
  * Lambda. Either output pointer may be NULL. */
 enum ow_status ow_melt_powerlaw_qhat(double n, double lambda, double *qhat,
-				     double *tau0hat);
+                                     double *tau0hat);
 
 /* ---- leakage over the flight clearance --------------------------------- */
 
@@ -65,15 +65,14 @@ enum ow_status ow_melt_powerlaw_qhat(double n, double lambda, double *qhat,
  * (cross-channel rise plus the down-channel difference), mu_f the melt
  * viscosity in the clearance, e the land width. Positive = backward (into
  * the upstream turn). 0 when delta <= 0. */
-double ow_melt_leak_flux(double vbx_m_s, double clearance_m,
-			 double dp_land_Pa, double visc_Pa_s,
-			 double flight_width_m);
+double ow_melt_leak_flux(double vbx_m_s, double clearance_m, double dp_land_Pa,
+                         double visc_Pa_s, double flight_width_m);
 
 /* Viscous heating in the clearance per unit flight length, W/m: Couette
  * shear at the full barrel speed, mu_f (V_b/delta)^2 delta e. 0 when
  * delta <= 0. */
 double ow_melt_leak_heat(double vb_m_s, double clearance_m, double visc_Pa_s,
-			 double flight_width_m);
+                         double flight_width_m);
 
 /* ---- fluted barrier mixer -------------------------------------------- */
 
@@ -95,19 +94,19 @@ double ow_melt_leak_heat(double vb_m_s, double clearance_m, double visc_Pa_s,
  * Couette shear rate V/g. Every output NAN for a non-positive gap, land
  * length, land count or viscosity. */
 struct ow_mixer_land {
-	double dp_Pa;         /* pressure rise across the lands */
-	double heat_W;        /* viscous heating in all the land gaps */
-	double power_W;       /* barrel work on the land gaps */
-	double shear_1_s;     /* Couette shear rate in the gap, V/g */
+	double dp_Pa;     /* pressure rise across the lands */
+	double heat_W;    /* viscous heating in all the land gaps */
+	double power_W;   /* barrel work on the land gaps */
+	double shear_1_s; /* Couette shear rate in the gap, V/g */
 };
 void ow_melt_mixer_land(double q_m3_s, double n_lands, double length_m,
-			double gap_m, double land_width_m, double vb_m_s,
-			double visc_Pa_s, struct ow_mixer_land *out);
+                        double gap_m, double land_width_m, double vb_m_s,
+                        double visc_Pa_s, struct ow_mixer_land *out);
 
 /* Local power-law index n = 1 + dln(eta)/dln(gdot) of the resin's model at
  * shear rate gdot_1_s and temp_K (central difference in ln gdot). */
 double ow_melt_local_index(const struct ow_viscosity *v, double gdot_1_s,
-			   double temp_K);
+                           double temp_K);
 
 /* ---- the station solver ------------------------------------------------ */
 
@@ -119,7 +118,7 @@ struct ow_melt_ws; /* per-thread workspace: profiles, band temperatures */
  * at 0 K: call ow_melt_reset before the first step. The caller owns *out and
  * frees it with ow_melt_destroy. OW_EARG for bad sizes, OW_ENOMEM. */
 enum ow_status ow_melt_create(int depth_nodes, int bands,
-			      struct ow_melt_ws **out, struct ow_diag *d);
+                              struct ow_melt_ws **out, struct ow_diag *d);
 
 /* Free a workspace; NULL-safe. */
 void ow_melt_destroy(struct ow_melt_ws *ws);
@@ -135,8 +134,8 @@ struct ow_melt_cond {
 	double depth_m;                /* H of the channel carrying melt */
 	double width_m;                /* W of that channel (> 0) */
 	int infinite_width;            /* 1: F_d = F_p = 1 (no flight edges);
-					  width_m still scales per-length
-					  quantities */
+	                                  width_m still scales per-length
+	                                  quantities */
 	double vbz_m_s;                /* barrel down-channel speed */
 	double vbx_m_s;                /* barrel cross-channel speed, >= 0 */
 	double vb_m_s;                 /* barrel speed (clearance shear) */
@@ -147,20 +146,20 @@ struct ow_melt_cond {
 	double clearance_m;            /* radial flight clearance; 0: none */
 	double flight_width_m;         /* land width e (leakage) */
 	double leak_bypass_m;          /* flight length over which the leak
-					  bypasses one channel cross-section:
-					  pi D_b cos(phi_b) for one flight;
-					  also the down-channel distance
-					  between the two faces of a flight */
+	                                  bypasses one channel cross-section:
+	                                  pi D_b cos(phi_b) for one flight;
+	                                  also the down-channel distance
+	                                  between the two faces of a flight */
 	double leak_flight_len_per_z;  /* flight land length beside unit
-					  down-channel length (1 for an
-					  ordinary channel) for the clearance
-					  heating */
+	                                  down-channel length (1 for an
+	                                  ordinary channel) for the clearance
+	                                  heating */
 	double wall_h_W_m2K;           /* heat-transfer coefficient between
-					  the barrel's control point (at
-					  barrel_K) and its inner surface,
-					  per unit area of melt on the
-					  barrel; 0: ideal wall (the inner
-					  surface at barrel_K) */
+	                                  the barrel's control point (at
+	                                  barrel_K) and its inner surface,
+	                                  per unit area of melt on the
+	                                  barrel; 0: ideal wall (the inner
+	                                  surface at barrel_K) */
 };
 
 /* Results of one station (per unit down-channel length of this channel).
@@ -169,28 +168,28 @@ struct ow_melt_cond {
  *                                           + root_heat) dz
  * and always power = dissipation + Q dP/dz (Tadmor & Klein 1970, ch. 7). */
 struct ow_melt_out {
-	double dpdz_Pa_m;        /* down-channel pressure gradient G */
-	double dpdx_Pa_m;        /* cross-channel pressure gradient */
-	double bulk_K;           /* flow-weighted mean of the bands */
-	double peak_K;           /* hottest band */
-	double power_W_m;        /* drive power: barrel-wall stress times
-				    barrel speed (effective speeds) plus
-				    clearance shear */
-	double barrel_heat_W_m;  /* heat barrel -> melt (< 0: melt cooled) */
-	double root_heat_W_m;    /* heat root -> melt */
-	double dissipation_W_m;  /* channel + clearance viscous heating, plus
-				    the pressure work G Q_L the leak flow
-				    releases falling back over the flight */
-	double leak_flow_m3_s;   /* Q_L, backward over the flight */
+	double dpdz_Pa_m;         /* down-channel pressure gradient G */
+	double dpdx_Pa_m;         /* cross-channel pressure gradient */
+	double bulk_K;            /* flow-weighted mean of the bands */
+	double peak_K;            /* hottest band */
+	double power_W_m;         /* drive power: barrel-wall stress times
+	                             barrel speed (effective speeds) plus
+	                             clearance shear */
+	double barrel_heat_W_m;   /* heat barrel -> melt (< 0: melt cooled) */
+	double root_heat_W_m;     /* heat root -> melt */
+	double dissipation_W_m;   /* channel + clearance viscous heating, plus
+	                             the pressure work G Q_L the leak flow
+	                             releases falling back over the flight */
+	double leak_flow_m3_s;    /* Q_L, backward over the flight */
 	double channel_flow_m3_s; /* Q + Q_L carried down the channel */
-	double tau_barrel_z_Pa;  /* barrel-wall shear stress, down-channel */
-	double tau_barrel_x_Pa;  /* barrel-wall shear stress, cross-channel */
-	double max_shear_1_s;    /* largest shear-rate magnitude in depth */
-	double fd, fp;           /* shape factors used */
-	int q_floor_used;        /* a band's flow was floored (back flow) */
-	int circulating;         /* 1: bands on cross-channel streamlines;
-				    0: plain depth layers (V_bx = 0) */
-	int iterations;          /* Newton iterations of the velocity solve */
+	double tau_barrel_z_Pa;   /* barrel-wall shear stress, down-channel */
+	double tau_barrel_x_Pa;   /* barrel-wall shear stress, cross-channel */
+	double max_shear_1_s;     /* largest shear-rate magnitude in depth */
+	double fd, fp;            /* shape factors used */
+	int q_floor_used;         /* a band's flow was floored (back flow) */
+	int circulating;          /* 1: bands on cross-channel streamlines;
+	                             0: plain depth layers (V_bx = 0) */
+	int iterations;           /* Newton iterations of the velocity solve */
 };
 
 /* Set every band to temp_K (e.g. melt entering from the melting zone at its
@@ -205,13 +204,13 @@ void ow_melt_reset(struct ow_melt_ws *ws, double temp_K);
  * terms only, temperatures untouched; only a switch between circulating
  * and layered bands, i.e. V_bx becoming 0 or not, re-maps them by depth).
  * The clearance viscosity is taken at V_b/delta and the mean of the barrel
- * and outer-band temperatures; its heat goes to the band at the barrel. OW_EARG for bad conditions (names the
- * field), OW_ENOCONV when the velocity iteration fails, OW_ECOMPUTE for a
- * non-finite viscosity or, with dz > 0, a net flow Q <= 0. On failure the
- * band temperatures are unchanged. */
+ * and outer-band temperatures; its heat goes to the band at the barrel. OW_EARG
+ * for bad conditions (names the field), OW_ENOCONV when the velocity iteration
+ * fails, OW_ECOMPUTE for a non-finite viscosity or, with dz > 0, a net flow Q
+ * <= 0. On failure the band temperatures are unchanged. */
 enum ow_status ow_melt_step(struct ow_melt_ws *ws, const struct ow_melt_cond *c,
-			    double dz_m, struct ow_melt_out *out,
-			    struct ow_diag *d);
+                            double dz_m, struct ow_melt_out *out,
+                            struct ow_diag *d);
 
 /* Melt joining the channel: every band becomes (1 - frac) T + frac temp_K,
  * i.e. the inflow spreads in proportion to the bands' flow, which keeps the
@@ -233,9 +232,9 @@ void ow_melt_heat(struct ow_melt_ws *ws, double dT_K);
  * and dissipation_W_m (= heat_W_m) of *out; energy is conserved exactly
  * as in ow_melt_step. Errors as ow_melt_step. */
 enum ow_status ow_melt_mixer_step(struct ow_melt_ws *ws,
-				  const struct ow_melt_cond *c, double dz_m,
-				  double heat_W_m, struct ow_melt_out *out,
-				  struct ow_diag *d);
+                                  const struct ow_melt_cond *c, double dz_m,
+                                  double heat_W_m, struct ow_melt_out *out,
+                                  struct ow_diag *d);
 
 /* Copy the whole state of src (band temperatures, layout, warm start) into
  * dst, created with the same sizes; for restarting a stretch of a march. */
@@ -251,13 +250,13 @@ double ow_melt_peak(const struct ow_melt_ws *ws);
  * speed V_bz F_d/F_p). */
 struct ow_melt_profile {
 	int nodes;
-	const double *y_m;          /* node depth from the root */
-	const double *uz_m_s;       /* down-channel velocity */
-	const double *ux_m_s;       /* cross-channel velocity */
-	const double *shear_1_s;    /* shear-rate magnitude */
-	const double *dissip_W_m3;  /* eta gdot^2 */
-	const double *visc_Pa_s;    /* viscosity */
-	const double *temp_K;       /* temperature of the node's band */
+	const double *y_m;         /* node depth from the root */
+	const double *uz_m_s;      /* down-channel velocity */
+	const double *ux_m_s;      /* cross-channel velocity */
+	const double *shear_1_s;   /* shear-rate magnitude */
+	const double *dissip_W_m3; /* eta gdot^2 */
+	const double *visc_Pa_s;   /* viscosity */
+	const double *temp_K;      /* temperature of the node's band */
 };
 void ow_melt_profile(const struct ow_melt_ws *ws, struct ow_melt_profile *p);
 
@@ -275,6 +274,6 @@ double ow_melt_band_temp(const struct ow_melt_ws *ws, int k);
  * last solved station (Mohr, Saxton & Jepson, Ind. Eng. Chem., 1957).
  * OW_ECOMPUTE when the station has no circulation. */
 enum ow_status ow_melt_partner(const struct ow_melt_ws *ws, double y_m,
-			       double *partner_m);
+                               double *partner_m);
 
 #endif

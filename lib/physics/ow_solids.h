@@ -42,7 +42,7 @@ struct ow_solids {
 	double helix_rad;        /* phi_b, helix angle at the bore */
 	double width_m;          /* W_b, channel width at the bore */
 	double bulk_density_kg_m3;
-	double friction_barrel;  /* f_b, - */
+	double friction_barrel; /* f_b, - */
 };
 
 /* Everything the solver needs for one trial mass flow. */
@@ -61,18 +61,18 @@ struct ow_solids_out {
  * or a screw friction so high that the flight force diverges
  * (cos phi_mean <= f_s sin phi_mean). */
 enum ow_status ow_solids_prepare(const struct ow_solids_in *in,
-				 struct ow_solids *s, struct ow_diag *d);
+                                 struct ow_solids *s, struct ow_diag *d);
 
 /* Conveying angle (rad) for a pressure rise P2/P1 = exp(ln_ratio) over the
  * down-channel barrel length zb_m > 0. May be <= 0: the plug does not convey.
  * OW_ECOMPUTE when the angle equation has no root (|M| > sqrt(1 + K^2)). */
 enum ow_status ow_solids_theta(const struct ow_solids *s, double ln_ratio,
-			       double zb_m, double *theta_rad,
-			       struct ow_diag *d);
+                               double zb_m, double *theta_rad,
+                               struct ow_diag *d);
 
 /* Conveying angle with no pressure rise (P2 = P1): the zero-gradient angle. */
 enum ow_status ow_solids_theta_free(const struct ow_solids *s,
-				    double *theta_rad, struct ow_diag *d);
+                                    double *theta_rad, struct ow_diag *d);
 
 /* Axial plug speed (m/s) and mass flow (kg/s) at angle theta; both 0 for
  * theta <= 0 (no conveying). theta = pi/2 is the kinematic maximum. */
@@ -82,7 +82,7 @@ double ow_solids_mass_flow(const struct ow_solids *s, double theta_rad);
 /* Angle delivering the mass flow G (kg/s, >= 0). OW_ECOMPUTE when G reaches
  * the kinematic maximum (rho_b A V_b tan phi_b); OW_EARG for G < 0. */
 enum ow_status ow_solids_theta_for(const struct ow_solids *s, double g_kg_s,
-				   double *theta_rad, struct ow_diag *d);
+                                   double *theta_rad, struct ow_diag *d);
 
 /* Pressure rise rate beta (1/m of down-channel barrel length) at angle theta;
  * negative when the plug cannot hold its pressure at that flow. */
@@ -100,13 +100,13 @@ double ow_solids_slip_speed(const struct ow_solids *s, double theta_rad);
  * barrel length, f_b P W_b V_slip (W/m), at plug pressure pressure_Pa. All of
  * it is drive power turned into heat at the barrel wall. */
 double ow_solids_barrel_power(const struct ow_solids *s, double theta_rad,
-			      double pressure_Pa);
+                              double pressure_Pa);
 
 /* One trial mass flow G (kg/s, >= 0): angle, pressure rise rate, speeds and
  * the feed-limit flag. A G beyond the feed limit is not an error: *o says
  * feed_limited (and, beyond the kinematic maximum, theta = pi/2). OW_EARG for
  * a negative or non-finite G. */
 enum ow_status ow_solids_eval(const struct ow_solids *s, double g_kg_s,
-			      struct ow_solids_out *o, struct ow_diag *d);
+                              struct ow_solids_out *o, struct ow_diag *d);
 
 #endif

@@ -8,34 +8,42 @@
 #include <math.h>
 #include <stddef.h>
 
-
-static enum ow_status check_in(const struct ow_solids_in *in,
-			       struct ow_diag *d)
+static enum ow_status check_in(const struct ow_solids_in *in, struct ow_diag *d)
 {
 	const struct ow_material *m = in->mat;
 	double db;
 
 	if (!in->screw || !m)
-		return ow_diag_set(d, OW_EARG, "solids: screw and resin "
-				   "must be given");
+		return ow_diag_set(d, OW_EARG,
+		                   "solids: screw and resin "
+		                   "must be given");
 	db = in->screw->diameter_m;
 	if (!(isfinite(in->depth_m) && in->depth_m > 0.0 &&
 	      2.0 * in->depth_m < db))
-		return ow_diag_set(d, OW_EINPUT, "feed depth: %g mm must lie "
-				   "between 0 and the bore radius %g mm",
-				   in->depth_m * 1e3, db * 0.5e3);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "feed depth: %g mm must lie "
+		                   "between 0 and the bore radius %g mm",
+		                   in->depth_m * 1e3, db * 0.5e3);
 	if (!(isfinite(in->rev_s) && in->rev_s > 0.0))
-		return ow_diag_set(d, OW_EINPUT, "screw speed: %g rpm must be "
-				   "> 0", in->rev_s * 60.0);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "screw speed: %g rpm must be "
+		                   "> 0",
+		                   in->rev_s * 60.0);
 	if (!(isfinite(m->bulk_density_kg_m3) && m->bulk_density_kg_m3 > 0.0))
-		return ow_diag_set(d, OW_EINPUT, "bulk_density: %g kg/m3 must "
-				   "be > 0", m->bulk_density_kg_m3);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "bulk_density: %g kg/m3 must "
+		                   "be > 0",
+		                   m->bulk_density_kg_m3);
 	if (!(isfinite(m->friction_barrel) && m->friction_barrel > 0.0))
-		return ow_diag_set(d, OW_EINPUT, "friction_barrel: %g must be "
-				   "> 0", m->friction_barrel);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "friction_barrel: %g must be "
+		                   "> 0",
+		                   m->friction_barrel);
 	if (!(isfinite(m->friction_screw) && m->friction_screw >= 0.0))
-		return ow_diag_set(d, OW_EINPUT, "friction_screw: %g must be "
-				   ">= 0", m->friction_screw);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "friction_screw: %g must be "
+		                   ">= 0",
+		                   m->friction_screw);
 	return OW_OK;
 }
 
@@ -58,16 +66,16 @@ static void coefficients(const struct ow_solids_in *in, struct ow_solids *s)
 	double wb = ow_screw_width(sc, db), wm = ow_screw_width(sc, dm);
 	double ws = ow_screw_width(sc, ds);
 	double fb = in->mat->friction_barrel, fs = in->mat->friction_screw;
-	double k = dm / db * (sin(pm) + fs * cos(pm)) /
-		   (cos(pm) - fs * sin(pm));
+	double k =
+	    dm / db * (sin(pm) + fs * cos(pm)) / (cos(pm) - fs * sin(pm));
 	double flight = k + dm / db / tan(pm);
 
 	s->k = k;
 	s->m1 = 2.0 * h / wb * fs / fb * sin(pb) * flight +
-		ws / wb * fs / fb * sin(pb) * (k + ds / db / tan(ps));
+	        ws / wb * fs / fb * sin(pb) * (k + ds / db / tan(ps));
 	s->mp_m = wm / wb * h / fb * sin(pm) * flight;
 	s->area_m2 = OW_PI * h * (db - h) -
-		     sc->flights * sc->flight_width_m * h / sin(pm);
+	             sc->flights * sc->flight_width_m * h / sin(pm);
 	s->barrel_speed_m_s = OW_PI * db * in->rev_s;
 	s->helix_rad = pb;
 	s->width_m = wb;
@@ -76,7 +84,7 @@ static void coefficients(const struct ow_solids_in *in, struct ow_solids *s)
 }
 
 enum ow_status ow_solids_prepare(const struct ow_solids_in *in,
-				 struct ow_solids *s, struct ow_diag *d)
+                                 struct ow_solids *s, struct ow_diag *d)
 {
 	enum ow_status st = check_in(in, d);
 	double dm, pm, ds;
@@ -87,45 +95,53 @@ enum ow_status ow_solids_prepare(const struct ow_solids_in *in,
 	ds = dm - in->depth_m;
 	pm = ow_screw_helix(in->screw, dm);
 	if (cos(pm) - in->mat->friction_screw * sin(pm) <= 0.0)
-		return ow_diag_set(d, OW_EINPUT, "friction_screw: %g is too "
-				   "high for a helix angle of %g deg at the "
-				   "mean diameter (flight force diverges)",
-				   in->mat->friction_screw, pm * 180.0 / OW_PI);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "friction_screw: %g is too "
+		                   "high for a helix angle of %g deg at the "
+		                   "mean diameter (flight force diverges)",
+		                   in->mat->friction_screw, pm * 180.0 / OW_PI);
 	if (ow_screw_width(in->screw, ds) <= 0.0)
-		return ow_diag_set(d, OW_EINPUT, "flight_width: %g mm leaves "
-				   "no channel at the root of the feed "
-				   "section", in->screw->flight_width_m * 1e3);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "flight_width: %g mm leaves "
+		                   "no channel at the root of the feed "
+		                   "section",
+		                   in->screw->flight_width_m * 1e3);
 	coefficients(in, s);
 	if (!(s->area_m2 > 0.0))
-		return ow_diag_set(d, OW_EINPUT, "feed section: free "
-				   "cross-section %g m2 is not positive",
-				   s->area_m2);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "feed section: free "
+		                   "cross-section %g m2 is not positive",
+		                   s->area_m2);
 	return OW_OK;
 }
 
 /* theta = arccos(M / sqrt(1 + K^2)) - arctan(K), the root of
  * cos(theta) - K sin(theta) = M (Tadmor & Klein 1970, ch. 8). */
 enum ow_status ow_solids_theta(const struct ow_solids *s, double ln_ratio,
-			       double zb_m, double *theta_rad,
-			       struct ow_diag *d)
+                               double zb_m, double *theta_rad,
+                               struct ow_diag *d)
 {
 	double m, r = sqrt(1.0 + s->k * s->k);
 
 	if (!(zb_m > 0.0) || !isfinite(ln_ratio))
-		return ow_diag_set(d, OW_EARG, "solids: pressure rise over "
-				   "z_b = %g m needs z_b > 0 and a finite "
-				   "ratio", zb_m);
+		return ow_diag_set(d, OW_EARG,
+		                   "solids: pressure rise over "
+		                   "z_b = %g m needs z_b > 0 and a finite "
+		                   "ratio",
+		                   zb_m);
 	m = s->m1 + s->mp_m * ln_ratio / zb_m;
 	if (fabs(m) > r)
-		return ow_diag_set(d, OW_ECOMPUTE, "solids: no conveying angle"
-				   " (M = %g, sqrt(1 + K^2) = %g): friction "
-				   "on the screw outweighs the barrel's", m, r);
+		return ow_diag_set(d, OW_ECOMPUTE,
+		                   "solids: no conveying angle"
+		                   " (M = %g, sqrt(1 + K^2) = %g): friction "
+		                   "on the screw outweighs the barrel's",
+		                   m, r);
 	*theta_rad = acos(m / r) - atan(s->k);
 	return OW_OK;
 }
 
 enum ow_status ow_solids_theta_free(const struct ow_solids *s,
-				    double *theta_rad, struct ow_diag *d)
+                                    double *theta_rad, struct ow_diag *d)
 {
 	return ow_solids_theta(s, 0.0, 1.0, theta_rad, d);
 }
@@ -153,21 +169,23 @@ double ow_solids_mass_flow(const struct ow_solids *s, double theta_rad)
 /* Inverse of the kinematics: with r = V_pl / V_b,
  * tan(theta) = r tan(phi_b) / (tan(phi_b) - r), valid for r < tan(phi_b). */
 enum ow_status ow_solids_theta_for(const struct ow_solids *s, double g_kg_s,
-				   double *theta_rad, struct ow_diag *d)
+                                   double *theta_rad, struct ow_diag *d)
 {
 	double tp = tan(s->helix_rad), r, gmax;
 
 	if (!(isfinite(g_kg_s) && g_kg_s >= 0.0))
-		return ow_diag_set(d, OW_EARG, "solids: mass flow %g kg/h must "
-				   "be >= 0", g_kg_s * 3600.0);
-	r = g_kg_s / (s->bulk_density_kg_m3 * s->area_m2 *
-		      s->barrel_speed_m_s);
+		return ow_diag_set(d, OW_EARG,
+		                   "solids: mass flow %g kg/h must "
+		                   "be >= 0",
+		                   g_kg_s * 3600.0);
+	r = g_kg_s / (s->bulk_density_kg_m3 * s->area_m2 * s->barrel_speed_m_s);
 	if (r >= tp) {
 		gmax = ow_solids_mass_flow(s, OW_PI / 2.0);
-		return ow_diag_set(d, OW_ECOMPUTE, "solids: mass flow %g kg/h "
-				   "reaches the feed section's kinematic "
-				   "limit %g kg/h", g_kg_s * 3600.0,
-				   gmax * 3600.0);
+		return ow_diag_set(d, OW_ECOMPUTE,
+		                   "solids: mass flow %g kg/h "
+		                   "reaches the feed section's kinematic "
+		                   "limit %g kg/h",
+		                   g_kg_s * 3600.0, gmax * 3600.0);
 	}
 	*theta_rad = atan2(r * tp, tp - r);
 	return OW_OK;
@@ -205,20 +223,22 @@ double ow_solids_slip_speed(const struct ow_solids *s, double theta_rad)
 
 /* Coulomb friction f_b P on the barrel strip W_b sliding at V_slip. */
 double ow_solids_barrel_power(const struct ow_solids *s, double theta_rad,
-			      double pressure_Pa)
+                              double pressure_Pa)
 {
 	return s->friction_barrel * pressure_Pa * s->width_m *
 	       ow_solids_slip_speed(s, theta_rad);
 }
 
 enum ow_status ow_solids_eval(const struct ow_solids *s, double g_kg_s,
-			      struct ow_solids_out *o, struct ow_diag *d)
+                              struct ow_solids_out *o, struct ow_diag *d)
 {
 	double theta;
 
 	if (!(isfinite(g_kg_s) && g_kg_s >= 0.0))
-		return ow_diag_set(d, OW_EARG, "solids: mass flow %g kg/h must "
-				   "be >= 0", g_kg_s * 3600.0);
+		return ow_diag_set(d, OW_EARG,
+		                   "solids: mass flow %g kg/h must "
+		                   "be >= 0",
+		                   g_kg_s * 3600.0);
 	o->max_flow_kg_s = ow_solids_max_flow(s);
 	if (ow_solids_theta_for(s, g_kg_s, &theta, NULL) != OW_OK)
 		theta = OW_PI / 2.0; /* beyond the kinematic maximum */

@@ -13,29 +13,29 @@
 
 static const char *const keys[] = {
 #define OW_CHECK_KEY(id, key, text, kind) key,
-	OW_CHECK_LIST(OW_CHECK_KEY)
+    OW_CHECK_LIST(OW_CHECK_KEY)
 #undef OW_CHECK_KEY
 };
 
 static const char *const texts[] = {
 #define OW_CHECK_TEXT(id, key, text, kind) text,
-	OW_CHECK_LIST(OW_CHECK_TEXT)
+    OW_CHECK_LIST(OW_CHECK_TEXT)
 #undef OW_CHECK_TEXT
 };
 
 static const char *const failures[] = {
 #define OW_CHECK_FAIL(id, key, text, kind) text OW_CK_FAIL_##kind,
-	OW_CHECK_LIST(OW_CHECK_FAIL)
+    OW_CHECK_LIST(OW_CHECK_FAIL)
 #undef OW_CHECK_FAIL
 };
 
-#define OW_CK_REL_MAX "at most"
-#define OW_CK_REL_MIN "at least"
+#define OW_CK_REL_MAX  "at most"
+#define OW_CK_REL_MIN  "at least"
 #define OW_CK_REL_FLAG NULL
 
 static const char *const relations[] = {
 #define OW_CHECK_REL(id, key, text, kind) OW_CK_REL_##kind,
-	OW_CHECK_LIST(OW_CHECK_REL)
+    OW_CHECK_LIST(OW_CHECK_REL)
 #undef OW_CHECK_REL
 };
 
@@ -44,8 +44,7 @@ const char *ow_check_key(enum ow_check c)
 	return c < OW_CK_COUNT ? keys[c] : "?";
 }
 
-int ow_classify_names(const struct ow_verdict *v, const char **names,
-		      int max)
+int ow_classify_names(const struct ow_verdict *v, const char **names, int max)
 {
 	int c, n = 0;
 
@@ -73,17 +72,28 @@ const char *ow_check_relation(enum ow_check c)
 double ow_check_limit(const struct ow_limits *l, enum ow_check c)
 {
 	switch (c) {
-	case OW_CK_PEAK_TEMP: return l->peak_temp_K;
-	case OW_CK_UNMELT: return l->unmelt_frac;
-	case OW_CK_PRESSURE: return l->pressure_Pa;
-	case OW_CK_POWER: return l->power_W;
-	case OW_CK_TORQUE: return l->torque_Nm;
-	case OW_CK_MIN_MELT_TEMP: return l->min_melt_temp_K;
-	case OW_CK_MIN_OUTPUT: return l->min_output_kg_s;
-	case OW_CK_MAX_OUTPUT: return l->max_output_kg_s;
-	case OW_CK_MAX_SBR: return l->max_sbr;
-	case OW_CK_ZONE_CONTROL: return l->zone_load;
-	default: return NAN;
+	case OW_CK_PEAK_TEMP:
+		return l->peak_temp_K;
+	case OW_CK_UNMELT:
+		return l->unmelt_frac;
+	case OW_CK_PRESSURE:
+		return l->pressure_Pa;
+	case OW_CK_POWER:
+		return l->power_W;
+	case OW_CK_TORQUE:
+		return l->torque_Nm;
+	case OW_CK_MIN_MELT_TEMP:
+		return l->min_melt_temp_K;
+	case OW_CK_MIN_OUTPUT:
+		return l->min_output_kg_s;
+	case OW_CK_MAX_OUTPUT:
+		return l->max_output_kg_s;
+	case OW_CK_MAX_SBR:
+		return l->max_sbr;
+	case OW_CK_ZONE_CONTROL:
+		return l->zone_load;
+	default:
+		return NAN;
 	}
 }
 
@@ -102,8 +112,7 @@ static double rel(double limit, double value, int upper)
 /* Unmelt margin continuous through complete melting: while solids reach
  * the tip it is the shortfall to the limit; once the melt completes before
  * the tip it grows with the unused length of screw. */
-static double unmelt_margin(const struct ow_point *pt, double limit,
-			    double len)
+static double unmelt_margin(const struct ow_point *pt, double limit, double len)
 {
 	double s = limit > 0.01 ? limit : 0.01;
 
@@ -112,8 +121,8 @@ static double unmelt_margin(const struct ow_point *pt, double limit,
 	return limit / s + (len - pt->melt_complete_m) / len;
 }
 
-static double margin_of(const struct ow_point *pt, enum ow_check c,
-			double lim, double len)
+static double margin_of(const struct ow_point *pt, enum ow_check c, double lim,
+                        double len)
 {
 	switch (c) {
 	case OW_CK_PEAK_TEMP:
@@ -142,7 +151,7 @@ static double margin_of(const struct ow_point *pt, enum ow_check c,
 }
 
 void ow_classify(const struct ow_point *pt, const struct ow_limits *lim,
-		 double screw_len_m, struct ow_verdict *v)
+                 double screw_len_m, struct ow_verdict *v)
 {
 	int c;
 
@@ -150,9 +159,9 @@ void ow_classify(const struct ow_point *pt, const struct ow_limits *lim,
 	for (c = 0; c < OW_CK_LIMITS; c++) {
 		double l = ow_check_limit(lim, (enum ow_check)c);
 
-		v->margin[c] = isnan(l) ? NAN
-					: margin_of(pt, (enum ow_check)c, l,
-						    screw_len_m);
+		v->margin[c] =
+		    isnan(l) ? NAN
+		             : margin_of(pt, (enum ow_check)c, l, screw_len_m);
 		/* NaN figures (a failed point) count as violations */
 		if (!isnan(l) && !(v->margin[c] >= 0.0))
 			v->bits |= 1u << c;

@@ -27,18 +27,18 @@ struct ow_sweep_config {
 };
 
 struct ow_grid_point {
-	int solved;             /* 0: not solved (inside a uniform cell) */
+	int solved; /* 0: not solved (inside a uniform cell) */
 	double rpm;
-	double axis;            /* barrel axis value (K or K difference) */
-	double set_ref_K;       /* reference zone's set-point */
+	double axis;      /* barrel axis value (K or K difference) */
+	double set_ref_K; /* reference zone's set-point */
 	struct ow_point pt;
 	struct ow_verdict v;
 };
 
 struct ow_grid {
-	int n_rpm, n_axis;      /* lattice size (fine) */
-	int stride;             /* 2^refine: lattice steps per coarse step */
-	int solves;             /* points solved */
+	int n_rpm, n_axis;         /* lattice size (fine) */
+	int stride;                /* 2^refine: lattice steps per coarse step */
+	int solves;                /* points solved */
 	struct ow_grid_point *pts; /* [ia * n_rpm + ir] */
 };
 
@@ -48,14 +48,14 @@ void ow_sweep_default(struct ow_sweep_config *c);
 /* Run the sweep for study s (its sweep must be set: OW_EINPUT otherwise).
  * *out is owned by the caller (ow_grid_destroy). */
 enum ow_status ow_sweep_run(const struct ow_study *s,
-			    const struct ow_sweep_config *c,
-			    struct ow_grid **out, struct ow_diag *d);
+                            const struct ow_sweep_config *c,
+                            struct ow_grid **out, struct ow_diag *d);
 
 void ow_grid_destroy(struct ow_grid *g);
 
 /* Point at lattice indices (ir, ia). */
-static inline struct ow_grid_point *ow_grid_at(const struct ow_grid *g,
-					       int ir, int ia)
+static inline struct ow_grid_point *ow_grid_at(const struct ow_grid *g, int ir,
+                                               int ia)
 {
 	return &g->pts[ia * g->n_rpm + ir];
 }
@@ -67,6 +67,6 @@ static inline struct ow_grid_point *ow_grid_at(const struct ow_grid *g,
  * a cold start. */
 #define OW_SWEEP_PREDICT 2
 void ow_sweep_predict(const struct ow_point *const *prev, int n, double rpm,
-		      struct ow_solver_start *out);
+                      struct ow_solver_start *out);
 
 #endif

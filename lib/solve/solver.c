@@ -18,24 +18,24 @@
 #include "ow_const.h"
 
 #define MAX_MARCHES 60
-#define G_RTOL 2e-5   /* relative throughput tolerance (bracket width) */
-#define G_STEP_TOL 2e-5 /* ... and of the Newton step f/k left to take */
-#define P_ATOL 1e3    /* Pa: pressure mismatch accepted ... */
-#define P_RTOL 1e-4   /* ... or this share of the die's need */
+#define G_RTOL      2e-5 /* relative throughput tolerance (bracket width) */
+#define G_STEP_TOL  2e-5 /* ... and of the Newton step f/k left to take */
+#define P_ATOL      1e3  /* Pa: pressure mismatch accepted ... */
+#define P_RTOL      1e-4 /* ... or this share of the die's need */
 /* Cold start at this share of the metering drag flow: the matched outputs
  * of the demo and every fixture study lie at 0.9-1.03 of it over 20-120
  * rpm (a barrier screw down to 0.6), so the march count drops from about
  * 6 to 4 per point against a start at one half. */
-#define G_START 0.95
-#define G_PROBE 1.05  /* second trial: a 5 % step gives the first secant */
-#define G_NEWTON_MAX 1.5 /* largest factor of a Newton second trial */
-#define K_DRIFT 1.3   /* largest change of the handed-on slope per point */
+#define G_START      0.95
+#define G_PROBE      1.05 /* second trial: a 5 % step gives the first secant */
+#define G_NEWTON_MAX 1.5  /* largest factor of a Newton second trial */
+#define K_DRIFT      1.3  /* largest change of the handed-on slope per point */
 /* Named in the notes above this share of the drive power (the residual
  * the energy book is held to is 1 %). */
 #define UNHEATED_NOTE 1e-3
 
 enum ow_status ow_solver_create(const struct ow_study *s,
-				struct ow_solver **out, struct ow_diag *d)
+                                struct ow_solver **out, struct ow_diag *d)
 {
 	const struct ow_numerics *nm = &s->line.numerics;
 	struct ow_solver *sv = calloc(1, sizeof *sv);
@@ -47,8 +47,8 @@ enum ow_status ow_solver_create(const struct ow_study *s,
 	if (!sv)
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	sv->s = s;
-	sv->n_steps = (int)ceil(len / s->screw.lead_m *
-				nm->stations_per_turn - 1e-9);
+	sv->n_steps =
+	    (int)ceil(len / s->screw.lead_m * nm->stations_per_turn - 1e-9);
 	if (sv->n_steps < 4)
 		sv->n_steps = 4;
 	sv->dx_m = len / sv->n_steps;
@@ -58,11 +58,11 @@ enum ow_status ow_solver_create(const struct ow_study *s,
 		goto fail;
 	}
 	bands = (nm->depth_nodes - 1) / 2;
-	st = ow_melt_create(nm->depth_nodes, bands < 2 ? 2 : bands,
-			    &sv->melt, d);
+	st = ow_melt_create(nm->depth_nodes, bands < 2 ? 2 : bands, &sv->melt,
+	                    d);
 	if (st == OW_OK)
 		st = ow_melt_create(nm->depth_nodes, bands < 2 ? 2 : bands,
-				    &sv->melt_save, d);
+		                    &sv->melt_save, d);
 	if (st != OW_OK)
 		goto fail;
 	sv->tol = nm->tol_scale > 0.0 ? nm->tol_scale : 1.0;
@@ -86,7 +86,7 @@ void ow_solver_destroy(struct ow_solver *sv)
 }
 
 const struct ow_profile_row *ow_solver_profile(const struct ow_solver *sv,
-					       int *n_rows)
+                                               int *n_rows)
 {
 	*n_rows = sv->n_rows;
 	return sv->rows;
@@ -108,7 +108,7 @@ struct match {
 };
 
 static void evaluate(struct ow_solver *sv, double g, struct eval *e,
-		     struct match *mt)
+                     struct match *mt)
 {
 	const struct ow_study *s = sv->s;
 	double dp = 0.0;
@@ -117,8 +117,8 @@ static void evaluate(struct ow_solver *sv, double g, struct eval *e,
 	mt->n++;
 	e->st = ow_solver_march(sv, g, &e->m);
 	if (e->st == OW_OK)
-		e->st = ow_die_pressure(&s->line.die, &s->resin, g,
-					e->m.bulk_K, &dp, &sv->diag);
+		e->st = ow_die_pressure(&s->line.die, &s->resin, g, e->m.bulk_K,
+		                        &dp, &sv->diag);
 	/* die_factor: a calibrated die that needs more or less than ideal */
 	e->need = dp * s->line.die_factor + s->line.screen_pressure_Pa;
 	e->f = e->st == OW_OK ? e->m.tip_Pa - e->need : NAN;
@@ -175,7 +175,7 @@ static double handed_slope(const struct match *mt)
  * far better than the tip pressure of the march, so the discharge
  * pressure is taken from the die's side (figures()). */
 static int done(const struct ow_solver *sv, const struct eval *e,
-		const struct match *mt)
+                const struct match *mt)
 {
 	double k = match_slope(mt, mt->k0);
 
@@ -198,8 +198,8 @@ static double second_trial(const struct eval *a, double slope)
 /* Secant steps from a guess until f changes sign (lo: f > 0, hi: f < 0),
  * each step kept within a factor of 3 and in the downhill direction. */
 static int bracket(struct ow_solver *sv, const struct ow_solver_start *s0,
-		   struct eval *lo, struct eval *hi, struct eval *best,
-		   struct match *mt)
+                   struct eval *lo, struct eval *hi, struct eval *best,
+                   struct match *mt)
 {
 	struct eval a, b;
 
@@ -210,8 +210,8 @@ static int bracket(struct ow_solver *sv, const struct ow_solver_start *s0,
 	if (done(sv, &a, mt))
 		return 1;
 	evaluate(sv, second_trial(&a, s0->slope), &b, mt);
-	while (b.st == OW_OK && !done(sv, &b, mt) && (a.f > 0.0) == (b.f > 0.0) &&
-	       mt->n < MAX_MARCHES / 2) {
+	while (b.st == OW_OK && !done(sv, &b, mt) &&
+	       (a.f > 0.0) == (b.f > 0.0) && mt->n < MAX_MARCHES / 2) {
 		double g = b.g - b.f * (b.g - a.g) / (b.f - a.f);
 		double up = b.f > 0.0 ? 1.0 : -1.0;
 
@@ -235,7 +235,7 @@ static int bracket(struct ow_solver *sv, const struct ow_solver_start *s0,
 
 /* Illinois regula falsi inside [lo, hi]; *best gets the last iterate. */
 static int refine(struct ow_solver *sv, struct eval *lo, struct eval *hi,
-		  struct eval *best, struct match *mt)
+                  struct eval *best, struct match *mt)
 {
 	double flo = lo->f, fhi = hi->f;
 	int side = 0;
@@ -269,7 +269,7 @@ static int refine(struct ow_solver *sv, struct eval *lo, struct eval *hi,
 /* Each zone's demand, the control temperature it ran at, and the largest
  * share of a zone's heating or cooling power the point needs. */
 static void zone_figures(const struct ow_line *l, const struct march *m,
-			 struct ow_point *pt)
+                         struct ow_point *pt)
 {
 	int i;
 
@@ -282,21 +282,21 @@ static void zone_figures(const struct ow_line *l, const struct march *m,
 		pt->zone_demand_W[i] = need;
 		pt->zone_control_K[i] = m->ctrl_K[i];
 		if (need != 0.0 && !isnan(cap))
-			pt->zone_load = fmax(pt->zone_load,
-					     cap > 0.0 ? fabs(need) / cap
-						       : INFINITY);
+			pt->zone_load =
+			    fmax(pt->zone_load,
+			         cap > 0.0 ? fabs(need) / cap : INFINITY);
 	}
 	pt->zone_floating = m->zone_floating;
 	for (i = 0; i < l->n_zones; i++)
-		pt->zone_slope_W_K[i] = m->zone_floating & (1u << i)
-						? m->zone_k[i] : 0.0;
+		pt->zone_slope_W_K[i] =
+		    m->zone_floating & (1u << i) ? m->zone_k[i] : 0.0;
 	if (m->zone_floating)
 		pt->flags |= OW_FLAG_ZONE_FLOAT;
 }
 
 /* Fill the figures of point *pt from the final march. */
 static void figures(const struct ow_solver *sv, const struct eval *e,
-		    struct ow_point *pt)
+                    struct ow_point *pt)
 {
 	const struct ow_study *s = sv->s;
 	const struct ow_material *mt = &s->resin;
@@ -311,8 +311,8 @@ static void figures(const struct ow_solver *sv, const struct eval *e,
 	tip_max = !(e->m.max_Pa > e->m.tip_Pa && e->m.max_Pa > e->need);
 	pt->discharge_pressure_Pa = e->need;
 	pt->max_pressure_Pa = tip_max ? e->need : e->m.max_Pa;
-	pt->max_pressure_at_m = tip_max ? ow_screw_length(&s->screw)
-					: e->m.max_at_m;
+	pt->max_pressure_at_m =
+	    tip_max ? ow_screw_length(&s->screw) : e->m.max_at_m;
 	pt->discharge_bulk_K = e->m.bulk_K;
 	pt->discharge_peak_K = e->m.peak_tip_K;
 	pt->peak_K = e->m.peak_K;
@@ -335,42 +335,41 @@ static void figures(const struct ow_solver *sv, const struct eval *e,
 	pt->flags |= e->m.flags;
 	/* energy book: drive + barrel + root = G (h_out - h_feed) + sum Q dP */
 	h_out = (1.0 - e->m.unmelt) *
-		(ow_material_enthalpy(mt, e->m.bulk_K, tf) -
-		 ow_material_enthalpy(mt, tf, tf)); /* solids leave at tf */
+	        (ow_material_enthalpy(mt, e->m.bulk_K, tf) -
+	         ow_material_enthalpy(mt, tf, tf)); /* solids leave at tf */
 	in = e->m.power_W + e->m.barrel_W + e->m.root_W;
 	pt->root_heat_W = e->m.root_W;
 	pt->enthalpy_rise_W = g * h_out;
 	pt->flow_work_W = e->m.flow_work_W;
 	pt->energy_residual = (in - g * h_out - e->m.flow_work_W) /
-			      (fabs(e->m.power_W) > 0.0 ? e->m.power_W : 1.0);
+	                      (fabs(e->m.power_W) > 0.0 ? e->m.power_W : 1.0);
 	pt->unheated_melt_W = e->m.unheated_W;
 	if (e->m.unheated_W > UNHEATED_NOTE * fabs(e->m.power_W))
 		pt->flags |= OW_FLAG_UNHEATED_MELT;
 }
 
 static enum ow_status check_run(const struct ow_solver *sv, double rpm,
-				const double *set_K, struct ow_diag *d)
+                                const double *set_K, struct ow_diag *d)
 {
 	int i;
 
 	if (!(isfinite(rpm) && rpm > 0.0 && rpm < 5000.0))
 		return ow_diag_set(d, OW_EARG,
-				   "screw speed %g rpm must be positive", rpm);
+		                   "screw speed %g rpm must be positive", rpm);
 	for (i = 0; set_K && i < sv->s->line.n_zones; i++)
 		if (!(isfinite(set_K[i]) && set_K[i] > 200.0 &&
 		      set_K[i] < 900.0))
 			return ow_diag_set(d, OW_EARG,
-					   "zone %d set-point %g K is not a "
-					   "plausible temperature", i + 1,
-					   set_K[i]);
+			                   "zone %d set-point %g K is not a "
+			                   "plausible temperature",
+			                   i + 1, set_K[i]);
 	return OW_OK;
 }
 
 /* Zones a neighbour floated start their first march as if the march
  * before had floated them there (zone_from_last in solver_march.c): a
  * control point and a slope, but no throughput to predict along. */
-static void start_zones(struct ow_solver *sv,
-			const struct ow_solver_start *s0)
+static void start_zones(struct ow_solver *sv, const struct ow_solver_start *s0)
 {
 	int i;
 
@@ -387,7 +386,7 @@ static void start_zones(struct ow_solver *sv,
 }
 
 void ow_solver_start_from(const struct ow_point *pt,
-			  struct ow_solver_start *out)
+                          struct ow_solver_start *out)
 {
 	int z;
 
@@ -407,8 +406,8 @@ void ow_solver_start_from(const struct ow_point *pt,
 }
 
 enum ow_status ow_solver_run(struct ow_solver *sv, double rpm,
-			     const double *set_K, double warm_kg_s,
-			     struct ow_point *out, struct ow_diag *d)
+                             const double *set_K, double warm_kg_s,
+                             struct ow_point *out, struct ow_diag *d)
 {
 	struct ow_solver_start s0 = {.g_kg_s = warm_kg_s};
 
@@ -416,9 +415,9 @@ enum ow_status ow_solver_run(struct ow_solver *sv, double rpm,
 }
 
 enum ow_status ow_solver_run_from(struct ow_solver *sv, double rpm,
-				  const double *set_K,
-				  const struct ow_solver_start *start,
-				  struct ow_point *out, struct ow_diag *d)
+                                  const double *set_K,
+                                  const struct ow_solver_start *start,
+                                  struct ow_point *out, struct ow_diag *d)
 {
 	const struct ow_line *l = &sv->s->line;
 	struct eval lo = {0}, hi = {0}, best = {0};
@@ -435,7 +434,7 @@ enum ow_status ow_solver_run_from(struct ow_solver *sv, double rpm,
 	for (i = 0; i < l->n_zones; i++) {
 		sv->set_K[i] = set_K ? set_K[i] : l->zones[i].set_K;
 		sv->zone_slope[i] = 0.0; /* learnt afresh: a point depends
-					    on nothing solved before it */
+		                            on nothing solved before it */
 		sv->last_side[i] = sv->last2_side[i] = 0;
 		sv->last_ctrl_K[i] = sv->last2_ctrl_K[i] = sv->set_K[i];
 		sv->last_g[i] = sv->last2_g[i] = 0.0;

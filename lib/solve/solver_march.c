@@ -23,11 +23,11 @@ struct ctx {
 	const struct ow_screw *sc;
 	const struct ow_material *mat;
 	const struct ow_line *ln;
-	double g;          /* throughput of one channel, kg/s */
-	int p;             /* flights */
+	double g; /* throughput of one channel, kg/s */
+	int p;    /* flights */
 	double vb, vbz, vbx, phi, width, sinphi;
 	struct march *m;
-	struct ow_visc_log vlog;     /* the resin's viscosity in log form */
+	struct ow_visc_log vlog;      /* the resin's viscosity in log form */
 	struct ow_melting_in melt_in; /* all but the bed speed, set once */
 	/* state */
 	enum phase ph;
@@ -38,13 +38,13 @@ struct ctx {
 	double pool_K;     /* melt bulk temperature */
 	double pool_peak_K;
 	double film_peak_K;
-	double shear;      /* max shear rate at this station */
+	double shear;          /* max shear rate at this station */
 	struct ow_delay delay; /* the plug heating up ahead of melting */
-	double delay_J_kg; /* heat into the plug so far per kg of it */
-	int delay_done;    /* the film reached the clearance: melting next */
-	int zone;          /* the zone whose steps are being marched */
+	double delay_J_kg;     /* heat into the plug so far per kg of it */
+	int delay_done; /* the film reached the clearance: melting next */
+	int zone;       /* the zone whose steps are being marched */
 	double film_m, film_mu, film_vj2; /* last melt film: thickness,
-					     viscosity, slip speed^2 */
+	                                     viscosity, slip speed^2 */
 };
 
 /* The march's state at a zone's start, to march the zone again. */
@@ -101,8 +101,8 @@ static void note_peak(struct ctx *c, double t, double x)
 }
 
 /* Fill the melt-conveying conditions of one channel at axial x. */
-static void melt_cond(const struct ctx *c, double x, double depth,
-		      double width, double q_m3_s, struct ow_melt_cond *mc)
+static void melt_cond(const struct ctx *c, double x, double depth, double width,
+                      double q_m3_s, struct ow_melt_cond *mc)
 {
 	memset(mc, 0, sizeof *mc);
 	mc->mat = c->mat;
@@ -129,24 +129,25 @@ static void melt_cond(const struct ctx *c, double x, double depth,
  * the step's contact area W dz. *done gets the share of the step after
  * which the film reached the clearance (-1: not yet). */
 static enum ow_status step_delay(struct ctx *c, double x, double dz,
-				 double *done)
+                                 double *done)
 {
 	double h = ow_screw_depth(c->sc, x);
 	double v = ow_melting_bed_speed(c->mat, c->g, h, c->width);
-	double slip = sqrt(c->vb * c->vb + v * v -
-			   2.0 * c->vb * v * cos(c->phi));
+	double slip =
+	    sqrt(c->vb * c->vb + v * v - 2.0 * c->vb * v * cos(c->phi));
 	double rate = v * c->width * c->p, dt = v > 0.0 ? dz / v : 0.0;
 	struct ow_delay_out o;
 	enum ow_status st;
 
 	*done = -1.0;
 	if (!(dt > 0.0))
-		return ow_diag_set(&c->sv->diag, OW_ECOMPUTE, "delay zone at "
-				   "%.3f m: no plug speed", x);
+		return ow_diag_set(&c->sv->diag, OW_ECOMPUTE,
+		                   "delay zone at "
+		                   "%.3f m: no plug speed",
+		                   x);
 	st = ow_delay_advance(&c->delay, ow_solver_barrel(c->sv, x),
-			      wall_h(c, x), slip,
-			      ow_screw_clearance(c->sc, x), dt, &o,
-			      &c->sv->diag);
+	                      wall_h(c, x), slip, ow_screw_clearance(c->sc, x),
+	                      dt, &o, &c->sv->diag);
 	if (st != OW_OK)
 		return st;
 	c->m->power_W += o.dissip_J_m2 * rate;
@@ -169,11 +170,10 @@ static enum ow_status step_delay(struct ctx *c, double x, double dz,
  * the barrel wall (held at its temperature). The plug heats up meanwhile
  * (step_delay); *now is set when the delay zone ended at the step's start,
  * so that melting takes this step. */
-static enum ow_status step_solids(struct ctx *c, double x, double dz,
-				  int *now)
+static enum ow_status step_solids(struct ctx *c, double x, double dz, int *now)
 {
-	struct ow_solids_in in = {c->sc, ow_screw_depth(c->sc, x),
-				  c->sv->rev_s, c->mat};
+	struct ow_solids_in in = {c->sc, ow_screw_depth(c->sc, x), c->sv->rev_s,
+	                          c->mat};
 	struct ow_solids so;
 	struct ow_solids_out o;
 	double w, done;
@@ -210,7 +210,7 @@ struct split {
 static void channel_split(const struct ctx *c, double x, struct split *sp)
 {
 	const struct ow_section *sec =
-		&c->sc->sections[ow_screw_section_at(c->sc, x)];
+	    &c->sc->sections[ow_screw_section_at(c->sc, x)];
 	double f, share;
 
 	sp->bed_h = sp->melt_h = ow_screw_depth(c->sc, x);
@@ -221,11 +221,11 @@ static void channel_split(const struct ctx *c, double x, struct split *sp)
 	f = (x - sec->start_m) / sec->length_m;
 	f = f < 0.0 ? 0.0 : (f > 1.0 ? 1.0 : f);
 	share = sec->melt_share_start +
-		(sec->melt_share_end - sec->melt_share_start) * f;
+	        (sec->melt_share_end - sec->melt_share_start) * f;
 	sp->bed_w = c->width * (1.0 - share);
 	sp->melt_w = c->width * share;
 	sp->melt_h = sec->melt_depth_start_m +
-		     (sec->melt_depth_end_m - sec->melt_depth_start_m) * f;
+	             (sec->melt_depth_end_m - sec->melt_depth_start_m) * f;
 }
 
 /* Feed capacity of the first section (Darnell & Mol 1956): the rate it
@@ -234,7 +234,7 @@ static void channel_split(const struct ctx *c, double x, struct split *sp)
 static enum ow_status check_feed(struct ctx *c)
 {
 	struct ow_solids_in in = {c->sc, ow_screw_depth(c->sc, 0.0),
-				  c->sv->rev_s, c->mat};
+	                          c->sv->rev_s, c->mat};
 	struct ow_solids so;
 	enum ow_status st = ow_solids_prepare(&in, &so, &c->sv->diag);
 
@@ -264,8 +264,8 @@ static void start_melting(struct ctx *c, double x)
 
 	channel_split(c, x, &sp);
 	ow_delay_bed(&c->delay, sp.bed_h,
-		     c->delay_J_kg * c->mat->solid_density_kg_m3 * sp.bed_h,
-		     &f, &bed_K, &melt_K);
+	             c->delay_J_kg * c->mat->solid_density_kg_m3 * sp.bed_h, &f,
+	             &bed_K, &melt_K);
 	c->ph = PH_MELTING;
 	c->X = sp.bed_w * (1.0 - f);
 	c->vsz = ow_melting_bed_speed(c->mat, c->g, sp.bed_h, sp.bed_w);
@@ -285,7 +285,7 @@ static void fit_bed(struct ctx *c, const struct split *sp)
 		return;
 	c->X = sp->bed_w;
 	c->vsz = c->solid_flow /
-		 (c->mat->solid_density_kg_m3 * sp->bed_h * sp->bed_w);
+	         (c->mat->solid_density_kg_m3 * sp->bed_h * sp->bed_w);
 }
 
 /* A channel carrying melt: its depth and width, and the speed at which one
@@ -297,8 +297,8 @@ struct chan {
 /* Solve the melt of flow q in channel ch at axial x; the band temperatures
  * advance over dz (0: the pressure gradient only). */
 static enum ow_status chan_solve(struct ctx *c, double x, double dz,
-				 const struct chan *ch, double q,
-				 struct ow_melt_out *o)
+                                 const struct chan *ch, double q,
+                                 struct ow_melt_out *o)
 {
 	struct ow_melt_cond mc;
 
@@ -313,8 +313,8 @@ static enum ow_status chan_solve(struct ctx *c, double x, double dz,
  * share of the melt this channel carries; power and heat are booked over dz
  * (share 1: the whole melt). */
 static enum ow_status step_pool(struct ctx *c, double x, double dz,
-				const struct chan *ch, double q, double share,
-				struct ow_melt_out *o)
+                                const struct chan *ch, double q, double share,
+                                struct ow_melt_out *o)
 {
 	enum ow_status st = chan_solve(c, x, share * dz, ch, q, o);
 
@@ -334,8 +334,8 @@ static enum ow_status step_pool(struct ctx *c, double x, double dz,
  * channel carries q1 of the melt flow q: G_1(q1) - G_2(q - q1), falling as
  * q1 rises. Temperatures untouched. */
 static enum ow_status split_gap(struct ctx *c, double x,
-				const struct chan ch[2], double q, double q1,
-				double *gap)
+                                const struct chan ch[2], double q, double q1,
+                                double *gap)
 {
 	struct ow_melt_out o1, o2;
 	enum ow_status st = chan_solve(c, x, 0.0, &ch[0], q1, &o1);
@@ -346,7 +346,7 @@ static enum ow_status split_gap(struct ctx *c, double x,
 	return st;
 }
 
-#define SPLIT_TOL 1e-6  /* gradient mismatch relative to the larger one */
+#define SPLIT_TOL   1e-6 /* gradient mismatch relative to the larger one */
 #define SPLIT_MAXIT 60
 
 /* The share of the melt flow q the solids channel carries when both
@@ -357,8 +357,7 @@ static enum ow_status split_gap(struct ctx *c, double x,
  * q1 in [0, q]; a channel whose gradient cannot be matched even with all
  * or none of the flow gets all or none of it. */
 static enum ow_status split_flow(struct ctx *c, double x,
-				 const struct chan ch[2], double q,
-				 double *q1)
+                                 const struct chan ch[2], double q, double *q1)
 {
 	double lo = 0.0, hi = q, flo, fhi, f, g1, g2;
 	int it, side = 0;
@@ -401,12 +400,12 @@ static enum ow_status split_flow(struct ctx *c, double x,
  * larger shear rate. A pool beside the bed narrower than it is deep
  * carries none. */
 static enum ow_status step_barrier(struct ctx *c, double x, double dz,
-				   const struct split *sb, double bed_w,
-				   double q, struct ow_melt_out *mo)
+                                   const struct split *sb, double bed_w,
+                                   double q, struct ow_melt_out *mo)
 {
-	struct chan ch[2] = {{sb->bed_h, sb->bed_w - bed_w,
-			      bed_w > 0.0 ? c->vsz : 0.0},
-			     {sb->melt_h, sb->melt_w, 0.0}};
+	struct chan ch[2] = {
+	    {sb->bed_h, sb->bed_w - bed_w, bed_w > 0.0 ? c->vsz : 0.0},
+	    {sb->melt_h, sb->melt_w, 0.0}};
 	struct ow_melt_out o;
 	double q1 = 0.0, qs[2], g = 0.0;
 	enum ow_status st = OW_OK;
@@ -437,8 +436,8 @@ static enum ow_status step_barrier(struct ctx *c, double x, double dz,
  * melting point it entered with; an engineering choice, not from a source.
  * *mo is zero then. */
 static enum ow_status step_melt_of_bed(struct ctx *c, double x, double dz,
-				       const struct split *sb, double bed_w,
-				       double q, struct ow_melt_out *mo)
+                                       const struct split *sb, double bed_w,
+                                       double q, struct ow_melt_out *mo)
 {
 	struct chan pool = {sb->bed_h, sb->bed_w - bed_w, c->vsz};
 
@@ -453,7 +452,7 @@ static enum ow_status step_melt_of_bed(struct ctx *c, double x, double dz,
 /* Mix melt of mass dm_kg_s entering at temp_K into the pool of mass flow
  * before_kg_s: flow-weighted, so the pool's enthalpy flux is conserved. */
 static void mix_into_pool(struct ctx *c, double before, double dm,
-			  double temp_K)
+                          double temp_K)
 {
 	if (dm <= 0.0 || before + dm <= 0.0)
 		return;
@@ -469,9 +468,9 @@ static void mix_into_pool(struct ctx *c, double before, double dm,
 static void book_unheated(struct ctx *c, const struct ow_melting_step_out *o)
 {
 	const struct ow_material *mt = c->mat;
-	double heat = mt->solid_cp_J_kgK *
-			      (mt->melt_temp_K - c->melt_in.solid_temp_K) +
-		      mt->fusion_J_kg; /* the bed enters at its T_s */
+	double heat =
+	    mt->solid_cp_J_kgK * (mt->melt_temp_K - c->melt_in.solid_temp_K) +
+	    mt->fusion_J_kg; /* the bed enters at its T_s */
 	double free_kg_s = o->melted_kg_s - o->bed_heat_W / heat;
 
 	if (free_kg_s > 0.0)
@@ -486,8 +485,8 @@ static void book_unheated(struct ctx *c, const struct ow_melting_step_out *o)
  * so the bed widens as it is squeezed when A sqrt(s) / psi_t > 1; for a
  * bed filling the channel that is Tadmor's criterion psi_t <= A. */
 static void note_compression(struct ctx *c, const struct split *sa,
-			     const struct split *sb, double dz,
-			     const struct ow_melting_step_out *o, double x)
+                             const struct split *sb, double dz,
+                             const struct ow_melting_step_out *o, double x)
 {
 	double taper = (sa->bed_h - sb->bed_h) / dz, psi, r;
 
@@ -498,7 +497,7 @@ static void note_compression(struct ctx *c, const struct split *sa,
 		c->m->max_sbr_at_m = x;
 	}
 	psi = ow_melting_psi_taper(o->film.phi, c->mat->solid_density_kg_m3,
-				   c->vsz, sb->bed_w);
+	                           c->vsz, sb->bed_w);
 	r = taper * sqrt(o->sbr) / psi;
 	if (psi > 0.0 && r > c->m->plug_ratio)
 		c->m->plug_ratio = r;
@@ -518,7 +517,8 @@ static double film_wall(const struct ctx *c, double x)
 		return tc;
 	a = c->mat->melt_k_W_mK / (d * h);
 	return (tc + a * c->mat->melt_temp_K +
-		c->film_mu * c->film_vj2 / (2.0 * d * h)) / (1.0 + a);
+	        c->film_mu * c->film_vj2 / (2.0 * d * h)) /
+	       (1.0 + a);
 }
 
 /* A bed carrying at most this share of the channel's throughput at a
@@ -533,7 +533,7 @@ static double film_wall(const struct ctx *c, double x)
  * pushing the bed up the pressure gradient; friction of the bed on the
  * screw is neglected, as in Tadmor's model. */
 static enum ow_status step_melting(struct ctx *c, double x, double dx,
-				   double dz)
+                                   double dz)
 {
 	const struct ow_material *mt = c->mat;
 	struct ow_melting_in *in = &c->melt_in;
@@ -550,7 +550,7 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 	in->bed_speed_m_s = c->vsz;
 	a = (struct ow_melting_station){sa.bed_h, sa.bed_w, film_wall(c, x)};
 	b = (struct ow_melting_station){sb.bed_h, sb.bed_w,
-					film_wall(c, x + dx)};
+	                                film_wall(c, x + dx)};
 	if (sb.barrier && sb.bed_w < c->X)
 		b.width_m = c->X; /* the barrier reshapes the bed, not plugs */
 	st = ow_melting_step(in, &a, &b, dz, c->X, &o, &c->sv->diag);
@@ -569,15 +569,16 @@ static enum ow_status step_melting(struct ctx *c, double x, double dx,
 		book_unheated(c, &o);
 	c->solid_flow = o.solid_flow_kg_s;
 	q = (c->g - c->solid_flow) / mt->melt_density_kg_m3;
-	st = step_melt_of_bed(c, x + 0.5 * dx, dz, &sb, o.bed_width_m, q,
-			      &mo);
+	st = step_melt_of_bed(c, x + 0.5 * dx, dz, &sb, o.bed_width_m, q, &mo);
 	if (st != OW_OK)
 		return st;
 	/* film: dissipation + pressure work on the bed; heat from barrel */
-	c->m->power_W += (o.dissipation_W + c->solid_flow /
-			  mt->solid_density_kg_m3 * mo.dpdz_Pa_m * dz) * c->p;
+	c->m->power_W +=
+	    (o.dissipation_W +
+	     c->solid_flow / mt->solid_density_kg_m3 * mo.dpdz_Pa_m * dz) *
+	    c->p;
 	c->m->flow_work_W += (c->solid_flow / mt->solid_density_kg_m3 + q) *
-			     mo.dpdz_Pa_m * dz * c->p;
+	                     mo.dpdz_Pa_m * dz * c->p;
 	book_barrel(c, x, o.barrel_heat_W * c->p);
 	c->P += mo.dpdz_Pa_m * dz;
 	c->X = o.bed_width_m;
@@ -611,7 +612,7 @@ static enum ow_status step_melt(struct ctx *c, double x, double dx, double dz)
 
 	channel_split(c, xm, &sp);
 	st = sp.barrier ? step_barrier(c, xm, dz, &sp, 0.0, q, &mo)
-			: step_pool(c, xm, dz, &ch, q, 1.0, &mo);
+	                : step_pool(c, xm, dz, &ch, q, 1.0, &mo);
 	if (st != OW_OK)
 		return st;
 	c->m->flow_work_W += q * mo.dpdz_Pa_m * dz * c->p;
@@ -627,13 +628,13 @@ static enum ow_status step_melt(struct ctx *c, double x, double dx, double dz)
  * exchanges heat with the barrel as in any section (ow_melt_mixer_step).
  * Over one step the share dx/L of the section applies. */
 static enum ow_status step_mixer(struct ctx *c, const struct ow_section *sec,
-				 double x, double dx, double dz)
+                                 double x, double dx, double dz)
 {
 	const struct ow_material *mt = c->mat;
 	double e = c->sc->flight_width_m, share = dx / sec->length_m;
 	double q = c->g * c->p / mt->melt_density_kg_m3; /* whole screw */
 	double mu = ow_viscosity_eval(&mt->visc, c->vb / sec->gap_m,
-				      ow_melt_bulk(c->sv->melt));
+	                              ow_melt_bulk(c->sv->melt));
 	struct ow_mixer_land land;
 	struct ow_melt_cond mc;
 	struct ow_melt_out mo;
@@ -641,17 +642,17 @@ static enum ow_status step_mixer(struct ctx *c, const struct ow_section *sec,
 
 	if (e <= 0.0)
 		e = 0.1 * c->sc->diameter_m; /* land about 0.1 D: common
-						practice */
+		                                practice */
 	ow_melt_mixer_land(q, sec->lands, sec->length_m, sec->gap_m, e, c->vb,
-			   mu, &land);
+	                   mu, &land);
 	if (!isfinite(land.heat_W))
 		return ow_diag_set(&c->sv->diag, OW_ECOMPUTE,
-				   "mixer at %.3f m: viscosity not finite", x);
-	melt_cond(c, x + 0.5 * dx, sec->depth_m, c->width, c->g /
-		  mt->melt_density_kg_m3, &mc);
+		                   "mixer at %.3f m: viscosity not finite", x);
+	melt_cond(c, x + 0.5 * dx, sec->depth_m, c->width,
+	          c->g / mt->melt_density_kg_m3, &mc);
 	st = ow_melt_mixer_step(c->sv->melt, &mc, dz,
-				land.heat_W * share / (c->p * dz), &mo,
-				&c->sv->diag);
+	                        land.heat_W * share / (c->p * dz), &mo,
+	                        &c->sv->diag);
 	if (st != OW_OK)
 		return st;
 	c->m->power_W += land.power_W * share;
@@ -682,7 +683,7 @@ static void record(struct ctx *c, int i, double x)
 	r->bulk_K = c->ph == PH_SOLIDS ? NAN : bulk;
 	r->peak_K = peak;
 	r->sbr = c->ph == PH_MELTING ? c->X / c->width
-		 : (c->ph == PH_SOLIDS ? 1.0 : 0.0);
+	                             : (c->ph == PH_SOLIDS ? 1.0 : 0.0);
 	r->unmelt_frac = c->solid_flow / c->g;
 	r->shear_max_1_s = c->shear;
 	c->sv->n_rows = i + 1;
@@ -715,7 +716,7 @@ static void after_step(struct ctx *c, double x, double dx)
 static enum ow_status one_step(struct ctx *c, double x, double dx)
 {
 	const struct ow_section *sec =
-		&c->sc->sections[ow_screw_section_at(c->sc, x + 0.5 * dx)];
+	    &c->sc->sections[ow_screw_section_at(c->sc, x + 0.5 * dx)];
 	double dz = dx / c->sinphi;
 
 	c->shear = 0.0;
@@ -737,7 +738,7 @@ static enum ow_status one_step(struct ctx *c, double x, double dx)
 }
 
 static void init_ctx(struct ctx *c, struct ow_solver *sv, double g,
-		     struct march *m)
+                     struct march *m)
 {
 	const struct ow_screw *sc = &sv->s->screw;
 
@@ -788,10 +789,10 @@ static void finish(struct ctx *c, struct march *m)
 {
 	m->tip_Pa = c->P;
 	m->unmelt = c->solid_flow / c->g;
-	m->bulk_K = c->ph == PH_SOLIDS ? c->ln->feed_temp_K
-				       : ow_melt_bulk(c->sv->melt);
-	m->peak_tip_K = c->ph == PH_SOLIDS ? c->ln->feed_temp_K
-					   : ow_melt_peak(c->sv->melt);
+	m->bulk_K =
+	    c->ph == PH_SOLIDS ? c->ln->feed_temp_K : ow_melt_bulk(c->sv->melt);
+	m->peak_tip_K =
+	    c->ph == PH_SOLIDS ? c->ln->feed_temp_K : ow_melt_peak(c->sv->melt);
 	if (!isfinite(m->peak_K))
 		m->peak_K = m->bulk_K;
 	if (c->ph == PH_SOLIDS)
@@ -845,18 +846,18 @@ static double zone_target(const struct ow_zone *z, double q_W)
  * superlinearly and a tolerance far below the match's own (P_RTOL 1e-4)
  * costs about one zone march more than a loose one: the match function
  * then carries no trace of where the zone iteration happened to stop. */
-#define ZONE_TOL_W 1e-2
-#define ZONE_RTOL 1e-5
-#define ZONE_DT_K 1e-9
-#define ZONE_MAXIT 12
-#define ZONE_STEP_K 100.0   /* largest change of a control point per try */
-#define ZONE_LO_K 250.0     /* range a control point may float in */
-#define ZONE_HI_K 850.0
+#define ZONE_TOL_W  1e-2
+#define ZONE_RTOL   1e-5
+#define ZONE_DT_K   1e-9
+#define ZONE_MAXIT  12
+#define ZONE_STEP_K 100.0 /* largest change of a control point per try */
+#define ZONE_LO_K   250.0 /* range a control point may float in */
+#define ZONE_HI_K   850.0
 
 /* March zone z's steps (from..to) from its start state s0 with its control
  * point at t_K; returns the zone's heat through *q_W. */
 static enum ow_status zone_try(struct ctx *c, const struct snap *s0, int z,
-			       int from, int to, double t_K, double *q_W)
+                               int from, int to, double t_K, double *q_W)
 {
 	enum ow_status st;
 
@@ -872,9 +873,9 @@ static enum ow_status zone_try(struct ctx *c, const struct snap *s0, int z,
  * (t0, q0) and a first step t1. Returns 1 when converged (the zone's
  * steps marched at the root, its slope in *k), 0 when the zone's heat does
  * not follow its wall, -1 when a march failed (*st). */
-static int zone_secant(struct ctx *c, const struct snap *s0, int z,
-		       int from, int to, double target, double t0,
-		       double q0, double t1, double *k, enum ow_status *st)
+static int zone_secant(struct ctx *c, const struct snap *s0, int z, int from,
+                       int to, double target, double t0, double q0, double t1,
+                       double *k, enum ow_status *st)
 {
 	double tol = c->sv->tol * fmax(ZONE_TOL_W, ZONE_RTOL * fabs(target));
 	double q1;
@@ -905,8 +906,8 @@ static int zone_secant(struct ctx *c, const struct snap *s0, int z,
 static double zone_first_step(double t0, double q0, double target, double k)
 {
 	if (k > 0.0)
-		return t0 + fmin(fmax((target - q0) / k, -ZONE_STEP_K),
-				 ZONE_STEP_K);
+		return t0 +
+		       fmin(fmax((target - q0) / k, -ZONE_STEP_K), ZONE_STEP_K);
 	return t0 + (target > q0 ? 10.0 : -10.0);
 }
 
@@ -917,13 +918,15 @@ static double zone_first_step(double t0, double q0, double target, double k)
  * control temperature), the zone floats and its demand at the set-point
  * is the heat extrapolated along the secant slope, Q(T_set) = P + k (T_set
  * - T_c). Returns 1 when that holds, 0 to solve the zone from its set-point. */
-static int zone_from_last(struct ctx *c, const struct snap *s0, int z,
-			  int from, int to, enum ow_status *st)
+static int zone_from_last(struct ctx *c, const struct snap *s0, int z, int from,
+                          int to, enum ow_status *st)
 {
 	struct ow_solver *sv = c->sv;
 	const struct ow_zone *zn = &c->ln->zones[z];
-	double t0 = sv->last_ctrl_K[z], set = sv->set_K[z], k = sv->zone_slope[z];
-	double dg = sv->last_g[z] - sv->last2_g[z], target = sv->last_side[z] > 0 ? zn->heating_W : -zn->cooling_W;
+	double t0 = sv->last_ctrl_K[z], set = sv->set_K[z],
+	       k = sv->zone_slope[z];
+	double dg = sv->last_g[z] - sv->last2_g[z],
+	       target = sv->last_side[z] > 0 ? zn->heating_W : -zn->cooling_W;
 	double q0;
 	int rc;
 
@@ -934,11 +937,12 @@ static int zone_from_last(struct ctx *c, const struct snap *s0, int z,
 	if (sv->last2_side[z] == sv->last_side[z] && dg != 0.0 &&
 	    sv->last_g[z] > 0.0 && sv->last2_g[z] > 0.0) {
 		double dk = (sv->last_k[z] - sv->last2_k[z]) / dg *
-			    (c->g - sv->last_g[z]);
+		            (c->g - sv->last_g[z]);
 
 		t0 += fmin(fmax((sv->last_ctrl_K[z] - sv->last2_ctrl_K[z]) /
-				dg * (c->g - sv->last_g[z]), -ZONE_STEP_K),
-			   ZONE_STEP_K);
+		                    dg * (c->g - sv->last_g[z]),
+		                -ZONE_STEP_K),
+		           ZONE_STEP_K);
 		if (sv->last2_k[z] > 0.0) /* the slope likewise */
 			k = fmin(fmax(k + dk, 0.5 * k), 2.0 * k);
 	}
@@ -950,9 +954,9 @@ static int zone_from_last(struct ctx *c, const struct snap *s0, int z,
 		rc = 1;
 	else
 		rc = zone_secant(c, s0, z, from, to, target, t0, q0,
-				 zone_first_step(t0, q0, target, k), &k, st);
-	if (rc != 1 || (target > 0.0 ? sv->ctrl_K[z] >= set
-				     : sv->ctrl_K[z] <= set))
+		                 zone_first_step(t0, q0, target, k), &k, st);
+	if (rc != 1 ||
+	    (target > 0.0 ? sv->ctrl_K[z] >= set : sv->ctrl_K[z] <= set))
 		return 0;
 	sv->zone_slope[z] = k;
 	sv->zone_slope_m = k / ((to - from) * sv->dx_m);
@@ -994,7 +998,7 @@ static enum ow_status run_zone(struct ctx *c, int z, int from, int to)
 	if (!(k > 0.0)) /* the zones are alike per length of barrel */
 		k = sv->zone_slope_m * (to - from) * sv->dx_m;
 	rc = zone_secant(c, &s0, z, from, to, target, t0, q0,
-			 zone_first_step(t0, q0, target, k), &k, &st);
+	                 zone_first_step(t0, q0, target, k), &k, &st);
 	if (rc == 0) {
 		/* the zone's heat does not follow its wall (friction on the
 		 * solid plug only): no temperature it can hold; report it
@@ -1021,7 +1025,7 @@ done:
 }
 
 enum ow_status ow_solver_march(struct ow_solver *sv, double g_kg_s,
-			       struct march *m)
+                               struct march *m)
 {
 	const struct ow_line *l = &sv->s->line;
 	struct ctx c;
@@ -1039,7 +1043,7 @@ enum ow_status ow_solver_march(struct ow_solver *sv, double g_kg_s,
 		/* the zone's steps: those whose middle lies in it */
 		while (to < sv->n_steps &&
 		       (z == l->n_zones - 1 ||
-			(to + 0.5) * sv->dx_m < l->zones[z].to_m))
+		        (to + 0.5) * sv->dx_m < l->zones[z].to_m))
 			to++;
 		if (to > from)
 			st = run_zone(&c, z, from, to);

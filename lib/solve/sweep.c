@@ -6,7 +6,7 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define MAX_REFINE 4
+#define MAX_REFINE   4
 #define SLOPE_SMOOTH 0.1 /* match slopes this close extrapolate */
 
 void ow_sweep_default(struct ow_sweep_config *c)
@@ -34,7 +34,7 @@ struct run {
 };
 
 static void solve_point(struct run *r, struct ow_solver *sv, int ir, int ia,
-			const struct ow_solver_start *start)
+                        const struct ow_solver_start *start)
 {
 	struct ow_grid_point *gp = ow_grid_at(r->g, ir, ia);
 	double set_K[OW_MAX_ZONES];
@@ -42,11 +42,10 @@ static void solve_point(struct run *r, struct ow_solver *sv, int ir, int ia,
 	int done;
 
 	ow_line_apply_axis(&r->s->line, gp->axis, set_K);
-	if (ow_solver_run_from(sv, gp->rpm, set_K, start, &gp->pt, &d) !=
-	    OW_OK)
+	if (ow_solver_run_from(sv, gp->rpm, set_K, start, &gp->pt, &d) != OW_OK)
 		gp->pt.flags |= OW_FLAG_NOT_CONVERGED; /* never stop a sweep */
-	ow_classify(&gp->pt, &r->s->line.limits,
-		    ow_screw_length(&r->s->screw), &gp->v);
+	ow_classify(&gp->pt, &r->s->line.limits, ow_screw_length(&r->s->screw),
+	            &gp->v);
 	gp->solved = 1;
 #pragma omp atomic capture
 	done = ++r->done;
@@ -75,8 +74,8 @@ static double lagrange(const double *x, int n, int k, double t)
  * points extrapolated along the points that floated them on the same
  * side, like the throughput. */
 static void predict_zones(const struct ow_point *const *prev, int n,
-			  const double *x, double t,
-			  struct ow_solver_start *out)
+                          const double *x, double t,
+                          struct ow_solver_start *out)
 {
 	struct ow_solver_start other[OW_SWEEP_PREDICT];
 	int z, k, m;
@@ -92,8 +91,7 @@ static void predict_zones(const struct ow_point *const *prev, int n,
 		     m++)
 			;
 		for (k = 0; k < m; k++)
-			tc += lagrange(x, m, k, t) *
-			      prev[k]->zone_control_K[z];
+			tc += lagrange(x, m, k, t) * prev[k]->zone_control_K[z];
 		out->zone_K[z] = tc;
 	}
 }
@@ -102,8 +100,8 @@ static void predict_zones(const struct ow_point *const *prev, int n,
  * throughput per speed extrapolated, x the speeds) or down a column of
  * one speed (the throughput itself, x the axis values). */
 static void predict_along(const struct ow_point *const *prev, int n,
-			  const double *x, double t, int per_rpm,
-			  struct ow_solver_start *out)
+                          const double *x, double t, int per_rpm,
+                          struct ow_solver_start *out)
 {
 	double sum = 0.0;
 	int k;
@@ -121,13 +119,13 @@ static void predict_along(const struct ow_point *const *prev, int n,
 	 * is steep, and extrapolated it would run away) */
 	if (n > 1 && prev[1]->match_slope < 0.0 && out->slope < 0.0 &&
 	    fabs(out->slope / prev[1]->match_slope - 1.0) < SLOPE_SMOOTH)
-		out->slope += (out->slope - prev[1]->match_slope) *
-			      (t - x[0]) / (x[0] - x[1]);
+		out->slope += (out->slope - prev[1]->match_slope) * (t - x[0]) /
+		              (x[0] - x[1]);
 	predict_zones(prev, n, x, t, out);
 }
 
 void ow_sweep_predict(const struct ow_point *const *prev, int n, double rpm,
-		      struct ow_solver_start *out)
+                      struct ow_solver_start *out)
 {
 	double x[OW_SWEEP_PREDICT];
 	int k;
@@ -148,14 +146,14 @@ struct chain {
 /* Take point gp (at x along the chain) into the chain if it converged;
  * one that did not restarts the chain. */
 static void chain_push(struct chain *ch, const struct ow_grid_point *gp,
-		       double x)
+                       double x)
 {
 	if (!usable(gp)) {
 		ch->n = 0;
 		return;
 	}
 	memmove(ch->prev + 1, ch->prev,
-		sizeof ch->prev[0] * (OW_SWEEP_PREDICT - 1));
+	        sizeof ch->prev[0] * (OW_SWEEP_PREDICT - 1));
 	memmove(ch->x + 1, ch->x, sizeof ch->x[0] * (OW_SWEEP_PREDICT - 1));
 	ch->prev[0] = &gp->pt;
 	ch->x[0] = x;
@@ -183,7 +181,7 @@ static void lead_in(struct run *r, struct ow_solver **svs)
 		for (j = up ? mid : mid - 1; j >= 0 && j < rows;
 		     j += up ? 1 : -1) {
 			struct ow_grid_point *gp =
-				ow_grid_at(g, ir, j * g->stride);
+			    ow_grid_at(g, ir, j * g->stride);
 			struct ow_solver_start s0;
 
 			predict_along(ch.prev, ch.n, ch.x, gp->axis, 0, &s0);
@@ -216,7 +214,7 @@ static void coarse_pass(struct run *r, struct ow_solver **svs)
 				struct ow_solver_start s0;
 
 				predict_along(ch.prev, ch.n, ch.x, gp->rpm, 1,
-					      &s0);
+				              &s0);
 				solve_point(r, sv, ir, ia, &s0);
 			}
 			chain_push(&ch, gp, gp->rpm);
@@ -257,7 +255,7 @@ static int mark_level(struct ow_grid *g, int s, int *list)
 				int jr = ir + off[k][0] * h;
 				int ja = ia + off[k][1] * h;
 				struct ow_grid_point *gp =
-					ow_grid_at(g, jr, ja);
+				    ow_grid_at(g, jr, ja);
 
 				if (gp->solved) /* solved, or planned */
 					continue;
@@ -279,7 +277,7 @@ static int cmp_int(const void *a, const void *b)
  * interpolated bilinearly from the converged corners of its cell, which
  * were all solved at coarser levels. */
 static void cell_start(const struct ow_grid *g, int ir, int ia, int s,
-		       struct ow_solver_start *out)
+                       struct ow_solver_start *out)
 {
 	int i0 = ir - ir % s, j0 = ia - ia % s, k;
 	double tx = (double)(ir - i0) / s, ty = (double)(ia - j0) / s;
@@ -288,8 +286,8 @@ static void cell_start(const struct ow_grid *g, int ir, int ia, int s,
 	memset(out, 0, sizeof *out);
 	for (k = 0; k < 4; k++) {
 		int i = i0 + (k & 1) * s, j = j0 + (k >> 1) * s;
-		double w = ((k & 1) ? tx : 1.0 - tx) *
-			   ((k >> 1) ? ty : 1.0 - ty);
+		double w =
+		    ((k & 1) ? tx : 1.0 - tx) * ((k >> 1) ? ty : 1.0 - ty);
 		const struct ow_grid_point *c;
 
 		if (w <= 0.0 || i >= g->n_rpm || j >= g->n_axis)
@@ -320,8 +318,7 @@ static void refine_pass(struct run *r, struct ow_solver **svs, int *list)
 			struct ow_solver_start s0;
 
 			cell_start(g, ir, ia, s, &s0);
-			solve_point(r, svs[omp_get_thread_num()], ir, ia,
-				    &s0);
+			solve_point(r, svs[omp_get_thread_num()], ir, ia, &s0);
 		}
 	}
 }
@@ -338,7 +335,7 @@ static void fill_uniform(struct ow_grid *g)
 
 			for (s = 2; !gp->solved && s <= g->stride; s *= 2) {
 				const struct ow_grid_point *c =
-					ow_grid_at(g, ir - ir % s, ia - ia % s);
+				    ow_grid_at(g, ir - ir % s, ia - ia % s);
 
 				if (c->solved == 1) {
 					gp->v = c->v;
@@ -349,8 +346,8 @@ static void fill_uniform(struct ow_grid *g)
 }
 
 static enum ow_status make_grid(const struct ow_study *s,
-				const struct ow_sweep_config *c,
-				struct ow_grid **out, struct ow_diag *d)
+                                const struct ow_sweep_config *c,
+                                struct ow_grid **out, struct ow_diag *d)
 {
 	const struct ow_axes *ax = &s->line.axes;
 	int nr = c->rpm_steps > 0 ? c->rpm_steps : ax->rpm_steps;
@@ -360,14 +357,15 @@ static enum ow_status make_grid(const struct ow_study *s,
 
 	if (ax->rpm_steps < 2)
 		return ow_diag_set(d, OW_EINPUT,
-				   "%s: sweep: the study has no sweep "
-				   "(sweep.rpm and sweep.barrel)", s->path);
+		                   "%s: sweep: the study has no sweep "
+		                   "(sweep.rpm and sweep.barrel)",
+		                   s->path);
 	if (nr < 2 || na < 2 || nr > 1000 || na > 1000 || ref < 0 ||
 	    ref > MAX_REFINE)
 		return ow_diag_set(d, OW_EARG,
-				   "grid %dx%d with refine %d: steps must be "
-				   "2..1000 and refine 0..%d", nr, na, ref,
-				   MAX_REFINE);
+		                   "grid %dx%d with refine %d: steps must be "
+		                   "2..1000 and refine 0..%d",
+		                   nr, na, ref, MAX_REFINE);
 	g = calloc(1, sizeof *g);
 	if (!g)
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
@@ -384,10 +382,10 @@ static enum ow_status make_grid(const struct ow_study *s,
 			struct ow_grid_point *gp = ow_grid_at(g, ir, ia);
 
 			gp->rpm = ax->rpm_from + (ax->rpm_to - ax->rpm_from) *
-					      ir / (g->n_rpm - 1);
-			gp->axis = ax->axis_from +
-				   (ax->axis_to - ax->axis_from) * ia /
-					   (g->n_axis - 1);
+			                             ir / (g->n_rpm - 1);
+			gp->axis =
+			    ax->axis_from + (ax->axis_to - ax->axis_from) * ia /
+			                        (g->n_axis - 1);
 			gp->set_ref_K = ow_line_axis_ref_K(&s->line, gp->axis);
 		}
 	*out = g;
@@ -405,8 +403,8 @@ static enum ow_status make_solvers(struct run *r, struct ow_solver **svs)
 }
 
 enum ow_status ow_sweep_run(const struct ow_study *s,
-			    const struct ow_sweep_config *c,
-			    struct ow_grid **out, struct ow_diag *d)
+                            const struct ow_sweep_config *c,
+                            struct ow_grid **out, struct ow_diag *d)
 {
 	struct run r = {s, c, NULL, 0, 0, 0, OW_OK, {{0}}};
 	struct ow_solver **svs = NULL;
@@ -418,7 +416,7 @@ enum ow_status ow_sweep_run(const struct ow_study *s,
 		return st;
 	r.threads = c->jobs > 0 ? c->jobs : omp_get_max_threads();
 	r.planned = ((r.g->n_rpm - 1) / r.g->stride + 1) *
-		    ((r.g->n_axis - 1) / r.g->stride + 1);
+	            ((r.g->n_axis - 1) / r.g->stride + 1);
 	svs = calloc((size_t)r.threads, sizeof *svs);
 	list = malloc(sizeof *list * (size_t)r.g->n_rpm * (size_t)r.g->n_axis);
 	if (!svs || !list) {

@@ -32,7 +32,8 @@
 struct ow_study; /* ow_study.h */
 struct ow_grid;  /* ow_sweep.h */
 
-/* ---- the sampled sweep ---------------------------------------------------- */
+/* ---- the sampled sweep ----------------------------------------------------
+ */
 
 struct ow_spread_config {
 	int jobs;     /* threads; 0: all cores */
@@ -45,23 +46,23 @@ struct ow_spread_config {
 
 /* Per lattice point. */
 struct ow_spread_point {
-	int sampled;                      /* 1: samples solved; 0: decided by
-					     the nominal margins (or filled
-					     from a solved corner) */
-	double share;                     /* safe samples / samples */
-	double worst[OW_SPREAD_LIMITS];       /* lowest margin over the samples
-					     (NAN: limit not set or not
-					     sampled) */
+	int sampled;                    /* 1: samples solved; 0: decided by
+	                                   the nominal margins (or filled
+	                                   from a solved corner) */
+	double share;                   /* safe samples / samples */
+	double worst[OW_SPREAD_LIMITS]; /* lowest margin over the samples
+	                               (NAN: limit not set or not
+	                               sampled) */
 	double level_margin[OW_SPREAD_LIMITS]; /* margin the `level` share of
-					      samples exceeds */
-	unsigned fail_bits;               /* checks any sample failed */
+	                                      samples exceeds */
+	unsigned fail_bits;                    /* checks any sample failed */
 };
 
 struct ow_spread_rank {
-	int input;     /* index into the spread's inputs */
-	double corr;   /* correlation of the input with the smallest margin
-			  over the fringe points' samples: < 0, a higher
-			  value shrinks the window */
+	int input;   /* index into the spread's inputs */
+	double corr; /* correlation of the input with the smallest margin
+	                over the fringe points' samples: < 0, a higher
+	                value shrinks the window */
 };
 
 struct ow_spread_result {
@@ -70,11 +71,11 @@ struct ow_spread_result {
 	int samples;
 	unsigned long seed;
 	double level;
-	int solves;                  /* sample solves done (probes too) */
-	int solves_saved;            /* samples not solved at decided points */
+	int solves;       /* sample solves done (probes too) */
+	int solves_saved; /* samples not solved at decided points */
 	int probe_solves;
-	double bound[OW_SPREAD_LIMITS];  /* how far the spread moves each margin
-					(probe estimate) */
+	double bound[OW_SPREAD_LIMITS]; /* how far the spread moves each margin
+	                               (probe estimate) */
 	int n_rank;
 	struct ow_spread_rank rank[OW_SPREAD_MAX_INPUTS];
 };
@@ -85,9 +86,8 @@ void ow_spread_config_default(struct ow_spread_config *c);
  * study's spread (s->spread; OW_EINPUT when it has no inputs). *out is
  * owned by the caller (ow_spread_result_destroy). */
 enum ow_status ow_spread_run(const struct ow_study *s, const struct ow_grid *g,
-			     const struct ow_spread_config *c,
-			     struct ow_spread_result **out,
-			     struct ow_diag *d);
+                             const struct ow_spread_config *c,
+                             struct ow_spread_result **out, struct ow_diag *d);
 void ow_spread_result_destroy(struct ow_spread_result *r);
 
 /* The robust grid: a copy of g whose points with a share below the level
@@ -95,8 +95,8 @@ void ow_spread_result_destroy(struct ow_spread_result *r);
  * margins. ow_window_extract on it gives the robust window. The caller
  * owns *out (ow_grid_destroy). */
 enum ow_status ow_spread_robust_grid(const struct ow_grid *g,
-				     const struct ow_spread_result *r,
-				     struct ow_grid **out, struct ow_diag *d);
+                                     const struct ow_spread_result *r,
+                                     struct ow_grid **out, struct ow_diag *d);
 
 /* Clip robust window rw to nominal window w (struct ow_window, passed as
  * the window module's type through ow_window.h): the largest rectangle of

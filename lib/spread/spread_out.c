@@ -19,10 +19,10 @@
 /* Append ",safe_share,worst_margin_<limit>..." to each line of grid.csv
  * (rows are the solved points in lattice order, as the grid writes them). */
 enum ow_status ow_spread_grid_csv(const struct ow_study *s,
-				  const struct ow_grid *g,
-				  const struct ow_spread_result *r,
-				  const char *csv, char **out,
-				  struct ow_diag *d)
+                                  const struct ow_grid *g,
+                                  const struct ow_spread_result *r,
+                                  const char *csv, char **out,
+                                  struct ow_diag *d)
 {
 	struct ow_text t = {0};
 	const char *p = csv, *nl;
@@ -57,8 +57,9 @@ enum ow_status ow_spread_grid_csv(const struct ow_study *s,
 		ow_text_done(&t, out, d);
 		free(*out);
 		*out = NULL;
-		return ow_diag_set(d, OW_EARG, "grid.csv does not match the "
-				   "grid");
+		return ow_diag_set(d, OW_EARG,
+		                   "grid.csv does not match the "
+		                   "grid");
 	}
 	return ow_text_done(&t, out, d);
 }
@@ -76,9 +77,9 @@ static int add_inputs(cJSON *o, const struct ow_spread *sp)
 		ow_spread_extent(in, &lo, &hi);
 		ok = e && cJSON_AddItemToArray(a, e);
 		ok = ok && cJSON_AddStringToObject(e, "name", in->name);
-		ok = ok && cJSON_AddStringToObject(e, "distribution",
-						   in->normal ? "normal"
-							      : "uniform");
+		ok = ok &&
+		     cJSON_AddStringToObject(e, "distribution",
+		                             in->normal ? "normal" : "uniform");
 		ok = ok && ow_json_put_num(e, "nominal", in->nominal);
 		ok = ok && ow_json_put_num(e, "low", lo);
 		ok = ok && ow_json_put_num(e, "high", hi);
@@ -89,7 +90,7 @@ static int add_inputs(cJSON *o, const struct ow_spread *sp)
 }
 
 static int add_ranking(cJSON *o, const struct ow_spread *sp,
-		       const struct ow_spread_result *r)
+                       const struct ow_spread_result *r)
 {
 	cJSON *a = cJSON_AddArrayToObject(o, "sensitivity");
 	int i, ok = a != NULL;
@@ -99,14 +100,14 @@ static int add_ranking(cJSON *o, const struct ow_spread *sp,
 
 		ok = e && cJSON_AddItemToArray(a, e);
 		ok = ok && cJSON_AddStringToObject(
-				   e, "input", sp->in[r->rank[i].input].name);
+		               e, "input", sp->in[r->rank[i].input].name);
 		ok = ok && ow_json_put_num(e, "correlation", r->rank[i].corr);
 	}
 	return ok;
 }
 
 static int add_record(cJSON *root, const struct ow_spread *sp,
-		      const struct ow_spread_result *r)
+                      const struct ow_spread_result *r)
 {
 	cJSON *o = cJSON_AddObjectToObject(root, "spread");
 	int ok = o != NULL;
@@ -114,8 +115,8 @@ static int add_record(cJSON *root, const struct ow_spread *sp,
 	ok = ok && ow_json_put_num(o, "samples", r->samples);
 	ok = ok && ow_json_put_num(o, "seed", (double)r->seed);
 	ok = ok && ow_json_put_num(o, "level", r->level);
-	ok = ok && cJSON_AddStringToObject(o, "design",
-					   "latin_hypercube") != NULL;
+	ok = ok &&
+	     cJSON_AddStringToObject(o, "design", "latin_hypercube") != NULL;
 	ok = ok && ow_json_put_num(o, "solves", r->solves);
 	ok = ok && ow_json_put_num(o, "solves_saved", r->solves_saved);
 	ok = ok && add_inputs(o, sp);
@@ -126,9 +127,8 @@ static int add_record(cJSON *root, const struct ow_spread *sp,
 /* Keys of the window file that describe the run, not the window. */
 static int run_key(const char *k)
 {
-	static const char *const keys[] = {"title", "axis", "solves",
-					   "lattice_rpm", "lattice_axis",
-					   NULL};
+	static const char *const keys[] = {
+	    "title", "axis", "solves", "lattice_rpm", "lattice_axis", NULL};
 	int i;
 
 	for (i = 0; keys[i]; i++)
@@ -138,11 +138,11 @@ static int run_key(const char *k)
 }
 
 enum ow_status ow_spread_window_json(const struct ow_study *s,
-				     const struct ow_grid *robust,
-				     const struct ow_window *w,
-				     const struct ow_spread_result *r,
-				     const char *json, char **out,
-				     struct ow_diag *d)
+                                     const struct ow_grid *robust,
+                                     const struct ow_window *w,
+                                     const struct ow_spread_result *r,
+                                     const char *json, char **out,
+                                     struct ow_diag *d)
 {
 	cJSON *root = cJSON_Parse(json), *rw = NULL, *e, *next;
 	char *text = NULL;
@@ -172,12 +172,14 @@ enum ow_status ow_spread_window_json(const struct ow_study *s,
 		*out = cJSON_Print(root);
 	cJSON_Delete(root);
 	if (!*out)
-		return ow_diag_set(d, OW_ENOMEM, "window.json with the robust "
-				   "window: out of memory or not JSON");
+		return ow_diag_set(d, OW_ENOMEM,
+		                   "window.json with the robust "
+		                   "window: out of memory or not JSON");
 	return OW_OK;
 }
 
-/* ---- spread.json: the run kept in the map folder -------------------------- */
+/* ---- spread.json: the run kept in the map folder --------------------------
+ */
 
 #define SPREAD_FORMAT "opwin spread"
 
@@ -201,7 +203,8 @@ static int save_inputs(cJSON *root, const struct ow_spread *sp)
 
 	for (i = 0; ok && i < sp->n; i++) {
 		const struct ow_spread_input *in = &sp->in[i];
-		double v[5] = {in->kind, in->factor, in->normal, in->lo, in->hi};
+		double v[5] = {in->kind, in->factor, in->normal, in->lo,
+		               in->hi};
 		cJSON *e = cJSON_CreateObject();
 
 		ok = e && cJSON_AddItemToArray(a, e);
@@ -229,14 +232,15 @@ static int save_points(cJSON *root, const struct ow_spread_result *r)
 			v[3 + k] = p->worst[k];
 			v[3 + OW_CK_LIMITS + k] = p->level_margin[k];
 		}
-		ok = cJSON_AddItemToArray(a, num_array(v, 3 + 2 * OW_CK_LIMITS));
+		ok =
+		    cJSON_AddItemToArray(a, num_array(v, 3 + 2 * OW_CK_LIMITS));
 	}
 	return ok;
 }
 
 enum ow_status ow_spread_save_json(const struct ow_study *s,
-				   const struct ow_spread_result *r,
-				   char **out, struct ow_diag *d)
+                                   const struct ow_spread_result *r, char **out,
+                                   struct ow_diag *d)
 {
 	cJSON *root = cJSON_CreateObject(), *rk;
 	double rank[2 * OW_SPREAD_MAX_INPUTS];
@@ -303,11 +307,13 @@ static int load_inputs(const cJSON *root, struct ow_spread *sp)
 		struct ow_spread_input *in = &sp->in[sp->n++];
 		const cJSON *nm = cJSON_GetObjectItemCaseSensitive(e, "name");
 
-		if (!get_nums(cJSON_GetObjectItemCaseSensitive(e, "def"), v, 5) ||
+		if (!get_nums(cJSON_GetObjectItemCaseSensitive(e, "def"), v,
+		              5) ||
 		    !cJSON_IsString(nm) || !(v[0] >= 0 && v[0] < OW_SK_COUNT) ||
 		    !(v[1] >= -1 && v[1] < OW_CF_COUNT) ||
 		    ((v[0] == OW_SK_VISCOSITY || v[0] == OW_SK_HEAT ||
-		      v[0] == OW_SK_CALIB) && v[1] < 0))
+		      v[0] == OW_SK_CALIB) &&
+		     v[1] < 0))
 			return 0;
 		in->kind = (enum ow_spread_kind)v[0];
 		in->factor = (int)v[1];
@@ -348,7 +354,7 @@ static int load_points(const cJSON *root, struct ow_spread_result *r)
 }
 
 static int load_head(const cJSON *root, const struct ow_grid *g,
-		     const struct ow_spread *sp, struct ow_spread_result *r)
+                     const struct ow_spread *sp, struct ow_spread_result *r)
 {
 	const cJSON *f = cJSON_GetObjectItemCaseSensitive(root, "format");
 	double rank[2 * OW_SPREAD_MAX_INPUTS];
@@ -379,15 +385,16 @@ static int load_head(const cJSON *root, const struct ow_grid *g,
 }
 
 enum ow_status ow_spread_load_json(const char *text, const char *name,
-				   const struct ow_grid *g,
-				   struct ow_spread *sp,
-				   struct ow_spread_result **out,
-				   struct ow_diag *d)
+                                   const struct ow_grid *g,
+                                   struct ow_spread *sp,
+                                   struct ow_spread_result **out,
+                                   struct ow_diag *d)
 {
 	cJSON *root = cJSON_Parse(text);
 	struct ow_spread_result *r = calloc(1, sizeof *r);
 	size_t n = (size_t)g->n_rpm * (size_t)g->n_axis;
-	int ok = root && r && load_inputs(root, sp) && load_head(root, g, sp, r);
+	int ok =
+	    root && r && load_inputs(root, sp) && load_head(root, g, sp, r);
 
 	*out = NULL;
 	if (ok && !(r->pts = calloc(n, sizeof *r->pts))) {
@@ -399,8 +406,10 @@ enum ow_status ow_spread_load_json(const char *text, const char *name,
 	cJSON_Delete(root);
 	if (!ok) {
 		ow_spread_result_destroy(r);
-		return ow_diag_set(d, OW_EINPUT, "%s: not the spread record of "
-				   "this map folder", name);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "%s: not the spread record of "
+		                   "this map folder",
+		                   name);
 	}
 	*out = r;
 	return OW_OK;

@@ -34,8 +34,8 @@ struct srun {
 	const struct ow_grid *g;
 	const struct ow_spread_config *c;
 	struct ow_spread_result *r;
-	int n, d;          /* samples, inputs */
-	double *acc;       /* per point: 2 d + 2 centred sums (ranking) */
+	int n, d;    /* samples, inputs */
+	double *acc; /* per point: 2 d + 2 centred sums (ranking) */
 	int done, planned;
 };
 
@@ -55,7 +55,7 @@ void ow_spread_result_destroy(struct ow_spread_result *r)
 
 /* Restore the moved parts of w->s and move every input to vals[]. */
 static void move_study(const struct srun *x, struct worker *w,
-		       const double *vals)
+                       const double *vals)
 {
 	int k;
 
@@ -70,8 +70,8 @@ static void move_study(const struct srun *x, struct worker *w,
  * nominal study takes the nominal solve), started from the nominal solve
  * there (its throughput, match slope and floating zones). */
 static void solve_moved(const struct srun *x, struct worker *w,
-			const struct ow_grid_point *gp, const double *vals,
-			struct ow_verdict *v)
+                        const struct ow_grid_point *gp, const double *vals,
+                        struct ow_verdict *v)
 {
 	double set_K[OW_MAX_ZONES];
 	struct ow_solver_start s0;
@@ -118,7 +118,7 @@ static int probe_points(const struct ow_grid *g, int *idx)
 /* At a probe, each input alone at both ends of its extent: the change of
  * each margin, summed over the inputs (the first-order worst case). */
 static void probe_one(const struct srun *x, struct worker *w, int idx,
-		      double *delta)
+                      double *delta)
 {
 	const struct ow_grid_point *gp = &x->g->pts[idx];
 	double vals[OW_SPREAD_MAX_INPUTS], e[2];
@@ -141,8 +141,9 @@ static void probe_one(const struct srun *x, struct worker *w, int idx,
 
 				if (isnan(gp->v.margin[k]))
 					continue;
-				worst[k] = isnan(c) ? INFINITY
-					   : c > worst[k] ? c : worst[k];
+				worst[k] = isnan(c)       ? INFINITY
+				           : c > worst[k] ? c
+				                          : worst[k];
 			}
 		}
 		for (k = 0; k < OW_CK_LIMITS; k++)
@@ -173,7 +174,7 @@ static void measure_bound(struct srun *x, struct worker *ws)
  * Deep inside: safe with each set limit's margin beyond the bound. Far
  * outside: a limit's margin below minus the bound. */
 static int decide(const struct ow_spread_result *r,
-		  const struct ow_grid_point *gp)
+                  const struct ow_grid_point *gp)
 {
 	int k, inside = gp->v.bits == 0;
 
@@ -215,8 +216,7 @@ static double level_margin(double *m, int n, double level)
 /* Centred sums over the point's samples with a finite smallest margin:
  * for each input sum (u - ub)^2 and sum (u - ub)(m - mb), then sum
  * (m - mb)^2 and the count. */
-static void rank_sums(const struct srun *x, const struct worker *w,
-		      double *acc)
+static void rank_sums(const struct srun *x, const struct worker *w, double *acc)
 {
 	double ub[OW_SPREAD_MAX_INPUTS] = {0}, mb = 0.0;
 	int i, k, c = 0;
@@ -261,8 +261,8 @@ static void sample_point(const struct srun *x, struct worker *w, int idx)
 	ow_spread_lhs(x->r->seed, idx, x->n, x->d, w->u);
 	for (i = 0; i < x->n; i++) {
 		for (k = 0; k < x->d; k++)
-			vals[k] = ow_spread_value(&x->sp->in[k],
-						  w->u[i * x->d + k]);
+			vals[k] =
+			    ow_spread_value(&x->sp->in[k], w->u[i * x->d + k]);
 		solve_moved(x, w, gp, vals, &v);
 		safe += v.bits == 0;
 		sp->fail_bits |= v.bits;
@@ -272,8 +272,9 @@ static void sample_point(const struct srun *x, struct worker *w, int idx)
 
 			w->m[k * x->n + i] = m;
 			if (!isnan(gp->v.margin[k]))
-				w->mmin[i] = isnan(m) ? NAN
-					     : m < w->mmin[i] ? m : w->mmin[i];
+				w->mmin[i] = isnan(m)         ? NAN
+				             : m < w->mmin[i] ? m
+				                              : w->mmin[i];
 			if (!isnan(m) && !(m >= sp->worst[k]) &&
 			    !isnan(gp->v.margin[k]))
 				sp->worst[k] = m;
@@ -282,8 +283,10 @@ static void sample_point(const struct srun *x, struct worker *w, int idx)
 	sp->sampled = 1;
 	sp->share = (double)safe / x->n;
 	for (k = 0; k < OW_CK_LIMITS; k++)
-		sp->level_margin[k] = isnan(gp->v.margin[k])
-			? NAN : level_margin(&w->m[k * x->n], x->n, x->r->level);
+		sp->level_margin[k] =
+		    isnan(gp->v.margin[k])
+		        ? NAN
+		        : level_margin(&w->m[k * x->n], x->n, x->r->level);
 	rank_sums(x, w, &x->acc[(size_t)idx * (size_t)(2 * x->d + 2)]);
 }
 
@@ -359,7 +362,7 @@ static void rank_inputs(struct srun *x)
 
 	for (i = 0; i < total; i++)
 		fringe |= x->r->pts[i].sampled && x->r->pts[i].share > 0.0 &&
-			  x->r->pts[i].share < 1.0;
+		          x->r->pts[i].share < 1.0;
 	memset(sum, 0, sizeof sum);
 	for (pass = 0, i = 0; i < total; i++) {
 		const struct ow_spread_point *p = &x->r->pts[i];
@@ -386,7 +389,7 @@ static void rank_inputs(struct srun *x)
 /* ---- the run ------------------------------------------------------------- */
 
 static enum ow_status make_workers(const struct srun *x, struct worker *ws,
-				   int threads, struct ow_diag *d)
+                                   int threads, struct ow_diag *d)
 {
 	enum ow_status st = OW_OK;
 	int t;
@@ -421,15 +424,17 @@ static void free_workers(struct worker *ws, int threads)
 }
 
 static enum ow_status setup(struct srun *x, const struct ow_study *s,
-			    const struct ow_grid *g, struct ow_diag *d)
+                            const struct ow_grid *g, struct ow_diag *d)
 {
 	const struct ow_spread_config *c = x->c;
 	size_t total = (size_t)g->n_rpm * (size_t)g->n_axis;
 
 	if (s->spread.n < 1)
-		return ow_diag_set(d, OW_EINPUT, "%s: spread: no input is "
-				   "varied (the spread block or --spread "
-				   "names none)", s->path);
+		return ow_diag_set(d, OW_EINPUT,
+		                   "%s: spread: no input is "
+		                   "varied (the spread block or --spread "
+		                   "names none)",
+		                   s->path);
 	x->r = calloc(1, sizeof *x->r);
 	if (!x->r || !(x->r->pts = calloc(total, sizeof *x->r->pts)))
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
@@ -444,7 +449,7 @@ static enum ow_status setup(struct srun *x, const struct ow_study *s,
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	if (x->n < 2 || x->n > OW_SPREAD_MAX_SAMPLES)
 		return ow_diag_set(d, OW_EARG, "%d samples: expected 2..%d",
-				   x->n, OW_SPREAD_MAX_SAMPLES);
+		                   x->n, OW_SPREAD_MAX_SAMPLES);
 	return OW_OK;
 }
 
@@ -460,12 +465,12 @@ static void count(struct srun *x, const struct worker *ws)
 	for (i = 0; i < total; i++)
 		solved += x->g->pts[i].solved == 1;
 	x->r->solves_saved =
-		solved * x->n - (x->r->solves - x->r->probe_solves);
+	    solved * x->n - (x->r->solves - x->r->probe_solves);
 }
 
 enum ow_status ow_spread_run(const struct ow_study *s, const struct ow_grid *g,
-			     const struct ow_spread_config *c,
-			     struct ow_spread_result **out, struct ow_diag *d)
+                             const struct ow_spread_config *c,
+                             struct ow_spread_result **out, struct ow_diag *d)
 {
 	struct ow_spread_config cc = *c;
 	struct srun x = {s, &s->spread, g, &cc, NULL, 0, 0, NULL, 0, 0};
@@ -513,8 +518,8 @@ static unsigned lowest_limit(const struct ow_spread_point *p)
 }
 
 enum ow_status ow_spread_robust_grid(const struct ow_grid *g,
-				     const struct ow_spread_result *r,
-				     struct ow_grid **out, struct ow_diag *d)
+                                     const struct ow_spread_result *r,
+                                     struct ow_grid **out, struct ow_diag *d)
 {
 	size_t total = (size_t)g->n_rpm * (size_t)g->n_axis, i;
 	struct ow_grid *h = malloc(sizeof *h);
@@ -536,8 +541,8 @@ enum ow_status ow_spread_robust_grid(const struct ow_grid *g,
 			if (p->level_margin[k] < v->margin[k])
 				v->margin[k] = p->level_margin[k];
 		if (p->share < r->level)
-			v->bits |= p->fail_bits ? p->fail_bits
-						: lowest_limit(p);
+			v->bits |=
+			    p->fail_bits ? p->fail_bits : lowest_limit(p);
 	}
 	*out = h;
 	return OW_OK;
@@ -577,7 +582,7 @@ void ow_spread_clip_window(struct ow_window *rw, const struct ow_window *w)
 		return;
 	}
 	rw->centre.rpm = inside(rw->centre.rpm, rw->rpm_min, rw->rpm_max);
-	rw->centre_set_K = inside(rw->centre_set_K, rw->set_min_K,
-				  rw->set_max_K);
+	rw->centre_set_K =
+	    inside(rw->centre_set_K, rw->set_min_K, rw->set_max_K);
 	rw->centre.axis = rw->centre_set_K - shift;
 }

@@ -7,7 +7,7 @@
 
 /* Distance from (x, y) to segment p-q (normalised coordinates). */
 static double seg_dist(double x, double y, double px, double py, double qx,
-		       double qy)
+                       double qy)
 {
 	double dx = qx - px, dy = qy - py, l2 = dx * dx + dy * dy;
 	double t = l2 > 0.0 ? ((x - px) * dx + (y - py) * dy) / l2 : 0.0;
@@ -26,7 +26,7 @@ struct norm {
  * where points stop being safe) and to the edge of the sweep (unknown
  * beyond), in units of the sweep ranges. */
 static double clearance(const struct ow_window *w, const struct norm *n,
-			double rpm, double axis)
+                        double rpm, double axis)
 {
 	double x = (rpm - n->r0) / n->rs, y = (axis - n->a0) / n->as;
 	double dmin = fmin(fmin(x, 1.0 - x), fmin(y, 1.0 - y));
@@ -39,11 +39,13 @@ static double clearance(const struct ow_window *w, const struct norm *n,
 			const struct ow_polyline *pl = &w->bounds[b].lines[l];
 
 			for (i = 0; i + 1 < pl->n; i++)
-				dmin = fmin(dmin, seg_dist(
-					x, y, (pl->p[i].rpm - n->r0) / n->rs,
-					(pl->p[i].axis - n->a0) / n->as,
-					(pl->p[i + 1].rpm - n->r0) / n->rs,
-					(pl->p[i + 1].axis - n->a0) / n->as));
+				dmin = fmin(
+				    dmin,
+				    seg_dist(
+				        x, y, (pl->p[i].rpm - n->r0) / n->rs,
+				        (pl->p[i].axis - n->a0) / n->as,
+				        (pl->p[i + 1].rpm - n->r0) / n->rs,
+				        (pl->p[i + 1].axis - n->a0) / n->as));
 		}
 	}
 	return dmin;
@@ -52,7 +54,7 @@ static double clearance(const struct ow_window *w, const struct norm *n,
 /* Whole steps from lo to hi: the first value and how many; the midpoint
  * alone when no whole step lies inside. */
 static int steps_in(double lo, double hi, double step, double offset,
-		    double *first)
+                    double *first)
 {
 	double f = ceil((lo + offset) / step - 1e-9) * step - offset;
 	int n = (int)floor((hi - f) / step + 1e-9) + 1;
@@ -69,13 +71,13 @@ static int steps_in(double lo, double hi, double step, double offset,
  * set-point steps, farthest from the window's edge and from the edge of
  * the sweep (first found on ties). */
 static void centre(const struct ow_study *s, const struct ow_grid *g,
-		   struct ow_window *w)
+                   struct ow_window *w)
 {
 	const struct ow_grid_point *p0 = ow_grid_at(g, 0, 0);
 	const struct ow_grid_point *p1 =
-		ow_grid_at(g, g->n_rpm - 1, g->n_axis - 1);
+	    ow_grid_at(g, g->n_rpm - 1, g->n_axis - 1);
 	struct norm n = {p0->rpm, p1->rpm - p0->rpm, p0->axis,
-			 p1->axis - p0->axis};
+	                 p1->axis - p0->axis};
 	double off = ow_line_axis_ref_K(&s->line, 0.0) - OW_ZERO_C_K, r0, a0;
 	int nr = steps_in(w->rpm_min, w->rpm_max, w->rpm_step, 0.0, &r0);
 	int na = steps_in(w->axis_min, w->axis_max, w->temp_step_K, off, &a0);
@@ -104,7 +106,7 @@ static void inside(const struct ow_grid *g, struct ow_window *w)
 {
 	const struct ow_grid_point *p0 = ow_grid_at(g, 0, 0);
 	const struct ow_grid_point *p1 =
-		ow_grid_at(g, g->n_rpm - 1, g->n_axis - 1);
+	    ow_grid_at(g, g->n_rpm - 1, g->n_axis - 1);
 	double dr = (p1->rpm - p0->rpm) / (g->n_rpm - 1);
 	double da = (p1->axis - p0->axis) / (g->n_axis - 1);
 	double tol;
@@ -124,7 +126,7 @@ static void inside(const struct ow_grid *g, struct ow_window *w)
 }
 
 static void ranges(const struct ow_study *s, const struct ow_grid *g,
-		   struct ow_window *w)
+                   struct ow_window *w)
 {
 	double lo[OW_MAX_ZONES], hi[OW_MAX_ZONES];
 	int ir, ia, z;
@@ -138,13 +140,13 @@ static void ranges(const struct ow_study *s, const struct ow_grid *g,
 			if (p->solved != 1)
 				continue;
 			w->output_min_kg_s =
-				fmin(w->output_min_kg_s, p->pt.output_kg_s);
+			    fmin(w->output_min_kg_s, p->pt.output_kg_s);
 			w->output_max_kg_s =
-				fmax(w->output_max_kg_s, p->pt.output_kg_s);
-			w->melt_min_K = fmin(w->melt_min_K,
-					     p->pt.discharge_bulk_K);
-			w->melt_max_K = fmax(w->melt_max_K,
-					     p->pt.discharge_bulk_K);
+			    fmax(w->output_max_kg_s, p->pt.output_kg_s);
+			w->melt_min_K =
+			    fmin(w->melt_min_K, p->pt.discharge_bulk_K);
+			w->melt_max_K =
+			    fmax(w->melt_max_K, p->pt.discharge_bulk_K);
 			w->peak_max_K = fmax(w->peak_max_K, p->pt.peak_K);
 		}
 	ow_line_apply_axis(&s->line, w->axis_min, lo);
@@ -171,8 +173,9 @@ static void counts(const struct ow_grid *g, struct ow_window *w)
 
 const char *ow_window_setter_key(int check)
 {
-	return check == OW_WINDOW_SWEEP_EDGE ? "sweep_edge"
-					     : ow_check_key((enum ow_check)check);
+	return check == OW_WINDOW_SWEEP_EDGE
+	           ? "sweep_edge"
+	           : ow_check_key((enum ow_check)check);
 }
 
 char *ow_window_setter_text(int check, char *buf, size_t n)
@@ -185,9 +188,10 @@ char *ow_window_setter_text(int check, char *buf, size_t n)
 		return buf;
 	if (check != OW_WINDOW_SWEEP_EDGE) {
 		rel = ow_check_relation((enum ow_check)check);
-		parts[0] = !rel ? "the onset of "
-				: (!strcmp(rel, "at most") ? "the upper limit on "
-							  : "the lower limit on ");
+		parts[0] =
+		    !rel ? "the onset of "
+		         : (!strcmp(rel, "at most") ? "the upper limit on "
+		                                    : "the lower limit on ");
 		parts[1] = ow_check_text((enum ow_check)check);
 	}
 	buf[0] = '\0';
@@ -203,8 +207,9 @@ int ow_window_binding(const struct ow_window *w, enum ow_check *order)
 	for (c = 0; c < OW_CK_COUNT; c++) {
 		if (!w->fail_count[c])
 			continue;
-		for (i = n; i > 0 && w->fail_count[order[i - 1]] <
-					      w->fail_count[c]; i--)
+		for (i = n;
+		     i > 0 && w->fail_count[order[i - 1]] < w->fail_count[c];
+		     i--)
 			order[i] = order[i - 1];
 		order[i] = (enum ow_check)c;
 		n++;
@@ -227,8 +232,8 @@ void ow_window_destroy(struct ow_window *w)
 }
 
 enum ow_status ow_window_extract(const struct ow_study *s,
-				 const struct ow_grid *g,
-				 struct ow_window **out, struct ow_diag *d)
+                                 const struct ow_grid *g,
+                                 struct ow_window **out, struct ow_diag *d)
 {
 	struct ow_window *w = calloc(1, sizeof *w);
 	enum ow_status st = OW_OK;

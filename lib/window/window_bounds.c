@@ -28,20 +28,20 @@
 #include <string.h>
 
 /* Channels: the three flags first (they win ties), then the set limits. */
-#define MAX_CH (OW_CK_COUNT)
+#define MAX_CH   (OW_CK_COUNT)
 #define END_NONE (-2) /* an interval end that is only a segment's end */
 
 struct field {
 	int nr, na, nch;
-	int ch[MAX_CH];       /* check of each channel */
-	double *v;            /* [(ia * nr + ir) * nch + k] */
+	int ch[MAX_CH];        /* check of each channel */
+	double *v;             /* [(ia * nr + ir) * nch + k] */
 	double r0, dr, a0, da; /* lattice speeds and axis values */
 };
 
 struct iv {
 	double lo, hi;
 	int lo_ch, hi_ch; /* channel that sets the end, END_NONE, or
-			     OW_WINDOW_SWEEP_EDGE */
+	                     OW_WINDOW_SWEEP_EDGE */
 };
 
 struct ivs {
@@ -60,8 +60,8 @@ static double point_value(const struct ow_grid_point *p, int c)
 
 /* Values of an unsolved point: bilinear in the smallest cell around it
  * whose four corners were solved (the coarse cell at the latest). */
-static void fill_point(const struct ow_grid *g, struct field *f, int ir,
-		       int ia, double *out)
+static void fill_point(const struct ow_grid *g, struct field *f, int ir, int ia,
+                       double *out)
 {
 	int s, k;
 
@@ -70,8 +70,8 @@ static void fill_point(const struct ow_grid *g, struct field *f, int ir,
 		int i1 = i0 + s < g->n_rpm ? i0 + s : i0;
 		int j1 = j0 + s < g->n_axis ? j0 + s : j0;
 		const struct ow_grid_point *c[4] = {
-			ow_grid_at(g, i0, j0), ow_grid_at(g, i1, j0),
-			ow_grid_at(g, i0, j1), ow_grid_at(g, i1, j1)};
+		    ow_grid_at(g, i0, j0), ow_grid_at(g, i1, j0),
+		    ow_grid_at(g, i0, j1), ow_grid_at(g, i1, j1)};
 		double tx = (double)(ir - i0) / s, ty = (double)(ia - j0) / s;
 
 		if (c[0]->solved != 1 || c[1]->solved != 1 ||
@@ -79,9 +79,9 @@ static void fill_point(const struct ow_grid *g, struct field *f, int ir,
 			continue;
 		for (k = 0; k < f->nch; k++) {
 			double b = point_value(c[0], f->ch[k]) * (1 - tx) +
-				   point_value(c[1], f->ch[k]) * tx;
+			           point_value(c[1], f->ch[k]) * tx;
 			double t = point_value(c[2], f->ch[k]) * (1 - tx) +
-				   point_value(c[3], f->ch[k]) * tx;
+			           point_value(c[3], f->ch[k]) * tx;
 
 			out[k] = b * (1 - ty) + t * ty;
 		}
@@ -92,7 +92,7 @@ static void fill_point(const struct ow_grid *g, struct field *f, int ir,
 }
 
 static int field_make(const struct ow_study *s, const struct ow_grid *g,
-		      struct field *f)
+                      struct field *f)
 {
 	int c, ir, ia, k;
 
@@ -105,7 +105,7 @@ static int field_make(const struct ow_study *s, const struct ow_grid *g,
 		if (ow_check_active(&s->line.limits, (enum ow_check)c))
 			f->ch[f->nch++] = c;
 	f->v = malloc(sizeof *f->v * (size_t)f->nr * (size_t)f->na *
-		      (size_t)f->nch);
+	              (size_t)f->nch);
 	if (!f->v)
 		return -1;
 	f->r0 = ow_grid_at(g, 0, 0)->rpm;
@@ -166,7 +166,7 @@ static int segment(const struct field *f, double a, int ir, struct iv *out)
 
 	out->lo = x0;
 	out->hi = f->r0 + (ir + 1) * f->dr; /* the next segment's x0 to the
-					       bit, so the two join */
+	                                       bit, so the two join */
 	out->lo_ch = out->hi_ch = END_NONE;
 	for (k = 0; k < f->nch; k++) {
 		double v0 = row_value(f, a, ir, k);
@@ -250,7 +250,7 @@ static int intersect(struct ivs *a, const struct ivs *b, struct ivs *tmp)
  * (candidates for a bound), sorted. */
 struct rows {
 	int n;
-	double *a;       /* axis values */
+	double *a; /* axis values */
 	unsigned char *cand;
 	struct ivs *safe;
 };
@@ -264,7 +264,8 @@ static double nice_step(double range)
 	int i;
 
 	if (!isfinite(range) || range <= 1000.0)
-		return 1.0; /* a NaN or infinite span (one-point axis) ends too */
+		return 1.0; /* a NaN or infinite span (one-point axis) ends too
+		             */
 	for (;;) {
 		for (i = 0; i < 3; i++)
 			if (range / (m[i] * p) <= 1000.0)
@@ -290,7 +291,7 @@ static int cmp_row(const void *x, const void *y)
  * the reference zone's set-point at every whole step in degC (offset_K:
  * that set-point in degC at axis value 0), merged where they coincide. */
 static int rows_make(const struct field *f, double offset_K, double step_K,
-		     struct rows *r)
+                     struct rows *r)
 {
 	double lo = f->a0, hi = f->a0 + (f->na - 1) * f->da;
 	double first = ceil((lo + offset_K) / step_K - 1e-9) * step_K;
@@ -305,7 +306,7 @@ static int rows_make(const struct field *f, double offset_K, double step_K,
 		return -1;
 	for (i = 0; i < f->na; i++)
 		in[n++] = (struct row_in){f->a0 + i * f->da,
-					  i == 0 || i == f->na - 1};
+		                          i == 0 || i == f->na - 1};
 	for (i = 0; i < n_steps; i++)
 		in[n++] = (struct row_in){first + i * step_K - offset_K, 1};
 	qsort(in, (size_t)n, sizeof *in, cmp_row);
@@ -354,7 +355,7 @@ struct best {
 /* Largest rectangle, normalised area (ties: larger normalised perimeter,
  * then the first found), bounds on candidate rows only unless any_row. */
 static int search(const struct rows *r, double span_r, double span_a,
-		  int any_row, struct best *b)
+                  int any_row, struct best *b)
 {
 	struct ivs cur = {0, 0, NULL}, tmp = {0, 0, NULL};
 	int j0, j1, i, rc = 0;
@@ -395,14 +396,15 @@ static int search(const struct rows *r, double span_r, double span_a,
 
 /* Lowest value of channel k over speeds [lo, hi] on the row at a. */
 static double row_min(const struct field *f, double a, double lo, double hi,
-		      int k)
+                      int k)
 {
 	double m = INFINITY;
 	int ir;
 
 	for (ir = 0; ir + 1 < f->nr; ir++) {
 		double x0 = f->r0 + ir * f->dr, x1 = x0 + f->dr;
-		double v0 = row_value(f, a, ir, k), v1 = row_value(f, a, ir + 1, k);
+		double v0 = row_value(f, a, ir, k),
+		       v1 = row_value(f, a, ir + 1, k);
 		double p = fmax(lo, x0), q = fmin(hi, x1);
 
 		if (p > q)
@@ -417,7 +419,7 @@ static double row_min(const struct field *f, double a, double lo, double hi,
  * j (exclusive) to the next candidate row beyond it, direction dir): the
  * channel lowest over the rectangle's speeds there. */
 static int axis_setter(const struct field *f, const struct rows *r, int j,
-		       int dir, const struct iv *v)
+                       int dir, const struct iv *v)
 {
 	int best = -1, k, i;
 	double low = INFINITY;
@@ -445,7 +447,7 @@ static int check_of(const struct field *f, int ch)
 /* How finely a bound set by check c is located: half a lattice step for
  * a flag (no margin to interpolate), otherwise the rounding step. */
 static double resolution(const struct field *f, int c, double step,
-			 double lattice_step)
+                         double lattice_step)
 {
 	(void)f;
 	if (c == OW_WINDOW_SWEEP_EDGE)
@@ -456,8 +458,8 @@ static double resolution(const struct field *f, int c, double step,
 }
 
 static void set_bounds(const struct field *f, const struct rows *r,
-		       const struct best *b, double rpm_step,
-		       double temp_step_K, struct ow_window *w)
+                       const struct best *b, double rpm_step,
+                       double temp_step_K, struct ow_window *w)
 {
 	struct ow_window_bound *x = w->bound;
 	double lo = b->v.lo, hi = b->v.hi;
@@ -466,12 +468,12 @@ static void set_bounds(const struct field *f, const struct rows *r,
 	x[OW_WB_RPM_MIN].check = check_of(f, b->v.lo_ch);
 	x[OW_WB_RPM_MAX].check = check_of(f, b->v.hi_ch);
 	x[OW_WB_SET_MIN].check =
-		b->j0 == 0 ? OW_WINDOW_SWEEP_EDGE
-			   : check_of(f, axis_setter(f, r, b->j0, -1, &b->v));
+	    b->j0 == 0 ? OW_WINDOW_SWEEP_EDGE
+	               : check_of(f, axis_setter(f, r, b->j0, -1, &b->v));
 	x[OW_WB_SET_MAX].check =
-		b->j1 == r->n - 1
-			? OW_WINDOW_SWEEP_EDGE
-			: check_of(f, axis_setter(f, r, b->j1, +1, &b->v));
+	    b->j1 == r->n - 1
+	        ? OW_WINDOW_SWEEP_EDGE
+	        : check_of(f, axis_setter(f, r, b->j1, +1, &b->v));
 	if (x[OW_WB_RPM_MIN].check != OW_WINDOW_SWEEP_EDGE)
 		lo = ceil(lo / rpm_step - 1e-9) * rpm_step;
 	if (x[OW_WB_RPM_MAX].check != OW_WINDOW_SWEEP_EDGE)
@@ -487,9 +489,9 @@ static void set_bounds(const struct field *f, const struct rows *r,
 	for (c = 0; c < OW_WB_COUNT; c++) {
 		int rpm = c == OW_WB_RPM_MIN || c == OW_WB_RPM_MAX;
 
-		x[c].resolution = resolution(f, x[c].check,
-					     rpm ? rpm_step : temp_step_K,
-					     rpm ? f->dr : f->da);
+		x[c].resolution =
+		    resolution(f, x[c].check, rpm ? rpm_step : temp_step_K,
+		               rpm ? f->dr : f->da);
 		if (x[c].check == OW_WINDOW_SWEEP_EDGE)
 			w->at_sweep_edge = 1;
 	}
@@ -498,19 +500,22 @@ static void set_bounds(const struct field *f, const struct rows *r,
 }
 
 enum ow_status ow_window_locate(const struct ow_study *s,
-				const struct ow_grid *g, struct ow_window *w,
-				struct ow_diag *d)
+                                const struct ow_grid *g, struct ow_window *w,
+                                struct ow_diag *d)
 {
 	struct field f = {0};
 	struct rows r = {0};
 	struct best b;
-	double offset = ow_line_axis_ref_K(&s->line, 0.0) - OW_ZERO_C_K, span_r, span_a, rstep, tstep;
+	double offset = ow_line_axis_ref_K(&s->line, 0.0) - OW_ZERO_C_K, span_r,
+	       span_a, rstep, tstep;
 	enum ow_status st = OW_OK;
 
 	if (g->n_rpm < 2 || g->n_axis < 2) /* no step to interpolate on */
-		return ow_diag_set(d, OW_EINPUT, "the map's lattice has %d x %d "
-				   "points; a window needs at least 2 in each axis",
-				   g->n_rpm, g->n_axis);
+		return ow_diag_set(
+		    d, OW_EINPUT,
+		    "the map's lattice has %d x %d "
+		    "points; a window needs at least 2 in each axis",
+		    g->n_rpm, g->n_axis);
 	if (field_make(s, g, &f)) {
 		st = ow_diag_set(d, OW_ENOMEM, "out of memory");
 		goto done;
@@ -539,7 +544,7 @@ done:
 
 /* Channel values at (rpm, axis): bilinear in the lattice cell. */
 static void field_at(const struct field *f, double rpm, double axis,
-		     double *out)
+                     double *out)
 {
 	double x = (rpm - f->r0) / f->dr, y = (axis - f->a0) / f->da;
 	int i = (int)floor(x), j = (int)floor(y), k;
@@ -553,18 +558,18 @@ static void field_at(const struct field *f, double rpm, double axis,
 		const double *v = f->v;
 		size_t n = (size_t)f->nch, r = (size_t)f->nr;
 		double b = v[((size_t)j * r + i) * n + k] * (1 - tx) +
-			   v[((size_t)j * r + i + 1) * n + k] * tx;
+		           v[((size_t)j * r + i + 1) * n + k] * tx;
 		double t = v[((size_t)(j + 1) * r + i) * n + k] * (1 - tx) +
-			   v[((size_t)(j + 1) * r + i + 1) * n + k] * tx;
+		           v[((size_t)(j + 1) * r + i + 1) * n + k] * tx;
 
 		out[k] = b * (1 - ty) + t * ty;
 	}
 }
 
 enum ow_status ow_window_verdict_at(const struct ow_study *s,
-				    const struct ow_grid *g, double rpm,
-				    double set_K, int *inside,
-				    unsigned *bits, struct ow_diag *d)
+                                    const struct ow_grid *g, double rpm,
+                                    double set_K, int *inside, unsigned *bits,
+                                    struct ow_diag *d)
 {
 	struct field f = {0};
 	double axis = set_K - ow_line_axis_ref_K(&s->line, 0.0), v[MAX_CH];
@@ -573,17 +578,19 @@ enum ow_status ow_window_verdict_at(const struct ow_study *s,
 
 	*bits = 0;
 	if (g->n_rpm < 2 || g->n_axis < 2)
-		return ow_diag_set(d, OW_EINPUT, "the map's lattice has %d x %d "
-				   "points; a verdict needs at least 2 in each axis",
-				   g->n_rpm, g->n_axis);
+		return ow_diag_set(
+		    d, OW_EINPUT,
+		    "the map's lattice has %d x %d "
+		    "points; a verdict needs at least 2 in each axis",
+		    g->n_rpm, g->n_axis);
 	if (field_make(s, g, &f)) {
 		free(f.v);
 		return ow_diag_set(d, OW_ENOMEM, "out of memory");
 	}
 	r1 = f.r0 + (f.nr - 1) * f.dr;
 	a1 = f.a0 + (f.na - 1) * f.da;
-	*inside = rpm >= f.r0 - tol && rpm <= r1 + tol &&
-		  axis >= f.a0 - tol && axis <= a1 + tol;
+	*inside = rpm >= f.r0 - tol && rpm <= r1 + tol && axis >= f.a0 - tol &&
+	          axis <= a1 + tol;
 	if (*inside) {
 		field_at(&f, rpm, axis, v);
 		for (k = 0; k < f.nch; k++)

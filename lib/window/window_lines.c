@@ -14,15 +14,15 @@
 struct field {
 	const struct ow_grid *g;
 	const struct ow_limits *lim;
-	int c;  /* check, or OW_WINDOW_EDGE */
-	int s;  /* lattice step of this level */
+	int c;          /* check, or OW_WINDOW_EDGE */
+	int s;          /* lattice step of this level */
 	int nr, na, nh; /* level size, number of horizontal edges */
 };
 
 const char *ow_window_boundary_key(int check)
 {
 	return check == OW_WINDOW_EDGE ? "window"
-				       : ow_check_key((enum ow_check)check);
+	                               : ow_check_key((enum ow_check)check);
 }
 
 static const struct ow_grid_point *at(const struct field *f, int i, int j)
@@ -63,10 +63,14 @@ static double value(const struct field *f, int i, int j)
 static int edge_id(const struct field *f, int i, int j, int k)
 {
 	switch (k) {
-	case 0: return j * (f->nr - 1) + i;
-	case 1: return f->nh + j * f->nr + i + 1;
-	case 2: return (j + 1) * (f->nr - 1) + i;
-	default: return f->nh + j * f->nr + i;
+	case 0:
+		return j * (f->nr - 1) + i;
+	case 1:
+		return f->nh + j * f->nr + i + 1;
+	case 2:
+		return (j + 1) * (f->nr - 1) + i;
+	default:
+		return f->nh + j * f->nr + i;
 	}
 }
 
@@ -92,13 +96,13 @@ static struct ow_xy crossing(const struct field *f, int id)
 	a = at(f, i0, j0);
 	b = at(f, i1, j1);
 	return (struct ow_xy){a->rpm + t * (b->rpm - a->rpm),
-			      a->axis + t * (b->axis - a->axis)};
+	                      a->axis + t * (b->axis - a->axis)};
 }
 
 struct segs {
 	int n, cap;
-	int *a, *b;     /* edge ids of the two ends */
-	int *slot;      /* per edge: two segment indices (-1 empty) */
+	int *a, *b; /* edge ids of the two ends */
+	int *slot;  /* per edge: two segment indices (-1 empty) */
 	int oom;
 };
 
@@ -144,7 +148,7 @@ static int leaf(const struct field *f, int i, int j)
 static void cell(const struct field *f, int i, int j, struct segs *s)
 {
 	double v[4] = {value(f, i, j), value(f, i + 1, j),
-		       value(f, i + 1, j + 1), value(f, i, j + 1)};
+	               value(f, i + 1, j + 1), value(f, i, j + 1)};
 	int cut[4], n = 0, k;
 
 	for (k = 0; k < 4; k++)
@@ -191,7 +195,7 @@ static int grow(struct ow_xy **p, int *cap, int n)
 
 /* Walk from edge `start` along unused segments, appending points. */
 static int walk(const struct field *f, struct segs *s, unsigned char *used,
-		int start, struct ow_polyline *pl)
+                int start, struct ow_polyline *pl)
 {
 	int edge = start, n = 0, cap = 16, k;
 	struct ow_xy *p = malloc(sizeof *p * (size_t)cap);
@@ -282,8 +286,8 @@ static int one_level(struct field *f, int *slot, struct ow_boundary *b)
 	return rc;
 }
 
-static int one_check(const struct ow_study *st, const struct ow_grid *g,
-		     int c, int *slot, struct ow_boundary *b)
+static int one_check(const struct ow_study *st, const struct ow_grid *g, int c,
+                     int *slot, struct ow_boundary *b)
 {
 	struct field f = {g, &st->line.limits, c, g->stride, 0, 0, 0};
 
@@ -295,8 +299,8 @@ static int one_check(const struct ow_study *st, const struct ow_grid *g,
 }
 
 enum ow_status ow_window_boundaries(const struct ow_study *s,
-				    const struct ow_grid *g,
-				    struct ow_window *w, struct ow_diag *d)
+                                    const struct ow_grid *g,
+                                    struct ow_window *w, struct ow_diag *d)
 {
 	size_t ne = 4 * (size_t)g->n_axis * (size_t)g->n_rpm;
 	int *slot = malloc(sizeof *slot * ne), c;
@@ -306,7 +310,7 @@ enum ow_status ow_window_boundaries(const struct ow_study *s,
 	for (c = 0; c <= OW_WINDOW_EDGE; c++) {
 		struct ow_boundary *b = &w->bounds[w->n_boundaries];
 		int fails = c == OW_WINDOW_EDGE ? w->safe_fraction < 1.0
-						: w->fail_count[c] > 0;
+		                                : w->fail_count[c] > 0;
 
 		if ((c < OW_CK_COUNT &&
 		     !ow_check_active(&s->line.limits, (enum ow_check)c)) ||

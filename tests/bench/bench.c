@@ -43,8 +43,8 @@ static int cmp(const void *a, const void *b)
 	return (x > y) - (x < y);
 }
 
-static void target(const char *what, double got, double goal,
-		   const char *unit, int at_least)
+static void target(const char *what, double got, double goal, const char *unit,
+                   int at_least)
 {
 	printf("  %-40s %8.3g %-2s target %s %-5.3g ratio %.2f%s\n", what, got,
 	       unit, at_least ? ">=" : "<=", goal, got / goal,
@@ -64,12 +64,12 @@ static double bench_point(const struct ow_study *s, int warm, double *marches)
 		return 0.0;
 	for (i = 0; i < N_SPEEDS; i++) {
 		const struct ow_point *prev[2] = {&pt[i > 0 ? i - 1 : 0],
-						  &pt[i > 1 ? i - 2 : 0]};
+		                                  &pt[i > 1 ? i - 2 : 0]};
 		struct ow_solver_start s0;
 		double t0 = now();
 
 		ow_sweep_predict(prev, warm ? (i < 2 ? i : 2) : 0,
-				 20.0 + 5.0 * i, &s0);
+		                 20.0 + 5.0 * i, &s0);
 		ow_solver_run_from(sv, 20.0 + 5.0 * i, NULL, &s0, &pt[i], NULL);
 		t[i] = now() - t0;
 		n += pt[i].n_iter;
@@ -93,7 +93,7 @@ static double marches_per_point(const struct ow_grid *g)
 
 /* The sweep alone on an steps x steps grid: wall time, solves, marches. */
 static double bench_sweep(const struct ow_study *s, int jobs, int steps,
-			  int *solves, double *marches)
+                          int *solves, double *marches)
 {
 	struct ow_sweep_config c;
 	struct ow_grid *g = NULL;
@@ -117,9 +117,9 @@ static double bench_sweep(const struct ow_study *s, int jobs, int steps,
 static double bench_spread(const struct ow_units *u, struct ow_study *s)
 {
 	static const char *const spec =
-		"{\"viscosity_scale\": {\"plus_minus\": \"10 %\"}, "
-		"\"melting_point\": {\"plus_minus\": \"3 K\"}, "
-		"\"feed_temperature\": {\"plus_minus\": \"10 K\"}}";
+	    "{\"viscosity_scale\": {\"plus_minus\": \"10 %\"}, "
+	    "\"melting_point\": {\"plus_minus\": \"3 K\"}, "
+	    "\"feed_temperature\": {\"plus_minus\": \"10 K\"}}";
 	struct ow_sweep_config c;
 	struct ow_spread_config pc;
 	struct ow_spread_result *r = NULL;
@@ -141,8 +141,9 @@ static double bench_spread(const struct ow_units *u, struct ow_study *s)
 		ratio = (now() - t0) / (t1 - t0);
 		printf("sweep 41x41 across a 3-input spread, %d samples: "
 		       "%.1f s against %.1f s nominal (%.1fx), %d sample "
-		       "solves, %d saved\n", r->samples, now() - t0, t1 - t0,
-		       ratio, r->solves, r->solves_saved);
+		       "solves, %d saved\n",
+		       r->samples, now() - t0, t1 - t0, ratio, r->solves,
+		       r->solves_saved);
 	}
 	ow_spread_result_destroy(r);
 	ow_grid_destroy(g);
@@ -156,8 +157,9 @@ static double bench_command(const char *opwin, const char *study, int jobs)
 	double t0 = now();
 
 	snprintf(cmd, sizeof cmd,
-		 "%s map %s -o build/bench-map --jobs %d --quiet "
-		 "--date 2000-01-01", opwin, study, jobs);
+	         "%s map %s -o build/bench-map --jobs %d --quiet "
+	         "--date 2000-01-01",
+	         opwin, study, jobs);
 	if (system(cmd) != 0) {
 		fprintf(stderr, "bench: failed: %s\n", cmd);
 		return 0.0;
@@ -176,9 +178,9 @@ static int scale_point(const struct ow_study *s, int steps)
 	t = bench_sweep(s, 2, steps, &solves, &marches);
 	getrusage(RUSAGE_SELF, &ru);
 	printf("  %3dx%-3d %7.2f s %6d solves %6.0f us/solve %5.2f marches "
-	       "per point, peak %.1f MB\n", steps, steps, t, solves,
-	       solves > 0 ? 1e6 * t / solves : 0.0, marches,
-	       (double)ru.ru_maxrss / 1024.0);
+	       "per point, peak %.1f MB\n",
+	       steps, steps, t, solves, solves > 0 ? 1e6 * t / solves : 0.0,
+	       marches, (double)ru.ru_maxrss / 1024.0);
 	return 0;
 }
 
@@ -201,7 +203,7 @@ static void bench_scale(const char *self, const char *study, int steps)
 
 /* The demo calibration: 6 readings, viscosity_scale and die_factor. */
 static void bench_calib(const struct ow_units *u, const struct ow_study *s,
-			const char *readings)
+                        const char *readings)
 {
 	struct ow_calib_result *r = malloc(sizeof *r);
 	struct ow_readings *rd = NULL;
@@ -210,7 +212,7 @@ static void bench_calib(const struct ow_units *u, const struct ow_study *s,
 	double t0;
 
 	if (!r || ow_calib_readings_read(u, readings, s->line.n_zones, &rd,
-					 &d) != OW_OK) {
+	                                 &d) != OW_OK) {
 		fprintf(stderr, "bench: %s\n", d.msg);
 		free(r);
 		return;
@@ -231,10 +233,11 @@ static void bench_calib(const struct ow_units *u, const struct ow_study *s,
 int main(int argc, char **argv)
 {
 	int scaled = argc == 4 && strcmp(argv[1], "--scale") == 0;
-	const char *path = scaled ? argv[3]
-				  : argc > 1 ? argv[1] : "demo/study-si.json";
-	const char *readings = argc > 2 ? argv[2]
-					: "demo/line/line3-readings.csv";
+	const char *path = scaled     ? argv[3]
+	                   : argc > 1 ? argv[1]
+	                              : "demo/study-si.json";
+	const char *readings =
+	    argc > 2 ? argv[2] : "demo/line/line3-readings.csv";
 	const char *opwin = argc > 3 ? argv[3] : "build/opwin";
 	struct ow_units *u = NULL;
 	struct ow_study *s = calloc(1, sizeof *s);
@@ -255,17 +258,18 @@ int main(int argc, char **argv)
 	cold = bench_point(s, 0, &mc);
 	warm = bench_point(s, 1, &mw);
 	printf("point solve, 20..120 rpm: cold median %.2f ms (%.2f marches), "
-	       "warm median %.2f ms (%.2f marches)\n", 1e3 * cold, mc,
-	       1e3 * warm, mw);
+	       "warm median %.2f ms (%.2f marches)\n",
+	       1e3 * cold, mc, 1e3 * warm, mw);
 	t1 = bench_sweep(s, 1, 41, &n1, &m1);
 	t2 = bench_sweep(s, 2, 41, &n2, &m2);
 	printf("sweep 41x41: 1 thread %.2f s, 2 threads %.2f s (%.2fx), %d "
-	       "solves, %.2f marches per point\n", t1, t2,
-	       t2 > 0 ? t1 / t2 : 0.0, n2, m2);
+	       "solves, %.2f marches per point\n",
+	       t1, t2, t2 > 0 ? t1 / t2 : 0.0, n2, m2);
 	c1 = bench_command(opwin, path, 1);
 	c2 = bench_command(opwin, path, 2);
 	printf("opwin map 41x41 (solve, draw, write): 1 thread %.2f s, "
-	       "2 threads %.2f s\n", c1, c2);
+	       "2 threads %.2f s\n",
+	       c1, c2);
 	bench_calib(u, s, readings);
 	sp = bench_spread(u, s);
 	printf("targets (measured, target, ratio measured/target):\n");
@@ -274,8 +278,8 @@ int main(int argc, char **argv)
 	target("marches per point, demo 41x41 map", m2, 2.0, "", 0);
 	target("opwin map 41x41 on 2 threads (wall)", c2, 2.5, "s", 0);
 	if (c2 > 0.0)
-		target("opwin map speed-up 1 -> 2 threads", c1 / c2, 1.85,
-		       "x", 1);
+		target("opwin map speed-up 1 -> 2 threads", c1 / c2, 1.85, "x",
+		       1);
 	if (sp > 0.0)
 		target("sweep with a 3-input spread / nominal", sp, 8.0, "x",
 		       0);

@@ -19,13 +19,12 @@ int LLVMFuzzerTestOneInput(const uint8_t *data, size_t size)
 
 	if (!u && ow_units_create(&u, NULL) != OW_OK)
 		abort();
-	if (ow_csv_parse((const char *)data, size, "fuzz.csv", &c, &d) ==
-	    OW_OK)
+	if (ow_csv_parse((const char *)data, size, "fuzz.csv", &c, &d) == OW_OK)
 		(void)ow_csv_find(c, "viscosity", NULL, NULL);
 	ow_csv_destroy(c);
 	ow_diag_clear(&d);
 	(void)ow_fit_data_parse(u, (const char *)data, size, "fuzz.csv", &fd,
-				&d);
+	                        &d);
 	ow_fit_data_destroy(fd);
 	return 0;
 }

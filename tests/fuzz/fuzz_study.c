@@ -2,8 +2,8 @@
  * values, part files) on arbitrary bytes. The input is written to a file
  * of its own because the loader reads studies by path, in the folder
  * $OPWIN_FUZZ_DIR (make fuzz puts the corpus' part files around it:
- * parts/, ../screws/, ../resins/), else /tmp. Any input must give OW_OK or a message, never a
- * crash, a hang, a leak or undefined behaviour. */
+ * parts/, ../screws/, ../resins/), else /tmp. Any input must give OW_OK or a
+ * message, never a crash, a hang, a leak or undefined behaviour. */
 #include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -27,7 +27,7 @@ int LLVMFuzzerTestOneInput(const uint8_t *data, size_t size)
 		const char *dir = getenv("OPWIN_FUZZ_DIR");
 
 		snprintf(path, sizeof path, "%s/input.%ld.json",
-			 dir && *dir ? dir : "/tmp", (long)getpid());
+		         dir && *dir ? dir : "/tmp", (long)getpid());
 	}
 	f = fopen(path, "wb");
 	if (!f || fwrite(data, 1, size, f) != size || fclose(f) != 0)

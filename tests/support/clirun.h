@@ -7,9 +7,9 @@
 #include <stddef.h>
 
 struct cli_result {
-	int code;      /* exit code, -1 if it did not exit normally */
-	char *out;     /* stdout, malloc'd, NUL-terminated */
-	char *err;     /* stderr, malloc'd */
+	int code;  /* exit code, -1 if it did not exit normally */
+	char *out; /* stdout, malloc'd, NUL-terminated */
+	char *err; /* stderr, malloc'd */
 };
 
 /* Run `opwin <args>` (args is one shell-quoted string). */

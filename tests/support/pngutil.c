@@ -24,7 +24,7 @@ cairo_surface_t *ow_test_png_decode(const unsigned char *b, size_t n)
 {
 	struct reader r = {b, n, 0};
 	cairo_surface_t *s =
-		cairo_image_surface_create_from_png_stream(read_fn, &r);
+	    cairo_image_surface_create_from_png_stream(read_fn, &r);
 
 	assert_int_equal(cairo_surface_status(s), CAIRO_STATUS_SUCCESS);
 	return s;

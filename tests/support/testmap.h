@@ -14,7 +14,7 @@ struct ow_test_map {
 	struct ow_point centre;      /* solved at the window's centre */
 	struct ow_profile_row *rows; /* its profile along the screw */
 	int n_rows;
-	struct ow_map map;           /* a view of all of the above */
+	struct ow_map map; /* a view of all of the above */
 };
 
 /* Load the demo study, sweep it on rpm_steps x axis_steps with refine

@@ -14,23 +14,25 @@
 static struct ow_units *units;
 
 void ow_test_assert_rel(double a, double b, double tol, const char *expr,
-			const char *file, int line)
+                        const char *file, int line)
 {
 	double scale = fabs(b) > 1e-300 ? fabs(b) : 1e-300;
 
 	if (!(fabs(a - b) <= tol * scale)) {
-		fprintf(stderr, "%s:%d: %s = %.10g, expected %.10g (rel %.3g)\n",
-			file, line, expr, a, b, tol);
+		fprintf(stderr,
+		        "%s:%d: %s = %.10g, expected %.10g (rel %.3g)\n", file,
+		        line, expr, a, b, tol);
 		fail_msg("relative check failed at %s:%d", file, line);
 	}
 }
 
 void ow_test_assert_abs(double a, double b, double tol, const char *expr,
-			const char *file, int line)
+                        const char *file, int line)
 {
 	if (!(fabs(a - b) <= tol)) {
-		fprintf(stderr, "%s:%d: %s = %.10g, expected %.10g (abs %.3g)\n",
-			file, line, expr, a, b, tol);
+		fprintf(stderr,
+		        "%s:%d: %s = %.10g, expected %.10g (abs %.3g)\n", file,
+		        line, expr, a, b, tol);
 		fail_msg("absolute check failed at %s:%d", file, line);
 	}
 }
@@ -77,7 +79,7 @@ struct ow_study *ow_test_study(const char *path)
 }
 
 struct ow_point ow_test_solve(const struct ow_study *s, double rpm,
-			      const double *set_K)
+                              const double *set_K)
 {
 	struct ow_solver *sv = NULL;
 	struct ow_point pt;

@@ -19,16 +19,16 @@
 #endif
 
 /* Relative closeness |a - b| <= tol * max(|b|, tiny). */
-#define assert_rel(a, b, tol) \
+#define assert_rel(a, b, tol)                                                  \
 	ow_test_assert_rel((a), (b), (tol), #a, __FILE__, __LINE__)
 /* Absolute closeness. */
-#define assert_abs(a, b, tol) \
+#define assert_abs(a, b, tol)                                                  \
 	ow_test_assert_abs((a), (b), (tol), #a, __FILE__, __LINE__)
 
 void ow_test_assert_rel(double a, double b, double tol, const char *expr,
-			const char *file, int line);
+                        const char *file, int line);
 void ow_test_assert_abs(double a, double b, double tol, const char *expr,
-			const char *file, int line);
+                        const char *file, int line);
 
 /* The 63.5 mm square-pitch single-flight screw used in Tadmor & Klein's and
  * many textbook examples: e = 6.35 mm, one constant-depth section of depth
@@ -50,7 +50,7 @@ struct ow_study *ow_test_study(const char *path);
  * from a cold start; the test fails unless the point converged. */
 struct ow_point;
 struct ow_point ow_test_solve(const struct ow_study *s, double rpm,
-			      const double *set_K);
+                              const double *set_K);
 
 /* A melt-only test resin: power law m (Pa s^n), index n at 200 degC with
  * no temperature dependence (Arrhenius, zero activation energy), melt
