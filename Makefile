@@ -43,7 +43,7 @@ FONT     := /usr/share/fonts/truetype/dejavu/DejaVuSans.ttf
 
 .SECONDARY:
 .PHONY: all deps test check-run demo bench sanitize memcheck mutate lint format clean install \
-        layers format-deps \
+        layers format-deps format-check \
         fuzz fuzz-deps fuzz-run
 
 all: $(LIBA) $(OPWIN)
@@ -176,6 +176,11 @@ format-deps:
 
 format: format-deps
 	clang-format -i $(FORMAT_SRC)
+
+# Fails on any file clang-format would change (CI runs it).
+format-check: format-deps
+	@clang-format --dry-run -Werror $(FORMAT_SRC)
+	@echo "format-check: $(words $(FORMAT_SRC)) files as clang-format writes them"
 
 clean:
 	rm -rf build build-san build-fuzz lib/libopwin.a
