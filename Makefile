@@ -152,6 +152,10 @@ memcheck: deps
 	  --grid 3x3 --jobs 1 --spread "viscosity_scale=0.9..1.1" --samples 4 --quiet
 	$(VALGRIND) $(OPWIN) calibrate demo/study-si.json demo/line/line3-readings.csv \
 	  --free viscosity_scale -o build/memcheck-calibrated.json --jobs 1 --quiet >/dev/null
+	$(VALGRIND) $(OPWIN) report build/memcheck-map --units us --revision B \
+	  --current 40,200 >/dev/null
+	$(VALGRIND) $(OPWIN) compare tests/data/map-fast.json tests/data/map-fast.json \
+	  -o build/memcheck-compare --grid 3x3 --jobs 1 --quiet
 	@echo "memcheck: clean"
 
 lint:
