@@ -381,36 +381,40 @@ void ow_maps_mark_sweep_edges(const struct ow_plot *p,
 	ow_canvas_restore(p->cv);
 }
 
+void ow_maps_stroke_boundary(const struct ow_plot *p, const struct ow_study *s,
+                             const struct ow_boundary *bd,
+                             enum ow_unit_system u,
+                             const struct ow_line_style *halo,
+                             const struct ow_line_style *ln)
+{
+	int k;
+
+	for (k = 0; k < bd->n_lines; k++) {
+		struct ow_pt2 *pts =
+		    malloc((size_t)bd->lines[k].n * sizeof *pts);
+
+		if (!pts)
+			continue;
+		ow_maps_boundary_points(s, &bd->lines[k], u, pts);
+		ow_plot_polyline(p, pts, bd->lines[k].n, halo);
+		ow_plot_polyline(p, pts, bd->lines[k].n, ln);
+		free(pts);
+	}
+}
+
 void ow_maps_draw_edge(const struct ow_plot *p, const struct ow_study *s,
                        const struct ow_window *w, enum ow_unit_system u)
 {
-	struct ow_line_style st = {ow_rgb(1, 1, 1), 1.6, OW_DASH_SOLID,
-	                           OW_MARK_NONE};
-	int b, k;
+	const struct ow_line_style halo = {ow_rgb(1, 1, 1), 2.2, OW_DASH_SOLID,
+	                                   OW_MARK_NONE};
+	const struct ow_line_style ln = {ow_rgb(0, 0, 0), 0.9, OW_DASH_DASHED,
+	                                 OW_MARK_NONE};
+	int b;
 
-	for (b = 0; w && b < w->n_boundaries; b++) {
-		const struct ow_boundary *bd = &w->bounds[b];
-
-		if (bd->check != OW_WINDOW_EDGE)
-			continue;
-		for (k = 0; k < bd->n_lines; k++) {
-			struct ow_pt2 *pts =
-			    malloc((size_t)bd->lines[k].n * sizeof *pts);
-
-			if (!pts)
-				continue;
-			ow_maps_boundary_points(s, &bd->lines[k], u, pts);
-			st.colour = ow_rgb(1, 1, 1);
-			st.width_pt = 2.2;
-			st.dash = OW_DASH_SOLID;
-			ow_plot_polyline(p, pts, bd->lines[k].n, &st);
-			st.colour = ow_rgb(0, 0, 0);
-			st.width_pt = 0.9;
-			st.dash = OW_DASH_DASHED;
-			ow_plot_polyline(p, pts, bd->lines[k].n, &st);
-			free(pts);
-		}
-	}
+	for (b = 0; w && b < w->n_boundaries; b++)
+		if (w->bounds[b].check == OW_WINDOW_EDGE)
+			ow_maps_stroke_boundary(p, s, &w->bounds[b], u, &halo,
+			                        &ln);
 }
 
 /* A label box at (bx, by), w x h: white, bold text. */

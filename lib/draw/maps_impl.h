@@ -81,6 +81,13 @@ void ow_maps_boundary_points(const struct ow_study *s,
                              const struct ow_polyline *l, enum ow_unit_system u,
                              struct ow_pt2 *out);
 
+/* Each line of boundary bd: a halo stroke, then the line's own stroke. */
+void ow_maps_stroke_boundary(const struct ow_plot *p, const struct ow_study *s,
+                             const struct ow_boundary *bd,
+                             enum ow_unit_system u,
+                             const struct ow_line_style *halo,
+                             const struct ow_line_style *ln);
+
 /* The centre and the current point, marked and labelled with their
  * speed and set-point (brief: with their names only). */
 void ow_maps_draw_points(const struct ow_plot *p, const struct ow_study *s,

@@ -157,7 +157,7 @@ static const struct ow_boundary *boundary_of(const struct ow_window *w, int c)
 static void boundary_lines(const struct ow_plot *p, const struct ow_study *s,
                            const struct ow_window *w, enum ow_unit_system u)
 {
-	int c, k;
+	int c;
 
 	for (c = 0; c < OW_CK_COUNT; c++) {
 		const struct ow_boundary *bd = boundary_of(w, c);
@@ -166,19 +166,8 @@ static void boundary_lines(const struct ow_plot *p, const struct ow_study *s,
 		struct ow_line_style ln = {ink_of(c), 1.6, dash_of(c),
 		                           OW_MARK_NONE};
 
-		if (!bd || !shown(s, w, c))
-			continue;
-		for (k = 0; k < bd->n_lines; k++) {
-			struct ow_pt2 *pts =
-			    malloc((size_t)bd->lines[k].n * sizeof *pts);
-
-			if (!pts)
-				continue;
-			ow_maps_boundary_points(s, &bd->lines[k], u, pts);
-			ow_plot_polyline(p, pts, bd->lines[k].n, &halo);
-			ow_plot_polyline(p, pts, bd->lines[k].n, &ln);
-			free(pts);
-		}
+		if (bd && shown(s, w, c))
+			ow_maps_stroke_boundary(p, s, bd, u, &halo, &ln);
 	}
 }
 
